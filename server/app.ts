@@ -1,0 +1,92 @@
+import cookieParser from 'cookie-parser';
+import express, { Router, type Express } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import type { DataSource } from 'typeorm';
+import { z } from 'zod';
+import { AuthService } from './auth/auth.service';
+import { createAuthRouter } from './auth/auth.router';
+import { createCalendarRouter } from './calendar/calendar.router';
+import { CalendarService } from './calendar/calendar.service';
+import { NotFoundError } from './errors';
+import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
+import { defineRoute } from './http/route';
+import type { FakeSmtp } from './mail/fake-smtp';
+import { createMailRouter } from './mail/mail.router';
+import { createMasterDataRouter } from './master-data/master-data.router';
+import { MasterDataService } from './master-data/master-data.service';
+import { authenticate } from './middleware/authenticate';
+import { errorHandler } from './middleware/error-handler';
+import { createUsersRouter } from './users/users.router';
+import { UsersService } from './users/users.service';
+
+export interface AppOptions {
+  jwtSecret: string;
+  jwtTtl?: string;
+  loginFailureLimit?: number;
+  fakeSmtp?: FakeSmtp | null;
+  /** Folder of the built client to serve; omitted in API tests. */
+  clientDir?: string;
+}
+
+/** Builds the whole HTTP application over an open data source; never listens (tests use supertest). */
+export function createApp(dataSource: DataSource, options: AppOptions): Express {
+  const app = express();
+  const registry = createOpenApiRegistry();
+  const api = Router();
+
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Element Plus positions popovers with inline styles; scripts stay 'self' only.
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'upgrade-insecure-requests': null,
+        },
+      },
+    }),
+  );
+  app.use(express.json({ limit: '1mb' }));
+  app.use(cookieParser());
+  app.use('/api', authenticate(dataSource, options.jwtSecret));
+
+  defineRoute(api, registry, {
+    method: 'get',
+    path: '/health',
+    summary: 'Liveness check',
+    access: 'public',
+    response: z.object({ status: z.literal('ok') }),
+    handler: () => ({ status: 'ok' }),
+  });
+
+  const authService = new AuthService(dataSource, options.jwtSecret, options.jwtTtl ?? '8h');
+  api.use(createAuthRouter({ authService, registry, loginFailureLimit: options.loginFailureLimit ?? 10 }));
+  api.use(createUsersRouter(new UsersService(dataSource), registry));
+  api.use(createCalendarRouter(new CalendarService(dataSource), registry));
+  api.use(createMasterDataRouter(new MasterDataService(dataSource), registry));
+  api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
+
+  const openApiDocument = generateOpenApiDocument(registry);
+  api.get('/openapi.json', (_req, res) => {
+    res.json(openApiDocument);
+  });
+  api.use(() => {
+    throw new NotFoundError('No such API route.');
+  });
+  app.use('/api', api);
+
+  if (options.clientDir && existsSync(join(options.clientDir, 'index.html'))) {
+    const clientDir = options.clientDir;
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => {
+      res.sendFile(join(clientDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,44 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import type { Calendar } from '../../shared/schemas/master-data';
+import { recordAudit } from '../audit/audit.service';
+import { bumpPlanningVersion, readSetting, writeSetting } from '../settings/settings.service';
+import { HolidayEntity } from './holiday.entity';
+
+const WORKING_WEEKDAYS = 'workingWeekdays';
+export const DEFAULT_WORKING_WEEKDAYS = [1, 2, 3, 4, 5];
+
+/** The plant calendar as published by GET /api/calendar. */
+export async function readCalendar(manager: EntityManager): Promise<Calendar> {
+  const workingWeekdays = await readSetting<number[]>(manager, WORKING_WEEKDAYS, DEFAULT_WORKING_WEEKDAYS);
+  const holidays = await manager.find(HolidayEntity, { order: { date: 'ASC' } });
+  return { workingWeekdays, holidays: holidays.map((holiday) => holiday.date) };
+}
+
+/** Replaces the calendar whole; every lead-time offset moves with it. */
+export async function writeCalendar(manager: EntityManager, calendar: Calendar): Promise<Calendar> {
+  const workingWeekdays = [...calendar.workingWeekdays].sort((a, b) => a - b);
+  await writeSetting(manager, WORKING_WEEKDAYS, workingWeekdays);
+  await manager.clear(HolidayEntity);
+  if (calendar.holidays.length > 0) {
+    await manager.insert(HolidayEntity, calendar.holidays.map((date) => ({ date, name: '' })));
+  }
+  await bumpPlanningVersion(manager);
+  return readCalendar(manager);
+}
+
+export class CalendarService {
+  constructor(private readonly dataSource: DataSource) {}
+
+  get(): Promise<Calendar> {
+    return readCalendar(this.dataSource.manager);
+  }
+
+  update(calendar: Calendar, actorEmail: string): Promise<Calendar> {
+    return this.dataSource.transaction(async (manager) => {
+      const before = await readCalendar(manager);
+      const after = await writeCalendar(manager, calendar);
+      await recordAudit(manager, { actorEmail, action: 'update', entity: 'calendar', entityKey: 'plant', changes: { before, after } });
+      return after;
+    });
+  }
+}

@@ -1,0 +1,4 @@
+import { InitialSchema1764626400000 } from './1764626400000-initial-schema';
+
+/** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
+export const migrations = [InitialSchema1764626400000];

@@ -1,0 +1,74 @@
+import { dirname, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { createApp } from './app';
+import { ensureClientBuilt } from './client-build';
+import { loadConfig } from './config';
+import { openDatabase } from './db/data-source';
+import { startJobs } from './jobs/scheduler';
+import { startFakeSmtp } from './mail/fake-smtp';
+import { OutboxDispatcher } from './mail/outbox.service';
+import { ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
+import { DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
+
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const clientDir = await ensureClientBuilt(root);
+  const dataSource = await openDatabase(resolve(root, config.DATABASE_PATH));
+
+  const fakeSmtp = config.SMTP_URL ? null : await startFakeSmtp();
+  const smtpUrl = config.SMTP_URL ?? fakeSmtp!.url;
+
+  let demoSignIns: string[] = [];
+  if (config.SEED_DEMO === '1') {
+    if (await isDatabaseEmpty(dataSource)) {
+      console.log('Empty database: seeding the demo scenario…');
+      await seedDemoScenario(dataSource, new Date().toISOString().slice(0, 10));
+    }
+    demoSignIns = await listDemoSignIns(dataSource);
+  } else {
+    await ensureAdmin(dataSource, config.ADMIN_EMAIL!, config.ADMIN_PASSWORD!);
+  }
+
+  const dispatcher = new OutboxDispatcher(dataSource, smtpUrl, config.MAIL_FROM);
+  const jobs = startJobs(dispatcher);
+  const app = createApp(dataSource, { jwtSecret: config.jwtSecret, jwtTtl: config.JWT_TTL, loginFailureLimit: config.LOGIN_RATE_LIMIT, fakeSmtp, clientDir });
+  const server = app.listen(config.PORT, () => {
+    console.log(`Cardloop is running on http://localhost:${config.PORT}`);
+    console.log(`Database: ${config.DATABASE_PATH}; mail: ${fakeSmtp ? `embedded fake SMTP at ${fakeSmtp.url}` : 'SMTP_URL'}`);
+    if (config.jwtSecretGenerated) console.log('JWT_SECRET is not set: sessions end when the server restarts.');
+    if (demoSignIns.length > 0) {
+      console.log(`Demo sign-ins (password "${DEMO_PASSWORD}"):`);
+      for (const line of demoSignIns) console.log(`  ${line}`);
+    }
+  });
+
+  let stopping = false;
+  const shutdown = async (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    console.log(`${signal}: shutting down…`);
+    for (const job of jobs) await job.stop();
+    server.close();
+    server.closeAllConnections();
+    dispatcher.close();
+    await fakeSmtp?.close();
+    await dataSource.destroy();
+    process.exit(0);
+  };
+  process.on('SIGTERM', () => void shutdown('SIGTERM'));
+  process.on('SIGINT', () => void shutdown('SIGINT'));
+}
+
+async function listDemoSignIns(dataSource: import('typeorm').DataSource): Promise<string[]> {
+  const rows: { email: string; role: string; supplier_code: string | null }[] = await dataSource.query(
+    'SELECT email, role, supplier_code FROM "user" WHERE active = 1 ORDER BY CASE role WHEN \'supplier\' THEN 1 ELSE 0 END, id',
+  );
+  return rows.map((row) => `${row.role.padEnd(10)} ${row.email}${row.supplier_code ? `  (${row.supplier_code})` : ''}`);
+}
+
+main().catch((error) => {
+  console.error(error instanceof Error ? error.message : error);
+  process.exit(1);
+});

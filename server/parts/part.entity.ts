@@ -1,0 +1,46 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+@Entity('part')
+export class PartEntity {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Index({ unique: true })
+  @Column({ name: 'part_number', type: 'varchar', length: 40 })
+  partNumber: string;
+
+  @Column({ type: 'varchar', length: 200 })
+  description: string;
+
+  /** UN/ECE Recommendation 20 unit code (H87 piece, KGM, MTR, LTR…). */
+  @Column({ type: 'varchar', length: 3, default: 'H87' })
+  uom: string;
+
+  @Column({ type: 'varchar', length: 10 })
+  source: string;
+
+  @Index()
+  @Column({ name: 'supplier_code', type: 'varchar', length: 20, nullable: true })
+  supplierCode: string | null;
+
+  @Column({ name: 'lead_time_days', type: 'integer', default: 0 })
+  leadTimeDays: number;
+
+  @Column({ name: 'pack_qty', type: 'double precision', default: 1 })
+  packQty: number;
+
+  @Column({ name: 'on_hand', type: 'double precision', default: 0 })
+  onHand: number;
+
+  @Column({ type: 'varchar', length: 10, nullable: true })
+  replenishment: string | null;
+
+  @Column({ name: 'safety_stock', type: 'double precision', default: 0 })
+  safetyStock: number;
+
+  @Column({ name: 'point_of_use', type: 'varchar', length: 40, nullable: true })
+  pointOfUse: string | null;
+
+  @Column({ type: 'boolean', default: false })
+  hazardous: boolean;
+}

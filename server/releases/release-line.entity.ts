@@ -1,0 +1,40 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+@Entity('release_line')
+export class ReleaseLineEntity {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Index()
+  @Column({ name: 'release_id', type: 'integer' })
+  releaseId: number;
+
+  @Index()
+  @Column({ name: 'part_number', type: 'varchar', length: 40 })
+  partNumber: string;
+
+  @Column({ type: 'double precision' })
+  qty: number;
+
+  @Column({ name: 'need_date', type: 'varchar', length: 10 })
+  needDate: string;
+
+  /** `kanban` when an empty card asked for it, `plan` when a planned release of a scheduled part did. */
+  @Column({ type: 'varchar', length: 10 })
+  origin: string;
+
+  @Column({ name: 'card_id', type: 'integer', nullable: true })
+  cardId: number | null;
+
+  @Column({ name: 'confirmed_qty', type: 'double precision', nullable: true })
+  confirmedQty: number | null;
+
+  @Column({ name: 'ship_date', type: 'varchar', length: 10, nullable: true })
+  shipDate: string | null;
+
+  @Column({ name: 'received_qty', type: 'double precision', default: 0 })
+  receivedQty: number;
+
+  @Column({ type: 'boolean', default: false })
+  closed: boolean;
+}

@@ -1,0 +1,41 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+/** One release per supplier per day; states draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
+@Entity('release')
+@Index(['supplierCode', 'releaseDate'], { unique: true })
+export class ReleaseEntity {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Index({ unique: true })
+  @Column({ type: 'varchar', length: 30 })
+  number: string;
+
+  @Column({ name: 'supplier_code', type: 'varchar', length: 20 })
+  supplierCode: string;
+
+  @Column({ name: 'release_date', type: 'varchar', length: 10 })
+  releaseDate: string;
+
+  @Column({ type: 'varchar', length: 12, default: 'draft' })
+  status: string;
+
+  @Column({ name: 'sent_at', type: 'varchar', length: 30, nullable: true })
+  sentAt: string | null;
+
+  @Column({ name: 'confirmed_at', type: 'varchar', length: 30, nullable: true })
+  confirmedAt: string | null;
+
+  @Column({ type: 'varchar', length: 60, nullable: true })
+  carrier: string | null;
+
+  @Column({ name: 'tracking_number', type: 'varchar', length: 60, nullable: true })
+  trackingNumber: string | null;
+
+  @Column({ name: 'supplier_note', type: 'text', nullable: true })
+  supplierNote: string | null;
+
+  /** Column of the receiving board: expected, at_dock, counted, to_line. */
+  @Column({ name: 'dock_column', type: 'varchar', length: 12, default: 'expected' })
+  dockColumn: string;
+}

@@ -1,0 +1,25 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+/** One unit slot of the daily build sequence, keyed by its serial. */
+@Entity('sequence_entry')
+@Index(['date', 'sequence'])
+export class SequenceEntryEntity {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ type: 'varchar', length: 10 })
+  date: string;
+
+  @Column({ type: 'integer' })
+  sequence: number;
+
+  @Column({ type: 'varchar', length: 40 })
+  model: string;
+
+  @Index({ unique: true })
+  @Column({ type: 'varchar', length: 40 })
+  serial: string;
+
+  @Column({ type: 'integer', default: 1 })
+  qty: number;
+}

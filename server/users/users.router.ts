@@ -1,0 +1,48 @@
+import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import { Router } from 'express';
+import { z } from 'zod';
+import {
+  createUserRequestSchema,
+  updateUserRequestSchema,
+  userIdParamsSchema,
+  userSchema,
+} from '../../shared/schemas/user';
+import { defineRoute } from '../http/route';
+import type { UsersService } from './users.service';
+
+export function createUsersRouter(usersService: UsersService, registry: OpenAPIRegistry): Router {
+  const router = Router();
+
+  defineRoute(router, registry, {
+    method: 'get',
+    path: '/users',
+    summary: 'All user accounts',
+    access: ['admin'],
+    response: z.array(userSchema),
+    handler: () => usersService.list(),
+  });
+
+  defineRoute(router, registry, {
+    method: 'post',
+    path: '/users',
+    summary: 'Add a user account',
+    access: ['admin'],
+    body: createUserRequestSchema,
+    response: userSchema,
+    status: 201,
+    handler: ({ body, user }) => usersService.create(body, user),
+  });
+
+  defineRoute(router, registry, {
+    method: 'patch',
+    path: '/users/:id',
+    summary: 'Change a user’s role, password or whether it may sign in',
+    access: ['admin'],
+    params: userIdParamsSchema,
+    body: updateUserRequestSchema,
+    response: userSchema,
+    handler: ({ params, body, user }) => usersService.update(params.id, body, user),
+  });
+
+  return router;
+}

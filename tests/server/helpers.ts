@@ -1,0 +1,55 @@
+import type { Express } from 'express';
+import request from 'supertest';
+import type { DataSource } from 'typeorm';
+import type { Role } from '../../shared/schemas/user';
+import { createApp, type AppOptions } from '../../server/app';
+import { hashPassword } from '../../server/auth/passwords';
+import { openDatabase } from '../../server/db/data-source';
+import { SupplierEntity } from '../../server/suppliers/supplier.entity';
+import { UserEntity } from '../../server/users/user.entity';
+
+export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
+export const TEST_PASSWORD = 'correct-horse-battery';
+
+export interface TestContext {
+  app: Express;
+  dataSource: DataSource;
+  /** Bearer tokens of one user per role; the supplier user belongs to supplier `SUP-A`. */
+  tokens: Record<Role, string>;
+  close(): Promise<void>;
+}
+
+let sharedHash: Promise<string> | undefined;
+
+/** A fresh in-memory database with two suppliers and one signed-in user per role. */
+export async function createTestContext(options: Partial<AppOptions> = {}): Promise<TestContext> {
+  const dataSource = await openDatabase(':memory:');
+  const app = createApp(dataSource, { jwtSecret: TEST_SECRET, loginFailureLimit: 5, ...options });
+  sharedHash ??= hashPassword(TEST_PASSWORD);
+  const passwordHash = await sharedHash;
+  await dataSource.getRepository(SupplierEntity).insert([
+    { code: 'SUP-A', name: 'Supplier A', email: 'orders@supplier-a.example.com', leadTimeDays: 3, cycleDays: 1, deliveriesPerCycle: 1, deliveryDelay: 1 },
+    { code: 'SUP-B', name: 'Supplier B', email: 'orders@supplier-b.example.net', leadTimeDays: 5, cycleDays: 5, deliveriesPerCycle: 2, deliveryDelay: 1 },
+  ]);
+  const roles: Role[] = ['admin', 'planner', 'buyer', 'receiving', 'supplier', 'viewer'];
+  await dataSource.getRepository(UserEntity).insert(
+    roles.map((role) => ({
+      email: `${role}@example.com`,
+      name: `Test ${role}`,
+      role,
+      passwordHash,
+      supplierCode: role === 'supplier' ? 'SUP-A' : null,
+    })),
+  );
+  const tokens = {} as Record<Role, string>;
+  for (const role of roles) tokens[role] = await signIn(app, `${role}@example.com`, TEST_PASSWORD);
+  return { app, dataSource, tokens, close: () => dataSource.destroy() };
+}
+
+export async function signIn(app: Express, email: string, password: string): Promise<string> {
+  const response = await request(app).post('/api/auth/login').send({ email, password });
+  if (response.status !== 200) throw new Error(`sign-in of ${email} failed: ${response.status}`);
+  return response.body.token as string;
+}
+
+export const bearer = (token: string) => ({ Authorization: `Bearer ${token}` });

@@ -1,0 +1,52 @@
+/// <reference types="vitest/config" />
+import { fileURLToPath, URL } from 'node:url';
+import { defineConfig } from 'vite';
+import vue from '@vitejs/plugin-vue';
+import AutoImport from 'unplugin-auto-import/vite';
+import Components from 'unplugin-vue-components/vite';
+import { ElementPlusResolver } from 'unplugin-vue-components/resolvers';
+
+const serverPort = Number(process.env.PORT ?? 3000);
+
+export default defineConfig({
+  plugins: [
+    vue(),
+    AutoImport({ resolvers: [ElementPlusResolver()], dts: false }),
+    Components({ resolvers: [ElementPlusResolver()], dts: false }),
+  ],
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./src', import.meta.url)),
+      '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+    },
+  },
+  server: {
+    proxy: { '/api': `http://localhost:${serverPort}` },
+  },
+  build: {
+    outDir: 'dist',
+    chunkSizeWarningLimit: 1200,
+  },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: { name: 'shared', include: ['tests/shared/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'server',
+          include: ['tests/server/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 20000,
+          hookTimeout: 30000,
+        },
+      },
+      {
+        extends: true,
+        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'happy-dom' },
+      },
+    ],
+  },
+});
