@@ -13,11 +13,15 @@ import { NotFoundError } from './errors';
 import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
 import { defineRoute } from './http/route';
 import type { FakeSmtp } from './mail/fake-smtp';
+import { createKanbanRouter } from './kanban/kanban.router';
 import { createMailRouter } from './mail/mail.router';
 import { createMasterDataRouter } from './master-data/master-data.router';
 import { MasterDataService } from './master-data/master-data.service';
 import { authenticate } from './middleware/authenticate';
+import { createPlanningRouter } from './planning/planning.router';
+import { PlanningService } from './planning/planning.service';
 import { errorHandler } from './middleware/error-handler';
+import { createImportsRouter } from './imports/imports.router';
 import { createUsersRouter } from './users/users.router';
 import { UsersService } from './users/users.service';
 
@@ -68,6 +72,10 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   api.use(createUsersRouter(new UsersService(dataSource), registry));
   api.use(createCalendarRouter(new CalendarService(dataSource), registry));
   api.use(createMasterDataRouter(new MasterDataService(dataSource), registry));
+  api.use(createImportsRouter(dataSource, registry));
+  const planning = new PlanningService(dataSource);
+  api.use(createPlanningRouter(planning, registry));
+  api.use(createKanbanRouter(dataSource, planning, registry));
   api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
 
   const openApiDocument = generateOpenApiDocument(registry);

@@ -1,0 +1,51 @@
+/*
+ * Opening stock of the demo. Ordinary bought parts hold 12–20 days of their own demand, so none
+ * runs out inside the first two working weeks; the parts below are deliberately thin so that
+ * Line risk has real shortages to show, the first one a hazardous battery.
+ */
+
+/** Days of demand held by the deliberately short parts (each also gets half the next day's need). */
+export const SHORT_COVER_DAYS: Record<string, number> = {
+  'BAT-06-312': 4,
+  'TNK-R60': 3,
+  'HNS-M26': 5,
+  'CTL-W24': 6,
+};
+
+const MIN_COVER_DAYS = 12;
+const COVER_SPREAD_DAYS = 9;
+
+/** A stable 12–20 day cover per part number, so stock levels differ without any randomness. */
+export function normalCoverDays(partNumber: string): number {
+  let hash = 0;
+  for (const char of partNumber) hash = (hash * 31 + char.charCodeAt(0)) % 9973;
+  return MIN_COVER_DAYS + (hash % COVER_SPREAD_DAYS);
+}
+
+/** The days on which a part is needed at all, in order (a new part after a change starts late). */
+function activeDemand(perDay: number[]): number[] {
+  return perDay.filter((qty) => qty > 0);
+}
+
+function roundQty(qty: number): number {
+  // Float sums of kilograms and metres carry noise in the last bits; settle them before rounding.
+  return Math.round(qty * 1e6) / 1e6;
+}
+
+/** On-hand covering the part's first `coverDays` days of need, rounded up to whole packs. */
+export function coveringStock(perDay: number[], coverDays: number, packQty: number): number {
+  const need = roundQty(activeDemand(perDay).slice(0, coverDays).reduce((sum, qty) => sum + qty, 0));
+  return Math.ceil(need / packQty) * packQty;
+}
+
+/** On-hand of a short part: `coverDays` full days and half of the next, so it runs out mid-shift. */
+export function shortStock(perDay: number[], coverDays: number): number {
+  const active = activeDemand(perDay);
+  const full = active.slice(0, coverDays).reduce((sum, qty) => sum + qty, 0);
+  return Math.floor(roundQty(full + (active[coverDays] ?? 0) / 2));
+}
+
+/** On-hand of a made part: what its own lead time consumes, so its first orders are not past due. */
+export function madeStock(perDay: number[], leadTimeDays: number): number {
+  return Math.ceil(roundQty(activeDemand(perDay).slice(0, leadTimeDays).reduce((sum, qty) => sum + qty, 0)));
+}

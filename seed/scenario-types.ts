@@ -1,0 +1,65 @@
+import type { IsoDate, PartSource, PlantCalendar, Replenishment } from '../shared/domain/types';
+
+/** UN/ECE Recommendation 20 unit codes used by the demo: piece, kilogram, metre, litre. */
+export type DemoUom = 'H87' | 'KGM' | 'MTR' | 'LTR';
+
+export type DemoRole = 'admin' | 'planner' | 'buyer' | 'receiving' | 'viewer' | 'supplier';
+
+export interface DemoSupplier {
+  code: string;
+  name: string;
+  email: string;
+  leadTimeDays: number;
+  cycleDays: number;
+  deliveriesPerCycle: number;
+  deliveryDelay: number;
+}
+
+export interface DemoPart {
+  partNumber: string;
+  description: string;
+  uom: DemoUom;
+  source: PartSource;
+  supplierCode: string | null;
+  leadTimeDays: number;
+  packQty: number;
+  onHand: number;
+  replenishment: Replenishment | null;
+  safetyStock: number;
+  pointOfUse: string | null;
+  hazardous: boolean;
+}
+
+export interface DemoBomLine {
+  parent: string;
+  component: string;
+  qtyPer: number;
+  scrapPct: number;
+  effectiveFrom: IsoDate | null;
+  effectiveTo: IsoDate | null;
+}
+
+export interface DemoSequenceSlot {
+  date: IsoDate;
+  sequence: number;
+  model: string;
+  serial: string;
+  qty: 1;
+}
+
+export interface DemoUser {
+  email: string;
+  name: string;
+  role: DemoRole;
+  supplierCode: string | null;
+}
+
+/** The whole invented demo data set, plain data ready to persist. */
+export interface DemoScenario {
+  calendar: PlantCalendar;
+  suppliers: DemoSupplier[];
+  parts: DemoPart[];
+  bom: DemoBomLine[];
+  sequence: DemoSequenceSlot[];
+  users: DemoUser[];
+}

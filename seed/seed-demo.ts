@@ -1,0 +1,34 @@
+import type { DataSource } from 'typeorm';
+import { recordAudit } from '../server/audit/audit.service';
+import { hashPassword } from '../server/auth/passwords';
+import { writeCalendar } from '../server/calendar/calendar.service';
+import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../server/master-data/master-data.writer';
+import { UserEntity } from '../server/users/user.entity';
+import { buildDemoScenario } from './scenario';
+
+/** Every demo account shares this password; it exists only in the demo database. */
+export const DEMO_PASSWORD = 'cardloop-demo';
+
+/** Writes the invented demo plant into an empty database in one transaction. */
+export async function seedDemoScenario(dataSource: DataSource, seedDay: string): Promise<void> {
+  const scenario = buildDemoScenario(seedDay);
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  await dataSource.transaction(async (manager) => {
+    await writeCalendar(manager, scenario.calendar);
+    await upsertSuppliers(manager, scenario.suppliers);
+    await upsertParts(manager, scenario.parts);
+    await replaceBomLines(manager, scenario.bom);
+    await upsertSequenceEntries(manager, scenario.sequence);
+    await manager.insert(
+      UserEntity,
+      scenario.users.map((user) => ({ ...user, passwordHash, active: true })),
+    );
+    await recordAudit(manager, {
+      actorEmail: null,
+      action: 'seed',
+      entity: 'scenario',
+      entityKey: seedDay,
+      changes: { suppliers: scenario.suppliers.length, parts: scenario.parts.length, units: scenario.sequence.length },
+    });
+  });
+}

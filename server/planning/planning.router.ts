@@ -1,0 +1,40 @@
+import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import { Router } from 'express';
+import { demandQuerySchema, demandResponseSchema, planQuerySchema, planResponseSchema } from '../../shared/schemas/planning';
+import { defineRoute } from '../http/route';
+import { READ_ROLES } from '../http/roles';
+import { demandToCsv } from './demand-csv';
+import type { PlanningService } from './planning.service';
+
+export function createPlanningRouter(planning: PlanningService, registry: OpenAPIRegistry): Router {
+  const router = Router();
+
+  defineRoute(router, registry, {
+    method: 'get',
+    path: '/plan',
+    summary: 'Gross-to-net buckets of one part, one per working day from `from` to `to`',
+    access: READ_ROLES,
+    query: planQuerySchema,
+    response: planResponseSchema,
+    handler: ({ query }) => planning.partPlan(query.part, query.from, query.to),
+  });
+
+  defineRoute(router, registry, {
+    method: 'get',
+    path: '/demand',
+    summary: 'Gross demand of bought parts per working day (JSON, or CSV with format=csv)',
+    access: READ_ROLES,
+    query: demandQuerySchema,
+    response: demandResponseSchema,
+    produces: ['text/csv'],
+    handler: async ({ query, res }) => {
+      const demand = await planning.demand({ from: query.from, to: query.to, supplierCode: query.supplier });
+      if (query.format !== 'csv') return demand;
+      const name = `demand-${demand.days[0] ?? 'empty'}${query.supplier ? `-${query.supplier}` : ''}.csv`;
+      res.type('text/csv').attachment(name).send(demandToCsv(demand));
+      return undefined;
+    },
+  });
+
+  return router;
+}

@@ -1,0 +1,96 @@
+import type { DataSource } from 'typeorm';
+import { BomCycleError, computePlan, grossDemandByDay, PlanInputError } from '../../shared/domain/plan';
+import type { PlanResult } from '../../shared/domain/types';
+import type { DemandResponse, PlanResponse } from '../../shared/schemas/planning';
+import { BadRequestError, ConflictError, NotFoundError } from '../errors';
+import { SupplierEntity } from '../suppliers/supplier.entity';
+import { readPlanningVersion } from '../settings/settings.service';
+import { loadPlanInputs, type PlanInputs } from './plan-inputs';
+import { resolveHorizon } from './plan-dates';
+
+interface CachedPlan {
+  inputs: PlanInputs;
+  result: PlanResult;
+}
+
+const MAX_CACHED_HORIZONS = 8;
+
+/**
+ * Serves plans from a cache keyed by the planning data version: inputs are read and the engine
+ * run again only after something that feeds the plan has changed.
+ */
+export class PlanningService {
+  private version = -1;
+  private inputs: Promise<PlanInputs> | null = null;
+  private readonly plans = new Map<string, CachedPlan>();
+
+  constructor(private readonly dataSource: DataSource) {}
+
+  /** The plan over a horizon (defaults: next working day, 20 working days). */
+  async plan(from?: string, to?: string): Promise<CachedPlan & { from: string; to: string }> {
+    const inputs = await this.currentInputs();
+    const horizon = resolveHorizon(inputs.calendar, from, to);
+    const key = `${horizon.from}|${horizon.to}`;
+    let cached = this.plans.get(key);
+    if (!cached) {
+      cached = { inputs, result: this.run(inputs, horizon.from, horizon.to) };
+      if (this.plans.size >= MAX_CACHED_HORIZONS) this.plans.delete(this.plans.keys().next().value!);
+      this.plans.set(key, cached);
+    }
+    return { ...cached, ...horizon };
+  }
+
+  async partPlan(partNumber: string, from?: string, to?: string): Promise<PlanResponse> {
+    const { inputs, result } = await this.plan(from, to);
+    const part = inputs.parts.find((candidate) => candidate.partNumber === partNumber);
+    const plan = result.parts.get(partNumber);
+    if (!part || !plan) throw new NotFoundError(`No part ${partNumber}.`);
+    return {
+      part: {
+        partNumber: part.partNumber,
+        description: part.description,
+        uom: part.uom,
+        source: part.source,
+        supplierCode: part.supplierCode ?? null,
+        leadTimeDays: part.leadTimeDays,
+        packQty: part.packQty,
+        onHand: part.onHand,
+        safetyStock: part.safetyStock,
+        lowLevelCode: plan.lowLevelCode,
+      },
+      buckets: plan.buckets,
+      pastDue: plan.pastDue,
+    };
+  }
+
+  async demand(options: { from?: string; to?: string; supplierCode?: string }): Promise<DemandResponse> {
+    const { inputs, result } = await this.plan(options.from, options.to);
+    if (options.supplierCode && !(await this.dataSource.getRepository(SupplierEntity).existsBy({ code: options.supplierCode }))) {
+      throw new NotFoundError(`No supplier ${options.supplierCode}.`);
+    }
+    return grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode });
+  }
+
+  private async currentInputs(): Promise<PlanInputs> {
+    const version = await readPlanningVersion(this.dataSource.manager);
+    if (version !== this.version || !this.inputs) {
+      this.version = version;
+      this.plans.clear();
+      this.inputs = loadPlanInputs(this.dataSource.manager);
+      this.inputs.catch(() => {
+        this.inputs = null;
+      });
+    }
+    return this.inputs;
+  }
+
+  private run(inputs: PlanInputs, from: string, to: string): PlanResult {
+    try {
+      return computePlan({ ...inputs, from, to });
+    } catch (error) {
+      if (error instanceof BomCycleError) throw new ConflictError(`The BOM cannot be planned: ${error.message}.`);
+      if (error instanceof PlanInputError) throw new BadRequestError(error.message);
+      throw error;
+    }
+  }
+}

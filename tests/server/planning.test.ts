@@ -1,0 +1,143 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeCalendar } from '../../server/calendar/calendar.service';
+import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
+import type { Part } from '../../shared/schemas/master-data';
+import { bearer, createTestContext, type TestContext } from './helpers';
+
+let context: TestContext;
+
+const part = (partNumber: string, overrides: Partial<Part>): Part => ({
+  partNumber,
+  description: partNumber,
+  uom: 'H87',
+  source: 'buy',
+  supplierCode: 'SUP-A',
+  leadTimeDays: 0,
+  packQty: 1,
+  onHand: 0,
+  replenishment: 'kanban',
+  safetyStock: 0,
+  pointOfUse: null,
+  hazardous: false,
+  ...overrides,
+});
+
+// A two-level structure small enough to net by hand: one model M, 2 × C per unit (C bought in
+// packs of 10 with 5 on hand and a 2-working-day lead time), 1 × D per unit from supplier B.
+beforeAll(async () => {
+  context = await createTestContext();
+  await context.dataSource.transaction(async (manager) => {
+    await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-12-25'] });
+    await upsertParts(manager, [
+      part('M', { source: 'end_item', supplierCode: null, replenishment: null }),
+      part('C', { packQty: 10, onHand: 5, leadTimeDays: 2 }),
+      part('D', { supplierCode: 'SUP-B', onHand: 100 }),
+    ]);
+    await replaceBomLines(manager, [
+      { parent: 'M', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+      { parent: 'M', component: 'D', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+    ]);
+    // Mon 21 Dec: 2 units, Tue 22: 1 unit, Mon 28: 3 units (24–25 Dec: Thu, holiday Fri).
+    await upsertSequenceEntries(manager, [
+      { date: '2026-12-21', sequence: 1, model: 'M', serial: 'S1', qty: 1 },
+      { date: '2026-12-21', sequence: 2, model: 'M', serial: 'S2', qty: 1 },
+      { date: '2026-12-22', sequence: 1, model: 'M', serial: 'S3', qty: 1 },
+      { date: '2026-12-28', sequence: 1, model: 'M', serial: 'S4', qty: 3 },
+    ]);
+  });
+});
+afterAll(() => context.close());
+
+describe('GET /api/plan', () => {
+  it('returns one bucket per working day with gross-to-net figures worked by hand', async () => {
+    const response = await request(context.app)
+      .get('/api/plan')
+      .query({ part: 'C', from: '2026-12-21', to: '2026-12-28' })
+      .set(bearer(context.tokens.viewer));
+
+    expect(response.status).toBe(200);
+    expect(response.body.part).toMatchObject({ partNumber: 'C', packQty: 10, leadTimeDays: 2, lowLevelCode: 1 });
+    const dates = response.body.buckets.map((bucket: { date: string }) => bucket.date);
+    expect(dates).toEqual(['2026-12-21', '2026-12-22', '2026-12-23', '2026-12-24', '2026-12-28']);
+    // Day 1: gross 4, 5 on hand → 1 left. Day 2: gross 2, short 1 → receive one pack of 10 → 9.
+    // Day 5: gross 6, 9 on hand → 3. Release 2 working days before 22 Dec = 18 Dec → past due.
+    const c = response.body.buckets;
+    expect(c.map((bucket: { gross: number }) => bucket.gross)).toEqual([4, 2, 0, 0, 6]);
+    expect(c.map((bucket: { projectedAvailable: number }) => bucket.projectedAvailable)).toEqual([1, 9, 9, 9, 3]);
+    expect(c.map((bucket: { net: number }) => bucket.net)).toEqual([0, 1, 0, 0, 0]);
+    expect(c.map((bucket: { plannedReceipt: number }) => bucket.plannedReceipt)).toEqual([0, 10, 0, 0, 0]);
+    expect(response.body.pastDue).toEqual([{ date: '2026-12-18', qty: 10 }]);
+  });
+
+  it('answers 404 for an unknown part and 400 for a reversed horizon', async () => {
+    const unknown = await request(context.app).get('/api/plan').query({ part: 'NOPE' }).set(bearer(context.tokens.buyer));
+    const reversed = await request(context.app)
+      .get('/api/plan')
+      .query({ part: 'C', from: '2026-12-28', to: '2026-12-21' })
+      .set(bearer(context.tokens.buyer));
+
+    expect(unknown.status).toBe(404);
+    expect(reversed.status).toBe(400);
+  });
+
+  it('recomputes after an input changes and not before', async () => {
+    const query = { part: 'C', from: '2026-12-21', to: '2026-12-28' };
+    const before = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
+
+    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'C', onHand: 50 }]));
+    const after = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
+
+    expect(before.body.buckets[0].projectedAvailable).toBe(1);
+    expect(after.body.buckets[0].projectedAvailable).toBe(46);
+    expect(after.body.pastDue).toEqual([]);
+    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'C', onHand: 5 }]));
+  });
+
+  it('is refused to a supplier account', async () => {
+    const response = await request(context.app).get('/api/plan').query({ part: 'C' }).set(bearer(context.tokens.supplier));
+
+    expect(response.status).toBe(403);
+  });
+});
+
+describe('GET /api/demand', () => {
+  it('lists gross demand of bought parts by day, filtered by supplier', async () => {
+    const all = await request(context.app)
+      .get('/api/demand')
+      .query({ from: '2026-12-21', to: '2026-12-28' })
+      .set(bearer(context.tokens.buyer));
+    const supplierB = await request(context.app)
+      .get('/api/demand')
+      .query({ from: '2026-12-21', to: '2026-12-28', supplier: 'SUP-B' })
+      .set(bearer(context.tokens.buyer));
+
+    expect(all.status).toBe(200);
+    expect(all.body.rows.map((row: { partNumber: string }) => row.partNumber)).toEqual(['C', 'D']);
+    expect(supplierB.body.rows).toEqual([
+      {
+        partNumber: 'D',
+        supplierCode: 'SUP-B',
+        total: 6,
+        byDay: { '2026-12-21': 2, '2026-12-22': 1, '2026-12-23': 0, '2026-12-24': 0, '2026-12-28': 3 },
+      },
+    ]);
+  });
+
+  it('exports the same figures as CSV', async () => {
+    const response = await request(context.app)
+      .get('/api/demand')
+      .query({ from: '2026-12-21', to: '2026-12-22', format: 'csv' })
+      .set(bearer(context.tokens.buyer));
+
+    expect(response.status).toBe(200);
+    expect(response.headers['content-type']).toMatch(/^text\/csv/);
+    expect(response.text.split('\r\n')).toEqual(['part_number,supplier_code,2026-12-21,2026-12-22,total', 'C,SUP-A,4,2,6', 'D,SUP-B,2,1,3']);
+  });
+
+  it('answers 404 for an unknown supplier', async () => {
+    const response = await request(context.app).get('/api/demand').query({ supplier: 'NOPE' }).set(bearer(context.tokens.buyer));
+
+    expect(response.status).toBe(404);
+  });
+});
