@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import { recordAudit } from '../server/audit/audit.service';
 import { hashPassword } from '../server/auth/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
+import { syncLoops } from '../server/kanban/loop-sync';
 import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../server/master-data/master-data.writer';
 import { UserEntity } from '../server/users/user.entity';
 import { buildDemoScenario } from './scenario';
@@ -19,6 +20,7 @@ export async function seedDemoScenario(dataSource: DataSource, seedDay: string):
     await upsertParts(manager, scenario.parts);
     await replaceBomLines(manager, scenario.bom);
     await upsertSequenceEntries(manager, scenario.sequence);
+    await syncLoops(manager);
     await manager.insert(
       UserEntity,
       scenario.users.map((user) => ({ ...user, passwordHash, active: true })),

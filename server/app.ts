@@ -10,6 +10,7 @@ import { createAuthRouter } from './auth/auth.router';
 import { createCalendarRouter } from './calendar/calendar.router';
 import { CalendarService } from './calendar/calendar.service';
 import { NotFoundError } from './errors';
+import { createEventsRouter } from './events/events.router';
 import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
 import { defineRoute } from './http/route';
 import type { FakeSmtp } from './mail/fake-smtp';
@@ -76,6 +77,7 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   const planning = new PlanningService(dataSource);
   api.use(createPlanningRouter(planning, registry));
   api.use(createKanbanRouter(dataSource, planning, registry));
+  api.use(createEventsRouter(dataSource, registry));
   api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
 
   const openApiDocument = generateOpenApiDocument(registry);

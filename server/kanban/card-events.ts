@@ -62,7 +62,8 @@ function statesTaking(event: CardEvent): CardState[] {
 export function defaultEvent(card: KanbanCardEntity): CardEvent {
   if (card.state === 'full') return 'consume';
   throw new ConflictError(
-    `Card ${card.cardNumber} is ${card.state}; a scan without an event only empties a full card. Say which event (release, ship or receive).`,
+    `Card ${card.cardNumber} is ${card.state}; a scan without an event only empties a full card. ` +
+      'Say which event (release, ship or receive).',
     [{ currentState: card.state, event: null }],
   );
 }

@@ -36,6 +36,8 @@ import { KanbanLoopEntity } from './kanban-loop.entity';
 import { sizeLoop } from './loop-sizing';
 import { syncLoops } from './loop-sync';
 
+export { syncLoops };
+
 /** Scans shown beside each card in a loop's card list; the card's own page has them all. */
 export const RECENT_SCANS_PER_CARD = 20;
 
@@ -172,7 +174,8 @@ export class KanbanService {
           active.filter((card) => card.state === state).sort((a, b) => b.cardIndex - a.cardIndex);
         const toRetire = [...inHand('full'), ...inHand('empty')].slice(0, excess);
         if (toRetire.length > 0) {
-          await manager.update(KanbanCardEntity, { id: In(toRetire.map((card) => card.id)) }, { retiredAt: new Date().toISOString() });
+          const retiredAt = new Date().toISOString();
+          await manager.update(KanbanCardEntity, { id: In(toRetire.map((card) => card.id)) }, { retiredAt });
         }
         retired.push(...toRetire.map((card) => card.cardNumber));
         stillToPull = excess - toRetire.length;

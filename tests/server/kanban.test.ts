@@ -48,7 +48,21 @@ async function loopOf(partNumber: string): Promise<LoopRow> {
   return loop;
 }
 
-function scan(number: string, event?: string, role: keyof TestContext['tokens'] = 'receiving') {
+type RoleName = keyof TestContext['tokens'];
+
+function accept(loopId: number, body: object = {}, role: RoleName = 'buyer') {
+  return request(context.app).post(`/api/kanban/loops/${loopId}/accept`).set(bearer(context.tokens[role])).send(body);
+}
+
+function patchLoop(loopId: number, body: object, role: RoleName = 'buyer') {
+  return request(context.app).patch(`/api/kanban/loops/${loopId}`).set(bearer(context.tokens[role])).send(body);
+}
+
+function loopAudit(partNumber: string, action: string) {
+  return context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'kanban_loop', action, entityKey: partNumber });
+}
+
+function scan(number: string, event?: string, role: RoleName = 'receiving') {
   return request(context.app)
     .post('/api/kanban/scans')
     .set(bearer(context.tokens[role]))
@@ -180,12 +194,22 @@ describe('GET /api/kanban/loops', () => {
     // S: made in-house, lead time 0 raised to the 1-day minimum; N = ⌈1 × 1 × 1.1 / 1⌉ = ⌈1.1⌉ = 2.
     // The 40 units on 18 Jan lie outside the window; counted, they would triple every average.
     expect(loops.map((loop) => loop.partNumber)).toEqual(['C', 'D', 'S']);
-    const published = ['partNumber', 'supplierCode', 'containerQty', 'safetyFactor', 'averageDailyDemand', 'replenishmentDays', 'recommendedCards', 'activeCards'];
+    const published = [
+      'partNumber',
+      'supplierCode',
+      'containerQty',
+      'safetyFactor',
+      'averageDailyDemand',
+      'replenishmentDays',
+      'recommendedCards',
+      'activeCards',
+    ];
     const pick = (loop: LoopRow) => Object.fromEntries(published.map((field) => [field, loop[field]]));
+    const fresh = { safetyFactor: 0.1, activeCards: 0 };
     expect(loops.map(pick)).toEqual([
-      { partNumber: 'C', supplierCode: 'SUP-A', containerQty: 2, safetyFactor: 0.1, averageDailyDemand: 2, replenishmentDays: 2, recommendedCards: 3, activeCards: 0 },
-      { partNumber: 'D', supplierCode: 'SUP-B', containerQty: 1, safetyFactor: 0.1, averageDailyDemand: 1, replenishmentDays: 5, recommendedCards: 6, activeCards: 0 },
-      { partNumber: 'S', supplierCode: null, containerQty: 1, safetyFactor: 0.1, averageDailyDemand: 1, replenishmentDays: 1, recommendedCards: 2, activeCards: 0 },
+      { ...fresh, partNumber: 'C', supplierCode: 'SUP-A', containerQty: 2, averageDailyDemand: 2, replenishmentDays: 2, recommendedCards: 3 },
+      { ...fresh, partNumber: 'D', supplierCode: 'SUP-B', containerQty: 1, averageDailyDemand: 1, replenishmentDays: 5, recommendedCards: 6 },
+      { ...fresh, partNumber: 'S', supplierCode: null, containerQty: 1, averageDailyDemand: 1, replenishmentDays: 1, recommendedCards: 2 },
     ]);
     expect(loops.map((loop) => [loop.kind, loop.peakDailyDemand])).toEqual([
       ['supplier', 20],
@@ -222,23 +246,23 @@ describe('accepting a loop’s recommendation', () => {
   it('adds the recommended cards with GS1 card numbers and one audit entry', async () => {
     const loop = await loopOf('D');
 
-    const response = await request(context.app)
-      .post(`/api/kanban/loops/${loop.id}/accept`)
-      .set(bearer(context.tokens.buyer))
-      .send({ expectedRecommended: 6 });
+    const response = await accept(loop.id, { expectedRecommended: 6 });
 
     expect(response.status).toBe(200);
     expect(response.body.added).toEqual([1, 2, 3, 4, 5, 6].map((index) => cardNumber(loop.id, index)));
     expect(response.body).toMatchObject({ retired: [], stillToPull: 0, activeCards: 6, proposal: { action: 'none', count: 0 } });
-    const audit = await context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'kanban_loop', action: 'accept', entityKey: 'D' });
+    const audit = await loopAudit('D', 'accept');
     expect(audit).toHaveLength(1);
-    expect(audit[0]).toMatchObject({ actorEmail: 'buyer@example.com', changes: expect.objectContaining({ activeBefore: 0, activeAfter: 6 }) });
+    expect(audit[0]).toMatchObject({
+      actorEmail: 'buyer@example.com',
+      changes: expect.objectContaining({ activeBefore: 0, activeAfter: 6 }),
+    });
   });
 
   it('changes nothing when the proposal is none', async () => {
     const loop = await loopOf('D');
 
-    const response = await request(context.app).post(`/api/kanban/loops/${loop.id}/accept`).set(bearer(context.tokens.buyer)).send({});
+    const response = await accept(loop.id, {});
 
     expect(response.status).toBe(200);
     expect(response.body).toMatchObject({ added: [], retired: [], activeCards: 6 });
@@ -247,15 +271,9 @@ describe('accepting a loop’s recommendation', () => {
   it('refuses a stale recommendation with 409 and the current figure, changing no card', async () => {
     const loop = await loopOf('D');
     // Without the safety factor: N = ⌈1 × 5 × 1 / 1⌉ = 5.
-    const patched = await request(context.app)
-      .patch(`/api/kanban/loops/${loop.id}`)
-      .set(bearer(context.tokens.buyer))
-      .send({ safetyFactor: 0 });
+    const patched = await patchLoop(loop.id, { safetyFactor: 0 });
 
-    const stale = await request(context.app)
-      .post(`/api/kanban/loops/${loop.id}/accept`)
-      .set(bearer(context.tokens.buyer))
-      .send({ expectedRecommended: 6 });
+    const stale = await accept(loop.id, { expectedRecommended: 6 });
 
     expect(patched.status).toBe(200);
     expect(patched.body).toMatchObject({ safetyFactor: 0, recommendedCards: 5, proposal: { action: 'pull', count: 1 } });
@@ -272,12 +290,9 @@ describe('accepting a loop’s recommendation', () => {
     for (const event of ['consume', 'release', 'ship']) expect((await scan(number(2), event)).status).toBe(201);
     expect((await scan(number(3))).status).toBe(201);
     // Containers of 5: N = ⌈1 × 5 × 1 / 5⌉ = 1, so 5 of the 6 cards are to be pulled.
-    await request(context.app).patch(`/api/kanban/loops/${loop.id}`).set(bearer(context.tokens.buyer)).send({ containerQty: 5 });
+    await patchLoop(loop.id, { containerQty: 5 });
 
-    const response = await request(context.app)
-      .post(`/api/kanban/loops/${loop.id}/accept`)
-      .set(bearer(context.tokens.buyer))
-      .send({ expectedRecommended: 1 });
+    const response = await accept(loop.id, { expectedRecommended: 1 });
 
     expect(response.status).toBe(200);
     expect(response.body.retired).toEqual([number(6), number(5), number(4), number(3)]);
@@ -288,7 +303,7 @@ describe('accepting a loop’s recommendation', () => {
       cardStates: { full: 0, empty: 0, ordered: 1, shipped: 1 },
       proposal: { action: 'pull', count: 1 },
     });
-    const audit = await context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'kanban_loop', action: 'accept', entityKey: 'D' });
+    const audit = await loopAudit('D', 'accept');
     expect(audit.at(-1)?.changes).toMatchObject({ activeBefore: 6, activeAfter: 2, stillToPull: 1 });
   });
 
@@ -296,7 +311,7 @@ describe('accepting a loop’s recommendation', () => {
     const loop = await loopOf('D');
     expect((await scan(cardNumber(loop.id, 2), 'receive')).status).toBe(201);
 
-    const response = await request(context.app).post(`/api/kanban/loops/${loop.id}/accept`).set(bearer(context.tokens.buyer)).send({});
+    const response = await accept(loop.id, {});
     const pulledScan = await scan(cardNumber(loop.id, 2), 'consume');
 
     expect(response.body).toMatchObject({ retired: [cardNumber(loop.id, 2)], stillToPull: 0, activeCards: 1 });
@@ -306,9 +321,9 @@ describe('accepting a loop’s recommendation', () => {
   it('numbers added cards after every card ever issued', async () => {
     const loop = await loopOf('D');
     // Containers of 1 again, still without safety factor: N = ⌈1 × 5 / 1⌉ = 5, one active → add 4.
-    await request(context.app).patch(`/api/kanban/loops/${loop.id}`).set(bearer(context.tokens.buyer)).send({ containerQty: 1 });
+    await patchLoop(loop.id, { containerQty: 1 });
 
-    const response = await request(context.app).post(`/api/kanban/loops/${loop.id}/accept`).set(bearer(context.tokens.buyer)).send({ expectedRecommended: 5 });
+    const response = await accept(loop.id, { expectedRecommended: 5 });
 
     expect(response.body.added).toEqual([7, 8, 9, 10].map((index) => cardNumber(loop.id, index)));
     expect(response.body.activeCards).toBe(5);
@@ -317,22 +332,23 @@ describe('accepting a loop’s recommendation', () => {
   it('records loop changes in the audit log and validates them', async () => {
     const loop = await loopOf('S');
 
-    const invalid = await request(context.app).patch(`/api/kanban/loops/${loop.id}`).set(bearer(context.tokens.buyer)).send({ containerQty: 0 });
-    const changed = await request(context.app).patch(`/api/kanban/loops/${loop.id}`).set(bearer(context.tokens.admin)).send({ safetyUnits: 3 });
+    const invalid = await patchLoop(loop.id, { containerQty: 0 });
+    const changed = await patchLoop(loop.id, { safetyUnits: 3 }, 'admin');
 
     expect(invalid.status).toBe(400);
     expect(invalid.body.error.details[0].path).toEqual(['containerQty']);
-    // Three units of safety: N = ⌈(1 × 1 × 1.1 + 3) / 1⌉ = ⌈4.1⌉ = 5.
+    // Safety allowance in units added to the demand over T (as in Heizer & Render, "Operations
+    // Management", ch. 16, from memory): N = ⌈(1 × 1 × 1.1 + 3) / 1⌉ = ⌈4.1⌉ = 5.
     expect(changed.body).toMatchObject({ safetyUnits: 3, recommendedCards: 5 });
-    const audit = await context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'kanban_loop', action: 'update', entityKey: 'S' });
+    const audit = await loopAudit('S', 'update');
     expect(audit.map((event) => event.changes)).toEqual([{ before: { safetyUnits: 0 }, after: { safetyUnits: 3 } }]);
   });
 
   it('is refused to viewers and planners', async () => {
     const loop = await loopOf('C');
 
-    const viewerAccept = await request(context.app).post(`/api/kanban/loops/${loop.id}/accept`).set(bearer(context.tokens.viewer)).send({});
-    const plannerPatch = await request(context.app).patch(`/api/kanban/loops/${loop.id}`).set(bearer(context.tokens.planner)).send({ safetyFactor: 0.2 });
+    const viewerAccept = await accept(loop.id, {}, 'viewer');
+    const plannerPatch = await patchLoop(loop.id, { safetyFactor: 0.2 }, 'planner');
 
     expect(viewerAccept.status).toBe(403);
     expect(plannerPatch.status).toBe(403);
@@ -343,7 +359,7 @@ describe('POST /api/kanban/scans', () => {
   let loopId = 0;
   beforeAll(async () => {
     loopId = (await loopOf('C')).id;
-    await request(context.app).post(`/api/kanban/loops/${loopId}/accept`).set(bearer(context.tokens.buyer)).send({ expectedRecommended: 3 });
+    await accept(loopId, { expectedRecommended: 3 });
   });
 
   it('moves a card full → empty → ordered → shipped → full and logs every scan', async () => {
@@ -356,10 +372,12 @@ describe('POST /api/kanban/scans', () => {
     const received = await scan(number, 'receive');
 
     expect([consumed, released, shipped, received].map((response) => response.status)).toEqual([201, 201, 201, 201]);
-    expect([consumed, released, shipped, received].map((response) => response.body.card.state)).toEqual(['empty', 'ordered', 'shipped', 'full']);
+    const states = [consumed, released, shipped, received].map((response) => response.body.card.state);
+    expect(states).toEqual(['empty', 'ordered', 'shipped', 'full']);
     expect(consumed.body.scan).toMatchObject({ event: 'consume', fromState: 'full', toState: 'empty', userEmail: 'receiving@example.com' });
     const detail = await request(context.app).get(`/api/kanban/cards/${number}`).set(bearer(context.tokens.viewer));
-    expect(detail.body.scans.map((row: { event: string; fromState: string; toState: string }) => [row.event, row.fromState, row.toState])).toEqual([
+    const log = detail.body.scans.map((row: { event: string; fromState: string; toState: string }) => [row.event, row.fromState, row.toState]);
+    expect(log).toEqual([
       ['receive', 'shipped', 'full'],
       ['ship', 'ordered', 'shipped'],
       ['release', 'empty', 'ordered'],
@@ -387,7 +405,7 @@ describe('POST /api/kanban/scans', () => {
   });
 
   it('answers 409 for a bare scan of a card that is not full', async () => {
-    await scan(cardNumber(loopId, 3));
+    expect((await scan(cardNumber(loopId, 3))).status).toBe(201);
 
     const response = await scan(cardNumber(loopId, 3));
 
@@ -460,7 +478,10 @@ describe('card labels', () => {
     const loop = await loopOf('D');
 
     const active = await request(context.app).get(`/api/kanban/loops/${loop.id}/labels`).set(bearer(context.tokens.viewer));
-    const all = await request(context.app).get(`/api/kanban/loops/${loop.id}/labels`).query({ cards: 'all' }).set(bearer(context.tokens.viewer));
+    const all = await request(context.app)
+      .get(`/api/kanban/loops/${loop.id}/labels`)
+      .query({ cards: 'all' })
+      .set(bearer(context.tokens.viewer));
 
     // D issued cards 1–10 and pulled 2–6.
     expect(active.body.map((label: { cardIndex: number }) => label.cardIndex)).toEqual([1, 7, 8, 9, 10]);

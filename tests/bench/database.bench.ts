@@ -1,0 +1,162 @@
+import type { AddressInfo } from 'node:net';
+import { performance } from 'node:perf_hooks';
+import { pathToFileURL } from 'node:url';
+import { createApp } from '../../server/app';
+import { signSessionToken } from '../../server/auth/tokens';
+import { writeCalendar } from '../../server/calendar/calendar.service';
+import { openDatabase } from '../../server/db/data-source';
+import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { loadPlanInputs } from '../../server/planning/plan-inputs';
+import { UserEntity } from '../../server/users/user.entity';
+import { computePlan } from '../../shared/domain/plan';
+import { generatePlanFixture } from './plan-fixture';
+
+/*
+ * The same synthetic plant stored in SQLite: (1) the gross-requirements explosion written as one
+ * recursive SQL query, against computePlan on the same rows; (2) GET /api/demand over all parts
+ * and 60 working days through real HTTP, first call (read + plan) and then from the plan cache.
+ */
+
+const RUNS = 10;
+const API_RUNS = 30;
+
+// Explosion only (no netting, no lead-time offsets): components at their parent's build date,
+// effectivity checked at that date, scrap applied. Less work than the engine does.
+const RECURSIVE_EXPLOSION = `
+WITH RECURSIVE demand(part, date, qty) AS (
+  SELECT model, date, SUM(qty) FROM sequence_entry WHERE date BETWEEN ? AND ? GROUP BY model, date
+  UNION ALL
+  SELECT b.component, d.date, d.qty * b.qty_per * (1 + b.scrap_pct / 100.0)
+  FROM demand d JOIN bom_line b ON b.parent = d.part
+  WHERE (b.effective_from IS NULL OR b.effective_from <= d.date)
+    AND (b.effective_to IS NULL OR b.effective_to >= d.date)
+)
+SELECT part, date, SUM(qty) AS qty FROM demand GROUP BY part, date`;
+
+export interface DatabaseBenchFigures {
+  sqlExplosionMedianMs: number;
+  sqlRows: number;
+  enginePlanMedianMs: number;
+  ratio: number;
+  demandFirstCallMs: number;
+  demandCachedMedianMs: number;
+  demandCachedP90Ms: number;
+  demandRows: number;
+  demandDays: number;
+}
+
+function median(samples: number[]): number {
+  const sorted = [...samples].sort((a, b) => a - b);
+  return sorted[Math.floor(sorted.length / 2)];
+}
+
+function p90(samples: number[]): number {
+  const sorted = [...samples].sort((a, b) => a - b);
+  return sorted[Math.ceil(sorted.length * 0.9) - 1];
+}
+
+export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
+  const fixture = generatePlanFixture();
+  const dataSource = await openDatabase(':memory:');
+  const suppliers = [...new Set(fixture.parts.map((part) => part.supplierCode).filter((code): code is string => !!code))];
+  await dataSource.transaction(async (manager) => {
+    await writeCalendar(manager, fixture.calendar);
+    await upsertSuppliers(
+      manager,
+      suppliers.map((code) => ({ code, name: code, email: `${code.toLowerCase()}@example.com`, leadTimeDays: 5, cycleDays: 1, deliveriesPerCycle: 1, deliveryDelay: 1 })),
+    );
+    await upsertParts(
+      manager,
+      fixture.parts.map((part) => ({
+        partNumber: part.partNumber,
+        description: part.partNumber,
+        uom: 'H87' as const,
+        source: part.source,
+        supplierCode: part.supplierCode ?? null,
+        leadTimeDays: part.leadTimeDays,
+        packQty: part.packQty,
+        onHand: part.onHand,
+        replenishment: null,
+        safetyStock: part.safetyStock,
+        pointOfUse: null,
+        hazardous: false,
+      })),
+    );
+    await replaceBomLines(
+      manager,
+      fixture.bom.map((line) => ({ ...line, effectiveFrom: line.effectiveFrom ?? null, effectiveTo: line.effectiveTo ?? null })),
+    );
+    await upsertSequenceEntries(manager, fixture.sequence);
+  });
+
+  const sqlSamples: number[] = [];
+  let sqlRows = 0;
+  for (let run = 0; run < RUNS + 1; run += 1) {
+    const start = performance.now();
+    const rows = await dataSource.query(RECURSIVE_EXPLOSION, [fixture.from, fixture.to]);
+    if (run > 0) sqlSamples.push(performance.now() - start);
+    sqlRows = rows.length;
+  }
+
+  const inputs = await loadPlanInputs(dataSource.manager);
+  const engineSamples: number[] = [];
+  for (let run = 0; run < RUNS + 3; run += 1) {
+    const start = performance.now();
+    computePlan({ ...inputs, from: fixture.from, to: fixture.to });
+    if (run >= 3) engineSamples.push(performance.now() - start);
+  }
+
+  const admin = await dataSource.getRepository(UserEntity).save({
+    email: 'bench@example.com',
+    name: 'Bench',
+    role: 'admin',
+    passwordHash: 'not-used',
+    supplierCode: null,
+  });
+  const secret = 'bench-secret-bench-secret-bench-secret-bench';
+  const token = signSessionToken(admin.id, secret, '1h');
+  const server = createApp(dataSource, { jwtSecret: secret }).listen(0);
+  const { port } = server.address() as AddressInfo;
+  const url = `http://127.0.0.1:${port}/api/demand?from=${fixture.from}&to=${fixture.to}`;
+  const callDemand = async () => {
+    const start = performance.now();
+    const response = await fetch(url, { headers: { Authorization: `Bearer ${token}` } });
+    const body = (await response.json()) as { days: string[]; rows: unknown[] };
+    if (!response.ok) throw new Error(`GET /api/demand answered ${response.status}`);
+    return { ms: performance.now() - start, body };
+  };
+  const first = await callDemand();
+  const cached: number[] = [];
+  for (let run = 0; run < API_RUNS; run += 1) cached.push((await callDemand()).ms);
+  server.close();
+  await dataSource.destroy();
+
+  const sqlMedian = median(sqlSamples);
+  const engineMedian = median(engineSamples);
+  return {
+    sqlExplosionMedianMs: sqlMedian,
+    sqlRows,
+    enginePlanMedianMs: engineMedian,
+    ratio: sqlMedian / engineMedian,
+    demandFirstCallMs: first.ms,
+    demandCachedMedianMs: median(cached),
+    demandCachedP90Ms: p90(cached),
+    demandRows: first.body.rows.length,
+    demandDays: first.body.days.length,
+  };
+}
+
+export function printDatabaseBench(figures: DatabaseBenchFigures): void {
+  const ms = (value: number) => `${value.toFixed(2)} ms`;
+  console.log(`recursive SQL explosion (SQLite)  median ${ms(figures.sqlExplosionMedianMs)}  (${figures.sqlRows} part-days, explosion only)`);
+  console.log(`computePlan on the same rows      median ${ms(figures.enginePlanMedianMs)}  (explosion + offsets + netting)`);
+  console.log(`ratio SQL / engine                ${figures.ratio.toFixed(1)}×`);
+  console.log(
+    `GET /api/demand ${figures.demandDays} days × ${figures.demandRows} parts: first call ${ms(figures.demandFirstCallMs)}, ` +
+      `cached median ${ms(figures.demandCachedMedianMs)}  p90 ${ms(figures.demandCachedP90Ms)}  (target < 150 ms)`,
+  );
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  printDatabaseBench(await runDatabaseBench());
+}
