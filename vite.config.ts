@@ -45,7 +45,13 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'happy-dom' },
+        test: {
+          name: 'client',
+          include: ['tests/client/**/*.test.ts'],
+          environment: 'happy-dom',
+          // Element Plus must go through Vite: Node cannot import the CSS its resolver adds.
+          server: { deps: { inline: ['element-plus'] } },
+        },
       },
     ],
   },

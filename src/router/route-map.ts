@@ -1,0 +1,38 @@
+import type { ParamValueZeroOrMore, RouteRecordInfo } from 'vue-router';
+import type { Role } from '@shared/schemas/user';
+
+type NoParams = Record<never, never>;
+
+/**
+ * Every named route with its path and params. Adding a screen means one entry here,
+ * one in routes.ts and, if it belongs in the rail, one in navigation.ts.
+ */
+export interface RouteNamedMap {
+  login: RouteRecordInfo<'login', '/login', NoParams, NoParams>;
+  home: RouteRecordInfo<'home', '/', NoParams, NoParams>;
+  'admin-users': RouteRecordInfo<'admin-users', '/admin/users', NoParams, NoParams>;
+  forbidden: RouteRecordInfo<'forbidden', '/forbidden', NoParams, NoParams>;
+  'not-found': RouteRecordInfo<
+    'not-found',
+    '/:pathMatch(.*)*',
+    { pathMatch?: ParamValueZeroOrMore<true> },
+    { pathMatch?: ParamValueZeroOrMore<false> }
+  >;
+}
+
+export type RouteName = keyof RouteNamedMap;
+
+declare module 'vue-router' {
+  interface TypesConfig {
+    RouteNamedMap: RouteNamedMap;
+  }
+
+  interface RouteMeta {
+    /** Shown in the browser tab and as the page heading's source of truth. */
+    title?: string;
+    /** Roles allowed in; absent means every signed-in role. */
+    roles?: readonly Role[];
+    /** Reachable without signing in. */
+    public?: boolean;
+  }
+}

@@ -1,0 +1,22 @@
+import type { FormItemRule } from 'element-plus';
+import type { z } from 'zod';
+
+/**
+ * An Element Plus form rule that checks a field with the same zod schema the server applies,
+ * so both sides agree on limits. Empty values pass here; pair it with a `required` rule.
+ */
+export function zodRule(schema: z.ZodType, trigger: 'blur' | 'change' = 'blur'): FormItemRule {
+  return {
+    trigger,
+    validator: (_rule, value: unknown, callback: (error?: Error) => void) => {
+      if (value === '' || value === null || value === undefined) return callback();
+      const result = schema.safeParse(value);
+      if (result.success) return callback();
+      callback(new Error(sentenceCase(result.error.issues[0]?.message ?? 'Invalid value')));
+    },
+  };
+}
+
+function sentenceCase(message: string): string {
+  return message.charAt(0).toUpperCase() + message.slice(1);
+}

@@ -1,0 +1,114 @@
+import { vi } from 'vitest';
+import { flushPromises, mount, type ComponentMountingOptions } from '@vue/test-utils';
+import { createPinia, setActivePinia, type Pinia } from 'pinia';
+import { createMemoryHistory, type Router } from 'vue-router';
+import type { Component } from 'vue';
+import type { SessionUser } from '@shared/schemas/user';
+import { writeToken } from '@/api/session-token';
+import { createAppRouter } from '@/router';
+import { useAuthStore } from '@/stores/auth';
+
+// The on-demand resolver adds `import 'element-plus/es/components/<name>/style/css'` to every
+// SFC; Node cannot load those .css files when vitest externalises element-plus, and styles
+// play no part in these tests. Import this module first in a test file so the mocks are in
+// place before any component module loads.
+vi.mock('element-plus/es/components/base/style/css', () => ({}));
+vi.mock('element-plus/es/components/alert/style/css', () => ({}));
+vi.mock('element-plus/es/components/button/style/css', () => ({}));
+vi.mock('element-plus/es/components/dialog/style/css', () => ({}));
+vi.mock('element-plus/es/components/empty/style/css', () => ({}));
+vi.mock('element-plus/es/components/form/style/css', () => ({}));
+vi.mock('element-plus/es/components/form-item/style/css', () => ({}));
+vi.mock('element-plus/es/components/icon/style/css', () => ({}));
+vi.mock('element-plus/es/components/input/style/css', () => ({}));
+vi.mock('element-plus/es/components/loading/style/css', () => ({}));
+vi.mock('element-plus/es/components/message/style/css', () => ({}));
+vi.mock('element-plus/es/components/message-box/style/css', () => ({}));
+vi.mock('element-plus/es/components/option/style/css', () => ({}));
+vi.mock('element-plus/es/components/select/style/css', () => ({}));
+vi.mock('element-plus/es/components/switch/style/css', () => ({}));
+vi.mock('element-plus/es/components/table/style/css', () => ({}));
+vi.mock('element-plus/es/components/table-column/style/css', () => ({}));
+vi.mock('element-plus/es/components/tag/style/css', () => ({}));
+
+export const demoUsers = {
+  admin: { email: 'admin@example.com', name: 'Ada Admin', role: 'admin', supplierCode: null },
+  buyer: { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null },
+} satisfies Record<string, SessionUser>;
+
+/** A fetch Response carrying JSON, as the server sends it. */
+export function jsonResponse(status: number, body: unknown): Response {
+  return new Response(JSON.stringify(body), {
+    status,
+    headers: { 'Content-Type': 'application/json' },
+  });
+}
+
+/** Replaces fetch with a mock answering each call in turn with the given responses. */
+export function stubFetch(...responses: Response[]) {
+  const fetchMock = vi.fn<typeof fetch>();
+  for (const response of responses) fetchMock.mockResolvedValueOnce(response);
+  vi.stubGlobal('fetch', fetchMock);
+  return fetchMock;
+}
+
+interface AppContext {
+  pinia: Pinia;
+  router: Router;
+}
+
+/** A fresh Pinia and the real router on memory history, optionally with someone signed in. */
+export async function createAppContext(
+  options: { user?: SessionUser; path?: string } = {},
+): Promise<AppContext> {
+  const pinia = createPinia();
+  setActivePinia(pinia);
+  if (options.user) {
+    writeToken('test-token');
+    const auth = useAuthStore();
+    auth.token = 'test-token';
+    auth.user = options.user;
+  }
+  const router = createAppRouter(createMemoryHistory());
+  await router.push(options.path ?? '/');
+  await router.isReady();
+  return { pinia, router };
+}
+
+/**
+ * Mounts a component inside the app's Pinia and router, attached to the document for teleports,
+ * and lets it settle: Element Plus links a form label to its input only after the first render.
+ */
+export async function mountInApp<C extends Component>(
+  component: C,
+  context: AppContext,
+  options: ComponentMountingOptions<C> = {},
+) {
+  const wrapper = mount(component, {
+    ...options,
+    attachTo: document.body,
+    global: { ...options.global, plugins: [context.pinia, context.router] },
+  } as ComponentMountingOptions<C>);
+  await flushPromises();
+  return wrapper;
+}
+
+/** The form control a visible <label> points at, the way a person (or getByLabel) finds it. */
+export function getByLabel(root: ParentNode, labelText: string): HTMLElement {
+  const label = [...root.querySelectorAll('label')].find(
+    (candidate) => candidate.textContent?.trim() === labelText,
+  );
+  if (!label) throw new Error(`no label "${labelText}"`);
+  const control = label.htmlFor ? document.getElementById(label.htmlFor) : label.querySelector('input');
+  if (!control) throw new Error(`label "${labelText}" points at nothing`);
+  return control;
+}
+
+/** The button whose accessible text is exactly `name`. */
+export function getButton(root: ParentNode, name: string): HTMLButtonElement {
+  const button = [...root.querySelectorAll('button')].find(
+    (candidate) => candidate.textContent?.trim() === name,
+  );
+  if (!button) throw new Error(`no button "${name}"`);
+  return button;
+}

@@ -1,0 +1,65 @@
+import { createAppContext, demoUsers, mountInApp } from './helpers';
+import { afterEach, describe, expect, it } from 'vitest';
+import { ROLES } from '@shared/schemas/user';
+import AppShellNav from '@/components/AppShellNav.vue';
+import { navigation, navigationFor } from '@/router/navigation';
+import { routes } from '@/router/routes';
+
+// Role rules from PRODUCT.md, "The people and what each must get done": users and roles are
+// the admin's job only.
+describe('navigationFor', () => {
+  it('offers the user list to an admin', () => {
+    const names = navigationFor('admin').map((entry) => entry.routeName);
+
+    expect(names).toEqual(['home', 'admin-users']);
+  });
+
+  it.each(ROLES.filter((role) => role !== 'admin'))('keeps the user list from a %s', (role) => {
+    const names = navigationFor(role).map((entry) => entry.routeName);
+
+    expect(names).not.toContain('admin-users');
+    expect(names).toContain('home');
+  });
+
+  it('offers nothing when nobody is signed in', () => {
+    expect(navigationFor(null)).toEqual([]);
+  });
+
+  it('lists the same roles as the route it links to, so the rail never offers a forbidden page', () => {
+    for (const entry of navigation) {
+      const route = routes.find((candidate) => candidate.name === entry.routeName);
+      const routeRoles = route?.meta?.roles ?? ROLES;
+
+      expect([...entry.roles].sort(), entry.routeName).toEqual([...routeRoles].sort());
+    }
+  });
+});
+
+describe('AppShellNav', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+  });
+
+  it('shows a buyer only the links a buyer may use, inside a labelled nav landmark', async () => {
+    const context = await createAppContext({ user: demoUsers.buyer, path: '/' });
+
+    const wrapper = await mountInApp(AppShellNav, context);
+
+    const nav = wrapper.get('nav');
+    expect(nav.attributes('aria-label')).toBe('Main');
+    expect(nav.findAll('a').map((link) => link.text())).toEqual(['Overview']);
+  });
+
+  it('marks the open page with aria-current for an admin on the user list', async () => {
+    const context = await createAppContext({ user: demoUsers.admin, path: '/admin/users' });
+
+    const wrapper = await mountInApp(AppShellNav, context);
+
+    const links = wrapper.findAll('a');
+    expect(links.map((link) => link.text())).toEqual(['Overview', 'Users']);
+    const current = links.filter((link) => link.attributes('aria-current') === 'page');
+    expect(current.map((link) => link.text())).toEqual(['Users']);
+    expect(current[0]!.classes()).toContain('is-active');
+  });
+});
