@@ -1,6 +1,7 @@
 import type { Express } from 'express';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
+import type { Part } from '../../shared/schemas/master-data';
 import type { Role } from '../../shared/schemas/user';
 import { createApp, type AppOptions } from '../../server/app';
 import { hashPassword } from '../../server/auth/passwords';
@@ -53,3 +54,20 @@ export async function signIn(app: Express, email: string, password: string): Pro
 }
 
 export const bearer = (token: string) => ({ Authorization: `Bearer ${token}` });
+
+/** A bought kanban part of supplier `SUP-A` with neutral defaults; override what a test is about. */
+export const testPart = (partNumber: string, overrides: Partial<Part> = {}): Part => ({
+  partNumber,
+  description: `Part ${partNumber}`,
+  uom: 'H87',
+  source: 'buy',
+  supplierCode: 'SUP-A',
+  leadTimeDays: 0,
+  packQty: 1,
+  onHand: 0,
+  replenishment: 'kanban',
+  safetyStock: 0,
+  pointOfUse: null,
+  hazardous: false,
+  ...overrides,
+});

@@ -6,25 +6,11 @@ import { CardScanEntity } from '../../server/kanban/card-scan.entity';
 import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Part } from '../../shared/schemas/master-data';
-import { bearer, createTestContext, type TestContext } from './helpers';
+import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;
 
-const part = (partNumber: string, overrides: Partial<Part>): Part => ({
-  partNumber,
-  description: `Part ${partNumber}`,
-  uom: 'H87',
-  source: 'buy',
-  supplierCode: 'SUP-A',
-  leadTimeDays: 0,
-  packQty: 1,
-  onHand: 0,
-  replenishment: 'kanban',
-  safetyStock: 0,
-  pointOfUse: 'L1-ST01',
-  hazardous: false,
-  ...overrides,
-});
+const part = (partNumber: string, overrides: Partial<Part>): Part => testPart(partNumber, { pointOfUse: 'L1-ST01', ...overrides });
 
 interface LoopRow {
   id: number;

@@ -2,26 +2,10 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
-import type { Part } from '../../shared/schemas/master-data';
-import { bearer, createTestContext, type TestContext } from './helpers';
+import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;
 
-const part = (partNumber: string, overrides: Partial<Part>): Part => ({
-  partNumber,
-  description: partNumber,
-  uom: 'H87',
-  source: 'buy',
-  supplierCode: 'SUP-A',
-  leadTimeDays: 0,
-  packQty: 1,
-  onHand: 0,
-  replenishment: 'kanban',
-  safetyStock: 0,
-  pointOfUse: null,
-  hazardous: false,
-  ...overrides,
-});
 
 // A two-level structure small enough to net by hand: one model M, 2 × C per unit (C bought in
 // packs of 10 with 5 on hand and a 2-working-day lead time), 1 × D per unit from supplier B.
@@ -30,9 +14,9 @@ beforeAll(async () => {
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-12-25'] });
     await upsertParts(manager, [
-      part('M', { source: 'end_item', supplierCode: null, replenishment: null }),
-      part('C', { packQty: 10, onHand: 5, leadTimeDays: 2 }),
-      part('D', { supplierCode: 'SUP-B', onHand: 100 }),
+      testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
+      testPart('C', { packQty: 10, onHand: 5, leadTimeDays: 2 }),
+      testPart('D', { supplierCode: 'SUP-B', onHand: 100 }),
     ]);
     await replaceBomLines(manager, [
       { parent: 'M', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
