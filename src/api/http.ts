@@ -66,30 +66,12 @@ export function onUnauthorized(handler: UnauthorizedHandler | null): void {
 
 /** Calls `/api<path>` with the session token and JSON; resolves the parsed body or throws ApiError. */
 export async function request<T>(path: string, options: RequestOptions = {}): Promise<T> {
-  const { method = 'GET', body, query, signal, anonymous = false } = options;
-  const headers: Record<string, string> = { Accept: 'application/json' };
-  if (body !== undefined) headers['Content-Type'] = 'application/json';
-  const token = anonymous ? null : readToken();
-  if (token) headers.Authorization = `Bearer ${token}`;
-
-  let response: Response;
-  try {
-    response = await fetch(buildUrl(path, query), {
-      method,
-      headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
-      signal,
-    });
-  } catch (cause) {
-    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
-    throw new ApiError(0, 'network_error', 'The server cannot be reached. Check the connection and try again.');
-  }
-
-  if (!response.ok) {
-    const error = await errorFromResponse(response);
-    if (response.status === 401 && !anonymous) unauthorizedHandler?.();
-    throw error;
-  }
+  const { method = 'GET', body } = options;
+  const response = await send(path, options, {
+    method,
+    accept: 'application/json',
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
   if (response.status === 204) return undefined as T;
   const text = await response.text();
   return (text ? JSON.parse(text) : undefined) as T;
@@ -122,6 +104,19 @@ async function errorFromResponse(response: Response): Promise<ApiError> {
   return new ApiError(response.status, `http_${response.status}`, fallbackMessage(response.status));
 }
 
+/**
+ * The ApiError of a failed call made outside fetch (an XMLHttpRequest upload), built from its
+ * status and parsed body like `request` builds one, with the same signed-out handling of a 401.
+ */
+export function apiErrorFromBody(status: number, payload: unknown): ApiError {
+  const parsed = errorBodySchema.safeParse(payload);
+  const error = parsed.success
+    ? new ApiError(status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details ?? [])
+    : new ApiError(status, `http_${status}`, fallbackMessage(status));
+  if (status === 401) unauthorizedHandler?.();
+  return error;
+}
+
 function fallbackMessage(status: number): string {
   if (status === 401) return 'Please sign in.';
   if (status === 403) return 'Your role may not do this.';
@@ -144,3 +139,42 @@ export const http = {
   delete: <T>(path: string, options?: Omit<RequestOptions, 'method' | 'body'>) =>
     request<T>(path, { ...options, method: 'DELETE' }),
 };
+
+/**
+ * A GET with the session token that resolves the raw Response of a successful call, for bodies
+ * that are not JSON: files (`blob()`) and server-sent event streams (`body`). Failures throw
+ * ApiError exactly as `request` does.
+ */
+export async function requestRaw(
+  path: string,
+  options: Omit<RequestOptions, 'method' | 'body'> & { accept?: string } = {},
+): Promise<Response> {
+  return send(path, options, { method: 'GET', accept: options.accept ?? '*/*' });
+}
+
+/** The one fetch call: token, network failure and error body handling shared by every request. */
+async function send(
+  path: string,
+  options: Omit<RequestOptions, 'method' | 'body'>,
+  init: { method: HttpMethod; accept: string; body?: string },
+): Promise<Response> {
+  const { query, signal, anonymous = false } = options;
+  const headers: Record<string, string> = { Accept: init.accept };
+  if (init.body !== undefined) headers['Content-Type'] = 'application/json';
+  const token = anonymous ? null : readToken();
+  if (token) headers.Authorization = `Bearer ${token}`;
+
+  let response: Response;
+  try {
+    response = await fetch(buildUrl(path, query), { method: init.method, headers, body: init.body, signal });
+  } catch (cause) {
+    if (cause instanceof DOMException && cause.name === 'AbortError') throw cause;
+    throw new ApiError(0, 'network_error', 'The server cannot be reached. Check the connection and try again.');
+  }
+  if (!response.ok) {
+    const error = await errorFromResponse(response);
+    if (response.status === 401 && !anonymous) unauthorizedHandler?.();
+    throw error;
+  }
+  return response;
+}

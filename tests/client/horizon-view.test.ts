@@ -1,0 +1,129 @@
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises } from '@vue/test-utils';
+import { addCalendarDays } from '@shared/domain/date';
+import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
+import HorizonView from '@/views/HorizonView.vue';
+import { localToday } from '@/stores/horizon';
+
+// Styles of the components only this view uses; Node cannot load them and they play no part here.
+vi.mock('element-plus/es/components/drawer/style/css', () => ({}));
+vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
+vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
+
+const demand: DemandResponse = {
+  days: ['2026-12-01', '2026-12-02'],
+  rows: [
+    { partNumber: 'BAT-06-225', supplierCode: 'FBS', total: 60, byDay: { '2026-12-01': 32, '2026-12-02': 28 } },
+    { partNumber: 'BAT-06-312', supplierCode: 'FBS', total: 96, byDay: { '2026-12-01': 48, '2026-12-02': 48 } },
+  ],
+};
+
+const plan: PlanResponse = {
+  part: {
+    partNumber: 'BAT-06-225',
+    description: 'Battery 6 V 225 Ah',
+    uom: 'H87',
+    source: 'buy',
+    supplierCode: 'FBS',
+    leadTimeDays: 7,
+    packQty: 4,
+    onHand: 476,
+    safetyStock: 8,
+    lowLevelCode: 1,
+  },
+  buckets: [
+    { date: '2026-12-01', gross: 32, scheduledReceipts: 0, projectedAvailable: 444, net: 0, plannedReceipt: 0, plannedRelease: 0 },
+    { date: '2026-12-02', gross: 28, scheduledReceipts: 0, projectedAvailable: 416, net: 0, plannedReceipt: 0, plannedRelease: 0 },
+  ],
+  pastDue: [],
+};
+
+type Answer = (url: URL) => Response;
+
+/** Answers each API path with a handler; the event stream stays silent. */
+function stubApi(answers: Record<string, Answer>) {
+  const fetchMock = vi.fn<typeof fetch>((input) => {
+    const url = new URL(String(input), 'http://localhost');
+    if (url.pathname === '/api/events') return new Promise<Response>(() => undefined);
+    const answer = answers[url.pathname];
+    return Promise.resolve(answer ? answer(url) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+  });
+  vi.stubGlobal('fetch', fetchMock);
+  return fetchMock;
+}
+
+function requestsTo(fetchMock: ReturnType<typeof stubApi>, pathname: string): URL[] {
+  return fetchMock.mock.calls
+    .map(([input]) => new URL(String(input), 'http://localhost'))
+    .filter((url) => url.pathname === pathname);
+}
+
+async function openHorizon(path: string) {
+  const context = await createAppContext({ user: demoUsers.buyer, path });
+  const wrapper = await mountInApp(HorizonView, context, {
+    global: { stubs: { HorizonDemandChart: true, HorizonPartChart: true } },
+  });
+  await flushPromises();
+  return { wrapper, router: context.router };
+}
+
+describe('HorizonView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('asks for the horizon and supplier written in the link', async () => {
+    const fetchMock = stubApi({ '/api/demand': () => jsonResponse(200, demand), '/api/suppliers': () => jsonResponse(200, []) });
+
+    await openHorizon('/horizon?supplier=FBS&weeks=2&bucket=week');
+
+    const [request] = requestsTo(fetchMock, '/api/demand');
+    const today = localToday();
+    // Two weeks are 14 calendar days, today included.
+    expect(Object.fromEntries(request!.searchParams)).toEqual({ from: today, to: addCalendarDays(today, 13), supplier: 'FBS' });
+  });
+
+  it('opens the drill-down of the part typed in the search box when Enter is pressed', async () => {
+    const fetchMock = stubApi({
+      '/api/demand': () => jsonResponse(200, demand),
+      '/api/suppliers': () => jsonResponse(200, []),
+      '/api/plan': () => jsonResponse(200, plan),
+    });
+    const { wrapper, router } = await openHorizon('/horizon');
+
+    const search = wrapper.get<HTMLInputElement>('input[aria-label="Part search"]');
+    await search.setValue('bat-06-225');
+    await search.trigger('keydown', { key: 'Enter' });
+    await flushPromises();
+
+    expect(router.currentRoute.value.query.part).toBe('BAT-06-225');
+    expect(requestsTo(fetchMock, '/api/plan')[0]!.searchParams.get('part')).toBe('BAT-06-225');
+    await vi.waitFor(() => expect(document.body.querySelector('[aria-label="Gross-to-net buckets"]')).not.toBeNull());
+    expect(document.body.textContent).toContain('Battery 6 V 225 Ah');
+  });
+
+  it('reports a failed load with a Retry that asks again', async () => {
+    let calls = 0;
+    const fetchMock = stubApi({
+      '/api/suppliers': () => jsonResponse(200, []),
+      '/api/demand': () =>
+        ++calls === 1
+          ? jsonResponse(503, { error: { code: 'unavailable', message: 'The planning data is being rebuilt.' } })
+          : jsonResponse(200, demand),
+    });
+    const { wrapper } = await openHorizon('/horizon');
+
+    expect(wrapper.get('[role="alert"]').text()).toContain('The planning data is being rebuilt.');
+    getButton(wrapper.element, 'Retry').click();
+    await flushPromises();
+
+    expect(requestsTo(fetchMock, '/api/demand')).toHaveLength(2);
+    expect(wrapper.find('[role="alert"]').exists()).toBe(false);
+    expect(wrapper.text()).toContain('BAT-06-312');
+  });
+});
