@@ -1,0 +1,159 @@
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, stubFetch } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises, type VueWrapper } from '@vue/test-utils';
+import { addDays, format, getISODay } from 'date-fns';
+import { RouterView } from 'vue-router';
+import type { SessionUser } from '@shared/schemas/user';
+import CalendarHolidayList from '@/components/CalendarHolidayList.vue';
+
+const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
+const viewer: SessionUser = { email: 'viewer@example.com', name: 'Vi Viewer', role: 'viewer', supplierCode: null };
+
+const STORED = { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2030-12-25'] };
+
+// ISO 8601 numbers the days of the week Monday = 1 … Sunday = 7 (from memory); the numbers here
+// come from date-fns (getISODay), a general-purpose date library, for seven days in a row.
+const ISO_DAY_OF = Object.fromEntries(
+  Array.from({ length: 7 }, (_, offset) => {
+    const date = addDays(new Date(2030, 0, 1), offset);
+    return [format(date, 'EEEE'), getISODay(date)];
+  }),
+) as Record<string, number>;
+
+async function openCalendar(user: SessionUser) {
+  const fetchMock = stubFetch(jsonResponse(200, STORED));
+  const context = await createAppContext({ user, path: '/calendar' });
+  // Through the real route, so the view's leave guard has its route record.
+  const wrapper = await mountInApp(RouterView, context);
+  await vi.waitFor(() => expect(wrapper.find('.calendar-view__grid').exists()).toBe(true));
+  return { wrapper, fetchMock };
+}
+
+function weekdayBox(wrapper: VueWrapper, label: string) {
+  const box = wrapper.findAll('label.el-checkbox').find((candidate) => candidate.text() === label);
+  if (!box) throw new Error(`no weekday "${label}"`);
+  return box.get('input[type="checkbox"]');
+}
+
+function lastPutBody(fetchMock: ReturnType<typeof stubFetch>): unknown {
+  const put = fetchMock.mock.calls.find(([, init]) => init?.method === 'PUT');
+  return put ? JSON.parse(String(put[1]!.body)) : undefined;
+}
+
+describe('CalendarView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('sends the ticked weekdays as ISO numbers, Monday = 1 … Sunday = 7, with the holidays kept', async () => {
+    const { wrapper, fetchMock } = await openCalendar(planner);
+    const expected = ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Saturday'].map((name) => ISO_DAY_OF[name]);
+    fetchMock.mockResolvedValueOnce(jsonResponse(200, { workingWeekdays: expected, holidays: STORED.holidays }));
+
+    await weekdayBox(wrapper, 'Friday').setValue(false);
+    await weekdayBox(wrapper, 'Saturday').setValue(true);
+    getButton(wrapper.element, 'Save calendar').click();
+    await flushPromises();
+
+    // PRODUCT.md's `GET|PUT /api/calendar` takes ISO weekday numbers.
+    expect(lastPutBody(fetchMock)).toEqual({ workingWeekdays: expected, holidays: ['2030-12-25'] });
+    expect(fetchMock.mock.calls.at(-1)![0]).toBe('/api/calendar');
+  });
+
+  it('adds a holiday from the list to the saved body in date order', async () => {
+    const { wrapper, fetchMock } = await openCalendar(demoUsers.admin);
+    fetchMock.mockResolvedValueOnce(jsonResponse(200, { ...STORED, holidays: ['2030-12-24', '2030-12-25'] }));
+
+    wrapper.findComponent(CalendarHolidayList).vm.$emit('add', '2030-12-24');
+    await flushPromises();
+    getButton(wrapper.element, 'Save calendar').click();
+    await flushPromises();
+
+    expect(lastPutBody(fetchMock)).toEqual({ workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2030-12-24', '2030-12-25'] });
+  });
+
+  it('refuses to save a week without a working day and says why', async () => {
+    const { wrapper, fetchMock } = await openCalendar(planner);
+    for (const day of ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday']) await weekdayBox(wrapper, day).setValue(false);
+
+    getButton(wrapper.element, 'Save calendar').click();
+    await flushPromises();
+
+    await vi.waitFor(() => expect(wrapper.get('.el-form-item__error').text()).toBe('At least one working weekday'));
+    expect(lastPutBody(fetchMock)).toBeUndefined();
+  });
+
+  it('puts a server validation message beside the holidays', async () => {
+    const { wrapper, fetchMock } = await openCalendar(planner);
+    await weekdayBox(wrapper, 'Saturday').setValue(true);
+    // A zod issue list as the server sends it for invalid input (PRODUCT.md, 400 with zod issues in details).
+    fetchMock.mockResolvedValueOnce(
+      jsonResponse(400, {
+        error: { code: 'validation_error', message: 'Invalid input', details: [{ path: ['holidays', 0], message: 'a date as YYYY-MM-DD' }] },
+      }),
+    );
+
+    getButton(wrapper.element, 'Save calendar').click();
+    await flushPromises();
+
+    expect(wrapper.text()).toContain('a date as YYYY-MM-DD');
+    expect(wrapper.text()).toContain('The calendar was not saved: Invalid input');
+  });
+
+  it('shows a viewer the calendar read-only: no save, weekdays locked', async () => {
+    const { wrapper } = await openCalendar(viewer);
+
+    expect(wrapper.text()).toContain('Read only');
+    expect(wrapper.findAll('button').map((button) => button.text())).not.toContain('Save calendar');
+    expect((weekdayBox(wrapper, 'Monday').element as HTMLInputElement).disabled).toBe(true);
+    expect((weekdayBox(wrapper, 'Monday').element as HTMLInputElement).checked).toBe(true);
+  });
+});
+
+describe('CalendarHolidayList', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+  });
+
+  it('marks the next holiday, hides past ones, and notes one that falls on a closed weekday', async () => {
+    const context = await createAppContext({ user: planner, path: '/' });
+    // The weekday of each date comes from date-fns (getISODay), a general-purpose date library.
+    const closedWeekday = getISODay(new Date(2031, 0, 4));
+
+    const wrapper = await mountInApp(CalendarHolidayList, context, {
+      props: {
+        holidays: ['2030-11-01', '2030-12-25', '2031-01-04'],
+        workingWeekdays: [1, 2, 3, 4, 5, 6, 7].filter((day) => day !== closedWeekday),
+        today: '2030-12-01',
+        editable: true,
+      },
+    });
+
+    const items = wrapper.findAll('.calendar-holiday-list__item');
+    expect(items.map((item) => item.find('time').attributes('datetime'))).toEqual(['2030-12-25', '2031-01-04']);
+    expect(items[0]!.classes()).toContain('is-next');
+    expect(items[0]!.text()).toContain('in 24 days');
+    expect(items[0]!.text()).toContain('Next');
+    expect(items[0]!.text()).not.toContain('already a non-working weekday');
+    expect(items[1]!.text()).toContain('already a non-working weekday');
+    expect(wrapper.text()).toContain('Show past holidays (1)');
+  });
+
+  it('refuses a date that is already a holiday', async () => {
+    const context = await createAppContext({ user: planner, path: '/' });
+    const wrapper = await mountInApp(CalendarHolidayList, context, {
+      props: { holidays: ['2030-12-25'], workingWeekdays: [1, 2, 3, 4, 5], today: '2030-12-01', editable: true },
+    });
+    wrapper.findComponent({ name: 'ElDatePicker' }).vm.$emit('update:modelValue', '2030-12-25');
+    await flushPromises();
+
+    await wrapper.get('form').trigger('submit');
+    await flushPromises();
+
+    expect(wrapper.emitted('add')).toBeUndefined();
+    await vi.waitFor(() => expect(wrapper.get('.el-form-item__error').text()).toBe('2030-12-25 is already a holiday.'));
+  });
+});

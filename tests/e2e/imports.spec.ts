@@ -1,0 +1,90 @@
+import { expect, test, type Page } from '@playwright/test';
+import { ImportsPage } from './pages/imports-page';
+import { LoginPage } from './pages/login-page';
+
+const DEMO_PASSWORD = 'cardloop-demo';
+
+// Part numbers of the demo scenario (seed/scenario-parts.ts); the on-hand layout is PRODUCT.md's
+// `part_number,on_hand`.
+const COUNTS_WITH_A_BAD_ROW = 'part_number,on_hand\nBAT-12-105,16\nNO-SUCH-PART,3\n';
+const COUNTS_CORRECTED = 'part_number,on_hand\nBAT-12-105,16\nFK-FIN,75\n';
+
+async function signIn(page: Page, email: string): Promise<void> {
+  const login = new LoginPage(page);
+  await login.open();
+  await login.signIn(email, DEMO_PASSWORD);
+  await expect(page).toHaveURL(/\/$/);
+}
+
+/** A weekday about six weeks ahead, as YYYY-MM-DD, so a new holiday lands on a worked day. */
+function workingDayAhead(): string {
+  const date = new Date();
+  date.setDate(date.getDate() + 42);
+  while (date.getDay() === 0 || date.getDay() === 6) date.setDate(date.getDate() + 1);
+  return `${date.getFullYear()}-${String(date.getMonth() + 1).padStart(2, '0')}-${String(date.getDate()).padStart(2, '0')}`;
+}
+
+test.describe('imports', () => {
+  test('a buyer imports stock counts: a bad row stops the file, the corrected file goes in', async ({ page }) => {
+    await signIn(page, 'buyer@example.com');
+    const imports = new ImportsPage(page);
+    await imports.openFromRail();
+    await expect(imports.kind('Build sequence')).toHaveCount(0);
+
+    await imports.chooseKind('On-hand counts');
+    await imports.chooseCsv('counts.csv', COUNTS_WITH_A_BAD_ROW);
+    await expect(imports.importButton()).toHaveText('Import 2 rows');
+    await imports.importButton().click();
+
+    await expect(imports.problemReport()).toBeVisible();
+    await expect(imports.problemReport()).toContainText('1 problem; nothing was imported');
+    expect(await imports.problemRows()).toEqual([['3', 'part_number', "unknown part 'NO-SUCH-PART'"]]);
+    await expect(imports.previewRowsWithProblems()).toHaveCount(1);
+    await expect(imports.previewRowsWithProblems()).toContainText('NO-SUCH-PART');
+    await page.mouse.move(0, 0);
+    await page.screenshot({ path: 'test-results/imports.png', fullPage: true, animations: 'disabled' });
+
+    await imports.chooseCsv('counts-corrected.csv', COUNTS_CORRECTED);
+    await expect(imports.problemReport()).toHaveCount(0);
+    await imports.importButton().click();
+
+    await expect(imports.result()).toContainText('Imported 2 rows');
+    await expect(imports.result()).toContainText('2 on-hand counts set');
+    await page.screenshot({ path: 'test-results/imports-done.png', fullPage: true, animations: 'disabled' });
+  });
+
+  test('a planner adds a holiday to the plant calendar and saves it', async ({ page }) => {
+    const holiday = workingDayAhead();
+    await signIn(page, 'planner@example.com');
+    await page.getByRole('navigation').getByRole('link', { name: 'Calendar' }).click();
+    await expect(page.getByRole('heading', { name: 'Working weekdays' })).toBeVisible();
+
+    await page.getByPlaceholder('Pick a date').fill(holiday);
+    await page.getByPlaceholder('Pick a date').press('Enter');
+    await page.getByRole('button', { name: 'Add holiday' }).click();
+    await expect(page.getByRole('status')).toHaveText('Unsaved changes');
+    await page.getByRole('button', { name: 'Save calendar' }).click();
+
+    await expect(page.getByText('Calendar saved.')).toBeVisible();
+    await expect(page.getByRole('list', { name: 'Holidays' }).locator(`time[datetime="${holiday}"]`)).toBeVisible();
+    await expect(page.getByRole('button', { name: 'Save calendar' })).toBeDisabled();
+    await page.reload();
+    await expect(page.getByRole('list', { name: 'Holidays' }).locator(`time[datetime="${holiday}"]`)).toBeVisible();
+    await page.screenshot({ path: 'test-results/calendar.png', fullPage: true, animations: 'disabled' });
+  });
+
+  test('an admin reads the outbox and the demo mail server’s catch', async ({ page }) => {
+    await signIn(page, 'admin@example.com');
+    await page.getByRole('navigation').getByRole('link', { name: 'Outbox' }).click();
+    await expect(page.getByRole('heading', { name: 'Outbox', level: 1 })).toBeVisible();
+    await expect(page.getByRole('columnheader', { name: 'Last error' })).toBeVisible();
+
+    await page.getByRole('tab', { name: 'Captured by the demo mail server' }).click();
+    await expect(page.getByRole('tab', { name: 'Captured by the demo mail server' })).toHaveAttribute('aria-selected', 'true');
+
+    // The e2e server runs the embedded fake SMTP server, so the tab lists what it caught (or says it caught nothing).
+    await expect(page.getByText('In the demo, mail goes to a local server')).toBeVisible();
+    await expect(page.getByText('SMTP_URL points to a real mail server')).toHaveCount(0);
+    await page.screenshot({ path: 'test-results/outbox.png', fullPage: true, animations: 'disabled' });
+  });
+});
