@@ -1,5 +1,6 @@
 import PDFDocument from 'pdfkit';
 import { qrPng, type CardLabelContent } from './card-labels';
+import { UNIT_WORDS } from '../../shared/schemas/master-data';
 
 // A4 portrait in points (ISO 216: 210 × 297 mm), cut into a 2 × 4 grid of cards of about
 // 92 × 66 mm — big enough to read at arm's length in a rack, small enough for a card sleeve.
@@ -15,16 +16,6 @@ const QR_SIZE = 92;
 const INK = '#1a1a1a';
 const MUTED = '#5c5c5c';
 
-/** Short unit words for the UN/ECE Recommendation 20 codes the plant uses. */
-const UNIT_WORDS: Record<string, string> = {
-  H87: 'pcs',
-  KGM: 'kg',
-  MTR: 'm',
-  LTR: 'L',
-  MTK: 'm²',
-  SET: 'sets',
-  PR: 'pairs',
-};
 
 function quantityText(label: CardLabelContent): string {
   const unit = UNIT_WORDS[label.uom];

@@ -9,6 +9,17 @@ export const REPLENISHMENT_METHODS = ['kanban', 'scheduled'] as const;
 /** UN/ECE Recommendation 20 codes the plant uses; extend when a new unit shows up. */
 export const UNIT_CODES = ['H87', 'KGM', 'MTR', 'LTR', 'MTK', 'SET', 'PR'] as const;
 
+/** Short words for the unit codes, as printed on screens and card labels. */
+export const UNIT_WORDS: Record<string, string> = {
+  H87: 'pcs',
+  KGM: 'kg',
+  MTR: 'm',
+  LTR: 'L',
+  MTK: 'm²',
+  SET: 'sets',
+  PR: 'pairs',
+};
+
 export const supplierSchema = z.object({
   code,
   name: z.string().trim().min(1).max(120),

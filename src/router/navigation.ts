@@ -1,5 +1,5 @@
 import { markRaw, type Component } from 'vue';
-import { House, User } from '@element-plus/icons-vue';
+import { Aim, Calendar, House, Message, Refresh, TrendCharts, Upload, User } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { RouteName } from './route-map';
 
@@ -22,11 +22,53 @@ export const navigation: readonly NavigationEntry[] = [
     summary: 'Start here: the areas your role works in.',
   },
   {
+    routeName: 'horizon',
+    label: 'Horizon',
+    icon: markRaw(TrendCharts),
+    roles: ['admin', 'buyer', 'planner', 'viewer'],
+    summary: 'Gross demand per part and supplier, by day or ISO week, with each part’s gross-to-net record.',
+  },
+  {
+    routeName: 'loops',
+    label: 'Loops',
+    icon: markRaw(Refresh),
+    roles: ['admin', 'buyer', 'planner', 'viewer'],
+    summary: 'Kanban loops: cards recommended for the demand ahead versus cards in circulation, labels to print.',
+  },
+  {
+    routeName: 'card-scan',
+    label: 'Scan cards',
+    icon: markRaw(Aim),
+    roles: ['admin', 'buyer', 'planner', 'receiving'],
+    summary: 'Scan kanban cards as they are emptied, released, shipped and received.',
+  },
+  {
+    routeName: 'imports',
+    label: 'Imports',
+    icon: markRaw(Upload),
+    roles: ['admin', 'buyer', 'planner'],
+    summary: 'Load suppliers, parts, BOMs, the build sequence or stock counts from CSV; a bad row stops the whole file.',
+  },
+  {
+    routeName: 'calendar',
+    label: 'Calendar',
+    icon: markRaw(Calendar),
+    roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'],
+    summary: 'Working weekdays and plant holidays, which every lead-time offset counts in.',
+  },
+  {
     routeName: 'admin-users',
     label: 'Users',
     icon: markRaw(User),
     roles: ['admin'],
     summary: 'Add people, give each the role for their job, and switch off accounts no longer used.',
+  },
+  {
+    routeName: 'admin-outbox',
+    label: 'Outbox',
+    icon: markRaw(Message),
+    roles: ['admin'],
+    summary: 'Every notice the plant sent or is still trying to send, and what the demo mail server caught.',
   },
 ];
 

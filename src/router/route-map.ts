@@ -10,7 +10,14 @@ type NoParams = Record<never, never>;
 export interface RouteNamedMap {
   login: RouteRecordInfo<'login', '/login', NoParams, NoParams>;
   home: RouteRecordInfo<'home', '/', NoParams, NoParams>;
+  horizon: RouteRecordInfo<'horizon', '/horizon', NoParams, NoParams>;
+  loops: RouteRecordInfo<'loops', '/loops', NoParams, NoParams>;
+  'loop-print': RouteRecordInfo<'loop-print', '/loops/:id/print', { id: string | number }, { id: string }>;
+  'card-scan': RouteRecordInfo<'card-scan', '/scan', NoParams, NoParams>;
   'admin-users': RouteRecordInfo<'admin-users', '/admin/users', NoParams, NoParams>;
+  imports: RouteRecordInfo<'imports', '/imports', NoParams, NoParams>;
+  calendar: RouteRecordInfo<'calendar', '/calendar', NoParams, NoParams>;
+  'admin-outbox': RouteRecordInfo<'admin-outbox', '/admin/outbox', NoParams, NoParams>;
   forbidden: RouteRecordInfo<'forbidden', '/forbidden', NoParams, NoParams>;
   'not-found': RouteRecordInfo<
     'not-found',

@@ -14,10 +14,52 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Overview' },
   },
   {
+    path: '/horizon',
+    name: 'horizon',
+    component: () => import('@/views/HorizonView.vue'),
+    meta: { title: 'Horizon', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+  },
+  {
+    path: '/loops',
+    name: 'loops',
+    component: () => import('@/views/LoopsView.vue'),
+    meta: { title: 'Loops', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+  },
+  {
+    path: '/loops/:id/print',
+    name: 'loop-print',
+    component: () => import('@/views/LoopPrintView.vue'),
+    meta: { title: 'Card labels', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+  },
+  {
+    path: '/scan',
+    name: 'card-scan',
+    component: () => import('@/views/CardScanView.vue'),
+    meta: { title: 'Scan cards', roles: ['admin', 'buyer', 'planner', 'receiving'] },
+  },
+  {
     path: '/admin/users',
     name: 'admin-users',
     component: () => import('@/views/UsersView.vue'),
     meta: { title: 'Users', roles: ['admin'] },
+  },
+  {
+    path: '/imports',
+    name: 'imports',
+    component: () => import('@/views/ImportsView.vue'),
+    meta: { title: 'Imports', roles: ['admin', 'buyer', 'planner'] },
+  },
+  {
+    path: '/calendar',
+    name: 'calendar',
+    component: () => import('@/views/CalendarView.vue'),
+    meta: { title: 'Plant calendar', roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'] },
+  },
+  {
+    path: '/admin/outbox',
+    name: 'admin-outbox',
+    component: () => import('@/views/OutboxView.vue'),
+    meta: { title: 'Outbox', roles: ['admin'] },
   },
   {
     path: '/forbidden',

@@ -8,16 +8,17 @@ import { routes } from '@/router/routes';
 // Role rules from PRODUCT.md, "The people and what each must get done": users and roles are
 // the admin's job only.
 describe('navigationFor', () => {
-  it('offers the user list to an admin', () => {
+  it('offers every area, the user list and the outbox to an admin', () => {
     const names = navigationFor('admin').map((entry) => entry.routeName);
 
-    expect(names).toEqual(['home', 'admin-users']);
+    expect(names).toEqual(['home', 'horizon', 'loops', 'card-scan', 'imports', 'calendar', 'admin-users', 'admin-outbox']);
   });
 
-  it.each(ROLES.filter((role) => role !== 'admin'))('keeps the user list from a %s', (role) => {
+  it.each(ROLES.filter((role) => role !== 'admin'))('keeps the user list and outbox from a %s', (role) => {
     const names = navigationFor(role).map((entry) => entry.routeName);
 
     expect(names).not.toContain('admin-users');
+    expect(names).not.toContain('admin-outbox');
     expect(names).toContain('home');
   });
 
@@ -48,7 +49,7 @@ describe('AppShellNav', () => {
 
     const nav = wrapper.get('nav');
     expect(nav.attributes('aria-label')).toBe('Main');
-    expect(nav.findAll('a').map((link) => link.text())).toEqual(['Overview']);
+    expect(nav.findAll('a').map((link) => link.text())).toEqual(['Overview', 'Horizon', 'Loops', 'Scan cards', 'Imports', 'Calendar']);
   });
 
   it('marks the open page with aria-current for an admin on the user list', async () => {
@@ -57,7 +58,7 @@ describe('AppShellNav', () => {
     const wrapper = await mountInApp(AppShellNav, context);
 
     const links = wrapper.findAll('a');
-    expect(links.map((link) => link.text())).toEqual(['Overview', 'Users']);
+    expect(links.map((link) => link.text())).toEqual(['Overview', 'Horizon', 'Loops', 'Scan cards', 'Imports', 'Calendar', 'Users', 'Outbox']);
     const current = links.filter((link) => link.attributes('aria-current') === 'page');
     expect(current.map((link) => link.text())).toEqual(['Users']);
     expect(current[0]!.classes()).toContain('is-active');

@@ -1,0 +1,220 @@
+import { defineStore } from 'pinia';
+import { computed, reactive, ref } from 'vue';
+import { isCardState, type CardEvent, type CardState } from '@shared/domain/card-cycle';
+import type { CardLabel, KanbanCardWithScans, KanbanLoop, UpdateKanbanLoopRequest } from '@shared/schemas/kanban-loops';
+import * as kanbanApi from '@/api/kanban';
+import { ApiError } from '@/api/http';
+
+/** How many scans the scan screen keeps in view. */
+export const SCAN_HISTORY_LENGTH = 10;
+
+/** Why a scan was refused, in the terms the floor needs to act on it. */
+export type ScanProblem = 'bad-number' | 'unknown-card' | 'not-allowed' | 'pulled' | 'no-access' | 'failed';
+
+interface ScanRecordBase {
+  key: number;
+  cardNumber: string;
+  scannedAt: Date;
+}
+
+export interface ScanSuccess extends ScanRecordBase {
+  ok: true;
+  partNumber: string;
+  event: CardEvent;
+  fromState: CardState;
+  toState: CardState;
+}
+
+export interface ScanFailure extends ScanRecordBase {
+  ok: false;
+  problem: ScanProblem;
+  message: string;
+  /** The card's state when the server refused a move (409), else null. */
+  currentState: CardState | null;
+}
+
+export type ScanRecord = ScanSuccess | ScanFailure;
+
+/** Cards of one loop as the expanded row shows them. */
+export interface LoopCardsState {
+  cards: KanbanCardWithScans[];
+  loading: boolean;
+  error: ApiError | null;
+}
+
+function problemOf(error: ApiError): { problem: ScanProblem; currentState: CardState | null } {
+  const first = (error.details[0] ?? {}) as { currentState?: unknown; retiredAt?: unknown };
+  const currentState = isCardState(first.currentState) ? first.currentState : null;
+  if (error.status === 400) return { problem: 'bad-number', currentState: null };
+  if (error.status === 404) return { problem: 'unknown-card', currentState: null };
+  if (error.status === 403) return { problem: 'no-access', currentState: null };
+  if (error.status === 409) return { problem: first.retiredAt ? 'pulled' : 'not-allowed', currentState };
+  return { problem: 'failed', currentState: null };
+}
+
+export const useLoopsStore = defineStore('loops', () => {
+  const loops = ref<KanbanLoop[]>([]);
+  const supplierCode = ref('');
+  const loading = ref(false);
+  const loaded = ref(false);
+  const error = ref<ApiError | null>(null);
+  // Rows with a change in flight, so their buttons can spin and refuse a second click.
+  const busyIds = ref(new Set<number>());
+  const cardsByLoop = reactive<Record<number, LoopCardsState>>({});
+  const scans = ref<ScanRecord[]>([]);
+  let scanKey = 0;
+  const printLoop = ref<KanbanLoop | null>(null);
+  const labels = ref<CardLabel[]>([]);
+  const labelsLoading = ref(false);
+  const labelsError = ref<ApiError | null>(null);
+  // Only the latest label request may fill the sheet: toggling active/all twice must not show the first answer.
+  let labelsRequest = 0;
+
+  const toAdd = computed(() => loops.value.filter((loop) => loop.recommendedCards > loop.activeCards));
+  const toPull = computed(() => loops.value.filter((loop) => loop.recommendedCards < loop.activeCards));
+  const rightSized = computed(() => loops.value.filter((loop) => loop.recommendedCards === loop.activeCards));
+  const cardsToAdd = computed(() => toAdd.value.reduce((sum, loop) => sum + loop.recommendedCards - loop.activeCards, 0));
+  const cardsToPull = computed(() => toPull.value.reduce((sum, loop) => sum + loop.activeCards - loop.recommendedCards, 0));
+
+  /** Loads the loops (of the chosen supplier); a failure is kept in `error` and the previous list stays. */
+  async function fetchAll(): Promise<void> {
+    loading.value = true;
+    error.value = null;
+    try {
+      loops.value = await kanbanApi.listLoops(supplierCode.value || undefined);
+      loaded.value = true;
+    } catch (cause) {
+      if (!(cause instanceof ApiError)) throw cause;
+      error.value = cause;
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  function replaceLoop(updated: KanbanLoop): void {
+    loops.value = loops.value.map((loop) => (loop.id === updated.id ? updated : loop));
+  }
+
+  async function whileBusy<T>(id: number, work: () => Promise<T>): Promise<T> {
+    busyIds.value.add(id);
+    try {
+      return await work();
+    } finally {
+      busyIds.value.delete(id);
+    }
+  }
+
+  /**
+   * Accepts the recommendation the buyer is looking at. Rethrows the ApiError (409 when the
+   * recommendation moved meanwhile) for the view to report and refresh.
+   */
+  async function accept(loop: KanbanLoop) {
+    return whileBusy(loop.id, async () => {
+      const outcome = await kanbanApi.acceptLoop(loop.id, loop.recommendedCards);
+      const { added: _added, retired: _retired, stillToPull: _stillToPull, ...updated } = outcome;
+      replaceLoop(updated);
+      if (cardsByLoop[loop.id]) void fetchCards(loop.id);
+      return outcome;
+    });
+  }
+
+  /** Saves loop settings; rethrows the ApiError so the form can place field messages. */
+  async function update(id: number, patch: UpdateKanbanLoopRequest): Promise<KanbanLoop> {
+    return whileBusy(id, async () => {
+      const updated = await kanbanApi.updateLoop(id, patch);
+      replaceLoop(updated);
+      return updated;
+    });
+  }
+
+  /** Loads (or reloads) one loop's cards with their recent scans. */
+  async function fetchCards(loopId: number): Promise<void> {
+    cardsByLoop[loopId] ??= { cards: [], loading: false, error: null };
+    // Read back through the reactive record: the object literal itself is not tracked.
+    const entry = cardsByLoop[loopId];
+    entry.loading = true;
+    entry.error = null;
+    try {
+      entry.cards = await kanbanApi.listCards(loopId);
+    } catch (cause) {
+      if (!(cause instanceof ApiError)) throw cause;
+      entry.error = cause;
+    } finally {
+      entry.loading = false;
+    }
+  }
+
+  /** Loads a loop and the labels of its cards for the print view; a failure is kept in `labelsError`. */
+  async function fetchLabels(loopId: number, cards: kanbanApi.LabelSelection): Promise<void> {
+    const request = (labelsRequest += 1);
+    labelsLoading.value = true;
+    labelsError.value = null;
+    try {
+      const [loop, loopLabels] = await Promise.all([kanbanApi.getLoop(loopId), kanbanApi.listLabels(loopId, cards)]);
+      if (request !== labelsRequest) return;
+      printLoop.value = loop;
+      labels.value = loopLabels;
+    } catch (cause) {
+      if (!(cause instanceof ApiError)) throw cause;
+      if (request !== labelsRequest) return;
+      labelsError.value = cause;
+      labels.value = [];
+    } finally {
+      if (request === labelsRequest) labelsLoading.value = false;
+    }
+  }
+
+  function isBusy(id: number): boolean {
+    return busyIds.value.has(id);
+  }
+
+  function remember(record: ScanRecord): ScanRecord {
+    scans.value = [record, ...scans.value].slice(0, SCAN_HISTORY_LENGTH);
+    return record;
+  }
+
+  /** Records one scan and keeps it in this session's history; never throws for a refused scan. */
+  async function scan(cardNumber: string, event?: CardEvent): Promise<ScanRecord> {
+    const base = { key: (scanKey += 1), cardNumber, scannedAt: new Date() };
+    try {
+      const { card, scan: logged } = await kanbanApi.scanCard(event ? { cardNumber, event } : { cardNumber });
+      return remember({
+        ...base,
+        ok: true,
+        partNumber: card.partNumber,
+        event: logged.event,
+        fromState: logged.fromState,
+        toState: logged.toState,
+      });
+    } catch (cause) {
+      if (!(cause instanceof ApiError)) throw cause;
+      return remember({ ...base, ok: false, message: cause.message, ...problemOf(cause) });
+    }
+  }
+
+  return {
+    loops,
+    supplierCode,
+    loading,
+    loaded,
+    error,
+    cardsByLoop,
+    scans,
+    printLoop,
+    labels,
+    labelsLoading,
+    labelsError,
+    toAdd,
+    toPull,
+    rightSized,
+    cardsToAdd,
+    cardsToPull,
+    fetchAll,
+    accept,
+    update,
+    fetchCards,
+    fetchLabels,
+    isBusy,
+    scan,
+  };
+});

@@ -1,0 +1,98 @@
+import { createAppContext, demoUsers, getByLabel, jsonResponse, mountInApp } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises } from '@vue/test-utils';
+import LoopsSizingCalculator from '@/components/LoopsSizingCalculator.vue';
+
+vi.mock('element-plus/es/components/drawer/style/css', () => ({}));
+vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
+vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
+vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
+
+async function openCalculator() {
+  const context = await createAppContext({ user: demoUsers.buyer, path: '/loops' });
+  const wrapper = await mountInApp(LoopsSizingCalculator, context, { props: { modelValue: true, loop: null } });
+  const drawer = document.body.querySelector<HTMLElement>('[role="dialog"]')!;
+  return { wrapper, drawer };
+}
+
+function type(input: HTMLElement, value: string): void {
+  (input as HTMLInputElement).value = value;
+  input.dispatchEvent(new Event('input'));
+  input.dispatchEvent(new Event('change'));
+}
+
+function errorUnder(drawer: HTMLElement, label: string): string {
+  const item = getByLabel(drawer, label).closest('.el-form-item');
+  return item?.querySelector('.el-form-item__error')?.textContent?.trim() ?? '';
+}
+
+function bodies(fetchMock: ReturnType<typeof vi.fn<typeof fetch>>): unknown[] {
+  return fetchMock.mock.calls.map(([, init]) => JSON.parse(String(init?.body)));
+}
+
+describe('LoopsSizingCalculator', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('asks the server with the delivery-cycle form and shows the filled-in formula and card count', async () => {
+    // Its starting numbers: D = 100/day, cycle 1–1–1 so T = 1 × (1 + 1) / 1 = 2 days, α = 0.1,
+    // C = 25: N = ⌈100 × 2 × 1.1 / 25⌉ = ⌈8.8⌉ = 9 (PRODUCT.md capability 5 formula; the
+    // answer below is what the server would send for these numbers).
+    const fetchMock = vi.fn<typeof fetch>().mockResolvedValue(
+      jsonResponse(200, {
+        exact: 8.8,
+        cards: 9,
+        replenishmentTime: 2,
+        formula: 'T = 1 × (1 + 1) / 1 = 2; ⌈(100 × (2 × (1 + 0.1) + 0) + 0) / 25⌉ = ⌈8.8⌉ = 9',
+      }),
+    );
+    vi.stubGlobal('fetch', fetchMock);
+
+    const { drawer } = await openCalculator();
+    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+    await flushPromises();
+
+    expect(bodies(fetchMock)[0]).toEqual({
+      dailyDemand: 100,
+      containerQty: 25,
+      cycle: { days: 1, deliveries: 1, delay: 1 },
+      safetyFactor: 0.1,
+      safetyDays: 0,
+      safetyStock: 0,
+    });
+    expect(drawer.querySelector('[data-test="sizing-cards"]')?.textContent).toBe('9');
+    expect(drawer.querySelector('[data-test="sizing-formula"]')?.textContent).toContain('⌈8.8⌉ = 9');
+  });
+
+  it('waits for typing to pause, then puts the server’s message by the field it judged', async () => {
+    const message = 'Too small: expected number to be >0';
+    const fetchMock = vi
+      .fn<typeof fetch>()
+      .mockResolvedValueOnce(jsonResponse(200, { exact: 8.8, cards: 9, replenishmentTime: 2, formula: '' }))
+      .mockResolvedValueOnce(
+        jsonResponse(400, {
+          error: {
+            code: 'invalid_input',
+            message: `containerQty: ${message}`,
+            details: [{ path: ['containerQty'], code: 'too_small', message }],
+          },
+        }),
+      );
+    vi.stubGlobal('fetch', fetchMock);
+    const { drawer } = await openCalculator();
+    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+
+    const container = getByLabel(drawer, 'Container quantity (C)');
+    type(container, '-2');
+    type(container, '-25');
+    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(2));
+    await flushPromises();
+
+    expect((bodies(fetchMock)[1] as { containerQty: number }).containerQty).toBe(-25);
+    await vi.waitFor(() => expect(errorUnder(drawer, 'Container quantity (C)')).toBe(message));
+    expect(drawer.textContent).toContain('Fix the marked inputs to see the card count.');
+  });
+});

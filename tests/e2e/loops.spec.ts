@@ -1,0 +1,89 @@
+import { readFile } from 'node:fs/promises';
+import { expect, test } from '@playwright/test';
+import { isValidGs1 } from '../../shared/domain/gs1';
+import { CardScanPage, LoopPrintPage, LoopsPage, settleForScreenshot } from './pages/loops-page';
+import { LoginPage } from './pages/login-page';
+
+const DEMO_PASSWORD = 'cardloop-demo';
+
+test.describe('Loops', () => {
+  test('a buyer accepts a loop’s proposal, prints its cards and scans one from full to empty', async ({ page }) => {
+    const login = new LoginPage(page);
+    await login.open();
+    await login.signIn('buyer@example.com', DEMO_PASSWORD);
+    await expect(page).toHaveURL(/\/$/);
+    const loops = new LoopsPage(page);
+
+    // The demo starts every loop without cards, so every loop proposes adding some.
+    await loops.open();
+    await expect(loops.heading()).toBeVisible();
+    await loops.toggleLoopsNeedingCards();
+    const firstRow = loops.rows().first();
+    await expect(firstRow.locator('[data-test="proposal"]')).toHaveText(/^Add \d+$/);
+    const partNumber = await loops.partNumberOf(firstRow);
+    await loops.toggleLoopsNeedingCards();
+    await loops.search(partNumber);
+    await expect(loops.rows()).toHaveCount(1);
+    const recommended = Number(await loops.recommended(partNumber).textContent());
+    expect(recommended).toBeGreaterThan(0);
+    await expect(loops.proposal(partNumber)).toHaveText(`Add ${recommended}`);
+    await expect(loops.active(partNumber)).toHaveText('0');
+
+    await loops.accept(partNumber, `Add ${recommended}`);
+
+    await expect(page.getByText(`${recommended} cards added to ${partNumber}`)).toBeVisible();
+    await expect(loops.proposal(partNumber)).toHaveText('Right-sized');
+    await expect(loops.active(partNumber)).toHaveText(String(recommended));
+
+    await loops.openPrint(partNumber);
+    await expect(page).toHaveURL(/\/loops\/\d+\/print$/);
+    const print = new LoopPrintPage(page);
+    await expect(print.labels()).toHaveCount(recommended);
+    await expect(print.labels().first()).toContainText(partNumber);
+    await expect(print.labels().first()).toContainText(`card 1 of ${recommended}`);
+    await expect(print.labels().first().locator('svg path').first()).toBeAttached();
+    expect(await print.labels().locator('svg').count()).toBe(recommended);
+    const cardNumbers = await print.cardNumbers();
+    expect(cardNumbers).toHaveLength(recommended);
+    // Printed numbers carry a GS1 mod-10 check digit (GS1 General Specifications, section 7.9).
+    for (const cardNumber of cardNumbers) {
+      expect(cardNumber).toMatch(/^\d{12}$/);
+      expect(isValidGs1(cardNumber)).toBe(true);
+    }
+    await settleForScreenshot(page);
+    await page.screenshot({ path: 'test-results/loop-print.png', fullPage: true });
+
+    const downloadEvent = page.waitForEvent('download');
+    await print.downloadPdfButton().click();
+    const download = await downloadEvent;
+    expect(download.suggestedFilename()).toMatch(/\.pdf$/);
+    const pdf = await readFile((await download.path())!);
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+
+    const scan = new CardScanPage(page);
+    await scan.open();
+    await expect(scan.input()).toBeFocused();
+    await scan.scan(cardNumbers[0]!);
+
+    await expect(scan.feedback()).toContainText('Full → Empty');
+    await expect(scan.feedback()).toContainText(cardNumbers[0]!);
+    await expect(scan.feedback()).toContainText(partNumber);
+    await expect(scan.input()).toHaveValue('');
+    await expect(scan.input()).toBeFocused();
+    await expect(scan.history()).toContainText(`${partNumber}: Full → Empty`);
+    await settleForScreenshot(page);
+    await page.screenshot({ path: 'test-results/scan.png', fullPage: true });
+
+    await loops.open();
+    await loops.search(partNumber);
+    await expect(loops.row(partNumber).getByRole('img', { name: /1 empty/ })).toBeVisible();
+    await loops.showCards(partNumber);
+    await expect(loops.cardList(partNumber)).toContainText('Signal empty (Full → Empty)');
+    // Back to the whole list, the scanned loop still open at the top, for the picture.
+    await loops.search('');
+    await expect(loops.rows().nth(10)).toBeVisible();
+    await expect(loops.cardList(partNumber)).toBeVisible();
+    await settleForScreenshot(page);
+    await page.screenshot({ path: 'test-results/loops.png' });
+  });
+});
