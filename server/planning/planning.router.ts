@@ -3,7 +3,7 @@ import { Router } from 'express';
 import { demandQuerySchema, demandResponseSchema, planQuerySchema, planResponseSchema } from '../../shared/schemas/planning';
 import { defineRoute } from '../http/route';
 import { READ_ROLES } from '../http/roles';
-import { demandToCsv } from './demand-csv';
+import { demandToCsv, planToCsv } from './planning-csv';
 import type { PlanningService } from './planning.service';
 
 export function createPlanningRouter(planning: PlanningService, registry: OpenAPIRegistry): Router {
@@ -12,11 +12,17 @@ export function createPlanningRouter(planning: PlanningService, registry: OpenAP
   defineRoute(router, registry, {
     method: 'get',
     path: '/plan',
-    summary: 'Gross-to-net buckets of one part, one per working day from `from` to `to`',
+    summary: 'Gross-to-net buckets of one part, one per working day from `from` to `to` (JSON, or CSV with format=csv)',
     access: READ_ROLES,
     query: planQuerySchema,
     response: planResponseSchema,
-    handler: ({ query }) => planning.partPlan(query.part, query.from, query.to),
+    produces: ['text/csv'],
+    handler: async ({ query, res }) => {
+      const plan = await planning.partPlan(query.part, query.from, query.to);
+      if (query.format !== 'csv') return plan;
+      res.type('text/csv').attachment(`plan-${plan.part.partNumber}-${plan.buckets[0]?.date ?? 'empty'}.csv`).send(planToCsv(plan));
+      return undefined;
+    },
   });
 
   defineRoute(router, registry, {

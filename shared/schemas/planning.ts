@@ -5,6 +5,7 @@ export const planQuerySchema = z.object({
   part: z.string().trim().min(1).max(40),
   from: isoDateSchema.optional(),
   to: isoDateSchema.optional(),
+  format: z.enum(['json', 'csv']).default('json'),
 });
 
 export const demandQuerySchema = z.object({

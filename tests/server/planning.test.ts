@@ -54,6 +54,21 @@ describe('GET /api/plan', () => {
     expect(response.body.pastDue).toEqual([{ date: '2026-12-18', qty: 10 }]);
   });
 
+  it('exports the same buckets and past-due release as CSV', async () => {
+    const response = await request(context.app)
+      .get('/api/plan')
+      .query({ part: 'C', from: '2026-12-21', to: '2026-12-22', format: 'csv' })
+      .set(bearer(context.tokens.viewer));
+
+    expect(response.status).toBe(200);
+    expect(response.text.split('\r\n')).toEqual([
+      'date,gross,scheduled_receipts,projected_available,net,planned_receipt,planned_release',
+      '2026-12-21,4,0,1,0,0,0',
+      '2026-12-22,2,0,9,1,10,0',
+      'past due 2026-12-18,,,,,,10',
+    ]);
+  });
+
   it('answers 404 for an unknown part and 400 for a reversed horizon', async () => {
     const unknown = await request(context.app).get('/api/plan').query({ part: 'NOPE' }).set(bearer(context.tokens.buyer));
     const reversed = await request(context.app)

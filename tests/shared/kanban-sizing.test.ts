@@ -37,7 +37,7 @@ describe('sizeKanban against textbook worked examples', () => {
   it('sizes a loop measured in hours (demand per hour × cycle in hours)', () => {
     // Stevenson, "Operations Management", ch. 14, end-of-chapter problem 1: usage 80 pieces per
     // hour, container cycle 75 minutes (1.25 h), inefficiency factor 0.35, 45 pieces per container
-    // → 3 containers (from memory; the problem text matches a stored copy on solvely.ai).
+    // → 3 containers (from memory; the problem text matches a published solution).
     const input = { dailyDemand: 80, leadTimeDays: 1.25, safetyFactor: 0.35, containerQty: 45 };
 
     const result = sizeKanban(input);
@@ -49,8 +49,8 @@ describe('sizeKanban against textbook worked examples', () => {
   it('sizes an hourly loop whose count is not whole', () => {
     // Jacobs & Chase, "Operations and Supply Chain Management", 14th ed., ch. "Lean Supply
     // Chains", problem 10: 10 gauges per hour, 2 h replenishment, 20 % safety stock, housings
-    // moved 5 at a time → 5 kanban card sets. Problem text and answer from a stored solution page
-    // (vaia.com); its intermediate "21.2/5" is a slip, 10 × 2 × 1.2 / 5 = 4.8.
+    // moved 5 at a time → 5 kanban card sets. Problem text and answer from a published solution;
+    // its intermediate "21.2/5" is a slip, 10 × 2 × 1.2 / 5 = 4.8.
     const input = { dailyDemand: 10, leadTimeDays: 2, safetyFactor: 0.2, containerQty: 5 };
 
     const result = sizeKanban(input);
@@ -113,25 +113,12 @@ describe('sizeKanban against textbook worked examples', () => {
   it('sizes a second safety-in-days loop', () => {
     // Heizer & Render, "Operations Management", ch. 16, end-of-chapter problem: daily demand 3,000
     // packages, lead time 4 days, safety stock 1 day, container 250 → (12,000 + 3,000) / 250 = 60
-    // kanbans (from memory; problem text and working match a stored copy on enotes.com).
+    // kanbans (from memory; problem text and working match a published solution).
     const inDays = { dailyDemand: 3000, leadTimeDays: 4, safetyDays: 1, containerQty: 250 };
     const inUnits = { dailyDemand: 3000, leadTimeDays: 4, safetyStock: 3000, containerQty: 250 };
 
     expect(sizeKanban(inDays).cards).toBe(60);
     expect(sizeKanban(inUnits).cards).toBe(60);
-  });
-
-  it('sizes an hourly production-card problem', () => {
-    // Textbook problem set (D, T, C, X notation; book not identified, problem and answer as stored
-    // on getpaperhelp.com): D = 1,000 units/hour, T = 2 hours, C = 250, X = 15 % → 10 cards,
-    // "10 cards × 250 units per card = 2,500 / 1,000 units per hour = 2.5 hours".
-    const input = { dailyDemand: 1000, leadTimeDays: 2, safetyFactor: 0.15, containerQty: 250 };
-
-    const result = sizeKanban(input);
-
-    expect(result.exact).toBe(9.2);
-    expect(result.cards).toBe(10);
-    expect((result.cards * input.containerQty) / input.dailyDemand).toBe(2.5);
   });
 });
 
