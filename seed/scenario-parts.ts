@@ -36,6 +36,8 @@ export interface MadeEntry {
   leadTimeDays: number;
   pointOfUse: string;
   usedOn: Record<string, number>;
+  /** Small sub-assemblies pulled from an in-plant supermarket by kanban, in racks of `packQty`. */
+  supermarket?: { packQty: number };
 }
 
 /** Sub-assemblies made in-house; their components are in BOUGHT below. */
@@ -48,11 +50,11 @@ export const MADE: MadeEntry[] = [
   { partNumber: 'DCK-26', description: 'Brush deck weldment, 26 in single disc', leadTimeDays: 2, pointOfUse: 'L1-ST02', usedOn: { [FS26W]: 1 } },
   { partNumber: 'DCK-32', description: 'Brush deck weldment, 32 in twin disc', leadTimeDays: 2, pointOfUse: 'L1-ST02', usedOn: { [FS32R]: 1 } },
   { partNumber: 'DCK-40', description: 'Brush deck weldment, 40 in twin disc', leadTimeDays: 2, pointOfUse: 'L1-ST02', usedOn: { [FS40R]: 1 } },
-  { partNumber: 'SQA-20', description: 'Squeegee assembly for 20 in deck, 28 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS20W]: 1 } },
-  { partNumber: 'SQA-26', description: 'Squeegee assembly for 26 in deck, 34 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS26W]: 1 } },
-  { partNumber: 'SQA-32', description: 'Squeegee assembly for 32 in deck, 42 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS32R]: 1 } },
-  { partNumber: 'SQA-40', description: 'Squeegee assembly for 40 in deck, 50 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS40R]: 1 } },
-  { partNumber: 'HDL-W', description: 'Handle weldment, walk-behind', leadTimeDays: 1, pointOfUse: 'L1-ST07', usedOn: each(WALK, 1) },
+  { partNumber: 'SQA-20', description: 'Squeegee assembly for 20 in deck, 28 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS20W]: 1 }, supermarket: { packQty: 5 } },
+  { partNumber: 'SQA-26', description: 'Squeegee assembly for 26 in deck, 34 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS26W]: 1 }, supermarket: { packQty: 5 } },
+  { partNumber: 'SQA-32', description: 'Squeegee assembly for 32 in deck, 42 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS32R]: 1 }, supermarket: { packQty: 4 } },
+  { partNumber: 'SQA-40', description: 'Squeegee assembly for 40 in deck, 50 in wide', leadTimeDays: 1, pointOfUse: 'L1-ST09', usedOn: { [FS40R]: 1 }, supermarket: { packQty: 4 } },
+  { partNumber: 'HDL-W', description: 'Handle weldment, walk-behind', leadTimeDays: 1, pointOfUse: 'L1-ST07', usedOn: each(WALK, 1), supermarket: { packQty: 6 } },
 ];
 
 export interface BoughtEntry {

@@ -91,7 +91,7 @@ describe('buildDemoScenario', () => {
     expect(steelLines.some((line) => !Number.isInteger(line.qtyPer))).toBe(true);
   });
 
-  it('gives every bought part an existing supplier and a replenishment method, and none to made parts or end items', () => {
+  it('gives every bought part an existing supplier and a replenishment method, made parts kanban or none, end items none', () => {
     const supplierCodes = new Set(scenario.suppliers.map((supplier) => supplier.code));
     for (const part of scenario.parts) {
       if (part.source === 'buy') {
@@ -99,6 +99,9 @@ describe('buildDemoScenario', () => {
         expect(['kanban', 'scheduled']).toContain(part.replenishment);
         expect(part.leadTimeDays).toBeGreaterThanOrEqual(2);
         expect(part.leadTimeDays).toBeLessThanOrEqual(10);
+      } else if (part.source === 'make') {
+        expect(part.supplierCode).toBeNull();
+        expect([null, 'kanban']).toContain(part.replenishment);
       } else {
         expect(part.supplierCode).toBeNull();
         expect(part.replenishment).toBeNull();
@@ -108,6 +111,8 @@ describe('buildDemoScenario', () => {
     }
     const bought = scenario.parts.filter((part) => part.source === 'buy');
     expect(bought.some((part) => part.replenishment === 'kanban')).toBe(true);
+    // In-plant supermarket loops need at least one made part on kanban.
+    expect(scenario.parts.some((part) => part.source === 'make' && part.replenishment === 'kanban')).toBe(true);
     expect(bought.some((part) => part.replenishment === 'scheduled')).toBe(true);
     expect(bought.some((part) => part.safetyStock > 0)).toBe(true);
   });
