@@ -127,7 +127,8 @@ describe('sizeKanban with a delivery cycle days–deliveries–delay', () => {
     // Monden, "Toyota Production System", chapter on supplier kanban (from memory): cycle a-b-c
     // means b deliveries every a days, a kanban collected at one delivery being filled c deliveries
     // later. A card is therefore away c·a/b days and must then cover one more interval a/b:
-    // T = a(1 + c)/b, here 1 × 3 / 4 = 0.75 day.
+    // T = a(1 + c)/b, here 1 × 3 / 4 = 0.75 day. The source's value is T; D = 400 and C = 50
+    // only show how the formula line reads (no published worked example of this form was found).
     const input: KanbanSizeInput = {
       dailyDemand: 400,
       containerQty: 50,
