@@ -19,6 +19,7 @@ import { createMailRouter } from './mail/mail.router';
 import { createMasterDataRouter } from './master-data/master-data.router';
 import { MasterDataService } from './master-data/master-data.service';
 import { authenticate } from './middleware/authenticate';
+import { ForecastMailService } from './planning/forecast-mail.service';
 import { createPlanningRouter } from './planning/planning.router';
 import { PlanningService } from './planning/planning.service';
 import { errorHandler } from './middleware/error-handler';
@@ -75,7 +76,7 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   api.use(createMasterDataRouter(new MasterDataService(dataSource), registry));
   api.use(createImportsRouter(dataSource, registry));
   const planning = new PlanningService(dataSource);
-  api.use(createPlanningRouter(planning, registry));
+  api.use(createPlanningRouter(planning, new ForecastMailService(dataSource, planning), registry));
   api.use(createKanbanRouter(dataSource, planning, registry));
   api.use(createEventsRouter(dataSource, registry));
   api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));

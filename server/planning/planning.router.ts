@@ -1,12 +1,20 @@
 import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
-import { demandQuerySchema, demandResponseSchema, planQuerySchema, planResponseSchema } from '../../shared/schemas/planning';
+import {
+  demandQuerySchema,
+  demandResponseSchema,
+  forecastMailRequestSchema,
+  forecastMailResponseSchema,
+  planQuerySchema,
+  planResponseSchema,
+} from '../../shared/schemas/planning';
 import { defineRoute } from '../http/route';
-import { READ_ROLES } from '../http/roles';
+import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
+import type { ForecastMailService } from './forecast-mail.service';
 import { demandToCsv, planToCsv } from './planning-csv';
 import type { PlanningService } from './planning.service';
 
-export function createPlanningRouter(planning: PlanningService, registry: OpenAPIRegistry): Router {
+export function createPlanningRouter(planning: PlanningService, forecastMail: ForecastMailService, registry: OpenAPIRegistry): Router {
   const router = Router();
 
   defineRoute(router, registry, {
@@ -40,6 +48,17 @@ export function createPlanningRouter(planning: PlanningService, registry: OpenAP
       res.type('text/csv').attachment(name).send(demandToCsv(demand));
       return undefined;
     },
+  });
+
+  defineRoute(router, registry, {
+    method: 'post',
+    path: '/demand/forecast-mail',
+    summary: 'E-mail a supplier its gross demand ahead, with the CSV attached (queued in the outbox)',
+    access: MASTER_DATA_ROLES,
+    body: forecastMailRequestSchema,
+    response: forecastMailResponseSchema,
+    status: 202,
+    handler: ({ body, user }) => forecastMail.send(body, user),
   });
 
   return router;

@@ -58,3 +58,19 @@ export const demandResponseSchema = z.object({
   ),
 });
 export type DemandResponse = z.infer<typeof demandResponseSchema>;
+
+export const forecastMailRequestSchema = z.object({
+  supplier: z.string().trim().min(1).max(20),
+  from: isoDateSchema.optional(),
+  to: isoDateSchema.optional(),
+});
+export type ForecastMailRequest = z.infer<typeof forecastMailRequestSchema>;
+
+export const forecastMailResponseSchema = z.object({
+  to: z.string(),
+  subject: z.string(),
+  parts: z.number().int(),
+  from: z.string(),
+  until: z.string(),
+});
+export type ForecastMailResponse = z.infer<typeof forecastMailResponseSchema>;

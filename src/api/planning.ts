@@ -1,4 +1,4 @@
-import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
+import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/planning';
 import { download } from './download';
 import { http } from './http';
 
@@ -23,4 +23,9 @@ export function getPlan(part: string, range: { from: string; to: string }, signa
 export function downloadDemandCsv(query: DemandQuery): Promise<string> {
   const fallback = `demand-${query.from}${query.supplier ? `-${query.supplier}` : ''}.csv`;
   return download('/demand', fallback, { ...query, format: 'csv' });
+}
+
+/** Queues an e-mail to the supplier with its demand over the horizon attached as CSV. */
+export function sendForecastMail(query: DemandQuery & { supplier: string }): Promise<ForecastMailResponse> {
+  return http.post<ForecastMailResponse>('/demand/forecast-mail', { supplier: query.supplier, from: query.from, to: query.to });
 }

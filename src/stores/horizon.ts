@@ -4,7 +4,7 @@ import { isoWeekKey } from '@shared/domain/calendar';
 import { addCalendarDays, toDayNumber, weekdayOfDayNumber } from '@shared/domain/date';
 import { weeklyTotals } from '@shared/domain/plan-demand';
 import { roundQty } from '@shared/domain/quantity';
-import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
+import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/planning';
 import * as planningApi from '@/api/planning';
 import type { DemandQuery } from '@/api/planning';
 import { ApiError } from '@/api/http';
@@ -113,9 +113,23 @@ export const useHorizonStore = defineStore('horizon', () => {
     }
   }
 
+  const mailing = ref(false);
+
+  /** E-mails the supplier its forecast; resolves what was queued, rethrows the ApiError for the view. */
+  async function mailForecast(query: DemandQuery & { supplier: string }): Promise<ForecastMailResponse> {
+    mailing.value = true;
+    try {
+      return await planningApi.sendForecastMail(query);
+    } finally {
+      mailing.value = false;
+    }
+  }
+
   return {
     demand,
     demandQuery,
+    mailing,
+    mailForecast,
     loading,
     error,
     plan,

@@ -1,0 +1,54 @@
+import type { DataSource } from 'typeorm';
+import type { ForecastMailRequest, ForecastMailResponse } from '../../shared/schemas/planning';
+import { recordAudit } from '../audit/audit.service';
+import { NotFoundError } from '../errors';
+import { enqueueMail } from '../mail/outbox.service';
+import type { AuthenticatedUser } from '../middleware/authenticate';
+import { SupplierEntity } from '../suppliers/supplier.entity';
+import { demandToCsv } from './planning-csv';
+import type { PlanningService } from './planning.service';
+
+/** Sends a supplier its gross demand ahead as a CSV attachment, through the outbox. */
+export class ForecastMailService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly planning: PlanningService,
+  ) {}
+
+  async send(request: ForecastMailRequest, actor: AuthenticatedUser): Promise<ForecastMailResponse> {
+    const supplier = await this.dataSource.getRepository(SupplierEntity).findOneBy({ code: request.supplier });
+    if (!supplier) throw new NotFoundError(`No supplier ${request.supplier}.`);
+    const demand = await this.planning.demand({ from: request.from, to: request.to, supplierCode: supplier.code });
+    const from = demand.days[0] ?? request.from ?? '';
+    const until = demand.days.at(-1) ?? request.to ?? '';
+    const subject = `Demand forecast ${from} to ${until} for ${supplier.name}`;
+    const lines = demand.rows.map((row) => `  ${row.partNumber.padEnd(16)} ${String(row.total).padStart(10)}`);
+    const text = [
+      `Hello ${supplier.name},`,
+      '',
+      `Attached is our gross demand for your parts per working day from ${from} to ${until}.`,
+      'It is a forecast for your planning, not an order; releases follow separately.',
+      '',
+      demand.rows.length > 0 ? 'Totals over the period:' : 'No demand for your parts in this period.',
+      ...lines,
+      '',
+      `Sent by ${actor.name} (${actor.email}) from Cardloop.`,
+    ].join('\n');
+    await this.dataSource.transaction(async (manager) => {
+      await enqueueMail(manager, {
+        to: supplier.email,
+        subject,
+        text,
+        attachments: [{ filename: `forecast-${supplier.code}-${from}.csv`, content: demandToCsv(demand), contentType: 'text/csv' }],
+      });
+      await recordAudit(manager, {
+        actorEmail: actor.email,
+        action: 'send',
+        entity: 'forecast',
+        entityKey: supplier.code,
+        changes: { from, until, parts: demand.rows.length },
+      });
+    });
+    return { to: supplier.email, subject, parts: demand.rows.length, from, until };
+  }
+}
