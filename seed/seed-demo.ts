@@ -3,6 +3,7 @@ import { recordAudit } from '../server/audit/audit.service';
 import { hashPassword } from '../server/auth/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/kanban/loop-sync';
+import { writeSequenceSettings } from '../server/sequence/sequence-settings';
 import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../server/master-data/master-data.writer';
 import { UserEntity } from '../server/users/user.entity';
 import { buildDemoScenario } from './scenario';
@@ -21,6 +22,8 @@ export async function seedDemoScenario(dataSource: DataSource, seedDay: string):
     await replaceBomLines(manager, scenario.bom);
     await upsertSequenceEntries(manager, scenario.sequence);
     await syncLoops(manager);
+    // The demo line can take 26 units a day against a plan of about 24, so a planner can move units.
+    await writeSequenceSettings(manager, { frozenWindowDays: 3, dailyCapacity: 26 });
     await manager.insert(
       UserEntity,
       scenario.users.map((user) => ({ ...user, passwordHash, active: true })),

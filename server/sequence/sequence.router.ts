@@ -1,0 +1,92 @@
+import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import { Router } from 'express';
+import type { DataSource } from 'typeorm';
+import type { IsoDate } from '../../shared/domain/types';
+import {
+  addSequenceUnitRequestSchema,
+  removeSequenceUnitQuerySchema,
+  resequenceRequestSchema,
+  resequenceResponseSchema,
+  sequenceBoardSchema,
+  sequenceQuerySchema,
+  sequenceSerialParamsSchema,
+  sequenceSettingsSchema,
+  sequenceUnitSchema,
+} from '../../shared/schemas/sequence';
+import { defineRoute } from '../http/route';
+import { READ_ROLES, SEQUENCE_ROLES } from '../http/roles';
+import { plantToday } from '../planning/plan-dates';
+import { SequenceService } from './sequence.service';
+
+/** Build sequence routes: everyone but suppliers reads, admin and planner change. */
+export function createSequenceRouter(dataSource: DataSource, registry: OpenAPIRegistry, today: () => IsoDate = plantToday): Router {
+  const router = Router();
+  const service = new SequenceService(dataSource, today);
+
+  defineRoute(router, registry, {
+    method: 'get',
+    path: '/sequence',
+    summary: 'Units by day and position for the working days from `from` (default today) to `to` (default 10 working days)',
+    access: READ_ROLES,
+    query: sequenceQuerySchema,
+    response: sequenceBoardSchema,
+    handler: ({ query }) => service.board(query),
+  });
+
+  defineRoute(router, registry, {
+    method: 'get',
+    path: '/sequence/settings',
+    summary: 'Frozen window (working days from today, today counted as day 1 when it is worked) and daily capacity',
+    access: READ_ROLES,
+    response: sequenceSettingsSchema,
+    handler: () => service.settings(),
+  });
+
+  defineRoute(router, registry, {
+    method: 'put',
+    path: '/sequence/settings',
+    summary: 'Set the frozen window and daily capacity',
+    access: SEQUENCE_ROLES,
+    body: sequenceSettingsSchema,
+    response: sequenceSettingsSchema,
+    handler: ({ body, user }) => service.updateSettings(body, user),
+  });
+
+  defineRoute(router, registry, {
+    method: 'put',
+    path: '/sequence/days',
+    summary: 'Give each listed day its full new order of serials (units named from other days move here); all days at once or none',
+    access: SEQUENCE_ROLES,
+    body: resequenceRequestSchema,
+    response: resequenceResponseSchema,
+    handler: ({ body, user }) => service.resequence(body, user),
+  });
+
+  defineRoute(router, registry, {
+    method: 'post',
+    path: '/sequence/units',
+    summary: 'Add a unit at the end of a day',
+    access: SEQUENCE_ROLES,
+    body: addSequenceUnitRequestSchema,
+    response: sequenceUnitSchema,
+    status: 201,
+    handler: ({ body, user }) => service.addUnit(body, user),
+  });
+
+  defineRoute(router, registry, {
+    method: 'delete',
+    path: '/sequence/units/:serial',
+    summary: 'Remove a unit; the units after it on its day close up',
+    access: SEQUENCE_ROLES,
+    params: sequenceSerialParamsSchema,
+    query: removeSequenceUnitQuerySchema,
+    status: 204,
+    handler: async ({ params, query, user, res }) => {
+      await service.removeUnit(params.serial, query.allowFrozen, user);
+      res.status(204).end();
+      return undefined;
+    },
+  });
+
+  return router;
+}

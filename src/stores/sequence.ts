@@ -1,0 +1,217 @@
+import { defineStore } from 'pinia';
+import { computed, ref } from 'vue';
+import {
+  DEFAULT_BOARD_WORKING_DAYS,
+  type AddSequenceUnitRequest,
+  type SequenceBoard,
+  type SequenceDay,
+  type SequenceSettings,
+  type SequenceUnit,
+} from '@shared/schemas/sequence';
+import * as sequenceApi from '@/api/sequence';
+import type { DayOrder } from '@/api/sequence';
+import { ApiError } from '@/api/http';
+
+/** One unit moving to a place on a day, with the day orders to send and the days it changes. */
+export interface PlannedMove {
+  serial: string;
+  fromDate: string;
+  toDate: string;
+  /** Position in the target day, counted from 0 after the unit has left its old place. */
+  toIndex: number;
+  orders: DayOrder[];
+  /** Days whose order changes: the target, and the day the unit leaves when that differs. */
+  changedDates: string[];
+}
+
+/** The day holding a serial, or undefined. */
+export function dayOfSerial(days: readonly SequenceDay[], serial: string): SequenceDay | undefined {
+  return days.find((day) => day.units.some((unit) => unit.serial === serial));
+}
+
+/**
+ * Works out a move without changing anything: the unit leaves its day and is inserted at
+ * `toIndex` (clamped) of `toDate`. Null when the unit is unknown or would end where it is.
+ */
+export function planMove(days: readonly SequenceDay[], serial: string, toDate: string, toIndex: number): PlannedMove | null {
+  const from = dayOfSerial(days, serial);
+  const to = days.find((day) => day.date === toDate);
+  if (!from || !to) return null;
+  const fromSerials = from.units.map((unit) => unit.serial).filter((candidate) => candidate !== serial);
+  const toSerials = from === to ? fromSerials : to.units.map((unit) => unit.serial);
+  const index = Math.max(0, Math.min(toIndex, toSerials.length));
+  const target = [...toSerials.slice(0, index), serial, ...toSerials.slice(index)];
+  if (from === to) {
+    const unchanged = target.every((candidate, position) => candidate === from.units[position]?.serial);
+    if (unchanged) return null;
+    return { serial, fromDate: from.date, toDate, toIndex: index, orders: [{ date: toDate, serials: target }], changedDates: [toDate] };
+  }
+  return {
+    serial,
+    fromDate: from.date,
+    toDate,
+    toIndex: index,
+    // The target first: it is what the planner aimed at; the server takes both at once anyway.
+    orders: [
+      { date: toDate, serials: target },
+      { date: from.date, serials: fromSerials },
+    ],
+    changedDates: [toDate, from.date],
+  };
+}
+
+/** A day given a new order of (known) units: positions renumbered 1..n and the load recounted. */
+export function reorderDay(day: SequenceDay, serials: readonly string[], unitsBySerial: ReadonlyMap<string, SequenceUnit>): SequenceDay {
+  const units = serials.map((serial, index) => ({ ...unitsBySerial.get(serial)!, date: day.date, sequence: index + 1 }));
+  return { ...day, units, load: units.reduce((sum, unit) => sum + unit.qty, 0) };
+}
+
+/** Units per model on a day, in the board's model order, models with no unit left out. */
+export function modelMix(day: SequenceDay, modelOrder: readonly string[]): { model: string; count: number }[] {
+  const counts = new Map<string, number>();
+  for (const unit of day.units) counts.set(unit.model, (counts.get(unit.model) ?? 0) + unit.qty);
+  const known = modelOrder.filter((model) => counts.has(model));
+  const others = [...counts.keys()].filter((model) => !modelOrder.includes(model)).sort();
+  return [...known, ...others].map((model) => ({ model, count: counts.get(model)! }));
+}
+
+const DAY_FORMAT = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' });
+
+/** A plant day as people say it: "Tue 1 Dec". */
+export function dayLabel(date: string): string {
+  return DAY_FORMAT.format(new Date(`${date}T00:00:00Z`));
+}
+
+export const HORIZON_CHOICES = [5, 10, 15, 20, 30] as const;
+
+export const useSequenceStore = defineStore('sequence', () => {
+  const board = ref<SequenceBoard | null>(null);
+  const horizonDays = ref<number>(DEFAULT_BOARD_WORKING_DAYS);
+  const loading = ref(false);
+  const loaded = ref(false);
+  const error = ref<ApiError | null>(null);
+  const saving = ref(false);
+  // Changes made here since a load started; a load that started before one would show the old order.
+  let changeCount = 0;
+
+  const days = computed(() => board.value?.days ?? []);
+  const models = computed(() => board.value?.models ?? []);
+  const modelOrder = computed(() => models.value.map((model) => model.partNumber));
+  const unitCount = computed(() => days.value.reduce((sum, day) => sum + day.units.length, 0));
+
+  /** Loads the board for the chosen horizon; a failure is kept in `error` and the board shown stays. */
+  async function fetch(): Promise<void> {
+    const startedAt = changeCount;
+    loading.value = true;
+    error.value = null;
+    try {
+      const next = await sequenceApi.fetchBoard({ days: horizonDays.value });
+      if (startedAt === changeCount) board.value = next;
+      loaded.value = true;
+    } catch (cause) {
+      if (!(cause instanceof ApiError)) throw cause;
+      error.value = cause;
+    } finally {
+      loading.value = false;
+    }
+  }
+
+  function replaceDays(replacements: readonly SequenceDay[]): void {
+    if (!board.value) return;
+    const byDate = new Map(replacements.map((day) => [day.date, day]));
+    board.value = { ...board.value, days: board.value.days.map((day) => byDate.get(day.date) ?? day) };
+  }
+
+  /** True when a planned move changes a day inside the frozen window (or before today). */
+  function touchesFrozen(move: PlannedMove): boolean {
+    return move.changedDates.some((date) => days.value.find((day) => day.date === date)?.frozen);
+  }
+
+  /**
+   * Shows the move at once, then saves it; on failure the days go back as they were, the board
+   * is reloaded, and the ApiError is rethrown for the view to explain.
+   */
+  async function move(planned: PlannedMove, allowFrozen = false): Promise<void> {
+    changeCount += 1;
+    const before = days.value.filter((day) => planned.changedDates.includes(day.date));
+    const unitsBySerial = new Map(before.flatMap((day) => day.units.map((unit) => [unit.serial, unit] as const)));
+    replaceDays(
+      planned.orders.map((order) => reorderDay(before.find((day) => day.date === order.date)!, order.serials, unitsBySerial)),
+    );
+    saving.value = true;
+    try {
+      const saved = await sequenceApi.resequenceDays(planned.orders, allowFrozen);
+      replaceDays(saved.days);
+    } catch (cause) {
+      replaceDays(before);
+      void fetch();
+      throw cause;
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  /** Adds a unit and reloads the board; rethrows the ApiError for the form. */
+  async function addUnit(unit: AddSequenceUnitRequest): Promise<SequenceUnit> {
+    saving.value = true;
+    try {
+      const added = await sequenceApi.addUnit(unit);
+      changeCount += 1;
+      await fetch();
+      return added;
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  /** Removes a unit and reloads the board; rethrows the ApiError for the view. */
+  async function removeUnit(serial: string, allowFrozen = false): Promise<void> {
+    saving.value = true;
+    try {
+      await sequenceApi.removeUnit(serial, allowFrozen);
+      changeCount += 1;
+      await fetch();
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  /** Saves the frozen window and capacity, then reloads the board whose flags depend on them. */
+  async function saveSettings(settings: SequenceSettings): Promise<SequenceSettings> {
+    saving.value = true;
+    try {
+      const saved = await sequenceApi.saveSettings(settings);
+      changeCount += 1;
+      await fetch();
+      return saved;
+    } finally {
+      saving.value = false;
+    }
+  }
+
+  /** Shows another number of working days. */
+  async function setHorizon(workingDays: number): Promise<void> {
+    horizonDays.value = workingDays;
+    await fetch();
+  }
+
+  return {
+    board,
+    horizonDays,
+    loading,
+    loaded,
+    error,
+    saving,
+    days,
+    models,
+    modelOrder,
+    unitCount,
+    fetch,
+    touchesFrozen,
+    move,
+    addUnit,
+    removeUnit,
+    saveSettings,
+    setHorizon,
+  };
+});

@@ -1,0 +1,267 @@
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises } from '@vue/test-utils';
+import draggable from 'vuedraggable';
+import type { SequenceBoard, SequenceDay, SequenceUnit } from '@shared/schemas/sequence';
+import type { SessionUser } from '@shared/schemas/user';
+import { planMove } from '@/stores/sequence';
+import SequenceView from '@/views/SequenceView.vue';
+
+// Styles of the components only this screen uses; Node cannot load them and they play no part here.
+vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
+
+const FROZEN = '2026-12-01';
+const FULL = '2026-12-04';
+const OPEN = '2026-12-07';
+const OVER = '2026-12-08';
+
+function unit(serial: string, model: string, date: string, sequence: number): SequenceUnit {
+  return { id: Number(serial.slice(1)), date, sequence, model, serial, qty: 1 };
+}
+
+function day(date: string, units: [string, string][], overrides: Partial<SequenceDay> = {}): SequenceDay {
+  const list = units.map(([serial, model], index) => unit(serial, model, date, index + 1));
+  return { date, working: true, frozen: false, past: false, capacity: 3, load: list.length, units: list, ...overrides };
+}
+
+/** A board with capacity 3: one frozen day, one full, one with room, one over capacity. */
+function boardOf(): SequenceBoard {
+  return {
+    from: FROZEN,
+    to: OVER,
+    today: FROZEN,
+    frozenUntil: FROZEN,
+    frozenWindowDays: 1,
+    dailyCapacity: 3,
+    models: [
+      { partNumber: 'M-A', description: 'Model A' },
+      { partNumber: 'M-B', description: 'Model B' },
+    ],
+    days: [
+      day(FROZEN, [['S1', 'M-A'], ['S2', 'M-B']], { frozen: true }),
+      day(FULL, [['S3', 'M-A'], ['S4', 'M-A'], ['S5', 'M-B']]),
+      day(OPEN, [['S6', 'M-B']]),
+      day(OVER, [['S7', 'M-A'], ['S8', 'M-B'], ['S9', 'M-A'], ['S10', 'M-B']]),
+    ],
+  };
+}
+
+type Answer = (init: RequestInit | undefined) => Response;
+
+/** Answers `METHOD /api/path`; PUT /api/sequence/days echoes the new orders unless told otherwise. */
+function stubApi(answers: Record<string, Answer> = {}) {
+  const board = boardOf();
+  const defaults: Record<string, Answer> = {
+    'GET /api/sequence': () => jsonResponse(200, board),
+    'PUT /api/sequence/days': (init) => {
+      const body = JSON.parse(String(init?.body)) as { days: { date: string; serials: string[] }[] };
+      const units = new Map(board.days.flatMap((known) => known.units.map((known) => [known.serial, known] as const)));
+      return jsonResponse(200, {
+        days: body.days.map((order) => ({
+          ...board.days.find((known) => known.date === order.date)!,
+          units: order.serials.map((serial, index) => ({ ...units.get(serial)!, date: order.date, sequence: index + 1 })),
+          load: order.serials.length,
+        })),
+      });
+    },
+  };
+  const fetchMock = vi.fn<typeof fetch>((input, init) => {
+    const url = new URL(String(input), 'http://localhost');
+    if (url.pathname === '/api/events') return new Promise<Response>(() => undefined);
+    const key = `${init?.method ?? 'GET'} ${url.pathname}`;
+    const answer = answers[key] ?? defaults[key];
+    return Promise.resolve(answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+  });
+  vi.stubGlobal('fetch', fetchMock);
+  return fetchMock;
+}
+
+function putBodies(fetchMock: ReturnType<typeof stubApi>): unknown[] {
+  return fetchMock.mock.calls
+    .filter(([input, init]) => init?.method === 'PUT' && new URL(String(input), 'http://localhost').pathname === '/api/sequence/days')
+    .map(([, init]) => JSON.parse(String(init?.body)));
+}
+
+const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
+const viewer: SessionUser = { email: 'viewer@example.com', name: 'Vi Viewer', role: 'viewer', supplierCode: null };
+
+async function openSequence(user: SessionUser = planner) {
+  const context = await createAppContext({ user, path: '/sequence' });
+  const wrapper = await mountInApp(SequenceView, context);
+  await flushPromises();
+  return wrapper;
+}
+
+function column(wrapper: Awaited<ReturnType<typeof openSequence>>, date: string) {
+  return wrapper.get(`[data-test="day-column"][data-date="${date}"]`);
+}
+
+function serialsOn(wrapper: Awaited<ReturnType<typeof openSequence>>, date: string): string[] {
+  return column(wrapper, date)
+    .findAll('[data-test="unit-card"]')
+    .map((card) => card.attributes('data-serial')!);
+}
+
+/** The newest button of that name: a message box that just closed may still be fading out. */
+function lastButton(name: string): HTMLButtonElement {
+  const buttons = [...document.querySelectorAll('button')].filter((candidate) => candidate.textContent?.trim() === name);
+  if (buttons.length === 0) throw new Error(`no button "${name}"`);
+  return buttons[buttons.length - 1]!;
+}
+
+async function chooseFromMenu(serial: string, item: string): Promise<void> {
+  (document.querySelector(`[aria-label="Actions for ${serial}"]`) as HTMLElement).click();
+  await flushPromises();
+  const menuItem = [...document.querySelectorAll('[role="menuitem"]')].find((candidate) => candidate.textContent?.trim() === item);
+  if (!menuItem) throw new Error(`no menu item "${item}"`);
+  (menuItem as HTMLElement).click();
+  await flushPromises();
+}
+
+describe('planMove', () => {
+  const days = boardOf().days;
+
+  it('reorders within a day, counting the target index after the unit has left', () => {
+    const move = planMove(days, 'S3', FULL, 2);
+
+    expect(move?.orders).toEqual([{ date: FULL, serials: ['S4', 'S5', 'S3'] }]);
+    expect(move?.changedDates).toEqual([FULL]);
+  });
+
+  it('names both days of a move across days, the target first, and clamps the index to the end', () => {
+    const move = planMove(days, 'S5', OPEN, 99);
+
+    expect(move?.orders).toEqual([
+      { date: OPEN, serials: ['S6', 'S5'] },
+      { date: FULL, serials: ['S3', 'S4'] },
+    ]);
+    expect(move?.changedDates).toEqual([OPEN, FULL]);
+  });
+
+  it('plans nothing when the unit would end where it is', () => {
+    expect(planMove(days, 'S4', FULL, 1)).toBeNull();
+  });
+});
+
+describe('SequenceView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('heads each day with its load against capacity, frozen and over-capacity in words, and its model mix', async () => {
+    stubApi();
+
+    const wrapper = await openSequence();
+
+    expect(column(wrapper, FROZEN).get('[data-test="day-load"]').text()).toBe('2 / 3 units');
+    expect(column(wrapper, FROZEN).get('[data-test="frozen-flag"]').text()).toBe('Frozen');
+    expect(column(wrapper, FULL).text()).toContain('Full');
+    expect(column(wrapper, OVER).get('[data-test="over-flag"]').text()).toBe('Over capacity by 1');
+    expect(column(wrapper, FULL).get('[data-test="model-mix"]').attributes('aria-label')).toBe('Model mix: 2 M-A, 1 M-B');
+    expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
+    expect(column(wrapper, FULL).text()).toContain('M-A');
+  });
+
+  it('moves a unit down from its menu, shows the new order at once and saves that day', async () => {
+    const fetchMock = stubApi();
+    const wrapper = await openSequence();
+
+    await chooseFromMenu('S3', 'Move down');
+
+    expect(putBodies(fetchMock)).toEqual([{ days: [{ date: FULL, serials: ['S4', 'S3', 'S5'] }] }]);
+    expect(serialsOn(wrapper, FULL)).toEqual(['S4', 'S3', 'S5']);
+    expect(column(wrapper, FULL).findAll('.sequence-unit-card__position').map((cell) => cell.text())).toEqual([
+      'Position 1',
+      'Position 2',
+      'Position 3',
+    ]);
+  });
+
+  it('saves a drop onto another day as one change naming both days', async () => {
+    const fetchMock = stubApi();
+    const wrapper = await openSequence();
+    const target = wrapper.findAllComponents(draggable)[2]!;
+    const dragged = boardOf().days[1]!.units[2]!;
+
+    target.vm.$emit('change', { added: { element: dragged, newIndex: 0 } });
+    await flushPromises();
+
+    expect(putBodies(fetchMock)).toEqual([
+      {
+        days: [
+          { date: OPEN, serials: ['S5', 'S6'] },
+          { date: FULL, serials: ['S3', 'S4'] },
+        ],
+      },
+    ]);
+    expect(serialsOn(wrapper, OPEN)).toEqual(['S5', 'S6']);
+    expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4']);
+    expect(column(wrapper, OPEN).get('[data-test="day-load"]').text()).toBe('2 / 3 units');
+  });
+
+  it('asks before changing the frozen window and sends allowFrozen only once the planner says yes', async () => {
+    const fetchMock = stubApi();
+    const wrapper = await openSequence();
+
+    await chooseFromMenu('S1', 'Move down');
+    expect(document.body.textContent).toContain('This changes the frozen window — are you sure?');
+    getButton(document.body, 'Keep it as it is').click();
+    await flushPromises();
+    const afterNo = putBodies(fetchMock).length;
+    await chooseFromMenu('S1', 'Move down');
+    lastButton('Change the frozen window').click();
+    await vi.waitFor(() => expect(putBodies(fetchMock)).toHaveLength(1));
+
+    expect(afterNo).toBe(0);
+    expect(putBodies(fetchMock)[0]).toEqual({ days: [{ date: FROZEN, serials: ['S2', 'S1'] }], allowFrozen: true });
+    await flushPromises();
+    expect(serialsOn(wrapper, FROZEN)).toEqual(['S2', 'S1']);
+  });
+
+  it('puts the days back and says why when the server refuses a move', async () => {
+    const reason = 'Fri 2026-12-04 would hold 4 units, over the daily capacity of 3.';
+    stubApi({ 'PUT /api/sequence/days': () => jsonResponse(409, { error: { code: 'over_capacity', message: reason } }) });
+    const wrapper = await openSequence();
+    const target = wrapper.findAllComponents(draggable)[1]!;
+
+    target.vm.$emit('change', { added: { element: boardOf().days[2]!.units[0]!, newIndex: 3 } });
+    await flushPromises();
+
+    await vi.waitFor(() => expect(document.body.textContent).toContain(`The move was not saved: ${reason}`));
+    expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
+    expect(serialsOn(wrapper, OPEN)).toEqual(['S6']);
+  });
+
+  it('shows other roles the board without grips, menus or the add button', async () => {
+    stubApi();
+
+    const wrapper = await openSequence(viewer);
+
+    expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
+    expect(wrapper.findAll('[data-test="drag-handle"]')).toHaveLength(0);
+    expect(wrapper.find('[aria-label="Actions for S3"]').exists()).toBe(false);
+    expect(wrapper.findAll('button').map((button) => button.text())).not.toContain('Add unit');
+    expect(wrapper.text()).toContain('Read only');
+  });
+
+  it('offers a retry when the board cannot be loaded', async () => {
+    let failing = true;
+    stubApi({
+      'GET /api/sequence': () =>
+        failing ? jsonResponse(500, { error: { code: 'internal', message: 'Something went wrong on the server.' } }) : jsonResponse(200, boardOf()),
+    });
+    const wrapper = await openSequence(demoUsers.admin);
+    expect(wrapper.text()).toContain('The build sequence could not be loaded: Something went wrong on the server.');
+
+    failing = false;
+    getButton(wrapper.element, 'Try again').click();
+    await flushPromises();
+
+    expect(wrapper.text()).not.toContain('could not be loaded');
+    expect(serialsOn(wrapper, OPEN)).toEqual(['S6']);
+  });
+});
