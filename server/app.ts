@@ -15,6 +15,7 @@ import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
 import { defineRoute } from './http/route';
 import type { FakeSmtp } from './mail/fake-smtp';
 import { createKanbanRouter } from './kanban/kanban.router';
+import { createLineRiskRouter } from './line-risk/line-risk.router';
 import { createMailRouter } from './mail/mail.router';
 import { createMasterDataRouter } from './master-data/master-data.router';
 import { MasterDataService } from './master-data/master-data.service';
@@ -24,6 +25,7 @@ import { createPlanningRouter } from './planning/planning.router';
 import { PlanningService } from './planning/planning.service';
 import { errorHandler } from './middleware/error-handler';
 import { createImportsRouter } from './imports/imports.router';
+import { createSequenceRouter } from './sequence/sequence.router';
 import { createUsersRouter } from './users/users.router';
 import { UsersService } from './users/users.service';
 
@@ -75,11 +77,13 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   api.use(createCalendarRouter(new CalendarService(dataSource), registry));
   api.use(createMasterDataRouter(new MasterDataService(dataSource), registry));
   api.use(createImportsRouter(dataSource, registry));
+  api.use(createSequenceRouter(dataSource, registry));
   const planning = new PlanningService(dataSource);
   api.use(createPlanningRouter(planning, new ForecastMailService(dataSource, planning), registry));
   api.use(createKanbanRouter(dataSource, planning, registry));
   api.use(createEventsRouter(dataSource, registry));
   api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
+  api.use(createLineRiskRouter(dataSource, registry));
 
   const openApiDocument = generateOpenApiDocument(registry);
   api.get('/openapi.json', (_req, res) => {

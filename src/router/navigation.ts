@@ -1,5 +1,5 @@
 import { markRaw, type Component } from 'vue';
-import { Aim, Calendar, House, Message, Refresh, TrendCharts, Upload, User } from '@element-plus/icons-vue';
+import { Aim, Calendar, House, Message, Refresh, Sort, TrendCharts, Upload, User, Warning } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { RouteName } from './route-map';
 
@@ -20,6 +20,20 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(House),
     roles: ROLES,
     summary: 'Start here: the areas your role works in.',
+  },
+  {
+    routeName: 'sequence',
+    label: 'Build sequence',
+    icon: markRaw(Sort),
+    roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'],
+    summary: 'Units by day and position: drag to resequence, watch capacity and the model mix, keep the frozen window.',
+  },
+  {
+    routeName: 'line-risk',
+    label: 'Line risk',
+    icon: markRaw(Warning),
+    roles: ['admin', 'planner', 'buyer', 'viewer'],
+    summary: 'Units of the sequence that cannot be built for want of a bought part, days before it happens, with a rescue for each.',
   },
   {
     routeName: 'horizon',

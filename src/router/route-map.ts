@@ -10,6 +10,8 @@ type NoParams = Record<never, never>;
 export interface RouteNamedMap {
   login: RouteRecordInfo<'login', '/login', NoParams, NoParams>;
   home: RouteRecordInfo<'home', '/', NoParams, NoParams>;
+  'line-risk': RouteRecordInfo<'line-risk', '/line-risk', NoParams, NoParams>;
+  sequence: RouteRecordInfo<'sequence', '/sequence', NoParams, NoParams>;
   horizon: RouteRecordInfo<'horizon', '/horizon', NoParams, NoParams>;
   loops: RouteRecordInfo<'loops', '/loops', NoParams, NoParams>;
   'loop-print': RouteRecordInfo<'loop-print', '/loops/:id/print', { id: string | number }, { id: string }>;

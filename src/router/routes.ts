@@ -14,6 +14,18 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Overview' },
   },
   {
+    path: '/line-risk',
+    name: 'line-risk',
+    component: () => import('@/views/LineRiskView.vue'),
+    meta: { title: 'Line risk', roles: ['admin', 'planner', 'buyer', 'viewer'] },
+  },
+  {
+    path: '/sequence',
+    name: 'sequence',
+    component: () => import('@/views/SequenceView.vue'),
+    meta: { title: 'Build sequence', roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'] },
+  },
+  {
     path: '/horizon',
     name: 'horizon',
     component: () => import('@/views/HorizonView.vue'),

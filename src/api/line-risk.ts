@@ -1,0 +1,18 @@
+import type { LineRiskReport, ShortageDto } from '@shared/schemas/line-risk';
+import { http } from './http';
+
+/** The dates a line-risk view covers, ISO `YYYY-MM-DD`, both inclusive. */
+export interface LineRiskRange {
+  from: string;
+  to: string;
+}
+
+/** Units at risk, short parts and rescues over the horizon, for the Line risk screen. */
+export function getLineRisk(range: LineRiskRange, signal?: AbortSignal): Promise<LineRiskReport> {
+  return http.get<LineRiskReport>('/line-risk', { query: { ...range }, signal });
+}
+
+/** The published shortage list (GET /api/shortages) over the horizon. */
+export function getShortages(range: LineRiskRange, signal?: AbortSignal): Promise<ShortageDto[]> {
+  return http.get<ShortageDto[]>('/shortages', { query: { ...range }, signal });
+}

@@ -1,0 +1,246 @@
+import { createAppContext, getButton, jsonResponse, mountInApp } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises } from '@vue/test-utils';
+import { addCalendarDays } from '@shared/domain/date';
+import type { LineRiskReport, ShortageDto } from '@shared/schemas/line-risk';
+import type { SessionUser } from '@shared/schemas/user';
+import LineRiskView from '@/views/LineRiskView.vue';
+import { localToday } from '@/stores/horizon';
+import { expediteSentence, formatQuantity, impactLevel, impactWhen, resequenceSentence } from '@/stores/line-risk';
+
+// Styles of the components only this view uses; Node cannot load them and they play no part here.
+vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
+vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
+vi.mock('element-plus/es/components/tabs/style/css', () => ({}));
+vi.mock('element-plus/es/components/tab-pane/style/css', () => ({}));
+
+const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
+
+const battery: ShortageDto = {
+  partNumber: 'BAT-06-312',
+  firstShortDate: '2026-12-03',
+  shortQty: 12,
+  slotsAtRisk: [
+    { date: '2026-12-03', sequence: 13, serial: 'SN26120313', model: 'FS-32R', lackQty: 6 },
+    { date: '2026-12-03', sequence: 17, serial: 'SN26120317', model: 'FS-40R', lackQty: 6 },
+  ],
+  description: 'Battery 6 V 312 Ah, flooded lead-acid',
+  uom: 'H87',
+  supplierCode: 'FBS',
+  supplierName: 'Battery Supply Co',
+  hazardous: true,
+  onHand: 30,
+  firmReceiptQty: 0,
+  daysUntilImpact: 2,
+  inFrozenWindow: true,
+  rescue: {
+    expedite: { qty: 12, needBy: '2026-12-03' },
+    resequence: {
+      slot: { date: '2026-12-03', sequence: 13, serial: 'SN26120313', model: 'FS-32R' },
+      candidate: { date: '2026-12-03', sequence: 14, serial: 'SN26120314', model: 'FS-20W' },
+    },
+  },
+};
+
+const tank: ShortageDto = {
+  ...battery,
+  partNumber: 'TNK-R60',
+  firstShortDate: '2026-12-08',
+  shortQty: 3,
+  slotsAtRisk: [{ date: '2026-12-08', sequence: 2, serial: 'SN26120802', model: 'FS-26W', lackQty: 1 }],
+  description: 'Recovery tank 60 L',
+  supplierCode: 'SRM',
+  supplierName: null,
+  hazardous: false,
+  daysUntilImpact: 5,
+  inFrozenWindow: false,
+  rescue: { expedite: { qty: 3, needBy: '2026-12-08' }, resequence: null },
+};
+
+function reportOf(shortages: ShortageDto[]): LineRiskReport {
+  return {
+    from: '2026-12-01',
+    to: '2026-12-14',
+    today: '2026-12-01',
+    days: ['2026-12-01', '2026-12-02', '2026-12-03'],
+    frozenWindowDays: 3,
+    frozenUntil: '2026-12-03',
+    unitsInHorizon: 240,
+    unitsBuilt: 237,
+    unitsAtRisk: shortages.flatMap((shortage) =>
+      shortage.slotsAtRisk.map(({ lackQty, ...slot }) => ({ ...slot, lacks: [{ partNumber: shortage.partNumber, qty: lackQty, now: true }] })),
+    ),
+    shortages,
+  };
+}
+
+type Answer = (url: URL) => Response;
+
+/** Answers each API path with a handler; the event stream stays silent unless given. */
+function stubApi(answers: Record<string, Answer>, events?: () => Response) {
+  const fetchMock = vi.fn<typeof fetch>((input) => {
+    const url = new URL(String(input), 'http://localhost');
+    if (url.pathname === '/api/events') return events ? Promise.resolve(events()) : new Promise<Response>(() => undefined);
+    const answer = answers[url.pathname];
+    return Promise.resolve(answer ? answer(url) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+  });
+  vi.stubGlobal('fetch', fetchMock);
+  return fetchMock;
+}
+
+function requestsTo(fetchMock: ReturnType<typeof stubApi>, pathname: string): URL[] {
+  return fetchMock.mock.calls.map(([input]) => new URL(String(input), 'http://localhost')).filter((url) => url.pathname === pathname);
+}
+
+async function openLineRisk(path = '/line-risk') {
+  const context = await createAppContext({ user: planner, path });
+  const wrapper = await mountInApp(LineRiskView, context);
+  await flushPromises();
+  return { wrapper, router: context.router };
+}
+
+describe('LineRiskView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('heads the page with units at risk, parts short and the earliest impact', async () => {
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery, tank])) });
+
+    const { wrapper } = await openLineRisk();
+
+    const summary = wrapper.get('[aria-label="Line risk in numbers"]');
+    expect(summary.get('[data-test="summary-units"]').text()).toContain('3 units at risk');
+    expect(summary.get('[data-test="summary-units"]').text()).toContain('of 240 units in the sequence');
+    expect(summary.get('[data-test="summary-parts"]').text()).toContain('2 parts short');
+    expect(summary.get('[data-test="summary-parts"]').text()).toContain('1 in the frozen window');
+    expect(summary.get('[data-test="summary-impact"]').text()).toContain('in 2 working days');
+    expect(summary.get('[data-test="summary-impact"]').text()).toContain('BAT-06-312 runs short Thu 3 Dec');
+  });
+
+  it('lists short parts in order with impact words, quantities, the hazard and the units at risk', async () => {
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery, tank])) });
+
+    const { wrapper } = await openLineRisk();
+
+    // Rows of the parts table itself, not of the units table inside an opened row.
+    const rows = wrapper.findAll('tr.el-table__row').filter((row) => row.find('.line-risk-table__part-number').exists());
+    expect(rows.map((row) => row.get('.line-risk-table__part-number').text())).toEqual(['BAT-06-312', 'TNK-R60']);
+    expect(rows[0]!.text()).toContain('In frozen window');
+    expect(rows[0]!.text()).toContain('Hazardous');
+    expect(rows[0]!.text()).toContain('12 pcs');
+    expect(rows[1]!.text()).toContain('Within a week');
+    expect(rows[1]!.text()).not.toContain('Hazardous');
+    // The first, most urgent part opens with its rescue and the exact units it stops.
+    const detail = wrapper.get('[aria-label="Rescue for BAT-06-312"]');
+    expect(detail.text()).toContain('Expedite 12 pcs of BAT-06-312 from FBS (Battery Supply Co) by 2026-12-03.');
+    expect(detail.text()).toContain('Build SN26120314 (FS-20W) in slot 13 of 2026-12-03 instead of SN26120313: all its parts are present.');
+    expect(detail.text()).toContain("Hazardous goods: follow the plant's handling and transport rules.");
+    const units = wrapper.get('[aria-label="Units that lack BAT-06-312"]');
+    expect(units.text()).toContain('SN26120313');
+    expect(units.text()).toContain('SN26120317');
+  });
+
+  it('asks for the horizon picked, two weeks unless the link says otherwise', async () => {
+    const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery])) });
+    const { wrapper, router } = await openLineRisk();
+
+    const radio = wrapper.findAll('[aria-label="Horizon"] input[type="radio"]').find((input) => (input.element as HTMLInputElement).value === '4');
+    await radio!.setValue(true);
+    await flushPromises();
+
+    const today = localToday();
+    const [first, second] = requestsTo(fetchMock, '/api/line-risk');
+    // Two weeks are 14 calendar days from today, four weeks 28.
+    expect(Object.fromEntries(first!.searchParams)).toEqual({ from: today, to: addCalendarDays(today, 13) });
+    expect(Object.fromEntries(second!.searchParams)).toEqual({ from: today, to: addCalendarDays(today, 27) });
+    expect(router.currentRoute.value.query.weeks).toBe('4');
+  });
+
+  it('says so when no unit in the horizon lacks a part', async () => {
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([])) });
+
+    const { wrapper } = await openLineRisk('/line-risk?weeks=1');
+
+    expect(wrapper.text()).toContain('No unit in the next week lacks a part.');
+    expect(wrapper.get('[data-test="summary-units"]').text()).toContain('0 units at risk');
+  });
+
+  it('reports a failed load with a Retry that asks again', async () => {
+    let calls = 0;
+    const fetchMock = stubApi({
+      '/api/line-risk': () =>
+        ++calls === 1
+          ? jsonResponse(503, { error: { code: 'unavailable', message: 'The database is busy.' } })
+          : jsonResponse(200, reportOf([tank])),
+    });
+    const { wrapper } = await openLineRisk();
+
+    expect(wrapper.get('[role="alert"]').text()).toContain('The database is busy.');
+    getButton(wrapper.element, 'Retry').click();
+    await flushPromises();
+
+    expect(requestsTo(fetchMock, '/api/line-risk')).toHaveLength(2);
+    expect(wrapper.find('[role="alert"]').exists()).toBe(false);
+    expect(wrapper.text()).toContain('TNK-R60');
+  });
+
+  it('refreshes without a spinner when the server announces a planning change', async () => {
+    let calls = 0;
+    const events = () =>
+      new Response(
+        new ReadableStream<Uint8Array>({
+          start(controller) {
+            const encoder = new TextEncoder();
+            controller.enqueue(encoder.encode('event: planning\ndata: {"version":1}\n\n'));
+            controller.enqueue(encoder.encode('event: planning\ndata: {"version":2}\n\n'));
+          },
+        }),
+        { status: 200, headers: { 'Content-Type': 'text/event-stream' } },
+      );
+    const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf(++calls === 1 ? [battery, tank] : [tank])) }, events);
+
+    const { wrapper } = await openLineRisk();
+    await vi.waitFor(() => expect(requestsTo(fetchMock, '/api/line-risk')).toHaveLength(2));
+    await flushPromises();
+
+    expect(wrapper.text()).not.toContain('BAT-06-312');
+    expect(wrapper.text()).toContain('Updated just now');
+  });
+
+  it('lists each unit at risk with the parts that stop it', async () => {
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery, tank])) });
+    const { wrapper } = await openLineRisk();
+
+    const units = wrapper.get('[aria-label="Units at risk"]');
+
+    expect(units.text()).toContain('SN26120802');
+    expect(units.text()).toContain('TNK-R60 ×1');
+    expect(units.text()).toContain('BAT-06-312 ×6');
+  });
+});
+
+describe('line-risk wording', () => {
+  it('grades impact: frozen window first, then within five working days, then later', () => {
+    expect(impactLevel({ inFrozenWindow: true, daysUntilImpact: 9 })).toBe('frozen');
+    expect(impactLevel({ inFrozenWindow: false, daysUntilImpact: 5 })).toBe('week');
+    expect(impactLevel({ inFrozenWindow: false, daysUntilImpact: 6 })).toBe('later');
+  });
+
+  it('says when in working days and quantities with the unit people use', () => {
+    expect([0, 1, 4].map(impactWhen)).toEqual(['today', 'in 1 working day', 'in 4 working days']);
+    expect(formatQuantity(1, 'H87')).toBe('1 pc');
+    expect(formatQuantity(1250.5, 'KGM')).toBe('1,250.5 kg');
+  });
+
+  it('words the rescues as instructions', () => {
+    expect(expediteSentence(tank)).toBe('Expedite 3 pcs of TNK-R60 from SRM by 2026-12-08.');
+    expect(resequenceSentence(battery.rescue.resequence!)).toBe(
+      'Build SN26120314 (FS-20W) in slot 13 of 2026-12-03 instead of SN26120313: all its parts are present.',
+    );
+  });
+});
