@@ -35,9 +35,12 @@ const PARTS_SQL = `SELECT part_number AS partNumber, description, uom, source, s
 const BOM_SQL = `SELECT parent, component, qty_per AS qtyPer, scrap_pct AS scrapPct, effective_from AS effectiveFrom,
   effective_to AS effectiveTo FROM bom_line`;
 const SEQUENCE_SQL = 'SELECT date, sequence, model, serial, qty FROM sequence_entry ORDER BY date, sequence';
-const OPEN_LINES_SQL = `SELECT l.part_number AS partNumber, l.need_date AS date, l.qty - l.received_qty AS qty
+// Once the buyer has a confirmed answer, the supplier's quantity is what will come.
+const EXPECTED_QTY = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.confirmed_qty IS NOT NULL
+  THEN l.confirmed_qty ELSE l.qty END`;
+const OPEN_LINES_SQL = `SELECT l.part_number AS partNumber, l.need_date AS date, ${EXPECTED_QTY} - l.received_qty AS qty
   FROM release_line l JOIN release r ON r.id = l.release_id
-  WHERE l.closed = 0 AND l.qty > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
+  WHERE l.closed = 0 AND ${EXPECTED_QTY} > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
 /** Reads everything the engine needs in one consistent snapshot. */
 export async function loadPlanInputs(manager: EntityManager): Promise<PlanInputs> {

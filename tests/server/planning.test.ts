@@ -2,6 +2,9 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
+import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { ReleaseEntity } from '../../server/releases/release.entity';
+import { bumpPlanningVersion } from '../../server/settings/settings.service';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;
@@ -91,6 +94,31 @@ describe('GET /api/plan', () => {
     expect(after.body.buckets[0].projectedAvailable).toBe(46);
     expect(after.body.pastDue).toEqual([]);
     await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'C', onHand: 5 }]));
+  });
+
+  it('counts open release lines as scheduled receipts, at the supplier’s confirmed quantity once confirmed', async () => {
+    const query = { part: 'D', from: '2026-12-21', to: '2026-12-22' };
+    const { id: releaseId } = await context.dataSource.getRepository(ReleaseEntity).save({
+      number: 'R261218-SUP-B',
+      supplierCode: 'SUP-B',
+      releaseDate: '2026-12-18',
+      status: 'sent',
+    });
+    const { id: lineId } = await context.dataSource
+      .getRepository(ReleaseLineEntity)
+      .save({ releaseId, partNumber: 'D', qty: 40, needDate: '2026-12-22', origin: 'plan', confirmedQty: 30 });
+    await context.dataSource.transaction((manager) => bumpPlanningVersion(manager));
+    const sent = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
+
+    await context.dataSource.getRepository(ReleaseEntity).update(releaseId, { status: 'confirmed' });
+    await context.dataSource.transaction((manager) => bumpPlanningVersion(manager));
+    const confirmed = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
+
+    expect(sent.body.buckets.map((bucket: { scheduledReceipts: number }) => bucket.scheduledReceipts)).toEqual([0, 40]);
+    expect(confirmed.body.buckets.map((bucket: { scheduledReceipts: number }) => bucket.scheduledReceipts)).toEqual([0, 30]);
+    await context.dataSource.getRepository(ReleaseLineEntity).delete(lineId);
+    await context.dataSource.getRepository(ReleaseEntity).delete(releaseId);
+    await context.dataSource.transaction((manager) => bumpPlanningVersion(manager));
   });
 
   it('is refused to a supplier account', async () => {
