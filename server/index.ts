@@ -4,9 +4,12 @@ import { createApp } from './app';
 import { ensureClientBuilt } from './client-build';
 import { loadConfig } from './config';
 import { openDatabase } from './db/data-source';
+import { ReleaseJob } from './jobs/release-job';
 import { startJobs } from './jobs/scheduler';
 import { startFakeSmtp } from './mail/fake-smtp';
 import { OutboxDispatcher } from './mail/outbox.service';
+import { PlanningService } from './planning/planning.service';
+import { ReleasesService } from './releases/releases.service';
 import { ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
 import { DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
 
@@ -32,8 +35,16 @@ async function main(): Promise<void> {
   }
 
   const dispatcher = new OutboxDispatcher(dataSource, smtpUrl, config.MAIL_FROM);
-  const jobs = startJobs(dispatcher);
-  const app = createApp(dataSource, { jwtSecret: config.jwtSecret, jwtTtl: config.JWT_TTL, loginFailureLimit: config.LOGIN_RATE_LIMIT, fakeSmtp, clientDir });
+  const releaseJob = new ReleaseJob(dataSource, new ReleasesService(dataSource, new PlanningService(dataSource), { appUrl: config.APP_URL }));
+  const jobs = startJobs(dispatcher, releaseJob);
+  const app = createApp(dataSource, {
+    jwtSecret: config.jwtSecret,
+    jwtTtl: config.JWT_TTL,
+    loginFailureLimit: config.LOGIN_RATE_LIMIT,
+    fakeSmtp,
+    clientDir,
+    appUrl: config.APP_URL,
+  });
   const server = app.listen(config.PORT, () => {
     console.log(`Cardloop is running on http://localhost:${config.PORT}`);
     console.log(`Database: ${config.DATABASE_PATH}; mail: ${fakeSmtp ? `embedded fake SMTP at ${fakeSmtp.url}` : 'SMTP_URL'}`);

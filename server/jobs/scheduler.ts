@@ -1,10 +1,21 @@
 import cron, { type ScheduledTask } from 'node-cron';
 import type { OutboxDispatcher } from '../mail/outbox.service';
+import type { ReleaseJob } from './release-job';
 
-/** In-process jobs: the outbox is drained every ten seconds. */
-export function startJobs(dispatcher: OutboxDispatcher): ScheduledTask[] {
+/** In-process jobs: the outbox is drained every ten seconds; the release job looks at its clock every minute. */
+export function startJobs(dispatcher: OutboxDispatcher, releaseJob: ReleaseJob): ScheduledTask[] {
   const drainOutbox = cron.schedule('*/10 * * * * *', () => {
     dispatcher.dispatchDue().catch((error) => console.error('Outbox dispatch failed:', error));
   });
-  return [drainOutbox];
+  // Every minute rather than a cron at the set time: the admin's time change needs no rescheduling,
+  // and a missed time is caught up after a restart.
+  const releases = cron.schedule('0 * * * * *', () => {
+    releaseJob
+      .tick()
+      .then((result) => {
+        if (result) console.log(`Release job ${result.date}: ${result.releases.length} releases sent.`);
+      })
+      .catch((error) => console.error('Release job failed:', error));
+  });
+  return [drainOutbox, releases];
 }

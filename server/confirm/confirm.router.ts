@@ -1,0 +1,54 @@
+import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import { Router } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import type { DataSource } from 'typeorm';
+import { confirmAnswerSchema, confirmationSchema, confirmResultSchema, confirmTokenParamsSchema } from '../../shared/schemas/releases';
+import { defineRoute } from '../http/route';
+import { ConfirmService } from './confirm.service';
+
+/** Requests per client address per minute on the public confirmation routes. */
+export const CONFIRM_RATE_LIMIT = 30;
+
+/** The supplier's public routes behind the e-mailed link: no sign-in, rate-limited per address. */
+export function createConfirmRouter(dataSource: DataSource, registry: OpenAPIRegistry): Router {
+  const router = Router();
+  const service = new ConfirmService(dataSource);
+
+  // Guessing a 256-bit token is hopeless anyway; the limit keeps a scripted client from
+  // hammering the database through a route that needs no account.
+  router.use(
+    '/confirm',
+    rateLimit({
+      windowMs: 60 * 1000,
+      limit: CONFIRM_RATE_LIMIT,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      handler: (_req, res) => {
+        res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests from this address. Wait a minute and try again.' } });
+      },
+    }),
+  );
+
+  defineRoute(router, registry, {
+    method: 'get',
+    path: '/confirm/:token',
+    summary: 'The release behind a confirmation link; 409 used, 410 expired, 404 unknown or altered',
+    access: 'public',
+    params: confirmTokenParamsSchema,
+    response: confirmationSchema,
+    handler: ({ params }) => service.view(params.token),
+  });
+
+  defineRoute(router, registry, {
+    method: 'post',
+    path: '/confirm/:token',
+    summary: 'The supplier’s answer: confirmed when every line is as asked, otherwise an exception for the buyer',
+    access: 'public',
+    params: confirmTokenParamsSchema,
+    body: confirmAnswerSchema,
+    response: confirmResultSchema,
+    handler: ({ params, body }) => service.answer(params.token, body),
+  });
+
+  return router;
+}

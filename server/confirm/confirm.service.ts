@@ -1,0 +1,145 @@
+import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
+import { answerDiffers } from '../../shared/domain/release-rules';
+import type { ConfirmAnswer, Confirmation, ConfirmResult } from '../../shared/schemas/releases';
+import { recordAudit } from '../audit/audit.service';
+import { AppError, ConflictError, GoneError, NotFoundError } from '../errors';
+import { PartEntity } from '../parts/part.entity';
+import { ReleaseLineEntity } from '../releases/release-line.entity';
+import { ReleaseEntity } from '../releases/release.entity';
+import { readPlantName } from '../releases/releases.service';
+import { SupplierEntity } from '../suppliers/supplier.entity';
+import { hashConfirmationToken } from './confirmation-tokens';
+import { ConfirmationTokenEntity } from './confirmation-token.entity';
+import { releasesChanged } from '../releases/release-events';
+
+/** Release states a supplier can still answer through a live link. */
+const ANSWERABLE = ['draft', 'sent'];
+
+function invalidAnswer(message: string, details: { path: (string | number)[]; message: string }[]): AppError {
+  return new AppError(400, 'invalid_input', message, details);
+}
+
+interface OpenLink {
+  token: ConfirmationTokenEntity;
+  release: ReleaseEntity;
+}
+
+/**
+ * The supplier's side of a release, reached through the e-mailed link without an account: the
+ * token is looked up by its SHA-256, so an altered or unknown token simply matches nothing.
+ */
+export class ConfirmService {
+  constructor(private readonly dataSource: DataSource) {}
+
+  /** What the confirmation page shows; 404 unknown, 409 used, 410 expired or cancelled. */
+  async view(token: string): Promise<Confirmation> {
+    const manager = this.dataSource.manager;
+    const { token: link, release } = await this.openLink(manager, token);
+    const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id }, order: { needDate: 'ASC', partNumber: 'ASC', id: 'ASC' } });
+    const partNumbers = [...new Set(lines.map((line) => line.partNumber))];
+    const parts = partNumbers.length ? await manager.find(PartEntity, { where: { partNumber: In(partNumbers) } }) : [];
+    const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
+    const supplier = await manager.findOneBy(SupplierEntity, { code: release.supplierCode });
+    return {
+      release: {
+        number: release.number,
+        supplierCode: release.supplierCode,
+        lines: lines.map((line) => {
+          const part = partByNumber.get(line.partNumber);
+          return {
+            id: line.id,
+            partNumber: line.partNumber,
+            qty: line.qty,
+            needDate: line.needDate,
+            description: part?.description ?? '',
+            uom: part?.uom ?? 'H87',
+            hazardous: Boolean(part?.hazardous),
+          };
+        }),
+        supplierName: supplier?.name ?? release.supplierCode,
+        plantName: await readPlantName(manager),
+        releaseDate: release.releaseDate,
+      },
+      expiresAt: link.expiresAt,
+    };
+  }
+
+  /**
+   * Records the supplier's answer: every line once, with a quantity and ship date. Anything other
+   * than what was asked makes the release an exception for the buyer. The link is spent, the lines
+   * and the release change, and the audit row is written in one transaction.
+   */
+  async answer(token: string, answer: ConfirmAnswer): Promise<ConfirmResult> {
+    return this.dataSource.transaction(async (manager) => {
+      const { token: link, release } = await this.openLink(manager, token);
+      const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id } });
+      const lineById = new Map(lines.map((line) => [line.id, line]));
+
+      const foreign = answer.lines
+        .map((line, index) => ({ line, index }))
+        .filter(({ line }) => !lineById.has(line.id))
+        .map(({ line, index }) => ({ path: ['lines', index, 'id'], message: `line ${line.id} is not on release ${release.number}` }));
+      if (foreign.length > 0) throw invalidAnswer(`The answer names lines that are not on release ${release.number}.`, foreign);
+      const answered = new Set(answer.lines.map((line) => line.id));
+      const missing = lines.filter((line) => !answered.has(line.id));
+      if (missing.length > 0) {
+        throw invalidAnswer(
+          `Answer every line of release ${release.number}; missing: ${missing.map((line) => line.partNumber).join(', ')}.`,
+          missing.map((line) => ({ path: ['lines'], message: `line ${line.id} (${line.partNumber}) has no answer` })),
+        );
+      }
+
+      const now = new Date().toISOString();
+      // Conditional on the link still being unused, so two submissions racing each other count once.
+      const spent = await manager.update(ConfirmationTokenEntity, { id: link.id, usedAt: IsNull() }, { usedAt: now });
+      if (spent.affected === 0) throw new ConflictError('This link was already used.');
+
+      let changedLines = 0;
+      const changes: Record<string, unknown>[] = [];
+      for (const reply of answer.lines) {
+        const line = lineById.get(reply.id)!;
+        const differs = answerDiffers(line, reply);
+        if (differs) changedLines += 1;
+        changes.push({ partNumber: line.partNumber, qty: line.qty, needDate: line.needDate, confirmedQty: reply.confirmedQty, shipDate: reply.shipDate, differs });
+        await manager.update(ReleaseLineEntity, { id: line.id }, { confirmedQty: reply.confirmedQty, shipDate: reply.shipDate });
+      }
+      const status = changedLines > 0 ? 'exception' : 'confirmed';
+      await manager.update(
+        ReleaseEntity,
+        { id: release.id },
+        {
+          status,
+          confirmedAt: now,
+          carrier: answer.carrier || null,
+          trackingNumber: answer.trackingNumber || null,
+          supplierNote: answer.note || null,
+        },
+      );
+      await recordAudit(manager, {
+        actorEmail: `supplier:${release.supplierCode}`,
+        action: status === 'confirmed' ? 'confirm' : 'propose',
+        entity: 'release',
+        entityKey: release.number,
+        changes: { before: release.status, after: status, lines: changes, carrier: answer.carrier, trackingNumber: answer.trackingNumber, note: answer.note },
+      });
+      // Confirmed lines become firm receipts for the line risk.
+      await releasesChanged(manager);
+      return { status, number: release.number, changedLines };
+    });
+  }
+
+  private async openLink(manager: EntityManager, presented: string): Promise<OpenLink> {
+    const token = await manager.findOneBy(ConfirmationTokenEntity, { tokenHash: hashConfirmationToken(presented) });
+    const release = token ? await manager.findOneBy(ReleaseEntity, { id: token.releaseId }) : null;
+    if (!token || !release) throw new NotFoundError('This confirmation link is not known. Check that the whole link was copied.');
+    if (release.status === 'cancelled') throw new GoneError(`Release ${release.number} was cancelled by the buyer; there is nothing to confirm.`);
+    if (token.usedAt) throw new ConflictError('This link was already used.', [{ usedAt: token.usedAt }]);
+    if (token.expiresAt <= new Date().toISOString()) {
+      throw new GoneError('This link has expired or was replaced by a newer one. Ask the buyer to send the release again.');
+    }
+    if (!ANSWERABLE.includes(release.status)) {
+      throw new ConflictError(`Release ${release.number} was already answered.`, [{ status: release.status }]);
+    }
+    return { token, release };
+  }
+}

@@ -1,0 +1,9 @@
+import type { EntityManager } from 'typeorm';
+import { bumpDockVersion } from '../dock/dock-version';
+import { bumpPlanningVersion } from '../settings/settings.service';
+
+/** A release changed: plans and line risk count its lines anew, and open dock boards refresh. */
+export async function releasesChanged(manager: EntityManager): Promise<void> {
+  await bumpPlanningVersion(manager);
+  await bumpDockVersion(manager);
+}

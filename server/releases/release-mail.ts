@@ -1,0 +1,101 @@
+import { UNIT_WORDS } from '../../shared/schemas/master-data';
+import type { OutgoingMail } from '../mail/outbox.service';
+
+export const HAZARDOUS_NOTE = 'Hazardous goods: pack and ship under the applicable dangerous-goods rules.';
+
+export interface ReleaseMailLine {
+  partNumber: string;
+  description: string;
+  qty: number;
+  uom: string;
+  needDate: string;
+  hazardous: boolean;
+}
+
+export interface ReleaseMailContent {
+  number: string;
+  releaseDate: string;
+  supplierName: string;
+  supplierEmail: string;
+  plantName: string;
+  lines: ReleaseMailLine[];
+  link: string;
+  expiresAt: string;
+  /** True when the buyer sends the release again with a fresh link. */
+  resent: boolean;
+}
+
+const QTY_FORMAT = new Intl.NumberFormat('en', { maximumFractionDigits: 3 });
+
+/** UN/ECE Recommendation 20 codes as a supplier's dispatcher says them; other codes print as they are. */
+function unitOf(uom: string): string {
+  return UNIT_WORDS[uom] ?? uom;
+}
+
+function escapeHtml(value: string): string {
+  return value.replace(/[&<>"']/g, (char) => `&#${char.charCodeAt(0)};`);
+}
+
+function textTable(lines: ReleaseMailLine[]): string[] {
+  const rows = lines.map((line) => [line.partNumber, line.description, QTY_FORMAT.format(line.qty), unitOf(line.uom), line.needDate]);
+  const header = ['Part', 'Description', 'Qty', 'Unit', 'Need date'];
+  const widths = header.map((title, column) => Math.max(title.length, ...rows.map((row) => row[column].length)));
+  const format = (cells: string[]) =>
+    cells.map((cell, column) => (column === 2 ? cell.padStart(widths[column]) : cell.padEnd(widths[column]))).join('  ').trimEnd();
+  const out = [format(header), widths.map((width) => '-'.repeat(width)).join('  ')];
+  lines.forEach((line, index) => {
+    out.push(format(rows[index]));
+    if (line.hazardous) out.push(`  ! ${HAZARDOUS_NOTE}`);
+  });
+  return out;
+}
+
+function htmlTable(lines: ReleaseMailLine[]): string {
+  const cell = 'padding:4px 10px;border-bottom:1px solid #e4ddd3;text-align:left';
+  const rows = lines
+    .map((line) => {
+      const hazard = line.hazardous
+        ? `<br><strong style="color:#a3300b">&#9888; ${escapeHtml(HAZARDOUS_NOTE)}</strong>`
+        : '';
+      return `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
+        `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitOf(line.uom))}</td>` +
+        `<td style="${cell}">${line.needDate}</td></tr>`;
+    })
+    .join('');
+  const head = ['Part', 'Description', 'Qty', 'Unit', 'Need date'].map((title) => `<th style="${cell}">${title}</th>`).join('');
+  return `<table style="border-collapse:collapse;font-size:14px"><thead><tr>${head}</tr></thead><tbody>${rows}</tbody></table>`;
+}
+
+/** The release e-mail to a supplier: every line, and the single-use link to confirm or propose changes. */
+export function composeReleaseMail(content: ReleaseMailContent): OutgoingMail {
+  const validUntil = content.expiresAt.slice(0, 10);
+  const subject = `${content.resent ? 'Release (sent again)' : 'Release'} ${content.number} from ${content.plantName}: please confirm`;
+  const intro = `${content.plantName} releases the parts below for delivery (release ${content.number} of ${content.releaseDate}).`;
+  const ask =
+    'Please confirm each quantity and ship date, or propose others, on this page — no sign-in needed. ' +
+    `The link works once and until ${validUntil}.`;
+  const resentNote = content.resent ? 'This replaces the link we sent before; the earlier link no longer works.' : '';
+  const text = [
+    `Hello ${content.supplierName},`,
+    '',
+    intro,
+    ask,
+    content.link,
+    ...(resentNote ? ['', resentNote] : []),
+    '',
+    ...textTable(content.lines),
+    '',
+    'Thank you.',
+    `${content.plantName} materials team (sent by Cardloop)`,
+  ].join('\n');
+  const html = [
+    `<p>Hello ${escapeHtml(content.supplierName)},</p>`,
+    `<p>${escapeHtml(intro)}</p>`,
+    `<p>${escapeHtml(ask)}</p>`,
+    `<p><a href="${escapeHtml(content.link)}" style="display:inline-block;padding:10px 18px;background:#0f5e63;color:#fff;border-radius:6px;text-decoration:none;font-weight:600">Confirm release ${escapeHtml(content.number)}</a></p>`,
+    resentNote ? `<p>${escapeHtml(resentNote)}</p>` : '',
+    htmlTable(content.lines),
+    `<p>Thank you.<br>${escapeHtml(content.plantName)} materials team (sent by Cardloop)</p>`,
+  ].join('\n');
+  return { to: content.supplierEmail, subject, text, html };
+}

@@ -1,0 +1,175 @@
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises } from '@vue/test-utils';
+import type { Confirmation } from '@shared/schemas/releases';
+import App from '@/App.vue';
+import ConfirmView from '@/views/ConfirmView.vue';
+
+// Styles of the components only this page uses; Node cannot load them and they play no part here.
+vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
+vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
+
+const TOKEN = 'k3vY0m3pQmU5s2Lr9xW1aZ7bC4dE6fG8hJ0kL2nP4qS';
+
+const confirmation: Confirmation = {
+  release: {
+    number: 'R261201-SRM',
+    supplierCode: 'SRM',
+    supplierName: 'Rotomould Co',
+    plantName: 'Cardloop demo plant',
+    releaseDate: '2026-12-01',
+    lines: [
+      { id: 11, partNumber: 'TNK-R60', qty: 6, needDate: '2026-12-04', description: 'Recovery tank 60 L', uom: 'H87', hazardous: false },
+      { id: 12, partNumber: 'BAT-06-312', qty: 12, needDate: '2026-12-07', description: 'Battery 6 V', uom: 'H87', hazardous: true },
+    ],
+  },
+  expiresAt: '2026-12-08T06:00:00.000Z',
+};
+
+function stubConfirm(view: () => Response, answer: (body: unknown) => Response = () => jsonResponse(200, { status: 'confirmed', number: 'R261201-SRM', changedLines: 0 })) {
+  const fetchMock = vi.fn<typeof fetch>((input, init) => {
+    const url = new URL(String(input), 'http://localhost');
+    if (url.pathname !== `/api/confirm/${TOKEN}`) return Promise.resolve(jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(init?.method === 'POST' ? answer(JSON.parse(String(init.body))) : view());
+  });
+  vi.stubGlobal('fetch', fetchMock);
+  return fetchMock;
+}
+
+function posted(fetchMock: ReturnType<typeof stubConfirm>) {
+  return fetchMock.mock.calls.filter(([, init]) => init?.method === 'POST').map(([, init]) => JSON.parse(String(init!.body)));
+}
+
+async function openConfirm(options: { signedInAs?: typeof demoUsers.buyer } = {}) {
+  const context = await createAppContext({ path: `/confirm/${TOKEN}`, user: options.signedInAs });
+  const wrapper = await mountInApp(ConfirmView, context);
+  await flushPromises();
+  return wrapper;
+}
+
+function qtyInput(wrapper: Awaited<ReturnType<typeof openConfirm>>, lineId: number): HTMLInputElement {
+  return wrapper.get(`#confirm-line-${lineId}-qty`).element.querySelector('input') ?? (wrapper.get(`#confirm-line-${lineId}-qty`).element as HTMLInputElement);
+}
+
+describe('ConfirmView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('shows the release to a supplier without signing in, every line filled in as requested', async () => {
+    const fetchMock = stubConfirm(() => jsonResponse(200, confirmation));
+
+    // Someone with a session in this browser: the link still speaks for the supplier, not for them.
+    const wrapper = await openConfirm({ signedInAs: demoUsers.buyer });
+
+    expect(fetchMock.mock.calls).toHaveLength(1);
+    expect(fetchMock.mock.calls[0]![1]!.headers).not.toHaveProperty('Authorization');
+    expect(wrapper.get('h1').text()).toBe('R261201-SRM');
+    expect(wrapper.text()).toContain('For Rotomould Co from Cardloop demo plant');
+    expect(wrapper.text()).toContain('Fri 4 Dec to Mon 7 Dec');
+    expect(wrapper.text()).toContain('Requested 6 pcs, needed by Fri 4 Dec');
+    expect(wrapper.text()).toContain('Hazardous goods: pack and ship under the applicable dangerous-goods rules.');
+    expect(qtyInput(wrapper, 11).value).toBe('6');
+    expect((wrapper.get('#confirm-line-12-ship').element as HTMLInputElement).value).toBe('2026-12-07');
+    expect(wrapper.text()).toContain('Every line as requested: the release will be confirmed.');
+  });
+
+  it('confirms every line as requested with one button', async () => {
+    const fetchMock = stubConfirm(() => jsonResponse(200, confirmation));
+    const wrapper = await openConfirm();
+
+    getButton(wrapper.element, 'Confirm all as requested').click();
+    await flushPromises();
+
+    expect(posted(fetchMock)).toEqual([
+      {
+        lines: [
+          { id: 11, confirmedQty: 6, shipDate: '2026-12-04' },
+          { id: 12, confirmedQty: 12, shipDate: '2026-12-07' },
+        ],
+      },
+    ]);
+    expect(wrapper.get('[role="status"]').text()).toContain('Thank you — release confirmed');
+  });
+
+  it('sends a changed quantity with the shipment details as a proposal for the buyer', async () => {
+    const fetchMock = stubConfirm(
+      () => jsonResponse(200, confirmation),
+      () => jsonResponse(200, { status: 'exception', number: 'R261201-SRM', changedLines: 1 }),
+    );
+    const wrapper = await openConfirm();
+    const qty = qtyInput(wrapper, 11);
+    qty.value = '4';
+    qty.dispatchEvent(new Event('input'));
+    qty.dispatchEvent(new Event('change'));
+    await flushPromises();
+    await wrapper.get('#confirm-carrier').setValue('Road Freight Co');
+    await wrapper.get('#confirm-tracking').setValue('RF-1');
+
+    expect(wrapper.text()).toContain('1 line differs from the request: your answer goes to the buyer as a proposal.');
+    getButton(wrapper.element, 'Send answer').click();
+    await flushPromises();
+
+    expect(posted(fetchMock)[0]).toEqual({
+      lines: [
+        { id: 11, confirmedQty: 4, shipDate: '2026-12-04' },
+        { id: 12, confirmedQty: 12, shipDate: '2026-12-07' },
+      ],
+      carrier: 'Road Freight Co',
+      trackingNumber: 'RF-1',
+    });
+    expect(wrapper.get('[role="status"]').text()).toContain('sent as a proposal for the buyer');
+  });
+
+  it('keeps the answer back when a ship date is missing and says which line', async () => {
+    const fetchMock = stubConfirm(() => jsonResponse(200, confirmation));
+    const wrapper = await openConfirm();
+
+    await wrapper.get('#confirm-line-12-ship').setValue('');
+    getButton(wrapper.element, 'Send answer').click();
+    await flushPromises();
+
+    expect(posted(fetchMock)).toEqual([]);
+    expect(wrapper.text()).toContain('Pick the day the goods leave you.');
+  });
+
+  it('stands alone without the app shell, even for someone signed in', async () => {
+    stubConfirm(() => jsonResponse(200, confirmation));
+    const context = await createAppContext({ path: `/confirm/${TOKEN}`, user: demoUsers.buyer });
+
+    const wrapper = await mountInApp(App, context);
+    await flushPromises();
+
+    expect(wrapper.text()).toContain('R261201-SRM');
+    expect(wrapper.find('nav[aria-label="Main"]').exists()).toBe(false);
+  });
+
+  it.each([
+    [409, 'conflict', 'This link was already used.', 'This link was already used'],
+    [410, 'gone', 'This link has expired or was replaced by a newer one.', 'This link no longer works'],
+    [404, 'not_found', 'This confirmation link is not known.', 'This link is not known'],
+  ])('explains a link answered with %i', async (status, code, message, title) => {
+    stubConfirm(() => jsonResponse(status, { error: { code, message } }));
+
+    const wrapper = await openConfirm();
+
+    expect(wrapper.get('[role="status"] h1').text()).toBe(title);
+    expect(wrapper.find('form').exists()).toBe(false);
+  });
+
+  it('ends the form when the link was used meanwhile', async () => {
+    stubConfirm(
+      () => jsonResponse(200, confirmation),
+      () => jsonResponse(409, { error: { code: 'conflict', message: 'This link was already used.' } }),
+    );
+    const wrapper = await openConfirm();
+
+    getButton(wrapper.element, 'Send answer').click();
+    await flushPromises();
+
+    expect(wrapper.get('[role="status"] h1').text()).toBe('This link was already used');
+  });
+});

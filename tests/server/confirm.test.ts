@@ -1,0 +1,278 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { AuditEventEntity } from '../../server/audit/audit-event.entity';
+import { CONFIRM_RATE_LIMIT } from '../../server/confirm/confirm.router';
+import { ConfirmationTokenEntity } from '../../server/confirm/confirmation-token.entity';
+import { hashConfirmationToken } from '../../server/confirm/confirmation-tokens';
+import { KanbanCardEntity } from '../../server/kanban/kanban-card.entity';
+import { KanbanLoopEntity } from '../../server/kanban/kanban-loop.entity';
+import { syncLoops } from '../../server/kanban/loop-sync';
+import { OutboxMessageEntity } from '../../server/mail/outbox-message.entity';
+import { upsertParts } from '../../server/master-data/master-data.writer';
+import { ReleaseEntity } from '../../server/releases/release.entity';
+import { readPlanningVersion } from '../../server/settings/settings.service';
+import { addCalendarDays } from '../../shared/domain/date';
+import { cardNumber } from '../../shared/domain/gs1';
+import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';
+import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+
+const APP_URL = 'https://cardloop.example.com';
+
+let context: TestContext;
+let nextDay = 1;
+
+/*
+ * Fixture: kanban part K (container 10, "Caster 100 mm") and kanban part W (container 25, in kg)
+ * from SUP-A, one card each. Each test empties both cards and runs releases for a new March 2027
+ * day, so every test gets a fresh release of two lines. SUP-A's cycle 1-1-1 gives T = 2 working days.
+ */
+beforeAll(async () => {
+  context = await createTestContext({ appUrl: APP_URL });
+  await context.dataSource.transaction(async (manager) => {
+    await upsertParts(manager, [
+      testPart('K', { packQty: 10, description: 'Caster 100 mm' }),
+      testPart('W', { packQty: 25, uom: 'KGM', description: 'Wire, 1.5 mm²' }),
+    ]);
+    await syncLoops(manager);
+    const loops = await manager.find(KanbanLoopEntity, { order: { partNumber: 'ASC' } });
+    await manager.insert(
+      KanbanCardEntity,
+      loops.map((loop) => ({
+        loopId: loop.id,
+        cardIndex: 1,
+        cardNumber: cardNumber(loop.id, 1),
+        state: 'full',
+        stateChangedAt: new Date().toISOString(),
+        retiredAt: null,
+        releaseLineId: null,
+      })),
+    );
+  });
+});
+afterAll(async () => {
+  await context.close();
+});
+
+/** Empties both cards, runs a new day and returns the release with the raw token from its e-mail. */
+async function freshRelease(): Promise<{ release: Release; token: string }> {
+  await context.dataSource.getRepository(KanbanCardEntity).update({ cardIndex: 1 }, { state: 'empty', releaseLineId: null });
+  const date = `2027-03-${String(nextDay++).padStart(2, '0')}`;
+  const response = await request(context.app).post('/api/releases/run').set(bearer(context.tokens.buyer)).send({ date });
+  expect(response.status).toBe(200);
+  const [release] = (response.body as RunReleasesResponse).releases;
+  const mails = await context.dataSource.getRepository(OutboxMessageEntity).find({ order: { id: 'DESC' }, take: 1 });
+  const token = mails[0].text.match(/\/confirm\/([A-Za-z0-9_-]+)/)![1];
+  return { release, token };
+}
+
+/** The calendar day after a need date: shipping then cannot arrive by the need date. */
+const dayAfter = (needDate: string) => addCalendarDays(needDate, 1);
+
+const asRequested = (release: Release) => release.lines.map((line) => ({ id: line.id, confirmedQty: line.qty, shipDate: line.needDate }));
+
+function answer(token: string, body: object) {
+  return request(context.app).post(`/api/confirm/${token}`).send(body);
+}
+
+function releaseRow(number: string) {
+  return context.dataSource.getRepository(ReleaseEntity).findOneByOrFail({ number });
+}
+
+describe('GET /api/confirm/:token', () => {
+  it('shows the release behind the link without signing in', async () => {
+    const { release, token } = await freshRelease();
+
+    const response = await request(context.app).get(`/api/confirm/${token}`);
+
+    expect(response.status).toBe(200);
+    expect(response.body.release).toMatchObject({
+      number: release.number,
+      supplierCode: 'SUP-A',
+      supplierName: 'Supplier A',
+      plantName: 'Cardloop demo plant',
+      releaseDate: release.releaseDate,
+    });
+    expect(response.body.release.lines).toEqual([
+      { id: expect.any(Number), partNumber: 'K', qty: 10, needDate: '2027-03-03', description: 'Caster 100 mm', uom: 'H87', hazardous: false },
+      { id: expect.any(Number), partNumber: 'W', qty: 25, needDate: '2027-03-03', description: 'Wire, 1.5 mm²', uom: 'KGM', hazardous: false },
+    ]);
+    expect(Date.parse(response.body.expiresAt)).toBeGreaterThan(Date.now() + 6 * 24 * 3600 * 1000);
+  });
+
+  it('stores only the SHA-256 of the token', async () => {
+    const { release, token } = await freshRelease();
+
+    const stored = await context.dataSource.getRepository(ConfirmationTokenEntity).findBy({ releaseId: release.id });
+
+    expect(stored).toHaveLength(1);
+    expect(stored[0].tokenHash).toBe(hashConfirmationToken(token));
+    expect(stored[0].tokenHash).not.toContain(token);
+    // SHA-256 of "abc": NIST FIPS 180-2, Secure Hash Standard, appendix B.1 (one-block message example).
+    expect(hashConfirmationToken('abc')).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
+  });
+
+  it('answers 404 for an altered or unknown token', async () => {
+    const { token } = await freshRelease();
+    const altered = `${token.slice(0, -1)}${token.endsWith('A') ? 'B' : 'A'}`;
+
+    const alteredResponse = await request(context.app).get(`/api/confirm/${altered}`);
+    const unknown = await request(context.app).get('/api/confirm/not-a-token');
+
+    expect(alteredResponse.status).toBe(404);
+    expect(alteredResponse.body.error.code).toBe('not_found');
+    expect(unknown.status).toBe(404);
+  });
+
+  it('answers 410 once the link has expired', async () => {
+    const { release, token } = await freshRelease();
+    await context.dataSource.getRepository(ConfirmationTokenEntity).update({ releaseId: release.id }, { expiresAt: new Date(Date.now() - 1000).toISOString() });
+
+    const view = await request(context.app).get(`/api/confirm/${token}`);
+    const post = await answer(token, { lines: asRequested(release), note: '' });
+
+    expect(view.status).toBe(410);
+    expect(view.body.error.code).toBe('gone');
+    expect(post.status).toBe(410);
+    expect((await releaseRow(release.number)).status).toBe('sent');
+  });
+});
+
+describe('POST /api/confirm/:token', () => {
+  it('confirms a release answered as requested, firms it up and spends the link', async () => {
+    const { release, token } = await freshRelease();
+    const versionBefore = await readPlanningVersion(context.dataSource.manager);
+
+    const response = await answer(token, { lines: asRequested(release), note: 'All good', carrier: 'Road Freight Co', trackingNumber: 'TRK-001' });
+
+    expect(response.status).toBe(200);
+    expect(response.body).toEqual({ status: 'confirmed', number: release.number, changedLines: 0 });
+    const stored = await request(context.app).get(`/api/releases/${release.number}`).set(bearer(context.tokens.buyer));
+    expect(stored.body).toMatchObject({ status: 'confirmed', carrier: 'Road Freight Co', trackingNumber: 'TRK-001', supplierNote: 'All good', confirmedAt: expect.any(String) });
+    expect(stored.body.lines.map((line: Release['lines'][number]) => [line.confirmedQty, line.shipDate])).toEqual(
+      release.lines.map((line) => [line.qty, line.needDate]),
+    );
+    expect(await readPlanningVersion(context.dataSource.manager)).toBeGreaterThan(versionBefore);
+    const audit = await context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'release', entityKey: release.number, action: 'confirm' });
+    expect(audit).toEqual([expect.objectContaining({ actorEmail: 'supplier:SUP-A' })]);
+  });
+
+  it('answers 409 when the link is used again', async () => {
+    const { release, token } = await freshRelease();
+    await answer(token, { lines: asRequested(release), note: '' });
+
+    const view = await request(context.app).get(`/api/confirm/${token}`);
+    const again = await answer(token, { lines: asRequested(release), note: '' });
+
+    expect(view.status).toBe(409);
+    expect(again.status).toBe(409);
+    expect(again.body.error.code).toBe('conflict');
+  });
+
+  it('makes a changed quantity an exception for the buyer, who can accept it', async () => {
+    const { release, token } = await freshRelease();
+    const lines = asRequested(release);
+    lines[0].confirmedQty = 8;
+
+    const response = await answer(token, { lines, note: 'Only 8 in stock' });
+
+    expect(response.body).toEqual({ status: 'exception', number: release.number, changedLines: 1 });
+    expect((await releaseRow(release.number)).status).toBe('exception');
+    const viewer = await request(context.app).post(`/api/releases/${release.number}/accept-exception`).set(bearer(context.tokens.viewer));
+    expect(viewer.status).toBe(403);
+    const accepted = await request(context.app).post(`/api/releases/${release.number}/accept-exception`).set(bearer(context.tokens.buyer));
+    expect(accepted.status).toBe(200);
+    expect(accepted.body.status).toBe('confirmed');
+    expect(accepted.body.lines[0]).toMatchObject({ qty: 10, confirmedQty: 8 });
+    const twice = await request(context.app).post(`/api/releases/${release.number}/accept-exception`).set(bearer(context.tokens.buyer));
+    expect(twice.status).toBe(409);
+  });
+
+  it('makes a ship date after the need date an exception, but not one on it', async () => {
+    const late = await freshRelease();
+    const onTime = await freshRelease();
+    const lateLines = asRequested(late.release);
+    lateLines[1].shipDate = dayAfter(late.release.lines[1].needDate);
+    const earlyLines = asRequested(onTime.release);
+    earlyLines[0].shipDate = '2027-03-01';
+
+    const lateResponse = await answer(late.token, { lines: lateLines, note: '' });
+    const onTimeResponse = await answer(onTime.token, { lines: earlyLines });
+
+    expect(lateResponse.body.status).toBe('exception');
+    expect(onTimeResponse.body.status).toBe('confirmed');
+  });
+
+  it('lets the buyer resend an exception, which waits for a new answer', async () => {
+    const { release, token } = await freshRelease();
+    const lines = asRequested(release);
+    lines[0].confirmedQty = 5;
+    await answer(token, { lines, note: '' });
+
+    const resent = await request(context.app).post(`/api/releases/${release.number}/resend`).set(bearer(context.tokens.buyer));
+
+    expect(resent.body.status).toBe('sent');
+    expect(resent.body.lines[0].confirmedQty).toBeNull();
+  });
+
+  it('answers 400 when a line is left unanswered, and the link stays usable', async () => {
+    const { release, token } = await freshRelease();
+
+    const response = await answer(token, { lines: asRequested(release).slice(0, 1), note: '' });
+
+    expect(response.status).toBe(400);
+    expect(response.body.error.message).toContain('W');
+    expect((await request(context.app).get(`/api/confirm/${token}`)).status).toBe(200);
+  });
+
+  it('answers 400 for a line of another release or a line answered twice', async () => {
+    const other = await freshRelease();
+    const { release, token } = await freshRelease();
+    const foreign = [...asRequested(release), { id: other.release.lines[0].id, confirmedQty: 1, shipDate: '2027-03-03' }];
+    const twice = [...asRequested(release), asRequested(release)[0]];
+
+    const foreignResponse = await answer(token, { lines: foreign, note: '' });
+    const twiceResponse = await answer(token, { lines: twice, note: '' });
+
+    expect(foreignResponse.status).toBe(400);
+    expect(foreignResponse.body.error.details).toEqual([expect.objectContaining({ path: ['lines', 2, 'id'] })]);
+    expect(twiceResponse.status).toBe(400);
+  });
+
+  it('answers 400 for a negative quantity or a date that is not a date', async () => {
+    const { release, token } = await freshRelease();
+    const negative = asRequested(release).map((line) => ({ ...line, confirmedQty: -1 }));
+    const badDate = asRequested(release).map((line) => ({ ...line, shipDate: '03/03/2027' }));
+
+    expect((await answer(token, { lines: negative })).status).toBe(400);
+    expect((await answer(token, { lines: badDate })).status).toBe(400);
+  });
+
+  it('answers 410 for the link of a cancelled release', async () => {
+    const { release, token } = await freshRelease();
+    await request(context.app).post(`/api/releases/${release.number}/cancel`).set(bearer(context.tokens.buyer));
+
+    const response = await answer(token, { lines: asRequested(release) });
+
+    expect(response.status).toBe(410);
+    expect(response.body.error.message).toContain('cancelled');
+  });
+});
+
+describe('rate limit on the public confirmation routes', () => {
+  it(`answers 429 in the error shape after ${CONFIRM_RATE_LIMIT} requests a minute from one address`, async () => {
+    const limited = await createTestContext();
+    try {
+      const statuses: number[] = [];
+      for (let attempt = 0; attempt <= CONFIRM_RATE_LIMIT; attempt += 1) {
+        statuses.push((await request(limited.app).get('/api/confirm/guess')).status);
+      }
+      const last = await request(limited.app).get('/api/confirm/guess');
+
+      expect(statuses.slice(0, CONFIRM_RATE_LIMIT).every((status) => status === 404)).toBe(true);
+      expect(statuses[CONFIRM_RATE_LIMIT]).toBe(429);
+      expect(last.body).toEqual({ error: { code: 'rate_limited', message: expect.any(String) } });
+    } finally {
+      await limited.close();
+    }
+  });
+});
