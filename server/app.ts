@@ -9,6 +9,8 @@ import { AuthService } from './auth/auth.service';
 import { createAuthRouter } from './auth/auth.router';
 import { createCalendarRouter } from './calendar/calendar.router';
 import { CalendarService } from './calendar/calendar.service';
+import { createConfirmRouter } from './confirm/confirm.router';
+import { createDockRouter } from './dock/dock.router';
 import { NotFoundError } from './errors';
 import { createEventsRouter } from './events/events.router';
 import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
@@ -25,6 +27,9 @@ import { createPlanningRouter } from './planning/planning.router';
 import { PlanningService } from './planning/planning.service';
 import { errorHandler } from './middleware/error-handler';
 import { createImportsRouter } from './imports/imports.router';
+import { createReleasesRouter } from './releases/releases.router';
+import { ReleasesService } from './releases/releases.service';
+import { createReceiptsRouter } from './receipts/receipts.router';
 import { createSequenceRouter } from './sequence/sequence.router';
 import { createUsersRouter } from './users/users.router';
 import { UsersService } from './users/users.service';
@@ -36,6 +41,10 @@ export interface AppOptions {
   fakeSmtp?: FakeSmtp | null;
   /** Folder of the built client to serve; omitted in API tests. */
   clientDir?: string;
+  /** Base URL of the web client, for links in e-mails (release confirmation); APP_URL in production. */
+  appUrl?: string;
+  /** Folder for packing-slip files; defaults to `attachments` beside the database file (data/attachments in memory). */
+  attachmentsDir?: string;
 }
 
 /** Builds the whole HTTP application over an open data source; never listens (tests use supertest). */
@@ -84,6 +93,10 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   api.use(createEventsRouter(dataSource, registry));
   api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
   api.use(createLineRiskRouter(dataSource, registry));
+  api.use(createReleasesRouter(new ReleasesService(dataSource, planning, { appUrl: options.appUrl ?? 'http://localhost:3000' }), registry));
+  api.use(createConfirmRouter(dataSource, registry));
+  api.use(createReceiptsRouter(dataSource, registry));
+  api.use(createDockRouter(dataSource, registry, options.attachmentsDir));
 
   const openApiDocument = generateOpenApiDocument(registry);
   api.get('/openapi.json', (_req, res) => {

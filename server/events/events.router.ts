@@ -3,6 +3,7 @@ import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import { defineRoute } from '../http/route';
 import { READ_ROLES } from '../http/roles';
+import { readDockVersion } from '../dock/dock-version';
 import { readPlanningVersion } from '../settings/settings.service';
 
 const POLL_MS = 2000;
@@ -19,7 +20,7 @@ export function createEventsRouter(dataSource: DataSource, registry: OpenAPIRegi
   defineRoute(router, registry, {
     method: 'get',
     path: '/events',
-    summary: 'Server-sent events: `planning` with {version} whenever a planning input changes',
+    summary: 'Server-sent events: `planning` with {version} whenever a planning input changes, `dock` with {version} whenever the receiving board changes',
     access: READ_ROLES,
     produces: ['text/event-stream'],
     handler: async ({ req, res }) => {
@@ -31,12 +32,21 @@ export function createEventsRouter(dataSource: DataSource, registry: OpenAPIRegi
       });
       let version = await readPlanningVersion(dataSource.manager);
       res.write(`retry: 3000\nevent: planning\ndata: ${JSON.stringify({ version })}\n\n`);
+      let dockVersion = await readDockVersion(dataSource.manager);
+      res.write(`event: dock\ndata: ${JSON.stringify({ version: dockVersion })}\n\n`);
       const poll = setInterval(() => {
         readPlanningVersion(dataSource.manager)
           .then((current) => {
             if (current === version) return;
             version = current;
             res.write(`event: planning\ndata: ${JSON.stringify({ version })}\n\n`);
+          })
+          .catch(() => undefined);
+        readDockVersion(dataSource.manager)
+          .then((current) => {
+            if (current === dockVersion) return;
+            dockVersion = current;
+            res.write(`event: dock\ndata: ${JSON.stringify({ version: dockVersion })}\n\n`);
           })
           .catch(() => undefined);
       }, POLL_MS);

@@ -19,6 +19,10 @@ export class ReceiptEntity {
   @Column({ type: 'text', nullable: true })
   note: string | null;
 
+  /** The clerk marked this receipt final: its line closed even if less than ordered arrived. */
+  @Column({ type: 'boolean', default: false })
+  final: boolean;
+
   /** Replaying a request with the same key returns the first result and counts nothing twice. */
   @Index({ unique: true })
   @Column({ name: 'idempotency_key', type: 'varchar', length: 100 })

@@ -46,6 +46,8 @@ export interface RequestOptions {
   body?: unknown;
   query?: Record<string, string | number | boolean | undefined>;
   signal?: AbortSignal;
+  /** Extra request headers, e.g. an `Idempotency-Key` that makes a POST safe to retry. */
+  headers?: Record<string, string>;
   /**
    * For calls made without a session (sign-in): no token is sent and a 401 means
    * "wrong credentials", not "session over".
@@ -159,7 +161,7 @@ async function send(
   init: { method: HttpMethod; accept: string; body?: string },
 ): Promise<Response> {
   const { query, signal, anonymous = false } = options;
-  const headers: Record<string, string> = { Accept: init.accept };
+  const headers: Record<string, string> = { ...options.headers, Accept: init.accept };
   if (init.body !== undefined) headers['Content-Type'] = 'application/json';
   const token = anonymous ? null : readToken();
   if (token) headers.Authorization = `Bearer ${token}`;

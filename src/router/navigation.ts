@@ -1,5 +1,5 @@
 import { markRaw, type Component } from 'vue';
-import { Aim, Calendar, House, Message, Refresh, Sort, TrendCharts, Upload, User, Warning } from '@element-plus/icons-vue';
+import { Aim, Calendar, House, Message, Refresh, Sort, Tickets, TrendCharts, Upload, User, Van, Warning } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { RouteName } from './route-map';
 
@@ -50,11 +50,25 @@ export const navigation: readonly NavigationEntry[] = [
     summary: 'Kanban loops: cards recommended for the demand ahead versus cards in circulation, labels to print.',
   },
   {
+    routeName: 'releases',
+    label: 'Releases',
+    icon: markRaw(Tickets),
+    roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
+    summary: 'What each supplier was asked to ship and when, their answers, and the exceptions waiting for a decision.',
+  },
+  {
     routeName: 'card-scan',
     label: 'Scan cards',
     icon: markRaw(Aim),
     roles: ['admin', 'buyer', 'planner', 'receiving'],
     summary: 'Scan kanban cards as they are emptied, released, shipped and received.',
+  },
+  {
+    routeName: 'dock',
+    label: 'Dock',
+    icon: markRaw(Van),
+    roles: ['admin', 'receiving', 'buyer', 'planner', 'viewer'],
+    summary: 'Deliveries on their way in: move them across the dock, count them in, attach the packing slip.',
   },
   {
     routeName: 'imports',

@@ -14,8 +14,11 @@ export interface RouteNamedMap {
   sequence: RouteRecordInfo<'sequence', '/sequence', NoParams, NoParams>;
   horizon: RouteRecordInfo<'horizon', '/horizon', NoParams, NoParams>;
   loops: RouteRecordInfo<'loops', '/loops', NoParams, NoParams>;
+  releases: RouteRecordInfo<'releases', '/releases', NoParams, NoParams>;
+  confirm: RouteRecordInfo<'confirm', '/confirm/:token', { token: string }, { token: string }>;
   'loop-print': RouteRecordInfo<'loop-print', '/loops/:id/print', { id: string | number }, { id: string }>;
   'card-scan': RouteRecordInfo<'card-scan', '/scan', NoParams, NoParams>;
+  dock: RouteRecordInfo<'dock', '/dock', NoParams, NoParams>;
   'admin-users': RouteRecordInfo<'admin-users', '/admin/users', NoParams, NoParams>;
   imports: RouteRecordInfo<'imports', '/imports', NoParams, NoParams>;
   calendar: RouteRecordInfo<'calendar', '/calendar', NoParams, NoParams>;
@@ -43,5 +46,7 @@ declare module 'vue-router' {
     roles?: readonly Role[];
     /** Reachable without signing in. */
     public?: boolean;
+    /** A page that stands alone, without the app shell, even for a signed-in user. */
+    bare?: boolean;
   }
 }

@@ -8,6 +8,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Sign in', public: true },
   },
   {
+    path: '/confirm/:token',
+    name: 'confirm',
+    component: () => import('@/views/ConfirmView.vue'),
+    meta: { title: 'Confirm release', public: true, bare: true },
+  },
+  {
     path: '/',
     name: 'home',
     component: () => import('@/views/HomeView.vue'),
@@ -38,6 +44,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Loops', roles: ['admin', 'buyer', 'planner', 'viewer'] },
   },
   {
+    path: '/releases',
+    name: 'releases',
+    component: () => import('@/views/ReleasesView.vue'),
+    meta: { title: 'Releases', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
+  },
+  {
     path: '/loops/:id/print',
     name: 'loop-print',
     component: () => import('@/views/LoopPrintView.vue'),
@@ -48,6 +60,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'card-scan',
     component: () => import('@/views/CardScanView.vue'),
     meta: { title: 'Scan cards', roles: ['admin', 'buyer', 'planner', 'receiving'] },
+  },
+  {
+    path: '/dock',
+    name: 'dock',
+    component: () => import('@/views/DockView.vue'),
+    meta: { title: 'Dock', roles: ['admin', 'receiving', 'buyer', 'planner', 'viewer'] },
   },
   {
     path: '/admin/users',

@@ -11,7 +11,9 @@ describe('navigationFor', () => {
   it('offers every area, the user list and the outbox to an admin', () => {
     const names = navigationFor('admin').map((entry) => entry.routeName);
 
-    expect(names).toEqual(['home', 'sequence', 'line-risk', 'horizon', 'loops', 'card-scan', 'imports', 'calendar', 'admin-users', 'admin-outbox']);
+    expect(names).toEqual([
+      'home', 'sequence', 'line-risk', 'horizon', 'loops', 'releases', 'card-scan', 'dock', 'imports', 'calendar', 'admin-users', 'admin-outbox',
+    ]);
   });
 
   it.each(ROLES.filter((role) => role !== 'admin'))('keeps the user list and outbox from a %s', (role) => {
@@ -20,6 +22,12 @@ describe('navigationFor', () => {
     expect(names).not.toContain('admin-users');
     expect(names).not.toContain('admin-outbox');
     expect(names).toContain('home');
+  });
+
+  it('offers a supplier only the overview and its own releases', () => {
+    const names = navigationFor('supplier').map((entry) => entry.routeName);
+
+    expect(names).toEqual(['home', 'releases']);
   });
 
   it('offers nothing when nobody is signed in', () => {
@@ -49,7 +57,9 @@ describe('AppShellNav', () => {
 
     const nav = wrapper.get('nav');
     expect(nav.attributes('aria-label')).toBe('Main');
-    expect(nav.findAll('a').map((link) => link.text())).toEqual(['Overview', 'Build sequence', 'Line risk', 'Horizon', 'Loops', 'Scan cards', 'Imports', 'Calendar']);
+    expect(nav.findAll('a').map((link) => link.text())).toEqual([
+      'Overview', 'Build sequence', 'Line risk', 'Horizon', 'Loops', 'Releases', 'Scan cards', 'Dock', 'Imports', 'Calendar',
+    ]);
   });
 
   it('marks the open page with aria-current for an admin on the user list', async () => {
@@ -58,7 +68,9 @@ describe('AppShellNav', () => {
     const wrapper = await mountInApp(AppShellNav, context);
 
     const links = wrapper.findAll('a');
-    expect(links.map((link) => link.text())).toEqual(['Overview', 'Build sequence', 'Line risk', 'Horizon', 'Loops', 'Scan cards', 'Imports', 'Calendar', 'Users', 'Outbox']);
+    expect(links.map((link) => link.text())).toEqual([
+      'Overview', 'Build sequence', 'Line risk', 'Horizon', 'Loops', 'Releases', 'Scan cards', 'Dock', 'Imports', 'Calendar', 'Users', 'Outbox',
+    ]);
     const current = links.filter((link) => link.attributes('aria-current') === 'page');
     expect(current.map((link) => link.text())).toEqual(['Users']);
     expect(current[0]!.classes()).toContain('is-active');

@@ -1,0 +1,122 @@
+import { randomBytes } from 'node:crypto';
+import { mkdir, rm, stat, writeFile } from 'node:fs/promises';
+import { basename, join, resolve, sep } from 'node:path';
+import type { DataSource } from 'typeorm';
+import type { AttachmentType, DockAttachment } from '../../shared/schemas/dock';
+import { recordAudit } from '../audit/audit.service';
+import { bumpDockVersion } from '../dock/dock-version';
+import { toDockAttachment } from '../dock/dock.service';
+import { AppError, NotFoundError } from '../errors';
+import type { AuthenticatedUser } from '../middleware/authenticate';
+import { ReleaseEntity } from '../releases/release.entity';
+import { AttachmentEntity } from './attachment.entity';
+
+const EXTENSIONS: Record<AttachmentType, string> = {
+  'image/jpeg': 'jpg',
+  'image/png': 'png',
+  'image/webp': 'webp',
+  'application/pdf': 'pdf',
+};
+
+const startsWith = (buffer: Buffer, bytes: number[], offset = 0) =>
+  buffer.length >= offset + bytes.length && bytes.every((byte, index) => buffer[offset + index] === byte);
+const ascii = (text: string) => [...text].map((character) => character.charCodeAt(0));
+
+/**
+ * The type of a file by its signature ("magic number"), never by its name or the browser's word
+ * for it. Signatures (from memory): JPEG starts with the SOI marker FF D8 followed by another
+ * marker's FF (ITU-T T.81 | ISO/IEC 10918-1, annex B); PNG with the eight bytes 89 'PNG' CR LF
+ * 1A LF (PNG specification, ISO/IEC 15948, "PNG signature"); WebP with 'RIFF', a 4-byte size,
+ * then 'WEBP' (RFC 9649, the RIFF header); PDF with '%PDF-' (ISO 32000-1, 7.5.2 "File header").
+ */
+export function sniffAttachmentType(buffer: Buffer): AttachmentType | null {
+  if (startsWith(buffer, [0xff, 0xd8, 0xff])) return 'image/jpeg';
+  if (startsWith(buffer, [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])) return 'image/png';
+  if (startsWith(buffer, ascii('RIFF')) && startsWith(buffer, ascii('WEBP'), 8)) return 'image/webp';
+  if (startsWith(buffer, ascii('%PDF-'))) return 'application/pdf';
+  return null;
+}
+
+/** The name a person gave the file, without any folder and without control characters. */
+function cleanFileName(original: string, type: AttachmentType): string {
+  const printable = [...original.replace(/\\/g, '/')].filter((character) => character >= ' ' && character !== '\u007f' && character !== '"');
+  const name = basename(printable.join('')).trim();
+  return (name || `packing-slip.${EXTENSIONS[type]}`).slice(0, 200);
+}
+
+/** A packing slip and where its bytes are, for streaming it back. */
+export interface StoredAttachment {
+  attachment: DockAttachment;
+  absolutePath: string;
+}
+
+/** Packing-slip photos and PDFs kept with a release, on disk under one folder per release. */
+export class AttachmentsService {
+  private readonly root: string;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    attachmentsDir: string,
+  ) {
+    this.root = resolve(attachmentsDir);
+  }
+
+  async add(releaseId: number, file: { buffer: Buffer; fileName: string }, actor: AuthenticatedUser): Promise<DockAttachment> {
+    const type = sniffAttachmentType(file.buffer);
+    if (!type) {
+      throw new AppError(415, 'unsupported_file_type', 'Attach a photo (JPEG, PNG or WebP) or a PDF of the packing slip; this file is neither.');
+    }
+    const release = await this.dataSource.manager.findOneBy(ReleaseEntity, { id: releaseId });
+    if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
+    const storagePath = `${release.id}/${randomBytes(16).toString('hex')}.${EXTENSIONS[type]}`;
+    const absolutePath = this.locate(storagePath);
+    await mkdir(join(this.root, String(release.id)), { recursive: true });
+    await writeFile(absolutePath, file.buffer, { flag: 'wx' });
+    try {
+      return await this.dataSource.transaction(async (manager) => {
+        const attachment = await manager.save(
+          manager.create(AttachmentEntity, {
+            releaseId: release.id,
+            receiptId: null,
+            fileName: cleanFileName(file.fileName, type),
+            mimeType: type,
+            sizeBytes: file.buffer.length,
+            storagePath,
+            uploadedBy: actor.email,
+            uploadedAt: new Date().toISOString(),
+          }),
+        );
+        await recordAudit(manager, {
+          actorEmail: actor.email,
+          action: 'attach',
+          entity: 'release',
+          entityKey: release.number,
+          changes: { attachmentId: attachment.id, fileName: attachment.fileName, mimeType: type, sizeBytes: attachment.sizeBytes },
+        });
+        await bumpDockVersion(manager);
+        return toDockAttachment(attachment);
+      });
+    } catch (error) {
+      // No row, no file: a failed save must not leave an orphan on disk.
+      await rm(absolutePath, { force: true });
+      throw error;
+    }
+  }
+
+  /** The attachment and its file on disk; 404 when either is gone. */
+  async find(id: number): Promise<StoredAttachment> {
+    const attachment = await this.dataSource.manager.findOneBy(AttachmentEntity, { id });
+    if (!attachment) throw new NotFoundError(`No attachment with id ${id}.`);
+    const absolutePath = this.locate(attachment.storagePath);
+    const onDisk = await stat(absolutePath).catch(() => null);
+    if (!onDisk?.isFile()) throw new NotFoundError(`The file of attachment ${id} is missing from storage.`);
+    return { attachment: toDockAttachment(attachment), absolutePath };
+  }
+
+  // Stored paths are ours, but a path read back from the database still must not leave the folder.
+  private locate(storagePath: string): string {
+    const absolutePath = resolve(this.root, storagePath);
+    if (!absolutePath.startsWith(this.root + sep)) throw new NotFoundError('No such attachment file.');
+    return absolutePath;
+  }
+}

@@ -1,0 +1,198 @@
+import { QueryFailedError, type DataSource, type EntityManager } from 'typeorm';
+import { canTransition, isCardState } from '../../shared/domain/card-cycle';
+import { QTY_EPSILON, roundQty } from '../../shared/domain/quantity';
+import { RECEIVABLE_STATUSES, type DockStatus } from '../../shared/schemas/dock';
+import { addsToOnHand, type Discrepancy, type Receipt, type ReceiptRequest, type ReceiptResponse } from '../../shared/schemas/receipts';
+import { recordAudit } from '../audit/audit.service';
+import { bumpDockVersion } from '../dock/dock-version';
+import { ConflictError, NotFoundError } from '../errors';
+import { applyCardEvent } from '../kanban/card-events';
+import { KanbanCardEntity } from '../kanban/kanban-card.entity';
+import type { AuthenticatedUser } from '../middleware/authenticate';
+import { PartEntity } from '../parts/part.entity';
+import { ReleaseLineEntity } from '../releases/release-line.entity';
+import { ReleaseEntity } from '../releases/release.entity';
+import { bumpPlanningVersion } from '../settings/settings.service';
+import { ReceiptEntity } from './receipt.entity';
+
+/** A receipt's body, and whether this request created it (201) or replayed an earlier one (200). */
+export interface ReceiveOutcome {
+  created: boolean;
+  body: ReceiptResponse;
+}
+
+function isUniqueViolation(error: unknown): boolean {
+  if (!(error instanceof QueryFailedError)) return false;
+  const driverError = error.driverError as { code?: string } | undefined;
+  // SQLite words it in the message; PostgreSQL answers SQLSTATE 23505.
+  return /UNIQUE constraint failed/i.test(error.message) || driverError?.code === '23505';
+}
+
+function toReceipt(entity: ReceiptEntity, line: ReleaseLineEntity, release: ReleaseEntity): Receipt {
+  const discrepancy = entity.discrepancy as Discrepancy | null;
+  return {
+    id: entity.id,
+    releaseLineId: entity.releaseLineId,
+    releaseNumber: release.number,
+    partNumber: line.partNumber,
+    qty: entity.qty,
+    discrepancy,
+    note: entity.note,
+    final: entity.final,
+    addedToOnHand: addsToOnHand(discrepancy) ? entity.qty : 0,
+    onHandAfter: entity.onHandAfter,
+    userEmail: entity.userEmail,
+    receivedAt: entity.receivedAt,
+  };
+}
+
+/** The request as stored, so a replay can be compared field by field with the first one. */
+function normalise(request: ReceiptRequest) {
+  return {
+    releaseLineId: request.releaseLineId,
+    qty: request.qty,
+    discrepancy: request.discrepancy ?? null,
+    note: request.note ? request.note : null,
+    final: request.close ?? false,
+  };
+}
+
+function sameRequest(entity: ReceiptEntity, request: ReceiptRequest): boolean {
+  const wanted = normalise(request);
+  return (
+    entity.releaseLineId === wanted.releaseLineId &&
+    entity.qty === wanted.qty &&
+    entity.discrepancy === wanted.discrepancy &&
+    entity.note === wanted.note &&
+    entity.final === wanted.final
+  );
+}
+
+/**
+ * Check-in at the dock: one counted quantity against one release line. A receipt changes stock,
+ * the line, the release, maybe a kanban card, all in one transaction, and exactly once per
+ * Idempotency-Key — a double tap, a retry after a lost answer and a race all count once.
+ */
+export class ReceiptsService {
+  constructor(private readonly dataSource: DataSource) {}
+
+  async receive(request: ReceiptRequest, idempotencyKey: string, actor: AuthenticatedUser): Promise<ReceiveOutcome> {
+    // Transactions run one at a time (see serialiseTransactions), so the look-up of the key and
+    // the insert cannot interleave with a twin request in this process; the unique index covers
+    // another instance.
+    try {
+      return await this.dataSource.transaction(async (manager) => {
+        const earlier = await this.replay(manager, idempotencyKey, request);
+        if (earlier) return earlier;
+        return { created: true, body: await this.record(manager, request, idempotencyKey, actor) };
+      });
+    } catch (error) {
+      if (!isUniqueViolation(error)) throw error;
+      const first = await this.replay(this.dataSource.manager, idempotencyKey, request);
+      if (first) return first;
+      throw error;
+    }
+  }
+
+  private async replay(manager: EntityManager, idempotencyKey: string, request: ReceiptRequest): Promise<ReceiveOutcome | null> {
+    const existing = await manager.findOneBy(ReceiptEntity, { idempotencyKey });
+    if (!existing) return null;
+    if (!sameRequest(existing, request)) {
+      throw new ConflictError('This Idempotency-Key was already used for a different receipt; send a new key for a new count.', [
+        { idempotencyKey, receiptId: existing.id },
+      ]);
+    }
+    const line = await manager.findOneByOrFail(ReleaseLineEntity, { id: existing.releaseLineId });
+    const release = await manager.findOneByOrFail(ReleaseEntity, { id: line.releaseId });
+    return { created: false, body: { receipt: toReceipt(existing, line, release), onHand: existing.onHandAfter } };
+  }
+
+  private async record(
+    manager: EntityManager,
+    request: ReceiptRequest,
+    idempotencyKey: string,
+    actor: AuthenticatedUser,
+  ): Promise<ReceiptResponse> {
+    const line = await manager.findOneBy(ReleaseLineEntity, { id: request.releaseLineId });
+    if (!line) throw new NotFoundError(`No release line with id ${request.releaseLineId}.`);
+    const release = await manager.findOneBy(ReleaseEntity, { id: line.releaseId });
+    if (!release) throw new NotFoundError(`No release line with id ${request.releaseLineId}.`);
+    if (!RECEIVABLE_STATUSES.includes(release.status as DockStatus)) {
+      throw new ConflictError(`Release ${release.number} is ${release.status}; only a sent, confirmed, exception, shipped or partly received release takes receipts.`, [
+        { status: release.status },
+      ]);
+    }
+    if (line.closed) {
+      throw new ConflictError(`Line ${line.id} (${line.partNumber}) of release ${release.number} is closed; nothing more can be received on it.`, [
+        { releaseLineId: line.id, receivedQty: line.receivedQty },
+      ]);
+    }
+    const part = await manager.findOneBy(PartEntity, { partNumber: line.partNumber });
+    if (!part) throw new ConflictError(`Part ${line.partNumber} is no longer in the master data; add it back before receiving.`);
+
+    const stored = normalise(request);
+    const usable = addsToOnHand(stored.discrepancy) ? stored.qty : 0;
+    const onHandBefore = part.onHand;
+    const onHandAfter = roundQty(onHandBefore + usable);
+    const receivedQty = roundQty(line.receivedQty + usable);
+    const ordered = line.confirmedQty ?? line.qty;
+    const closes = stored.final || receivedQty >= ordered - QTY_EPSILON;
+
+    await manager.update(PartEntity, { id: part.id }, { onHand: onHandAfter });
+    await manager.update(ReleaseLineEntity, { id: line.id }, { receivedQty, closed: closes });
+    if (closes && line.cardId !== null) await this.returnCard(manager, line.cardId, actor.email);
+
+    const previousStatus = release.status;
+    const status = await this.releaseStatusAfter(manager, release);
+    await manager.update(ReleaseEntity, { id: release.id }, { status, dockColumn: 'counted' });
+
+    const receipt = await manager.save(
+      manager.create(ReceiptEntity, {
+        ...stored,
+        idempotencyKey,
+        onHandAfter,
+        userEmail: actor.email,
+        receivedAt: new Date().toISOString(),
+      }),
+    );
+    await recordAudit(manager, {
+      actorEmail: actor.email,
+      action: 'receive',
+      entity: 'receipt',
+      entityKey: String(receipt.id),
+      changes: {
+        releaseNumber: release.number,
+        releaseLineId: line.id,
+        partNumber: line.partNumber,
+        qty: stored.qty,
+        discrepancy: stored.discrepancy,
+        final: stored.final,
+        onHand: { from: onHandBefore, to: onHandAfter },
+        receivedQty: { from: line.receivedQty, to: receivedQty },
+        lineClosed: closes,
+        ...(status !== previousStatus && { releaseStatus: { from: previousStatus, to: status } }),
+      },
+    });
+    await bumpPlanningVersion(manager);
+    await bumpDockVersion(manager);
+    return { receipt: toReceipt(receipt, line, release), onHand: onHandAfter };
+  }
+
+  /** `received` once every line is closed; `partial` once anything usable arrived or a line closed. */
+  private async releaseStatusAfter(manager: EntityManager, release: ReleaseEntity): Promise<string> {
+    const lines = await manager.findBy(ReleaseLineEntity, { releaseId: release.id });
+    if (lines.every((line) => line.closed)) return 'received';
+    if (lines.some((line) => line.closed || line.receivedQty > 0)) return 'partial';
+    return release.status;
+  }
+
+  /**
+   * The card that asked for a closed line is full again. A card already received by a scan, or
+   * pulled from circulation, is left as it is: the count at the dock must not fail over it.
+   */
+  private async returnCard(manager: EntityManager, cardId: number, userEmail: string): Promise<void> {
+    const card = await manager.findOneBy(KanbanCardEntity, { id: cardId });
+    if (!card || card.retiredAt || !isCardState(card.state) || !canTransition(card.state, 'receive')) return;
+    await applyCardEvent(manager, card, 'receive', userEmail);
+  }
+}

@@ -1,0 +1,267 @@
+import { createAppContext, getButton, jsonResponse, mountInApp } from './helpers';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises } from '@vue/test-utils';
+import type { DockItem, DockLine } from '@shared/schemas/dock';
+import type { ReceiptRequest, ReceiptResponse } from '@shared/schemas/receipts';
+import type { SessionUser } from '@shared/schemas/user';
+import DockCheckInDialog from '@/components/DockCheckInDialog.vue';
+import { newIdempotencyKey, parseCount, suggestDiscrepancy } from '@/stores/dock';
+
+vi.mock('element-plus/es/components/checkbox/style/css', () => ({}));
+vi.mock('element-plus/es/components/upload/style/css', () => ({}));
+vi.mock('element-plus/es/components/progress/style/css', () => ({}));
+
+const receiving: SessionUser = { email: 'receiving@example.com', name: 'Rae Receiving', role: 'receiving', supplierCode: null };
+
+function line(id: number, partNumber: string, qty: number, overrides: Partial<DockLine> = {}): DockLine {
+  return {
+    id,
+    partNumber,
+    description: `Part ${partNumber}`,
+    uom: 'H87',
+    qty,
+    confirmedQty: null,
+    receivedQty: 0,
+    open: true,
+    needDate: '2026-12-07',
+    hazardous: false,
+    ...overrides,
+  };
+}
+
+function itemWith(lines: DockLine[]): DockItem {
+  return {
+    id: 3,
+    number: 'R261201-FBS',
+    supplierCode: 'FBS',
+    supplierName: 'Supplier F',
+    column: 'at_dock',
+    status: 'shipped',
+    needDate: '2026-12-07',
+    expectedToday: false,
+    overdue: false,
+    carrier: null,
+    trackingNumber: null,
+    hazardous: lines.some((candidate) => candidate.hazardous),
+    lines,
+    attachments: [],
+  };
+}
+
+/** The server's answer to a receipt: it echoes the count; `onHand` is whatever the test says. */
+function receiptAnswer(request: ReceiptRequest, partNumber: string, onHand: number): ReceiptResponse {
+  return {
+    receipt: {
+      id: request.releaseLineId * 10,
+      releaseLineId: request.releaseLineId,
+      releaseNumber: 'R261201-FBS',
+      partNumber,
+      qty: request.qty,
+      discrepancy: request.discrepancy ?? null,
+      note: request.note ?? null,
+      final: request.close ?? false,
+      addedToOnHand: request.qty,
+      onHandAfter: onHand,
+      userEmail: receiving.email,
+      receivedAt: '2026-12-01T09:00:00.000Z',
+    },
+    onHand,
+  };
+}
+
+interface SentReceipt {
+  key: string | null;
+  body: ReceiptRequest;
+}
+
+function receiptCalls(fetchMock: ReturnType<typeof vi.fn<typeof fetch>>): SentReceipt[] {
+  return fetchMock.mock.calls
+    .filter(([input]) => String(input) === '/api/receipts')
+    .map(([, init]) => ({
+      key: (init?.headers as Record<string, string>)['Idempotency-Key'] ?? null,
+      body: JSON.parse(String(init?.body)) as ReceiptRequest,
+    }));
+}
+
+async function openDialog(item: DockItem, focusLineId: number | null = null) {
+  const context = await createAppContext({ user: receiving, path: '/dock' });
+  const wrapper = await mountInApp(DockCheckInDialog, context, {
+    props: { modelValue: true, item, focusLineId, editable: true },
+  });
+  await flushPromises();
+  return wrapper;
+}
+
+function lineElement(partNumber: string): HTMLElement {
+  const element = document.querySelector<HTMLElement>(`[data-test="check-in-line"][data-part="${partNumber}"]`);
+  if (!element) throw new Error(`no line ${partNumber}`);
+  return element;
+}
+
+function countBox(partNumber: string): HTMLInputElement {
+  return lineElement(partNumber).querySelector<HTMLInputElement>('input[inputmode="decimal"]')!;
+}
+
+async function type(input: HTMLInputElement, text: string): Promise<void> {
+  input.value = text;
+  input.dispatchEvent(new Event('input'));
+  await flushPromises();
+}
+
+function discrepancyShown(partNumber: string): string {
+  return lineElement(partNumber).querySelector('.el-select')?.textContent?.trim() ?? '';
+}
+
+/** The discrepancy drop-down of one line, as the component that emits the choice. */
+function discrepancySelect(wrapper: Awaited<ReturnType<typeof openDialog>>, partNumber: string) {
+  const select = wrapper.findAllComponents({ name: 'ElSelect' }).find((candidate) => lineElement(partNumber).contains(candidate.element));
+  if (!select) throw new Error(`no discrepancy choice on ${partNumber}`);
+  return select;
+}
+
+async function record(): Promise<void> {
+  getButton(document.body, 'Record counts').click();
+  await flushPromises();
+  await flushPromises();
+}
+
+describe('check-in helpers', () => {
+  it('reads a count typed with a decimal point or comma, and nothing else', () => {
+    expect([parseCount('24'), parseCount(' 12.5 '), parseCount('12,5'), parseCount(''), parseCount('-3'), parseCount('1e3')]).toEqual([
+      24,
+      12.5,
+      12.5,
+      null,
+      null,
+      null,
+    ]);
+  });
+
+  it('suggests short below what is still to come, over above it, nothing when it matches', () => {
+    // Common practice, no source: a count below the remaining quantity is a short delivery.
+    expect([suggestDiscrepancy(8, 10), suggestDiscrepancy(12, 10), suggestDiscrepancy(10, 10)]).toEqual(['short', 'over', null]);
+  });
+
+  it('makes version-4 UUID keys even where crypto.randomUUID is missing (plain-http pages)', () => {
+    // RFC 9562, section 5.4 (UUID version 4): version nibble 4, variant bits 10 (8, 9, a or b).
+    const layout = /^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/;
+    const realCrypto = globalThis.crypto;
+    vi.stubGlobal('crypto', { getRandomValues: (bytes: Uint8Array<ArrayBuffer>) => realCrypto.getRandomValues(bytes) });
+    const keys = Array.from({ length: 50 }, () => newIdempotencyKey());
+    vi.unstubAllGlobals();
+
+    expect(keys.every((key) => layout.test(key))).toBe(true);
+    expect(new Set(keys).size).toBe(50);
+  });
+});
+
+describe('DockCheckInDialog', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('starts every count box empty, so the clerk has to count', async () => {
+    vi.stubGlobal('fetch', vi.fn());
+    await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'PAD-26', 10)]));
+
+    expect(countBox('BRUSH-20').value).toBe('');
+    expect(countBox('PAD-26').value).toBe('');
+    expect(lineElement('BRUSH-20').querySelector('[data-test="ordered-qty"]')?.textContent).toBe('40 pcs');
+  });
+
+  it('suggests Short or Over from the count, and keeps a discrepancy chosen by hand', async () => {
+    vi.stubGlobal('fetch', vi.fn());
+    const wrapper = await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'PAD-26', 10)]));
+
+    await type(countBox('BRUSH-20'), '35');
+    await type(countBox('PAD-26'), '12');
+    const shortThenOver = [discrepancyShown('BRUSH-20'), discrepancyShown('PAD-26')];
+    await type(countBox('BRUSH-20'), '40');
+    const matched = discrepancyShown('BRUSH-20');
+    discrepancySelect(wrapper, 'BRUSH-20').vm.$emit('update:modelValue', 'damaged');
+    await flushPromises();
+    await type(countBox('BRUSH-20'), '30');
+
+    expect(shortThenOver).toEqual(['Short', 'Over']);
+    expect(matched).toBe('None');
+    expect(discrepancyShown('BRUSH-20')).toBe('Damaged');
+    expect(lineElement('BRUSH-20').textContent).toContain('not added to usable stock');
+  });
+
+  it('sends one receipt per counted line with its own Idempotency-Key and shows the new on-hand', async () => {
+    const fetchMock = vi.fn<typeof fetch>((_input, init) => {
+      const body = JSON.parse(String(init?.body)) as ReceiptRequest;
+      return Promise.resolve(jsonResponse(201, receiptAnswer(body, body.releaseLineId === 1 ? 'BRUSH-20' : 'PAD-26', body.releaseLineId === 1 ? 50 : 7)));
+    });
+    vi.stubGlobal('fetch', fetchMock);
+    const wrapper = await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'PAD-26', 10), line(3, 'DECAL-S', 5)]));
+    await type(countBox('BRUSH-20'), '40');
+    await type(countBox('PAD-26'), '7');
+
+    await record();
+
+    const sent = receiptCalls(fetchMock);
+    expect(sent.map((call) => call.body)).toEqual([
+      { releaseLineId: 1, qty: 40, discrepancy: null, note: null, close: false },
+      { releaseLineId: 2, qty: 7, discrepancy: 'short', note: null, close: false },
+    ]);
+    expect(sent[0]!.key).toEqual(expect.any(String));
+    expect(sent[0]!.key).not.toBe(sent[1]!.key);
+    expect(lineElement('BRUSH-20').querySelector('[data-test="on-hand"]')?.textContent).toBe('On hand now: 50 pcs');
+    expect(lineElement('PAD-26').querySelector('[data-test="on-hand"]')?.textContent).toBe('On hand now: 7 pcs');
+    expect(countBox('DECAL-S').value).toBe('');
+    expect(wrapper.emitted('checked-in')).toHaveLength(1);
+  });
+
+  it('sends the same key again when the clerk retries after a lost answer, so nothing counts twice', async () => {
+    const fetchMock = vi.fn<typeof fetch>();
+    fetchMock.mockRejectedValueOnce(new TypeError('network down'));
+    fetchMock.mockImplementationOnce((_input, init) =>
+      Promise.resolve(jsonResponse(200, receiptAnswer(JSON.parse(String(init?.body)) as ReceiptRequest, 'BRUSH-20', 50))),
+    );
+    vi.stubGlobal('fetch', fetchMock);
+    await openDialog(itemWith([line(1, 'BRUSH-20', 40)]));
+    await type(countBox('BRUSH-20'), '40');
+
+    await record();
+    const problem = lineElement('BRUSH-20').querySelector('[role="alert"]')?.textContent ?? '';
+    await record();
+
+    const sent = receiptCalls(fetchMock);
+    expect(problem).toContain('cannot be reached');
+    expect(sent).toHaveLength(2);
+    expect(sent[1]!.key).toBe(sent[0]!.key);
+    expect(sent[1]!.body).toEqual(sent[0]!.body);
+    expect(lineElement('BRUSH-20').querySelector('[data-test="on-hand"]')?.textContent).toBe('On hand now: 50 pcs');
+  });
+
+  it('refuses a count of 0 without a discrepancy before sending anything', async () => {
+    const fetchMock = vi.fn<typeof fetch>();
+    vi.stubGlobal('fetch', fetchMock);
+    const wrapper = await openDialog(itemWith([line(1, 'BRUSH-20', 40)]));
+    await type(countBox('BRUSH-20'), '0');
+    discrepancySelect(wrapper, 'BRUSH-20').vm.$emit('update:modelValue', '');
+    await flushPromises();
+
+    await record();
+
+    expect(fetchMock).not.toHaveBeenCalled();
+    expect(lineElement('BRUSH-20').textContent).toContain('A count of 0 needs a discrepancy');
+  });
+
+  it('shows the handling caution when a line carries a hazardous part, and puts a scanned card’s line first', async () => {
+    vi.stubGlobal('fetch', vi.fn());
+
+    await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'BATT-24V', 4, { hazardous: true, cardNumber: '000004500018' })]), 2);
+
+    const caution = document.querySelector('[data-test="hazard-caution"]')?.textContent ?? '';
+    expect(caution).toContain('Hazardous goods: BATT-24V');
+    expect(caution).toContain('check the packaging for damage or leaks before handling');
+    expect([...document.querySelectorAll('[data-test="check-in-line"]')].map((element) => element.getAttribute('data-part'))).toEqual([
+      'BATT-24V',
+      'BRUSH-20',
+    ]);
+  });
+});

@@ -1,0 +1,371 @@
+import { mkdtemp, readdir, rm } from 'node:fs/promises';
+import { get, type IncomingMessage } from 'node:http';
+import type { AddressInfo, Server } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { AuditEventEntity } from '../../server/audit/audit-event.entity';
+import { KanbanCardEntity } from '../../server/kanban/kanban-card.entity';
+import { KanbanLoopEntity } from '../../server/kanban/kanban-loop.entity';
+import { upsertParts } from '../../server/master-data/master-data.writer';
+import { plantToday } from '../../server/planning/plan-dates';
+import { ReceiptEntity } from '../../server/receipts/receipt.entity';
+import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { ReleaseEntity } from '../../server/releases/release.entity';
+import { addCalendarDays } from '../../shared/domain/date';
+import { cardNumber } from '../../shared/domain/gs1';
+import type { DockItem } from '../../shared/schemas/dock';
+import type { Role } from '../../shared/schemas/user';
+import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+
+let context: TestContext;
+let attachmentsDir: string;
+let releaseDay = 0;
+const today = plantToday();
+
+interface LineSpec {
+  partNumber: string;
+  qty: number;
+  needDate?: string;
+  closed?: boolean;
+  receivedQty?: number;
+  cardId?: number | null;
+}
+
+async function makeRelease(
+  status: string,
+  lines: LineSpec[],
+  extra: Partial<ReleaseEntity> = {},
+): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
+  releaseDay += 1;
+  const releaseDate = `2026-10-${String(releaseDay).padStart(2, '0')}`;
+  const release = await context.dataSource.getRepository(ReleaseEntity).save({
+    number: `R-DOCK-${releaseDay}`,
+    supplierCode: 'SUP-A',
+    releaseDate,
+    status,
+    carrier: null,
+    trackingNumber: null,
+    dockColumn: 'expected',
+    ...extra,
+  });
+  const saved = await context.dataSource.getRepository(ReleaseLineEntity).save(
+    lines.map((line) => ({
+      releaseId: release.id,
+      partNumber: line.partNumber,
+      qty: line.qty,
+      needDate: line.needDate ?? today,
+      origin: line.cardId ? 'kanban' : 'plan',
+      cardId: line.cardId ?? null,
+      confirmedQty: null,
+      receivedQty: line.receivedQty ?? 0,
+      closed: line.closed ?? false,
+    })),
+  );
+  return { release, lines: saved };
+}
+
+async function listDock(role: Role = 'receiving'): Promise<DockItem[]> {
+  const response = await request(context.app).get('/api/dock').set(bearer(context.tokens[role]));
+  expect(response.status).toBe(200);
+  return response.body as DockItem[];
+}
+
+function move(id: number, column: string, role: Role = 'receiving') {
+  return request(context.app).patch(`/api/dock/items/${id}`).set(bearer(context.tokens[role])).send({ column });
+}
+
+function upload(id: number, content: Buffer, fileName: string, role: Role = 'receiving') {
+  return request(context.app).post(`/api/dock/items/${id}/attachments`).set(bearer(context.tokens[role])).attach('file', content, fileName);
+}
+
+// A 1×1 PNG: the signature 89 50 4E 47 0D 0A 1A 0A (PNG specification, ISO/IEC 15948, "PNG signature";
+// from memory) followed by IHDR, IDAT and IEND chunks.
+const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==', 'base64');
+// A PDF opens with "%PDF-" and its version (ISO 32000-1:2008, 7.5.2 "File Header"; from memory).
+const PDF = Buffer.from('%PDF-1.7\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n', 'latin1');
+// A Windows program starts with the DOS header signature "MZ" (Microsoft PE/COFF specification,
+// "MS-DOS Stub"; from memory), whatever its file is called.
+const EXE = Buffer.concat([Buffer.from('MZ', 'latin1'), Buffer.alloc(126)]);
+
+beforeAll(async () => {
+  attachmentsDir = await mkdtemp(join(tmpdir(), 'cardloop-dock-'));
+  context = await createTestContext({ attachmentsDir });
+  await context.dataSource.transaction((manager) =>
+    upsertParts(manager, [
+      testPart('BRUSH-20', { description: 'Disc brush 20 in', replenishment: 'scheduled' }),
+      testPart('BATT-24V', { description: 'Traction battery 24 V', hazardous: true, replenishment: 'scheduled' }),
+      testPart('CASTER-75', { description: 'Caster 75 mm', uom: 'PR' }),
+    ]),
+  );
+});
+afterAll(async () => {
+  await context.close();
+  await rm(attachmentsDir, { recursive: true, force: true });
+});
+
+describe('GET /api/dock', () => {
+  it('lists open releases with their lines, card numbers and hazard flag, ordered by column then need date', async () => {
+    const loop = await context.dataSource.getRepository(KanbanLoopEntity).save({ partNumber: 'CASTER-75', kind: 'supplier', containerQty: 4 });
+    const card = await context.dataSource.getRepository(KanbanCardEntity).save({
+      loopId: loop.id,
+      cardIndex: 1,
+      cardNumber: cardNumber(loop.id, 1),
+      state: 'ordered',
+      stateChangedAt: '2026-10-01T08:00:00.000Z',
+      retiredAt: null,
+      releaseLineId: null,
+    });
+    const later = await makeRelease('confirmed', [{ partNumber: 'BRUSH-20', qty: 12, needDate: addCalendarDays(today, 2) }], {
+      carrier: 'Road freight',
+      trackingNumber: 'TRK-0001',
+    });
+    const dueToday = await makeRelease('sent', [
+      { partNumber: 'BATT-24V', qty: 4, needDate: today },
+      { partNumber: 'CASTER-75', qty: 4, needDate: addCalendarDays(today, 1), cardId: card.id },
+    ]);
+    const atDock = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 6, needDate: addCalendarDays(today, -1) }], { dockColumn: 'at_dock' });
+    await makeRelease('draft', [{ partNumber: 'BRUSH-20', qty: 6 }]);
+    await makeRelease('cancelled', [{ partNumber: 'BRUSH-20', qty: 6 }]);
+
+    const items = await listDock();
+
+    expect(items.map((item) => item.id)).toEqual([dueToday.release.id, later.release.id, atDock.release.id]);
+    const first = items[0];
+    expect(first).toMatchObject({
+      number: dueToday.release.number,
+      supplierCode: 'SUP-A',
+      supplierName: 'Supplier A',
+      column: 'expected',
+      status: 'sent',
+      needDate: today,
+      expectedToday: true,
+      overdue: false,
+      carrier: null,
+      trackingNumber: null,
+      hazardous: true,
+      attachments: [],
+    });
+    expect(first.lines).toEqual([
+      {
+        id: dueToday.lines[0].id,
+        partNumber: 'BATT-24V',
+        description: 'Traction battery 24 V',
+        uom: 'H87',
+        qty: 4,
+        confirmedQty: null,
+        receivedQty: 0,
+        open: true,
+        needDate: today,
+        hazardous: true,
+      },
+      {
+        id: dueToday.lines[1].id,
+        partNumber: 'CASTER-75',
+        description: 'Caster 75 mm',
+        uom: 'PR',
+        qty: 4,
+        confirmedQty: null,
+        receivedQty: 0,
+        open: true,
+        cardNumber: card.cardNumber,
+        needDate: addCalendarDays(today, 1),
+        hazardous: false,
+      },
+    ]);
+    expect(items[1]).toMatchObject({ carrier: 'Road freight', trackingNumber: 'TRK-0001', hazardous: false, expectedToday: false });
+    expect(items[2]).toMatchObject({ column: 'at_dock', overdue: true, expectedToday: false });
+  });
+
+  it('keeps a release received today on the board, and drops one received on an earlier day', async () => {
+    const receivedNow = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }], { dockColumn: 'to_line' });
+    const earlier = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }]);
+    const receipts = context.dataSource.getRepository(ReceiptEntity);
+    const base = { qty: 2, discrepancy: null, note: null, final: false, onHandAfter: 2, userEmail: 'receiving@example.com' };
+    await receipts.save({ ...base, releaseLineId: receivedNow.lines[0].id, idempotencyKey: 'dock-today', receivedAt: new Date().toISOString() });
+    await receipts.save({ ...base, releaseLineId: earlier.lines[0].id, idempotencyKey: 'dock-earlier', receivedAt: '2026-10-01T09:00:00.000Z' });
+
+    const ids = (await listDock()).map((item) => item.id);
+
+    expect(ids).toContain(receivedNow.release.id);
+    expect(ids).not.toContain(earlier.release.id);
+  });
+
+  it('is readable by every signed-in role but a supplier', async () => {
+    const statuses: Partial<Record<Role, number>> = {};
+
+    for (const role of ['admin', 'planner', 'buyer', 'receiving', 'viewer', 'supplier'] as Role[]) {
+      statuses[role] = (await request(context.app).get('/api/dock').set(bearer(context.tokens[role]))).status;
+    }
+
+    expect(statuses).toEqual({ admin: 200, planner: 200, buyer: 200, receiving: 200, viewer: 200, supplier: 403 });
+  });
+});
+
+describe('PATCH /api/dock/items/:id', () => {
+  it('moves a card forward and back, audits each move and bumps the dock version', async () => {
+    const { release } = await makeRelease('confirmed', [{ partNumber: 'BRUSH-20', qty: 3 }]);
+
+    const forward = await move(release.id, 'at_dock');
+    const back = await move(release.id, 'expected');
+
+    expect(forward.status).toBe(200);
+    expect(forward.body).toMatchObject({ id: release.id, column: 'at_dock' });
+    expect(back.status).toBe(200);
+    expect(back.body.column).toBe('expected');
+    const audit = await context.dataSource.getRepository(AuditEventEntity).find({
+      where: { entity: 'release', entityKey: release.number, action: 'dock-move' },
+      order: { id: 'ASC' },
+    });
+    expect(audit.map((event) => event.changes)).toEqual([
+      { dockColumn: { from: 'expected', to: 'at_dock' } },
+      { dockColumn: { from: 'at_dock', to: 'expected' } },
+    ]);
+  });
+
+  it('keeps a fully received release at the line (409) but lets a partly received one go back', async () => {
+    const received = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }], { dockColumn: 'to_line' });
+    const partial = await makeRelease('partial', [{ partNumber: 'BRUSH-20', qty: 4, receivedQty: 2 }], { dockColumn: 'to_line' });
+
+    const refused = await move(received.release.id, 'counted');
+    const allowed = await move(partial.release.id, 'at_dock');
+
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe('conflict');
+    expect(allowed.status).toBe(200);
+  });
+
+  it('answers 404 for an unknown release, 400 for an unknown column, 403 for a role that may not move', async () => {
+    const { release } = await makeRelease('sent', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+
+    const unknown = await move(987_654, 'at_dock');
+    const badColumn = await move(release.id, 'on_truck');
+    const asBuyer = await move(release.id, 'at_dock', 'buyer');
+    const asAdmin = await move(release.id, 'at_dock', 'admin');
+
+    expect(unknown.status).toBe(404);
+    expect(badColumn.status).toBe(400);
+    expect(asBuyer.status).toBe(403);
+    expect(asAdmin.status).toBe(200);
+  });
+});
+
+describe('packing-slip attachments', () => {
+  it('stores a photo under the release, lists it on the card and streams it back inline with its type', async () => {
+    const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+
+    const uploaded = await upload(release.id, PNG, 'slip photo.png');
+    const item = (await listDock()).find((candidate) => candidate.id === release.id);
+    const downloaded = await request(context.app)
+      .get(`/api/dock/attachments/${uploaded.body.id}`)
+      .set(bearer(context.tokens.viewer))
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (chunk: Buffer) => chunks.push(chunk));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+
+    expect(uploaded.status).toBe(201);
+    expect(uploaded.body).toMatchObject({ fileName: 'slip photo.png', mimeType: 'image/png', sizeBytes: PNG.length, uploadedBy: 'receiving@example.com' });
+    expect(item?.attachments.map((attachment) => attachment.fileName)).toEqual(['slip photo.png']);
+    expect(await readdir(join(attachmentsDir, String(release.id)))).toEqual([expect.stringMatching(/^[0-9a-f]{32}\.png$/)]);
+    expect(downloaded.status).toBe(200);
+    expect(downloaded.headers['content-type']).toBe('image/png');
+    expect(downloaded.headers['content-disposition']).toMatch(/^inline; filename="slip photo.png"/);
+    expect(Buffer.compare(downloaded.body as Buffer, PNG)).toBe(0);
+  });
+
+  it('takes a PDF whatever the browser calls it', async () => {
+    const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+
+    const response = await request(context.app)
+      .post(`/api/dock/items/${release.id}/attachments`)
+      .set(bearer(context.tokens.receiving))
+      .attach('file', PDF, { filename: 'slip.pdf', contentType: 'application/octet-stream' });
+
+    expect(response.status).toBe(201);
+    expect(response.body.mimeType).toBe('application/pdf');
+  });
+
+  it('rejects a program renamed .png by its content (415) and stores nothing', async () => {
+    const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+
+    const response = await request(context.app)
+      .post(`/api/dock/items/${release.id}/attachments`)
+      .set(bearer(context.tokens.receiving))
+      .attach('file', EXE, { filename: 'slip.png', contentType: 'image/png' });
+
+    expect(response.status).toBe(415);
+    expect(response.body.error.code).toBe('unsupported_file_type');
+    expect((await listDock()).find((item) => item.id === release.id)?.attachments).toEqual([]);
+  });
+
+  it('refuses a file over 10 MB with 413', async () => {
+    const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+    const tooBig = Buffer.concat([PNG, Buffer.alloc(10 * 1024 * 1024)]);
+
+    const response = await upload(release.id, tooBig, 'huge.png');
+
+    expect(response.status).toBe(413);
+    expect(response.body.error.code).toBe('payload_too_large');
+  });
+
+  it('lets only admin and receiving upload, and answers 404 for an unknown release or attachment', async () => {
+    const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+
+    const asViewer = await upload(release.id, PNG, 'slip.png', 'viewer');
+    const toUnknown = await upload(876_543, PNG, 'slip.png');
+    const unknownFile = await request(context.app).get('/api/dock/attachments/765432').set(bearer(context.tokens.viewer));
+
+    expect(asViewer.status).toBe(403);
+    expect(toUnknown.status).toBe(404);
+    expect(unknownFile.status).toBe(404);
+  });
+});
+
+describe('dock events', () => {
+  let server: Server;
+
+  beforeAll(() => {
+    server = context.app.listen(0);
+  });
+  afterAll(() => {
+    server.close();
+  });
+
+  function openStream(token: string): Promise<IncomingMessage> {
+    const { port } = server.address() as AddressInfo;
+    return new Promise((resolve) => {
+      get({ port, path: '/api/events', headers: { Authorization: `Bearer ${token}` } }, resolve);
+    });
+  }
+
+  function nextDockEvent(stream: IncomingMessage): Promise<{ version: number }> {
+    return new Promise((resolve) => {
+      let buffer = '';
+      const onData = (chunk: Buffer) => {
+        buffer += chunk.toString('utf8');
+        const match = buffer.match(/event: dock\ndata: (.*)\n\n/);
+        if (match) {
+          stream.off('data', onData);
+          resolve(JSON.parse(match[1]) as { version: number });
+        }
+      };
+      stream.on('data', onData);
+    });
+  }
+
+  it('sends a dock event with a higher version after a card moves', async () => {
+    const { release } = await makeRelease('sent', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+    const stream = await openStream(context.tokens.viewer);
+    const first = await nextDockEvent(stream);
+
+    await move(release.id, 'at_dock');
+    const second = await nextDockEvent(stream);
+
+    expect(second.version).toBeGreaterThan(first.version);
+    stream.destroy();
+  });
+});
