@@ -6,6 +6,8 @@ import { loadConfig } from './config';
 import { openDatabase } from './db/data-source';
 import { ReleaseJob } from './jobs/release-job';
 import { startJobs } from './jobs/scheduler';
+import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
+import { LineRiskService } from './line-risk/line-risk.service';
 import { startFakeSmtp } from './mail/fake-smtp';
 import { OutboxDispatcher } from './mail/outbox.service';
 import { PlanningService } from './planning/planning.service';
@@ -36,7 +38,8 @@ async function main(): Promise<void> {
 
   const dispatcher = new OutboxDispatcher(dataSource, smtpUrl, config.MAIL_FROM);
   const releaseJob = new ReleaseJob(dataSource, new ReleasesService(dataSource, new PlanningService(dataSource), { appUrl: config.APP_URL }));
-  const jobs = startJobs(dispatcher, releaseJob);
+  const lineRisk = new LineRiskService(dataSource);
+  const jobs = startJobs(dispatcher, releaseJob, () => alertFrozenWindowShortages(dataSource, lineRisk, config.APP_URL));
   const app = createApp(dataSource, {
     jwtSecret: config.jwtSecret,
     jwtTtl: config.JWT_TTL,

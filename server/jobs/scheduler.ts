@@ -2,8 +2,14 @@ import cron, { type ScheduledTask } from 'node-cron';
 import type { OutboxDispatcher } from '../mail/outbox.service';
 import type { ReleaseJob } from './release-job';
 
-/** In-process jobs: the outbox is drained every ten seconds; the release job looks at its clock every minute. */
-export function startJobs(dispatcher: OutboxDispatcher, releaseJob: ReleaseJob): ScheduledTask[] {
+/** A check that returns what it reported, run every few minutes. */
+type PeriodicCheck = () => Promise<string[]>;
+
+/**
+ * In-process jobs: the outbox is drained every ten seconds; the release job looks at its clock
+ * every minute; the frozen window is checked for new shortages every five minutes.
+ */
+export function startJobs(dispatcher: OutboxDispatcher, releaseJob: ReleaseJob, frozenWindowCheck: PeriodicCheck): ScheduledTask[] {
   const drainOutbox = cron.schedule('*/10 * * * * *', () => {
     dispatcher.dispatchDue().catch((error) => console.error('Outbox dispatch failed:', error));
   });
@@ -17,5 +23,12 @@ export function startJobs(dispatcher: OutboxDispatcher, releaseJob: ReleaseJob):
       })
       .catch((error) => console.error('Release job failed:', error));
   });
-  return [drainOutbox, releases];
+  const shortages = cron.schedule('30 */5 * * * *', () => {
+    frozenWindowCheck()
+      .then((parts) => {
+        if (parts.length > 0) console.log(`Frozen-window shortage alert sent for ${parts.join(', ')}.`);
+      })
+      .catch((error) => console.error('Frozen-window shortage check failed:', error));
+  });
+  return [drainOutbox, releases, shortages];
 }

@@ -1,0 +1,67 @@
+import type { DataSource } from 'typeorm';
+import type { ShortageDto } from '../../shared/schemas/line-risk';
+import { recordAudit } from '../audit/audit.service';
+import { enqueueMail } from '../mail/outbox.service';
+import { readSetting, writeSetting } from '../settings/settings.service';
+import { UserEntity } from '../users/user.entity';
+import type { LineRiskService } from './line-risk.service';
+
+/** Part number → first short date already reported to the planners. */
+const ALERTED = 'lineRisk.frozenWindowAlerts';
+
+function alertText(shortages: ShortageDto[], appUrl: string): string {
+  const blocks = shortages.map((shortage) => {
+    const units = shortage.slotsAtRisk
+      .slice(0, 10)
+      .map((slot) => `    ${slot.date} position ${slot.sequence}: ${slot.serial} (${slot.model})`);
+    const more = shortage.slotsAtRisk.length > 10 ? [`    … and ${shortage.slotsAtRisk.length - 10} more units`] : [];
+    const resequence = shortage.rescue.resequence
+      ? [`  Or build ${shortage.rescue.resequence.candidate.serial} (${shortage.rescue.resequence.candidate.model}) in the slot of ${shortage.rescue.resequence.slot.serial}: all its parts are present.`]
+      : [];
+    return [
+      `${shortage.partNumber} ${shortage.description}${shortage.hazardous ? ' [hazardous goods]' : ''}`,
+      `  Short from ${shortage.firstShortDate} by ${shortage.shortQty} ${shortage.uom}; ${shortage.slotsAtRisk.length} units cannot be built:`,
+      ...units,
+      ...more,
+      `  Expedite ${shortage.rescue.expedite.qty} ${shortage.uom} from ${shortage.supplierName ?? shortage.supplierCode ?? 'the supplier'} by ${shortage.rescue.expedite.needBy}.`,
+      ...resequence,
+    ].join('\n');
+  });
+  return [
+    'These parts now run short inside the frozen window of the build sequence:',
+    '',
+    blocks.join('\n\n'),
+    '',
+    `Line risk: ${appUrl}/line-risk`,
+  ].join('\n');
+}
+
+/**
+ * E-mails the planners once when a part's shortage enters the frozen window (again only if its
+ * first short date moves); a part that leaves the window may alert again later. Returns the
+ * part numbers newly reported.
+ */
+export async function alertFrozenWindowShortages(dataSource: DataSource, lineRisk: LineRiskService, appUrl: string): Promise<string[]> {
+  const inWindow = (await lineRisk.shortages()).filter((shortage) => shortage.inFrozenWindow);
+  return dataSource.transaction(async (manager) => {
+    const alerted = await readSetting<Record<string, string>>(manager, ALERTED, {});
+    const fresh = inWindow.filter((shortage) => alerted[shortage.partNumber] !== shortage.firstShortDate);
+    const stillAlerted = Object.fromEntries(inWindow.map((shortage) => [shortage.partNumber, shortage.firstShortDate]));
+    await writeSetting(manager, ALERTED, stillAlerted);
+    if (fresh.length === 0) return [];
+    const planners = await manager.find(UserEntity, { where: { role: 'planner', active: true } });
+    const subject =
+      fresh.length === 1
+        ? `Line stop ahead: ${fresh[0].partNumber} short on ${fresh[0].firstShortDate}, inside the frozen window`
+        : `Line stop ahead: ${fresh.length} parts short inside the frozen window`;
+    for (const planner of planners) await enqueueMail(manager, { to: planner.email, subject, text: alertText(fresh, appUrl) });
+    await recordAudit(manager, {
+      actorEmail: null,
+      action: 'alert',
+      entity: 'line-risk',
+      entityKey: 'frozen-window',
+      changes: { parts: fresh.map((shortage) => shortage.partNumber), planners: planners.map((planner) => planner.email) },
+    });
+    return fresh.map((shortage) => shortage.partNumber);
+  });
+}

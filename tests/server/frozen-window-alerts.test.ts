@@ -1,0 +1,62 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { nextWorkingDay } from '../../shared/domain/calendar';
+import { writeCalendar } from '../../server/calendar/calendar.service';
+import { alertFrozenWindowShortages } from '../../server/line-risk/frozen-window-alerts';
+import { LineRiskService } from '../../server/line-risk/line-risk.service';
+import { OutboxMessageEntity } from '../../server/mail/outbox-message.entity';
+import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
+import { plantToday } from '../../server/planning/plan-dates';
+import { createTestContext, testPart, type TestContext } from './helpers';
+
+const calendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] };
+let context: TestContext;
+let lineRisk: LineRiskService;
+
+// The first working day from today is inside the default frozen window of 3 working days. One
+// unit of M needs 2 of P; with 1 on hand and nothing confirmed to arrive, that unit is at risk.
+beforeAll(async () => {
+  context = await createTestContext();
+  lineRisk = new LineRiskService(context.dataSource);
+  const buildDay = nextWorkingDay(plantToday(), calendar);
+  await context.dataSource.transaction(async (manager) => {
+    await writeCalendar(manager, calendar);
+    await upsertParts(manager, [
+      testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
+      testPart('P', { onHand: 1, description: 'Drive motor' }),
+    ]);
+    await replaceBomLines(manager, [{ parent: 'M', component: 'P', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null }]);
+    await upsertSequenceEntries(manager, [{ date: buildDay, sequence: 1, model: 'M', serial: 'S-1', qty: 1 }]);
+  });
+});
+afterAll(() => context.close());
+
+const alertsTo = async (email: string) =>
+  (await context.dataSource.getRepository(OutboxMessageEntity).find({ order: { id: 'ASC' } })).filter((message) => message.to === email);
+
+describe('frozen-window shortage alerts', () => {
+  it('e-mails every planner once when a shortage enters the frozen window, naming the unit', async () => {
+    const first = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+    const again = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+
+    expect(first).toEqual(['P']);
+    expect(again).toEqual([]);
+    const mails = await alertsTo('planner@example.com');
+    expect(mails).toHaveLength(1);
+    expect(mails[0].subject).toContain('P short on');
+    expect(mails[0].text).toContain('S-1 (M)');
+    expect(mails[0].text).toContain('http://plant.example.com/line-risk');
+    expect(await alertsTo('buyer@example.com')).toHaveLength(0);
+  });
+
+  it('alerts again after the part has left the window and comes back', async () => {
+    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'P', onHand: 5 }]));
+    const cleared = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'P', onHand: 0 }]));
+
+    const back = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+
+    expect(cleared).toEqual([]);
+    expect(back).toEqual(['P']);
+    expect(await alertsTo('planner@example.com')).toHaveLength(2);
+  });
+});
