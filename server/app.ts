@@ -20,6 +20,7 @@ import { createKanbanRouter } from './kanban/kanban.router';
 import { createLineRiskRouter } from './line-risk/line-risk.router';
 import { createMailRouter } from './mail/mail.router';
 import { createMasterDataRouter } from './master-data/master-data.router';
+import { createPerformanceRouter } from './performance/performance.router';
 import { MasterDataService } from './master-data/master-data.service';
 import { authenticate } from './middleware/authenticate';
 import { ForecastMailService } from './planning/forecast-mail.service';
@@ -84,6 +85,7 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   api.use(createAuthRouter({ authService, registry, loginFailureLimit: options.loginFailureLimit ?? 10 }));
   api.use(createUsersRouter(new UsersService(dataSource), registry));
   api.use(createCalendarRouter(new CalendarService(dataSource), registry));
+  api.use(createPerformanceRouter(dataSource, registry));
   api.use(createMasterDataRouter(new MasterDataService(dataSource), registry));
   api.use(createImportsRouter(dataSource, registry));
   api.use(createSequenceRouter(dataSource, registry));

@@ -1,5 +1,5 @@
 import { markRaw, type Component } from 'vue';
-import { Aim, Calendar, House, Message, Refresh, Sort, Tickets, TrendCharts, Upload, User, Van, Warning } from '@element-plus/icons-vue';
+import { Aim, Calendar, House, Medal, Message, Refresh, Sort, Tickets, TrendCharts, Upload, User, Van, Warning } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { RouteName } from './route-map';
 
@@ -55,6 +55,13 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Tickets),
     roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
     summary: 'What each supplier was asked to ship and when, their answers, and the exceptions waiting for a decision.',
+  },
+  {
+    routeName: 'supplier-performance',
+    label: 'Supplier performance',
+    icon: markRaw(Medal),
+    roles: ['admin', 'buyer', 'planner', 'viewer'],
+    summary: 'Each supplier month by month: lines delivered in full by the need date, quantity filled, and how fast releases are answered.',
   },
   {
     routeName: 'card-scan',

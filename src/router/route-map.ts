@@ -15,6 +15,7 @@ export interface RouteNamedMap {
   horizon: RouteRecordInfo<'horizon', '/horizon', NoParams, NoParams>;
   loops: RouteRecordInfo<'loops', '/loops', NoParams, NoParams>;
   releases: RouteRecordInfo<'releases', '/releases', NoParams, NoParams>;
+  'supplier-performance': RouteRecordInfo<'supplier-performance', '/suppliers/performance', NoParams, NoParams>;
   confirm: RouteRecordInfo<'confirm', '/confirm/:token', { token: string }, { token: string }>;
   'loop-print': RouteRecordInfo<'loop-print', '/loops/:id/print', { id: string | number }, { id: string }>;
   'card-scan': RouteRecordInfo<'card-scan', '/scan', NoParams, NoParams>;

@@ -50,6 +50,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Releases', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
   },
   {
+    path: '/suppliers/performance',
+    name: 'supplier-performance',
+    component: () => import('@/views/SupplierPerformanceView.vue'),
+    meta: { title: 'Supplier performance', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+  },
+  {
     path: '/loops/:id/print',
     name: 'loop-print',
     component: () => import('@/views/LoopPrintView.vue'),

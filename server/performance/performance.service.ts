@@ -1,0 +1,120 @@
+import { In, type DataSource } from 'typeorm';
+import {
+  addMonths,
+  firstDayOf,
+  lastDayOf,
+  monthOf,
+  monthSpan,
+  supplierPerformance,
+  type PerformanceLine,
+  type PerformanceRelease,
+  type YearMonth,
+} from '../../shared/domain/supplier-performance';
+import { addsToOnHand, type Discrepancy } from '../../shared/schemas/receipts';
+import {
+  DEFAULT_PERFORMANCE_MONTHS,
+  MAX_PERFORMANCE_MONTHS,
+  type PerformanceQuery,
+  type SupplierMonthPerformanceDto,
+} from '../../shared/schemas/supplier-performance';
+import { BadRequestError, NotFoundError } from '../errors';
+import { plantToday } from '../planning/plan-dates';
+import { ReceiptEntity } from '../receipts/receipt.entity';
+import { ReleaseLineEntity } from '../releases/release-line.entity';
+import { ReleaseEntity } from '../releases/release.entity';
+import { SupplierEntity } from '../suppliers/supplier.entity';
+
+/** Fills in and checks the month range: defaults to the last six months through the current one. */
+export function resolveMonths(query: Pick<PerformanceQuery, 'from' | 'to'>, today: string): { from: YearMonth; to: YearMonth } {
+  const to = query.to ?? (query.from && query.from > monthOf(today) ? query.from : monthOf(today));
+  const from = query.from ?? addMonths(to, -(DEFAULT_PERFORMANCE_MONTHS - 1));
+  const span = monthSpan(from, to);
+  if (span < 1) throw new BadRequestError('to is before from.', [{ path: ['to'], message: 'must not be before from' }]);
+  if (span > MAX_PERFORMANCE_MONTHS) {
+    throw new BadRequestError(`The range spans ${span} months; ask for at most ${MAX_PERFORMANCE_MONTHS}.`, [
+      { path: ['to'], message: `must be at most ${MAX_PERFORMANCE_MONTHS} months after from` },
+    ]);
+  }
+  return { from, to };
+}
+
+/** Reads releases, lines and receipts of a range and measures each supplier's months. */
+export class PerformanceService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly clock: () => Date = () => new Date(),
+  ) {}
+
+  async performance(query: PerformanceQuery): Promise<SupplierMonthPerformanceDto[]> {
+    const now = this.clock();
+    const today = plantToday(now);
+    const { from, to } = resolveMonths(query, today);
+    const manager = this.dataSource.manager;
+
+    const suppliers = await manager.find(SupplierEntity, query.supplier ? { where: { code: query.supplier } } : {});
+    if (query.supplier && suppliers.length === 0) throw new NotFoundError(`No supplier ${query.supplier}.`);
+    const names = new Map(suppliers.map((supplier) => [supplier.code, supplier.name]));
+
+    // Only what can land in the range: need dates of the range's months, up to the day before today.
+    const lineQuery = manager
+      .createQueryBuilder(ReleaseLineEntity, 'line')
+      .innerJoin(ReleaseEntity, 'release', 'release.id = line.releaseId')
+      .select(['line.id AS id', 'line.releaseId AS releaseId', 'line.qty AS qty', 'line.confirmedQty AS confirmedQty', 'line.needDate AS needDate'])
+      .addSelect('release.supplierCode', 'supplierCode')
+      .where('release.status != :cancelled', { cancelled: 'cancelled' })
+      .andWhere('line.needDate BETWEEN :first AND :last', { first: firstDayOf(from), last: lastDayOf(to) })
+      .andWhere('line.needDate < :today', { today });
+    if (query.supplier) lineQuery.andWhere('release.supplierCode = :supplier', { supplier: query.supplier });
+    const rows = await lineQuery.getRawMany<{ id: number; releaseId: number; qty: number; confirmedQty: number | null; needDate: string; supplierCode: string }>();
+
+    const receiptsByLine = new Map<number, PerformanceLine['receipts'][number][]>();
+    const lineIds = rows.map((row) => row.id);
+    // SQLite allows a limited number of bound parameters per statement.
+    for (let start = 0; start < lineIds.length; start += 500) {
+      const receipts = await manager.find(ReceiptEntity, { where: { releaseLineId: In(lineIds.slice(start, start + 500)) } });
+      for (const receipt of receipts) {
+        const list = receiptsByLine.get(receipt.releaseLineId) ?? [];
+        list.push({
+          qty: receipt.qty,
+          receivedOn: plantToday(new Date(receipt.receivedAt)),
+          usable: addsToOnHand(receipt.discrepancy as Discrepancy | null),
+        });
+        receiptsByLine.set(receipt.releaseLineId, list);
+      }
+    }
+
+    const lines: PerformanceLine[] = rows.map((row) => ({
+      supplierCode: row.supplierCode,
+      needDate: row.needDate,
+      orderedQty: row.confirmedQty ?? row.qty,
+      receipts: receiptsByLine.get(row.id) ?? [],
+    }));
+
+    const releases = await this.releasesOf(rows);
+
+    return supplierPerformance({ from, to, today, lines, releases }).map(({ supplierCode, ...figures }) => ({
+      supplierCode,
+      supplierName: names.get(supplierCode) ?? supplierCode,
+      ...figures,
+    }));
+  }
+
+  /** Sent releases with their earliest need date, for the releases whose lines fell in the range. */
+  private async releasesOf(rows: readonly { releaseId: number }[]): Promise<PerformanceRelease[]> {
+    const ids = [...new Set(rows.map((row) => row.releaseId))];
+    const releases: PerformanceRelease[] = [];
+    for (let start = 0; start < ids.length; start += 500) {
+      const chunk = ids.slice(start, start + 500);
+      const found = await this.dataSource.manager
+        .createQueryBuilder(ReleaseEntity, 'release')
+        .innerJoin(ReleaseLineEntity, 'line', 'line.releaseId = release.id')
+        .select(['release.supplierCode AS supplierCode', 'release.sentAt AS sentAt', 'release.confirmedAt AS confirmedAt'])
+        .addSelect('MIN(line.needDate)', 'firstNeedDate')
+        .where('release.id IN (:...ids)', { ids: chunk })
+        .groupBy('release.id')
+        .getRawMany<PerformanceRelease>();
+      releases.push(...found);
+    }
+    return releases;
+  }
+}
