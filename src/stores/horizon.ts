@@ -8,15 +8,13 @@ import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared
 import * as planningApi from '@/api/planning';
 import type { DemandQuery } from '@/api/planning';
 import { ApiError } from '@/api/http';
+import { isAbort } from './latest-request';
 
 interface FetchOptions {
   /** A refresh after a live change: keep the shown figures until the new ones arrive, no spinner. */
   quiet?: boolean;
 }
 
-function isAbort(cause: unknown): boolean {
-  return cause instanceof DOMException && cause.name === 'AbortError';
-}
 
 export const useHorizonStore = defineStore('horizon', () => {
   const demand = ref<DemandResponse | null>(null);

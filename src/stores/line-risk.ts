@@ -3,48 +3,26 @@ import { computed, ref } from 'vue';
 import type { LineRiskReport, ResequenceOptionDto, ShortageDto } from '@shared/schemas/line-risk';
 import * as lineRiskApi from '@/api/line-risk';
 import type { LineRiskRange } from '@/api/line-risk';
-import { ApiError } from '@/api/http';
+import { useLatestRequest } from './latest-request';
 
 interface FetchOptions {
   /** A refresh after a live change: keep the figures on screen until the new ones arrive. */
   quiet?: boolean;
 }
 
-function isAbort(cause: unknown): boolean {
-  return cause instanceof DOMException && cause.name === 'AbortError';
-}
-
 export const useLineRiskStore = defineStore('line-risk', () => {
   const report = ref<LineRiskReport | null>(null);
   const range = ref<LineRiskRange | null>(null);
-  const loading = ref(false);
-  const error = ref<ApiError | null>(null);
+  const { loading, error, run } = useLatestRequest();
   /** When the figures were last replaced because the server announced a planning change. */
   const liveUpdatedAt = ref<Date | null>(null);
 
-  // The horizon can change faster than the server answers; only the latest request may land.
-  let pending: AbortController | null = null;
-
   /** Loads the report for a horizon; a failure is kept in `error`. */
-  async function fetchReport(next: LineRiskRange, options: FetchOptions = {}): Promise<void> {
-    pending?.abort();
-    const controller = new AbortController();
-    pending = controller;
-    if (!options.quiet) loading.value = true;
-    error.value = null;
-    try {
-      report.value = await lineRiskApi.getLineRisk(next, controller.signal);
+  function fetchReport(next: LineRiskRange, options: FetchOptions = {}): Promise<void> {
+    return run(async (signal) => {
+      report.value = await lineRiskApi.getLineRisk(next, signal);
       range.value = { ...next };
-    } catch (cause) {
-      if (isAbort(cause)) return;
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      if (pending === controller) {
-        loading.value = false;
-        pending = null;
-      }
-    }
+    }, options);
   }
 
   /** Re-reads the same horizon after a planning change, without a spinner. */

@@ -5,41 +5,19 @@ import { addMonths, summarisePerformance, type SupplierPerformanceSummary } from
 import { DEFAULT_PERFORMANCE_MONTHS, type SupplierMonthPerformanceDto } from '@shared/schemas/supplier-performance';
 import * as performanceApi from '@/api/performance';
 import type { PerformanceFilter } from '@/api/performance';
-import { ApiError } from '@/api/http';
-
-function isAbort(cause: unknown): boolean {
-  return cause instanceof DOMException && cause.name === 'AbortError';
-}
+import { useLatestRequest } from './latest-request';
 
 export const usePerformanceStore = defineStore('performance', () => {
   const rows = ref<SupplierMonthPerformanceDto[]>([]);
   const filter = ref<PerformanceFilter | null>(null);
-  const loading = ref(false);
-  const error = ref<ApiError | null>(null);
-
-  // The range can change faster than the server answers; only the latest request may land.
-  let pending: AbortController | null = null;
+  const { loading, error, run } = useLatestRequest();
 
   /** Loads the figures for a range (and supplier); a failure is kept in `error`. */
-  async function fetchPerformance(next: PerformanceFilter): Promise<void> {
-    pending?.abort();
-    const controller = new AbortController();
-    pending = controller;
-    loading.value = true;
-    error.value = null;
-    try {
-      rows.value = await performanceApi.getSupplierPerformance(next, controller.signal);
+  function fetchPerformance(next: PerformanceFilter): Promise<void> {
+    return run(async (signal) => {
+      rows.value = await performanceApi.getSupplierPerformance(next, signal);
       filter.value = { ...next };
-    } catch (cause) {
-      if (isAbort(cause)) return;
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      if (pending === controller) {
-        loading.value = false;
-        pending = null;
-      }
-    }
+    });
   }
 
   /** Each supplier over the whole range, re-weighted from the monthly counts, with its name. */

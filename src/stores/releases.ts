@@ -15,6 +15,7 @@ import * as confirmApi from '@/api/confirm';
 import * as releasesApi from '@/api/releases';
 import { ApiError } from '@/api/http';
 import { shortDate, weekdayName } from './horizon';
+import { isAbort } from './latest-request';
 
 /** What the list shows: one status (or all) and one release date (or all). */
 export interface ReleasesFilter {
@@ -24,9 +25,6 @@ export interface ReleasesFilter {
 
 export type ReleaseAction = 'accept' | 'resend' | 'cancel';
 
-function isAbort(cause: unknown): boolean {
-  return cause instanceof DOMException && cause.name === 'AbortError';
-}
 
 export const useReleasesStore = defineStore('releases', () => {
   const releases = ref<Release[]>([]);

@@ -1,0 +1,40 @@
+import { ref } from 'vue';
+import { ApiError } from '@/api/http';
+
+/** True for the rejection of a request that a newer one aborted. */
+export function isAbort(cause: unknown): boolean {
+  return cause instanceof DOMException && cause.name === 'AbortError';
+}
+
+/**
+ * Loading state for a store whose filters can change faster than the server answers: each `run`
+ * aborts the one before it, so only the latest answer lands. An ApiError is kept in `error`;
+ * anything else is a bug and is thrown on.
+ */
+export function useLatestRequest() {
+  const loading = ref(false);
+  const error = ref<ApiError | null>(null);
+  let pending: AbortController | null = null;
+
+  async function run(load: (signal: AbortSignal) => Promise<void>, options: { quiet?: boolean } = {}): Promise<void> {
+    pending?.abort();
+    const controller = new AbortController();
+    pending = controller;
+    if (!options.quiet) loading.value = true;
+    error.value = null;
+    try {
+      await load(controller.signal);
+    } catch (cause) {
+      if (isAbort(cause)) return;
+      if (!(cause instanceof ApiError)) throw cause;
+      error.value = cause;
+    } finally {
+      if (pending === controller) {
+        loading.value = false;
+        pending = null;
+      }
+    }
+  }
+
+  return { loading, error, run };
+}
