@@ -1,30 +1,9 @@
-import { jsonResponse } from './helpers';
+import { eventStream, jsonResponse, mountListener as mountWith } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { flushPromises, mount } from '@vue/test-utils';
-import { defineComponent, h } from 'vue';
+import { flushPromises } from '@vue/test-utils';
 import { useDockEvents } from '@/composables/useDockEvents';
 
-/** A streamed 200 response whose body yields the given chunks, then stays open until aborted. */
-function eventStream(chunks: string[], signal?: AbortSignal | null): Response {
-  const encoder = new TextEncoder();
-  const body = new ReadableStream<Uint8Array>({
-    start(controller) {
-      for (const chunk of chunks) controller.enqueue(encoder.encode(chunk));
-      signal?.addEventListener('abort', () => controller.error(new DOMException('aborted', 'AbortError')));
-    },
-  });
-  return new Response(body, { status: 200, headers: { 'Content-Type': 'text/event-stream' } });
-}
-
-function mountListener(onChange: (version: number) => void) {
-  const Listener = defineComponent({
-    setup() {
-      useDockEvents(onChange);
-      return () => h('div');
-    },
-  });
-  return mount(Listener);
-}
+const mountListener = (onChange: (version: number) => void) => mountWith(() => useDockEvents(onChange));
 
 describe('useDockEvents', () => {
   afterEach(() => {

@@ -2,7 +2,7 @@ import { vi } from 'vitest';
 import { flushPromises, mount, type ComponentMountingOptions } from '@vue/test-utils';
 import { createPinia, setActivePinia, type Pinia } from 'pinia';
 import { createMemoryHistory, type Router } from 'vue-router';
-import type { Component } from 'vue';
+import { defineComponent, h, type Component } from 'vue';
 import type { SessionUser } from '@shared/schemas/user';
 import { writeToken } from '@/api/session-token';
 import { createAppRouter } from '@/router';
@@ -111,4 +111,27 @@ export function getButton(root: ParentNode, name: string): HTMLButtonElement {
   );
   if (!button) throw new Error(`no button "${name}"`);
   return button;
+}
+
+/** A streamed 200 response whose body yields the given chunks, then stays open until aborted. */
+export function eventStream(chunks: string[], signal?: AbortSignal | null): Response {
+  const encoder = new TextEncoder();
+  const body = new ReadableStream<Uint8Array>({
+    start(controller) {
+      for (const chunk of chunks) controller.enqueue(encoder.encode(chunk));
+      signal?.addEventListener('abort', () => controller.error(new DOMException('aborted', 'AbortError')));
+    },
+  });
+  return new Response(body, { status: 200, headers: { 'Content-Type': 'text/event-stream' } });
+}
+
+/** Mounts a bare component whose setup calls `listen`, so a composable's lifecycle hooks run. */
+export function mountListener(listen: () => void) {
+  const Listener = defineComponent({
+    setup() {
+      listen();
+      return () => h('div');
+    },
+  });
+  return mount(Listener);
 }

@@ -1,32 +1,11 @@
-import { jsonResponse } from './helpers';
+import { eventStream, jsonResponse, mountListener as mountWith } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import fc from 'fast-check';
-import { flushPromises, mount } from '@vue/test-utils';
-import { defineComponent, h } from 'vue';
+import { flushPromises } from '@vue/test-utils';
 import { TOKEN_KEY } from '@/api/session-token';
 import { EventStreamParser, usePlanningEvents } from '@/composables/usePlanningEvents';
 
-/** A streamed 200 response whose body yields the given chunks, then stays open until aborted. */
-function eventStream(chunks: string[], signal?: AbortSignal | null): Response {
-  const encoder = new TextEncoder();
-  const body = new ReadableStream<Uint8Array>({
-    start(controller) {
-      for (const chunk of chunks) controller.enqueue(encoder.encode(chunk));
-      signal?.addEventListener('abort', () => controller.error(new DOMException('aborted', 'AbortError')));
-    },
-  });
-  return new Response(body, { status: 200, headers: { 'Content-Type': 'text/event-stream' } });
-}
-
-function mountListener(onChange: (version: number) => void) {
-  const Listener = defineComponent({
-    setup() {
-      usePlanningEvents(onChange);
-      return () => h('div');
-    },
-  });
-  return mount(Listener);
-}
+const mountListener = (onChange: (version: number) => void) => mountWith(() => usePlanningEvents(onChange));
 
 describe('EventStreamParser', () => {
   // WHATWG HTML Living Standard, 9.2 "Server-sent events", examples in "Parsing an event
