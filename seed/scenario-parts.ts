@@ -71,7 +71,6 @@ export interface BoughtEntry {
   hazardous?: boolean;
 }
 
-const FRAMES = ['FRM-20W', 'FRM-26W', 'FRM-32R', 'FRM-40R'];
 const DECKS = ['DCK-20', 'DCK-26', 'DCK-32', 'DCK-40'];
 const SQUEEGEES = ['SQA-20', 'SQA-26', 'SQA-32', 'SQA-40'];
 

@@ -3,10 +3,6 @@ import jwt from 'jsonwebtoken';
 const ALGORITHM = 'HS256';
 const ISSUER = 'cardloop';
 
-export interface TokenClaims {
-  sub: string;
-}
-
 /** Signs a session token for a user id; the algorithm is pinned so a token cannot choose its own. */
 export function signSessionToken(userId: number, secret: string, ttl: string): string {
   return jwt.sign({}, secret, {

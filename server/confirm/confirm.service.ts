@@ -1,5 +1,5 @@
 import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
-import { answerDiffers } from '../../shared/domain/release-rules';
+import { answerDiffers, answerStatus } from '../../shared/domain/release-rules';
 import type { ConfirmAnswer, Confirmation, ConfirmResult } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
 import { AppError, ConflictError, GoneError, NotFoundError } from '../errors';
@@ -103,7 +103,7 @@ export class ConfirmService {
         changes.push({ partNumber: line.partNumber, qty: line.qty, needDate: line.needDate, confirmedQty: reply.confirmedQty, shipDate: reply.shipDate, differs });
         await manager.update(ReleaseLineEntity, { id: line.id }, { confirmedQty: reply.confirmedQty, shipDate: reply.shipDate });
       }
-      const status = changedLines > 0 ? 'exception' : 'confirmed';
+      const status = answerStatus(answer.lines.map((reply) => ({ requested: lineById.get(reply.id)!, answer: reply })));
       await manager.update(
         ReleaseEntity,
         { id: release.id },

@@ -6,8 +6,8 @@ import { roundQty } from './quantity';
 import type { PartPlan, PastDueRelease, PlanBucket, PlanInput, PlanResult } from './types';
 
 export { BomCycleError } from './bom';
-export { PlanInputError, MAX_PLAN_CALENDAR_DAYS } from './plan-model';
-export { grossDemandByDay, weeklyTotals, type DemandReport, type DemandRow } from './plan-demand';
+export { PlanInputError } from './plan-model';
+export { grossDemandByDay, weeklyTotals } from './plan-demand';
 
 /*
  * Conventions of the engine (one bucket = one working day of the plant calendar):

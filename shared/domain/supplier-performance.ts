@@ -138,11 +138,6 @@ export function usableByNeedDate(line: Pick<PerformanceLine, 'needDate' | 'recei
   return line.receipts.reduce((sum, receipt) => (receipt.usable && receipt.receivedOn <= line.needDate ? sum + receipt.qty : sum), 0);
 }
 
-/** True when the usable quantity received by the need date reaches the ordered quantity. */
-export function isOnTime(line: Pick<PerformanceLine, 'needDate' | 'orderedQty' | 'receipts'>): boolean {
-  return usableByNeedDate(line) >= line.orderedQty;
-}
-
 /** Hours from sending a release to the supplier's answer; null when either instant is missing. */
 export function confirmationHours(release: Pick<PerformanceRelease, 'sentAt' | 'confirmedAt'>): number | null {
   if (!release.sentAt || !release.confirmedAt) return null;

@@ -62,7 +62,6 @@ export const dockAttachmentParamsSchema = z.object({ id: z.coerce.number().int()
 
 /** Body of PATCH /api/dock/items/:id. */
 export const moveDockItemRequestSchema = z.object({ column: dockColumnSchema });
-export type MoveDockItemRequest = z.infer<typeof moveDockItemRequestSchema>;
 
 /** Packing slips: photos and PDFs only, recognised by their first bytes. */
 export const ATTACHMENT_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;

@@ -10,4 +10,3 @@ export const errorBodySchema = z
     }),
   })
   .meta({ id: 'ErrorBody' });
-export type ErrorBody = z.infer<typeof errorBodySchema>;

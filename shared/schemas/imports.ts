@@ -164,7 +164,6 @@ export const supplierRowSchema = z.object({
   deliveries_per_cycle: optionalCell(numberIn(supplier.deliveriesPerCycle)),
   delivery_delay: optionalCell(numberIn(supplier.deliveryDelay)),
 });
-export type SupplierRow = z.output<typeof supplierRowSchema>;
 
 export const partRowSchema = z.object({
   part_number: requiredCell(text(part.partNumber)),
@@ -180,7 +179,6 @@ export const partRowSchema = z.object({
   point_of_use: optionalCell(text(part.pointOfUse)),
   hazardous: optionalCell(flag),
 });
-export type PartRow = z.output<typeof partRowSchema>;
 
 export const bomRowSchema = z.object({
   parent: requiredCell(text(bomLine.parent)),
@@ -190,7 +188,6 @@ export const bomRowSchema = z.object({
   effective_from: optionalCell(isoDate),
   effective_to: optionalCell(isoDate),
 });
-export type BomRow = z.output<typeof bomRowSchema>;
 
 export const scheduleRowSchema = z.object({
   date: requiredCell(isoDate),
@@ -199,22 +196,11 @@ export const scheduleRowSchema = z.object({
   serial: requiredCell(text(sequenceEntry.serial)),
   qty: optionalCell(numberIn(sequenceEntry.qty)),
 });
-export type ScheduleRow = z.output<typeof scheduleRowSchema>;
 
 export const onHandRowSchema = z.object({
   part_number: requiredCell(text(part.partNumber)),
   on_hand: requiredCell(numberIn(part.onHand)),
 });
-export type OnHandRow = z.output<typeof onHandRowSchema>;
-
-/** The row schema of each kind, keyed like IMPORT_LAYOUTS. */
-export const IMPORT_ROW_SCHEMAS = {
-  suppliers: supplierRowSchema,
-  parts: partRowSchema,
-  bom: bomRowSchema,
-  schedule: scheduleRowSchema,
-  'on-hand': onHandRowSchema,
-} as const;
 
 /** CSV column of a camelCase domain field (`leadTimeDays` → `lead_time_days`). */
 export function columnOfField(field: string): string {

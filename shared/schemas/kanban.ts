@@ -56,6 +56,5 @@ export const kanbanSizeResponseSchema = z.object({
   formula: z.string().meta({ description: 'The sizing formula with the numbers filled in.' }),
 });
 
-export type DeliveryCycleBody = z.infer<typeof deliveryCycleSchema>;
 export type KanbanSizeRequest = z.infer<typeof kanbanSizeRequestSchema>;
 export type KanbanSizeResponse = z.infer<typeof kanbanSizeResponseSchema>;

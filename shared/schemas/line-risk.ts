@@ -6,7 +6,6 @@ export const lineRiskQuerySchema = z.object({
   from: isoDateSchema.optional(),
   to: isoDateSchema.optional(),
 });
-export type LineRiskQuery = z.infer<typeof lineRiskQuerySchema>;
 
 /** One slot of the build sequence, named as on the line. */
 export const unitRefSchema = z.object({
@@ -15,13 +14,11 @@ export const unitRefSchema = z.object({
   serial: z.string(),
   model: z.string(),
 });
-export type UnitRefDto = z.infer<typeof unitRefSchema>;
 
 export const slotAtRiskSchema = unitRefSchema.extend({
   /** Quantity of the part this unit lacks. */
   lackQty: z.number(),
 });
-export type SlotAtRiskDto = z.infer<typeof slotAtRiskSchema>;
 
 /** Move `candidate` into `slot`: every part the candidate needs is free at that moment. */
 export const resequenceOptionSchema = z.object({

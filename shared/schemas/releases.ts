@@ -47,7 +47,6 @@ export const releaseSchema = z.object({
 export type Release = z.infer<typeof releaseSchema>;
 
 export const runReleasesRequestSchema = z.object({ date: isoDateSchema });
-export type RunReleasesRequest = z.infer<typeof runReleasesRequestSchema>;
 
 export const runReleasesResponseSchema = z.object({
   date: z.string(),
@@ -71,7 +70,6 @@ export const releaseNumberParamsSchema = z.object({ number: z.string().trim().mi
 export const jobTimeSchema = z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'a time as HH:MM, 00:00 to 23:59');
 
 export const releaseJobSettingsRequestSchema = z.object({ jobTime: jobTimeSchema });
-export type ReleaseJobSettingsRequest = z.infer<typeof releaseJobSettingsRequestSchema>;
 
 export const releaseJobSettingsSchema = z.object({
   jobTime: jobTimeSchema,

@@ -4,7 +4,6 @@ import type {
   CardLabel,
   CardScanRequest,
   CardScanResponse,
-  KanbanCardDetail,
   KanbanCardWithScans,
   KanbanLoop,
   UpdateKanbanLoopRequest,
@@ -63,7 +62,3 @@ export function scanCard(scan: CardScanRequest): Promise<CardScanResponse> {
   return http.post<CardScanResponse>('/kanban/scans', scan);
 }
 
-/** One card by its number, with its whole scan log. */
-export function getCard(cardNumber: string): Promise<KanbanCardDetail> {
-  return http.get<KanbanCardDetail>(`/kanban/cards/${encodeURIComponent(cardNumber)}`);
-}

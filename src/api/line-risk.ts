@@ -1,4 +1,4 @@
-import type { LineRiskReport, ShortageDto } from '@shared/schemas/line-risk';
+import type { LineRiskReport } from '@shared/schemas/line-risk';
 import { http } from './http';
 
 /** The dates a line-risk view covers, ISO `YYYY-MM-DD`, both inclusive. */
@@ -12,7 +12,3 @@ export function getLineRisk(range: LineRiskRange, signal?: AbortSignal): Promise
   return http.get<LineRiskReport>('/line-risk', { query: { ...range }, signal });
 }
 
-/** The published shortage list (GET /api/shortages) over the horizon. */
-export function getShortages(range: LineRiskRange, signal?: AbortSignal): Promise<ShortageDto[]> {
-  return http.get<ShortageDto[]>('/shortages', { query: { ...range }, signal });
-}

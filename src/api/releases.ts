@@ -11,11 +11,6 @@ export function listReleases(query: ReleasesQuery = {}, signal?: AbortSignal): P
   return http.get<Release[]>('/releases', { query: { ...query }, signal });
 }
 
-/** One release with its lines. */
-export function getRelease(number: string): Promise<Release> {
-  return http.get<Release>(`/releases/${encodeURIComponent(number)}`);
-}
-
 /** Builds and sends the releases of a date; a date already released gets nothing new. */
 export function runReleases(date: string): Promise<RunReleasesResponse> {
   return http.post<RunReleasesResponse>('/releases/run', { date });

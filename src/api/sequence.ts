@@ -18,11 +18,6 @@ export function fetchBoard(range: { from?: string; days?: number } = {}): Promis
   return http.get<SequenceBoard>('/sequence', { query: { from: range.from, days: range.days } });
 }
 
-/** Frozen window (working days from today) and daily capacity. */
-export function fetchSettings(): Promise<SequenceSettings> {
-  return http.get<SequenceSettings>('/sequence/settings');
-}
-
 /** Sets the frozen window and capacity (admin, planner); out-of-range values reject with a 400 carrying zod issues. */
 export function saveSettings(settings: SequenceSettings): Promise<SequenceSettings> {
   return http.put<SequenceSettings>('/sequence/settings', settings);
