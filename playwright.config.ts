@@ -20,7 +20,7 @@ export default defineConfig({
   },
   webServer: {
     // A fresh demo database for every run, on a port of its own.
-    command: 'node -e "require(\'fs\').rmSync(\'.tmp/e2e\',{recursive:true,force:true})" && tsx server/index.ts',
+    command: "node -e \"require('fs').rmSync('.tmp/e2e',{recursive:true,force:true})\" && tsx server/index.ts",
     url: `http://localhost:${port}/api/health`,
     timeout: 180_000,
     reuseExistingServer: false,

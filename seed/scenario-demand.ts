@@ -2,14 +2,21 @@ import type { IsoDate } from '../shared/domain/types';
 import type { DemoBomLine, DemoSequenceSlot } from './scenario-types';
 
 function isEffectiveOn(line: DemoBomLine, date: IsoDate): boolean {
-  return (line.effectiveFrom === null || line.effectiveFrom <= date) && (line.effectiveTo === null || date <= line.effectiveTo);
+  return (
+    (line.effectiveFrom === null || line.effectiveFrom <= date) &&
+    (line.effectiveTo === null || date <= line.effectiveTo)
+  );
 }
 
 /**
  * Gross demand of every part per build day, exploded through all BOM levels at the build date
  * with scrap and without lead-time offsets: enough to size the demo's opening stock, not a plan.
  */
-export function dailyGrossDemand(bom: DemoBomLine[], sequence: DemoSequenceSlot[], days: IsoDate[]): Map<string, number[]> {
+export function dailyGrossDemand(
+  bom: DemoBomLine[],
+  sequence: DemoSequenceSlot[],
+  days: IsoDate[],
+): Map<string, number[]> {
   const linesByParent = new Map<string, DemoBomLine[]>();
   for (const line of bom) {
     const lines = linesByParent.get(line.parent) ?? [];

@@ -34,7 +34,11 @@ function roundQty(qty: number): number {
 
 /** On-hand covering the part's first `coverDays` days of need, rounded up to whole packs. */
 export function coveringStock(perDay: number[], coverDays: number, packQty: number): number {
-  const need = roundQty(activeDemand(perDay).slice(0, coverDays).reduce((sum, qty) => sum + qty, 0));
+  const need = roundQty(
+    activeDemand(perDay)
+      .slice(0, coverDays)
+      .reduce((sum, qty) => sum + qty, 0),
+  );
   return Math.ceil(need / packQty) * packQty;
 }
 
@@ -47,5 +51,11 @@ export function shortStock(perDay: number[], coverDays: number): number {
 
 /** On-hand of a made part: what its own lead time consumes, so its first orders are not past due. */
 export function madeStock(perDay: number[], leadTimeDays: number): number {
-  return Math.ceil(roundQty(activeDemand(perDay).slice(0, leadTimeDays).reduce((sum, qty) => sum + qty, 0)));
+  return Math.ceil(
+    roundQty(
+      activeDemand(perDay)
+        .slice(0, leadTimeDays)
+        .reduce((sum, qty) => sum + qty, 0),
+    ),
+  );
 }

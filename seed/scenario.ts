@@ -100,9 +100,10 @@ function demoParts(demand: Map<string, number[]>, supplierLeadTimes: Map<string,
   }));
   const bought = BOUGHT.map((entry): DemoPart => {
     const shortDays = SHORT_COVER_DAYS[entry.partNumber];
-    const onHand = shortDays === undefined
-      ? coveringStock(perDay(entry.partNumber), normalCoverDays(entry.partNumber), entry.packQty)
-      : shortStock(perDay(entry.partNumber), shortDays);
+    const onHand =
+      shortDays === undefined
+        ? coveringStock(perDay(entry.partNumber), normalCoverDays(entry.partNumber), entry.packQty)
+        : shortStock(perDay(entry.partNumber), shortDays);
     return {
       partNumber: entry.partNumber,
       description: entry.description,

@@ -4,7 +4,12 @@ import { hashPassword } from '../server/auth/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/kanban/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
-import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../server/master-data/master-data.writer';
+import {
+  replaceBomLines,
+  upsertParts,
+  upsertSequenceEntries,
+  upsertSuppliers,
+} from '../server/master-data/master-data.writer';
 import { UserEntity } from '../server/users/user.entity';
 import { buildDemoScenario } from './scenario';
 

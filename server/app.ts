@@ -95,7 +95,12 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   api.use(createEventsRouter(dataSource, registry));
   api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
   api.use(createLineRiskRouter(dataSource, registry));
-  api.use(createReleasesRouter(new ReleasesService(dataSource, planning, { appUrl: options.appUrl ?? 'http://localhost:3000' }), registry));
+  api.use(
+    createReleasesRouter(
+      new ReleasesService(dataSource, planning, { appUrl: options.appUrl ?? 'http://localhost:3000' }),
+      registry,
+    ),
+  );
   api.use(createConfirmRouter(dataSource, registry));
   api.use(createReceiptsRouter(dataSource, registry));
   api.use(createDockRouter(dataSource, registry, options.attachmentsDir));

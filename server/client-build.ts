@@ -17,7 +17,10 @@ export async function ensureClientBuilt(root: string): Promise<string> {
   const builtIndex = join(clientDir, 'index.html');
   const sourcesChanged =
     existsSync(builtIndex) &&
-    SOURCES.some((source) => existsSync(join(root, source)) && newestModification(join(root, source)) > statSync(builtIndex).mtimeMs);
+    SOURCES.some(
+      (source) =>
+        existsSync(join(root, source)) && newestModification(join(root, source)) > statSync(builtIndex).mtimeMs,
+    );
   if (!existsSync(builtIndex) || sourcesChanged) {
     console.log(existsSync(builtIndex) ? 'Client sources changed; rebuilding…' : 'Building the client (first start)…');
     const { build } = await import('vite');

@@ -5,7 +5,10 @@ const configSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   DATABASE_PATH: z.string().min(1).default('data/cardloop.sqlite'),
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters').optional(),
-  JWT_TTL: z.string().regex(/^\d+[smhd]$/, 'JWT_TTL like 8h or 30m').default('8h'),
+  JWT_TTL: z
+    .string()
+    .regex(/^\d+[smhd]$/, 'JWT_TTL like 8h or 30m')
+    .default('8h'),
   SMTP_URL: z.url().optional(),
   MAIL_FROM: z.string().default('Cardloop <cardloop@example.com>'),
   APP_URL: z.url().default('http://localhost:3000'),

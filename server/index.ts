@@ -37,9 +37,14 @@ async function main(): Promise<void> {
   }
 
   const dispatcher = new OutboxDispatcher(dataSource, smtpUrl, config.MAIL_FROM);
-  const releaseJob = new ReleaseJob(dataSource, new ReleasesService(dataSource, new PlanningService(dataSource), { appUrl: config.APP_URL }));
+  const releaseJob = new ReleaseJob(
+    dataSource,
+    new ReleasesService(dataSource, new PlanningService(dataSource), { appUrl: config.APP_URL }),
+  );
   const lineRisk = new LineRiskService(dataSource);
-  const jobs = startJobs(dispatcher, releaseJob, () => alertFrozenWindowShortages(dataSource, lineRisk, config.APP_URL));
+  const jobs = startJobs(dispatcher, releaseJob, () =>
+    alertFrozenWindowShortages(dataSource, lineRisk, config.APP_URL),
+  );
   const app = createApp(dataSource, {
     jwtSecret: config.jwtSecret,
     jwtTtl: config.JWT_TTL,
@@ -50,7 +55,9 @@ async function main(): Promise<void> {
   });
   const server = app.listen(config.PORT, () => {
     console.log(`Cardloop is running on http://localhost:${config.PORT}`);
-    console.log(`Database: ${config.DATABASE_PATH}; mail: ${fakeSmtp ? `embedded fake SMTP at ${fakeSmtp.url}` : 'SMTP_URL'}`);
+    console.log(
+      `Database: ${config.DATABASE_PATH}; mail: ${fakeSmtp ? `embedded fake SMTP at ${fakeSmtp.url}` : 'SMTP_URL'}`,
+    );
     if (config.jwtSecretGenerated) console.log('JWT_SECRET is not set: sessions end when the server restarts.');
     if (demoSignIns.length > 0) {
       console.log(`Demo sign-ins (password "${DEMO_PASSWORD}"):`);

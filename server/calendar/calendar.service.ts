@@ -20,7 +20,10 @@ export async function writeCalendar(manager: EntityManager, calendar: Calendar):
   await writeSetting(manager, WORKING_WEEKDAYS, workingWeekdays);
   await manager.clear(HolidayEntity);
   if (calendar.holidays.length > 0) {
-    await manager.insert(HolidayEntity, calendar.holidays.map((date) => ({ date, name: '' })));
+    await manager.insert(
+      HolidayEntity,
+      calendar.holidays.map((date) => ({ date, name: '' })),
+    );
   }
   await bumpPlanningVersion(manager);
   return readCalendar(manager);
@@ -37,7 +40,13 @@ export class CalendarService {
     return this.dataSource.transaction(async (manager) => {
       const before = await readCalendar(manager);
       const after = await writeCalendar(manager, calendar);
-      await recordAudit(manager, { actorEmail, action: 'update', entity: 'calendar', entityKey: 'plant', changes: { before, after } });
+      await recordAudit(manager, {
+        actorEmail,
+        action: 'update',
+        entity: 'calendar',
+        entityKey: 'plant',
+        changes: { before, after },
+      });
       return after;
     });
   }

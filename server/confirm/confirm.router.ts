@@ -2,7 +2,12 @@ import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import type { DataSource } from 'typeorm';
-import { confirmAnswerSchema, confirmationSchema, confirmResultSchema, confirmTokenParamsSchema } from '../../shared/schemas/releases';
+import {
+  confirmAnswerSchema,
+  confirmationSchema,
+  confirmResultSchema,
+  confirmTokenParamsSchema,
+} from '../../shared/schemas/releases';
 import { defineRoute } from '../http/route';
 import { ConfirmService } from './confirm.service';
 
@@ -24,7 +29,14 @@ export function createConfirmRouter(dataSource: DataSource, registry: OpenAPIReg
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       handler: (_req, res) => {
-        res.status(429).json({ error: { code: 'rate_limited', message: 'Too many requests from this address. Wait a minute and try again.' } });
+        res
+          .status(429)
+          .json({
+            error: {
+              code: 'rate_limited',
+              message: 'Too many requests from this address. Wait a minute and try again.',
+            },
+          });
       },
     }),
   );

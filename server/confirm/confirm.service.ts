@@ -35,7 +35,10 @@ export class ConfirmService {
   async view(token: string): Promise<Confirmation> {
     const manager = this.dataSource.manager;
     const { token: link, release } = await this.openLink(manager, token);
-    const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id }, order: { needDate: 'ASC', partNumber: 'ASC', id: 'ASC' } });
+    const lines = await manager.find(ReleaseLineEntity, {
+      where: { releaseId: release.id },
+      order: { needDate: 'ASC', partNumber: 'ASC', id: 'ASC' },
+    });
     const partNumbers = [...new Set(lines.map((line) => line.partNumber))];
     const parts = partNumbers.length ? await manager.find(PartEntity, { where: { partNumber: In(partNumbers) } }) : [];
     const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
@@ -78,8 +81,12 @@ export class ConfirmService {
       const foreign = answer.lines
         .map((line, index) => ({ line, index }))
         .filter(({ line }) => !lineById.has(line.id))
-        .map(({ line, index }) => ({ path: ['lines', index, 'id'], message: `line ${line.id} is not on release ${release.number}` }));
-      if (foreign.length > 0) throw invalidAnswer(`The answer names lines that are not on release ${release.number}.`, foreign);
+        .map(({ line, index }) => ({
+          path: ['lines', index, 'id'],
+          message: `line ${line.id} is not on release ${release.number}`,
+        }));
+      if (foreign.length > 0)
+        throw invalidAnswer(`The answer names lines that are not on release ${release.number}.`, foreign);
       const answered = new Set(answer.lines.map((line) => line.id));
       const missing = lines.filter((line) => !answered.has(line.id));
       if (missing.length > 0) {
@@ -100,8 +107,19 @@ export class ConfirmService {
         const line = lineById.get(reply.id)!;
         const differs = answerDiffers(line, reply);
         if (differs) changedLines += 1;
-        changes.push({ partNumber: line.partNumber, qty: line.qty, needDate: line.needDate, confirmedQty: reply.confirmedQty, shipDate: reply.shipDate, differs });
-        await manager.update(ReleaseLineEntity, { id: line.id }, { confirmedQty: reply.confirmedQty, shipDate: reply.shipDate });
+        changes.push({
+          partNumber: line.partNumber,
+          qty: line.qty,
+          needDate: line.needDate,
+          confirmedQty: reply.confirmedQty,
+          shipDate: reply.shipDate,
+          differs,
+        });
+        await manager.update(
+          ReleaseLineEntity,
+          { id: line.id },
+          { confirmedQty: reply.confirmedQty, shipDate: reply.shipDate },
+        );
       }
       const status = answerStatus(answer.lines.map((reply) => ({ requested: lineById.get(reply.id)!, answer: reply })));
       await manager.update(
@@ -120,7 +138,14 @@ export class ConfirmService {
         action: status === 'confirmed' ? 'confirm' : 'propose',
         entity: 'release',
         entityKey: release.number,
-        changes: { before: release.status, after: status, lines: changes, carrier: answer.carrier, trackingNumber: answer.trackingNumber, note: answer.note },
+        changes: {
+          before: release.status,
+          after: status,
+          lines: changes,
+          carrier: answer.carrier,
+          trackingNumber: answer.trackingNumber,
+          note: answer.note,
+        },
       });
       // Confirmed lines become firm receipts for the line risk.
       await releasesChanged(manager);
@@ -131,11 +156,15 @@ export class ConfirmService {
   private async openLink(manager: EntityManager, presented: string): Promise<OpenLink> {
     const token = await manager.findOneBy(ConfirmationTokenEntity, { tokenHash: hashConfirmationToken(presented) });
     const release = token ? await manager.findOneBy(ReleaseEntity, { id: token.releaseId }) : null;
-    if (!token || !release) throw new NotFoundError('This confirmation link is not known. Check that the whole link was copied.');
-    if (release.status === 'cancelled') throw new GoneError(`Release ${release.number} was cancelled by the buyer; there is nothing to confirm.`);
+    if (!token || !release)
+      throw new NotFoundError('This confirmation link is not known. Check that the whole link was copied.');
+    if (release.status === 'cancelled')
+      throw new GoneError(`Release ${release.number} was cancelled by the buyer; there is nothing to confirm.`);
     if (token.usedAt) throw new ConflictError('This link was already used.', [{ usedAt: token.usedAt }]);
     if (token.expiresAt <= new Date().toISOString()) {
-      throw new GoneError('This link has expired or was replaced by a newer one. Ask the buyer to send the release again.');
+      throw new GoneError(
+        'This link has expired or was replaced by a newer one. Ask the buyer to send the release again.',
+      );
     }
     if (!ANSWERABLE.includes(release.status)) {
       throw new ConflictError(`Release ${release.number} was already answered.`, [{ status: release.status }]);

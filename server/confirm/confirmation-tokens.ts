@@ -26,12 +26,25 @@ export async function issueConfirmationToken(
   await revokeConfirmationTokens(manager, releaseId, now);
   const token = randomBytes(TOKEN_BYTES).toString('base64url');
   const expiresAt = new Date(now.getTime() + CONFIRMATION_TOKEN_TTL_DAYS * DAY_MS).toISOString();
-  await manager.insert(ConfirmationTokenEntity, { releaseId, tokenHash: hashConfirmationToken(token), expiresAt, usedAt: null });
+  await manager.insert(ConfirmationTokenEntity, {
+    releaseId,
+    tokenHash: hashConfirmationToken(token),
+    expiresAt,
+    usedAt: null,
+  });
   return { token, expiresAt };
 }
 
 /** Ends every unused link of a release now (the release was cancelled or answered another way). */
-export async function revokeConfirmationTokens(manager: EntityManager, releaseId: number, now = new Date()): Promise<void> {
+export async function revokeConfirmationTokens(
+  manager: EntityManager,
+  releaseId: number,
+  now = new Date(),
+): Promise<void> {
   const at = now.toISOString();
-  await manager.update(ConfirmationTokenEntity, { releaseId, usedAt: IsNull(), expiresAt: MoreThan(at) }, { expiresAt: at });
+  await manager.update(
+    ConfirmationTokenEntity,
+    { releaseId, usedAt: IsNull(), expiresAt: MoreThan(at) },
+    { expiresAt: at },
+  );
 }

@@ -29,7 +29,9 @@ function inlineDisposition(fileName: string): string {
 /** Files live beside the database (`<its folder>/attachments`), or under data/ for an in-memory one. */
 function defaultAttachmentsDir(dataSource: DataSource): string {
   const database = dataSource.options.database;
-  return typeof database === 'string' && database !== ':memory:' ? join(dirname(database), 'attachments') : join('data', 'attachments');
+  return typeof database === 'string' && database !== ':memory:'
+    ? join(dirname(database), 'attachments')
+    : join('data', 'attachments');
 }
 
 /** The receiving board and its packing slips; `attachmentsDir` is where the files are kept. */
@@ -41,7 +43,8 @@ export function createDockRouter(dataSource: DataSource, registry: OpenAPIRegist
   defineRoute(router, registry, {
     method: 'get',
     path: '/dock',
-    summary: 'The receiving board: every sent, confirmed, exception, shipped or partly received release, and those received today',
+    summary:
+      'The receiving board: every sent, confirmed, exception, shipped or partly received release, and those received today',
     access: READ_ROLES,
     response: z.array(dockItemSchema),
     handler: () => dock.list(),
@@ -50,7 +53,8 @@ export function createDockRouter(dataSource: DataSource, registry: OpenAPIRegist
   defineRoute(router, registry, {
     method: 'patch',
     path: '/dock/items/:id',
-    summary: 'Move a release to another column of the board (expected, at_dock, counted, to_line); a fully received release at the line stays there (409)',
+    summary:
+      'Move a release to another column of the board (expected, at_dock, counted, to_line); a fully received release at the line stays there (409)',
     access: RECEIVING_ROLES,
     params: dockItemParamsSchema,
     body: moveDockItemRequestSchema,

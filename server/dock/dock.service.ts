@@ -67,7 +67,10 @@ export class DockService {
     );
     const receivedIds = receivedToday.map((row) => row.releaseId);
     const releases = await manager.find(ReleaseEntity, {
-      where: [{ status: In(OPEN_STATUSES) }, ...(receivedIds.length > 0 ? [{ status: 'received', id: In(receivedIds) }] : [])],
+      where: [
+        { status: In(OPEN_STATUSES) },
+        ...(receivedIds.length > 0 ? [{ status: 'received', id: In(receivedIds) }] : []),
+      ],
     });
     const items = await this.toItems(manager, releases, plantToday(now));
     return items.sort(
@@ -82,7 +85,8 @@ export class DockService {
   async item(releaseId: number, manager: EntityManager = this.dataSource.manager): Promise<DockItem> {
     const release = await manager.findOneBy(ReleaseEntity, { id: releaseId });
     if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
-    if (!isDockStatus(release.status)) throw new NotFoundError(`Release ${release.number} is ${release.status}; it is not on the dock.`);
+    if (!isDockStatus(release.status))
+      throw new NotFoundError(`Release ${release.number} is ${release.status}; it is not on the dock.`);
     const [item] = await this.toItems(manager, [release], plantToday(this.now()));
     return item;
   }
@@ -96,14 +100,17 @@ export class DockService {
       const release = await manager.findOneBy(ReleaseEntity, { id: releaseId });
       if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
       if (!isDockStatus(release.status)) {
-        throw new ConflictError(`Release ${release.number} is ${release.status}; only releases on their way in are on the dock.`);
+        throw new ConflictError(
+          `Release ${release.number} is ${release.status}; only releases on their way in are on the dock.`,
+        );
       }
       const from = release.dockColumn;
       if (from === column) return this.item(releaseId, manager);
       if (from === 'to_line' && release.status === 'received') {
-        throw new ConflictError(`Release ${release.number} is fully received and at the line; it cannot go back on the dock.`, [
-          { column: from, status: release.status },
-        ]);
+        throw new ConflictError(
+          `Release ${release.number} is fully received and at the line; it cannot go back on the dock.`,
+          [{ column: from, status: release.status }],
+        );
       }
       await manager.update(ReleaseEntity, { id: release.id }, { dockColumn: column });
       await recordAudit(manager, {

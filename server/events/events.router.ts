@@ -20,7 +20,8 @@ export function createEventsRouter(dataSource: DataSource, registry: OpenAPIRegi
   defineRoute(router, registry, {
     method: 'get',
     path: '/events',
-    summary: 'Server-sent events: `planning` with {version} whenever a planning input changes, `dock` with {version} whenever the receiving board changes',
+    summary:
+      'Server-sent events: `planning` with {version} whenever a planning input changes, `dock` with {version} whenever the receiving board changes',
     access: READ_ROLES,
     produces: ['text/event-stream'],
     handler: async ({ req, res }) => {

@@ -77,7 +77,12 @@ function describeRoute<B, Q, P>(spec: RouteSpec<B, Q, P>): RouteConfig {
   const successContent: Record<string, { schema: ZodType }> = {};
   if (spec.response) successContent['application/json'] = { schema: spec.response };
   for (const type of spec.produces ?? []) successContent[type] = { schema: z.string() };
-  const roles = spec.access === 'public' ? 'no sign-in' : spec.access === 'signed-in' ? 'any signed-in user' : spec.access.join(', ');
+  const roles =
+    spec.access === 'public'
+      ? 'no sign-in'
+      : spec.access === 'signed-in'
+        ? 'any signed-in user'
+        : spec.access.join(', ');
   return {
     method: spec.method,
     path: openApiPath,

@@ -27,9 +27,12 @@ function reportCycles(links: TracedLink[], problems: RowProblems): void {
     const cycle = findBomCycle(remaining);
     if (!cycle) return;
     const steps = new Set(cycle.slice(1).map((component, index) => `${cycle[index]}\u0000${component}`));
-    const closing = remaining.filter((link) => link.line !== undefined && steps.has(`${link.parent}\u0000${link.component}`));
+    const closing = remaining.filter(
+      (link) => link.line !== undefined && steps.has(`${link.parent}\u0000${link.component}`),
+    );
     if (closing.length === 0) return;
-    for (const link of closing) problems.add(link.line as number, 'component', `closes a BOM cycle: ${cycle.join(' → ')}`);
+    for (const link of closing)
+      problems.add(link.line as number, 'component', `closes a BOM cycle: ${cycle.join(' → ')}`);
     remaining = remaining.filter((link) => !closing.includes(link));
   }
 }
@@ -67,7 +70,10 @@ export function checkBomRows(
   for (const row of parsed) {
     const { parent, component } = row.values;
     let known = true;
-    for (const [column, partNumber] of [['parent', parent], ['component', component]] as const) {
+    for (const [column, partNumber] of [
+      ['parent', parent],
+      ['component', component],
+    ] as const) {
       if (partNumber !== undefined && !partNumbers.has(partNumber)) {
         problems.add(row.line, column, `unknown part '${partNumber}'`);
         known = false;
@@ -98,7 +104,13 @@ export function checkBomRows(
   reportOverlaps(fileLines, problems);
   const replacedParents = new Set(parsed.map((row) => row.values.parent).filter((parent) => parent !== undefined));
   const kept: TracedLink[] = existingLines.filter((link) => !replacedParents.has(link.parent));
-  reportCycles([...kept, ...fileLines.map(({ line, bomLine }) => ({ parent: bomLine.parent, component: bomLine.component, line }))], problems);
+  reportCycles(
+    [
+      ...kept,
+      ...fileLines.map(({ line, bomLine }) => ({ parent: bomLine.parent, component: bomLine.component, line })),
+    ],
+    problems,
+  );
 
   return { lines: fileLines.map((entry) => entry.bomLine), problems };
 }

@@ -39,7 +39,11 @@ function decodeUtf8(file: Buffer): string {
   } catch {
     // Point at the line of the first undecodable byte so the user can find a stray legacy character.
     const lenient = new TextDecoder('utf-8').decode(file);
-    return rejectFile(lineOfOffset(lenient, lenient.indexOf('\uFFFD')), FILE_COLUMN, 'the file is not UTF-8 text; save it as CSV UTF-8');
+    return rejectFile(
+      lineOfOffset(lenient, lenient.indexOf('\uFFFD')),
+      FILE_COLUMN,
+      'the file is not UTF-8 text; save it as CSV UTF-8',
+    );
   }
 }
 
@@ -55,7 +59,12 @@ function splitRows(text: string): RawRow[] {
       const cursor = result.meta.cursor;
       const broken = result.errors.length > 0 ? result.errors[0].message : null;
       rows.push({ line, cells: result.data.map((cell) => cell.trim()), broken });
-      for (let index = text.indexOf('\n', consumed); index !== -1 && index < cursor; index = text.indexOf('\n', index + 1)) line += 1;
+      for (
+        let index = text.indexOf('\n', consumed);
+        index !== -1 && index < cursor;
+        index = text.indexOf('\n', index + 1)
+      )
+        line += 1;
       consumed = cursor;
     },
   });
@@ -70,16 +79,22 @@ function readHeader(row: RawRow, layout: ImportLayout): string[] {
   for (const name of row.cells) {
     if (name === '') continue;
     if (!layout.columns.includes(name)) {
-      problems.push({ row: row.line, column: name, message: `unknown column '${name}'; the columns are ${layout.columns.join(', ')}` });
+      problems.push({
+        row: row.line,
+        column: name,
+        message: `unknown column '${name}'; the columns are ${layout.columns.join(', ')}`,
+      });
     } else if (seen.has(name)) {
       problems.push({ row: row.line, column: name, message: `column '${name}' appears twice in the header` });
     }
     seen.add(name);
   }
   for (const name of layout.required) {
-    if (!seen.has(name)) problems.push({ row: row.line, column: name, message: `required column '${name}' is missing from the header` });
+    if (!seen.has(name))
+      problems.push({ row: row.line, column: name, message: `required column '${name}' is missing from the header` });
   }
-  if (problems.length > 0) throw new ImportError('The header row does not match the format; nothing was imported.', problems);
+  if (problems.length > 0)
+    throw new ImportError('The header row does not match the format; nothing was imported.', problems);
   return row.cells;
 }
 
@@ -89,9 +104,12 @@ function readHeader(row: RawRow, layout: ImportLayout): string[] {
  * ImportError at once; row-level reading problems are returned with the table.
  */
 export function readCsvTable(file: Buffer, layout: ImportLayout): CsvTable {
-  const text = decodeUtf8(file).replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
+  const text = decodeUtf8(file)
+    .replace(/^\uFEFF/, '')
+    .replace(/\r\n?/g, '\n');
   const rows = splitRows(text).filter((row) => !isBlank(row));
-  if (rows.length === 0) rejectFile(1, FILE_COLUMN, `the file is empty; the first line must be the header: ${layout.columns.join(',')}`);
+  if (rows.length === 0)
+    rejectFile(1, FILE_COLUMN, `the file is empty; the first line must be the header: ${layout.columns.join(',')}`);
 
   const [headerRow, ...dataRows] = rows;
   const header = readHeader(headerRow, layout);
@@ -113,7 +131,11 @@ export function readCsvTable(file: Buffer, layout: ImportLayout): CsvTable {
     // A short row (trailing cells left off) reads as empty cells; a value outside any column is an error.
     for (const name of columns) cells[name] ??= '';
     if (strayCells > 0) {
-      problems.push({ row: row.line, column: FILE_COLUMN, message: `${strayCells} cell(s) lie outside the ${columns.length} columns of the header` });
+      problems.push({
+        row: row.line,
+        column: FILE_COLUMN,
+        message: `${strayCells} cell(s) lie outside the ${columns.length} columns of the header`,
+      });
     }
     records.push({ line: row.line, cells });
   }

@@ -52,7 +52,12 @@ export interface ParsedRow<T> {
  * Parses each cell of each record with its column's schema, reporting every bad cell; cells are
  * parsed one by one rather than as an object so one bad number does not hide the rest of the row.
  */
-export function parseRows<S extends z.ZodObject>(records: CsvRecord[], columns: string[], schema: S, problems: RowProblems): ParsedRow<z.output<S>>[] {
+export function parseRows<S extends z.ZodObject>(
+  records: CsvRecord[],
+  columns: string[],
+  schema: S,
+  problems: RowProblems,
+): ParsedRow<z.output<S>>[] {
   const present = new Set(columns);
   const shape = schema.shape as Record<string, z.ZodType>;
   return records.map((record) => {
@@ -80,7 +85,13 @@ export function isComplete<T>(row: ParsedRow<T>): row is ParsedRow<T> & { values
  * Value of one field of an upserted record: the cell when filled; the existing record's value when
  * the column is absent from the header; otherwise the default for an empty cell.
  */
-export function cellOrKept<T>(row: ParsedRow<unknown>, column: string, cell: T | undefined, kept: T | undefined, fallback: T): T {
+export function cellOrKept<T>(
+  row: ParsedRow<unknown>,
+  column: string,
+  cell: T | undefined,
+  kept: T | undefined,
+  fallback: T,
+): T {
   if (cell !== undefined) return cell;
   if (!row.present.has(column) && kept !== undefined) return kept;
   return fallback;

@@ -4,7 +4,13 @@ import { fileURLToPath } from 'node:url';
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
-import { IMPORT_LAYOUTS, IMPORT_MAX_BYTES, importKindSchema, importResultSchema, type ImportKind } from '../../shared/schemas/imports';
+import {
+  IMPORT_LAYOUTS,
+  IMPORT_MAX_BYTES,
+  importKindSchema,
+  importResultSchema,
+  type ImportKind,
+} from '../../shared/schemas/imports';
 import type { Role } from '../../shared/schemas/user';
 import { defineRoute } from '../http/route';
 import { MASTER_DATA_ROLES, READ_ROLES, SEQUENCE_ROLES } from '../http/roles';
@@ -31,7 +37,11 @@ const NOTES: Record<ImportKind, string> = {
 };
 
 /** CSV import routes and their templates; `service` may be replaced, e.g. to pin today's date. */
-export function createImportsRouter(dataSource: DataSource, registry: OpenAPIRegistry, service = new ImportsService(dataSource)): Router {
+export function createImportsRouter(
+  dataSource: DataSource,
+  registry: OpenAPIRegistry,
+  service = new ImportsService(dataSource),
+): Router {
   const router = Router();
 
   for (const kind of importKindSchema.options) {

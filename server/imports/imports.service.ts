@@ -6,7 +6,13 @@ import { recordAudit } from '../audit/audit.service';
 import { BomLineEntity } from '../bom/bom-line.entity';
 import { readCalendar } from '../calendar/calendar.service';
 import { ImportError } from '../errors';
-import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../master-data/master-data.writer';
+import {
+  replaceBomLines,
+  setOnHand,
+  upsertParts,
+  upsertSequenceEntries,
+  upsertSuppliers,
+} from '../master-data/master-data.writer';
 import { PartEntity } from '../parts/part.entity';
 import { plantToday } from '../planning/plan-dates';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
@@ -24,7 +30,10 @@ type Importer = (manager: EntityManager, table: CsvTable, today: IsoDate) => Pro
 function rejectOnProblems(problems: RowProblems): void {
   if (problems.count === 0) return;
   const rows = problems.rowCount();
-  throw new ImportError(`${rows} ${rows === 1 ? 'row has' : 'rows have'} problems; nothing was imported.`, problems.sorted());
+  throw new ImportError(
+    `${rows} ${rows === 1 ? 'row has' : 'rows have'} problems; nothing was imported.`,
+    problems.sorted(),
+  );
 }
 
 async function suppliersByCode(manager: EntityManager): Promise<Map<string, Supplier>> {

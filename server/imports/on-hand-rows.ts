@@ -8,7 +8,10 @@ export interface OnHandCount {
 }
 
 /** Checks a stock-count file: every part must exist and be counted once. */
-export function checkOnHandRows(table: CsvTable, partNumbers: ReadonlySet<string>): { counts: OnHandCount[]; problems: RowProblems } {
+export function checkOnHandRows(
+  table: CsvTable,
+  partNumbers: ReadonlySet<string>,
+): { counts: OnHandCount[]; problems: RowProblems } {
   const problems = new RowProblems(table.problems);
   const counted = new KeyRegister(problems, 'part_number', (partNumber) => `part '${partNumber}'`);
   const counts: OnHandCount[] = [];

@@ -28,7 +28,13 @@ export function checkPartRows(
     const cells = row.values;
     const kept = existing.get(cells.part_number);
     const source = cells.source;
-    const supplier = cellOrKept<string | null>(row, 'supplier_code', cells.supplier_code, kept?.supplierCode, DEFAULTS.supplier_code);
+    const supplier = cellOrKept<string | null>(
+      row,
+      'supplier_code',
+      cells.supplier_code,
+      kept?.supplierCode,
+      DEFAULTS.supplier_code,
+    );
     // An empty lead time on a bought part means "the supplier's quoted lead time".
     const supplierLeadTime = source === 'buy' && supplier ? (suppliers.get(supplier)?.leadTimeDays ?? 0) : 0;
     const record: Part = {
@@ -41,9 +47,21 @@ export function checkPartRows(
       packQty: cellOrKept(row, 'pack_qty', cells.pack_qty, kept?.packQty, DEFAULTS.pack_qty),
       // Stock is counted, not master data: an empty cell keeps an existing part's count.
       onHand: cells.on_hand ?? kept?.onHand ?? 0,
-      replenishment: cellOrKept<Part['replenishment']>(row, 'replenishment', cells.replenishment, kept?.replenishment, DEFAULTS.replenishment),
+      replenishment: cellOrKept<Part['replenishment']>(
+        row,
+        'replenishment',
+        cells.replenishment,
+        kept?.replenishment,
+        DEFAULTS.replenishment,
+      ),
       safetyStock: cellOrKept(row, 'safety_stock', cells.safety_stock, kept?.safetyStock, DEFAULTS.safety_stock),
-      pointOfUse: cellOrKept<string | null>(row, 'point_of_use', cells.point_of_use, kept?.pointOfUse, DEFAULTS.point_of_use),
+      pointOfUse: cellOrKept<string | null>(
+        row,
+        'point_of_use',
+        cells.point_of_use,
+        kept?.pointOfUse,
+        DEFAULTS.point_of_use,
+      ),
       hazardous: cellOrKept<boolean>(row, 'hazardous', cells.hazardous, kept?.hazardous, DEFAULTS.hazardous),
     };
     const checked = partSchema.safeParse(record);

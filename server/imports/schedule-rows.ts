@@ -27,9 +27,16 @@ function shiftYears(date: IsoDate, years: number): IsoDate {
   return fromDayNumber(Date.UTC(year + years, month - 1, day) / 86_400_000);
 }
 
-function dateProblem(date: IsoDate, context: ScheduleContext, working: WorkingCalendar, holidays: ReadonlySet<string>): string | null {
-  if (date < shiftYears(context.today, -SCHEDULE_YEARS_BACK)) return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
-  if (date > shiftYears(context.today, SCHEDULE_YEARS_AHEAD)) return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
+function dateProblem(
+  date: IsoDate,
+  context: ScheduleContext,
+  working: WorkingCalendar,
+  holidays: ReadonlySet<string>,
+): string | null {
+  if (date < shiftYears(context.today, -SCHEDULE_YEARS_BACK))
+    return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
+  if (date > shiftYears(context.today, SCHEDULE_YEARS_AHEAD))
+    return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
   if (working.isWorking(toDayNumber(date))) return null;
   return holidays.has(date)
     ? `${date} is a plant holiday`
@@ -47,7 +54,10 @@ function modelProblem(model: string, parts: ScheduleContext['parts']): string | 
  * end items, serials appear once, and no date and position is used twice once the upload is in
  * (units named by serial move; every other unit keeps its slot).
  */
-export function checkScheduleRows(table: CsvTable, context: ScheduleContext): { entries: SequenceEntry[]; problems: RowProblems } {
+export function checkScheduleRows(
+  table: CsvTable,
+  context: ScheduleContext,
+): { entries: SequenceEntry[]; problems: RowProblems } {
   const problems = new RowProblems(table.problems);
   const working = new WorkingCalendar(context.calendar);
   const holidays = new Set(context.calendar.holidays);
@@ -82,7 +92,13 @@ export function checkScheduleRows(table: CsvTable, context: ScheduleContext): { 
     }
     if (!sound || !isComplete(row)) continue;
     const cells = row.values;
-    const record: SequenceEntry = { date: cells.date, sequence: cells.sequence, model: cells.model, serial: cells.serial, qty: cells.qty ?? DEFAULTS.qty };
+    const record: SequenceEntry = {
+      date: cells.date,
+      sequence: cells.sequence,
+      model: cells.model,
+      serial: cells.serial,
+      qty: cells.qty ?? DEFAULTS.qty,
+    };
     const checked = sequenceEntrySchema.safeParse(record);
     if (checked.success) entries.push(checked.data);
     else problems.addDomainIssues(row.line, checked.error.issues, record);

@@ -6,7 +6,10 @@ import { cellOrKept, isComplete, KeyRegister, parseRows, RowProblems } from './i
 const DEFAULTS = IMPORT_DEFAULTS.suppliers;
 
 /** Checks a suppliers file against the suppliers on file; returns the records to upsert by code. */
-export function checkSupplierRows(table: CsvTable, existing: ReadonlyMap<string, Supplier>): { suppliers: Supplier[]; problems: RowProblems } {
+export function checkSupplierRows(
+  table: CsvTable,
+  existing: ReadonlyMap<string, Supplier>,
+): { suppliers: Supplier[]; problems: RowProblems } {
   const problems = new RowProblems(table.problems);
   const codes = new KeyRegister(problems, 'code', (code) => `supplier '${code}'`);
   const suppliers: Supplier[] = [];
@@ -22,8 +25,20 @@ export function checkSupplierRows(table: CsvTable, existing: ReadonlyMap<string,
       email: cells.email,
       leadTimeDays: cells.lead_time_days,
       cycleDays: cellOrKept(row, 'cycle_days', cells.cycle_days, kept?.cycleDays, DEFAULTS.cycle_days),
-      deliveriesPerCycle: cellOrKept(row, 'deliveries_per_cycle', cells.deliveries_per_cycle, kept?.deliveriesPerCycle, DEFAULTS.deliveries_per_cycle),
-      deliveryDelay: cellOrKept(row, 'delivery_delay', cells.delivery_delay, kept?.deliveryDelay, DEFAULTS.delivery_delay),
+      deliveriesPerCycle: cellOrKept(
+        row,
+        'deliveries_per_cycle',
+        cells.deliveries_per_cycle,
+        kept?.deliveriesPerCycle,
+        DEFAULTS.deliveries_per_cycle,
+      ),
+      deliveryDelay: cellOrKept(
+        row,
+        'delivery_delay',
+        cells.delivery_delay,
+        kept?.deliveryDelay,
+        DEFAULTS.delivery_delay,
+      ),
     };
     const checked = supplierSchema.safeParse(record);
     if (checked.success) suppliers.push(checked.data);

@@ -6,13 +6,19 @@ import { BadRequestError, PayloadTooLargeError } from '../errors';
 /** Multipart field that carries the CSV file. */
 export const FILE_FIELD = 'file';
 
-const receive = multer({ storage: multer.memoryStorage(), limits: { fileSize: IMPORT_MAX_BYTES, files: 1 } }).single(FILE_FIELD);
+const receive = multer({ storage: multer.memoryStorage(), limits: { fileSize: IMPORT_MAX_BYTES, files: 1 } }).single(
+  FILE_FIELD,
+);
 
 function translate(error: unknown): Error {
-  if (!(error instanceof MulterError)) return error instanceof Error ? error : new BadRequestError('The upload could not be read.');
-  if (error.code === 'LIMIT_FILE_SIZE') return new PayloadTooLargeError(`The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB.`);
+  if (!(error instanceof MulterError))
+    return error instanceof Error ? error : new BadRequestError('The upload could not be read.');
+  if (error.code === 'LIMIT_FILE_SIZE')
+    return new PayloadTooLargeError(`The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB.`);
   if (error.code === 'LIMIT_UNEXPECTED_FILE') {
-    return new BadRequestError(`Send the CSV in the multipart field '${FILE_FIELD}' (got '${error.field ?? ''}'), one file only.`);
+    return new BadRequestError(
+      `Send the CSV in the multipart field '${FILE_FIELD}' (got '${error.field ?? ''}'), one file only.`,
+    );
   }
   return new BadRequestError(`The upload could not be read: ${error.message}.`);
 }
@@ -25,7 +31,8 @@ export function receiveCsvFile(req: Request, res: Response): Promise<{ buffer: B
   return new Promise((resolve, reject) => {
     receive(req, res, (error?: unknown) => {
       if (error) return reject(translate(error));
-      if (!req.file) return reject(new BadRequestError(`Attach the CSV file as multipart/form-data in the field '${FILE_FIELD}'.`));
+      if (!req.file)
+        return reject(new BadRequestError(`Attach the CSV file as multipart/form-data in the field '${FILE_FIELD}'.`));
       resolve({ buffer: req.file.buffer, fileName: req.file.originalname });
     });
   });

@@ -9,7 +9,11 @@ type PeriodicCheck = () => Promise<string[]>;
  * In-process jobs: the outbox is drained every ten seconds; the release job looks at its clock
  * every minute; the frozen window is checked for new shortages every five minutes.
  */
-export function startJobs(dispatcher: OutboxDispatcher, releaseJob: ReleaseJob, frozenWindowCheck: PeriodicCheck): ScheduledTask[] {
+export function startJobs(
+  dispatcher: OutboxDispatcher,
+  releaseJob: ReleaseJob,
+  frozenWindowCheck: PeriodicCheck,
+): ScheduledTask[] {
   const drainOutbox = cron.schedule('*/10 * * * * *', () => {
     dispatcher.dispatchDue().catch((error) => console.error('Outbox dispatch failed:', error));
   });

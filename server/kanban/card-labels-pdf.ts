@@ -16,7 +16,6 @@ const QR_SIZE = 92;
 const INK = '#1a1a1a';
 const MUTED = '#5c5c5c';
 
-
 function quantityText(label: CardLabelContent): string {
   const unit = UNIT_WORDS[label.uom];
   return unit ? `${label.containerQty} ${unit} (${label.uom})` : `${label.containerQty} ${label.uom}`;
@@ -46,7 +45,10 @@ function drawLabel(doc: PDFKit.PDFDocument, label: CardLabelContent, qr: Buffer,
   doc.lineWidth(1.2).strokeColor(INK).roundedRect(x, y, LABEL_WIDTH, LABEL_HEIGHT, 6).stroke();
 
   doc.font('Helvetica').fontSize(7.5).fillColor(MUTED);
-  doc.text(`${kindCaption.toUpperCase()} · LOOP ${label.loopId}`, left, y + PADDING, { width: textWidth, lineBreak: false });
+  doc.text(`${kindCaption.toUpperCase()} · LOOP ${label.loopId}`, left, y + PADDING, {
+    width: textWidth,
+    lineBreak: false,
+  });
   doc
     .font('Helvetica-Bold')
     .fontSize(22)
@@ -95,7 +97,12 @@ function drawLabel(doc: PDFKit.PDFDocument, label: CardLabelContent, qr: Buffer,
 /** A4 pages of card labels, eight to a page, each with its QR code; resolves to the PDF bytes. */
 export async function renderCardLabelsPdf(labels: CardLabelContent[], title: string): Promise<Buffer> {
   const qrCodes = await Promise.all(labels.map((label) => qrPng(label.cardNumber)));
-  const doc = new PDFDocument({ size: 'A4', margin: 0, autoFirstPage: false, info: { Title: title, Creator: 'Cardloop' } });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margin: 0,
+    autoFirstPage: false,
+    info: { Title: title, Creator: 'Cardloop' },
+  });
   const chunks: Buffer[] = [];
   const finished = new Promise<Buffer>((resolve, reject) => {
     doc.on('data', (chunk: Buffer) => chunks.push(chunk));

@@ -28,7 +28,11 @@ import { KanbanService } from './kanban.service';
 const SCAN_ROLES: readonly Role[] = ['admin', 'buyer', 'planner', 'receiving'];
 
 /** Kanban routes over the app's one PlanningService, so loop sizing shares the cached plan. */
-export function createKanbanRouter(dataSource: DataSource, planning: PlanningService, registry: OpenAPIRegistry): Router {
+export function createKanbanRouter(
+  dataSource: DataSource,
+  planning: PlanningService,
+  registry: OpenAPIRegistry,
+): Router {
   const router = Router();
   const service = new KanbanService(dataSource, planning);
 

@@ -151,7 +151,11 @@ export class KanbanService {
    * container), then empty ones — never ordered or shipped cards, which are with the supplier and
    * are reported as still to pull.
    */
-  async acceptLoop(id: number, request: AcceptKanbanLoopRequest, actor: AuthenticatedUser): Promise<AcceptKanbanLoopResponse> {
+  async acceptLoop(
+    id: number,
+    request: AcceptKanbanLoopRequest,
+    actor: AuthenticatedUser,
+  ): Promise<AcceptKanbanLoopResponse> {
     const current = await this.getLoop(id);
     const target = current.recommendedCards;
     if (request.expectedRecommended !== undefined && request.expectedRecommended !== target) {
@@ -205,7 +209,10 @@ export class KanbanService {
     const manager = this.dataSource.manager;
     const loop = await this.findLoop(manager, loopId);
     const cards = await manager.find(KanbanCardEntity, { where: { loopId }, order: { cardIndex: 'ASC' } });
-    const scans = await this.recentScans(manager, cards.map((card) => card.id));
+    const scans = await this.recentScans(
+      manager,
+      cards.map((card) => card.id),
+    );
     return cards.map((card) => ({ ...toKanbanCard(card, loop.partNumber), scans: scans.get(card.id) ?? [] }));
   }
 
@@ -276,12 +283,19 @@ export class KanbanService {
     }));
   }
 
-  private async addCards(manager: EntityManager, loopId: number, cards: KanbanCardEntity[], count: number): Promise<string[]> {
+  private async addCards(
+    manager: EntityManager,
+    loopId: number,
+    cards: KanbanCardEntity[],
+    count: number,
+  ): Promise<string[]> {
     // Indexes continue after every card ever issued: a pulled card keeps its number and history.
     const firstIndex = cards.reduce((max, card) => Math.max(max, card.cardIndex), 0) + 1;
     const lastIndex = firstIndex + count - 1;
     if (lastIndex > MAX_CARD_INDEX) {
-      throw new ConflictError(`A loop can issue at most ${MAX_CARD_INDEX} card numbers; this one has used ${firstIndex - 1}.`);
+      throw new ConflictError(
+        `A loop can issue at most ${MAX_CARD_INDEX} card numbers; this one has used ${firstIndex - 1}.`,
+      );
     }
     const now = new Date().toISOString();
     const rows = Array.from({ length: count }, (_, offset) => ({
@@ -363,7 +377,11 @@ export class KanbanService {
   }
 
   /** Sizes loops in one pass: one query each for parts, suppliers and card counts, and the cached plan. */
-  private async describeLoops(manager: EntityManager, loops: KanbanLoopEntity[], onlyThese: boolean): Promise<KanbanLoop[]> {
+  private async describeLoops(
+    manager: EntityManager,
+    loops: KanbanLoopEntity[],
+    onlyThese: boolean,
+  ): Promise<KanbanLoop[]> {
     if (loops.length === 0) return [];
     const partNumbers = loops.map((loop) => loop.partNumber);
     const [parts, demand, counts] = await Promise.all([
@@ -373,7 +391,9 @@ export class KanbanService {
     ]);
     const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
     const supplierCodes = [...new Set(parts.map((part) => part.supplierCode).filter((code): code is string => !!code))];
-    const suppliers = supplierCodes.length ? await manager.find(SupplierEntity, { where: { code: In(supplierCodes) } }) : [];
+    const suppliers = supplierCodes.length
+      ? await manager.find(SupplierEntity, { where: { code: In(supplierCodes) } })
+      : [];
     const supplierByCode = new Map(suppliers.map((supplier) => [supplier.code, supplier]));
 
     return loops.map((loop) => {

@@ -16,7 +16,9 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
       .map((slot) => `    ${slot.date} position ${slot.sequence}: ${slot.serial} (${slot.model})`);
     const more = shortage.slotsAtRisk.length > 10 ? [`    … and ${shortage.slotsAtRisk.length - 10} more units`] : [];
     const resequence = shortage.rescue.resequence
-      ? [`  Or build ${shortage.rescue.resequence.candidate.serial} (${shortage.rescue.resequence.candidate.model}) in the slot of ${shortage.rescue.resequence.slot.serial}: all its parts are present.`]
+      ? [
+          `  Or build ${shortage.rescue.resequence.candidate.serial} (${shortage.rescue.resequence.candidate.model}) in the slot of ${shortage.rescue.resequence.slot.serial}: all its parts are present.`,
+        ]
       : [];
     return [
       `${shortage.partNumber} ${shortage.description}${shortage.hazardous ? ' [hazardous goods]' : ''}`,
@@ -41,7 +43,11 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
  * first short date moves); a part that leaves the window may alert again later. Returns the
  * part numbers newly reported.
  */
-export async function alertFrozenWindowShortages(dataSource: DataSource, lineRisk: LineRiskService, appUrl: string): Promise<string[]> {
+export async function alertFrozenWindowShortages(
+  dataSource: DataSource,
+  lineRisk: LineRiskService,
+  appUrl: string,
+): Promise<string[]> {
   const inWindow = (await lineRisk.shortages()).filter((shortage) => shortage.inFrozenWindow);
   return dataSource.transaction(async (manager) => {
     const alerted = await readSetting<Record<string, string>>(manager, ALERTED, {});
@@ -54,13 +60,17 @@ export async function alertFrozenWindowShortages(dataSource: DataSource, lineRis
       fresh.length === 1
         ? `Line stop ahead: ${fresh[0].partNumber} short on ${fresh[0].firstShortDate}, inside the frozen window`
         : `Line stop ahead: ${fresh.length} parts short inside the frozen window`;
-    for (const planner of planners) await enqueueMail(manager, { to: planner.email, subject, text: alertText(fresh, appUrl) });
+    for (const planner of planners)
+      await enqueueMail(manager, { to: planner.email, subject, text: alertText(fresh, appUrl) });
     await recordAudit(manager, {
       actorEmail: null,
       action: 'alert',
       entity: 'line-risk',
       entityKey: 'frozen-window',
-      changes: { parts: fresh.map((shortage) => shortage.partNumber), planners: planners.map((planner) => planner.email) },
+      changes: {
+        parts: fresh.map((shortage) => shortage.partNumber),
+        planners: planners.map((planner) => planner.email),
+      },
     });
     return fresh.map((shortage) => shortage.partNumber);
   });

@@ -46,7 +46,9 @@ export async function loadLineRiskInputs(manager: EntityManager): Promise<LineRi
     const inputs = await loadPlanInputs(work);
     const firmReceipts: ScheduledReceipt[] = await work.query(FIRM_LINES_SQL);
     const rows: DetailRow[] = await work.query(DETAILS_SQL);
-    const details = new Map(rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]));
+    const details = new Map(
+      rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]),
+    );
     return { ...inputs, firmReceipts, details };
   });
 }

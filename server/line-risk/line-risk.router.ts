@@ -7,7 +7,11 @@ import { READ_ROLES } from '../http/roles';
 import { LineRiskService } from './line-risk.service';
 
 /** Line risk: the published shortage list and the planner's full report over one horizon. */
-export function createLineRiskRouter(dataSource: DataSource, registry: OpenAPIRegistry, service = new LineRiskService(dataSource)): Router {
+export function createLineRiskRouter(
+  dataSource: DataSource,
+  registry: OpenAPIRegistry,
+  service = new LineRiskService(dataSource),
+): Router {
   const router = Router();
 
   defineRoute(router, registry, {

@@ -69,7 +69,11 @@ export class OutboxDispatcher {
             html: message.html ?? undefined,
             attachments: message.attachments ?? undefined,
           });
-          await repository.update(message.id, { status: 'sent', sentAt: new Date().toISOString(), attempts: message.attempts + 1 });
+          await repository.update(message.id, {
+            status: 'sent',
+            sentAt: new Date().toISOString(),
+            attempts: message.attempts + 1,
+          });
           sent += 1;
         } catch (error) {
           const attempts = message.attempts + 1;

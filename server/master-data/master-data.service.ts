@@ -26,7 +26,10 @@ export class MasterDataService {
 
   async listParts(filter: { supplierCode?: string; source?: string }): Promise<Part[]> {
     const parts = await this.dataSource.getRepository(PartEntity).find({
-      where: { ...(filter.supplierCode && { supplierCode: filter.supplierCode }), ...(filter.source && { source: filter.source }) },
+      where: {
+        ...(filter.supplierCode && { supplierCode: filter.supplierCode }),
+        ...(filter.source && { source: filter.source }),
+      },
       order: { partNumber: 'ASC' },
     });
     return parts.map(toPart);

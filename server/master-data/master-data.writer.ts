@@ -40,7 +40,11 @@ export async function upsertSequenceEntries(manager: EntityManager, entries: Seq
   await bumpPlanningVersion(manager);
 }
 
-export async function setOnHand(manager: EntityManager, counts: { partNumber: string; onHand: number }[]): Promise<void> {
-  for (const count of counts) await manager.update(PartEntity, { partNumber: count.partNumber }, { onHand: count.onHand });
+export async function setOnHand(
+  manager: EntityManager,
+  counts: { partNumber: string; onHand: number }[],
+): Promise<void> {
+  for (const count of counts)
+    await manager.update(PartEntity, { partNumber: count.partNumber }, { onHand: count.onHand });
   await bumpPlanningVersion(manager);
 }

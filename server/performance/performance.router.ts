@@ -7,7 +7,11 @@ import { READ_ROLES } from '../http/roles';
 import { PerformanceService } from './performance.service';
 
 /** Supplier performance: on-time, fill rate and confirmation latency per supplier and month of need date. */
-export function createPerformanceRouter(dataSource: DataSource, registry: OpenAPIRegistry, service = new PerformanceService(dataSource)): Router {
+export function createPerformanceRouter(
+  dataSource: DataSource,
+  registry: OpenAPIRegistry,
+  service = new PerformanceService(dataSource),
+): Router {
   const router = Router();
 
   defineRoute(router, registry, {

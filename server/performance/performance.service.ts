@@ -25,7 +25,10 @@ import { ReleaseEntity } from '../releases/release.entity';
 import { SupplierEntity } from '../suppliers/supplier.entity';
 
 /** Fills in and checks the month range: defaults to the last six months through the current one. */
-export function resolveMonths(query: Pick<PerformanceQuery, 'from' | 'to'>, today: string): { from: YearMonth; to: YearMonth } {
+export function resolveMonths(
+  query: Pick<PerformanceQuery, 'from' | 'to'>,
+  today: string,
+): { from: YearMonth; to: YearMonth } {
   const to = query.to ?? (query.from && query.from > monthOf(today) ? query.from : monthOf(today));
   const from = query.from ?? addMonths(to, -(DEFAULT_PERFORMANCE_MONTHS - 1));
   const span = monthSpan(from, to);
@@ -59,19 +62,34 @@ export class PerformanceService {
     const lineQuery = manager
       .createQueryBuilder(ReleaseLineEntity, 'line')
       .innerJoin(ReleaseEntity, 'release', 'release.id = line.releaseId')
-      .select(['line.id AS id', 'line.releaseId AS releaseId', 'line.qty AS qty', 'line.confirmedQty AS confirmedQty', 'line.needDate AS needDate'])
+      .select([
+        'line.id AS id',
+        'line.releaseId AS releaseId',
+        'line.qty AS qty',
+        'line.confirmedQty AS confirmedQty',
+        'line.needDate AS needDate',
+      ])
       .addSelect('release.supplierCode', 'supplierCode')
       .where('release.status != :cancelled', { cancelled: 'cancelled' })
       .andWhere('line.needDate BETWEEN :first AND :last', { first: firstDayOf(from), last: lastDayOf(to) })
       .andWhere('line.needDate < :today', { today });
     if (query.supplier) lineQuery.andWhere('release.supplierCode = :supplier', { supplier: query.supplier });
-    const rows = await lineQuery.getRawMany<{ id: number; releaseId: number; qty: number; confirmedQty: number | null; needDate: string; supplierCode: string }>();
+    const rows = await lineQuery.getRawMany<{
+      id: number;
+      releaseId: number;
+      qty: number;
+      confirmedQty: number | null;
+      needDate: string;
+      supplierCode: string;
+    }>();
 
     const receiptsByLine = new Map<number, PerformanceLine['receipts'][number][]>();
     const lineIds = rows.map((row) => row.id);
     // SQLite allows a limited number of bound parameters per statement.
     for (let start = 0; start < lineIds.length; start += 500) {
-      const receipts = await manager.find(ReceiptEntity, { where: { releaseLineId: In(lineIds.slice(start, start + 500)) } });
+      const receipts = await manager.find(ReceiptEntity, {
+        where: { releaseLineId: In(lineIds.slice(start, start + 500)) },
+      });
       for (const receipt of receipts) {
         const list = receiptsByLine.get(receipt.releaseLineId) ?? [];
         list.push({
@@ -108,7 +126,11 @@ export class PerformanceService {
       const found = await this.dataSource.manager
         .createQueryBuilder(ReleaseEntity, 'release')
         .innerJoin(ReleaseLineEntity, 'line', 'line.releaseId = release.id')
-        .select(['release.supplierCode AS supplierCode', 'release.sentAt AS sentAt', 'release.confirmedAt AS confirmedAt'])
+        .select([
+          'release.supplierCode AS supplierCode',
+          'release.sentAt AS sentAt',
+          'release.confirmedAt AS confirmedAt',
+        ])
         .addSelect('MIN(line.needDate)', 'firstNeedDate')
         .where('release.id IN (:...ids)', { ids: chunk })
         .groupBy('release.id')

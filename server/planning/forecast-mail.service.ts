@@ -39,7 +39,9 @@ export class ForecastMailService {
         to: supplier.email,
         subject,
         text,
-        attachments: [{ filename: `forecast-${supplier.code}-${from}.csv`, content: demandToCsv(demand), contentType: 'text/csv' }],
+        attachments: [
+          { filename: `forecast-${supplier.code}-${from}.csv`, content: demandToCsv(demand), contentType: 'text/csv' },
+        ],
       });
       await recordAudit(manager, {
         actorEmail: actor.email,

@@ -14,6 +14,7 @@ export const DEFAULT_HORIZON_WORKING_DAYS = 20;
 export function resolveHorizon(calendar: PlantCalendar, from?: string, to?: string): { from: string; to: string } {
   const start = from ?? nextWorkingDay(plantToday(), calendar);
   const end = to ?? addWorkingDays(nextWorkingDay(start, calendar), DEFAULT_HORIZON_WORKING_DAYS - 1, calendar);
-  if (end < start) throw new BadRequestError('to is before from.', [{ path: ['to'], message: 'must not be before from' }]);
+  if (end < start)
+    throw new BadRequestError('to is before from.', [{ path: ['to'], message: 'must not be before from' }]);
   return { from: start, to: end };
 }

@@ -14,7 +14,11 @@ import type { ForecastMailService } from './forecast-mail.service';
 import { demandToCsv, planToCsv } from './planning-csv';
 import type { PlanningService } from './planning.service';
 
-export function createPlanningRouter(planning: PlanningService, forecastMail: ForecastMailService, registry: OpenAPIRegistry): Router {
+export function createPlanningRouter(
+  planning: PlanningService,
+  forecastMail: ForecastMailService,
+  registry: OpenAPIRegistry,
+): Router {
   const router = Router();
 
   defineRoute(router, registry, {
@@ -28,7 +32,10 @@ export function createPlanningRouter(planning: PlanningService, forecastMail: Fo
     handler: async ({ query, res }) => {
       const plan = await planning.partPlan(query.part, query.from, query.to);
       if (query.format !== 'csv') return plan;
-      res.type('text/csv').attachment(`plan-${plan.part.partNumber}-${plan.buckets[0]?.date ?? 'empty'}.csv`).send(planToCsv(plan));
+      res
+        .type('text/csv')
+        .attachment(`plan-${plan.part.partNumber}-${plan.buckets[0]?.date ?? 'empty'}.csv`)
+        .send(planToCsv(plan));
       return undefined;
     },
   });

@@ -65,7 +65,10 @@ export class PlanningService {
 
   async demand(options: { from?: string; to?: string; supplierCode?: string }): Promise<DemandResponse> {
     const { inputs, result } = await this.plan(options.from, options.to);
-    if (options.supplierCode && !(await this.dataSource.getRepository(SupplierEntity).existsBy({ code: options.supplierCode }))) {
+    if (
+      options.supplierCode &&
+      !(await this.dataSource.getRepository(SupplierEntity).existsBy({ code: options.supplierCode }))
+    ) {
       throw new NotFoundError(`No supplier ${options.supplierCode}.`);
     }
     return grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode });

@@ -14,10 +14,14 @@ const receive = multer({
 }).single(ATTACHMENT_FIELD);
 
 function translate(error: unknown): Error {
-  if (!(error instanceof MulterError)) return error instanceof Error ? error : new BadRequestError('The upload could not be read.');
-  if (error.code === 'LIMIT_FILE_SIZE') return new PayloadTooLargeError(`The file is larger than ${ATTACHMENT_MAX_BYTES / 1024 / 1024} MB.`);
+  if (!(error instanceof MulterError))
+    return error instanceof Error ? error : new BadRequestError('The upload could not be read.');
+  if (error.code === 'LIMIT_FILE_SIZE')
+    return new PayloadTooLargeError(`The file is larger than ${ATTACHMENT_MAX_BYTES / 1024 / 1024} MB.`);
   if (error.code === 'LIMIT_UNEXPECTED_FILE') {
-    return new BadRequestError(`Send the file in the multipart field '${ATTACHMENT_FIELD}' (got '${error.field ?? ''}'), one file only.`);
+    return new BadRequestError(
+      `Send the file in the multipart field '${ATTACHMENT_FIELD}' (got '${error.field ?? ''}'), one file only.`,
+    );
   }
   return new BadRequestError(`The upload could not be read: ${error.message}.`);
 }
@@ -30,7 +34,10 @@ export function receiveAttachmentFile(req: Request, res: Response): Promise<{ bu
   return new Promise((resolve, reject) => {
     receive(req, res, (error?: unknown) => {
       if (error) return reject(translate(error));
-      if (!req.file) return reject(new BadRequestError(`Attach the photo or PDF as multipart/form-data in the field '${ATTACHMENT_FIELD}'.`));
+      if (!req.file)
+        return reject(
+          new BadRequestError(`Attach the photo or PDF as multipart/form-data in the field '${ATTACHMENT_FIELD}'.`),
+        );
       resolve({ buffer: req.file.buffer, fileName: req.file.originalname });
     });
   });

@@ -39,7 +39,9 @@ export function sniffAttachmentType(buffer: Buffer): AttachmentType | null {
 
 /** The name a person gave the file, without any folder and without control characters. */
 function cleanFileName(original: string, type: AttachmentType): string {
-  const printable = [...original.replace(/\\/g, '/')].filter((character) => character >= ' ' && character !== '\u007f' && character !== '"');
+  const printable = [...original.replace(/\\/g, '/')].filter(
+    (character) => character >= ' ' && character !== '\u007f' && character !== '"',
+  );
   const name = basename(printable.join('')).trim();
   return (name || `packing-slip.${EXTENSIONS[type]}`).slice(0, 200);
 }
@@ -61,10 +63,18 @@ export class AttachmentsService {
     this.root = resolve(attachmentsDir);
   }
 
-  async add(releaseId: number, file: { buffer: Buffer; fileName: string }, actor: AuthenticatedUser): Promise<DockAttachment> {
+  async add(
+    releaseId: number,
+    file: { buffer: Buffer; fileName: string },
+    actor: AuthenticatedUser,
+  ): Promise<DockAttachment> {
     const type = sniffAttachmentType(file.buffer);
     if (!type) {
-      throw new AppError(415, 'unsupported_file_type', 'Attach a photo (JPEG, PNG or WebP) or a PDF of the packing slip; this file is neither.');
+      throw new AppError(
+        415,
+        'unsupported_file_type',
+        'Attach a photo (JPEG, PNG or WebP) or a PDF of the packing slip; this file is neither.',
+      );
     }
     const release = await this.dataSource.manager.findOneBy(ReleaseEntity, { id: releaseId });
     if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
@@ -91,7 +101,12 @@ export class AttachmentsService {
           action: 'attach',
           entity: 'release',
           entityKey: release.number,
-          changes: { attachmentId: attachment.id, fileName: attachment.fileName, mimeType: type, sizeBytes: attachment.sizeBytes },
+          changes: {
+            attachmentId: attachment.id,
+            fileName: attachment.fileName,
+            mimeType: type,
+            sizeBytes: attachment.sizeBytes,
+          },
         });
         await bumpDockVersion(manager);
         return toDockAttachment(attachment);

@@ -1,7 +1,12 @@
 import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
-import { IDEMPOTENCY_HEADER, idempotencyKeySchema, receiptRequestSchema, receiptResponseSchema } from '../../shared/schemas/receipts';
+import {
+  IDEMPOTENCY_HEADER,
+  idempotencyKeySchema,
+  receiptRequestSchema,
+  receiptResponseSchema,
+} from '../../shared/schemas/receipts';
 import { BadRequestError } from '../errors';
 import { defineRoute } from '../http/route';
 import { RECEIVING_ROLES } from '../http/roles';

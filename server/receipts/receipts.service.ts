@@ -2,7 +2,13 @@ import { QueryFailedError, type DataSource, type EntityManager } from 'typeorm';
 import { canTransition, isCardState } from '../../shared/domain/card-cycle';
 import { QTY_EPSILON, roundQty } from '../../shared/domain/quantity';
 import { RECEIVABLE_STATUSES, type DockStatus } from '../../shared/schemas/dock';
-import { addsToOnHand, type Discrepancy, type Receipt, type ReceiptRequest, type ReceiptResponse } from '../../shared/schemas/receipts';
+import {
+  addsToOnHand,
+  type Discrepancy,
+  type Receipt,
+  type ReceiptRequest,
+  type ReceiptResponse,
+} from '../../shared/schemas/receipts';
 import { recordAudit } from '../audit/audit.service';
 import { bumpDockVersion } from '../dock/dock-version';
 import { ConflictError, NotFoundError } from '../errors';
@@ -94,13 +100,18 @@ export class ReceiptsService {
     }
   }
 
-  private async replay(manager: EntityManager, idempotencyKey: string, request: ReceiptRequest): Promise<ReceiveOutcome | null> {
+  private async replay(
+    manager: EntityManager,
+    idempotencyKey: string,
+    request: ReceiptRequest,
+  ): Promise<ReceiveOutcome | null> {
     const existing = await manager.findOneBy(ReceiptEntity, { idempotencyKey });
     if (!existing) return null;
     if (!sameRequest(existing, request)) {
-      throw new ConflictError('This Idempotency-Key was already used for a different receipt; send a new key for a new count.', [
-        { idempotencyKey, receiptId: existing.id },
-      ]);
+      throw new ConflictError(
+        'This Idempotency-Key was already used for a different receipt; send a new key for a new count.',
+        [{ idempotencyKey, receiptId: existing.id }],
+      );
     }
     const line = await manager.findOneByOrFail(ReleaseLineEntity, { id: existing.releaseLineId });
     const release = await manager.findOneByOrFail(ReleaseEntity, { id: line.releaseId });
@@ -118,17 +129,20 @@ export class ReceiptsService {
     const release = await manager.findOneBy(ReleaseEntity, { id: line.releaseId });
     if (!release) throw new NotFoundError(`No release line with id ${request.releaseLineId}.`);
     if (!RECEIVABLE_STATUSES.includes(release.status as DockStatus)) {
-      throw new ConflictError(`Release ${release.number} is ${release.status}; only a sent, confirmed, exception, shipped or partly received release takes receipts.`, [
-        { status: release.status },
-      ]);
+      throw new ConflictError(
+        `Release ${release.number} is ${release.status}; only a sent, confirmed, exception, shipped or partly received release takes receipts.`,
+        [{ status: release.status }],
+      );
     }
     if (line.closed) {
-      throw new ConflictError(`Line ${line.id} (${line.partNumber}) of release ${release.number} is closed; nothing more can be received on it.`, [
-        { releaseLineId: line.id, receivedQty: line.receivedQty },
-      ]);
+      throw new ConflictError(
+        `Line ${line.id} (${line.partNumber}) of release ${release.number} is closed; nothing more can be received on it.`,
+        [{ releaseLineId: line.id, receivedQty: line.receivedQty }],
+      );
     }
     const part = await manager.findOneBy(PartEntity, { partNumber: line.partNumber });
-    if (!part) throw new ConflictError(`Part ${line.partNumber} is no longer in the master data; add it back before receiving.`);
+    if (!part)
+      throw new ConflictError(`Part ${line.partNumber} is no longer in the master data; add it back before receiving.`);
 
     const stored = normalise(request);
     const usable = addsToOnHand(stored.discrepancy) ? stored.qty : 0;

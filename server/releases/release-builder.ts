@@ -69,7 +69,11 @@ export async function readEmptyCardSignals(manager: EntityManager): Promise<Empt
  * One line per empty card: a container's worth, needed back after the supplier's replenishment
  * time counted in working days from the release date.
  */
-export function kanbanLines(cards: EmptyCardSignal[], releaseDate: string, calendar: PlantCalendar | WorkingCalendar): DraftLine[] {
+export function kanbanLines(
+  cards: EmptyCardSignal[],
+  releaseDate: string,
+  calendar: PlantCalendar | WorkingCalendar,
+): DraftLine[] {
   return cards.map((card) => ({
     supplierCode: card.supplierCode,
     partNumber: card.partNumber,
@@ -106,7 +110,14 @@ export function plannedLines(
     for (const release of due) {
       const needDate = addWorkingDays(release.date, part.leadTimeDays, calendar);
       if (alreadyOrdered.has(lineKey(part.partNumber, needDate))) continue;
-      lines.push({ supplierCode: part.supplierCode, partNumber: part.partNumber, qty: release.qty, needDate, origin: 'plan', cardId: null });
+      lines.push({
+        supplierCode: part.supplierCode,
+        partNumber: part.partNumber,
+        qty: release.qty,
+        needDate,
+        origin: 'plan',
+        cardId: null,
+      });
     }
   }
   return lines;
@@ -126,7 +137,12 @@ export function groupBySupplier(lines: DraftLine[]): Map<string, DraftLine[]> {
     bySupplier.set(line.supplierCode, group);
   }
   for (const group of bySupplier.values()) {
-    group.sort((a, b) => a.needDate.localeCompare(b.needDate) || a.partNumber.localeCompare(b.partNumber) || (a.cardId ?? 0) - (b.cardId ?? 0));
+    group.sort(
+      (a, b) =>
+        a.needDate.localeCompare(b.needDate) ||
+        a.partNumber.localeCompare(b.partNumber) ||
+        (a.cardId ?? 0) - (b.cardId ?? 0),
+    );
   }
   return new Map([...bySupplier].sort(([a], [b]) => a.localeCompare(b)));
 }

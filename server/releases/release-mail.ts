@@ -37,11 +37,20 @@ function escapeHtml(value: string): string {
 }
 
 function textTable(lines: ReleaseMailLine[]): string[] {
-  const rows = lines.map((line) => [line.partNumber, line.description, QTY_FORMAT.format(line.qty), unitOf(line.uom), line.needDate]);
+  const rows = lines.map((line) => [
+    line.partNumber,
+    line.description,
+    QTY_FORMAT.format(line.qty),
+    unitOf(line.uom),
+    line.needDate,
+  ]);
   const header = ['Part', 'Description', 'Qty', 'Unit', 'Need date'];
   const widths = header.map((title, column) => Math.max(title.length, ...rows.map((row) => row[column].length)));
   const format = (cells: string[]) =>
-    cells.map((cell, column) => (column === 2 ? cell.padStart(widths[column]) : cell.padEnd(widths[column]))).join('  ').trimEnd();
+    cells
+      .map((cell, column) => (column === 2 ? cell.padStart(widths[column]) : cell.padEnd(widths[column])))
+      .join('  ')
+      .trimEnd();
   const out = [format(header), widths.map((width) => '-'.repeat(width)).join('  ')];
   lines.forEach((line, index) => {
     out.push(format(rows[index]));
@@ -57,12 +66,16 @@ function htmlTable(lines: ReleaseMailLine[]): string {
       const hazard = line.hazardous
         ? `<br><strong style="color:#a3300b">&#9888; ${escapeHtml(HAZARDOUS_NOTE)}</strong>`
         : '';
-      return `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
+      return (
+        `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
         `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitOf(line.uom))}</td>` +
-        `<td style="${cell}">${line.needDate}</td></tr>`;
+        `<td style="${cell}">${line.needDate}</td></tr>`
+      );
     })
     .join('');
-  const head = ['Part', 'Description', 'Qty', 'Unit', 'Need date'].map((title) => `<th style="${cell}">${title}</th>`).join('');
+  const head = ['Part', 'Description', 'Qty', 'Unit', 'Need date']
+    .map((title) => `<th style="${cell}">${title}</th>`)
+    .join('');
   return `<table style="border-collapse:collapse;font-size:14px"><thead><tr>${head}</tr></thead><tbody>${rows}</tbody></table>`;
 }
 

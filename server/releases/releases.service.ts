@@ -117,7 +117,9 @@ export class ReleasesService {
         (line) => !releasedSuppliers.has(line.supplierCode),
       );
       const supplierCodes = [...new Set(lines.map((line) => line.supplierCode))];
-      const suppliers = supplierCodes.length ? await manager.find(SupplierEntity, { where: { code: In(supplierCodes) } }) : [];
+      const suppliers = supplierCodes.length
+        ? await manager.find(SupplierEntity, { where: { code: In(supplierCodes) } })
+        : [];
       const supplierByCode = new Map(suppliers.map((supplier) => [supplier.code, supplier]));
       const plantName = await readPlantName(manager);
 
@@ -134,14 +136,21 @@ export class ReleasesService {
         action: 'run',
         entity: 'release_run',
         entityKey: date,
-        changes: { created: releaseIds.length, lines: lines.length, alreadyReleased: existing.map((release) => release.number) },
+        changes: {
+          created: releaseIds.length,
+          lines: lines.length,
+          alreadyReleased: existing.map((release) => release.number),
+        },
       });
       // Open lines are scheduled receipts of the plan from now on.
       if (releaseIds.length > 0) await releasesChanged(manager);
       return { releaseIds, existing: existing.map((release) => release.number) };
     });
     const made = created.releaseIds.length
-      ? await this.dataSource.manager.find(ReleaseEntity, { where: { id: In(created.releaseIds) }, order: { number: 'ASC' } })
+      ? await this.dataSource.manager.find(ReleaseEntity, {
+          where: { id: In(created.releaseIds) },
+          order: { number: 'ASC' },
+        })
       : [];
     return { date, releases: await this.describe(this.dataSource.manager, made), existing: created.existing };
   }
@@ -162,7 +171,11 @@ export class ReleasesService {
     }
     const parts: ScheduledPart[] = plan.inputs.parts
       .filter((part) => part.source === 'buy' && part.replenishment === 'scheduled' && part.supplierCode)
-      .map((part) => ({ partNumber: part.partNumber, supplierCode: part.supplierCode!, leadTimeDays: part.leadTimeDays }));
+      .map((part) => ({
+        partNumber: part.partNumber,
+        supplierCode: part.supplierCode!,
+        leadTimeDays: part.leadTimeDays,
+      }));
     return plannedLines(plan.result, parts, date, calendar, await this.openPlanLineKeys());
   }
 
@@ -233,7 +246,12 @@ export class ReleasesService {
       changes: {
         supplierCode: supplier.code,
         releaseDate: date,
-        lines: lines.map((line) => ({ partNumber: line.partNumber, qty: line.qty, needDate: line.needDate, origin: line.origin })),
+        lines: lines.map((line) => ({
+          partNumber: line.partNumber,
+          qty: line.qty,
+          needDate: line.needDate,
+          origin: line.origin,
+        })),
         cards: cardNumbers,
       },
     });
@@ -250,8 +268,14 @@ export class ReleasesService {
   ): Promise<void> {
     const now = new Date();
     const { token, expiresAt } = await issueConfirmationToken(manager, release.id, now);
-    const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id }, order: { needDate: 'ASC', id: 'ASC' } });
-    const parts = await this.partsOf(manager, lines.map((line) => line.partNumber));
+    const lines = await manager.find(ReleaseLineEntity, {
+      where: { releaseId: release.id },
+      order: { needDate: 'ASC', id: 'ASC' },
+    });
+    const parts = await this.partsOf(
+      manager,
+      lines.map((line) => line.partNumber),
+    );
     await enqueueMail(
       manager,
       composeReleaseMail({
@@ -306,13 +330,20 @@ export class ReleasesService {
     await this.dataSource.transaction(async (manager) => {
       const release = await this.findRelease(manager, number);
       if (!RESENDABLE.includes(release.status as ReleaseStatus)) {
-        throw new ConflictError(`Release ${number} is ${release.status}; only a release waiting for or disputing an answer can be sent again.`, [
-          { status: release.status },
-        ]);
+        throw new ConflictError(
+          `Release ${number} is ${release.status}; only a release waiting for or disputing an answer can be sent again.`,
+          [{ status: release.status }],
+        );
       }
       const supplier = await manager.findOneBy(SupplierEntity, { code: release.supplierCode });
-      if (!supplier) throw new ConflictError(`Supplier ${release.supplierCode} no longer exists; the release cannot be sent.`);
-      const before = { status: release.status, carrier: release.carrier, trackingNumber: release.trackingNumber, supplierNote: release.supplierNote };
+      if (!supplier)
+        throw new ConflictError(`Supplier ${release.supplierCode} no longer exists; the release cannot be sent.`);
+      const before = {
+        status: release.status,
+        carrier: release.carrier,
+        trackingNumber: release.trackingNumber,
+        supplierNote: release.supplierNote,
+      };
       const proposal = (await manager.find(ReleaseLineEntity, { where: { releaseId: release.id } })).map((line) => ({
         id: line.id,
         confirmedQty: line.confirmedQty,
@@ -344,9 +375,10 @@ export class ReleasesService {
       const release = await this.findRelease(manager, number);
       const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id } });
       if (!CANCELLABLE.includes(release.status as ReleaseStatus) || lines.some((line) => line.receivedQty > 0)) {
-        throw new ConflictError(`Release ${number} is ${release.status}; only a release with nothing received can be cancelled.`, [
-          { status: release.status },
-        ]);
+        throw new ConflictError(
+          `Release ${number} is ${release.status}; only a release with nothing received can be cancelled.`,
+          [{ status: release.status }],
+        );
       }
       const cardIds = lines.map((line) => line.cardId).filter((id): id is number => id !== null);
       const cards = cardIds.length
@@ -356,7 +388,11 @@ export class ReleasesService {
       for (const card of cards) {
         // Only a card still travelling for this release comes back; one already reused is left alone.
         if (card.releaseLineId !== null && !lines.some((line) => line.id === card.releaseLineId)) continue;
-        await manager.update(KanbanCardEntity, { id: card.id }, { state: 'empty', stateChangedAt: now, releaseLineId: null });
+        await manager.update(
+          KanbanCardEntity,
+          { id: card.id },
+          { state: 'empty', stateChangedAt: now, releaseLineId: null },
+        );
       }
       await manager.update(ReleaseLineEntity, { releaseId: release.id }, { closed: true });
       await revokeConfirmationTokens(manager, release.id);
@@ -380,7 +416,9 @@ export class ReleasesService {
     await this.dataSource.transaction(async (manager) => {
       const release = await this.findRelease(manager, number);
       if (release.status !== 'exception') {
-        throw new ConflictError(`Release ${number} is ${release.status}; only an exception can be accepted.`, [{ status: release.status }]);
+        throw new ConflictError(`Release ${number} is ${release.status}; only an exception can be accepted.`, [
+          { status: release.status },
+        ]);
       }
       release.status = 'confirmed';
       await manager.save(release);
@@ -450,11 +488,16 @@ export class ReleasesService {
       where: { releaseId: In(releases.map((release) => release.id)) },
       order: { needDate: 'ASC', partNumber: 'ASC', id: 'ASC' },
     });
-    const parts = await this.partsOf(manager, lines.map((line) => line.partNumber));
+    const parts = await this.partsOf(
+      manager,
+      lines.map((line) => line.partNumber),
+    );
     const cardIds = lines.map((line) => line.cardId).filter((id): id is number => id !== null);
     const cards = cardIds.length ? await manager.find(KanbanCardEntity, { where: { id: In(cardIds) } }) : [];
     const cardNumberById = new Map(cards.map((card) => [card.id, card.cardNumber]));
-    const suppliers = await manager.find(SupplierEntity, { where: { code: In([...new Set(releases.map((release) => release.supplierCode))]) } });
+    const suppliers = await manager.find(SupplierEntity, {
+      where: { code: In([...new Set(releases.map((release) => release.supplierCode))]) },
+    });
     const supplierName = new Map(suppliers.map((supplier) => [supplier.code, supplier.name]));
     const linesByRelease = new Map<number, ReleaseLine[]>();
     for (const line of lines) {

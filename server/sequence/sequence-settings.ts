@@ -1,5 +1,9 @@
 import type { EntityManager } from 'typeorm';
-import { DEFAULT_DAILY_CAPACITY, DEFAULT_FROZEN_WINDOW_DAYS, type SequenceSettings } from '../../shared/schemas/sequence';
+import {
+  DEFAULT_DAILY_CAPACITY,
+  DEFAULT_FROZEN_WINDOW_DAYS,
+  type SequenceSettings,
+} from '../../shared/schemas/sequence';
 import { readSetting, writeSetting } from '../settings/settings.service';
 
 const FROZEN_WINDOW_DAYS = 'sequence.frozenWindowDays';

@@ -11,7 +11,11 @@ const WEEKDAY_NAMES = ['', 'Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday
  * today, today itself being day 1 when it is a working day (on a Saturday the window starts
  * Monday). Null when the window is 0 days long.
  */
-export function frozenUntil(today: IsoDate, frozenWindowDays: number, calendar: PlantCalendar | WorkingCalendar): IsoDate | null {
+export function frozenUntil(
+  today: IsoDate,
+  frozenWindowDays: number,
+  calendar: PlantCalendar | WorkingCalendar,
+): IsoDate | null {
   if (frozenWindowDays <= 0) return null;
   return addWorkingDays(nextWorkingDay(today, calendar), frozenWindowDays - 1, calendar);
 }
@@ -47,8 +51,10 @@ export class SequenceRules {
 
   /** Why a day cannot take units, or null when it can (same wording as the schedule import). */
   dateProblem(date: IsoDate): string | null {
-    if (date < shiftYears(this.today, -SCHEDULE_YEARS_BACK)) return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
-    if (date > shiftYears(this.today, SCHEDULE_YEARS_AHEAD)) return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
+    if (date < shiftYears(this.today, -SCHEDULE_YEARS_BACK))
+      return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
+    if (date > shiftYears(this.today, SCHEDULE_YEARS_AHEAD))
+      return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
     if (this.isWorking(date)) return null;
     return this.holidays.has(date)
       ? `${date} is a plant holiday`
@@ -62,9 +68,12 @@ export class SequenceRules {
     const parts: string[] = [];
     if (window.length > 0) {
       const days = this.settings.frozenWindowDays;
-      parts.push(`${listDates(window)} ${window.length === 1 ? 'is' : 'are'} inside the frozen window (${days} working ${days === 1 ? 'day' : 'days'})`);
+      parts.push(
+        `${listDates(window)} ${window.length === 1 ? 'is' : 'are'} inside the frozen window (${days} working ${days === 1 ? 'day' : 'days'})`,
+      );
     }
-    if (past.length > 0) parts.push(`${listDates(past)} ${past.length === 1 ? 'is' : 'are'} before today and count as built`);
+    if (past.length > 0)
+      parts.push(`${listDates(past)} ${past.length === 1 ? 'is' : 'are'} before today and count as built`);
     return `${parts.join('; ')}. Only a deliberate planner change may alter ${dates.length === 1 ? 'it' : 'them'}: confirm it with allowFrozen.`;
   }
 }

@@ -19,14 +19,19 @@ import { plantToday } from '../planning/plan-dates';
 import { SequenceService } from './sequence.service';
 
 /** Build sequence routes: everyone but suppliers reads, admin and planner change. */
-export function createSequenceRouter(dataSource: DataSource, registry: OpenAPIRegistry, today: () => IsoDate = plantToday): Router {
+export function createSequenceRouter(
+  dataSource: DataSource,
+  registry: OpenAPIRegistry,
+  today: () => IsoDate = plantToday,
+): Router {
   const router = Router();
   const service = new SequenceService(dataSource, today);
 
   defineRoute(router, registry, {
     method: 'get',
     path: '/sequence',
-    summary: 'Units by day and position for the working days from `from` (default today) to `to` (default 10 working days)',
+    summary:
+      'Units by day and position for the working days from `from` (default today) to `to` (default 10 working days)',
     access: READ_ROLES,
     query: sequenceQuerySchema,
     response: sequenceBoardSchema,
@@ -55,7 +60,8 @@ export function createSequenceRouter(dataSource: DataSource, registry: OpenAPIRe
   defineRoute(router, registry, {
     method: 'put',
     path: '/sequence/days',
-    summary: 'Give each listed day its full new order of serials (units named from other days move here); all days at once or none',
+    summary:
+      'Give each listed day its full new order of serials (units named from other days move here); all days at once or none',
     access: SEQUENCE_ROLES,
     body: resequenceRequestSchema,
     response: resequenceResponseSchema,

@@ -38,7 +38,14 @@ interface Move {
 }
 
 function toUnit(entry: SequenceEntryEntity): SequenceUnit {
-  return { id: entry.id, date: entry.date, sequence: entry.sequence, model: entry.model, serial: entry.serial, qty: entry.qty };
+  return {
+    id: entry.id,
+    date: entry.date,
+    sequence: entry.sequence,
+    model: entry.model,
+    serial: entry.serial,
+    qty: entry.qty,
+  };
 }
 
 function loadOf(units: { qty: number }[]): number {
@@ -60,11 +67,19 @@ function groupByDate(entries: SequenceEntryEntity[]): Map<string, SequenceEntryE
 }
 
 function frozenWindowError(rules: SequenceRules, dates: IsoDate[]): AppError {
-  return new AppError(409, 'frozen_window', rules.frozenMessage(dates), dates.map((date) => ({ date, past: rules.isPast(date) })));
+  return new AppError(
+    409,
+    'frozen_window',
+    rules.frozenMessage(dates),
+    dates.map((date) => ({ date, past: rules.isPast(date) })),
+  );
 }
 
 function overCapacityError(overloaded: { date: string; load: number; capacity: number }[]): AppError {
-  const sentences = overloaded.map(({ date, load, capacity }) => `${listDates([date])} would hold ${load} units, over the daily capacity of ${capacity}`);
+  const sentences = overloaded.map(
+    ({ date, load, capacity }) =>
+      `${listDates([date])} would hold ${load} units, over the daily capacity of ${capacity}`,
+  );
   return new AppError(409, 'over_capacity', `${sentences.join('; ')}.`, overloaded);
 }
 
@@ -101,8 +116,15 @@ export class SequenceService {
     const manager = this.dataSource.manager;
     const rules = await this.rules(manager);
     const from = query.from ?? rules.today;
-    const to = query.to ?? addWorkingDays(nextWorkingDay(from, rules.working), (query.days ?? DEFAULT_BOARD_WORKING_DAYS) - 1, rules.working);
-    if (to < from) throw new BadRequestError('to is before from.', [{ path: ['to'], message: 'must not be before from' }]);
+    const to =
+      query.to ??
+      addWorkingDays(
+        nextWorkingDay(from, rules.working),
+        (query.days ?? DEFAULT_BOARD_WORKING_DAYS) - 1,
+        rules.working,
+      );
+    if (to < from)
+      throw new BadRequestError('to is before from.', [{ path: ['to'], message: 'must not be before from' }]);
     if (toDayNumber(to) - toDayNumber(from) > MAX_BOARD_CALENDAR_DAYS) {
       throw new BadRequestError(`Show at most ${MAX_BOARD_CALENDAR_DAYS} days at once.`, [
         { path: ['to'], message: `at most ${MAX_BOARD_CALENDAR_DAYS} days after from` },
@@ -155,10 +177,13 @@ export class SequenceService {
     return this.dataSource.transaction(async (manager) => {
       const rules = await this.rules(manager);
       const named = new Set(request.days.flatMap((day) => day.serials));
-      const namedEntries = named.size > 0 ? await manager.find(SequenceEntryEntity, { where: { serial: In([...named]) } }) : [];
+      const namedEntries =
+        named.size > 0 ? await manager.find(SequenceEntryEntity, { where: { serial: In([...named]) } }) : [];
       const known = new Set(namedEntries.map((entry) => entry.serial));
       const unknown = request.days.flatMap((day, dayIndex) =>
-        day.serials.flatMap((serial, serialIndex) => (known.has(serial) ? [] : [{ serial, path: ['days', dayIndex, 'serials', serialIndex] }])),
+        day.serials.flatMap((serial, serialIndex) =>
+          known.has(serial) ? [] : [{ serial, path: ['days', dayIndex, 'serials', serialIndex] }],
+        ),
       );
       if (unknown.length > 0) {
         throw new BadRequestError(
@@ -172,19 +197,32 @@ export class SequenceService {
       const entries = await manager.find(SequenceEntryEntity, { where: { date: In(affected) } });
       const bySerial = new Map(entries.map((entry) => [entry.serial, entry]));
       const before = new Map<string, string[]>(affected.map((date) => [date, []]));
-      for (const [date, dayEntries] of groupByDate(entries)) before.set(date, dayEntries.map((entry) => entry.serial));
+      for (const [date, dayEntries] of groupByDate(entries))
+        before.set(
+          date,
+          dayEntries.map((entry) => entry.serial),
+        );
 
       const missing = request.days.flatMap((day, dayIndex) =>
         (before.get(day.date) ?? [])
           .filter((serial) => !named.has(serial))
-          .map((serial) => ({ path: ['days', dayIndex, 'serials'], message: `unit '${serial}' of ${day.date} is missing; name it on a day or remove it` })),
+          .map((serial) => ({
+            path: ['days', dayIndex, 'serials'],
+            message: `unit '${serial}' of ${day.date} is missing; name it on a day or remove it`,
+          })),
       );
       if (missing.length > 0) {
-        throw new BadRequestError(`Every unit of a listed day must keep a place: ${missing.map((issue) => issue.message).join('; ')}.`, missing);
+        throw new BadRequestError(
+          `Every unit of a listed day must keep a place: ${missing.map((issue) => issue.message).join('; ')}.`,
+          missing,
+        );
       }
 
       const after = new Map<string, string[]>(
-        affected.map((date) => [date, listed.get(date) ?? (before.get(date) ?? []).filter((serial) => !named.has(serial))]),
+        affected.map((date) => [
+          date,
+          listed.get(date) ?? (before.get(date) ?? []).filter((serial) => !named.has(serial)),
+        ]),
       );
       const changed = affected.filter((date) => !sameOrder(before.get(date) ?? [], after.get(date) ?? [])).sort();
       if (changed.length === 0) return { days: [] };
@@ -205,7 +243,12 @@ export class SequenceService {
         for (const [index, serial] of after.get(date)!.entries()) {
           const entry = bySerial.get(serial)!;
           if (entry.date === date && entry.sequence === index + 1) continue;
-          moves.push({ serial, model: entry.model, from: { date: entry.date, sequence: entry.sequence }, to: { date, sequence: index + 1 } });
+          moves.push({
+            serial,
+            model: entry.model,
+            from: { date: entry.date, sequence: entry.sequence },
+            to: { date, sequence: index + 1 },
+          });
           await manager.update(SequenceEntryEntity, { id: entry.id }, { date, sequence: index + 1 });
           entry.date = date;
           entry.sequence = index + 1;
@@ -219,22 +262,40 @@ export class SequenceService {
         changes: { days: changed, moves, ...(frozen.length > 0 && { frozenDaysChanged: frozen }) },
       });
       await bumpPlanningVersion(manager);
-      return { days: changed.map((date) => this.describeDay(rules, date, after.get(date)!.map((serial) => bySerial.get(serial)!))) };
+      return {
+        days: changed.map((date) =>
+          this.describeDay(
+            rules,
+            date,
+            after.get(date)!.map((serial) => bySerial.get(serial)!),
+          ),
+        ),
+      };
     });
   }
 
   /** A day off the calendar (or out of range) may only lose units; it never takes or reorders them. */
-  private checkDates(rules: SequenceRules, request: ResequenceRequest, changed: string[], before: Map<string, string[]>, after: Map<string, string[]>): void {
+  private checkDates(
+    rules: SequenceRules,
+    request: ResequenceRequest,
+    changed: string[],
+    before: Map<string, string[]>,
+    after: Map<string, string[]>,
+  ): void {
     const issues = changed.flatMap((date) => {
       const problem = rules.dateProblem(date);
       if (!problem) return [];
       const kept = new Set(after.get(date));
-      const onlyLoses = sameOrder((before.get(date) ?? []).filter((serial) => kept.has(serial)), after.get(date) ?? []);
+      const onlyLoses = sameOrder(
+        (before.get(date) ?? []).filter((serial) => kept.has(serial)),
+        after.get(date) ?? [],
+      );
       if (onlyLoses) return [];
       const dayIndex = request.days.findIndex((day) => day.date === date);
       return [{ path: ['days', dayIndex, 'date'], message: problem }];
     });
-    if (issues.length > 0) throw new BadRequestError(`Units cannot go there: ${issues.map((issue) => issue.message).join('; ')}.`, issues);
+    if (issues.length > 0)
+      throw new BadRequestError(`Units cannot go there: ${issues.map((issue) => issue.message).join('; ')}.`, issues);
   }
 
   /** POST /api/sequence/units: a new unit at the end of a day, checked as the schedule import checks a row. */
@@ -247,31 +308,48 @@ export class SequenceService {
       if (dateProblem) issues.push({ path: ['date'], message: dateProblem });
       const part = await manager.findOneBy(PartEntity, { partNumber: request.model });
       if (!part) issues.push({ path: ['model'], message: `unknown model '${request.model}'` });
-      else if (part.source !== 'end_item') issues.push({ path: ['model'], message: `'${request.model}' is a ${part.source} part, not an end item` });
+      else if (part.source !== 'end_item')
+        issues.push({ path: ['model'], message: `'${request.model}' is a ${part.source} part, not an end item` });
       if (issues.length > 0) throw new BadRequestError(issues.map((issue) => issue.message).join('; '), issues);
 
       const taken = await manager.findOneBy(SequenceEntryEntity, { serial: request.serial });
       if (taken) {
-        throw new ConflictError(`Serial ${request.serial} is already in the sequence (${taken.date}, position ${taken.sequence}).`, [
-          { path: ['serial'], message: `already used on ${taken.date}, position ${taken.sequence}` },
-        ]);
+        throw new ConflictError(
+          `Serial ${request.serial} is already in the sequence (${taken.date}, position ${taken.sequence}).`,
+          [{ path: ['serial'], message: `already used on ${taken.date}, position ${taken.sequence}` }],
+        );
       }
       if (rules.isFrozen(request.date) && !request.allowFrozen) throw frozenWindowError(rules, [request.date]);
-      const day = await manager.find(SequenceEntryEntity, { where: { date: request.date }, order: { sequence: 'ASC' } });
+      const day = await manager.find(SequenceEntryEntity, {
+        where: { date: request.date },
+        order: { sequence: 'ASC' },
+      });
       const load = loadOf(day) + qty;
       const capacity = rules.settings.dailyCapacity;
       if (load > capacity) throw overCapacityError([{ date: request.date, load, capacity }]);
 
       const sequence = day.reduce((last, entry) => Math.max(last, entry.sequence), 0) + 1;
       const entry = await manager.save(
-        manager.create(SequenceEntryEntity, { date: request.date, sequence, model: request.model, serial: request.serial, qty }),
+        manager.create(SequenceEntryEntity, {
+          date: request.date,
+          sequence,
+          model: request.model,
+          serial: request.serial,
+          qty,
+        }),
       );
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'create',
         entity: 'sequence',
         entityKey: entry.serial,
-        changes: { date: entry.date, sequence, model: entry.model, qty, ...(rules.isFrozen(entry.date) && { frozenDayChanged: entry.date }) },
+        changes: {
+          date: entry.date,
+          sequence,
+          model: entry.model,
+          qty,
+          ...(rules.isFrozen(entry.date) && { frozenDayChanged: entry.date }),
+        },
       });
       await bumpPlanningVersion(manager);
       return toUnit(entry);
@@ -289,7 +367,8 @@ export class SequenceService {
       await manager.delete(SequenceEntryEntity, { id: entry.id });
       const rest = await manager.find(SequenceEntryEntity, { where: { date: entry.date }, order: { sequence: 'ASC' } });
       for (const [index, unit] of rest.entries()) {
-        if (unit.sequence !== index + 1) await manager.update(SequenceEntryEntity, { id: unit.id }, { sequence: index + 1 });
+        if (unit.sequence !== index + 1)
+          await manager.update(SequenceEntryEntity, { id: unit.id }, { sequence: index + 1 });
       }
       await recordAudit(manager, {
         actorEmail: actor.email,

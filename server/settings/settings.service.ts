@@ -7,7 +7,11 @@ export async function readSetting<T>(manager: EntityManager, key: string, fallba
   return row ? (row.value as T) : fallback;
 }
 
-export async function writeSetting(manager: EntityManager, key: string, value: object | number | string | boolean): Promise<void> {
+export async function writeSetting(
+  manager: EntityManager,
+  key: string,
+  value: object | number | string | boolean,
+): Promise<void> {
   await manager.upsert(SettingEntity, { key, value }, ['key']);
 }
 

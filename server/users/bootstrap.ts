@@ -13,6 +13,12 @@ export async function ensureAdmin(dataSource: DataSource, email: string, passwor
   const existing = await users.findOneBy({ email: normalised });
   if (existing) return;
   await users.save(
-    users.create({ email: normalised, name: 'Administrator', role: 'admin', passwordHash: await hashPassword(password), supplierCode: null }),
+    users.create({
+      email: normalised,
+      name: 'Administrator',
+      role: 'admin',
+      passwordHash: await hashPassword(password),
+      supplierCode: null,
+    }),
   );
 }

@@ -34,7 +34,13 @@ export class UsersService {
       }
       if (supplierCode) await assertSupplierExists(manager.getRepository(SupplierEntity), supplierCode);
       const user = await manager.save(
-        manager.create(UserEntity, { email: request.email, name: request.name, role: request.role, passwordHash, supplierCode }),
+        manager.create(UserEntity, {
+          email: request.email,
+          name: request.name,
+          role: request.role,
+          passwordHash,
+          supplierCode,
+        }),
       );
       await recordAudit(manager, {
         actorEmail: actor?.email ?? null,
@@ -76,7 +82,11 @@ export class UsersService {
         action: 'update',
         entity: 'user',
         entityKey: user.email,
-        changes: { before, after: { role: user.role, active: user.active, supplierCode }, passwordChanged: !!passwordHash },
+        changes: {
+          before,
+          after: { role: user.role, active: user.active, supplierCode },
+          passwordChanged: !!passwordHash,
+        },
       });
       return toUser(user);
     });
@@ -85,6 +95,8 @@ export class UsersService {
 
 async function assertSupplierExists(repository: { existsBy(where: object): Promise<boolean> }, code: string) {
   if (!(await repository.existsBy({ code }))) {
-    throw new BadRequestError(`Unknown supplier ${code}.`, [{ path: ['supplierCode'], message: `no supplier ${code}` }]);
+    throw new BadRequestError(`Unknown supplier ${code}.`, [
+      { path: ['supplierCode'], message: `no supplier ${code}` },
+    ]);
   }
 }

@@ -166,7 +166,12 @@ export function findEffectivityOverlaps(lines: readonly PlanningBomLine[]): Effe
       for (let j = i + 1; j < group.length; j += 1) {
         const first = lines[group[i]];
         if (windowsIntersect(first, lines[group[j]])) {
-          overlaps.push({ parent: first.parent, component: first.component, firstIndex: group[i], secondIndex: group[j] });
+          overlaps.push({
+            parent: first.parent,
+            component: first.component,
+            firstIndex: group[i],
+            secondIndex: group[j],
+          });
         }
       }
     }

@@ -136,9 +136,7 @@ function toDecimal(value: number): Decimal {
 }
 
 function decimalToRational({ digits, exponent }: Decimal): Rational {
-  return exponent >= 0
-    ? rational(digits * 10n ** BigInt(exponent), 1n)
-    : rational(digits, 10n ** BigInt(-exponent));
+  return exponent >= 0 ? rational(digits * 10n ** BigInt(exponent), 1n) : rational(digits, 10n ** BigInt(-exponent));
 }
 
 function decimalToString({ digits, exponent }: Decimal): string {

@@ -175,7 +175,8 @@ function compareText(a: string, b: string): number {
 }
 
 function requireIsoDate(date: unknown, where: string): number {
-  if (!isIsoDate(date)) throw new PlanInputError(`${where}: not a date in the form YYYY-MM-DD: ${JSON.stringify(date)}`);
+  if (!isIsoDate(date))
+    throw new PlanInputError(`${where}: not a date in the form YYYY-MM-DD: ${JSON.stringify(date)}`);
   return toDayNumber(date);
 }
 
@@ -293,7 +294,8 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     if (!Number.isInteger(part.leadTimeDays) || part.leadTimeDays < 0) {
       throw new PlanInputError(`Part ${part.partNumber}: lead time must be a whole number of working days ≥ 0`);
     }
-    if (!Number.isFinite(part.onHand)) throw new PlanInputError(`Part ${part.partNumber}: on-hand must be a finite number`);
+    if (!Number.isFinite(part.onHand))
+      throw new PlanInputError(`Part ${part.partNumber}: on-hand must be a finite number`);
     indexOf.set(part.partNumber, index);
   });
   const partIndex = (partNumber: string, where: string): number => {
@@ -435,8 +437,9 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   function queueLacks(boughtNeeds: Need[]): Map<number, number> | null {
     let lacks: Map<number, number> | null = null;
     // Sorted by part, so the needs of one part (direct and through made parts) sit together.
-    const needs = boughtNeeds.length > 1 ? boughtNeeds.slice().sort((a, b) => a.part - b.part || a.bucket - b.bucket) : boughtNeeds;
-    for (let first = 0; first < needs.length; ) {
+    const needs =
+      boughtNeeds.length > 1 ? boughtNeeds.slice().sort((a, b) => a.part - b.part || a.bucket - b.bucket) : boughtNeeds;
+    for (let first = 0; first < needs.length;) {
       const part = needs[first].part;
       let end = first + 1;
       while (end < needs.length && needs[end].part === part) end += 1;
@@ -476,7 +479,9 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     const unit: UnitAtRisk = { ...unitRef(entry.slot), lacks: [] };
     // Parts that stop the unit now first, then those it would lack behind the units ahead.
     const lacking = [...evaluation.lacks.keys()].sort((a, b) => rankOf[a] - rankOf[b]);
-    const behindOnly = [...(behind?.keys() ?? [])].filter((part) => !evaluation.lacks.has(part)).sort((a, b) => rankOf[a] - rankOf[b]);
+    const behindOnly = [...(behind?.keys() ?? [])]
+      .filter((part) => !evaluation.lacks.has(part))
+      .sort((a, b) => rankOf[a] - rankOf[b]);
     for (const part of lacking.concat(behindOnly)) {
       const now = evaluation.lacks.get(part);
       const qty = now ?? (behind?.get(part) as number);
@@ -500,7 +505,8 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   const todayDay = requireIsoDate(today, 'Today');
   const frozenWindowDays = Math.max(0, Math.floor(input.frozenWindowDays ?? DEFAULT_FROZEN_WINDOW_DAYS));
   // The window starts on the first working day on or after today: today's own build is frozen too.
-  const frozenEnd = frozenWindowDays > 0 ? calendar.addWorking(calendar.nextWorking(todayDay), frozenWindowDays - 1) : null;
+  const frozenEnd =
+    frozenWindowDays > 0 ? calendar.addWorking(calendar.nextWorking(todayDay), frozenWindowDays - 1) : null;
   const workingDaysAfterToday = (day: number): number => {
     let count = 0;
     for (let d = todayDay + 1; d <= day; d += 1) if (calendar.isWorking(d)) count += 1;

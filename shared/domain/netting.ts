@@ -69,7 +69,9 @@ export function netPartRow(
   for (let d = 0; d < days; d += 1) {
     const grossRequirement = round(gross[base + d]);
     gross[base + d] = grossRequirement;
-    available = round(receipts === undefined ? available - grossRequirement : available + receipts[d] - grossRequirement);
+    available = round(
+      receipts === undefined ? available - grossRequirement : available + receipts[d] - grossRequirement,
+    );
     const shortfall = safetyStock - available;
     let netRequirement = 0;
     if (shortfall > epsilon) {

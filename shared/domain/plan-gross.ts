@@ -9,7 +9,10 @@ import type { PlanResult } from './types';
 const grossRowsByResult = new WeakMap<PlanResult, (partNumber: string) => ArrayLike<number> | undefined>();
 
 /** Records how to read the gross requirement row of each part of `result`. */
-export function registerGrossRows(result: PlanResult, rowOf: (partNumber: string) => ArrayLike<number> | undefined): void {
+export function registerGrossRows(
+  result: PlanResult,
+  rowOf: (partNumber: string) => ArrayLike<number> | undefined,
+): void {
   grossRowsByResult.set(result, rowOf);
 }
 

@@ -70,7 +70,8 @@ function lineWhere(line: PlanningBomLine, row: number): string {
 
 /** The day number, or a PlanInputError naming `where` when the date was not valid. */
 export function requireDate(dayNumber: number | undefined, date: unknown, where: string): number {
-  if (dayNumber === undefined) throw new PlanInputError(`${where}: not a date in the form YYYY-MM-DD: ${JSON.stringify(date)}`);
+  if (dayNumber === undefined)
+    throw new PlanInputError(`${where}: not a date in the form YYYY-MM-DD: ${JSON.stringify(date)}`);
   return dayNumber;
 }
 
@@ -163,7 +164,9 @@ export function buildPlanModel(input: PlanInput): PlanModel {
       throw new PlanInputError(`${lineWhere(line, row)} names parent ${line.parent}, which is not in the part list`);
     }
     if (component === undefined) {
-      throw new PlanInputError(`${lineWhere(line, row)} names component ${line.component}, which is not in the part list`);
+      throw new PlanInputError(
+        `${lineWhere(line, row)} names component ${line.component}, which is not in the part list`,
+      );
     }
     if (!allFinite(line.qtyPer, line.scrapPct, 0)) {
       requireFinite(line.qtyPer, lineWhere(line, row), 'quantity per');
@@ -192,9 +195,13 @@ export function buildPlanModel(input: PlanInput): PlanModel {
     lineComponent[slot] = componentOf[row];
     lineFactor[slot] = line.qtyPer * (1 + line.scrapPct / 100);
     lineFrom[slot] =
-      line.effectiveFrom == null ? -Infinity : requireDate(dayNumberOf(line.effectiveFrom), line.effectiveFrom, lineWhere(line, row));
+      line.effectiveFrom == null
+        ? -Infinity
+        : requireDate(dayNumberOf(line.effectiveFrom), line.effectiveFrom, lineWhere(line, row));
     lineTo[slot] =
-      line.effectiveTo == null ? Infinity : requireDate(dayNumberOf(line.effectiveTo), line.effectiveTo, lineWhere(line, row));
+      line.effectiveTo == null
+        ? Infinity
+        : requireDate(dayNumberOf(line.effectiveTo), line.effectiveTo, lineWhere(line, row));
   });
 
   // Step k back from the first bucket; only reached for past-due releases, and then often.

@@ -41,7 +41,8 @@ function loadSequence(input: PlanInput, model: PlanModel, tables: NettingTables)
     const day = model.dayNumberOf(slot.date);
     if (part === undefined || day === undefined || !Number.isFinite(slot.qty)) {
       const where = `Sequence slot ${row + 1} (${slot.date} #${slot.sequence})`;
-      if (part === undefined) throw new PlanInputError(`${where} builds model ${slot.model}, which is not in the part list`);
+      if (part === undefined)
+        throw new PlanInputError(`${where} builds model ${slot.model}, which is not in the part list`);
       if (!Number.isFinite(slot.qty)) throw new PlanInputError(`${where}: quantity must be a finite number`);
       requireDate(day, slot.date, where);
     }
@@ -185,9 +186,12 @@ export function computePlan(input: PlanInput): PlanResult {
       date: fromDayNumber(entry.dayNumber),
       qty: entry.qty,
     }));
-    parts.set(part.partNumber, partPlanWithLazyBuckets(part.partNumber, model.lowLevelCode[index], pastDue, () =>
-      bucketsOf(model, tables, index),
-    ));
+    parts.set(
+      part.partNumber,
+      partPlanWithLazyBuckets(part.partNumber, model.lowLevelCode[index], pastDue, () =>
+        bucketsOf(model, tables, index),
+      ),
+    );
   });
   const result: PlanResult = { days: model.days, parts };
   registerGrossRows(result, (partNumber) => {

@@ -25,7 +25,9 @@ export function releaseNumber(supplierCode: string, releaseDate: IsoDate): strin
 export function kanbanReplenishmentWorkingDays(cycle: DeliveryCycle): number {
   const { days, deliveries, delay } = cycle;
   if (![days, deliveries, delay].every(Number.isInteger) || days < 1 || deliveries < 1 || delay < 0) {
-    throw new RangeError(`A delivery cycle needs whole days ≥ 1, deliveries ≥ 1 and delay ≥ 0, got ${days}-${deliveries}-${delay}`);
+    throw new RangeError(
+      `A delivery cycle needs whole days ≥ 1, deliveries ≥ 1 and delay ≥ 0, got ${days}-${deliveries}-${delay}`,
+    );
   }
   // ⌈a / b⌉ for whole a, b ≥ 1 as ⌊(a + b − 1) / b⌋: no fractional division involved.
   return Math.max(1, Math.floor((days * (1 + delay) + deliveries - 1) / deliveries));

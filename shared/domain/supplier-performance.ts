@@ -135,7 +135,10 @@ export interface SupplierMonthPerformance {
 
 /** Usable quantity of a line received on or before its need date. */
 export function usableByNeedDate(line: Pick<PerformanceLine, 'needDate' | 'receipts'>): number {
-  return line.receipts.reduce((sum, receipt) => (receipt.usable && receipt.receivedOn <= line.needDate ? sum + receipt.qty : sum), 0);
+  return line.receipts.reduce(
+    (sum, receipt) => (receipt.usable && receipt.receivedOn <= line.needDate ? sum + receipt.qty : sum),
+    0,
+  );
 }
 
 /** Hours from sending a release to the supplier's answer; null when either instant is missing. */
@@ -192,7 +195,17 @@ export function supplierPerformance(input: PerformanceInput): SupplierMonthPerfo
     const key = `${supplierCode}\u0000${month}`;
     let bucket = buckets.get(key);
     if (!bucket) {
-      bucket = { supplierCode, month, lines: 0, onTimeLines: 0, orderedQty: 0, filledQty: 0, releases: 0, unansweredReleases: 0, hours: [] };
+      bucket = {
+        supplierCode,
+        month,
+        lines: 0,
+        onTimeLines: 0,
+        orderedQty: 0,
+        filledQty: 0,
+        releases: 0,
+        unansweredReleases: 0,
+        hours: [],
+      };
       buckets.set(key, bucket);
     }
     return bucket;
@@ -218,7 +231,9 @@ export function supplierPerformance(input: PerformanceInput): SupplierMonthPerfo
   }
 
   return [...buckets.values()]
-    .sort((a, b) => (a.supplierCode === b.supplierCode ? a.month.localeCompare(b.month) : a.supplierCode.localeCompare(b.supplierCode)))
+    .sort((a, b) =>
+      a.supplierCode === b.supplierCode ? a.month.localeCompare(b.month) : a.supplierCode.localeCompare(b.supplierCode),
+    )
     .map((bucket) => ({
       supplierCode: bucket.supplierCode,
       month: bucket.month,

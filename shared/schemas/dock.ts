@@ -19,7 +19,10 @@ export const dockLineSchema = z.object({
   description: z.string(),
   uom: z.string(),
   qty: z.number().meta({ description: 'Quantity requested.' }),
-  confirmedQty: z.number().nullable().meta({ description: 'Quantity the supplier confirmed; the line is ordered for this when set.' }),
+  confirmedQty: z
+    .number()
+    .nullable()
+    .meta({ description: 'Quantity the supplier confirmed; the line is ordered for this when set.' }),
   receivedQty: z.number(),
   open: z.boolean(),
   cardNumber: z.string().optional().meta({ description: 'The kanban card that asked for this line.' }),

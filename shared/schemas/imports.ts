@@ -20,8 +20,18 @@ export const IMPORT_LAYOUTS = {
   },
   parts: {
     columns: [
-      'part_number', 'description', 'uom', 'source', 'supplier_code', 'lead_time_days', 'pack_qty', 'on_hand',
-      'replenishment', 'safety_stock', 'point_of_use', 'hazardous',
+      'part_number',
+      'description',
+      'uom',
+      'source',
+      'supplier_code',
+      'lead_time_days',
+      'pack_qty',
+      'on_hand',
+      'replenishment',
+      'safety_stock',
+      'point_of_use',
+      'hazardous',
     ],
     required: ['part_number', 'description', 'source'],
   },
@@ -49,7 +59,15 @@ export type ImportLayout = { columns: readonly string[]; required: readonly stri
  */
 export const IMPORT_DEFAULTS = {
   suppliers: { cycle_days: 1, deliveries_per_cycle: 1, delivery_delay: 1 },
-  parts: { uom: 'H87', supplier_code: null, pack_qty: 1, replenishment: null, safety_stock: 0, point_of_use: null, hazardous: false },
+  parts: {
+    uom: 'H87',
+    supplier_code: null,
+    pack_qty: 1,
+    replenishment: null,
+    safety_stock: 0,
+    point_of_use: null,
+    hazardous: false,
+  },
   bom: { scrap_pct: 0, effective_from: null, effective_to: null },
   schedule: { qty: 1 },
   'on-hand': {},
@@ -99,15 +117,20 @@ function checkWith<T>(field: z.ZodType<T>, value: unknown, raw: string): CellOut
 }
 
 // Nullable domain fields are given a non-empty string here, so their output is never null.
-const text = (field: z.ZodType<string | null>): CellParser<string> => (raw) => checkWith(field, raw, raw) as CellOutcome<string>;
+const text =
+  (field: z.ZodType<string | null>): CellParser<string> =>
+  (raw) =>
+    checkWith(field, raw, raw) as CellOutcome<string>;
 
 const choice =
   <T extends string>(field: z.ZodType<T | null>): CellParser<T> =>
   (raw) =>
     checkWith(field, raw, raw) as CellOutcome<T>;
 
-const numberIn = (field: z.ZodType<number>): CellParser<number> => (raw) =>
-  NUMBER.test(raw) ? checkWith(field, Number(raw), raw) : { ok: false, message: `'${raw}' is not a number` };
+const numberIn =
+  (field: z.ZodType<number>): CellParser<number> =>
+  (raw) =>
+    NUMBER.test(raw) ? checkWith(field, Number(raw), raw) : { ok: false, message: `'${raw}' is not a number` };
 
 const isoDate: CellParser<string> = (raw) => checkWith(isoDateSchema, raw, raw);
 
@@ -124,30 +147,36 @@ const flag: CellParser<boolean> = (raw) => {
  * decides between the default and the existing value.
  */
 function requiredCell<T>(parse: CellParser<T>) {
-  return z.string().optional().transform((raw, context): T => {
-    if (raw === undefined || raw === '') {
-      context.addIssue({ code: 'custom', message: 'is required' });
-      return z.NEVER;
-    }
-    const outcome = parse(raw);
-    if (!outcome.ok) {
-      context.addIssue({ code: 'custom', message: outcome.message });
-      return z.NEVER;
-    }
-    return outcome.value;
-  });
+  return z
+    .string()
+    .optional()
+    .transform((raw, context): T => {
+      if (raw === undefined || raw === '') {
+        context.addIssue({ code: 'custom', message: 'is required' });
+        return z.NEVER;
+      }
+      const outcome = parse(raw);
+      if (!outcome.ok) {
+        context.addIssue({ code: 'custom', message: outcome.message });
+        return z.NEVER;
+      }
+      return outcome.value;
+    });
 }
 
 function optionalCell<T>(parse: CellParser<T>) {
-  return z.string().optional().transform((raw, context): T | undefined => {
-    if (raw === undefined || raw === '') return undefined;
-    const outcome = parse(raw);
-    if (!outcome.ok) {
-      context.addIssue({ code: 'custom', message: outcome.message });
-      return z.NEVER;
-    }
-    return outcome.value;
-  });
+  return z
+    .string()
+    .optional()
+    .transform((raw, context): T | undefined => {
+      if (raw === undefined || raw === '') return undefined;
+      const outcome = parse(raw);
+      if (!outcome.ok) {
+        context.addIssue({ code: 'custom', message: outcome.message });
+        return z.NEVER;
+      }
+      return outcome.value;
+    });
 }
 
 const supplier = supplierSchema.shape;

@@ -1,8 +1,18 @@
 import { z } from 'zod';
 
 export const isoDateSchema = z.iso.date({ message: 'a date as YYYY-MM-DD' });
-const code = z.string().trim().min(1).max(20).regex(/^[A-Za-z0-9._-]+$/, 'letters, digits, . _ - only');
-const partNumber = z.string().trim().min(1).max(40).regex(/^[A-Za-z0-9._/-]+$/, 'letters, digits, . _ / - only');
+const code = z
+  .string()
+  .trim()
+  .min(1)
+  .max(20)
+  .regex(/^[A-Za-z0-9._-]+$/, 'letters, digits, . _ - only');
+const partNumber = z
+  .string()
+  .trim()
+  .min(1)
+  .max(40)
+  .regex(/^[A-Za-z0-9._/-]+$/, 'letters, digits, . _ / - only');
 
 export const PART_SOURCES = ['buy', 'make', 'end_item'] as const;
 export const REPLENISHMENT_METHODS = ['kanban', 'scheduled'] as const;

@@ -26,9 +26,14 @@ export const MAX_RECEIPT_QTY = 1_000_000_000;
 export const receiptRequestSchema = z
   .object({
     releaseLineId: z.number().int().positive(),
-    qty: z.number().min(0).max(MAX_RECEIPT_QTY).meta({ description: 'Counted quantity, in the part’s unit of measure.' }),
+    qty: z
+      .number()
+      .min(0)
+      .max(MAX_RECEIPT_QTY)
+      .meta({ description: 'Counted quantity, in the part’s unit of measure.' }),
     discrepancy: discrepancySchema.nullable().optional().meta({
-      description: '`damaged` and `wrong_part` are recorded but not added to usable on-hand (nor to the line’s received quantity).',
+      description:
+        '`damaged` and `wrong_part` are recorded but not added to usable on-hand (nor to the line’s received quantity).',
     }),
     note: z.string().trim().max(1000).nullable().optional(),
     close: z.boolean().optional().meta({
@@ -38,7 +43,11 @@ export const receiptRequestSchema = z
   .superRefine((body, context) => {
     // A count of nothing is only news when it says what went wrong (nothing came: short).
     if (body.qty === 0 && !body.discrepancy) {
-      context.addIssue({ code: 'custom', path: ['qty'], message: 'must be greater than 0, or give the discrepancy (e.g. short)' });
+      context.addIssue({
+        code: 'custom',
+        path: ['qty'],
+        message: 'must be greater than 0, or give the discrepancy (e.g. short)',
+      });
     }
   });
 export type ReceiptRequest = z.infer<typeof receiptRequestSchema>;

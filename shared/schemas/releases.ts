@@ -2,7 +2,16 @@ import { z } from 'zod';
 import { isoDateSchema } from './master-data';
 
 /** Life of a release: draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
-export const RELEASE_STATUSES = ['draft', 'sent', 'confirmed', 'exception', 'shipped', 'partial', 'received', 'cancelled'] as const;
+export const RELEASE_STATUSES = [
+  'draft',
+  'sent',
+  'confirmed',
+  'exception',
+  'shipped',
+  'partial',
+  'received',
+  'cancelled',
+] as const;
 export const releaseStatusSchema = z.enum(RELEASE_STATUSES);
 export type ReleaseStatus = z.infer<typeof releaseStatusSchema>;
 

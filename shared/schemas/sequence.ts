@@ -25,16 +25,16 @@ const queryFlag = z
   .transform((value) => value === 'true' || value === '1');
 
 export const sequenceSettingsSchema = z.object({
-  frozenWindowDays: z
+  frozenWindowDays: z.number().int().min(0).max(FROZEN_WINDOW_MAX_DAYS).meta({
+    description:
+      'Working days from today (today is day 1 when it is a working day) that only a deliberate planner change may touch; 0 freezes nothing.',
+  }),
+  dailyCapacity: z
     .number()
     .int()
-    .min(0)
-    .max(FROZEN_WINDOW_MAX_DAYS)
-    .meta({
-      description:
-        'Working days from today (today is day 1 when it is a working day) that only a deliberate planner change may touch; 0 freezes nothing.',
-    }),
-  dailyCapacity: z.number().int().min(1).max(DAILY_CAPACITY_MAX).meta({ description: 'Units the line builds per working day.' }),
+    .min(1)
+    .max(DAILY_CAPACITY_MAX)
+    .meta({ description: 'Units the line builds per working day.' }),
 });
 export type SequenceSettings = z.infer<typeof sequenceSettingsSchema>;
 
@@ -91,7 +91,9 @@ export type SequenceBoard = z.infer<typeof sequenceBoardSchema>;
 export const allowFrozenSchema = z
   .boolean()
   .optional()
-  .meta({ description: 'Set to change days inside the frozen window on purpose; without it such a change is refused (409).' });
+  .meta({
+    description: 'Set to change days inside the frozen window on purpose; without it such a change is refused (409).',
+  });
 
 /** Body of PUT /api/sequence/days: the full new order of each listed day. */
 export const resequenceRequestSchema = z
@@ -111,7 +113,8 @@ export const resequenceRequestSchema = z
     const dates = new Set<string>();
     const serials = new Map<string, string>();
     body.days.forEach((day, dayIndex) => {
-      if (dates.has(day.date)) context.addIssue({ code: 'custom', path: ['days', dayIndex, 'date'], message: `${day.date} is listed twice` });
+      if (dates.has(day.date))
+        context.addIssue({ code: 'custom', path: ['days', dayIndex, 'date'], message: `${day.date} is listed twice` });
       dates.add(day.date);
       day.serials.forEach((serial, serialIndex) => {
         const first = serials.get(serial);

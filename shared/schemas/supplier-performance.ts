@@ -22,14 +22,28 @@ export const supplierMonthPerformanceSchema = z.object({
   supplierCode: z.string(),
   supplierName: z.string(),
   month: z.string().meta({ description: 'YYYY-MM of the lines’ need date.' }),
-  lines: z.number().int().meta({ description: 'Release lines due in the month (need date passed), of releases not cancelled.' }),
-  onTimeLines: z.number().int().meta({ description: 'Lines whose usable received quantity reached the ordered quantity by the need date.' }),
+  lines: z
+    .number()
+    .int()
+    .meta({ description: 'Release lines due in the month (need date passed), of releases not cancelled.' }),
+  onTimeLines: z
+    .number()
+    .int()
+    .meta({ description: 'Lines whose usable received quantity reached the ordered quantity by the need date.' }),
   onTimeRate: z.number().nullable(),
   orderedQty: z.number().meta({ description: 'Σ confirmed quantity, else requested quantity.' }),
-  filledQty: z.number().meta({ description: 'Σ usable quantity received by the need date, capped at each line’s ordered quantity.' }),
+  filledQty: z
+    .number()
+    .meta({ description: 'Σ usable quantity received by the need date, capped at each line’s ordered quantity.' }),
   fillRate: z.number().nullable(),
-  releases: z.number().int().meta({ description: 'Releases sent whose earliest need date is in the month and has passed.' }),
-  confirmedReleases: z.number().int().meta({ description: 'Of those, releases the supplier answered (confirmed or proposed changes).' }),
+  releases: z
+    .number()
+    .int()
+    .meta({ description: 'Releases sent whose earliest need date is in the month and has passed.' }),
+  confirmedReleases: z
+    .number()
+    .int()
+    .meta({ description: 'Of those, releases the supplier answered (confirmed or proposed changes).' }),
   unansweredReleases: z.number().int(),
   confirmationHoursMedian: z.number().nullable(),
   confirmationHoursMean: z.number().nullable(),

@@ -13,11 +13,19 @@ export const ROLE_LABELS: Record<Role, string> = {
   viewer: 'Viewer',
 };
 
-const email = z.email().max(254).transform((value) => value.toLowerCase());
+const email = z
+  .email()
+  .max(254)
+  .transform((value) => value.toLowerCase());
 const password = z.string().min(10, 'at least 10 characters').max(200);
 
 export const loginRequestSchema = z.object({
-  email: z.string().trim().min(1).max(254).transform((value) => value.toLowerCase()),
+  email: z
+    .string()
+    .trim()
+    .min(1)
+    .max(254)
+    .transform((value) => value.toLowerCase()),
   password: z.string().min(1).max(200),
 });
 export type LoginRequest = z.infer<typeof loginRequestSchema>;

@@ -61,4 +61,3 @@ export function sizeLoopCards(sizing: KanbanSizeRequest, signal?: AbortSignal): 
 export function scanCard(scan: CardScanRequest): Promise<CardScanResponse> {
   return http.post<CardScanResponse>('/kanban/scans', scan);
 }
-

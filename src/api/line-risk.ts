@@ -11,4 +11,3 @@ export interface LineRiskRange {
 export function getLineRisk(range: LineRiskRange, signal?: AbortSignal): Promise<LineRiskReport> {
   return http.get<LineRiskReport>('/line-risk', { query: { ...range }, signal });
 }
-

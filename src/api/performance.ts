@@ -9,6 +9,9 @@ export interface PerformanceFilter {
 }
 
 /** On-time, fill rate and confirmation latency per supplier and month (GET /api/suppliers/performance). */
-export function getSupplierPerformance(filter: PerformanceFilter, signal?: AbortSignal): Promise<SupplierMonthPerformanceDto[]> {
+export function getSupplierPerformance(
+  filter: PerformanceFilter,
+  signal?: AbortSignal,
+): Promise<SupplierMonthPerformanceDto[]> {
   return http.get<SupplierMonthPerformanceDto[]>('/suppliers/performance', { query: { ...filter }, signal });
 }

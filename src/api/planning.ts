@@ -15,7 +15,11 @@ export function getDemand(query: DemandQuery, signal?: AbortSignal): Promise<Dem
 }
 
 /** The gross-to-net buckets of one part over the horizon, with its past-due releases. */
-export function getPlan(part: string, range: { from: string; to: string }, signal?: AbortSignal): Promise<PlanResponse> {
+export function getPlan(
+  part: string,
+  range: { from: string; to: string },
+  signal?: AbortSignal,
+): Promise<PlanResponse> {
   return http.get<PlanResponse>('/plan', { query: { part, ...range }, signal });
 }
 
@@ -27,5 +31,9 @@ export function downloadDemandCsv(query: DemandQuery): Promise<string> {
 
 /** Queues an e-mail to the supplier with its demand over the horizon attached as CSV. */
 export function sendForecastMail(query: DemandQuery & { supplier: string }): Promise<ForecastMailResponse> {
-  return http.post<ForecastMailResponse>('/demand/forecast-mail', { supplier: query.supplier, from: query.from, to: query.to });
+  return http.post<ForecastMailResponse>('/demand/forecast-mail', {
+    supplier: query.supplier,
+    from: query.from,
+    to: query.to,
+  });
 }

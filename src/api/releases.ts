@@ -1,9 +1,4 @@
-import type {
-  Release,
-  ReleaseJobSettings,
-  ReleasesQuery,
-  RunReleasesResponse,
-} from '@shared/schemas/releases';
+import type { Release, ReleaseJobSettings, ReleasesQuery, RunReleasesResponse } from '@shared/schemas/releases';
 import { http } from './http';
 
 /** Releases, newest release date first, optionally of one status or release date. */

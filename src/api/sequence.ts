@@ -39,5 +39,7 @@ export function addUnit(unit: AddSequenceUnitRequest): Promise<SequenceUnit> {
 
 /** Removes a unit; the units after it close up. */
 export function removeUnit(serial: string, allowFrozen = false): Promise<void> {
-  return http.delete<void>(`/sequence/units/${encodeURIComponent(serial)}`, { query: { allowFrozen: allowFrozen || undefined } });
+  return http.delete<void>(`/sequence/units/${encodeURIComponent(serial)}`, {
+    query: { allowFrozen: allowFrozen || undefined },
+  });
 }

@@ -32,7 +32,6 @@ export const CARD_EVENT_WORDS: Record<CardEvent, string> = {
   receive: 'Receive',
 };
 
-
 /** The unit of measure in words (`kg`, `pcs`); an unknown code shows as it is. */
 export function unitWord(uom: string): string {
   return UNIT_WORDS[uom] ?? uom;
@@ -65,7 +64,8 @@ export interface ProposalLook {
 /** Cards to add or pull so active equals recommended, as the badge shows it. */
 export function proposalLook(recommended: number, active: number): ProposalLook {
   const difference = recommended - active;
-  if (difference > 0) return { action: 'add', count: difference, word: `Add ${difference}`, icon: markRaw(Plus), tone: 'add' };
+  if (difference > 0)
+    return { action: 'add', count: difference, word: `Add ${difference}`, icon: markRaw(Plus), tone: 'add' };
   if (difference < 0) {
     return { action: 'pull', count: -difference, word: `Pull ${-difference}`, icon: markRaw(Minus), tone: 'pull' };
   }

@@ -1,5 +1,14 @@
 import { markRaw, type Component } from 'vue';
-import { Box, Checked, CircleCheck, CircleClose, EditPen, Promotion, Van, WarningFilled } from '@element-plus/icons-vue';
+import {
+  Box,
+  Checked,
+  CircleCheck,
+  CircleClose,
+  EditPen,
+  Promotion,
+  Van,
+  WarningFilled,
+} from '@element-plus/icons-vue';
 import type { ReleaseStatus } from '@shared/schemas/releases';
 
 /**

@@ -19,7 +19,8 @@ export const ROLE_BADGES: Record<Role, { icon: Component; tagType: TagType }> = 
 
 /** One sentence per role on what that person gets done here. */
 export const ROLE_DUTIES: Record<Role, string> = {
-  admin: 'You look after users and roles, the plant calendar, the time of the daily release job and the outbox of notices.',
+  admin:
+    'You look after users and roles, the plant calendar, the time of the daily release job and the outbox of notices.',
   planner: 'You own the build sequence: import and edit it, freeze the next days and watch which units are at risk.',
   buyer: 'You keep parts, suppliers and bills of materials, read demand ahead, size kanban loops and send releases.',
   receiving: 'You check deliveries in at the dock, record counts and discrepancies, and move stock to the line.',

@@ -19,9 +19,7 @@ export function decideAccess(
   }
   if (to.meta.public) return true;
   if (!session.isAuthenticated) {
-    return to.fullPath === '/'
-      ? { name: 'login' }
-      : { name: 'login', query: { redirect: to.fullPath } };
+    return to.fullPath === '/' ? { name: 'login' } : { name: 'login', query: { redirect: to.fullPath } };
   }
   if (!mayEnter(to.meta.roles, session.role)) {
     return { name: 'forbidden', query: { from: to.fullPath } };

@@ -1,5 +1,19 @@
 import { markRaw, type Component } from 'vue';
-import { Aim, Calendar, House, Medal, Message, Refresh, Sort, Tickets, TrendCharts, Upload, User, Van, Warning } from '@element-plus/icons-vue';
+import {
+  Aim,
+  Calendar,
+  House,
+  Medal,
+  Message,
+  Refresh,
+  Sort,
+  Tickets,
+  TrendCharts,
+  Upload,
+  User,
+  Van,
+  Warning,
+} from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { RouteName } from './route-map';
 
@@ -33,7 +47,8 @@ export const navigation: readonly NavigationEntry[] = [
     label: 'Line risk',
     icon: markRaw(Warning),
     roles: ['admin', 'planner', 'buyer', 'viewer'],
-    summary: 'Units of the sequence that cannot be built for want of a bought part, days before it happens, with a rescue for each.',
+    summary:
+      'Units of the sequence that cannot be built for want of a bought part, days before it happens, with a rescue for each.',
   },
   {
     routeName: 'horizon',
@@ -61,7 +76,8 @@ export const navigation: readonly NavigationEntry[] = [
     label: 'Supplier performance',
     icon: markRaw(Medal),
     roles: ['admin', 'buyer', 'planner', 'viewer'],
-    summary: 'Each supplier month by month: lines delivered in full by the need date, quantity filled, and how fast releases are answered.',
+    summary:
+      'Each supplier month by month: lines delivered in full by the need date, quantity filled, and how fast releases are answered.',
   },
   {
     routeName: 'card-scan',
@@ -82,7 +98,8 @@ export const navigation: readonly NavigationEntry[] = [
     label: 'Imports',
     icon: markRaw(Upload),
     roles: ['admin', 'buyer', 'planner'],
-    summary: 'Load suppliers, parts, BOMs, the build sequence or stock counts from CSV; a bad row stops the whole file.',
+    summary:
+      'Load suppliers, parts, BOMs, the build sequence or stock counts from CSV; a bad row stops the whole file.',
   },
   {
     routeName: 'calendar',

@@ -1,7 +1,14 @@
 import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
 import dayjs from 'dayjs';
-import { DOCK_COLUMNS, RECEIVABLE_STATUSES, type DockAttachment, type DockColumn, type DockItem, type DockLine } from '@shared/schemas/dock';
+import {
+  DOCK_COLUMNS,
+  RECEIVABLE_STATUSES,
+  type DockAttachment,
+  type DockColumn,
+  type DockItem,
+  type DockLine,
+} from '@shared/schemas/dock';
 import type { Discrepancy } from '@shared/schemas/receipts';
 import { UNIT_WORDS } from '@shared/schemas/master-data';
 import * as dockApi from '@/api/dock';
@@ -100,7 +107,9 @@ export const useDockStore = defineStore('dock', () => {
         .sort((a, b) => a.needDate.localeCompare(b.needDate) || a.number.localeCompare(b.number)),
     })),
   );
-  const expectedTodayCount = computed(() => items.value.filter((item) => item.expectedToday && isReceivable(item)).length);
+  const expectedTodayCount = computed(
+    () => items.value.filter((item) => item.expectedToday && isReceivable(item)).length,
+  );
 
   /** Loads the board; a failure is kept in `error` and the previous board stays. */
   async function fetch(): Promise<void> {

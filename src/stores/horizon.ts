@@ -15,7 +15,6 @@ interface FetchOptions {
   quiet?: boolean;
 }
 
-
 export const useHorizonStore = defineStore('horizon', () => {
   const demand = ref<DemandResponse | null>(null);
   const demandQuery = ref<DemandQuery | null>(null);
@@ -58,7 +57,11 @@ export const useHorizonStore = defineStore('horizon', () => {
   }
 
   /** Loads one part's gross-to-net record; a failure is kept in `planError`. */
-  async function fetchPlan(part: string, range: { from: string; to: string }, options: FetchOptions = {}): Promise<void> {
+  async function fetchPlan(
+    part: string,
+    range: { from: string; to: string },
+    options: FetchOptions = {},
+  ): Promise<void> {
     planRequest?.abort();
     const controller = new AbortController();
     planRequest = controller;
@@ -206,7 +209,12 @@ export function demandColumns(days: readonly string[], bucket: BucketSize): Dema
     const week = isoWeekKey(day);
     weeks.set(week, [...(weeks.get(week) ?? []), day]);
   }
-  return [...weeks].map(([week, weekDays]) => ({ key: week, label: week, caption: dayRangeCaption(weekDays), days: weekDays }));
+  return [...weeks].map(([week, weekDays]) => ({
+    key: week,
+    label: week,
+    caption: dayRangeCaption(weekDays),
+    days: weekDays,
+  }));
 }
 
 /** Reshapes GET /api/demand into the chosen buckets; weeks are summed by the shared weeklyTotals. */

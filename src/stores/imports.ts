@@ -70,7 +70,11 @@ export function readCsvPreview(text: string, limit = PREVIEW_ROWS): Pick<CsvPrev
     step: (result) => {
       const start = line;
       const cells = result.data.map((cell) => cell.trim());
-      for (let index = clean.indexOf('\n', consumed); index !== -1 && index < result.meta.cursor; index = clean.indexOf('\n', index + 1)) {
+      for (
+        let index = clean.indexOf('\n', consumed);
+        index !== -1 && index < result.meta.cursor;
+        index = clean.indexOf('\n', index + 1)
+      ) {
         line += 1;
       }
       consumed = result.meta.cursor;

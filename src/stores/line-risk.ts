@@ -37,7 +37,18 @@ export const useLineRiskStore = defineStore('line-risk', () => {
   /** The shortage that hits first (the list is sorted by first short date). */
   const earliest = computed<ShortageDto | null>(() => shortages.value[0] ?? null);
 
-  return { report, range, loading, error, liveUpdatedAt, shortages, partsInFrozenWindow, earliest, fetchReport, refreshLive };
+  return {
+    report,
+    range,
+    loading,
+    error,
+    liveUpdatedAt,
+    shortages,
+    partsInFrozenWindow,
+    earliest,
+    fetchReport,
+    refreshLive,
+  };
 });
 
 // --- Presentation helpers shared by the view and its components ---

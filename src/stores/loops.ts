@@ -73,8 +73,12 @@ export const useLoopsStore = defineStore('loops', () => {
   const toAdd = computed(() => loops.value.filter((loop) => loop.recommendedCards > loop.activeCards));
   const toPull = computed(() => loops.value.filter((loop) => loop.recommendedCards < loop.activeCards));
   const rightSized = computed(() => loops.value.filter((loop) => loop.recommendedCards === loop.activeCards));
-  const cardsToAdd = computed(() => toAdd.value.reduce((sum, loop) => sum + loop.recommendedCards - loop.activeCards, 0));
-  const cardsToPull = computed(() => toPull.value.reduce((sum, loop) => sum + loop.activeCards - loop.recommendedCards, 0));
+  const cardsToAdd = computed(() =>
+    toAdd.value.reduce((sum, loop) => sum + loop.recommendedCards - loop.activeCards, 0),
+  );
+  const cardsToPull = computed(() =>
+    toPull.value.reduce((sum, loop) => sum + loop.activeCards - loop.recommendedCards, 0),
+  );
 
   /** Loads the loops (of the chosen supplier); a failure is kept in `error` and the previous list stays. */
   async function fetchAll(): Promise<void> {

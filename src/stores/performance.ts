@@ -23,7 +23,10 @@ export const usePerformanceStore = defineStore('performance', () => {
   /** Each supplier over the whole range, re-weighted from the monthly counts, with its name. */
   const summaries = computed<(SupplierPerformanceSummary & { supplierName: string })[]>(() => {
     const names = new Map(rows.value.map((row) => [row.supplierCode, row.supplierName]));
-    return summarisePerformance(rows.value).map((summary) => ({ ...summary, supplierName: names.get(summary.supplierCode) ?? summary.supplierCode }));
+    return summarisePerformance(rows.value).map((summary) => ({
+      ...summary,
+      supplierName: names.get(summary.supplierCode) ?? summary.supplierCode,
+    }));
   });
   const measuredLines = computed(() => rows.value.reduce((sum, row) => sum + row.lines, 0));
 

@@ -25,7 +25,6 @@ export interface ReleasesFilter {
 
 export type ReleaseAction = 'accept' | 'resend' | 'cancel';
 
-
 export const useReleasesStore = defineStore('releases', () => {
   const releases = ref<Release[]>([]);
   /** Exceptions are listed whatever the filter: they wait for the buyer. */
@@ -86,9 +85,10 @@ export const useReleasesStore = defineStore('releases', () => {
 
   function replace(updated: Release): void {
     releases.value = releases.value.map((release) => (release.number === updated.number ? updated : release));
-    exceptions.value = updated.status === 'exception'
-      ? exceptions.value.map((release) => (release.number === updated.number ? updated : release))
-      : exceptions.value.filter((release) => release.number !== updated.number);
+    exceptions.value =
+      updated.status === 'exception'
+        ? exceptions.value.map((release) => (release.number === updated.number ? updated : release))
+        : exceptions.value.filter((release) => release.number !== updated.number);
   }
 
   const ACTIONS: Record<ReleaseAction, (number: string) => Promise<Release>> = {
@@ -231,7 +231,10 @@ export function canResend(release: Pick<Release, 'status'>): boolean {
 }
 
 export function canCancel(release: Pick<Release, 'status' | 'lines'>): boolean {
-  return ['draft', 'sent', 'confirmed', 'exception', 'shipped'].includes(release.status) && release.lines.every((line) => line.receivedQty === 0);
+  return (
+    ['draft', 'sent', 'confirmed', 'exception', 'shipped'].includes(release.status) &&
+    release.lines.every((line) => line.receivedQty === 0)
+  );
 }
 
 /** How a supplier's answer to a line differs from the request; all false when it was not answered. */
@@ -242,8 +245,11 @@ export interface LineDifference {
   differs: boolean;
 }
 
-export function lineDifference(line: Pick<ReleaseLine, 'qty' | 'needDate' | 'confirmedQty' | 'shipDate'>): LineDifference {
-  if (line.confirmedQty === null || line.shipDate === null) return { answered: false, qtyChanged: false, late: false, differs: false };
+export function lineDifference(
+  line: Pick<ReleaseLine, 'qty' | 'needDate' | 'confirmedQty' | 'shipDate'>,
+): LineDifference {
+  if (line.confirmedQty === null || line.shipDate === null)
+    return { answered: false, qtyChanged: false, late: false, differs: false };
   const answer = { confirmedQty: line.confirmedQty, shipDate: line.shipDate };
   return {
     answered: true,
@@ -267,7 +273,12 @@ export function runSummary(result: RunReleasesResponse, dateWords: string): stri
   return earlier > 0 ? `${made}; ${earlier} already made earlier that day.` : `${made}.`;
 }
 
-const DATE_TIME = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+const DATE_TIME = new Intl.DateTimeFormat('en-GB', {
+  day: 'numeric',
+  month: 'short',
+  hour: '2-digit',
+  minute: '2-digit',
+});
 
 /** A stored ISO timestamp as "2 Dec, 06:00"; blank for none. */
 export function formatMoment(iso: string | null): string {

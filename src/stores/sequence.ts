@@ -33,7 +33,12 @@ export function dayOfSerial(days: readonly SequenceDay[], serial: string): Seque
  * Works out a move without changing anything: the unit leaves its day and is inserted at
  * `toIndex` (clamped) of `toDate`. Null when the unit is unknown or would end where it is.
  */
-export function planMove(days: readonly SequenceDay[], serial: string, toDate: string, toIndex: number): PlannedMove | null {
+export function planMove(
+  days: readonly SequenceDay[],
+  serial: string,
+  toDate: string,
+  toIndex: number,
+): PlannedMove | null {
   const from = dayOfSerial(days, serial);
   const to = days.find((day) => day.date === toDate);
   if (!from || !to) return null;
@@ -44,7 +49,14 @@ export function planMove(days: readonly SequenceDay[], serial: string, toDate: s
   if (from === to) {
     const unchanged = target.every((candidate, position) => candidate === from.units[position]?.serial);
     if (unchanged) return null;
-    return { serial, fromDate: from.date, toDate, toIndex: index, orders: [{ date: toDate, serials: target }], changedDates: [toDate] };
+    return {
+      serial,
+      fromDate: from.date,
+      toDate,
+      toIndex: index,
+      orders: [{ date: toDate, serials: target }],
+      changedDates: [toDate],
+    };
   }
   return {
     serial,
@@ -61,8 +73,16 @@ export function planMove(days: readonly SequenceDay[], serial: string, toDate: s
 }
 
 /** A day given a new order of (known) units: positions renumbered 1..n and the load recounted. */
-export function reorderDay(day: SequenceDay, serials: readonly string[], unitsBySerial: ReadonlyMap<string, SequenceUnit>): SequenceDay {
-  const units = serials.map((serial, index) => ({ ...unitsBySerial.get(serial)!, date: day.date, sequence: index + 1 }));
+export function reorderDay(
+  day: SequenceDay,
+  serials: readonly string[],
+  unitsBySerial: ReadonlyMap<string, SequenceUnit>,
+): SequenceDay {
+  const units = serials.map((serial, index) => ({
+    ...unitsBySerial.get(serial)!,
+    date: day.date,
+    sequence: index + 1,
+  }));
   return { ...day, units, load: units.reduce((sum, unit) => sum + unit.qty, 0) };
 }
 
@@ -75,7 +95,12 @@ export function modelMix(day: SequenceDay, modelOrder: readonly string[]): { mod
   return [...known, ...others].map((model) => ({ model, count: counts.get(model)! }));
 }
 
-const DAY_FORMAT = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' });
+const DAY_FORMAT = new Intl.DateTimeFormat('en-GB', {
+  weekday: 'short',
+  day: 'numeric',
+  month: 'short',
+  timeZone: 'UTC',
+});
 
 /** A plant day as people say it: "Tue 1 Dec". */
 export function dayLabel(date: string): string {
@@ -136,7 +161,13 @@ export const useSequenceStore = defineStore('sequence', () => {
     const before = days.value.filter((day) => planned.changedDates.includes(day.date));
     const unitsBySerial = new Map(before.flatMap((day) => day.units.map((unit) => [unit.serial, unit] as const)));
     replaceDays(
-      planned.orders.map((order) => reorderDay(before.find((day) => day.date === order.date)!, order.serials, unitsBySerial)),
+      planned.orders.map((order) =>
+        reorderDay(
+          before.find((day) => day.date === order.date)!,
+          order.serials,
+          unitsBySerial,
+        ),
+      ),
     );
     saving.value = true;
     try {

@@ -13,9 +13,7 @@ export const useUsersStore = defineStore('users', () => {
   // Rows with a change in flight, so their controls can show a spinner and refuse a second click.
   const updatingIds = ref(new Set<number>());
 
-  const byNewest = computed(() =>
-    [...users.value].sort((a, b) => b.createdAt.localeCompare(a.createdAt)),
-  );
+  const byNewest = computed(() => [...users.value].sort((a, b) => b.createdAt.localeCompare(a.createdAt)));
 
   /** Loads all accounts; a failure is kept in `error` for the view to show. */
   async function fetchAll(): Promise<void> {

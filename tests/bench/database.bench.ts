@@ -5,7 +5,12 @@ import { createApp } from '../../server/app';
 import { signSessionToken } from '../../server/auth/tokens';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { openDatabase } from '../../server/db/data-source';
-import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import {
+  replaceBomLines,
+  upsertParts,
+  upsertSequenceEntries,
+  upsertSuppliers,
+} from '../../server/master-data/master-data.writer';
 import { loadPlanInputs } from '../../server/planning/plan-inputs';
 import { UserEntity } from '../../server/users/user.entity';
 import { computePlan } from '../../shared/domain/plan';
@@ -58,12 +63,22 @@ function p90(samples: number[]): number {
 export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   const fixture = generatePlanFixture();
   const dataSource = await openDatabase(':memory:');
-  const suppliers = [...new Set(fixture.parts.map((part) => part.supplierCode).filter((code): code is string => !!code))];
+  const suppliers = [
+    ...new Set(fixture.parts.map((part) => part.supplierCode).filter((code): code is string => !!code)),
+  ];
   await dataSource.transaction(async (manager) => {
     await writeCalendar(manager, fixture.calendar);
     await upsertSuppliers(
       manager,
-      suppliers.map((code) => ({ code, name: code, email: `${code.toLowerCase()}@example.com`, leadTimeDays: 5, cycleDays: 1, deliveriesPerCycle: 1, deliveryDelay: 1 })),
+      suppliers.map((code) => ({
+        code,
+        name: code,
+        email: `${code.toLowerCase()}@example.com`,
+        leadTimeDays: 5,
+        cycleDays: 1,
+        deliveriesPerCycle: 1,
+        deliveryDelay: 1,
+      })),
     );
     await upsertParts(
       manager,
@@ -84,7 +99,11 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
     );
     await replaceBomLines(
       manager,
-      fixture.bom.map((line) => ({ ...line, effectiveFrom: line.effectiveFrom ?? null, effectiveTo: line.effectiveTo ?? null })),
+      fixture.bom.map((line) => ({
+        ...line,
+        effectiveFrom: line.effectiveFrom ?? null,
+        effectiveTo: line.effectiveTo ?? null,
+      })),
     );
     await upsertSequenceEntries(manager, fixture.sequence);
   });
@@ -148,8 +167,12 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
 
 export function printDatabaseBench(figures: DatabaseBenchFigures): void {
   const ms = (value: number) => `${value.toFixed(2)} ms`;
-  console.log(`recursive SQL explosion (SQLite)  median ${ms(figures.sqlExplosionMedianMs)}  (${figures.sqlRows} part-days, explosion only)`);
-  console.log(`computePlan on the same rows      median ${ms(figures.enginePlanMedianMs)}  (explosion + offsets + netting)`);
+  console.log(
+    `recursive SQL explosion (SQLite)  median ${ms(figures.sqlExplosionMedianMs)}  (${figures.sqlRows} part-days, explosion only)`,
+  );
+  console.log(
+    `computePlan on the same rows      median ${ms(figures.enginePlanMedianMs)}  (explosion + offsets + netting)`,
+  );
   console.log(`ratio SQL / engine                ${figures.ratio.toFixed(1)}×`);
   console.log(
     `GET /api/demand ${figures.demandDays} days × ${figures.demandRows} parts: first call ${ms(figures.demandFirstCallMs)}, ` +

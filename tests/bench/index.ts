@@ -4,8 +4,12 @@ import { runPlanBench } from './plan.bench';
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
 const ms = (value: number) => `${value.toFixed(2)} ms`;
 const plan = await runPlanBench();
-console.log(`Synthetic plant: ${plan.parts} parts, ${plan.bomLines} BOM lines, ${plan.sequenceSlots} sequence slots, ${plan.workingDays} working days`);
-console.log(`computePlan (explosion + netting)  median ${ms(plan.medianMs)}  p90 ${ms(plan.p90Ms)}  (target < 25 ms; ${plan.runs} runs)`);
+console.log(
+  `Synthetic plant: ${plan.parts} parts, ${plan.bomLines} BOM lines, ${plan.sequenceSlots} sequence slots, ${plan.workingDays} working days`,
+);
+console.log(
+  `computePlan (explosion + netting)  median ${ms(plan.medianMs)}  p90 ${ms(plan.p90Ms)}  (target < 25 ms; ${plan.runs} runs)`,
+);
 console.log(`  + every bucket object           median ${ms(plan.allBucketsMedianMs)}  p90 ${ms(plan.allBucketsP90Ms)}`);
 console.log(`  + demand report                 median ${ms(plan.demandMedianMs)}  p90 ${ms(plan.demandP90Ms)}`);
 console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}  p90 ${ms(plan.floorP90Ms)}`);

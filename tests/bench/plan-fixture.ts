@@ -87,12 +87,19 @@ export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput
 
   // Common parts (fasteners, labels) appear in many models; the rest are mostly model-specific.
   const boughtComponent = (): string =>
-    random() < 0.35 ? bought[Math.floor(random() * COMMON_PARTS)] : bought[COMMON_PARTS + Math.floor(random() * (boughtCount - COMMON_PARTS))];
+    random() < 0.35
+      ? bought[Math.floor(random() * COMMON_PARTS)]
+      : bought[COMMON_PARTS + Math.floor(random() * (boughtCount - COMMON_PARTS))];
   const quantityPer = (): number => (random() < 0.15 ? pick([0.25, 0.5, 1.5, 2.75]) : between(1, 4));
 
   const bom: PlanningBomLine[] = [];
   const addLine = (parent: string, component: string): void => {
-    const line: PlanningBomLine = { parent, component, qtyPer: quantityPer(), scrapPct: random() < 0.2 ? pick([1, 2, 5]) : 0 };
+    const line: PlanningBomLine = {
+      parent,
+      component,
+      qtyPer: quantityPer(),
+      scrapPct: random() < 0.2 ? pick([1, 2, 5]) : 0,
+    };
     // About one line in thirty carries an engineering change inside the horizon.
     if (random() < 0.033) {
       const changeDate = addCalendarDays(from, between(5, 80));
@@ -108,8 +115,22 @@ export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput
     for (let s = 1; s <= SUBASSEMBLIES_PER_MODEL; s += 1) {
       const subassembly = `SUB-${pad(m + 1, 2)}-${s}`;
       const subSubassembly = `SSA-${pad(m + 1, 2)}-${s}`;
-      parts.push({ partNumber: subassembly, source: 'make', leadTimeDays: between(1, 3), packQty: 1, onHand: between(0, 20), safetyStock: 0 });
-      parts.push({ partNumber: subSubassembly, source: 'make', leadTimeDays: between(1, 2), packQty: 1, onHand: between(0, 20), safetyStock: 0 });
+      parts.push({
+        partNumber: subassembly,
+        source: 'make',
+        leadTimeDays: between(1, 3),
+        packQty: 1,
+        onHand: between(0, 20),
+        safetyStock: 0,
+      });
+      parts.push({
+        partNumber: subSubassembly,
+        source: 'make',
+        leadTimeDays: between(1, 2),
+        packQty: 1,
+        onHand: between(0, 20),
+        safetyStock: 0,
+      });
       bom.push({ parent: model, component: subassembly, qtyPer: 1, scrapPct: 0 });
       bom.push({ parent: subassembly, component: subSubassembly, qtyPer: 1, scrapPct: 0 });
       for (let k = 0; k < BOUGHT_LINES_PER_SUBASSEMBLY; k += 1) addLine(subassembly, boughtComponent());

@@ -129,7 +129,9 @@ if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) 
   console.log(
     `plan: ${figures.parts} parts, ${figures.bomLines} BOM lines, ${figures.sequenceSlots} sequence slots, ${figures.workingDays} working days`,
   );
-  console.log(`computePlan      median ${ms(figures.medianMs)}  p90 ${ms(figures.p90Ms)}  (${figures.runs} runs after ${WARM_UPS} warm-ups)`);
+  console.log(
+    `computePlan      median ${ms(figures.medianMs)}  p90 ${ms(figures.p90Ms)}  (${figures.runs} runs after ${WARM_UPS} warm-ups)`,
+  );
   console.log(`+ every bucket   median ${ms(figures.allBucketsMedianMs)}  p90 ${ms(figures.allBucketsP90Ms)}`);
   console.log(`+ demand report median ${ms(figures.demandMedianMs)}  p90 ${ms(figures.demandP90Ms)}`);
   console.log(`explosion floor  median ${ms(figures.floorMedianMs)}  p90 ${ms(figures.floorP90Ms)}`);

@@ -1,12 +1,4 @@
-import {
-  createAppContext,
-  demoUsers,
-  getButton,
-  getByLabel,
-  jsonResponse,
-  mountInApp,
-  stubFetch,
-} from './helpers';
+import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp, stubFetch } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import LoginView from '@/views/LoginView.vue';

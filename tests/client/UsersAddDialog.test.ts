@@ -63,9 +63,7 @@ describe('UsersAddDialog', () => {
   it('shows a taken e-mail (409) under the e-mail input', async () => {
     const { wrapper, dialog } = await openDialog();
     await fillValidUser(wrapper, dialog);
-    stubFetch(
-      jsonResponse(409, { error: { code: 'conflict', message: 'This e-mail already has an account' } }),
-    );
+    stubFetch(jsonResponse(409, { error: { code: 'conflict', message: 'This e-mail already has an account' } }));
 
     getButton(dialog, 'Add user').click();
     await flushPromises();

@@ -71,12 +71,16 @@ describe('CalendarView', () => {
     getButton(wrapper.element, 'Save calendar').click();
     await flushPromises();
 
-    expect(lastPutBody(fetchMock)).toEqual({ workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2030-12-24', '2030-12-25'] });
+    expect(lastPutBody(fetchMock)).toEqual({
+      workingWeekdays: [1, 2, 3, 4, 5],
+      holidays: ['2030-12-24', '2030-12-25'],
+    });
   });
 
   it('refuses to save a week without a working day and says why', async () => {
     const { wrapper, fetchMock } = await openCalendar(planner);
-    for (const day of ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday']) await weekdayBox(wrapper, day).setValue(false);
+    for (const day of ['Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday'])
+      await weekdayBox(wrapper, day).setValue(false);
 
     getButton(wrapper.element, 'Save calendar').click();
     await flushPromises();
@@ -91,7 +95,11 @@ describe('CalendarView', () => {
     // A zod issue list as the server sends it for invalid input (PRODUCT.md, 400 with zod issues in details).
     fetchMock.mockResolvedValueOnce(
       jsonResponse(400, {
-        error: { code: 'validation_error', message: 'Invalid input', details: [{ path: ['holidays', 0], message: 'a date as YYYY-MM-DD' }] },
+        error: {
+          code: 'validation_error',
+          message: 'Invalid input',
+          details: [{ path: ['holidays', 0], message: 'a date as YYYY-MM-DD' }],
+        },
       }),
     );
 

@@ -11,7 +11,12 @@ vi.mock('element-plus/es/components/checkbox/style/css', () => ({}));
 vi.mock('element-plus/es/components/upload/style/css', () => ({}));
 vi.mock('element-plus/es/components/progress/style/css', () => ({}));
 
-const receiving: SessionUser = { email: 'receiving@example.com', name: 'Rae Receiving', role: 'receiving', supplierCode: null };
+const receiving: SessionUser = {
+  email: 'receiving@example.com',
+  name: 'Rae Receiving',
+  role: 'receiving',
+  supplierCode: null,
+};
 
 function line(id: number, partNumber: string, qty: number, overrides: Partial<DockLine> = {}): DockLine {
   return {
@@ -114,7 +119,9 @@ function discrepancyShown(partNumber: string): string {
 
 /** The discrepancy drop-down of one line, as the component that emits the choice. */
 function discrepancySelect(wrapper: Awaited<ReturnType<typeof openDialog>>, partNumber: string) {
-  const select = wrapper.findAllComponents({ name: 'ElSelect' }).find((candidate) => lineElement(partNumber).contains(candidate.element));
+  const select = wrapper
+    .findAllComponents({ name: 'ElSelect' })
+    .find((candidate) => lineElement(partNumber).contains(candidate.element));
   if (!select) throw new Error(`no discrepancy choice on ${partNumber}`);
   return select;
 }
@@ -127,19 +134,23 @@ async function record(): Promise<void> {
 
 describe('check-in helpers', () => {
   it('reads a count typed with a decimal point or comma, and nothing else', () => {
-    expect([parseCount('24'), parseCount(' 12.5 '), parseCount('12,5'), parseCount(''), parseCount('-3'), parseCount('1e3')]).toEqual([
-      24,
-      12.5,
-      12.5,
-      null,
-      null,
-      null,
-    ]);
+    expect([
+      parseCount('24'),
+      parseCount(' 12.5 '),
+      parseCount('12,5'),
+      parseCount(''),
+      parseCount('-3'),
+      parseCount('1e3'),
+    ]).toEqual([24, 12.5, 12.5, null, null, null]);
   });
 
   it('suggests short below what is still to come, over above it, nothing when it matches', () => {
     // Common practice, no source: a count below the remaining quantity is a short delivery.
-    expect([suggestDiscrepancy(8, 10), suggestDiscrepancy(12, 10), suggestDiscrepancy(10, 10)]).toEqual(['short', 'over', null]);
+    expect([suggestDiscrepancy(8, 10), suggestDiscrepancy(12, 10), suggestDiscrepancy(10, 10)]).toEqual([
+      'short',
+      'over',
+      null,
+    ]);
   });
 
   it('makes version-4 UUID keys even where crypto.randomUUID is missing (plain-http pages)', () => {
@@ -193,7 +204,12 @@ describe('DockCheckInDialog', () => {
   it('sends one receipt per counted line with its own Idempotency-Key and shows the new on-hand', async () => {
     const fetchMock = vi.fn<typeof fetch>((_input, init) => {
       const body = JSON.parse(String(init?.body)) as ReceiptRequest;
-      return Promise.resolve(jsonResponse(201, receiptAnswer(body, body.releaseLineId === 1 ? 'BRUSH-20' : 'PAD-26', body.releaseLineId === 1 ? 50 : 7)));
+      return Promise.resolve(
+        jsonResponse(
+          201,
+          receiptAnswer(body, body.releaseLineId === 1 ? 'BRUSH-20' : 'PAD-26', body.releaseLineId === 1 ? 50 : 7),
+        ),
+      );
     });
     vi.stubGlobal('fetch', fetchMock);
     const wrapper = await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'PAD-26', 10), line(3, 'DECAL-S', 5)]));
@@ -219,7 +235,9 @@ describe('DockCheckInDialog', () => {
     const fetchMock = vi.fn<typeof fetch>();
     fetchMock.mockRejectedValueOnce(new TypeError('network down'));
     fetchMock.mockImplementationOnce((_input, init) =>
-      Promise.resolve(jsonResponse(200, receiptAnswer(JSON.parse(String(init?.body)) as ReceiptRequest, 'BRUSH-20', 50))),
+      Promise.resolve(
+        jsonResponse(200, receiptAnswer(JSON.parse(String(init?.body)) as ReceiptRequest, 'BRUSH-20', 50)),
+      ),
     );
     vi.stubGlobal('fetch', fetchMock);
     await openDialog(itemWith([line(1, 'BRUSH-20', 40)]));
@@ -254,14 +272,16 @@ describe('DockCheckInDialog', () => {
   it('shows the handling caution when a line carries a hazardous part, and puts a scanned card’s line first', async () => {
     vi.stubGlobal('fetch', vi.fn());
 
-    await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'BATT-24V', 4, { hazardous: true, cardNumber: '000004500018' })]), 2);
+    await openDialog(
+      itemWith([line(1, 'BRUSH-20', 40), line(2, 'BATT-24V', 4, { hazardous: true, cardNumber: '000004500018' })]),
+      2,
+    );
 
     const caution = document.querySelector('[data-test="hazard-caution"]')?.textContent ?? '';
     expect(caution).toContain('Hazardous goods: BATT-24V');
     expect(caution).toContain('check the packaging for damage or leaks before handling');
-    expect([...document.querySelectorAll('[data-test="check-in-line"]')].map((element) => element.getAttribute('data-part'))).toEqual([
-      'BATT-24V',
-      'BRUSH-20',
-    ]);
+    expect(
+      [...document.querySelectorAll('[data-test="check-in-line"]')].map((element) => element.getAttribute('data-part')),
+    ).toEqual(['BATT-24V', 'BRUSH-20']);
   });
 });

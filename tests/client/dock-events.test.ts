@@ -40,7 +40,9 @@ describe('useDockEvents', () => {
 
   it('stops listening when the role may not read the stream', async () => {
     vi.useFakeTimers();
-    const fetchMock = vi.fn<typeof fetch>().mockResolvedValue(jsonResponse(403, { error: { code: 'forbidden', message: 'Your role may not do this.' } }));
+    const fetchMock = vi
+      .fn<typeof fetch>()
+      .mockResolvedValue(jsonResponse(403, { error: { code: 'forbidden', message: 'Your role may not do this.' } }));
     vi.stubGlobal('fetch', fetchMock);
 
     const wrapper = mountListener(vi.fn());

@@ -12,7 +12,12 @@ vi.mock('element-plus/es/components/progress/style/css', () => ({}));
 vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
 vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
 
-const receiving: SessionUser = { email: 'receiving@example.com', name: 'Rae Receiving', role: 'receiving', supplierCode: null };
+const receiving: SessionUser = {
+  email: 'receiving@example.com',
+  name: 'Rae Receiving',
+  role: 'receiving',
+  supplierCode: null,
+};
 const viewer: SessionUser = { email: 'viewer@example.com', name: 'Vi Viewer', role: 'viewer', supplierCode: null };
 
 function item(id: number, number: string, column: DockColumn, overrides: Partial<DockItem> = {}): DockItem {
@@ -93,14 +98,17 @@ type Answer = (init: RequestInit | undefined) => Response;
 function stubApi(answers: Record<string, Answer> = {}) {
   const defaults: Record<string, Answer> = {
     'GET /api/dock': () => jsonResponse(200, board()),
-    'PATCH /api/dock/items/1': (init) => jsonResponse(200, { ...board()[0]!, column: JSON.parse(String(init?.body)).column }),
+    'PATCH /api/dock/items/1': (init) =>
+      jsonResponse(200, { ...board()[0]!, column: JSON.parse(String(init?.body)).column }),
   };
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
     const url = new URL(String(input), 'http://localhost');
     if (url.pathname === '/api/events') return new Promise<Response>(() => undefined);
     const key = `${init?.method ?? 'GET'} ${url.pathname}`;
     const answer = answers[key] ?? defaults[key];
-    return Promise.resolve(answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
@@ -114,7 +122,9 @@ async function openDock(user: SessionUser = receiving) {
 }
 
 function numbersIn(column: DockColumn): string[] {
-  return [...document.querySelectorAll(`[data-column="${column}"] [data-test="dock-card"]`)].map((card) => card.getAttribute('data-release') ?? '');
+  return [...document.querySelectorAll(`[data-column="${column}"] [data-test="dock-card"]`)].map(
+    (card) => card.getAttribute('data-release') ?? '',
+  );
 }
 
 async function scan(text: string): Promise<void> {
@@ -142,7 +152,9 @@ describe('DockView', () => {
 
     await openDock();
 
-    const titles = [...document.querySelectorAll('[data-test="dock-column"] h2')].map((heading) => heading.textContent?.replace(/\d+$/, '').trim());
+    const titles = [...document.querySelectorAll('[data-test="dock-column"] h2')].map((heading) =>
+      heading.textContent?.replace(/\d+$/, '').trim(),
+    );
     expect(titles).toEqual(['Expected', 'At dock', 'Counted', 'To line']);
     expect(numbersIn('expected')).toEqual(['R261201-SUP-A']);
     expect(numbersIn('at_dock')).toEqual(['R261130-SUP-B']);
@@ -153,7 +165,9 @@ describe('DockView', () => {
     expect(first).toContain('2 lines');
     expect(first).toContain('Road freight · TRK-0001');
     expect(first).toContain('Confirmed');
-    expect(document.querySelector('[data-release="R261130-SUP-B"] [data-test="overdue"]')?.textContent?.trim()).toBe('Overdue');
+    expect(document.querySelector('[data-release="R261130-SUP-B"] [data-test="overdue"]')?.textContent?.trim()).toBe(
+      'Overdue',
+    );
     expect(document.activeElement?.id).toBe('dock-scan-input');
   });
 
@@ -175,7 +189,8 @@ describe('DockView', () => {
 
   it('puts the card back and says why when the server refuses the move', async () => {
     stubApi({
-      'PATCH /api/dock/items/1': () => jsonResponse(409, { error: { code: 'conflict', message: 'Release R261201-SUP-A cannot move.' } }),
+      'PATCH /api/dock/items/1': () =>
+        jsonResponse(409, { error: { code: 'conflict', message: 'Release R261201-SUP-A cannot move.' } }),
     });
     const wrapper = await openDock();
 
@@ -184,7 +199,9 @@ describe('DockView', () => {
 
     expect(numbersIn('expected')).toEqual(['R261201-SUP-A']);
     expect(numbersIn('to_line')).toEqual(['R261129-SUP-C']);
-    expect(document.querySelector('.el-message')?.textContent).toContain('The move was not saved: Release R261201-SUP-A cannot move.');
+    expect(document.querySelector('.el-message')?.textContent).toContain(
+      'The move was not saved: Release R261201-SUP-A cannot move.',
+    );
   });
 
   it('opens the check-in of a scanned release number, or of the release whose open line carries a scanned card', async () => {
@@ -208,7 +225,10 @@ describe('DockView', () => {
     (document.querySelector('[data-release="R261201-SUP-A"] .dock-board-card__number') as HTMLElement).click();
     await flushPromises();
 
-    wrapper.findAllComponents({ name: 'ElSelect' }).find((select) => select.element.querySelector('[aria-label="Move to column"]'))!.vm.$emit('update:modelValue', 'at_dock');
+    wrapper
+      .findAllComponents({ name: 'ElSelect' })
+      .find((select) => select.element.querySelector('[aria-label="Move to column"]'))!
+      .vm.$emit('update:modelValue', 'at_dock');
     await flushPromises();
 
     const patch = fetchMock.mock.calls.find(([, init]) => init?.method === 'PATCH');
@@ -222,7 +242,9 @@ describe('DockView', () => {
 
     await scan('999999999999');
 
-    expect(document.querySelector('[data-test="scan-problem"]')?.textContent).toContain('Nothing on the dock matches “999999999999”');
+    expect(document.querySelector('[data-test="scan-problem"]')?.textContent).toContain(
+      'Nothing on the dock matches “999999999999”',
+    );
     expect(document.querySelector('.el-dialog')).toBeNull();
   });
 
@@ -231,17 +253,29 @@ describe('DockView', () => {
     const wrapper = await openDock(viewer);
 
     expect(document.getElementById('dock-scan-input')).toBeNull();
-    expect([...document.querySelectorAll('button')].some((button) => button.textContent?.trim() === 'Check in')).toBe(false);
-    expect(wrapper.findAllComponents(draggable).map((list) => list.vm.$attrs.disabled)).toEqual([true, true, true, true]);
+    expect([...document.querySelectorAll('button')].some((button) => button.textContent?.trim() === 'Check in')).toBe(
+      false,
+    );
+    expect(wrapper.findAllComponents(draggable).map((list) => list.vm.$attrs.disabled)).toEqual([
+      true,
+      true,
+      true,
+      true,
+    ]);
     expect(document.querySelectorAll('[data-test="dock-card"].is-editable')).toHaveLength(0);
     expect(document.body.textContent).toContain('Read only');
   });
 
   it('offers a retry when the board cannot be loaded', async () => {
-    stubApi({ 'GET /api/dock': () => jsonResponse(500, { error: { code: 'internal', message: 'Something went wrong on the server.' } }) });
+    stubApi({
+      'GET /api/dock': () =>
+        jsonResponse(500, { error: { code: 'internal', message: 'Something went wrong on the server.' } }),
+    });
 
     await openDock();
 
-    expect(document.querySelector('.el-alert')?.textContent).toContain('The dock board could not be loaded: Something went wrong on the server.');
+    expect(document.querySelector('.el-alert')?.textContent).toContain(
+      'The dock board could not be loaded: Something went wrong on the server.',
+    );
   });
 });

@@ -58,9 +58,7 @@ interface AppContext {
 }
 
 /** A fresh Pinia and the real router on memory history, optionally with someone signed in. */
-export async function createAppContext(
-  options: { user?: SessionUser; path?: string } = {},
-): Promise<AppContext> {
+export async function createAppContext(options: { user?: SessionUser; path?: string } = {}): Promise<AppContext> {
   const pinia = createPinia();
   setActivePinia(pinia);
   if (options.user) {
@@ -95,9 +93,7 @@ export async function mountInApp<C extends Component>(
 
 /** The form control a visible <label> points at, the way a person (or getByLabel) finds it. */
 export function getByLabel(root: ParentNode, labelText: string): HTMLElement {
-  const label = [...root.querySelectorAll('label')].find(
-    (candidate) => candidate.textContent?.trim() === labelText,
-  );
+  const label = [...root.querySelectorAll('label')].find((candidate) => candidate.textContent?.trim() === labelText);
   if (!label) throw new Error(`no label "${labelText}"`);
   const control = label.htmlFor ? document.getElementById(label.htmlFor) : label.querySelector('input');
   if (!control) throw new Error(`label "${labelText}" points at nothing`);
@@ -106,9 +102,7 @@ export function getByLabel(root: ParentNode, labelText: string): HTMLElement {
 
 /** The button whose accessible text is exactly `name`. */
 export function getButton(root: ParentNode, name: string): HTMLButtonElement {
-  const button = [...root.querySelectorAll('button')].find(
-    (candidate) => candidate.textContent?.trim() === name,
-  );
+  const button = [...root.querySelectorAll('button')].find((candidate) => candidate.textContent?.trim() === name);
   if (!button) throw new Error(`no button "${name}"`);
   return button;
 }

@@ -8,7 +8,10 @@ import { jsonResponse, stubFetch } from './helpers';
 function csvResponse(disposition: string | null): Response {
   const headers: Record<string, string> = { 'Content-Type': 'text/csv' };
   if (disposition) headers['Content-Disposition'] = disposition;
-  return new Response('part_number,supplier_code,2026-12-01,total\r\nBAT-06-225,FBS,32,32\r\n', { status: 200, headers });
+  return new Response('part_number,supplier_code,2026-12-01,total\r\nBAT-06-225,FBS,32,32\r\n', {
+    status: 200,
+    headers,
+  });
 }
 
 describe('fetchFile', () => {
@@ -47,7 +50,9 @@ describe('fetchFile', () => {
   it('throws the server’s error rather than saving an error page', async () => {
     stubFetch(jsonResponse(404, { error: { code: 'not_found', message: 'No supplier ZZZ.' } }));
 
-    await expect(fetchFile('/demand', 'fallback.csv')).rejects.toEqual(new ApiError(404, 'not_found', 'No supplier ZZZ.'));
+    await expect(fetchFile('/demand', 'fallback.csv')).rejects.toEqual(
+      new ApiError(404, 'not_found', 'No supplier ZZZ.'),
+    );
   });
 });
 
@@ -73,7 +78,12 @@ describe('downloadDemandCsv', () => {
     const [url, init] = fetchMock.mock.calls[0]!;
     const sent = new URL(String(url), 'http://localhost');
     expect(sent.pathname).toBe('/api/demand');
-    expect(Object.fromEntries(sent.searchParams)).toEqual({ from: '2026-12-01', to: '2026-12-28', supplier: 'FBS', format: 'csv' });
+    expect(Object.fromEntries(sent.searchParams)).toEqual({
+      from: '2026-12-01',
+      to: '2026-12-28',
+      supplier: 'FBS',
+      format: 'csv',
+    });
     expect((init?.headers as Record<string, string>).Authorization).toBe('Bearer abc.def.ghi');
     expect(filename).toBe('demand-2026-12-01-FBS.csv');
     expect(clicked).toEqual(['demand-2026-12-01-FBS.csv']);

@@ -28,7 +28,8 @@ describe('EventStreamParser', () => {
   });
 
   it('reads the same events whatever the chunk boundaries, for LF, CRLF and CR line ends', () => {
-    const stream = 'retry: 3000\nevent: planning\ndata: {"version":7}\n\n: keep-alive\n\nevent: planning\ndata: {"version":8}\n\n';
+    const stream =
+      'retry: 3000\nevent: planning\ndata: {"version":7}\n\n: keep-alive\n\nevent: planning\ndata: {"version":8}\n\n';
     const whole = (text: string) => new EventStreamParser().feed(text);
 
     fc.assert(
@@ -39,7 +40,9 @@ describe('EventStreamParser', () => {
           const text = stream.replace(/\n/g, lineEnd);
           const points = [...new Set(cuts.map((cut) => Math.min(cut, text.length)))].sort((a, b) => a - b);
           const parser = new EventStreamParser();
-          const events = [0, ...points].flatMap((start, index) => parser.feed(text.slice(start, points[index] ?? text.length)));
+          const events = [0, ...points].flatMap((start, index) =>
+            parser.feed(text.slice(start, points[index] ?? text.length)),
+          );
           expect(events).toEqual(whole(text));
         },
       ),
@@ -92,7 +95,9 @@ describe('usePlanningEvents', () => {
     const fetchMock = vi
       .fn<typeof fetch>()
       .mockResolvedValueOnce(closedStream('event: planning\ndata: {"version":5}\n\n'))
-      .mockImplementation((_url, init) => Promise.resolve(eventStream(['event: planning\ndata: {"version":6}\n\n'], init?.signal)));
+      .mockImplementation((_url, init) =>
+        Promise.resolve(eventStream(['event: planning\ndata: {"version":6}\n\n'], init?.signal)),
+      );
     vi.stubGlobal('fetch', fetchMock);
     const onChange = vi.fn();
 
@@ -108,9 +113,9 @@ describe('usePlanningEvents', () => {
 
   it('stops listening when the session is refused', async () => {
     vi.useFakeTimers();
-    const fetchMock = vi.fn<typeof fetch>().mockResolvedValue(
-      jsonResponse(401, { error: { code: 'unauthorized', message: 'Please sign in.' } }),
-    );
+    const fetchMock = vi
+      .fn<typeof fetch>()
+      .mockResolvedValue(jsonResponse(401, { error: { code: 'unauthorized', message: 'Please sign in.' } }));
     vi.stubGlobal('fetch', fetchMock);
 
     const wrapper = mountListener(vi.fn());

@@ -35,8 +35,24 @@ const plan: PlanResponse = {
     lowLevelCode: 1,
   },
   buckets: [
-    { date: '2026-12-01', gross: 32, scheduledReceipts: 0, projectedAvailable: 444, net: 0, plannedReceipt: 0, plannedRelease: 0 },
-    { date: '2026-12-02', gross: 28, scheduledReceipts: 0, projectedAvailable: 416, net: 0, plannedReceipt: 0, plannedRelease: 0 },
+    {
+      date: '2026-12-01',
+      gross: 32,
+      scheduledReceipts: 0,
+      projectedAvailable: 444,
+      net: 0,
+      plannedReceipt: 0,
+      plannedRelease: 0,
+    },
+    {
+      date: '2026-12-02',
+      gross: 28,
+      scheduledReceipts: 0,
+      projectedAvailable: 416,
+      net: 0,
+      plannedReceipt: 0,
+      plannedRelease: 0,
+    },
   ],
   pastDue: [],
 };
@@ -49,7 +65,9 @@ function stubApi(answers: Record<string, Answer>) {
     const url = new URL(String(input), 'http://localhost');
     if (url.pathname === '/api/events') return new Promise<Response>(() => undefined);
     const answer = answers[url.pathname];
-    return Promise.resolve(answer ? answer(url) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer(url) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
@@ -78,14 +96,21 @@ describe('HorizonView', () => {
   });
 
   it('asks for the horizon and supplier written in the link', async () => {
-    const fetchMock = stubApi({ '/api/demand': () => jsonResponse(200, demand), '/api/suppliers': () => jsonResponse(200, []) });
+    const fetchMock = stubApi({
+      '/api/demand': () => jsonResponse(200, demand),
+      '/api/suppliers': () => jsonResponse(200, []),
+    });
 
     await openHorizon('/horizon?supplier=FBS&weeks=2&bucket=week');
 
     const [request] = requestsTo(fetchMock, '/api/demand');
     const today = localToday();
     // Two weeks are 14 calendar days, today included.
-    expect(Object.fromEntries(request!.searchParams)).toEqual({ from: today, to: addCalendarDays(today, 13), supplier: 'FBS' });
+    expect(Object.fromEntries(request!.searchParams)).toEqual({
+      from: today,
+      to: addCalendarDays(today, 13),
+      supplier: 'FBS',
+    });
   });
 
   it('opens the drill-down of the part typed in the search box when Enter is pressed', async () => {

@@ -13,7 +13,11 @@ function previewOf(text: string, fileName = 'counts.csv'): CsvPreview {
   return { fileName, size: text.length, ...readCsvPreview(text) };
 }
 
-async function mountPreview(preview: CsvPreview, layout: typeof ON_HAND | typeof BOM, problems = [] as { row: number; column: string; message: string }[]) {
+async function mountPreview(
+  preview: CsvPreview,
+  layout: typeof ON_HAND | typeof BOM,
+  problems = [] as { row: number; column: string; message: string }[],
+) {
   const context = await createAppContext({ user: demoUsers.buyer, path: '/' });
   return mountInApp(ImportsPreview, context, {
     props: { preview, layout, layoutName: 'On-hand counts', problems },
@@ -125,7 +129,9 @@ describe('ImportsPreview', () => {
   it('highlights the row and the cell the server reported', async () => {
     const preview = previewOf('part_number,on_hand\nBAT-12-105,16\nNO-SUCH,3\n');
 
-    const wrapper = await mountPreview(preview, ON_HAND, [{ row: 3, column: 'part_number', message: "unknown part 'NO-SUCH'" }]);
+    const wrapper = await mountPreview(preview, ON_HAND, [
+      { row: 3, column: 'part_number', message: "unknown part 'NO-SUCH'" },
+    ]);
 
     const rows = wrapper.findAll('.el-table__body tr');
     expect(rows.map((row) => row.classes().includes('has-problem'))).toEqual([false, true]);

@@ -22,7 +22,9 @@ class FakeXhr {
   body: FormData | null = null;
   status = 0;
   responseText = '';
-  upload: { onprogress: ((event: { lengthComputable: boolean; loaded: number; total: number }) => void) | null } = { onprogress: null };
+  upload: { onprogress: ((event: { lengthComputable: boolean; loaded: number; total: number }) => void) | null } = {
+    onprogress: null,
+  };
   onload: (() => void) | null = null;
   onerror: (() => void) | null = null;
   onabort: (() => void) | null = null;
@@ -71,7 +73,10 @@ function kindLabels(wrapper: VueWrapper): string[] {
 // Chooses a file through the drop area's own file input, as a person picking it in the dialog does.
 async function chooseFile(wrapper: VueWrapper, name: string, text: string): Promise<void> {
   const input = wrapper.get('input[type="file"]');
-  Object.defineProperty(input.element, 'files', { value: [new File([text], name, { type: 'text/csv' })], configurable: true });
+  Object.defineProperty(input.element, 'files', {
+    value: [new File([text], name, { type: 'text/csv' })],
+    configurable: true,
+  });
   await input.trigger('change');
   await vi.waitFor(() => expect(wrapper.find('.imports-view__file').exists()).toBe(true));
 }

@@ -70,7 +70,10 @@ function reportOf(shortages: ShortageDto[]): LineRiskReport {
     unitsInHorizon: 240,
     unitsBuilt: 237,
     unitsAtRisk: shortages.flatMap((shortage) =>
-      shortage.slotsAtRisk.map(({ lackQty, ...slot }) => ({ ...slot, lacks: [{ partNumber: shortage.partNumber, qty: lackQty, now: true }] })),
+      shortage.slotsAtRisk.map(({ lackQty, ...slot }) => ({
+        ...slot,
+        lacks: [{ partNumber: shortage.partNumber, qty: lackQty, now: true }],
+      })),
     ),
     shortages,
   };
@@ -82,16 +85,21 @@ type Answer = (url: URL) => Response;
 function stubApi(answers: Record<string, Answer>, events?: () => Response) {
   const fetchMock = vi.fn<typeof fetch>((input) => {
     const url = new URL(String(input), 'http://localhost');
-    if (url.pathname === '/api/events') return events ? Promise.resolve(events()) : new Promise<Response>(() => undefined);
+    if (url.pathname === '/api/events')
+      return events ? Promise.resolve(events()) : new Promise<Response>(() => undefined);
     const answer = answers[url.pathname];
-    return Promise.resolve(answer ? answer(url) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer(url) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
 }
 
 function requestsTo(fetchMock: ReturnType<typeof stubApi>, pathname: string): URL[] {
-  return fetchMock.mock.calls.map(([input]) => new URL(String(input), 'http://localhost')).filter((url) => url.pathname === pathname);
+  return fetchMock.mock.calls
+    .map(([input]) => new URL(String(input), 'http://localhost'))
+    .filter((url) => url.pathname === pathname);
 }
 
 async function openLineRisk(path = '/line-risk') {
@@ -128,7 +136,9 @@ describe('LineRiskView', () => {
     const { wrapper } = await openLineRisk();
 
     // Rows of the parts table itself, not of the units table inside an opened row.
-    const rows = wrapper.findAll('tr.el-table__row').filter((row) => row.find('.line-risk-table__part-number').exists());
+    const rows = wrapper
+      .findAll('tr.el-table__row')
+      .filter((row) => row.find('.line-risk-table__part-number').exists());
     expect(rows.map((row) => row.get('.line-risk-table__part-number').text())).toEqual(['BAT-06-312', 'TNK-R60']);
     expect(rows[0]!.text()).toContain('In frozen window');
     expect(rows[0]!.text()).toContain('Hazardous');
@@ -138,7 +148,9 @@ describe('LineRiskView', () => {
     // The first, most urgent part opens with its rescue and the exact units it stops.
     const detail = wrapper.get('[aria-label="Rescue for BAT-06-312"]');
     expect(detail.text()).toContain('Expedite 12 pcs of BAT-06-312 from FBS (Battery Supply Co) by 2026-12-03.');
-    expect(detail.text()).toContain('Build SN26120314 (FS-20W) in slot 13 of 2026-12-03 instead of SN26120313: all its parts are present.');
+    expect(detail.text()).toContain(
+      'Build SN26120314 (FS-20W) in slot 13 of 2026-12-03 instead of SN26120313: all its parts are present.',
+    );
     expect(detail.text()).toContain("Hazardous goods: follow the plant's handling and transport rules.");
     const units = wrapper.get('[aria-label="Units that lack BAT-06-312"]');
     expect(units.text()).toContain('SN26120313');
@@ -149,7 +161,9 @@ describe('LineRiskView', () => {
     const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery])) });
     const { wrapper, router } = await openLineRisk();
 
-    const radio = wrapper.findAll('[aria-label="Horizon"] input[type="radio"]').find((input) => (input.element as HTMLInputElement).value === '4');
+    const radio = wrapper
+      .findAll('[aria-label="Horizon"] input[type="radio"]')
+      .find((input) => (input.element as HTMLInputElement).value === '4');
     await radio!.setValue(true);
     await flushPromises();
 
@@ -202,7 +216,10 @@ describe('LineRiskView', () => {
         }),
         { status: 200, headers: { 'Content-Type': 'text/event-stream' } },
       );
-    const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf(++calls === 1 ? [battery, tank] : [tank])) }, events);
+    const fetchMock = stubApi(
+      { '/api/line-risk': () => jsonResponse(200, reportOf(++calls === 1 ? [battery, tank] : [tank])) },
+      events,
+    );
 
     const { wrapper } = await openLineRisk();
     await vi.waitFor(() => expect(requestsTo(fetchMock, '/api/line-risk')).toHaveLength(2));

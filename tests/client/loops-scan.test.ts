@@ -14,7 +14,11 @@ vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
  */
 const CARD = '000004500018';
 
-function scanned(fromState: 'full' | 'ordered', toState: 'empty' | 'full', event: 'consume' | 'receive'): CardScanResponse {
+function scanned(
+  fromState: 'full' | 'ordered',
+  toState: 'empty' | 'full',
+  event: 'consume' | 'receive',
+): CardScanResponse {
   return {
     card: {
       id: 2,
@@ -103,7 +107,8 @@ describe('CardScanView', () => {
   });
 
   it('explains a wrong check digit in words and stays ready for the next card', async () => {
-    const message = 'The check digit of 000004500017 is wrong: a digit was misread or mistyped. Scan or type the number again.';
+    const message =
+      'The check digit of 000004500017 is wrong: a digit was misread or mistyped. Scan or type the number again.';
     stubScans(
       jsonResponse(400, {
         error: { code: 'invalid_input', message, details: [{ path: ['cardNumber'], message }] },

@@ -58,7 +58,9 @@ function stubApi(answers: Record<string, Answer>) {
     const url = new URL(String(input), 'http://localhost');
     if (url.pathname === '/api/events') return new Promise<Response>(() => undefined);
     const answer = answers[`${init?.method ?? 'GET'} ${url.pathname}`];
-    return Promise.resolve(answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
@@ -66,7 +68,8 @@ function stubApi(answers: Record<string, Answer>) {
 
 function callsTo(fetchMock: ReturnType<typeof stubApi>, method: string, pathname: string) {
   return fetchMock.mock.calls.filter(
-    ([input, init]) => (init?.method ?? 'GET') === method && new URL(String(input), 'http://localhost').pathname === pathname,
+    ([input, init]) =>
+      (init?.method ?? 'GET') === method && new URL(String(input), 'http://localhost').pathname === pathname,
   );
 }
 
@@ -78,13 +81,16 @@ describe('LoopsProposalBadge', () => {
     { recommended: 2, active: 3, word: 'Pull 1', icon: Minus, tone: 'is-pull' },
     { recommended: 4, active: 4, word: 'Right-sized', icon: Check, tone: 'is-right' },
     { recommended: 0, active: 2, word: 'Pull 2', icon: Minus, tone: 'is-pull' },
-  ])('shows “$word” for $recommended recommended and $active active cards', ({ recommended, active, word, icon, tone }) => {
-    const wrapper = mount(LoopsProposalBadge, { props: { recommended, active } });
+  ])(
+    'shows “$word” for $recommended recommended and $active active cards',
+    ({ recommended, active, word, icon, tone }) => {
+      const wrapper = mount(LoopsProposalBadge, { props: { recommended, active } });
 
-    expect(wrapper.text()).toBe(word);
-    expect(wrapper.findComponent(icon).exists()).toBe(true);
-    expect(wrapper.classes()).toContain(tone);
-  });
+      expect(wrapper.text()).toBe(word);
+      expect(wrapper.findComponent(icon).exists()).toBe(true);
+      expect(wrapper.classes()).toContain(tone);
+    },
+  );
 });
 
 describe('LoopsCardStateStrip', () => {
@@ -128,8 +134,20 @@ describe('LoopsView', () => {
       'GET /api/kanban/loops': () =>
         jsonResponse(200, [
           loopOf(),
-          loopOf({ id: 46, partNumber: 'AXL-20', recommendedCards: 3, activeCards: 5, proposal: { action: 'pull', count: 2 } }),
-          loopOf({ id: 47, partNumber: 'AXL-R', recommendedCards: 4, activeCards: 4, proposal: { action: 'none', count: 0 } }),
+          loopOf({
+            id: 46,
+            partNumber: 'AXL-20',
+            recommendedCards: 3,
+            activeCards: 5,
+            proposal: { action: 'pull', count: 2 },
+          }),
+          loopOf({
+            id: 47,
+            partNumber: 'AXL-R',
+            recommendedCards: 4,
+            activeCards: 4,
+            proposal: { action: 'none', count: 0 },
+          }),
         ]),
       'GET /api/suppliers': () => jsonResponse(200, []),
     });

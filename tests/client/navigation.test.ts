@@ -12,8 +12,19 @@ describe('navigationFor', () => {
     const names = navigationFor('admin').map((entry) => entry.routeName);
 
     expect(names).toEqual([
-      'home', 'sequence', 'line-risk', 'horizon', 'loops', 'releases', 'supplier-performance', 'card-scan', 'dock', 'imports', 'calendar',
-      'admin-users', 'admin-outbox',
+      'home',
+      'sequence',
+      'line-risk',
+      'horizon',
+      'loops',
+      'releases',
+      'supplier-performance',
+      'card-scan',
+      'dock',
+      'imports',
+      'calendar',
+      'admin-users',
+      'admin-outbox',
     ]);
   });
 
@@ -59,7 +70,16 @@ describe('AppShellNav', () => {
     const nav = wrapper.get('nav');
     expect(nav.attributes('aria-label')).toBe('Main');
     expect(nav.findAll('a').map((link) => link.text())).toEqual([
-      'Overview', 'Build sequence', 'Line risk', 'Horizon', 'Loops', 'Releases', 'Supplier performance', 'Scan cards', 'Dock', 'Imports',
+      'Overview',
+      'Build sequence',
+      'Line risk',
+      'Horizon',
+      'Loops',
+      'Releases',
+      'Supplier performance',
+      'Scan cards',
+      'Dock',
+      'Imports',
       'Calendar',
     ]);
   });
@@ -71,8 +91,19 @@ describe('AppShellNav', () => {
 
     const links = wrapper.findAll('a');
     expect(links.map((link) => link.text())).toEqual([
-      'Overview', 'Build sequence', 'Line risk', 'Horizon', 'Loops', 'Releases', 'Supplier performance', 'Scan cards', 'Dock', 'Imports',
-      'Calendar', 'Users', 'Outbox',
+      'Overview',
+      'Build sequence',
+      'Line risk',
+      'Horizon',
+      'Loops',
+      'Releases',
+      'Supplier performance',
+      'Scan cards',
+      'Dock',
+      'Imports',
+      'Calendar',
+      'Users',
+      'Outbox',
     ]);
     const current = links.filter((link) => link.attributes('aria-current') === 'page');
     expect(current.map((link) => link.text())).toEqual(['Users']);

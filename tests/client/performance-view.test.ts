@@ -35,16 +35,39 @@ const month = (overrides: Partial<SupplierMonthPerformanceDto>): SupplierMonthPe
 
 const rows: SupplierMonthPerformanceDto[] = [
   // 19 of 20 lines on time = 95 %: exactly on the target threshold.
-  month({ month: '2026-01', lines: 20, onTimeLines: 19, onTimeRate: 0.95, orderedQty: 1000, filledQty: 900, fillRate: 0.9, releases: 4, confirmedReleases: 4, confirmationHoursMedian: 3, confirmationHoursMean: 5 }),
+  month({
+    month: '2026-01',
+    lines: 20,
+    onTimeLines: 19,
+    onTimeRate: 0.95,
+    orderedQty: 1000,
+    filledQty: 900,
+    fillRate: 0.9,
+    releases: 4,
+    confirmedReleases: 4,
+    confirmationHoursMedian: 3,
+    confirmationHoursMean: 5,
+  }),
   // 0 of 5 lines on time; one release never answered.
-  month({ month: '2026-02', lines: 5, onTimeLines: 0, onTimeRate: 0, orderedQty: 250, filledQty: 100, fillRate: 0.4, releases: 1, unansweredReleases: 1 }),
+  month({
+    month: '2026-02',
+    lines: 5,
+    onTimeLines: 0,
+    onTimeRate: 0,
+    orderedQty: 250,
+    filledQty: 100,
+    fillRate: 0.4,
+    releases: 1,
+    unansweredReleases: 1,
+  }),
 ];
 
 function stubApi(answer: () => Response) {
   const fetchMock = vi.fn<typeof fetch>((input) => {
     const url = new URL(String(input), 'http://localhost');
     if (url.pathname === '/api/suppliers/performance') return Promise.resolve(answer());
-    if (url.pathname === '/api/suppliers') return Promise.resolve(jsonResponse(200, [{ code: 'SUP-A', name: 'Supplier A' }]));
+    if (url.pathname === '/api/suppliers')
+      return Promise.resolve(jsonResponse(200, [{ code: 'SUP-A', name: 'Supplier A' }]));
     return Promise.resolve(jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
   });
   vi.stubGlobal('fetch', fetchMock);
@@ -70,7 +93,9 @@ describe('SupplierPerformanceView', () => {
 
     const wrapper = await openView();
 
-    const asked = fetchMock.mock.calls.map(([input]) => new URL(String(input), 'http://localhost')).find((url) => url.pathname === '/api/suppliers/performance');
+    const asked = fetchMock.mock.calls
+      .map(([input]) => new URL(String(input), 'http://localhost'))
+      .find((url) => url.pathname === '/api/suppliers/performance');
     const [from, to] = defaultMonthRange(localToday());
     expect(asked?.searchParams.get('to')).toBe(to);
     expect(asked?.searchParams.get('from')).toBe(from);
@@ -101,7 +126,11 @@ describe('SupplierPerformanceView', () => {
 
   it('shows a load failure with a retry that asks again', async () => {
     let calls = 0;
-    stubApi(() => ((calls += 1) === 1 ? jsonResponse(500, { error: { code: 'internal', message: 'Database busy.' } }) : jsonResponse(200, rows)));
+    stubApi(() =>
+      (calls += 1) === 1
+        ? jsonResponse(500, { error: { code: 'internal', message: 'Database busy.' } })
+        : jsonResponse(200, rows),
+    );
 
     const wrapper = await openView();
     expect(wrapper.text()).toContain('Supplier performance could not be loaded: Database busy.');
@@ -116,6 +145,12 @@ describe('SupplierPerformanceView', () => {
 describe('rateBand', () => {
   // Thresholds are common practice, no source: on target from 95 %, watch from 85 %.
   it('puts a rate on the threshold into the better band', () => {
-    expect([rateBand(0.95), rateBand(0.9499), rateBand(0.85), rateBand(0.8499), rateBand(null)]).toEqual(['on-target', 'watch', 'watch', 'act', null]);
+    expect([rateBand(0.95), rateBand(0.9499), rateBand(0.85), rateBand(0.8499), rateBand(null)]).toEqual([
+      'on-target',
+      'watch',
+      'watch',
+      'act',
+      null,
+    ]);
   });
 });

@@ -20,17 +20,38 @@ const confirmation: Confirmation = {
     plantName: 'Cardloop demo plant',
     releaseDate: '2026-12-01',
     lines: [
-      { id: 11, partNumber: 'TNK-R60', qty: 6, needDate: '2026-12-04', description: 'Recovery tank 60 L', uom: 'H87', hazardous: false },
-      { id: 12, partNumber: 'BAT-06-312', qty: 12, needDate: '2026-12-07', description: 'Battery 6 V', uom: 'H87', hazardous: true },
+      {
+        id: 11,
+        partNumber: 'TNK-R60',
+        qty: 6,
+        needDate: '2026-12-04',
+        description: 'Recovery tank 60 L',
+        uom: 'H87',
+        hazardous: false,
+      },
+      {
+        id: 12,
+        partNumber: 'BAT-06-312',
+        qty: 12,
+        needDate: '2026-12-07',
+        description: 'Battery 6 V',
+        uom: 'H87',
+        hazardous: true,
+      },
     ],
   },
   expiresAt: '2026-12-08T06:00:00.000Z',
 };
 
-function stubConfirm(view: () => Response, answer: (body: unknown) => Response = () => jsonResponse(200, { status: 'confirmed', number: 'R261201-SRM', changedLines: 0 })) {
+function stubConfirm(
+  view: () => Response,
+  answer: (body: unknown) => Response = () =>
+    jsonResponse(200, { status: 'confirmed', number: 'R261201-SRM', changedLines: 0 }),
+) {
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
     const url = new URL(String(input), 'http://localhost');
-    if (url.pathname !== `/api/confirm/${TOKEN}`) return Promise.resolve(jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    if (url.pathname !== `/api/confirm/${TOKEN}`)
+      return Promise.resolve(jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
     return Promise.resolve(init?.method === 'POST' ? answer(JSON.parse(String(init.body))) : view());
   });
   vi.stubGlobal('fetch', fetchMock);
@@ -38,7 +59,9 @@ function stubConfirm(view: () => Response, answer: (body: unknown) => Response =
 }
 
 function posted(fetchMock: ReturnType<typeof stubConfirm>) {
-  return fetchMock.mock.calls.filter(([, init]) => init?.method === 'POST').map(([, init]) => JSON.parse(String(init!.body)));
+  return fetchMock.mock.calls
+    .filter(([, init]) => init?.method === 'POST')
+    .map(([, init]) => JSON.parse(String(init!.body)));
 }
 
 async function openConfirm(options: { signedInAs?: typeof demoUsers.buyer } = {}) {
@@ -49,7 +72,10 @@ async function openConfirm(options: { signedInAs?: typeof demoUsers.buyer } = {}
 }
 
 function qtyInput(wrapper: Awaited<ReturnType<typeof openConfirm>>, lineId: number): HTMLInputElement {
-  return wrapper.get(`#confirm-line-${lineId}-qty`).element.querySelector('input') ?? (wrapper.get(`#confirm-line-${lineId}-qty`).element as HTMLInputElement);
+  return (
+    wrapper.get(`#confirm-line-${lineId}-qty`).element.querySelector('input') ??
+    (wrapper.get(`#confirm-line-${lineId}-qty`).element as HTMLInputElement)
+  );
 }
 
 describe('ConfirmView', () => {

@@ -21,7 +21,12 @@ vi.mock('element-plus', async (importOriginal) => {
   return { ...original, ElMessageBox: { confirm: confirmBox } };
 });
 
-const supplierUser: SessionUser = { email: 'ferncombe.lena@example.net', name: 'Lena Haverford', role: 'supplier', supplierCode: 'FBS' };
+const supplierUser: SessionUser = {
+  email: 'ferncombe.lena@example.net',
+  name: 'Lena Haverford',
+  role: 'supplier',
+  supplierCode: 'FBS',
+};
 
 const line = (overrides: Partial<ReleaseLine>): ReleaseLine => ({
   id: 1,
@@ -69,7 +74,13 @@ const exception = release({
     line({ id: 3, needDate: '2026-12-11', confirmedQty: 15, shipDate: '2026-12-14' }),
   ],
 });
-const sent = release({ number: 'R261201-FBS', supplierCode: 'FBS', supplierName: 'Battery Supply Co', id: 2, lines: [line({ id: 4, partNumber: 'BAT-06-312', hazardous: true })] });
+const sent = release({
+  number: 'R261201-FBS',
+  supplierCode: 'FBS',
+  supplierName: 'Battery Supply Co',
+  id: 2,
+  lines: [line({ id: 4, partNumber: 'BAT-06-312', hazardous: true })],
+});
 
 type Answer = (url: URL, init?: RequestInit) => Response;
 
@@ -77,7 +88,9 @@ function stubApi(answers: Record<string, Answer>) {
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
     const url = new URL(String(input), 'http://localhost');
     const answer = answers[`${init?.method ?? 'GET'} ${url.pathname}`];
-    return Promise.resolve(answer ? answer(url, init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer(url, init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
@@ -106,7 +119,10 @@ describe('ReleasesView', () => {
   });
 
   it('puts the exceptions first with the differences line by line, then every release in the table', async () => {
-    stubApi({ 'GET /api/releases': listAnswer([exception, sent]), 'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null }) });
+    stubApi({
+      'GET /api/releases': listAnswer([exception, sent]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null }),
+    });
 
     const wrapper = await openReleases();
 
@@ -161,15 +177,26 @@ describe('ReleasesView', () => {
     getButton(wrapper.element, 'Accept changes').click();
     await flushPromises();
 
-    expect(confirmBox).toHaveBeenCalledWith(expect.stringContaining('become the confirmed ones'), 'Accept the supplier’s changes?', expect.any(Object));
-    expect(fetchMock.mock.calls.some(([input, init]) => String(input).endsWith('/accept-exception') && init?.method === 'POST')).toBe(true);
+    expect(confirmBox).toHaveBeenCalledWith(
+      expect.stringContaining('become the confirmed ones'),
+      'Accept the supplier’s changes?',
+      expect.any(Object),
+    );
+    expect(
+      fetchMock.mock.calls.some(
+        ([input, init]) => String(input).endsWith('/accept-exception') && init?.method === 'POST',
+      ),
+    ).toBe(true);
     expect(wrapper.find('[aria-labelledby="releases-exceptions-heading"]').exists()).toBe(false);
     expect(wrapper.get('.releases-table tr.el-table__row').text()).toContain('Confirmed');
   });
 
   it('does nothing when the buyer backs out of cancelling', async () => {
     confirmBox.mockImplementationOnce(() => Promise.reject(new Error('cancel')));
-    const fetchMock = stubApi({ 'GET /api/releases': listAnswer([exception]), 'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null }) });
+    const fetchMock = stubApi({
+      'GET /api/releases': listAnswer([exception]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null }),
+    });
     const wrapper = await openReleases();
 
     getButton(wrapper.element, 'Cancel release').click();
@@ -179,7 +206,10 @@ describe('ReleasesView', () => {
   });
 
   it('offers an admin the job time and a buyer only the words for it', async () => {
-    stubApi({ 'GET /api/releases': listAnswer([]), 'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '05:30', lastRunDate: '2026-12-01' }) });
+    stubApi({
+      'GET /api/releases': listAnswer([]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '05:30', lastRunDate: '2026-12-01' }),
+    });
 
     const admin = await openReleases(demoUsers.admin);
 
@@ -204,15 +234,30 @@ describe('ReleasesView', () => {
 
 describe('release presentation', () => {
   it('tells a short quantity and a late ship date apart', () => {
-    expect(lineDifference(exception.lines[0]!)).toEqual({ answered: true, qtyChanged: true, late: false, differs: true });
-    expect(lineDifference(exception.lines[1]!)).toEqual({ answered: true, qtyChanged: false, late: false, differs: false });
-    expect(lineDifference(exception.lines[2]!)).toEqual({ answered: true, qtyChanged: false, late: true, differs: true });
+    expect(lineDifference(exception.lines[0]!)).toEqual({
+      answered: true,
+      qtyChanged: true,
+      late: false,
+      differs: true,
+    });
+    expect(lineDifference(exception.lines[1]!)).toEqual({
+      answered: true,
+      qtyChanged: false,
+      late: false,
+      differs: false,
+    });
+    expect(lineDifference(exception.lines[2]!)).toEqual({
+      answered: true,
+      qtyChanged: false,
+      late: true,
+      differs: true,
+    });
     expect(lineDifference(line({}))).toEqual({ answered: false, qtyChanged: false, late: false, differs: false });
   });
 
   it('says when a run made nothing new', () => {
-    expect(runSummary({ date: '2026-12-01', releases: [], existing: ['R261201-GDC', 'R261201-FBS'] }, 'Tue 1 Dec')).toBe(
-      'Nothing new for Tue 1 Dec: 2 releases were already made that day.',
-    );
+    expect(
+      runSummary({ date: '2026-12-01', releases: [], existing: ['R261201-GDC', 'R261201-FBS'] }, 'Tue 1 Dec'),
+    ).toBe('Nothing new for Tue 1 Dec: 2 releases were already made that day.');
   });
 });

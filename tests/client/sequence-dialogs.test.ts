@@ -33,7 +33,9 @@ function stubApi(answers: Record<string, () => Response>) {
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
     const url = new URL(String(input), 'http://localhost');
     const answer = answers[`${init?.method ?? 'GET'} ${url.pathname}`];
-    return Promise.resolve(answer ? answer() : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer() : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
@@ -41,7 +43,9 @@ function stubApi(answers: Record<string, () => Response>) {
 
 function bodiesOf(fetchMock: ReturnType<typeof stubApi>, method: string, pathname: string): unknown[] {
   return fetchMock.mock.calls
-    .filter(([input, init]) => init?.method === method && new URL(String(input), 'http://localhost').pathname === pathname)
+    .filter(
+      ([input, init]) => init?.method === method && new URL(String(input), 'http://localhost').pathname === pathname,
+    )
     .map(([, init]) => JSON.parse(String(init?.body)));
 }
 
@@ -57,7 +61,9 @@ function errorUnder(dialog: HTMLElement, label: string): string {
 
 async function openAddDialog() {
   const context = await createAppContext({ user: planner, path: '/sequence' });
-  const wrapper = await mountInApp(SequenceAddUnitDialog, context, { props: { modelValue: true, days: board.days, models: board.models } });
+  const wrapper = await mountInApp(SequenceAddUnitDialog, context, {
+    props: { modelValue: true, days: board.days, models: board.models },
+  });
   const dialog = document.body.querySelector<HTMLElement>('[role="dialog"]')!;
   return { wrapper, dialog };
 }
@@ -80,7 +86,8 @@ describe('SequenceAddUnitDialog', () => {
 
   it('adds the unit with a trimmed serial and reloads the board', async () => {
     const fetchMock = stubApi({
-      'POST /api/sequence/units': () => jsonResponse(201, { id: 9, date: OPEN, sequence: 1, model: 'M-A', serial: 'SN-NEW-1', qty: 1 }),
+      'POST /api/sequence/units': () =>
+        jsonResponse(201, { id: 9, date: OPEN, sequence: 1, model: 'M-A', serial: 'SN-NEW-1', qty: 1 }),
       'GET /api/sequence': () => jsonResponse(200, board),
     });
     const { wrapper, dialog } = await openAddDialog();
@@ -89,15 +96,25 @@ describe('SequenceAddUnitDialog', () => {
     getButton(dialog, 'Add unit').click();
     await vi.waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
 
-    expect(bodiesOf(fetchMock, 'POST', '/api/sequence/units')).toEqual([{ date: OPEN, model: 'M-A', serial: 'SN-NEW-1', qty: 1 }]);
-    expect(fetchMock.mock.calls.some(([input]) => new URL(String(input), 'http://localhost').pathname === '/api/sequence')).toBe(true);
+    expect(bodiesOf(fetchMock, 'POST', '/api/sequence/units')).toEqual([
+      { date: OPEN, model: 'M-A', serial: 'SN-NEW-1', qty: 1 },
+    ]);
+    expect(
+      fetchMock.mock.calls.some(([input]) => new URL(String(input), 'http://localhost').pathname === '/api/sequence'),
+    ).toBe(true);
   });
 
   it('shows a serial already in the sequence (409) under the serial input', async () => {
     const message = 'Serial SN-NEW-1 is already in the sequence (2026-12-07, position 3).';
     stubApi({
       'POST /api/sequence/units': () =>
-        jsonResponse(409, { error: { code: 'conflict', message, details: [{ path: ['serial'], message: 'already used on 2026-12-07, position 3' }] } }),
+        jsonResponse(409, {
+          error: {
+            code: 'conflict',
+            message,
+            details: [{ path: ['serial'], message: 'already used on 2026-12-07, position 3' }],
+          },
+        }),
     });
     const { wrapper, dialog } = await openAddDialog();
     await fill(wrapper, dialog, OPEN);
@@ -110,14 +127,17 @@ describe('SequenceAddUnitDialog', () => {
 
   it('asks before adding to a frozen day and then sends allowFrozen', async () => {
     const fetchMock = stubApi({
-      'POST /api/sequence/units': () => jsonResponse(201, { id: 9, date: FROZEN, sequence: 1, model: 'M-A', serial: 'SN-NEW-1', qty: 1 }),
+      'POST /api/sequence/units': () =>
+        jsonResponse(201, { id: 9, date: FROZEN, sequence: 1, model: 'M-A', serial: 'SN-NEW-1', qty: 1 }),
       'GET /api/sequence': () => jsonResponse(200, board),
     });
     const { wrapper, dialog } = await openAddDialog();
     await fill(wrapper, dialog, FROZEN);
 
     getButton(dialog, 'Add unit').click();
-    await vi.waitFor(() => expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'));
+    await vi.waitFor(() =>
+      expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'),
+    );
     getButton(document.body, 'Add to the frozen day').click();
     await vi.waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
 

@@ -40,10 +40,26 @@ function boardOf(): SequenceBoard {
       { partNumber: 'M-B', description: 'Model B' },
     ],
     days: [
-      day(FROZEN, [['S1', 'M-A'], ['S2', 'M-B']], { frozen: true }),
-      day(FULL, [['S3', 'M-A'], ['S4', 'M-A'], ['S5', 'M-B']]),
+      day(
+        FROZEN,
+        [
+          ['S1', 'M-A'],
+          ['S2', 'M-B'],
+        ],
+        { frozen: true },
+      ),
+      day(FULL, [
+        ['S3', 'M-A'],
+        ['S4', 'M-A'],
+        ['S5', 'M-B'],
+      ]),
       day(OPEN, [['S6', 'M-B']]),
-      day(OVER, [['S7', 'M-A'], ['S8', 'M-B'], ['S9', 'M-A'], ['S10', 'M-B']]),
+      day(OVER, [
+        ['S7', 'M-A'],
+        ['S8', 'M-B'],
+        ['S9', 'M-A'],
+        ['S10', 'M-B'],
+      ]),
     ],
   };
 }
@@ -61,7 +77,11 @@ function stubApi(answers: Record<string, Answer> = {}) {
       return jsonResponse(200, {
         days: body.days.map((order) => ({
           ...board.days.find((known) => known.date === order.date)!,
-          units: order.serials.map((serial, index) => ({ ...units.get(serial)!, date: order.date, sequence: index + 1 })),
+          units: order.serials.map((serial, index) => ({
+            ...units.get(serial)!,
+            date: order.date,
+            sequence: index + 1,
+          })),
           load: order.serials.length,
         })),
       });
@@ -72,7 +92,9 @@ function stubApi(answers: Record<string, Answer> = {}) {
     if (url.pathname === '/api/events') return new Promise<Response>(() => undefined);
     const key = `${init?.method ?? 'GET'} ${url.pathname}`;
     const answer = answers[key] ?? defaults[key];
-    return Promise.resolve(answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
+    return Promise.resolve(
+      answer ? answer(init) : jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }),
+    );
   });
   vi.stubGlobal('fetch', fetchMock);
   return fetchMock;
@@ -80,7 +102,10 @@ function stubApi(answers: Record<string, Answer> = {}) {
 
 function putBodies(fetchMock: ReturnType<typeof stubApi>): unknown[] {
   return fetchMock.mock.calls
-    .filter(([input, init]) => init?.method === 'PUT' && new URL(String(input), 'http://localhost').pathname === '/api/sequence/days')
+    .filter(
+      ([input, init]) =>
+        init?.method === 'PUT' && new URL(String(input), 'http://localhost').pathname === '/api/sequence/days',
+    )
     .map(([, init]) => JSON.parse(String(init?.body)));
 }
 
@@ -106,7 +131,9 @@ function serialsOn(wrapper: Awaited<ReturnType<typeof openSequence>>, date: stri
 
 /** The newest button of that name: a message box that just closed may still be fading out. */
 function lastButton(name: string): HTMLButtonElement {
-  const buttons = [...document.querySelectorAll('button')].filter((candidate) => candidate.textContent?.trim() === name);
+  const buttons = [...document.querySelectorAll('button')].filter(
+    (candidate) => candidate.textContent?.trim() === name,
+  );
   if (buttons.length === 0) throw new Error(`no button "${name}"`);
   return buttons[buttons.length - 1]!;
 }
@@ -114,7 +141,9 @@ function lastButton(name: string): HTMLButtonElement {
 async function chooseFromMenu(serial: string, item: string): Promise<void> {
   (document.querySelector(`[aria-label="Actions for ${serial}"]`) as HTMLElement).click();
   await flushPromises();
-  const menuItem = [...document.querySelectorAll('[role="menuitem"]')].find((candidate) => candidate.textContent?.trim() === item);
+  const menuItem = [...document.querySelectorAll('[role="menuitem"]')].find(
+    (candidate) => candidate.textContent?.trim() === item,
+  );
   if (!menuItem) throw new Error(`no menu item "${item}"`);
   (menuItem as HTMLElement).click();
   await flushPromises();
@@ -161,7 +190,9 @@ describe('SequenceView', () => {
     expect(column(wrapper, FROZEN).get('[data-test="frozen-flag"]').text()).toBe('Frozen');
     expect(column(wrapper, FULL).text()).toContain('Full');
     expect(column(wrapper, OVER).get('[data-test="over-flag"]').text()).toBe('Over capacity by 1');
-    expect(column(wrapper, FULL).get('[data-test="model-mix"]').attributes('aria-label')).toBe('Model mix: 2 M-A, 1 M-B');
+    expect(column(wrapper, FULL).get('[data-test="model-mix"]').attributes('aria-label')).toBe(
+      'Model mix: 2 M-A, 1 M-B',
+    );
     expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
     expect(column(wrapper, FULL).text()).toContain('M-A');
   });
@@ -174,11 +205,11 @@ describe('SequenceView', () => {
 
     expect(putBodies(fetchMock)).toEqual([{ days: [{ date: FULL, serials: ['S4', 'S3', 'S5'] }] }]);
     expect(serialsOn(wrapper, FULL)).toEqual(['S4', 'S3', 'S5']);
-    expect(column(wrapper, FULL).findAll('.sequence-unit-card__position').map((cell) => cell.text())).toEqual([
-      'Position 1',
-      'Position 2',
-      'Position 3',
-    ]);
+    expect(
+      column(wrapper, FULL)
+        .findAll('.sequence-unit-card__position')
+        .map((cell) => cell.text()),
+    ).toEqual(['Position 1', 'Position 2', 'Position 3']);
   });
 
   it('saves a drop onto another day as one change naming both days', async () => {
@@ -224,7 +255,9 @@ describe('SequenceView', () => {
 
   it('puts the days back and says why when the server refuses a move', async () => {
     const reason = 'Fri 2026-12-04 would hold 4 units, over the daily capacity of 3.';
-    stubApi({ 'PUT /api/sequence/days': () => jsonResponse(409, { error: { code: 'over_capacity', message: reason } }) });
+    stubApi({
+      'PUT /api/sequence/days': () => jsonResponse(409, { error: { code: 'over_capacity', message: reason } }),
+    });
     const wrapper = await openSequence();
     const target = wrapper.findAllComponents(draggable)[1]!;
 
@@ -252,7 +285,9 @@ describe('SequenceView', () => {
     let failing = true;
     stubApi({
       'GET /api/sequence': () =>
-        failing ? jsonResponse(500, { error: { code: 'internal', message: 'Something went wrong on the server.' } }) : jsonResponse(200, boardOf()),
+        failing
+          ? jsonResponse(500, { error: { code: 'internal', message: 'Something went wrong on the server.' } })
+          : jsonResponse(200, boardOf()),
     });
     const wrapper = await openSequence(demoUsers.admin);
     expect(wrapper.text()).toContain('The build sequence could not be loaded: Something went wrong on the server.');

@@ -6,9 +6,15 @@ import { zodRule } from '@/utils/zod-rule';
 // Runs a rule the way Element Plus's async-validator does and returns the message, if any.
 function messageFrom(rule: FormItemRule, value: unknown): string | undefined {
   let message: string | undefined;
-  rule.validator!(rule, value, (error?: string | Error) => {
-    message = error instanceof Error ? error.message : error;
-  }, {}, {});
+  rule.validator!(
+    rule,
+    value,
+    (error?: string | Error) => {
+      message = error instanceof Error ? error.message : error;
+    },
+    {},
+    {},
+  );
   return message;
 }
 

@@ -29,7 +29,10 @@ test.describe('Dock', () => {
   test('receiving moves a delivery to the dock, counts it in and sees the new on-hand', async ({ page, request }) => {
     // The demo's scheduled parts have planned releases due, so today's run sends releases.
     const buyer = await tokenOf(request, 'buyer@example.com');
-    const run = await request.post('/api/releases/run', { headers: { Authorization: `Bearer ${buyer}` }, data: { date: plantToday() } });
+    const run = await request.post('/api/releases/run', {
+      headers: { Authorization: `Bearer ${buyer}` },
+      data: { date: plantToday() },
+    });
     expect(run.status()).toBe(200);
     const login = new LoginPage(page);
     await login.open();
@@ -70,7 +73,9 @@ test.describe('Dock', () => {
     const before = new Map<string, number>();
     for (const partNumber of counted.keys()) before.set(partNumber, await onHandOf(request, receiving, partNumber));
     if (await dialog.locator('[data-test="hazard-caution"]').count()) {
-      await expect(dialog.locator('[data-test="hazard-caution"]')).toContainText('check the packaging for damage or leaks');
+      await expect(dialog.locator('[data-test="hazard-caution"]')).toContainText(
+        'check the packaging for damage or leaks',
+      );
     }
 
     await dock.recordCounts();

@@ -3,7 +3,9 @@ import { LoginPage } from './pages/login-page';
 
 const DEMO_PASSWORD = 'cardloop-demo';
 
-test('a buyer e-mails a supplier its forecast and the admin sees it delivered by the demo mail server', async ({ page }) => {
+test('a buyer e-mails a supplier its forecast and the admin sees it delivered by the demo mail server', async ({
+  page,
+}) => {
   const login = new LoginPage(page);
   await login.open();
   await login.signIn('buyer@example.com', DEMO_PASSWORD);
@@ -23,7 +25,9 @@ test('a buyer e-mails a supplier its forecast and the admin sees it delivered by
   // The outbox job runs every ten seconds; reload until the demo server has taken the message.
   await expect(async () => {
     await page.getByRole('button', { name: /refresh/i }).click();
-    await expect(page.getByRole('row', { name: /Demand forecast .* for Heronbank/ })).toContainText('Sent', { timeout: 1000 });
+    await expect(page.getByRole('row', { name: /Demand forecast .* for Heronbank/ })).toContainText('Sent', {
+      timeout: 1000,
+    });
   }).toPass({ timeout: 30_000 });
 
   await page.getByRole('tab', { name: 'Captured by the demo mail server' }).click();

@@ -56,14 +56,22 @@ test.describe('Horizon', () => {
     await horizon.partButtons().filter({ hasText: partNumber }).first().click();
     const before = quantity(await horizon.firstProjectedAvailable().textContent());
     await page.evaluate(() => Object.assign(window, { horizonNotReloaded: true }));
-    const signIn = await request.post('/api/auth/login', { data: { email: 'admin@example.com', password: DEMO_PASSWORD } });
+    const signIn = await request.post('/api/auth/login', {
+      data: { email: 'admin@example.com', password: DEMO_PASSWORD },
+    });
     const { token } = (await signIn.json()) as { token: string };
-    const plan = await request.get(`/api/plan?part=${encodeURIComponent(partNumber)}`, { headers: { Authorization: `Bearer ${token}` } });
+    const plan = await request.get(`/api/plan?part=${encodeURIComponent(partNumber)}`, {
+      headers: { Authorization: `Bearer ${token}` },
+    });
     const { part } = (await plan.json()) as { part: { onHand: number } };
     const imported = await request.post('/api/imports/on-hand', {
       headers: { Authorization: `Bearer ${token}` },
       multipart: {
-        file: { name: 'on-hand.csv', mimeType: 'text/csv', buffer: Buffer.from(`part_number,on_hand\n${partNumber},${part.onHand + 100}\n`) },
+        file: {
+          name: 'on-hand.csv',
+          mimeType: 'text/csv',
+          buffer: Buffer.from(`part_number,on_hand\n${partNumber},${part.onHand + 100}\n`),
+        },
       },
     });
     expect(imported.ok()).toBe(true);
@@ -72,9 +80,13 @@ test.describe('Horizon', () => {
     await expect
       .poll(async () => quantity(await horizon.firstProjectedAvailable().textContent()), { timeout: 15_000 })
       .toBeGreaterThan(before);
-    await expect(horizon.drawer().getByTestId('part-on-hand')).toHaveText(new RegExp(`^${(part.onHand + 100).toLocaleString('en')}\\b`));
+    await expect(horizon.drawer().getByTestId('part-on-hand')).toHaveText(
+      new RegExp(`^${(part.onHand + 100).toLocaleString('en')}\\b`),
+    );
     await expect(horizon.drawerUpdatedNote()).toBeVisible();
-    expect(await page.evaluate(() => (window as unknown as { horizonNotReloaded?: boolean }).horizonNotReloaded)).toBe(true);
+    expect(await page.evaluate(() => (window as unknown as { horizonNotReloaded?: boolean }).horizonNotReloaded)).toBe(
+      true,
+    );
     await expect(downloadedNote).toBeHidden({ timeout: 10_000 });
     await page.screenshot({ path: 'test-results/horizon.png' });
   });

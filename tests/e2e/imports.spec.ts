@@ -80,7 +80,10 @@ test.describe('imports', () => {
     await expect(page.getByRole('columnheader', { name: 'Last error' })).toBeVisible();
 
     await page.getByRole('tab', { name: 'Captured by the demo mail server' }).click();
-    await expect(page.getByRole('tab', { name: 'Captured by the demo mail server' })).toHaveAttribute('aria-selected', 'true');
+    await expect(page.getByRole('tab', { name: 'Captured by the demo mail server' })).toHaveAttribute(
+      'aria-selected',
+      'true',
+    );
 
     // The e2e server runs the embedded fake SMTP server, so the tab lists what it caught (or says it caught nothing).
     await expect(page.getByText('In the demo, mail goes to a local server')).toBeVisible();

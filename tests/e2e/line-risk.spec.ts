@@ -5,7 +5,9 @@ import { LoginPage } from './pages/login-page';
 const DEMO_PASSWORD = 'cardloop-demo';
 
 test.describe('Line risk', () => {
-  test('a planner sees which units the demo plant cannot build, what stops them and how to rescue the first', async ({ page }) => {
+  test('a planner sees which units the demo plant cannot build, what stops them and how to rescue the first', async ({
+    page,
+  }) => {
     const login = new LoginPage(page);
     await login.open();
     await login.signIn('planner@example.com', DEMO_PASSWORD);
@@ -19,9 +21,17 @@ test.describe('Line risk', () => {
     // The demo runs four bought parts short inside its first two working weeks.
     await expect(lineRisk.partRows().first()).toBeVisible();
     expect(await lineRisk.partRows().count()).toBeGreaterThanOrEqual(1);
-    const firstPart = (await lineRisk.partRows().first().locator('.line-risk-table__part-number').textContent())!.trim();
-    await expect(lineRisk.rescue(firstPart)).toContainText(new RegExp(`Expedite \\d[\\d,.]* \\w+ of ${firstPart} from \\w+`));
-    await expect(lineRisk.rescue(firstPart)).toContainText(/Build SN\d+ \([\w-]+\) in slot \d+ of \d{4}-\d{2}-\d{2} instead of SN\d+: all its parts are present\./);
+    const firstPart = (await lineRisk
+      .partRows()
+      .first()
+      .locator('.line-risk-table__part-number')
+      .textContent())!.trim();
+    await expect(lineRisk.rescue(firstPart)).toContainText(
+      new RegExp(`Expedite \\d[\\d,.]* \\w+ of ${firstPart} from \\w+`),
+    );
+    await expect(lineRisk.rescue(firstPart)).toContainText(
+      /Build SN\d+ \([\w-]+\) in slot \d+ of \d{4}-\d{2}-\d{2} instead of SN\d+: all its parts are present\./,
+    );
     await expect(lineRisk.unitsLacking(firstPart).first()).toContainText(/SN\d+/);
     await expect(page.getByText('Hazardous', { exact: true }).first()).toBeVisible();
     await page.screenshot({ path: 'test-results/line-risk.png', animations: 'disabled' });

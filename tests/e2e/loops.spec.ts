@@ -44,7 +44,9 @@ test.describe('Loops', () => {
     const qrCodes = print.labels().getByRole('img', { name: /^QR code of card/ });
     await expect(qrCodes).toHaveCount(recommended);
     // The drawing really decodes: an image that failed to load has no natural width.
-    await expect.poll(() => qrCodes.first().evaluate((image: HTMLImageElement) => image.naturalWidth)).toBeGreaterThan(0);
+    await expect
+      .poll(() => qrCodes.first().evaluate((image: HTMLImageElement) => image.naturalWidth))
+      .toBeGreaterThan(0);
     const cardNumbers = await print.cardNumbers();
     expect(cardNumbers).toHaveLength(recommended);
     // Printed numbers carry a GS1 mod-10 check digit (GS1 General Specifications, section 7.9).

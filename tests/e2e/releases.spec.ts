@@ -26,11 +26,19 @@ interface LoopRow {
 async function emptyOneKanbanCard(request: APIRequestContext, token: string): Promise<LoopRow> {
   const headers = { Authorization: `Bearer ${token}` };
   const loops = (await (await request.get('/api/kanban/loops', { headers })).json()) as LoopRow[];
-  const loop = loops.find((candidate) => candidate.kind === 'supplier' && candidate.supplierCode && candidate.recommendedCards > candidate.activeCards);
+  const loop = loops.find(
+    (candidate) =>
+      candidate.kind === 'supplier' && candidate.supplierCode && candidate.recommendedCards > candidate.activeCards,
+  );
   expect(loop, 'a supplier loop that proposes cards').toBeDefined();
-  const accepted = await request.post(`/api/kanban/loops/${loop!.id}/accept`, { headers, data: { expectedRecommended: loop!.recommendedCards } });
+  const accepted = await request.post(`/api/kanban/loops/${loop!.id}/accept`, {
+    headers,
+    data: { expectedRecommended: loop!.recommendedCards },
+  });
   expect(accepted.ok()).toBe(true);
-  const cards = (await (await request.get(`/api/kanban/loops/${loop!.id}/cards`, { headers })).json()) as { cardNumber: string }[];
+  const cards = (await (await request.get(`/api/kanban/loops/${loop!.id}/cards`, { headers })).json()) as {
+    cardNumber: string;
+  }[];
   const scan = await request.post('/api/kanban/scans', { headers, data: { cardNumber: cards[0]!.cardNumber } });
   expect(scan.ok()).toBe(true);
   return loop!;
@@ -49,7 +57,11 @@ async function confirmationLink(request: APIRequestContext, adminToken: string, 
   return link;
 }
 
-test('a buyer runs today’s releases, the supplier proposes a change from the e-mailed link, and the buyer accepts it', async ({ page, browser, request }) => {
+test('a buyer runs today’s releases, the supplier proposes a change from the e-mailed link, and the buyer accepts it', async ({
+  page,
+  browser,
+  request,
+}) => {
   const buyerToken = await apiToken(request, 'buyer@example.com');
   const loop = await emptyOneKanbanCard(request, buyerToken);
 

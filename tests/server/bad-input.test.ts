@@ -31,7 +31,21 @@ const junkValue = fc.oneof(
 // Objects and arrays only: the HTTP client cannot send a bare number or boolean as a JSON body.
 const junkBody = fc.oneof(
   fc.dictionary(
-    fc.oneof(fc.string({ maxLength: 12 }), fc.constantFrom('email', 'password', 'role', 'lines', 'cardNumber', 'event', 'containerQty', 'dailyDemand', 'workingWeekdays', 'holidays')),
+    fc.oneof(
+      fc.string({ maxLength: 12 }),
+      fc.constantFrom(
+        'email',
+        'password',
+        'role',
+        'lines',
+        'cardNumber',
+        'event',
+        'containerQty',
+        'dailyDemand',
+        'workingWeekdays',
+        'holidays',
+      ),
+    ),
     fc.jsonValue({ maxDepth: 2 }),
     { maxKeys: 6 },
   ),
@@ -47,17 +61,27 @@ describe('every published route under malformed input', () => {
       fc.asyncProperty(
         fc.integer({ min: 0, max: 10_000 }),
         junkValue,
-        fc.dictionary(fc.constantFrom('part', 'from', 'to', 'supplier', 'format', 'cards', 'source', 'status'), junkValue, { maxKeys: 4 }),
+        fc.dictionary(
+          fc.constantFrom('part', 'from', 'to', 'supplier', 'format', 'cards', 'source', 'status'),
+          junkValue,
+          { maxKeys: 4 },
+        ),
         junkBody,
         async (pick, pathValue, query, body) => {
           const operation = operations[pick % operations.length];
           const path = `/api${operation.path.replace(/\{\w+\}/g, encodeURIComponent(String(pathValue)))}`;
           const stringQuery = Object.fromEntries(Object.entries(query).map(([key, value]) => [key, String(value)]));
 
-          const response = await request(context.app)[operation.method](path).query(stringQuery).set(bearer(context.tokens.admin)).send(body as object);
+          const response = await request(context.app)
+            [operation.method](path)
+            .query(stringQuery)
+            .set(bearer(context.tokens.admin))
+            .send(body as object);
 
           if (response.status >= 400) {
-            expect(response.status, `${operation.method.toUpperCase()} ${path} ${JSON.stringify(body)}`).toBeLessThan(500);
+            expect(response.status, `${operation.method.toUpperCase()} ${path} ${JSON.stringify(body)}`).toBeLessThan(
+              500,
+            );
             expect(response.body.error?.code, `${operation.method.toUpperCase()} ${path}`).toEqual(expect.any(String));
           }
         },

@@ -55,9 +55,14 @@ afterAll(async () => {
 
 /** Empties both cards, runs a new day and returns the release with the raw token from its e-mail. */
 async function freshRelease(): Promise<{ release: Release; token: string }> {
-  await context.dataSource.getRepository(KanbanCardEntity).update({ cardIndex: 1 }, { state: 'empty', releaseLineId: null });
+  await context.dataSource
+    .getRepository(KanbanCardEntity)
+    .update({ cardIndex: 1 }, { state: 'empty', releaseLineId: null });
   const date = `2027-03-${String(nextDay++).padStart(2, '0')}`;
-  const response = await request(context.app).post('/api/releases/run').set(bearer(context.tokens.buyer)).send({ date });
+  const response = await request(context.app)
+    .post('/api/releases/run')
+    .set(bearer(context.tokens.buyer))
+    .send({ date });
   expect(response.status).toBe(200);
   const [release] = (response.body as RunReleasesResponse).releases;
   const mails = await context.dataSource.getRepository(OutboxMessageEntity).find({ order: { id: 'DESC' }, take: 1 });
@@ -68,7 +73,8 @@ async function freshRelease(): Promise<{ release: Release; token: string }> {
 /** The calendar day after a need date: shipping then cannot arrive by the need date. */
 const dayAfter = (needDate: string) => addCalendarDays(needDate, 1);
 
-const asRequested = (release: Release) => release.lines.map((line) => ({ id: line.id, confirmedQty: line.qty, shipDate: line.needDate }));
+const asRequested = (release: Release) =>
+  release.lines.map((line) => ({ id: line.id, confirmedQty: line.qty, shipDate: line.needDate }));
 
 function answer(token: string, body: object) {
   return request(context.app).post(`/api/confirm/${token}`).send(body);
@@ -93,8 +99,24 @@ describe('GET /api/confirm/:token', () => {
       releaseDate: release.releaseDate,
     });
     expect(response.body.release.lines).toEqual([
-      { id: expect.any(Number), partNumber: 'K', qty: 10, needDate: '2027-03-03', description: 'Caster 100 mm', uom: 'H87', hazardous: false },
-      { id: expect.any(Number), partNumber: 'W', qty: 25, needDate: '2027-03-03', description: 'Wire, 1.5 mm²', uom: 'KGM', hazardous: false },
+      {
+        id: expect.any(Number),
+        partNumber: 'K',
+        qty: 10,
+        needDate: '2027-03-03',
+        description: 'Caster 100 mm',
+        uom: 'H87',
+        hazardous: false,
+      },
+      {
+        id: expect.any(Number),
+        partNumber: 'W',
+        qty: 25,
+        needDate: '2027-03-03',
+        description: 'Wire, 1.5 mm²',
+        uom: 'KGM',
+        hazardous: false,
+      },
     ]);
     expect(Date.parse(response.body.expiresAt)).toBeGreaterThan(Date.now() + 6 * 24 * 3600 * 1000);
   });
@@ -125,7 +147,9 @@ describe('GET /api/confirm/:token', () => {
 
   it('answers 410 once the link has expired', async () => {
     const { release, token } = await freshRelease();
-    await context.dataSource.getRepository(ConfirmationTokenEntity).update({ releaseId: release.id }, { expiresAt: new Date(Date.now() - 1000).toISOString() });
+    await context.dataSource
+      .getRepository(ConfirmationTokenEntity)
+      .update({ releaseId: release.id }, { expiresAt: new Date(Date.now() - 1000).toISOString() });
 
     const view = await request(context.app).get(`/api/confirm/${token}`);
     const post = await answer(token, { lines: asRequested(release), note: '' });
@@ -142,17 +166,30 @@ describe('POST /api/confirm/:token', () => {
     const { release, token } = await freshRelease();
     const versionBefore = await readPlanningVersion(context.dataSource.manager);
 
-    const response = await answer(token, { lines: asRequested(release), note: 'All good', carrier: 'Road Freight Co', trackingNumber: 'TRK-001' });
+    const response = await answer(token, {
+      lines: asRequested(release),
+      note: 'All good',
+      carrier: 'Road Freight Co',
+      trackingNumber: 'TRK-001',
+    });
 
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ status: 'confirmed', number: release.number, changedLines: 0 });
     const stored = await request(context.app).get(`/api/releases/${release.number}`).set(bearer(context.tokens.buyer));
-    expect(stored.body).toMatchObject({ status: 'confirmed', carrier: 'Road Freight Co', trackingNumber: 'TRK-001', supplierNote: 'All good', confirmedAt: expect.any(String) });
+    expect(stored.body).toMatchObject({
+      status: 'confirmed',
+      carrier: 'Road Freight Co',
+      trackingNumber: 'TRK-001',
+      supplierNote: 'All good',
+      confirmedAt: expect.any(String),
+    });
     expect(stored.body.lines.map((line: Release['lines'][number]) => [line.confirmedQty, line.shipDate])).toEqual(
       release.lines.map((line) => [line.qty, line.needDate]),
     );
     expect(await readPlanningVersion(context.dataSource.manager)).toBeGreaterThan(versionBefore);
-    const audit = await context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'release', entityKey: release.number, action: 'confirm' });
+    const audit = await context.dataSource
+      .getRepository(AuditEventEntity)
+      .findBy({ entity: 'release', entityKey: release.number, action: 'confirm' });
     expect(audit).toEqual([expect.objectContaining({ actorEmail: 'supplier:SUP-A' })]);
   });
 
@@ -177,13 +214,19 @@ describe('POST /api/confirm/:token', () => {
 
     expect(response.body).toEqual({ status: 'exception', number: release.number, changedLines: 1 });
     expect((await releaseRow(release.number)).status).toBe('exception');
-    const viewer = await request(context.app).post(`/api/releases/${release.number}/accept-exception`).set(bearer(context.tokens.viewer));
+    const viewer = await request(context.app)
+      .post(`/api/releases/${release.number}/accept-exception`)
+      .set(bearer(context.tokens.viewer));
     expect(viewer.status).toBe(403);
-    const accepted = await request(context.app).post(`/api/releases/${release.number}/accept-exception`).set(bearer(context.tokens.buyer));
+    const accepted = await request(context.app)
+      .post(`/api/releases/${release.number}/accept-exception`)
+      .set(bearer(context.tokens.buyer));
     expect(accepted.status).toBe(200);
     expect(accepted.body.status).toBe('confirmed');
     expect(accepted.body.lines[0]).toMatchObject({ qty: 10, confirmedQty: 8 });
-    const twice = await request(context.app).post(`/api/releases/${release.number}/accept-exception`).set(bearer(context.tokens.buyer));
+    const twice = await request(context.app)
+      .post(`/api/releases/${release.number}/accept-exception`)
+      .set(bearer(context.tokens.buyer));
     expect(twice.status).toBe(409);
   });
 
@@ -208,7 +251,9 @@ describe('POST /api/confirm/:token', () => {
     lines[0].confirmedQty = 5;
     await answer(token, { lines, note: '' });
 
-    const resent = await request(context.app).post(`/api/releases/${release.number}/resend`).set(bearer(context.tokens.buyer));
+    const resent = await request(context.app)
+      .post(`/api/releases/${release.number}/resend`)
+      .set(bearer(context.tokens.buyer));
 
     expect(resent.body.status).toBe('sent');
     expect(resent.body.lines[0].confirmedQty).toBeNull();
@@ -227,7 +272,10 @@ describe('POST /api/confirm/:token', () => {
   it('answers 400 for a line of another release or a line answered twice', async () => {
     const other = await freshRelease();
     const { release, token } = await freshRelease();
-    const foreign = [...asRequested(release), { id: other.release.lines[0].id, confirmedQty: 1, shipDate: '2027-03-03' }];
+    const foreign = [
+      ...asRequested(release),
+      { id: other.release.lines[0].id, confirmedQty: 1, shipDate: '2027-03-03' },
+    ];
     const twice = [...asRequested(release), asRequested(release)[0]];
 
     const foreignResponse = await answer(token, { lines: foreign, note: '' });

@@ -77,12 +77,18 @@ function move(id: number, column: string, role: Role = 'receiving') {
 }
 
 function upload(id: number, content: Buffer, fileName: string, role: Role = 'receiving') {
-  return request(context.app).post(`/api/dock/items/${id}/attachments`).set(bearer(context.tokens[role])).attach('file', content, fileName);
+  return request(context.app)
+    .post(`/api/dock/items/${id}/attachments`)
+    .set(bearer(context.tokens[role]))
+    .attach('file', content, fileName);
 }
 
 // A 1×1 PNG: the signature 89 50 4E 47 0D 0A 1A 0A (PNG specification, ISO/IEC 15948, "PNG signature";
 // from memory) followed by IHDR, IDAT and IEND chunks.
-const PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==', 'base64');
+const PNG = Buffer.from(
+  'iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg==',
+  'base64',
+);
 // A PDF opens with "%PDF-" and its version (ISO 32000-1:2008, 7.5.2 "File Header"; from memory).
 const PDF = Buffer.from('%PDF-1.7\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n', 'latin1');
 // A Windows program starts with the DOS header signature "MZ" (Microsoft PE/COFF specification,
@@ -107,7 +113,9 @@ afterAll(async () => {
 
 describe('GET /api/dock', () => {
   it('lists open releases with their lines, card numbers and hazard flag, ordered by column then need date', async () => {
-    const loop = await context.dataSource.getRepository(KanbanLoopEntity).save({ partNumber: 'CASTER-75', kind: 'supplier', containerQty: 4 });
+    const loop = await context.dataSource
+      .getRepository(KanbanLoopEntity)
+      .save({ partNumber: 'CASTER-75', kind: 'supplier', containerQty: 4 });
     const card = await context.dataSource.getRepository(KanbanCardEntity).save({
       loopId: loop.id,
       cardIndex: 1,
@@ -117,15 +125,23 @@ describe('GET /api/dock', () => {
       retiredAt: null,
       releaseLineId: null,
     });
-    const later = await makeRelease('confirmed', [{ partNumber: 'BRUSH-20', qty: 12, needDate: addCalendarDays(today, 2) }], {
-      carrier: 'Road freight',
-      trackingNumber: 'TRK-0001',
-    });
+    const later = await makeRelease(
+      'confirmed',
+      [{ partNumber: 'BRUSH-20', qty: 12, needDate: addCalendarDays(today, 2) }],
+      {
+        carrier: 'Road freight',
+        trackingNumber: 'TRK-0001',
+      },
+    );
     const dueToday = await makeRelease('sent', [
       { partNumber: 'BATT-24V', qty: 4, needDate: today },
       { partNumber: 'CASTER-75', qty: 4, needDate: addCalendarDays(today, 1), cardId: card.id },
     ]);
-    const atDock = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 6, needDate: addCalendarDays(today, -1) }], { dockColumn: 'at_dock' });
+    const atDock = await makeRelease(
+      'shipped',
+      [{ partNumber: 'BRUSH-20', qty: 6, needDate: addCalendarDays(today, -1) }],
+      { dockColumn: 'at_dock' },
+    );
     await makeRelease('draft', [{ partNumber: 'BRUSH-20', qty: 6 }]);
     await makeRelease('cancelled', [{ partNumber: 'BRUSH-20', qty: 6 }]);
 
@@ -174,17 +190,43 @@ describe('GET /api/dock', () => {
         hazardous: false,
       },
     ]);
-    expect(items[1]).toMatchObject({ carrier: 'Road freight', trackingNumber: 'TRK-0001', hazardous: false, expectedToday: false });
+    expect(items[1]).toMatchObject({
+      carrier: 'Road freight',
+      trackingNumber: 'TRK-0001',
+      hazardous: false,
+      expectedToday: false,
+    });
     expect(items[2]).toMatchObject({ column: 'at_dock', overdue: true, expectedToday: false });
   });
 
   it('keeps a release received today on the board, and drops one received on an earlier day', async () => {
-    const receivedNow = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }], { dockColumn: 'to_line' });
+    const receivedNow = await makeRelease(
+      'received',
+      [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }],
+      { dockColumn: 'to_line' },
+    );
     const earlier = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }]);
     const receipts = context.dataSource.getRepository(ReceiptEntity);
-    const base = { qty: 2, discrepancy: null, note: null, final: false, onHandAfter: 2, userEmail: 'receiving@example.com' };
-    await receipts.save({ ...base, releaseLineId: receivedNow.lines[0].id, idempotencyKey: 'dock-today', receivedAt: new Date().toISOString() });
-    await receipts.save({ ...base, releaseLineId: earlier.lines[0].id, idempotencyKey: 'dock-earlier', receivedAt: '2026-10-01T09:00:00.000Z' });
+    const base = {
+      qty: 2,
+      discrepancy: null,
+      note: null,
+      final: false,
+      onHandAfter: 2,
+      userEmail: 'receiving@example.com',
+    };
+    await receipts.save({
+      ...base,
+      releaseLineId: receivedNow.lines[0].id,
+      idempotencyKey: 'dock-today',
+      receivedAt: new Date().toISOString(),
+    });
+    await receipts.save({
+      ...base,
+      releaseLineId: earlier.lines[0].id,
+      idempotencyKey: 'dock-earlier',
+      receivedAt: '2026-10-01T09:00:00.000Z',
+    });
 
     const ids = (await listDock()).map((item) => item.id);
 
@@ -225,8 +267,12 @@ describe('PATCH /api/dock/items/:id', () => {
   });
 
   it('keeps a fully received release at the line (409) but lets a partly received one go back', async () => {
-    const received = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }], { dockColumn: 'to_line' });
-    const partial = await makeRelease('partial', [{ partNumber: 'BRUSH-20', qty: 4, receivedQty: 2 }], { dockColumn: 'to_line' });
+    const received = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }], {
+      dockColumn: 'to_line',
+    });
+    const partial = await makeRelease('partial', [{ partNumber: 'BRUSH-20', qty: 4, receivedQty: 2 }], {
+      dockColumn: 'to_line',
+    });
 
     const refused = await move(received.release.id, 'counted');
     const allowed = await move(partial.release.id, 'at_dock');
@@ -268,9 +314,16 @@ describe('packing-slip attachments', () => {
       });
 
     expect(uploaded.status).toBe(201);
-    expect(uploaded.body).toMatchObject({ fileName: 'slip photo.png', mimeType: 'image/png', sizeBytes: PNG.length, uploadedBy: 'receiving@example.com' });
+    expect(uploaded.body).toMatchObject({
+      fileName: 'slip photo.png',
+      mimeType: 'image/png',
+      sizeBytes: PNG.length,
+      uploadedBy: 'receiving@example.com',
+    });
     expect(item?.attachments.map((attachment) => attachment.fileName)).toEqual(['slip photo.png']);
-    expect(await readdir(join(attachmentsDir, String(release.id)))).toEqual([expect.stringMatching(/^[0-9a-f]{32}\.png$/)]);
+    expect(await readdir(join(attachmentsDir, String(release.id)))).toEqual([
+      expect.stringMatching(/^[0-9a-f]{32}\.png$/),
+    ]);
     expect(downloaded.status).toBe(200);
     expect(downloaded.headers['content-type']).toBe('image/png');
     expect(downloaded.headers['content-disposition']).toMatch(/^inline; filename="slip photo.png"/);
@@ -317,7 +370,9 @@ describe('packing-slip attachments', () => {
 
     const asViewer = await upload(release.id, PNG, 'slip.png', 'viewer');
     const toUnknown = await upload(876_543, PNG, 'slip.png');
-    const unknownFile = await request(context.app).get('/api/dock/attachments/765432').set(bearer(context.tokens.viewer));
+    const unknownFile = await request(context.app)
+      .get('/api/dock/attachments/765432')
+      .set(bearer(context.tokens.viewer));
 
     expect(asViewer.status).toBe(403);
     expect(toUnknown.status).toBe(404);

@@ -19,7 +19,9 @@ beforeAll(async () => {
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('D', { supplierCode: 'SUP-B' }),
     ]);
-    await replaceBomLines(manager, [{ parent: 'M', component: 'D', qtyPer: 3, scrapPct: 0, effectiveFrom: null, effectiveTo: null }]);
+    await replaceBomLines(manager, [
+      { parent: 'M', component: 'D', qtyPer: 3, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+    ]);
     await upsertSequenceEntries(manager, [{ date: '2027-03-01', sequence: 1, model: 'M', serial: 'S1', qty: 2 }]);
   });
 });
@@ -36,10 +38,18 @@ describe('POST /api/demand/forecast-mail', () => {
       .send({ supplier: 'SUP-B', from: '2027-03-01', to: '2027-03-02' });
 
     expect(response.status).toBe(202);
-    expect(response.body).toMatchObject({ to: 'orders@supplier-b.example.net', parts: 1, from: '2027-03-01', until: '2027-03-02' });
+    expect(response.body).toMatchObject({
+      to: 'orders@supplier-b.example.net',
+      parts: 1,
+      from: '2027-03-01',
+      until: '2027-03-02',
+    });
     const [queued] = await context.dataSource.getRepository(OutboxMessageEntity).find();
     expect(queued.status).toBe('pending');
-    expect(queued.attachments?.[0].content.split('\r\n')).toEqual(['part_number,supplier_code,2027-03-01,2027-03-02,total', 'D,SUP-B,6,0,6']);
+    expect(queued.attachments?.[0].content.split('\r\n')).toEqual([
+      'part_number,supplier_code,2027-03-01,2027-03-02,total',
+      'D,SUP-B,6,0,6',
+    ]);
 
     const dispatcher = new OutboxDispatcher(context.dataSource, smtp.url, 'Cardloop <cardloop@example.com>');
     const sent = await dispatcher.dispatchDue();
@@ -54,8 +64,14 @@ describe('POST /api/demand/forecast-mail', () => {
   });
 
   it('answers 404 for an unknown supplier and 403 to a viewer', async () => {
-    const unknown = await request(context.app).post('/api/demand/forecast-mail').set(bearer(context.tokens.buyer)).send({ supplier: 'NOPE' });
-    const viewer = await request(context.app).post('/api/demand/forecast-mail').set(bearer(context.tokens.viewer)).send({ supplier: 'SUP-B' });
+    const unknown = await request(context.app)
+      .post('/api/demand/forecast-mail')
+      .set(bearer(context.tokens.buyer))
+      .send({ supplier: 'NOPE' });
+    const viewer = await request(context.app)
+      .post('/api/demand/forecast-mail')
+      .set(bearer(context.tokens.viewer))
+      .send({ supplier: 'SUP-B' });
 
     expect(unknown.status).toBe(404);
     expect(viewer.status).toBe(403);
@@ -64,8 +80,15 @@ describe('POST /api/demand/forecast-mail', () => {
 
 describe('OutboxDispatcher', () => {
   it('keeps a message pending with the error and a later retry time while the mail server is down', async () => {
-    await request(context.app).post('/api/demand/forecast-mail').set(bearer(context.tokens.buyer)).send({ supplier: 'SUP-A' });
-    const dispatcher = new OutboxDispatcher(context.dataSource, 'smtp://127.0.0.1:1', 'Cardloop <cardloop@example.com>');
+    await request(context.app)
+      .post('/api/demand/forecast-mail')
+      .set(bearer(context.tokens.buyer))
+      .send({ supplier: 'SUP-A' });
+    const dispatcher = new OutboxDispatcher(
+      context.dataSource,
+      'smtp://127.0.0.1:1',
+      'Cardloop <cardloop@example.com>',
+    );
     const now = new Date();
 
     const sent = await dispatcher.dispatchDue(now);

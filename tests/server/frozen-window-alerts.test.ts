@@ -4,7 +4,12 @@ import { writeCalendar } from '../../server/calendar/calendar.service';
 import { alertFrozenWindowShortages } from '../../server/line-risk/frozen-window-alerts';
 import { LineRiskService } from '../../server/line-risk/line-risk.service';
 import { OutboxMessageEntity } from '../../server/mail/outbox-message.entity';
-import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
+import {
+  replaceBomLines,
+  setOnHand,
+  upsertParts,
+  upsertSequenceEntries,
+} from '../../server/master-data/master-data.writer';
 import { plantToday } from '../../server/planning/plan-dates';
 import { createTestContext, testPart, type TestContext } from './helpers';
 
@@ -24,14 +29,18 @@ beforeAll(async () => {
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('P', { onHand: 1, description: 'Drive motor' }),
     ]);
-    await replaceBomLines(manager, [{ parent: 'M', component: 'P', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null }]);
+    await replaceBomLines(manager, [
+      { parent: 'M', component: 'P', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+    ]);
     await upsertSequenceEntries(manager, [{ date: buildDay, sequence: 1, model: 'M', serial: 'S-1', qty: 1 }]);
   });
 });
 afterAll(() => context.close());
 
 const alertsTo = async (email: string) =>
-  (await context.dataSource.getRepository(OutboxMessageEntity).find({ order: { id: 'ASC' } })).filter((message) => message.to === email);
+  (await context.dataSource.getRepository(OutboxMessageEntity).find({ order: { id: 'ASC' } })).filter(
+    (message) => message.to === email,
+  );
 
 describe('frozen-window shortage alerts', () => {
   it('e-mails every planner once when a shortage enters the frozen window, naming the unit', async () => {

@@ -29,8 +29,24 @@ export async function createTestContext(options: Partial<AppOptions> = {}): Prom
   sharedHash ??= hashPassword(TEST_PASSWORD);
   const passwordHash = await sharedHash;
   await dataSource.getRepository(SupplierEntity).insert([
-    { code: 'SUP-A', name: 'Supplier A', email: 'orders@supplier-a.example.com', leadTimeDays: 3, cycleDays: 1, deliveriesPerCycle: 1, deliveryDelay: 1 },
-    { code: 'SUP-B', name: 'Supplier B', email: 'orders@supplier-b.example.net', leadTimeDays: 5, cycleDays: 5, deliveriesPerCycle: 2, deliveryDelay: 1 },
+    {
+      code: 'SUP-A',
+      name: 'Supplier A',
+      email: 'orders@supplier-a.example.com',
+      leadTimeDays: 3,
+      cycleDays: 1,
+      deliveriesPerCycle: 1,
+      deliveryDelay: 1,
+    },
+    {
+      code: 'SUP-B',
+      name: 'Supplier B',
+      email: 'orders@supplier-b.example.net',
+      leadTimeDays: 5,
+      cycleDays: 5,
+      deliveriesPerCycle: 2,
+      deliveryDelay: 1,
+    },
   ]);
   const roles: Role[] = ['admin', 'planner', 'buyer', 'receiving', 'supplier', 'viewer'];
   await dataSource.getRepository(UserEntity).insert(

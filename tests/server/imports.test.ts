@@ -16,7 +16,12 @@ const csv = (...lines: string[]) => `${lines.join('\n')}\n`;
 const PARTS_HEADER = IMPORT_LAYOUTS.parts.columns.join(',');
 const WEEKDAYS_ONLY = { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] };
 
-type Entity = typeof SupplierEntity | typeof PartEntity | typeof BomLineEntity | typeof SequenceEntryEntity | typeof AuditEventEntity;
+type Entity =
+  | typeof SupplierEntity
+  | typeof PartEntity
+  | typeof BomLineEntity
+  | typeof SequenceEntryEntity
+  | typeof AuditEventEntity;
 
 function upload(context: TestContext, kind: ImportKind, body: string | Buffer, role: Role = 'buyer') {
   return request(context.app)
@@ -35,12 +40,17 @@ async function snapshot(context: TestContext) {
     bomLines: await count(context, BomLineEntity),
     sequence: await count(context, SequenceEntryEntity),
     audit: await count(context, AuditEventEntity),
-    onHand: (await context.dataSource.getRepository(PartEntity).find({ order: { partNumber: 'ASC' } })).map((part) => part.onHand),
+    onHand: (await context.dataSource.getRepository(PartEntity).find({ order: { partNumber: 'ASC' } })).map(
+      (part) => part.onHand,
+    ),
   };
 }
 
 /** Parts the BOM, schedule and on-hand tests build on, written straight to the table. */
-async function insertParts(context: TestContext, parts: { partNumber: string; source: string; supplierCode?: string }[]) {
+async function insertParts(
+  context: TestContext,
+  parts: { partNumber: string; source: string; supplierCode?: string }[],
+) {
   await context.dataSource.getRepository(PartEntity).insert(
     parts.map((part) => ({
       partNumber: part.partNumber,
@@ -79,7 +89,12 @@ describe('POST /api/imports/suppliers', () => {
     expect(response.body).toEqual({ imported: 2 });
     const suppliers = await context.dataSource.getRepository(SupplierEntity).find({ order: { code: 'ASC' } });
     expect(suppliers.map((supplier) => supplier.code)).toEqual(['SUP-A', 'SUP-B', 'SUP-C']);
-    expect(suppliers[0]).toMatchObject({ name: 'Supplier A renamed', leadTimeDays: 4, cycleDays: 5, deliveriesPerCycle: 2 });
+    expect(suppliers[0]).toMatchObject({
+      name: 'Supplier A renamed',
+      leadTimeDays: 4,
+      cycleDays: 5,
+      deliveriesPerCycle: 2,
+    });
     expect(suppliers[2]).toMatchObject({ leadTimeDays: 6, cycleDays: 1, deliveriesPerCycle: 1, deliveryDelay: 1 });
   });
 
@@ -96,7 +111,11 @@ describe('POST /api/imports/suppliers', () => {
   });
 
   it('records one audit event per import with the kind and the count', async () => {
-    const file = csv('code,name,email,lead_time_days', 'SUP-D,Supplier D,orders@supplier-d.example.net,2', 'SUP-E,Supplier E,orders@supplier-e.example.net,2');
+    const file = csv(
+      'code,name,email,lead_time_days',
+      'SUP-D,Supplier D,orders@supplier-d.example.net,2',
+      'SUP-E,Supplier E,orders@supplier-e.example.net,2',
+    );
     const before = await count(context, AuditEventEntity);
 
     await upload(context, 'suppliers', file, 'admin');
@@ -108,7 +127,11 @@ describe('POST /api/imports/suppliers', () => {
   });
 
   it('rejects a malformed e-mail address and a lead time that is not a number, naming each cell', async () => {
-    const file = csv('code,name,email,lead_time_days', 'SUP-F,Supplier F,not-an-address,2', 'SUP-G,Supplier G,orders@supplier-g.example.net,two');
+    const file = csv(
+      'code,name,email,lead_time_days',
+      'SUP-F,Supplier F,not-an-address,2',
+      'SUP-G,Supplier G,orders@supplier-g.example.net,two',
+    );
     const before = await snapshot(context);
 
     const response = await upload(context, 'suppliers', file);
@@ -146,10 +169,24 @@ describe('POST /api/imports/parts', () => {
     const parts = await context.dataSource.getRepository(PartEntity).find({ order: { partNumber: 'ASC' } });
     // H87 is the UN/ECE Recommendation 20 code for "piece" (Annex I; from memory).
     expect(parts[0]).toMatchObject({
-      partNumber: 'BAT-1', uom: 'H87', supplierCode: 'SUP-B', leadTimeDays: 5, packQty: 1, onHand: 0,
-      replenishment: null, safetyStock: 0, pointOfUse: null, hazardous: true,
+      partNumber: 'BAT-1',
+      uom: 'H87',
+      supplierCode: 'SUP-B',
+      leadTimeDays: 5,
+      packQty: 1,
+      onHand: 0,
+      replenishment: null,
+      safetyStock: 0,
+      pointOfUse: null,
+      hazardous: true,
     });
-    expect(parts[1]).toMatchObject({ partNumber: 'FRM-1', leadTimeDays: 2, replenishment: 'kanban', pointOfUse: 'FAB-1', hazardous: false });
+    expect(parts[1]).toMatchObject({
+      partNumber: 'FRM-1',
+      leadTimeDays: 2,
+      replenishment: 'kanban',
+      pointOfUse: 'FAB-1',
+      hazardous: false,
+    });
     expect(parts[2]).toMatchObject({ partNumber: 'MDL-1', source: 'end_item', supplierCode: null, leadTimeDays: 0 });
   });
 
@@ -162,7 +199,13 @@ describe('POST /api/imports/parts', () => {
     expect(response.status).toBe(200);
     expect(await count(context, PartEntity)).toBe(3);
     const battery = await context.dataSource.getRepository(PartEntity).findOneByOrFail({ partNumber: 'BAT-1' });
-    expect(battery).toMatchObject({ description: 'Traction battery 12 V', supplierCode: 'SUP-A', leadTimeDays: 3, packQty: 4, onHand: 12 });
+    expect(battery).toMatchObject({
+      description: 'Traction battery 12 V',
+      supplierCode: 'SUP-A',
+      leadTimeDays: 3,
+      packQty: 4,
+      onHand: 12,
+    });
   });
 
   it('keeps the hazardous flag of an existing part when the optional column is left out', async () => {
@@ -214,7 +257,9 @@ describe('POST /api/imports/parts', () => {
     const response = await upload(context, 'parts', csv(PARTS_HEADER, 'MTR-1,Brush motor,,buy,SUP-Z,,,,,,,'));
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 2, column: 'supplier_code', message: "unknown supplier 'SUP-Z'" }]);
+    expect(response.body.error.details).toEqual([
+      { row: 2, column: 'supplier_code', message: "unknown supplier 'SUP-Z'" },
+    ]);
     expect(await snapshot(context)).toEqual(before);
   });
 
@@ -222,7 +267,9 @@ describe('POST /api/imports/parts', () => {
     const response = await upload(context, 'parts', csv(PARTS_HEADER, 'MTR-2,Vacuum motor,,buy,,,,,,,,'));
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 2, column: 'supplier_code', message: 'a bought part needs a supplier' }]);
+    expect(response.body.error.details).toEqual([
+      { row: 2, column: 'supplier_code', message: 'a bought part needs a supplier' },
+    ]);
   });
 
   it('reports the second occurrence of a part number, naming the first row', async () => {
@@ -232,7 +279,9 @@ describe('POST /api/imports/parts', () => {
     const response = await upload(context, 'parts', file);
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 4, column: 'part_number', message: "part 'NEW-1' is already on row 2" }]);
+    expect(response.body.error.details).toEqual([
+      { row: 4, column: 'part_number', message: "part 'NEW-1' is already on row 2" },
+    ]);
     expect(await snapshot(context)).toEqual(before);
   });
 
@@ -243,7 +292,9 @@ describe('POST /api/imports/parts', () => {
 
     expect(response.status).toBe(422);
     // Line 1 header, lines 2–3 the quoted record, line 4 blank, line 5 the bad row.
-    expect(response.body.error.details).toEqual([{ row: 5, column: 'source', message: "'makes' is not one of buy, make, end_item" }]);
+    expect(response.body.error.details).toEqual([
+      { row: 5, column: 'source', message: "'makes' is not one of buy, make, end_item" },
+    ]);
   });
 
   it('reports a cell outside the header columns and a quote that is never closed', async () => {
@@ -262,7 +313,9 @@ describe('POST /api/imports/parts', () => {
     const response = await upload(context, 'parts', csv('part_number,source', 'X-1,make'));
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 1, column: 'description', message: "required column 'description' is missing from the header" }]);
+    expect(response.body.error.details).toEqual([
+      { row: 1, column: 'description', message: "required column 'description' is missing from the header" },
+    ]);
   });
 
   it('rejects a header with a column that is not in the format', async () => {
@@ -277,22 +330,33 @@ describe('POST /api/imports/parts', () => {
   it('rejects a file that is not UTF-8 at the line of the first bad byte', async () => {
     // 0xE9 is "é" in ISO 8859-1; in UTF-8 it opens a three-byte sequence and the ',' after it is
     // not a continuation byte, so the text is malformed (RFC 3629, section 3).
-    const latin1 = Buffer.concat([Buffer.from('part_number,description,source\nX-1,Caf'), Buffer.from([0xe9]), Buffer.from(',make\n')]);
+    const latin1 = Buffer.concat([
+      Buffer.from('part_number,description,source\nX-1,Caf'),
+      Buffer.from([0xe9]),
+      Buffer.from(',make\n'),
+    ]);
 
     const response = await upload(context, 'parts', latin1);
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 2, column: '', message: 'the file is not UTF-8 text; save it as CSV UTF-8' }]);
+    expect(response.body.error.details).toEqual([
+      { row: 2, column: '', message: 'the file is not UTF-8 text; save it as CSV UTF-8' },
+    ]);
   });
 
   it('imports a 5,000-row parts file whole', async () => {
-    const rows = Array.from({ length: 5000 }, (_, index) => `BULK-${index},Bulk part ${index},H87,buy,SUP-A,,10,,kanban,,L1-01,`);
+    const rows = Array.from(
+      { length: 5000 },
+      (_, index) => `BULK-${index},Bulk part ${index},H87,buy,SUP-A,,10,,kanban,,L1-01,`,
+    );
 
     const response = await upload(context, 'parts', csv(PARTS_HEADER, ...rows));
 
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ imported: 5000 });
-    const [{ count }] = await context.dataSource.query("SELECT COUNT(*) AS count FROM part WHERE part_number LIKE 'BULK-%'");
+    const [{ count }] = await context.dataSource.query(
+      "SELECT COUNT(*) AS count FROM part WHERE part_number LIKE 'BULK-%'",
+    );
     expect(count).toBe(5000);
   });
 });
@@ -301,7 +365,9 @@ describe('POST /api/imports/bom', () => {
   let context: TestContext;
   const header = IMPORT_LAYOUTS.bom.columns.join(',');
   const linesOf = (parent: string) =>
-    context.dataSource.getRepository(BomLineEntity).find({ where: { parent }, order: { component: 'ASC', effectiveFrom: 'ASC' } });
+    context.dataSource
+      .getRepository(BomLineEntity)
+      .find({ where: { parent }, order: { component: 'ASC', effectiveFrom: 'ASC' } });
 
   beforeAll(async () => {
     context = await createTestContext();
@@ -331,7 +397,15 @@ describe('POST /api/imports/bom', () => {
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ imported: 5 });
     const modelA = await linesOf('MDL-A');
-    expect(modelA.map(({ component, qtyPer, scrapPct, effectiveFrom, effectiveTo }) => ({ component, qtyPer, scrapPct, effectiveFrom, effectiveTo }))).toEqual([
+    expect(
+      modelA.map(({ component, qtyPer, scrapPct, effectiveFrom, effectiveTo }) => ({
+        component,
+        qtyPer,
+        scrapPct,
+        effectiveFrom,
+        effectiveTo,
+      })),
+    ).toEqual([
       { component: 'CMP-1', qtyPer: 2, scrapPct: 5, effectiveFrom: null, effectiveTo: '2027-06-30' },
       { component: 'CMP-1', qtyPer: 3, scrapPct: 5, effectiveFrom: '2027-07-01', effectiveTo: null },
       { component: 'SUB-1', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
@@ -365,7 +439,9 @@ describe('POST /api/imports/bom', () => {
     const response = await upload(context, 'bom', csv(header, 'CMP-2,CMP-1,1,,,', 'CMP-2,SUB-1,1,,,'));
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 3, column: 'component', message: 'closes a BOM cycle: SUB-1 → CMP-2 → SUB-1' }]);
+    expect(response.body.error.details).toEqual([
+      { row: 3, column: 'component', message: 'closes a BOM cycle: SUB-1 → CMP-2 → SUB-1' },
+    ]);
     expect(await snapshot(context)).toEqual(before);
   });
 
@@ -452,13 +528,20 @@ describe('POST /api/imports/schedule', () => {
   afterAll(() => context.close());
 
   it('lets a planner import the sequence, with qty defaulting to 1', async () => {
-    const file = csv(header, `${firstDay},1,MDL-A,SN-001,1`, `${firstDay},2,MDL-B,SN-002,`, `${secondDay},1,MDL-A,SN-003,2`);
+    const file = csv(
+      header,
+      `${firstDay},1,MDL-A,SN-001,1`,
+      `${firstDay},2,MDL-B,SN-002,`,
+      `${secondDay},1,MDL-A,SN-003,2`,
+    );
 
     const response = await upload(context, 'schedule', file, 'planner');
 
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ imported: 3 });
-    expect((await sequenceOn(firstDay)).map(({ sequence, model, serial, qty }) => ({ sequence, model, serial, qty }))).toEqual([
+    expect(
+      (await sequenceOn(firstDay)).map(({ sequence, model, serial, qty }) => ({ sequence, model, serial, qty })),
+    ).toEqual([
       { sequence: 1, model: 'MDL-A', serial: 'SN-001', qty: 1 },
       { sequence: 2, model: 'MDL-B', serial: 'SN-002', qty: 1 },
     ]);
@@ -493,7 +576,9 @@ describe('POST /api/imports/schedule', () => {
     const response = await upload(context, 'schedule', file, 'planner');
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 3, column: 'sequence', message: `position 5 on ${secondDay} is already on row 2` }]);
+    expect(response.body.error.details).toEqual([
+      { row: 3, column: 'sequence', message: `position 5 on ${secondDay} is already on row 2` },
+    ]);
   });
 
   it('rejects a serial that appears twice in the file', async () => {
@@ -502,7 +587,9 @@ describe('POST /api/imports/schedule', () => {
     const response = await upload(context, 'schedule', file, 'planner');
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details).toEqual([{ row: 3, column: 'serial', message: "serial 'SN-008' is already on row 2" }]);
+    expect(response.body.error.details).toEqual([
+      { row: 3, column: 'serial', message: "serial 'SN-008' is already on row 2" },
+    ]);
   });
 
   it('rejects a model that is unknown or not an end item', async () => {
@@ -545,7 +632,10 @@ describe('POST /api/imports/schedule', () => {
 
   it('rejects a plant holiday from the calendar', async () => {
     const holiday = nextWorkingDay(addCalendarDays(secondDay, 7), WEEKDAYS_ONLY);
-    await request(context.app).put('/api/calendar').set(bearer(context.tokens.planner)).send({ workingWeekdays: [1, 2, 3, 4, 5], holidays: [holiday] });
+    await request(context.app)
+      .put('/api/calendar')
+      .set(bearer(context.tokens.planner))
+      .send({ workingWeekdays: [1, 2, 3, 4, 5], holidays: [holiday] });
 
     const response = await upload(context, 'schedule', csv(header, `${holiday},1,MDL-A,SN-015,1`), 'planner');
 
@@ -577,7 +667,11 @@ describe('POST /api/imports/on-hand', () => {
   it('rejects an unknown part, a negative count and a decimal comma, and writes nothing', async () => {
     const before = await snapshot(context);
 
-    const response = await upload(context, 'on-hand', csv('part_number,on_hand', 'CMP-1,1', 'CMP-9,5', 'CMP-2,-3', 'CMP-1,"2,5"'));
+    const response = await upload(
+      context,
+      'on-hand',
+      csv('part_number,on_hand', 'CMP-1,1', 'CMP-9,5', 'CMP-2,-3', 'CMP-1,"2,5"'),
+    );
 
     expect(response.status).toBe(422);
     expect(response.body.error.details).toEqual([
@@ -619,21 +713,30 @@ describe('import uploads and roles', () => {
     await insertParts(context, [{ partNumber: 'MDL-R', source: 'end_item' }]);
     const day = nextWorkingDay(addCalendarDays(plantToday(), 10), WEEKDAYS_ONLY);
 
-    const response = await upload(context, 'schedule', csv(IMPORT_LAYOUTS.schedule.columns.join(','), `${day},1,MDL-R,SN-R1,1`), 'planner');
+    const response = await upload(
+      context,
+      'schedule',
+      csv(IMPORT_LAYOUTS.schedule.columns.join(','), `${day},1,MDL-R,SN-R1,1`),
+      'planner',
+    );
 
     expect(response.status).toBe(200);
     expect(response.body).toEqual({ imported: 1 });
   });
 
   it('answers 401 without a sign-in', async () => {
-    const response = await request(context.app).post('/api/imports/parts').attach('file', Buffer.from(partsFile), 'parts.csv');
+    const response = await request(context.app)
+      .post('/api/imports/parts')
+      .attach('file', Buffer.from(partsFile), 'parts.csv');
 
     expect(response.status).toBe(401);
   });
 
   it('answers 413 in the error shape for a file over 5 MB', async () => {
     const line = 'BIG-0,Padding part with a long description to fill the file quickly,make\n';
-    const big = Buffer.from(`part_number,description,source\n${line.repeat(Math.ceil(IMPORT_MAX_BYTES / line.length) + 10)}`);
+    const big = Buffer.from(
+      `part_number,description,source\n${line.repeat(Math.ceil(IMPORT_MAX_BYTES / line.length) + 10)}`,
+    );
     const before = await snapshot(context);
 
     const response = await upload(context, 'parts', big);
@@ -651,7 +754,9 @@ describe('import uploads and roles', () => {
       .attach('upload', Buffer.from(partsFile), 'parts.csv');
 
     expect(response.status).toBe(400);
-    expect(response.body.error.message).toBe("Send the CSV in the multipart field 'file' (got 'upload'), one file only.");
+    expect(response.body.error.message).toBe(
+      "Send the CSV in the multipart field 'file' (got 'upload'), one file only.",
+    );
   });
 
   it('answers 400 when no file is attached', async () => {
@@ -665,7 +770,10 @@ describe('import uploads and roles', () => {
     const response = await upload(context, 'on-hand', '\n\n');
 
     expect(response.status).toBe(422);
-    expect(response.body.error.details[0]).toMatchObject({ row: 1, message: expect.stringContaining('the file is empty') });
+    expect(response.body.error.details[0]).toMatchObject({
+      row: 1,
+      message: expect.stringContaining('the file is empty'),
+    });
   });
 });
 
@@ -676,17 +784,25 @@ describe('GET /api/imports/templates/:kind', () => {
   });
   afterAll(() => context.close());
 
-  it.each(['suppliers', 'parts', 'bom', 'schedule', 'on-hand'] as const)('serves the %s template as a CSV attachment with the published header', async (kind) => {
-    const response = await request(context.app).get(`/api/imports/templates/${kind}`).set(bearer(context.tokens.viewer)).buffer(true);
+  it.each(['suppliers', 'parts', 'bom', 'schedule', 'on-hand'] as const)(
+    'serves the %s template as a CSV attachment with the published header',
+    async (kind) => {
+      const response = await request(context.app)
+        .get(`/api/imports/templates/${kind}`)
+        .set(bearer(context.tokens.viewer))
+        .buffer(true);
 
-    expect(response.status).toBe(200);
-    expect(response.headers['content-type']).toMatch(/^text\/csv/);
-    expect(response.headers['content-disposition']).toBe(`attachment; filename=cardloop-${kind}-template.csv`);
-    expect(response.text.split('\n')[0]).toBe(IMPORT_LAYOUTS[kind].columns.join(','));
-  });
+      expect(response.status).toBe(200);
+      expect(response.headers['content-type']).toMatch(/^text\/csv/);
+      expect(response.headers['content-disposition']).toBe(`attachment; filename=cardloop-${kind}-template.csv`);
+      expect(response.text.split('\n')[0]).toBe(IMPORT_LAYOUTS[kind].columns.join(','));
+    },
+  );
 
   it('refuses a supplier account', async () => {
-    const response = await request(context.app).get('/api/imports/templates/parts').set(bearer(context.tokens.supplier));
+    const response = await request(context.app)
+      .get('/api/imports/templates/parts')
+      .set(bearer(context.tokens.supplier));
 
     expect(response.status).toBe(403);
   });

@@ -10,7 +10,8 @@ import { bearer, createTestContext, testPart, type TestContext } from './helpers
 
 let context: TestContext;
 
-const part = (partNumber: string, overrides: Partial<Part>): Part => testPart(partNumber, { pointOfUse: 'L1-ST01', ...overrides });
+const part = (partNumber: string, overrides: Partial<Part>): Part =>
+  testPart(partNumber, { pointOfUse: 'L1-ST01', ...overrides });
 
 interface LoopRow {
   id: number;
@@ -45,7 +46,9 @@ function patchLoop(loopId: number, body: object, role: RoleName = 'buyer') {
 }
 
 function loopAudit(partNumber: string, action: string) {
-  return context.dataSource.getRepository(AuditEventEntity).findBy({ entity: 'kanban_loop', action, entityKey: partNumber });
+  return context.dataSource
+    .getRepository(AuditEventEntity)
+    .findBy({ entity: 'kanban_loop', action, entityKey: partNumber });
 }
 
 function scan(number: string, event?: string, role: RoleName = 'receiving') {
@@ -153,7 +156,9 @@ describe('POST /api/kanban/size', () => {
 
     expect(response.status).toBe(400);
     expect(response.body.error.code).toBe('invalid_input');
-    expect(response.body.error.details).toEqual([{ path: ['dailyDemand'], message: expect.stringMatching(/more cards/) }]);
+    expect(response.body.error.details).toEqual([
+      { path: ['dailyDemand'], message: expect.stringMatching(/more cards/) },
+    ]);
   });
 
   it('is refused to a supplier account', async () => {
@@ -193,9 +198,33 @@ describe('GET /api/kanban/loops', () => {
     const pick = (loop: LoopRow) => Object.fromEntries(published.map((field) => [field, loop[field]]));
     const fresh = { safetyFactor: 0.1, activeCards: 0 };
     expect(loops.map(pick)).toEqual([
-      { ...fresh, partNumber: 'C', supplierCode: 'SUP-A', containerQty: 2, averageDailyDemand: 2, replenishmentDays: 2, recommendedCards: 3 },
-      { ...fresh, partNumber: 'D', supplierCode: 'SUP-B', containerQty: 1, averageDailyDemand: 1, replenishmentDays: 5, recommendedCards: 6 },
-      { ...fresh, partNumber: 'S', supplierCode: null, containerQty: 1, averageDailyDemand: 1, replenishmentDays: 1, recommendedCards: 2 },
+      {
+        ...fresh,
+        partNumber: 'C',
+        supplierCode: 'SUP-A',
+        containerQty: 2,
+        averageDailyDemand: 2,
+        replenishmentDays: 2,
+        recommendedCards: 3,
+      },
+      {
+        ...fresh,
+        partNumber: 'D',
+        supplierCode: 'SUP-B',
+        containerQty: 1,
+        averageDailyDemand: 1,
+        replenishmentDays: 5,
+        recommendedCards: 6,
+      },
+      {
+        ...fresh,
+        partNumber: 'S',
+        supplierCode: null,
+        containerQty: 1,
+        averageDailyDemand: 1,
+        replenishmentDays: 1,
+        recommendedCards: 2,
+      },
     ]);
     expect(loops.map((loop) => [loop.kind, loop.peakDailyDemand])).toEqual([
       ['supplier', 20],
@@ -214,8 +243,14 @@ describe('GET /api/kanban/loops', () => {
   });
 
   it('filters by supplier and answers 404 for an unknown one', async () => {
-    const supplierB = await request(context.app).get('/api/kanban/loops').query({ supplier: 'SUP-B' }).set(bearer(context.tokens.viewer));
-    const unknown = await request(context.app).get('/api/kanban/loops').query({ supplier: 'NOPE' }).set(bearer(context.tokens.viewer));
+    const supplierB = await request(context.app)
+      .get('/api/kanban/loops')
+      .query({ supplier: 'SUP-B' })
+      .set(bearer(context.tokens.viewer));
+    const unknown = await request(context.app)
+      .get('/api/kanban/loops')
+      .query({ supplier: 'NOPE' })
+      .set(bearer(context.tokens.viewer));
 
     expect(supplierB.body.map((loop: LoopRow) => loop.partNumber)).toEqual(['D']);
     expect(unknown.status).toBe(404);
@@ -236,7 +271,12 @@ describe('accepting a loop’s recommendation', () => {
 
     expect(response.status).toBe(200);
     expect(response.body.added).toEqual([1, 2, 3, 4, 5, 6].map((index) => cardNumber(loop.id, index)));
-    expect(response.body).toMatchObject({ retired: [], stillToPull: 0, activeCards: 6, proposal: { action: 'none', count: 0 } });
+    expect(response.body).toMatchObject({
+      retired: [],
+      stillToPull: 0,
+      activeCards: 6,
+      proposal: { action: 'none', count: 0 },
+    });
     const audit = await loopAudit('D', 'accept');
     expect(audit).toHaveLength(1);
     expect(audit[0]).toMatchObject({
@@ -262,7 +302,11 @@ describe('accepting a loop’s recommendation', () => {
     const stale = await accept(loop.id, { expectedRecommended: 6 });
 
     expect(patched.status).toBe(200);
-    expect(patched.body).toMatchObject({ safetyFactor: 0, recommendedCards: 5, proposal: { action: 'pull', count: 1 } });
+    expect(patched.body).toMatchObject({
+      safetyFactor: 0,
+      recommendedCards: 5,
+      proposal: { action: 'pull', count: 1 },
+    });
     expect(stale.status).toBe(409);
     expect(stale.body.error.details).toEqual([{ expectedRecommended: 6, recommendedCards: 5 }]);
     expect((await loopOf('D')).activeCards).toBe(6);
@@ -360,9 +404,18 @@ describe('POST /api/kanban/scans', () => {
     expect([consumed, released, shipped, received].map((response) => response.status)).toEqual([201, 201, 201, 201]);
     const states = [consumed, released, shipped, received].map((response) => response.body.card.state);
     expect(states).toEqual(['empty', 'ordered', 'shipped', 'full']);
-    expect(consumed.body.scan).toMatchObject({ event: 'consume', fromState: 'full', toState: 'empty', userEmail: 'receiving@example.com' });
+    expect(consumed.body.scan).toMatchObject({
+      event: 'consume',
+      fromState: 'full',
+      toState: 'empty',
+      userEmail: 'receiving@example.com',
+    });
     const detail = await request(context.app).get(`/api/kanban/cards/${number}`).set(bearer(context.tokens.viewer));
-    const log = detail.body.scans.map((row: { event: string; fromState: string; toState: string }) => [row.event, row.fromState, row.toState]);
+    const log = detail.body.scans.map((row: { event: string; fromState: string; toState: string }) => [
+      row.event,
+      row.fromState,
+      row.toState,
+    ]);
     expect(log).toEqual([
       ['receive', 'shipped', 'full'],
       ['ship', 'ordered', 'shipped'],
@@ -373,12 +426,19 @@ describe('POST /api/kanban/scans', () => {
   });
 
   it('lists a loop’s cards with their latest scans', async () => {
-    const response = await request(context.app).get(`/api/kanban/loops/${loopId}/cards`).set(bearer(context.tokens.viewer));
+    const response = await request(context.app)
+      .get(`/api/kanban/loops/${loopId}/cards`)
+      .set(bearer(context.tokens.viewer));
 
     expect(response.status).toBe(200);
     expect(response.body.map((card: { cardIndex: number }) => card.cardIndex)).toEqual([1, 2, 3]);
     expect(response.body[0]).toMatchObject({ cardNumber: cardNumber(loopId, 1), state: 'full', retired: false });
-    expect(response.body[0].scans.map((row: { event: string }) => row.event)).toEqual(['receive', 'ship', 'release', 'consume']);
+    expect(response.body[0].scans.map((row: { event: string }) => row.event)).toEqual([
+      'receive',
+      'ship',
+      'release',
+      'consume',
+    ]);
     expect(response.body[1].scans).toEqual([]);
   });
 
@@ -441,7 +501,9 @@ describe('card labels', () => {
   it('gives a print view every card’s label with its QR code as SVG', async () => {
     const loop = await loopOf('C');
 
-    const response = await request(context.app).get(`/api/kanban/loops/${loop.id}/labels`).set(bearer(context.tokens.viewer));
+    const response = await request(context.app)
+      .get(`/api/kanban/loops/${loop.id}/labels`)
+      .set(bearer(context.tokens.viewer));
 
     expect(response.status).toBe(200);
     expect(response.body).toHaveLength(3);
@@ -463,7 +525,9 @@ describe('card labels', () => {
   it('includes pulled cards only when asked for all', async () => {
     const loop = await loopOf('D');
 
-    const active = await request(context.app).get(`/api/kanban/loops/${loop.id}/labels`).set(bearer(context.tokens.viewer));
+    const active = await request(context.app)
+      .get(`/api/kanban/loops/${loop.id}/labels`)
+      .set(bearer(context.tokens.viewer));
     const all = await request(context.app)
       .get(`/api/kanban/loops/${loop.id}/labels`)
       .query({ cards: 'all' })

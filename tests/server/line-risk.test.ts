@@ -3,7 +3,12 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } 
 import { buildDemoScenario } from '../../seed/scenario';
 import { MADE } from '../../seed/scenario-parts';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { replaceBomLines, upsertParts, upsertSequenceEntries, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import {
+  replaceBomLines,
+  upsertParts,
+  upsertSequenceEntries,
+  upsertSuppliers,
+} from '../../server/master-data/master-data.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { bumpPlanningVersion, writeSetting } from '../../server/settings/settings.service';
@@ -66,13 +71,23 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
   async function releaseLineForC(status: string, line: Partial<ReleaseLineEntity>): Promise<void> {
     releases += 1;
     await context.dataSource.transaction(async (manager) => {
-      const release = await manager.save(ReleaseEntity, manager.create(ReleaseEntity, {
-        number: `R-${releases}`,
-        supplierCode: 'SUP-A',
-        releaseDate: `2026-11-${String(releases).padStart(2, '0')}`,
-        status,
-      }));
-      await manager.insert(ReleaseLineEntity, { releaseId: release.id, partNumber: 'C', qty: 10, needDate: '2026-12-21', origin: 'plan', ...line });
+      const release = await manager.save(
+        ReleaseEntity,
+        manager.create(ReleaseEntity, {
+          number: `R-${releases}`,
+          supplierCode: 'SUP-A',
+          releaseDate: `2026-11-${String(releases).padStart(2, '0')}`,
+          status,
+        }),
+      );
+      await manager.insert(ReleaseLineEntity, {
+        releaseId: release.id,
+        partNumber: 'C',
+        qty: 10,
+        needDate: '2026-12-21',
+        origin: 'plan',
+        ...line,
+      });
       await bumpPlanningVersion(manager);
     });
   }
@@ -119,7 +134,12 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
     // 2 arriving Tuesday morning cover S3 (1 + 2 ≥ 2); arriving Wednesday they come too late.
     expect(onTime.body).toEqual([]);
     expect(shippedLate.body).toHaveLength(1);
-    expect(shippedLate.body[0]).toMatchObject({ partNumber: 'C', firstShortDate: '2026-12-22', shortQty: 1, firmReceiptQty: 2 });
+    expect(shippedLate.body[0]).toMatchObject({
+      partNumber: 'C',
+      firstShortDate: '2026-12-22',
+      shortQty: 1,
+      firmReceiptQty: 2,
+    });
   });
 
   it('leaves out releases the supplier has not confirmed, closed lines and what was already received', async () => {
@@ -134,15 +154,25 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
 
     // None of the first five brings a piece: still 1 short. The partial line has 10 − 9 = 1
     // open from Monday, so Tuesday has 1 + 1 = 2 for S3.
-    expect(nothingFirm.body.map((shortage: ShortageDto) => [shortage.partNumber, shortage.shortQty, shortage.firmReceiptQty])).toEqual([['C', 1, 0]]);
+    expect(
+      nothingFirm.body.map((shortage: ShortageDto) => [
+        shortage.partNumber,
+        shortage.shortQty,
+        shortage.firmReceiptQty,
+      ]),
+    ).toEqual([['C', 1, 0]]);
     expect(oneOpen.body).toEqual([]);
   });
 
   it('serves a horizon from the cache until the planning version moves', async () => {
     const before = await getShortages();
-    await context.dataSource.getRepository(ReleaseEntity).insert({ number: 'R-quiet', supplierCode: 'SUP-A', releaseDate: '2026-12-17', status: 'confirmed' });
+    await context.dataSource
+      .getRepository(ReleaseEntity)
+      .insert({ number: 'R-quiet', supplierCode: 'SUP-A', releaseDate: '2026-12-17', status: 'confirmed' });
     const release = await context.dataSource.getRepository(ReleaseEntity).findOneByOrFail({ number: 'R-quiet' });
-    await context.dataSource.getRepository(ReleaseLineEntity).insert({ releaseId: release.id, partNumber: 'C', qty: 5, needDate: '2026-12-21', origin: 'plan' });
+    await context.dataSource
+      .getRepository(ReleaseLineEntity)
+      .insert({ releaseId: release.id, partNumber: 'C', qty: 5, needDate: '2026-12-21', origin: 'plan' });
     const unannounced = await getShortages();
     await context.dataSource.transaction((manager) => bumpPlanningVersion(manager));
     const announced = await getShortages();
@@ -193,7 +223,9 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
   it('is open to every signed-in role but supplier, and closed without a sign-in', async () => {
     const statuses: Record<string, number> = {};
     for (const role of ['admin', 'planner', 'buyer', 'receiving', 'viewer', 'supplier'] as const) {
-      statuses[role] = (await request(context.app).get('/api/shortages').query(horizon).set(bearer(context.tokens[role]))).status;
+      statuses[role] = (
+        await request(context.app).get('/api/shortages').query(horizon).set(bearer(context.tokens[role]))
+      ).status;
     }
     const anonymous = await request(context.app).get('/api/shortages').query(horizon);
 
@@ -226,7 +258,10 @@ describe('GET /api/shortages on the demo plant', () => {
 
   async function shortages(workingDays: number): Promise<ShortageDto[]> {
     const to = addWorkingDays(firstDay, workingDays - 1, scenario.calendar);
-    const response = await request(context.app).get('/api/shortages').query({ from: firstDay, to }).set(bearer(context.tokens.planner));
+    const response = await request(context.app)
+      .get('/api/shortages')
+      .query({ from: firstDay, to })
+      .set(bearer(context.tokens.planner));
     expect(response.status).toBe(200);
     return response.body as ShortageDto[];
   }
@@ -236,12 +271,20 @@ describe('GET /api/shortages on the demo plant', () => {
     // 3–6 days and a half, so they run short inside the first ten working days.
     const twoWeeks = await shortages(10);
 
-    expect(twoWeeks.map((shortage) => shortage.partNumber).sort()).toEqual(['BAT-06-312', 'CTL-W24', 'HNS-M26', 'TNK-R60']);
+    expect(twoWeeks.map((shortage) => shortage.partNumber).sort()).toEqual([
+      'BAT-06-312',
+      'CTL-W24',
+      'HNS-M26',
+      'TNK-R60',
+    ]);
     for (const shortage of twoWeeks) {
       expect(shortage.slotsAtRisk.length).toBeGreaterThan(0);
       expect(shortage.shortQty).toBeGreaterThan(0);
     }
-    expect(twoWeeks.find((shortage) => shortage.partNumber === 'BAT-06-312')).toMatchObject({ hazardous: true, supplierCode: 'FBS' });
+    expect(twoWeeks.find((shortage) => shortage.partNumber === 'BAT-06-312')).toMatchObject({
+      hazardous: true,
+      supplierCode: 'FBS',
+    });
     const dates = twoWeeks.map((shortage) => shortage.firstShortDate);
     expect(dates).toEqual([...dates].sort());
   });

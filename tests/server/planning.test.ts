@@ -1,14 +1,18 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { replaceBomLines, setOnHand, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
+import {
+  replaceBomLines,
+  setOnHand,
+  upsertParts,
+  upsertSequenceEntries,
+} from '../../server/master-data/master-data.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { bumpPlanningVersion } from '../../server/settings/settings.service';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;
-
 
 // A two-level structure small enough to net by hand: one model M, 2 × C per unit (C bought in
 // packs of 10 with 5 on hand and a 2-working-day lead time), 1 × D per unit from supplier B.
@@ -73,7 +77,10 @@ describe('GET /api/plan', () => {
   });
 
   it('answers 404 for an unknown part and 400 for a reversed horizon', async () => {
-    const unknown = await request(context.app).get('/api/plan').query({ part: 'NOPE' }).set(bearer(context.tokens.buyer));
+    const unknown = await request(context.app)
+      .get('/api/plan')
+      .query({ part: 'NOPE' })
+      .set(bearer(context.tokens.buyer));
     const reversed = await request(context.app)
       .get('/api/plan')
       .query({ part: 'C', from: '2026-12-28', to: '2026-12-21' })
@@ -115,14 +122,19 @@ describe('GET /api/plan', () => {
     const confirmed = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
 
     expect(sent.body.buckets.map((bucket: { scheduledReceipts: number }) => bucket.scheduledReceipts)).toEqual([0, 40]);
-    expect(confirmed.body.buckets.map((bucket: { scheduledReceipts: number }) => bucket.scheduledReceipts)).toEqual([0, 30]);
+    expect(confirmed.body.buckets.map((bucket: { scheduledReceipts: number }) => bucket.scheduledReceipts)).toEqual([
+      0, 30,
+    ]);
     await context.dataSource.getRepository(ReleaseLineEntity).delete(lineId);
     await context.dataSource.getRepository(ReleaseEntity).delete(releaseId);
     await context.dataSource.transaction((manager) => bumpPlanningVersion(manager));
   });
 
   it('is refused to a supplier account', async () => {
-    const response = await request(context.app).get('/api/plan').query({ part: 'C' }).set(bearer(context.tokens.supplier));
+    const response = await request(context.app)
+      .get('/api/plan')
+      .query({ part: 'C' })
+      .set(bearer(context.tokens.supplier));
 
     expect(response.status).toBe(403);
   });
@@ -159,11 +171,18 @@ describe('GET /api/demand', () => {
 
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toMatch(/^text\/csv/);
-    expect(response.text.split('\r\n')).toEqual(['part_number,supplier_code,2026-12-21,2026-12-22,total', 'C,SUP-A,4,2,6', 'D,SUP-B,2,1,3']);
+    expect(response.text.split('\r\n')).toEqual([
+      'part_number,supplier_code,2026-12-21,2026-12-22,total',
+      'C,SUP-A,4,2,6',
+      'D,SUP-B,2,1,3',
+    ]);
   });
 
   it('answers 404 for an unknown supplier', async () => {
-    const response = await request(context.app).get('/api/demand').query({ supplier: 'NOPE' }).set(bearer(context.tokens.buyer));
+    const response = await request(context.app)
+      .get('/api/demand')
+      .query({ supplier: 'NOPE' })
+      .set(bearer(context.tokens.buyer));
 
     expect(response.status).toBe(404);
   });

@@ -27,7 +27,10 @@ interface LineSpec {
 }
 
 /** A release as the release job and the supplier would leave it, written straight to the tables. */
-async function makeRelease(status: string, lines: LineSpec[]): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
+async function makeRelease(
+  status: string,
+  lines: LineSpec[],
+): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
   releaseDay += 1;
   const releaseDate = `2026-11-${String(releaseDay).padStart(2, '0')}`;
   const release = await context.dataSource.getRepository(ReleaseEntity).save({
@@ -63,10 +66,12 @@ function receive(body: object, key: string | null = freshKey(), role: Role = 're
   return key === null ? call.send(body) : call.set('Idempotency-Key', key).send(body);
 }
 
-const onHandOf = async (partNumber: string) => (await context.dataSource.getRepository(PartEntity).findOneByOrFail({ partNumber })).onHand;
+const onHandOf = async (partNumber: string) =>
+  (await context.dataSource.getRepository(PartEntity).findOneByOrFail({ partNumber })).onHand;
 const lineOf = (id: number) => context.dataSource.getRepository(ReleaseLineEntity).findOneByOrFail({ id });
 const releaseOf = (id: number) => context.dataSource.getRepository(ReleaseEntity).findOneByOrFail({ id });
-const receiptCount = (releaseLineId: number) => context.dataSource.getRepository(ReceiptEntity).countBy({ releaseLineId });
+const receiptCount = (releaseLineId: number) =>
+  context.dataSource.getRepository(ReceiptEntity).countBy({ releaseLineId });
 
 beforeAll(async () => {
   context = await createTestContext();
@@ -109,9 +114,15 @@ describe('POST /api/receipts', () => {
     expect(await releaseOf(release.id)).toMatchObject({ status: 'received', dockColumn: 'counted' });
     expect(await readPlanningVersion(context.dataSource.manager)).toBeGreaterThan(planningBefore);
     expect(await readDockVersion(context.dataSource.manager)).toBeGreaterThan(dockBefore);
-    const audit = await context.dataSource.getRepository(AuditEventEntity).findOneBy({ entity: 'receipt', entityKey: String(response.body.receipt.id) });
+    const audit = await context.dataSource
+      .getRepository(AuditEventEntity)
+      .findOneBy({ entity: 'receipt', entityKey: String(response.body.receipt.id) });
     expect(audit).toMatchObject({ action: 'receive', actorEmail: 'receiving@example.com' });
-    expect(audit?.changes).toMatchObject({ releaseNumber: release.number, onHand: { from: 10, to: 50 }, lineClosed: true });
+    expect(audit?.changes).toMatchObject({
+      releaseNumber: release.number,
+      onHand: { from: 10, to: 50 },
+      lineClosed: true,
+    });
   });
 
   it('counts a replayed Idempotency-Key once and answers 200 with the same body', async () => {
@@ -227,7 +238,9 @@ describe('POST /api/receipts', () => {
   });
 
   it('returns the kanban card of a line to full when the line closes, with a scan in its log', async () => {
-    const loop = await context.dataSource.getRepository(KanbanLoopEntity).save({ partNumber: 'CASTER-75', kind: 'supplier', containerQty: 6 });
+    const loop = await context.dataSource
+      .getRepository(KanbanLoopEntity)
+      .save({ partNumber: 'CASTER-75', kind: 'supplier', containerQty: 6 });
     const card = await context.dataSource.getRepository(KanbanCardEntity).save({
       loopId: loop.id,
       cardIndex: 1,
@@ -242,7 +255,9 @@ describe('POST /api/receipts', () => {
     const response = await receive({ releaseLineId: lines[0].id, qty: 6 });
 
     expect(response.status).toBe(201);
-    expect((await context.dataSource.getRepository(KanbanCardEntity).findOneByOrFail({ id: card.id })).state).toBe('full');
+    expect((await context.dataSource.getRepository(KanbanCardEntity).findOneByOrFail({ id: card.id })).state).toBe(
+      'full',
+    );
     const scans = await context.dataSource.getRepository(CardScanEntity).findBy({ cardId: card.id });
     expect(scans.map((scan) => [scan.event, scan.fromState, scan.toState, scan.userEmail])).toEqual([
       ['receive', 'shipped', 'full', 'receiving@example.com'],
@@ -250,7 +265,10 @@ describe('POST /api/receipts', () => {
   });
 
   it('refuses a closed line with 409 and counts nothing', async () => {
-    const { lines } = await makeRelease('sent', [{ partNumber: 'BRUSH-20', qty: 5 }, { partNumber: 'PAD-26', qty: 5 }]);
+    const { lines } = await makeRelease('sent', [
+      { partNumber: 'BRUSH-20', qty: 5 },
+      { partNumber: 'PAD-26', qty: 5 },
+    ]);
     await receive({ releaseLineId: lines[0].id, qty: 5 });
     const before = await onHandOf('BRUSH-20');
 

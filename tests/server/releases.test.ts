@@ -46,7 +46,14 @@ async function seedFixture(): Promise<void> {
       testPart('P', { replenishment: 'scheduled', leadTimeDays: 2, packQty: 5, onHand: 3, description: 'Side panel' }),
       testPart('Q', { replenishment: 'scheduled', supplierCode: 'SUP-B', leadTimeDays: 3, packQty: 1, onHand: 20 }),
     ]);
-    const line = (component: string, qtyPer: number) => ({ parent: 'M', component, qtyPer, scrapPct: 0, effectiveFrom: null, effectiveTo: null });
+    const line = (component: string, qtyPer: number) => ({
+      parent: 'M',
+      component,
+      qtyPer,
+      scrapPct: 0,
+      effectiveFrom: null,
+      effectiveTo: null,
+    });
     await replaceBomLines(manager, [line('P', 1), line('Q', 2)]);
     await upsertSequenceEntries(manager, [
       { date: '2027-03-01', sequence: 1, model: 'M', serial: 'U1', qty: 4 },
@@ -156,7 +163,13 @@ describe('POST /api/releases/run', () => {
         lines: [{ partNumber: 'H', qty: 4, needDate: '2027-03-08', origin: 'kanban' }],
       },
     ]);
-    expect(firstRun.releases[0].lines[0]).toMatchObject({ id: expect.any(Number), confirmedQty: null, shipDate: null, receivedQty: 0, closed: false });
+    expect(firstRun.releases[0].lines[0]).toMatchObject({
+      id: expect.any(Number),
+      confirmedQty: null,
+      shipDate: null,
+      receivedQty: 0,
+      closed: false,
+    });
   });
 
   it('creates nothing new when the same date runs again', async () => {
@@ -176,8 +189,17 @@ describe('POST /api/releases/run', () => {
     expect([card1.state, card2.state, card3.state, card4.state]).toEqual(['ordered', 'ordered', 'full', 'empty']);
     expect([card1.releaseLineId, card2.releaseLineId].sort()).toEqual([...lineIds].sort());
     const scans = await context.dataSource.getRepository(CardScanEntity).findBy({ cardId: card1.id });
-    expect(scans).toEqual([expect.objectContaining({ event: 'release', fromState: 'empty', toState: 'ordered', userEmail: 'buyer@example.com' })]);
-    expect(firstRun.releases[0].lines.find((line) => line.id === card1.releaseLineId)?.cardNumber).toBe(card1.cardNumber);
+    expect(scans).toEqual([
+      expect.objectContaining({
+        event: 'release',
+        fromState: 'empty',
+        toState: 'ordered',
+        userEmail: 'buyer@example.com',
+      }),
+    ]);
+    expect(firstRun.releases[0].lines.find((line) => line.id === card1.releaseLineId)?.cardNumber).toBe(
+      card1.cardNumber,
+    );
   });
 
   it('queues one e-mail per release whose link opens the confirmation page', async () => {
@@ -192,7 +214,11 @@ describe('POST /api/releases/run', () => {
     expect(mailB.text).toContain(HAZARDOUS_NOTE);
     const page = await request(context.app).get(`/api/confirm/${tokenIn(mailA.text)}`);
     expect(page.status).toBe(200);
-    expect(page.body.release).toMatchObject({ number: 'R270301-SUP-A', supplierCode: 'SUP-A', supplierName: 'Supplier A' });
+    expect(page.body.release).toMatchObject({
+      number: 'R270301-SUP-A',
+      supplierCode: 'SUP-A',
+      supplierName: 'Supplier A',
+    });
     expect(page.body.release.lines).toHaveLength(4);
   });
 
@@ -226,7 +252,9 @@ describe('POST /api/releases/run', () => {
 
 describe('GET /api/releases', () => {
   it('filters by status and date', async () => {
-    const sent = await request(context.app).get('/api/releases?status=sent&date=2027-03-01').set(bearer(context.tokens.viewer));
+    const sent = await request(context.app)
+      .get('/api/releases?status=sent&date=2027-03-01')
+      .set(bearer(context.tokens.viewer));
     const none = await request(context.app).get('/api/releases?status=received').set(bearer(context.tokens.viewer));
 
     expect(sent.body).toHaveLength(2);
@@ -240,7 +268,13 @@ describe('GET /api/releases', () => {
 
     expect(list.body.map((release: Release) => release.supplierCode)).toEqual(['SUP-A']);
     expect(own.status).toBe(200);
-    expect(own.body).toMatchObject({ number: 'R270301-SUP-A', status: 'sent', sentAt: expect.any(String), confirmedAt: null, carrier: null });
+    expect(own.body).toMatchObject({
+      number: 'R270301-SUP-A',
+      status: 'sent',
+      sentAt: expect.any(String),
+      confirmedAt: null,
+      carrier: null,
+    });
     expect(other.status).toBe(404);
     expect(other.body.error.code).toBe('not_found');
   });
@@ -257,7 +291,9 @@ describe('POST /api/releases/:number/resend', () => {
     const [first] = await mailsTo('orders@supplier-a.example.com');
     const oldToken = tokenIn(first.text);
 
-    const response = await request(context.app).post('/api/releases/R270301-SUP-A/resend').set(bearer(context.tokens.buyer));
+    const response = await request(context.app)
+      .post('/api/releases/R270301-SUP-A/resend')
+      .set(bearer(context.tokens.buyer));
 
     expect(response.status).toBe(200);
     expect(response.body.status).toBe('sent');
@@ -271,7 +307,9 @@ describe('POST /api/releases/:number/resend', () => {
   });
 
   it('is for buyers and admins only', async () => {
-    const response = await request(context.app).post('/api/releases/R270301-SUP-A/resend').set(bearer(context.tokens.supplier));
+    const response = await request(context.app)
+      .post('/api/releases/R270301-SUP-A/resend')
+      .set(bearer(context.tokens.supplier));
 
     expect(response.status).toBe(403);
   });
@@ -281,7 +319,9 @@ describe('POST /api/releases/:number/cancel', () => {
   it('cancels an unreceived release, returns its cards to empty and ends its link', async () => {
     const [mail] = await mailsTo('orders@supplier-b.example.net');
 
-    const response = await request(context.app).post('/api/releases/R270301-SUP-B/cancel').set(bearer(context.tokens.buyer));
+    const response = await request(context.app)
+      .post('/api/releases/R270301-SUP-B/cancel')
+      .set(bearer(context.tokens.buyer));
 
     expect(response.status).toBe(200);
     expect(response.body.status).toBe('cancelled');
@@ -290,25 +330,36 @@ describe('POST /api/releases/:number/cancel', () => {
     expect(card.state).toBe('empty');
     expect(card.releaseLineId).toBeNull();
     expect((await request(context.app).get(`/api/confirm/${tokenIn(mail.text)}`)).status).toBe(410);
-    const again = await request(context.app).post('/api/releases/R270301-SUP-B/cancel').set(bearer(context.tokens.buyer));
+    const again = await request(context.app)
+      .post('/api/releases/R270301-SUP-B/cancel')
+      .set(bearer(context.tokens.buyer));
     expect(again.status).toBe(409);
   });
 
   it('refuses once anything was received', async () => {
     const release = firstRun.releases[0];
-    await context.dataSource.manager.query('UPDATE release_line SET received_qty = 5 WHERE id = ?', [release.lines[0].id]);
+    await context.dataSource.manager.query('UPDATE release_line SET received_qty = 5 WHERE id = ?', [
+      release.lines[0].id,
+    ]);
 
-    const response = await request(context.app).post(`/api/releases/${release.number}/cancel`).set(bearer(context.tokens.admin));
+    const response = await request(context.app)
+      .post(`/api/releases/${release.number}/cancel`)
+      .set(bearer(context.tokens.admin));
 
     expect(response.status).toBe(409);
-    await context.dataSource.manager.query('UPDATE release_line SET received_qty = 0 WHERE id = ?', [release.lines[0].id]);
+    await context.dataSource.manager.query('UPDATE release_line SET received_qty = 0 WHERE id = ?', [
+      release.lines[0].id,
+    ]);
   });
 });
 
 describe('GET|PUT /api/releases/settings', () => {
   it('starts at 06:00 and lets an admin set another time', async () => {
     const before = await request(context.app).get('/api/releases/settings').set(bearer(context.tokens.buyer));
-    const put = await request(context.app).put('/api/releases/settings').set(bearer(context.tokens.admin)).send({ jobTime: '05:30' });
+    const put = await request(context.app)
+      .put('/api/releases/settings')
+      .set(bearer(context.tokens.admin))
+      .send({ jobTime: '05:30' });
 
     expect(before.body).toEqual({ jobTime: '06:00', lastRunDate: null });
     expect(put.status).toBe(200);
@@ -318,14 +369,20 @@ describe('GET|PUT /api/releases/settings', () => {
   });
 
   it.each(['24:00', '6:00', '06:60', '0600', ''])('refuses the time "%s" with 400', async (jobTime) => {
-    const response = await request(context.app).put('/api/releases/settings').set(bearer(context.tokens.admin)).send({ jobTime });
+    const response = await request(context.app)
+      .put('/api/releases/settings')
+      .set(bearer(context.tokens.admin))
+      .send({ jobTime });
 
     expect(response.status).toBe(400);
     expect(response.body.error.details[0].path).toEqual(['jobTime']);
   });
 
   it('lets only an admin change the time', async () => {
-    const response = await request(context.app).put('/api/releases/settings').set(bearer(context.tokens.buyer)).send({ jobTime: '07:00' });
+    const response = await request(context.app)
+      .put('/api/releases/settings')
+      .set(bearer(context.tokens.buyer))
+      .send({ jobTime: '07:00' });
 
     expect(response.status).toBe(403);
   });
@@ -335,9 +392,15 @@ describe('ReleaseJob', () => {
   const at = (date: string, time: string) => new Date(`${date}T${time}:00`);
 
   it('runs a working day once, at or after the set time, and catches up after a restart', async () => {
-    const job = new ReleaseJob(context.dataSource, new ReleasesService(context.dataSource, new PlanningService(context.dataSource), { appUrl: APP_URL }));
+    const job = new ReleaseJob(
+      context.dataSource,
+      new ReleasesService(context.dataSource, new PlanningService(context.dataSource), { appUrl: APP_URL }),
+    );
     await writeSetting(context.dataSource.manager, RELEASE_JOB_LAST_RUN, '2027-03-02');
-    await request(context.app).put('/api/releases/settings').set(bearer(context.tokens.admin)).send({ jobTime: '06:00' });
+    await request(context.app)
+      .put('/api/releases/settings')
+      .set(bearer(context.tokens.admin))
+      .send({ jobTime: '06:00' });
 
     const early = await job.tick(at('2027-03-03', '05:59'));
     const due = await job.tick(at('2027-03-03', '09:41'));
@@ -355,8 +418,11 @@ describe('ReleaseJob', () => {
   });
 
   it('starts a brand-new schedule on the next day rather than mailing at first start', async () => {
-    const job = new ReleaseJob(context.dataSource, new ReleasesService(context.dataSource, new PlanningService(context.dataSource), { appUrl: APP_URL }));
-    await context.dataSource.manager.query("DELETE FROM setting WHERE key = ?", [RELEASE_JOB_LAST_RUN]);
+    const job = new ReleaseJob(
+      context.dataSource,
+      new ReleasesService(context.dataSource, new PlanningService(context.dataSource), { appUrl: APP_URL }),
+    );
+    await context.dataSource.manager.query('DELETE FROM setting WHERE key = ?', [RELEASE_JOB_LAST_RUN]);
 
     const first = await job.tick(at('2027-03-04', '10:00'));
 

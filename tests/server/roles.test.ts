@@ -26,7 +26,10 @@ describe('role enforcement on the server', () => {
     for (const role of roles) {
       const allowed = route.allowed.includes(role);
       it(`${route.method.toUpperCase()} ${route.path} as ${role} → ${allowed ? 'allowed' : '403'}`, async () => {
-        const response = await request(context.app)[route.method](route.path).set(bearer(context.tokens[role])).send(route.body);
+        const response = await request(context.app)
+          [route.method](route.path)
+          .set(bearer(context.tokens[role]))
+          .send(route.body);
 
         if (allowed) expect(response.status).toBe(200);
         else expect(response.status).toBe(403);

@@ -49,8 +49,15 @@ async function order(date: string): Promise<string[]> {
   return (day?.units ?? []).map((unit) => `${unit.sequence}:${unit.serial}`);
 }
 
-function resequence(days: { date: string; serials: string[] }[], extra: { allowFrozen?: boolean } = {}, token = context.tokens.planner) {
-  return api().put('/api/sequence/days').set(bearer(token)).send({ days, ...extra });
+function resequence(
+  days: { date: string; serials: string[] }[],
+  extra: { allowFrozen?: boolean } = {},
+  token = context.tokens.planner,
+) {
+  return api()
+    .put('/api/sequence/days')
+    .set(bearer(token))
+    .send({ days, ...extra });
 }
 
 // Model M1 takes 2 × C per unit (the gross check below), M2 takes none.
@@ -63,7 +70,9 @@ beforeAll(async () => {
       testPart('M2', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('C', { packQty: 1, onHand: 0, leadTimeDays: 0 }),
     ]);
-    await replaceBomLines(manager, [{ parent: 'M1', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null }]);
+    await replaceBomLines(manager, [
+      { parent: 'M1', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+    ]);
   });
 });
 afterAll(() => context.close());
@@ -90,7 +99,9 @@ describe('GET /api/sequence', () => {
 
     expect(response.status).toBe(200);
     const days: DayBody[] = response.body.days;
-    expect(days.map((day) => day.date)).toEqual(Array.from({ length: 10 }, (_, index) => addWorkingDays(F1, index, calendar)));
+    expect(days.map((day) => day.date)).toEqual(
+      Array.from({ length: 10 }, (_, index) => addWorkingDays(F1, index, calendar)),
+    );
     expect(days.map((day) => day.frozen)).toEqual([true, true, true, false, false, false, false, false, false, false]);
     expect(response.body).toMatchObject({ today, frozenUntil: F3, frozenWindowDays: 3, dailyCapacity: 24 });
     expect(days[3]).toMatchObject({ date: O1, working: true, load: 3, capacity: 24 });
@@ -102,7 +113,9 @@ describe('GET /api/sequence', () => {
   });
 
   it('lists a non-working day that still holds units, flagged so the planner moves them off', async () => {
-    await context.dataSource.getRepository(SequenceEntryEntity).insert({ date: SATURDAY, sequence: 1, model: 'M2', serial: 'W1', qty: 1 });
+    await context.dataSource
+      .getRepository(SequenceEntryEntity)
+      .insert({ date: SATURDAY, sequence: 1, model: 'M2', serial: 'W1', qty: 1 });
 
     const days = await board(O1, addCalendarDays(SATURDAY, 2));
 
@@ -151,7 +164,9 @@ describe('PUT /api/sequence/days', () => {
     const response = await resequence([{ date: O1, serials: ['A1', 'A2', 'A3', 'NOPE'] }]);
 
     expect(response.status).toBe(400);
-    expect(response.body.error.details).toEqual([{ path: ['days', 0, 'serials', 3], message: "no unit with serial 'NOPE'" }]);
+    expect(response.body.error.details).toEqual([
+      { path: ['days', 0, 'serials', 3], message: "no unit with serial 'NOPE'" },
+    ]);
     expect(await order(O1)).toEqual(['1:A1', '2:A2', '3:A3']);
   });
 
@@ -181,7 +196,9 @@ describe('PUT /api/sequence/days', () => {
   });
 
   it('answers 409 with the figures when a day would go over capacity, and still lets a full day be reordered', async () => {
-    await context.dataSource.transaction((manager) => writeSequenceSettings(manager, { frozenWindowDays: 3, dailyCapacity: 2 }));
+    await context.dataSource.transaction((manager) =>
+      writeSequenceSettings(manager, { frozenWindowDays: 3, dailyCapacity: 2 }),
+    );
 
     const over = await resequence([{ date: O2, serials: ['B1', 'A2', 'B2'] }]);
     const reorder = await resequence([{ date: O1, serials: ['A2', 'A1', 'A3'] }]);
@@ -264,7 +281,10 @@ describe('PUT /api/sequence/days', () => {
 
 describe('POST /api/sequence/units', () => {
   it('adds a unit at the end of its day', async () => {
-    const response = await api().post('/api/sequence/units').set(asPlanner()).send({ date: O2, model: 'M1', serial: 'N1' });
+    const response = await api()
+      .post('/api/sequence/units')
+      .set(asPlanner())
+      .send({ date: O2, model: 'M1', serial: 'N1' });
 
     expect(response.status).toBe(201);
     expect(response.body).toMatchObject({ date: O2, sequence: 3, model: 'M1', serial: 'N1', qty: 1 });
@@ -272,8 +292,14 @@ describe('POST /api/sequence/units', () => {
   });
 
   it('checks the model, the serial, the day, the frozen window and the capacity like the import does', async () => {
-    const add = (body: object) => api().post('/api/sequence/units').set(asPlanner()).send({ date: O2, model: 'M1', serial: 'N2', ...body });
-    await context.dataSource.transaction((manager) => writeSequenceSettings(manager, { frozenWindowDays: 3, dailyCapacity: 3 }));
+    const add = (body: object) =>
+      api()
+        .post('/api/sequence/units')
+        .set(asPlanner())
+        .send({ date: O2, model: 'M1', serial: 'N2', ...body });
+    await context.dataSource.transaction((manager) =>
+      writeSequenceSettings(manager, { frozenWindowDays: 3, dailyCapacity: 3 }),
+    );
 
     const boughtPart = await add({ model: 'C' });
     const unknownModel = await add({ model: 'NOPE' });
@@ -318,10 +344,15 @@ describe('DELETE /api/sequence/units/:serial', () => {
 
 describe('sequence settings', () => {
   it('starts at a 3-day frozen window and 24 units a day, and takes new values with an audit event', async () => {
-    await context.dataSource.transaction((manager) => manager.delete('setting', ['sequence.frozenWindowDays', 'sequence.dailyCapacity']));
+    await context.dataSource.transaction((manager) =>
+      manager.delete('setting', ['sequence.frozenWindowDays', 'sequence.dailyCapacity']),
+    );
     const defaults = await api().get('/api/sequence/settings').set(bearer(context.tokens.viewer));
 
-    const saved = await api().put('/api/sequence/settings').set(asPlanner()).send({ frozenWindowDays: 0, dailyCapacity: 30 });
+    const saved = await api()
+      .put('/api/sequence/settings')
+      .set(asPlanner())
+      .send({ frozenWindowDays: 0, dailyCapacity: 30 });
     const days = await board(F1, O1);
 
     expect(defaults.body).toEqual({ frozenWindowDays: 3, dailyCapacity: 24 });
@@ -333,8 +364,14 @@ describe('sequence settings', () => {
   });
 
   it('refuses values out of range', async () => {
-    const tooLong = await api().put('/api/sequence/settings').set(asPlanner()).send({ frozenWindowDays: 16, dailyCapacity: 24 });
-    const noCapacity = await api().put('/api/sequence/settings').set(asPlanner()).send({ frozenWindowDays: 3, dailyCapacity: 0 });
+    const tooLong = await api()
+      .put('/api/sequence/settings')
+      .set(asPlanner())
+      .send({ frozenWindowDays: 16, dailyCapacity: 24 });
+    const noCapacity = await api()
+      .put('/api/sequence/settings')
+      .set(asPlanner())
+      .send({ frozenWindowDays: 3, dailyCapacity: 0 });
 
     expect(tooLong.status).toBe(400);
     expect(noCapacity.status).toBe(400);
@@ -346,9 +383,15 @@ describe('who may change the sequence', () => {
     const token = context.tokens[role];
 
     const moved = await resequence([{ date: O1, serials: ['A3', 'A1', 'A2'] }], {}, token);
-    const added = await api().post('/api/sequence/units').set(bearer(token)).send({ date: O2, model: 'M1', serial: 'N9' });
+    const added = await api()
+      .post('/api/sequence/units')
+      .set(bearer(token))
+      .send({ date: O2, model: 'M1', serial: 'N9' });
     const removed = await api().delete('/api/sequence/units/A1').set(bearer(token));
-    const settings = await api().put('/api/sequence/settings').set(bearer(token)).send({ frozenWindowDays: 3, dailyCapacity: 24 });
+    const settings = await api()
+      .put('/api/sequence/settings')
+      .set(bearer(token))
+      .send({ frozenWindowDays: 3, dailyCapacity: 24 });
 
     expect([moved.status, added.status, removed.status, settings.status]).toEqual([403, 403, 403, 403]);
   });

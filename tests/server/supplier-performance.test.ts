@@ -28,7 +28,13 @@ function instant(local: string): string {
 }
 
 /** A release with its lines and receipts, written straight to the tables as the app would leave them. */
-async function makeRelease(supplierCode: string, status: string, sentAt: string | null, confirmedAt: string | null, lines: LineSpec[]): Promise<void> {
+async function makeRelease(
+  supplierCode: string,
+  status: string,
+  sentAt: string | null,
+  confirmedAt: string | null,
+  lines: LineSpec[],
+): Promise<void> {
   serial += 1;
   const release = await context.dataSource.getRepository(ReleaseEntity).save({
     number: `R-PERF-${serial}`,
@@ -80,7 +86,14 @@ beforeAll(async () => {
     // Confirmed 80 of 100; 80 usable late on the need day → on time, fills 80.
     { qty: 100, confirmedQty: 80, needDate: '2025-01-10', receipts: [[80, '2025-01-10 23:30', null]] },
     // 50 damaged and 20 good the day before → 20 usable of 50: late, fills 20.
-    { qty: 50, needDate: '2025-01-10', receipts: [[50, '2025-01-09 10:00', 'damaged'], [20, '2025-01-09 10:05', null]] },
+    {
+      qty: 50,
+      needDate: '2025-01-10',
+      receipts: [
+        [50, '2025-01-09 10:00', 'damaged'],
+        [20, '2025-01-09 10:05', null],
+      ],
+    },
   ]);
   // SUP-A, January: answered in 30 h; all 60 arrive the day after the need date → late, fills 0.
   await makeRelease('SUP-A', 'received', '2025-01-13T06:00:00.000Z', '2025-01-14T12:00:00.000Z', [
@@ -163,7 +176,9 @@ describe('GET /api/suppliers/performance', () => {
     const unknown = await get('?from=2025-01&to=2025-02&supplier=NOPE');
 
     expect(one.status).toBe(200);
-    expect(one.body.map((row: { supplierCode: string; month: string }) => `${row.supplierCode} ${row.month}`)).toEqual(['SUP-B 2025-01']);
+    expect(one.body.map((row: { supplierCode: string; month: string }) => `${row.supplierCode} ${row.month}`)).toEqual([
+      'SUP-B 2025-01',
+    ]);
     expect(unknown.status).toBe(404);
   });
 
@@ -178,7 +193,9 @@ describe('GET /api/suppliers/performance', () => {
 
     // Only the line five months back falls in the default range; the one six months back does not.
     expect(response.status).toBe(200);
-    expect(response.body).toEqual([expect.objectContaining({ supplierCode: 'SUP-B', month: addMonths(current, -5), lines: 1, orderedQty: 7 })]);
+    expect(response.body).toEqual([
+      expect.objectContaining({ supplierCode: 'SUP-B', month: addMonths(current, -5), lines: 1, orderedQty: 7 }),
+    ]);
   });
 
   it('rejects bad months, a reversed range and more than 24 months', async () => {

@@ -17,9 +17,13 @@ describe('/api/users', () => {
 
     expect(created.status).toBe(201);
     expect(created.body).toMatchObject({ email: 'new.planner@example.org', role: 'planner', active: true });
-    const [row] = await context.dataSource.query('SELECT password_hash FROM "user" WHERE email = ?', ['new.planner@example.org']);
+    const [row] = await context.dataSource.query('SELECT password_hash FROM "user" WHERE email = ?', [
+      'new.planner@example.org',
+    ]);
     expect(row.password_hash).toMatch(/^\$argon2id\$/);
-    await expect(signIn(context.app, 'new.planner@example.org', 'planner-password-1')).resolves.toEqual(expect.any(String));
+    await expect(signIn(context.app, 'new.planner@example.org', 'planner-password-1')).resolves.toEqual(
+      expect.any(String),
+    );
   });
 
   it('binds a supplier user to an existing supplier and rejects an unknown one', async () => {
@@ -30,11 +34,23 @@ describe('/api/users', () => {
     const unknown = await request(context.app)
       .post('/api/users')
       .set(bearer(context.tokens.admin))
-      .send({ email: 'rep@supplier-b.example.net', name: 'Rep', role: 'supplier', password: 'supplier-password', supplierCode: 'NOPE' });
+      .send({
+        email: 'rep@supplier-b.example.net',
+        name: 'Rep',
+        role: 'supplier',
+        password: 'supplier-password',
+        supplierCode: 'NOPE',
+      });
     const bound = await request(context.app)
       .post('/api/users')
       .set(bearer(context.tokens.admin))
-      .send({ email: 'rep@supplier-b.example.net', name: 'Rep', role: 'supplier', password: 'supplier-password', supplierCode: 'SUP-B' });
+      .send({
+        email: 'rep@supplier-b.example.net',
+        name: 'Rep',
+        role: 'supplier',
+        password: 'supplier-password',
+        supplierCode: 'SUP-B',
+      });
 
     expect(missing.status).toBe(400);
     expect(missing.body.error.details[0].path).toEqual(['supplierCode']);
@@ -47,7 +63,10 @@ describe('/api/users', () => {
     const users = await request(context.app).get('/api/users').set(bearer(context.tokens.admin));
     const viewer = users.body.find((user: { email: string }) => user.email === 'viewer@example.com');
 
-    const response = await request(context.app).patch(`/api/users/${viewer.id}`).set(bearer(context.tokens.admin)).send({ role: 'buyer' });
+    const response = await request(context.app)
+      .patch(`/api/users/${viewer.id}`)
+      .set(bearer(context.tokens.admin))
+      .send({ role: 'buyer' });
 
     expect(response.status).toBe(200);
     expect(response.body.role).toBe('buyer');
@@ -61,14 +80,23 @@ describe('/api/users', () => {
     const users = await request(context.app).get('/api/users').set(bearer(context.tokens.admin));
     const admin = users.body.find((user: { email: string }) => user.email === 'admin@example.com');
 
-    const response = await request(context.app).patch(`/api/users/${admin.id}`).set(bearer(context.tokens.admin)).send({ active: false });
+    const response = await request(context.app)
+      .patch(`/api/users/${admin.id}`)
+      .set(bearer(context.tokens.admin))
+      .send({ active: false });
 
     expect(response.status).toBe(400);
   });
 
   it('answers 404 for an unknown user id and 400 for a non-numeric one', async () => {
-    const unknown = await request(context.app).patch('/api/users/9999').set(bearer(context.tokens.admin)).send({ active: true });
-    const invalid = await request(context.app).patch('/api/users/abc').set(bearer(context.tokens.admin)).send({ active: true });
+    const unknown = await request(context.app)
+      .patch('/api/users/9999')
+      .set(bearer(context.tokens.admin))
+      .send({ active: true });
+    const invalid = await request(context.app)
+      .patch('/api/users/abc')
+      .set(bearer(context.tokens.admin))
+      .send({ active: true });
 
     expect(unknown.status).toBe(404);
     expect(invalid.status).toBe(400);

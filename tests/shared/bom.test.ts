@@ -44,7 +44,10 @@ describe('lowLevelCodes', () => {
   });
 
   it('counts lines of every effectivity window so codes hold on any date', () => {
-    const codes = lowLevelCodes([], [line('M', 'S'), line('S', 'P', { effectiveTo: '2026-01-31' }), line('M', 'P', { effectiveFrom: '2026-02-01' })]);
+    const codes = lowLevelCodes(
+      [],
+      [line('M', 'S'), line('S', 'P', { effectiveTo: '2026-01-31' }), line('M', 'P', { effectiveFrom: '2026-02-01' })],
+    );
 
     expect(codes.get('P')).toBe(2);
   });

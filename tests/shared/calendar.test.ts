@@ -75,7 +75,9 @@ describe('isoWeekday', () => {
   });
 
   it('agrees with getISODay of date-fns on every day of 1999–2032', () => {
-    const mismatches = everyDay('1999-01-01', '2032-12-31').filter((day) => isoWeekday(day) !== getISODay(localDate(day)));
+    const mismatches = everyDay('1999-01-01', '2032-12-31').filter(
+      (day) => isoWeekday(day) !== getISODay(localDate(day)),
+    );
 
     expect(mismatches).toEqual([]);
   });
@@ -84,7 +86,9 @@ describe('isoWeekday', () => {
 describe('addCalendarDays', () => {
   it('agrees with addDays of date-fns across month ends and leap days of 2023–2028', () => {
     const mismatches = everyDay('2023-01-01', '2028-12-31').filter(
-      (day) => addCalendarDays(day, 1) !== isoOf(addDays(localDate(day), 1)) || addCalendarDays(day, -40) !== isoOf(addDays(localDate(day), -40)),
+      (day) =>
+        addCalendarDays(day, 1) !== isoOf(addDays(localDate(day), 1)) ||
+        addCalendarDays(day, -40) !== isoOf(addDays(localDate(day), -40)),
     );
 
     expect(mismatches).toEqual([]);
@@ -162,14 +166,22 @@ describe('addWorkingDays', () => {
     };
     const calendars = fc.record({
       workingWeekdays: fc.uniqueArray(fc.integer({ min: 1, max: 7 }), { minLength: 1, maxLength: 7 }),
-      holidays: fc.uniqueArray(fc.integer({ min: 0, max: 120 }).map((offset) => addCalendarDays('2026-01-01', offset)), { maxLength: 30 }),
+      holidays: fc.uniqueArray(
+        fc.integer({ min: 0, max: 120 }).map((offset) => addCalendarDays('2026-01-01', offset)),
+        { maxLength: 30 },
+      ),
     });
 
     fc.assert(
-      fc.property(calendars, fc.integer({ min: 0, max: 120 }), fc.integer({ min: -25, max: 25 }), (calendar, start, offset) => {
-        const date = addCalendarDays('2026-01-01', start);
-        expect(addWorkingDays(date, offset, calendar)).toBe(referenceAdd(date, offset, calendar));
-      }),
+      fc.property(
+        calendars,
+        fc.integer({ min: 0, max: 120 }),
+        fc.integer({ min: -25, max: 25 }),
+        (calendar, start, offset) => {
+          const date = addCalendarDays('2026-01-01', start);
+          expect(addWorkingDays(date, offset, calendar)).toBe(referenceAdd(date, offset, calendar));
+        },
+      ),
     );
   });
 
@@ -198,7 +210,12 @@ describe('workingDaysBetween', () => {
   it('lists the working days with both ends included', () => {
     const calendar: PlantCalendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-04-03', '2026-04-06'] };
 
-    expect(workingDaysBetween('2026-04-01', '2026-04-08', calendar)).toEqual(['2026-04-01', '2026-04-02', '2026-04-07', '2026-04-08']);
+    expect(workingDaysBetween('2026-04-01', '2026-04-08', calendar)).toEqual([
+      '2026-04-01',
+      '2026-04-02',
+      '2026-04-07',
+      '2026-04-08',
+    ]);
   });
 
   it('is empty when the start lies after the end', () => {

@@ -1,11 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { KanbanInputError, sizeKanban, type KanbanSizeInput } from '../../shared/domain/kanban-sizing';
-import {
-  kanbanSizeRequestSchema,
-  kanbanSizeResponseSchema,
-  type KanbanSizeRequest,
-} from '../../shared/schemas/kanban';
+import { kanbanSizeRequestSchema, kanbanSizeResponseSchema, type KanbanSizeRequest } from '../../shared/schemas/kanban';
 
 /** The formula evaluated the obvious way in doubles, to show where Math.ceil alone goes wrong. */
 function naiveCards(input: {
@@ -140,9 +136,7 @@ describe('sizeKanban with a delivery cycle days–deliveries–delay', () => {
     expect(result.replenishmentTime).toBe(0.75);
     expect(result.exact).toBe(6);
     expect(result.cards).toBe(6);
-    expect(result.formula).toBe(
-      'T = 1 × (1 + 2) / 4 = 0.75; ⌈(400 × (0.75 × (1 + 0) + 0) + 0) / 50⌉ = ⌈6⌉ = 6',
-    );
+    expect(result.formula).toBe('T = 1 × (1 + 2) / 4 = 0.75; ⌈(400 × (0.75 × (1 + 0) + 0) + 0) / 50⌉ = ⌈6⌉ = 6');
   });
 
   it('gives the same count as the lead-time form with the same T', () => {
@@ -181,25 +175,15 @@ describe('sizeKanban with a delivery cycle days–deliveries–delay', () => {
     const result = sizeKanban(input);
 
     expect(result.cards).toBe(8);
-    expect(result.formula).toBe(
-      'T = 1 × (1 + 1) / 3 = 2/3 ≈ 0.6667; ⌈(120 × (2/3 × (1 + 0) + 0) + 0) / 10⌉ = ⌈8⌉ = 8',
-    );
+    expect(result.formula).toBe('T = 1 × (1 + 1) / 3 = 2/3 ≈ 0.6667; ⌈(120 × (2/3 × (1 + 0) + 0) + 0) / 10⌉ = ⌈8⌉ = 8');
   });
 });
 
 describe('sizeKanban rounding', () => {
   it.each([
     // [label, input, cards] — each whole in exact arithmetic, each over-rounded by doubles.
-    [
-      '500 × 0.2 × 1.1 / 10',
-      { dailyDemand: 500, leadTimeDays: 0.2, safetyFactor: 0.1, containerQty: 10 },
-      11,
-    ],
-    [
-      '2000 × 0.1 × 1.1 / 22',
-      { dailyDemand: 2000, leadTimeDays: 0.1, safetyFactor: 0.1, containerQty: 22 },
-      10,
-    ],
+    ['500 × 0.2 × 1.1 / 10', { dailyDemand: 500, leadTimeDays: 0.2, safetyFactor: 0.1, containerQty: 10 }, 11],
+    ['2000 × 0.1 × 1.1 / 22', { dailyDemand: 2000, leadTimeDays: 0.1, safetyFactor: 0.1, containerQty: 22 }, 10],
     [
       '1000 × (0.1 + 0.2 safety days) / 30',
       { dailyDemand: 1000, leadTimeDays: 0.1, safetyDays: 0.2, containerQty: 30 },
@@ -369,7 +353,12 @@ describe('kanbanSizeRequestSchema', () => {
     ['negative safety stock', { ...minimal, safetyStock: -1 }, 'safetyStock', /.+/],
     ['an infinite lead time', { ...minimal, leadTimeDays: Number.POSITIVE_INFINITY }, 'leadTimeDays', /.+/],
     ['zero deliveries', { ...cycleOnly, cycle: { days: 1, deliveries: 0, delay: 0 } }, 'cycle.deliveries', /.+/],
-    ['fractional deliveries', { ...cycleOnly, cycle: { days: 1, deliveries: 2.5, delay: 0 } }, 'cycle.deliveries', /.+/],
+    [
+      'fractional deliveries',
+      { ...cycleOnly, cycle: { days: 1, deliveries: 2.5, delay: 0 } },
+      'cycle.deliveries',
+      /.+/,
+    ],
   ])('rejects %s with an issue at the right path', (_label, body, path, message) => {
     const parsed = kanbanSizeRequestSchema.safeParse(body);
 

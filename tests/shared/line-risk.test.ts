@@ -4,7 +4,13 @@ import { addCalendarDays, addWorkingDays, isWorkingDay, workingDaysBetween } fro
 import { BomCycleError } from '../../shared/domain/bom';
 import { computeLineRisk, type LineRiskInput, type LineRiskResult } from '../../shared/domain/line-risk';
 import { PlanInputError } from '../../shared/domain/plan-model';
-import type { PlanningBomLine, PlanningPart, PlantCalendar, ScheduledReceipt, SequenceSlot } from '../../shared/domain/types';
+import type {
+  PlanningBomLine,
+  PlanningPart,
+  PlantCalendar,
+  ScheduledReceipt,
+  SequenceSlot,
+} from '../../shared/domain/types';
 
 /*
  * Hand-worked cases first: each states its inputs and the arithmetic in a comment, so every
@@ -24,13 +30,28 @@ const THU = '2026-03-05';
 const FRI = '2026-03-06';
 
 function part(partNumber: string, fields: Partial<PlanningPart> = {}): PlanningPart {
-  return { partNumber, source: 'buy', supplierCode: 'SUP', leadTimeDays: 0, packQty: 1, onHand: 0, safetyStock: 0, ...fields };
+  return {
+    partNumber,
+    source: 'buy',
+    supplierCode: 'SUP',
+    leadTimeDays: 0,
+    packQty: 1,
+    onHand: 0,
+    safetyStock: 0,
+    ...fields,
+  };
 }
 
 const model = (partNumber: string) => part(partNumber, { source: 'end_item', supplierCode: null });
-const made = (partNumber: string, leadTimeDays: number, onHand = 0) => part(partNumber, { source: 'make', supplierCode: null, leadTimeDays, onHand });
+const made = (partNumber: string, leadTimeDays: number, onHand = 0) =>
+  part(partNumber, { source: 'make', supplierCode: null, leadTimeDays, onHand });
 
-function line(parent: string, component: string, qtyPer: number, fields: Partial<PlanningBomLine> = {}): PlanningBomLine {
+function line(
+  parent: string,
+  component: string,
+  qtyPer: number,
+  fields: Partial<PlanningBomLine> = {},
+): PlanningBomLine {
   return { parent, component, qtyPer, scrapPct: 0, effectiveFrom: null, effectiveTo: null, ...fields };
 }
 
@@ -57,7 +78,14 @@ describe('computeLineRisk — hand-worked cases', () => {
 
     expect(result.unitsBuilt).toBe(2);
     expect(result.unitsAtRisk).toEqual([
-      { date: TUE, sequence: 1, serial: 'S3', model: 'M', lacks: [{ partNumber: 'C', qty: 1, now: true }], resequence: null },
+      {
+        date: TUE,
+        sequence: 1,
+        serial: 'S3',
+        model: 'M',
+        lacks: [{ partNumber: 'C', qty: 1, now: true }],
+        resequence: null,
+      },
     ]);
     expect(result.shortages).toHaveLength(1);
     expect(result.shortages[0]).toMatchObject({
@@ -111,7 +139,9 @@ describe('computeLineRisk — hand-worked cases', () => {
 
     expect(serialsAtRisk(result)).toEqual(['U1']);
     expect(result.unitsBuilt).toBe(1);
-    expect(result.shortages.map((shortage) => [shortage.partNumber, shortage.firstShortDate, shortage.shortQty])).toEqual([['B', MON, 1]]);
+    expect(
+      result.shortages.map((shortage) => [shortage.partNumber, shortage.firstShortDate, shortage.shortQty]),
+    ).toEqual([['B', MON, 1]]);
   });
 
   it('looks through a made part to its bought components, needed its lead time earlier', () => {
@@ -142,7 +172,9 @@ describe('computeLineRisk — hand-worked cases', () => {
     });
 
     expect(result.unitsBuilt).toBe(2);
-    expect(result.unitsAtRisk.map((unit) => [unit.serial, unit.lacks])).toEqual([['U3', [{ partNumber: 'D', qty: 1, now: true }]]]);
+    expect(result.unitsAtRisk.map((unit) => [unit.serial, unit.lacks])).toEqual([
+      ['U3', [{ partNumber: 'D', qty: 1, now: true }]],
+    ]);
     expect(result.shortages.map((shortage) => shortage.partNumber)).toEqual(['D']);
   });
 
@@ -174,7 +206,9 @@ describe('computeLineRisk — hand-worked cases', () => {
       sequence: [slot(MON, 1, 'M', 'U1'), slot(TUE, 1, 'M', 'U2'), slot(WED, 1, 'M', 'U3'), slot(THU, 1, 'M', 'U4')],
     });
 
-    expect(result.shortages.map((shortage) => [shortage.partNumber, shortage.firstShortDate, shortage.shortQty])).toEqual([
+    expect(
+      result.shortages.map((shortage) => [shortage.partNumber, shortage.firstShortDate, shortage.shortQty]),
+    ).toEqual([
       ['A', TUE, 3],
       ['B', WED, 2],
     ]);
@@ -231,7 +265,9 @@ describe('computeLineRisk — hand-worked cases', () => {
 
     expect(result.frozenUntil).toBe(THU);
     expect(result.days).toEqual([MON, WED, THU, FRI]);
-    expect(result.shortages.map((shortage) => [shortage.partNumber, shortage.daysUntilImpact, shortage.inFrozenWindow])).toEqual([
+    expect(
+      result.shortages.map((shortage) => [shortage.partNumber, shortage.daysUntilImpact, shortage.inFrozenWindow]),
+    ).toEqual([
       ['W', 2, true],
       ['X', 3, true],
       ['Y', 4, false],
@@ -278,11 +314,17 @@ const plantArbitrary = fc
     madeCount: fc.integer({ min: 0, max: 2 }),
     // Lead times shift needs earlier than units ahead of them hold stock for, the case look-ahead is for.
     boughtCount: fc.integer({ min: 1, max: 5 }),
-    links: fc.array(fc.record({ from: fc.nat(), to: fc.nat(), qtyPer: fc.integer({ min: 1, max: 3 }) }), { minLength: 1, maxLength: 14 }),
+    links: fc.array(fc.record({ from: fc.nat(), to: fc.nat(), qtyPer: fc.integer({ min: 1, max: 3 }) }), {
+      minLength: 1,
+      maxLength: 14,
+    }),
     leadTimes: fc.array(fc.integer({ min: 0, max: 3 }), { minLength: 2, maxLength: 2 }),
     stock: fc.array(fc.integer({ min: 0, max: 8 }), { minLength: 5, maxLength: 5 }),
     slots: fc.array(fc.record({ day: fc.integer({ min: 0, max: 11 }), model: fc.nat() }), { maxLength: 30 }),
-    receipts: fc.array(fc.record({ part: fc.nat(), day: fc.integer({ min: -2, max: 14 }), qty: fc.integer({ min: 1, max: 6 }) }), { maxLength: 8 }),
+    receipts: fc.array(
+      fc.record({ part: fc.nat(), day: fc.integer({ min: -2, max: 14 }), qty: fc.integer({ min: 1, max: 6 }) }),
+      { maxLength: 8 },
+    ),
   })
   .map((raw) => {
     const models = Array.from({ length: raw.models }, (_, index) => `M${index}`);
@@ -305,7 +347,9 @@ const plantArbitrary = fc
       ...boughtParts.map((partNumber, index) => part(partNumber, { onHand: raw.stock[index]! })),
     ];
     const sequence = raw.slots
-      .map((entry, index) => slot(addCalendarDays(FROM, entry.day), index + 1, models[entry.model % models.length]!, `SN${index}`))
+      .map((entry, index) =>
+        slot(addCalendarDays(FROM, entry.day), index + 1, models[entry.model % models.length]!, `SN${index}`),
+      )
       .filter((entry) => isWorkingDay(entry.date, CALENDAR));
     const firmReceipts = raw.receipts.map((receipt) => ({
       partNumber: boughtParts[receipt.part % boughtParts.length]!,
@@ -315,20 +359,31 @@ const plantArbitrary = fc
     return { parts, bom, sequence, firmReceipts, boughtParts };
   });
 
-type Plant = { parts: PlanningPart[]; bom: PlanningBomLine[]; sequence: SequenceSlot[]; firmReceipts: ScheduledReceipt[]; boughtParts: string[] };
+type Plant = {
+  parts: PlanningPart[];
+  bom: PlanningBomLine[];
+  sequence: SequenceSlot[];
+  firmReceipts: ScheduledReceipt[];
+  boughtParts: string[];
+};
 
 function run(plant: Plant): LineRiskResult {
   return computeLineRisk({ ...plant, calendar: CALENDAR, from: FROM, to: TO });
 }
 
 /** Independent explosion: bought needs of one unit by part and need day (first working day of the horizon at the earliest). */
-function needsOf(plant: Plant, modelNumber: string, buildDate: string): { partNumber: string; date: string; qty: number }[] {
+function needsOf(
+  plant: Plant,
+  modelNumber: string,
+  buildDate: string,
+): { partNumber: string; date: string; qty: number }[] {
   const needs: { partNumber: string; date: string; qty: number }[] = [];
   const visit = (parent: string, qty: number, date: string): void => {
     for (const bomLine of plant.bom.filter((candidate) => candidate.parent === parent)) {
       const component = plant.parts.find((candidate) => candidate.partNumber === bomLine.component)!;
       const componentQty = qty * bomLine.qtyPer;
-      if (component.source === 'buy') needs.push({ partNumber: component.partNumber, date: date < DAYS[0]! ? DAYS[0]! : date, qty: componentQty });
+      if (component.source === 'buy')
+        needs.push({ partNumber: component.partNumber, date: date < DAYS[0]! ? DAYS[0]! : date, qty: componentQty });
       else visit(component.partNumber, componentQty, addWorkingDays(date, -component.leadTimeDays, CALENDAR));
     }
   };
@@ -361,7 +416,10 @@ describe('computeLineRisk — properties', () => {
   it('puts nothing at risk when every bought part is on hand in plenty', () => {
     fc.assert(
       fc.property(plantArbitrary, (plant) => {
-        const ample = { ...plant, parts: plant.parts.map((entry) => (entry.source === 'buy' ? { ...entry, onHand: 10_000 } : entry)) };
+        const ample = {
+          ...plant,
+          parts: plant.parts.map((entry) => (entry.source === 'buy' ? { ...entry, onHand: 10_000 } : entry)),
+        };
 
         const result = run(ample);
 
@@ -382,7 +440,9 @@ describe('computeLineRisk — properties', () => {
         expect(built).toHaveLength(result.unitsBuilt);
         for (const partNumber of plant.boughtParts) {
           for (const day of DAYS) {
-            expect(cumulativeNeed(plant, built, partNumber, day)).toBeLessThanOrEqual(supplyThrough(plant, partNumber, day) + 1e-9);
+            expect(cumulativeNeed(plant, built, partNumber, day)).toBeLessThanOrEqual(
+              supplyThrough(plant, partNumber, day) + 1e-9,
+            );
           }
         }
       }),
@@ -436,7 +496,11 @@ describe('computeLineRisk — properties', () => {
         const result = run(plant);
 
         for (const shortage of result.shortages) {
-          const deficits = DAYS.map((day) => cumulativeNeed(plant, plant.sequence, shortage.partNumber, day) - supplyThrough(plant, shortage.partNumber, day));
+          const deficits = DAYS.map(
+            (day) =>
+              cumulativeNeed(plant, plant.sequence, shortage.partNumber, day) -
+              supplyThrough(plant, shortage.partNumber, day),
+          );
           const first = deficits.findIndex((deficit) => deficit > 1e-9);
           expect(shortage.firstShortDate).toBe(DAYS[first]);
           expect(shortage.shortQty).toBeCloseTo(Math.max(...deficits), 9);
@@ -465,9 +529,9 @@ describe('computeLineRisk — properties', () => {
           const moved = [{ ...order[candidateIndex]!, date: option.slot.date }];
           for (const partNumber of plant.boughtParts) {
             for (const day of DAYS) {
-              expect(cumulativeNeed(plant, builtAhead, partNumber, day) + cumulativeNeed(plant, moved, partNumber, day)).toBeLessThanOrEqual(
-                supplyThrough(plant, partNumber, day) + 1e-9,
-              );
+              expect(
+                cumulativeNeed(plant, builtAhead, partNumber, day) + cumulativeNeed(plant, moved, partNumber, day),
+              ).toBeLessThanOrEqual(supplyThrough(plant, partNumber, day) + 1e-9);
             }
           }
         }

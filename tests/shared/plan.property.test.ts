@@ -20,10 +20,10 @@ const structureArbitrary = fc
   .record({
     models: fc.integer({ min: 1, max: 3 }),
     components: fc.integer({ min: 1, max: 8 }),
-    rawLines: fc.array(
-      fc.record({ from: fc.nat(), to: fc.nat(), qtyPer: fc.integer({ min: 1, max: 4 }) }),
-      { minLength: 1, maxLength: 20 },
-    ),
+    rawLines: fc.array(fc.record({ from: fc.nat(), to: fc.nat(), qtyPer: fc.integer({ min: 1, max: 4 }) }), {
+      minLength: 1,
+      maxLength: 20,
+    }),
   })
   .map(({ models, components, rawLines }) => {
     const names = [
@@ -54,20 +54,26 @@ function extendedQuantity(lines: PlanningBomLine[], parent: string, component: s
 }
 
 const slotsArbitrary = (models: string[], calendar: PlantCalendar): fc.Arbitrary<SequenceSlot[]> =>
-  fc.array(
-    fc.record({ day: fc.integer({ min: 0, max: 50 }), model: fc.constantFrom(...models), qty: fc.integer({ min: 1, max: 5 }) }),
-    { maxLength: 40 },
-  ).map((raw) =>
-    raw
-      .map((entry, index) => ({
-        date: addCalendarDays(FROM, entry.day),
-        sequence: index + 1,
-        model: entry.model,
-        serial: `SN${index}`,
-        qty: entry.qty,
-      }))
-      .filter((entry) => isWorkingDay(entry.date, calendar)),
-  );
+  fc
+    .array(
+      fc.record({
+        day: fc.integer({ min: 0, max: 50 }),
+        model: fc.constantFrom(...models),
+        qty: fc.integer({ min: 1, max: 5 }),
+      }),
+      { maxLength: 40 },
+    )
+    .map((raw) =>
+      raw
+        .map((entry, index) => ({
+          date: addCalendarDays(FROM, entry.day),
+          sequence: index + 1,
+          model: entry.model,
+          serial: `SN${index}`,
+          qty: entry.qty,
+        }))
+        .filter((entry) => isWorkingDay(entry.date, calendar)),
+    );
 
 describe('computePlan properties', () => {
   it('conserves quantity: each component’s gross over the horizon is the sum of extended BOM quantities of the units built', () => {
@@ -76,10 +82,12 @@ describe('computePlan properties', () => {
     const calendar: PlantCalendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-04-03', '2026-04-06'] };
     // Parts are listed in random order so that only low-level coding can put parents first.
     const scenario = structureArbitrary.chain((structure) =>
-      fc.record({
-        sequence: slotsArbitrary(structure.models, calendar),
-        listed: fc.shuffledSubarray(structure.names, { minLength: structure.names.length }),
-      }).map(({ sequence, listed }) => ({ ...structure, sequence, listed })),
+      fc
+        .record({
+          sequence: slotsArbitrary(structure.models, calendar),
+          listed: fc.shuffledSubarray(structure.names, { minLength: structure.names.length }),
+        })
+        .map(({ sequence, listed }) => ({ ...structure, sequence, listed })),
     );
 
     fc.assert(
@@ -97,7 +105,10 @@ describe('computePlan properties', () => {
         const result = computePlan(input);
 
         for (const component of names.filter((name) => name.startsWith('C'))) {
-          const expected = sequence.reduce((total, unit) => total + unit.qty * extendedQuantity(lines, unit.model, component), 0);
+          const expected = sequence.reduce(
+            (total, unit) => total + unit.qty * extendedQuantity(lines, unit.model, component),
+            0,
+          );
           const gross = result.parts.get(component)?.buckets.reduce((total, bucket) => total + bucket.gross, 0);
           expect(gross).toBe(expected);
         }
@@ -114,16 +125,27 @@ describe('computePlan properties', () => {
         { maxLength: 25 },
       ),
     });
-    const scenario = fc.record({ calendar: calendarArbitrary, structure: structureArbitrary }).chain(({ calendar, structure }) =>
-      fc.record({
-        calendar: fc.constant(calendar),
-        structure: fc.constant(structure),
-        sequence: slotsArbitrary(structure.models, calendar),
-        leadTimes: fc.array(fc.integer({ min: 0, max: 6 }), { minLength: structure.names.length, maxLength: structure.names.length }),
-        onHand: fc.array(fc.integer({ min: 0, max: 20 }), { minLength: structure.names.length, maxLength: structure.names.length }),
-        packQty: fc.array(fc.constantFrom(0, 1, 4, 10), { minLength: structure.names.length, maxLength: structure.names.length }),
-      }),
-    );
+    const scenario = fc
+      .record({ calendar: calendarArbitrary, structure: structureArbitrary })
+      .chain(({ calendar, structure }) =>
+        fc.record({
+          calendar: fc.constant(calendar),
+          structure: fc.constant(structure),
+          sequence: slotsArbitrary(structure.models, calendar),
+          leadTimes: fc.array(fc.integer({ min: 0, max: 6 }), {
+            minLength: structure.names.length,
+            maxLength: structure.names.length,
+          }),
+          onHand: fc.array(fc.integer({ min: 0, max: 20 }), {
+            minLength: structure.names.length,
+            maxLength: structure.names.length,
+          }),
+          packQty: fc.array(fc.constantFrom(0, 1, 4, 10), {
+            minLength: structure.names.length,
+            maxLength: structure.names.length,
+          }),
+        }),
+      );
 
     fc.assert(
       fc.property(scenario, ({ calendar, structure, sequence, leadTimes, onHand, packQty }) => {
@@ -136,12 +158,21 @@ describe('computePlan properties', () => {
           safetyStock: 0,
         }));
 
-        const result = computePlan({ parts, bom: structure.lines, sequence, scheduledReceipts: [], calendar, from: FROM, to: TO });
+        const result = computePlan({
+          parts,
+          bom: structure.lines,
+          sequence,
+          scheduledReceipts: [],
+          calendar,
+          from: FROM,
+          to: TO,
+        });
 
         for (const planned of parts) {
           const { buckets, pastDue } = result.parts.get(planned.partNumber)!;
           const releaseByDate = new Map<string, number>();
-          for (const bucket of buckets) if (bucket.plannedRelease !== 0) releaseByDate.set(bucket.date, bucket.plannedRelease);
+          for (const bucket of buckets)
+            if (bucket.plannedRelease !== 0) releaseByDate.set(bucket.date, bucket.plannedRelease);
           for (const late of pastDue) {
             expect(late.date < FROM).toBe(true);
             releaseByDate.set(late.date, late.qty);
@@ -172,9 +203,16 @@ describe('computePlan properties', () => {
         onHand: fc.array(fc.integer({ min: 0, max: 30 }), { minLength: count, maxLength: count }),
         safetyStock: fc.array(fc.integer({ min: 0, max: 8 }), { minLength: count, maxLength: count }),
         packQty: fc.array(fc.constantFrom(1, 0.25, 6, 12.5), { minLength: count, maxLength: count }),
-        scrapPct: fc.array(fc.constantFrom(0, 2.5, 10), { minLength: structure.lines.length, maxLength: structure.lines.length }),
+        scrapPct: fc.array(fc.constantFrom(0, 2.5, 10), {
+          minLength: structure.lines.length,
+          maxLength: structure.lines.length,
+        }),
         receipts: fc.array(
-          fc.record({ part: fc.nat({ max: count - 1 }), day: fc.integer({ min: -10, max: 40 }), qty: fc.integer({ min: 1, max: 50 }) }),
+          fc.record({
+            part: fc.nat({ max: count - 1 }),
+            day: fc.integer({ min: -10, max: 40 }),
+            qty: fc.integer({ min: 1, max: 50 }),
+          }),
           { maxLength: 10 },
         ),
       });
@@ -204,7 +242,12 @@ describe('computePlan properties', () => {
           const pack = planned.packQty > 0 ? planned.packQty : 1;
           let previous = planned.onHand;
           for (const bucket of result.parts.get(planned.partNumber)!.buckets) {
-            expect(Math.abs(bucket.projectedAvailable - (previous + bucket.scheduledReceipts + bucket.plannedReceipt - bucket.gross))).toBeLessThan(tolerance);
+            expect(
+              Math.abs(
+                bucket.projectedAvailable -
+                  (previous + bucket.scheduledReceipts + bucket.plannedReceipt - bucket.gross),
+              ),
+            ).toBeLessThan(tolerance);
             if (bucket.plannedReceipt > 0) {
               expect(bucket.projectedAvailable).toBeGreaterThanOrEqual(planned.safetyStock - tolerance);
               expect(bucket.plannedReceipt).toBeGreaterThanOrEqual(bucket.net - tolerance);

@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { addCalendarDays } from '../../shared/domain/calendar';
-import {
-  BomCycleError,
-  computePlan,
-  grossDemandByDay,
-  PlanInputError,
-  weeklyTotals,
-} from '../../shared/domain/plan';
+import { BomCycleError, computePlan, grossDemandByDay, PlanInputError, weeklyTotals } from '../../shared/domain/plan';
 import type {
   PartPlan,
   PlanInput,
@@ -35,7 +29,12 @@ function part(partNumber: string, fields: Partial<PlanningPart> = {}): PlanningP
   return { partNumber, source: 'buy', leadTimeDays: 0, packQty: 1, onHand: 0, safetyStock: 0, ...fields };
 }
 
-function bomLine(parent: string, component: string, qtyPer: number, fields: Partial<PlanningBomLine> = {}): PlanningBomLine {
+function bomLine(
+  parent: string,
+  component: string,
+  qtyPer: number,
+  fields: Partial<PlanningBomLine> = {},
+): PlanningBomLine {
   return { parent, component, qtyPer, scrapPct: 0, ...fields };
 }
 
@@ -54,9 +53,14 @@ function partPlan(result: PlanResult, partNumber: string): PartPlan {
 }
 
 /** The non-zero values of one bucket field, keyed by date. */
-function nonZero(result: PlanResult, partNumber: string, field: 'gross' | 'net' | 'plannedReceipt' | 'plannedRelease' | 'scheduledReceipts'): Record<string, number> {
+function nonZero(
+  result: PlanResult,
+  partNumber: string,
+  field: 'gross' | 'net' | 'plannedReceipt' | 'plannedRelease' | 'scheduledReceipts',
+): Record<string, number> {
   const values: Record<string, number> = {};
-  for (const bucket of partPlan(result, partNumber).buckets) if (bucket[field] !== 0) values[bucket.date] = bucket[field];
+  for (const bucket of partPlan(result, partNumber).buckets)
+    if (bucket[field] !== 0) values[bucket.date] = bucket[field];
   return values;
 }
 
@@ -90,7 +94,11 @@ describe('computePlan — textbook worked examples', () => {
   const leadTimes: Record<string, number> = { A: 1, B: 2, C: 1, D: 1, E: 2, F: 3, G: 2 };
   const speakerKitParts = (onHand: Record<string, number>): PlanningPart[] =>
     Object.keys(leadTimes).map((partNumber) =>
-      part(partNumber, { source: partNumber === 'A' ? 'end_item' : 'buy', leadTimeDays: leadTimes[partNumber], onHand: onHand[partNumber] ?? 0 }),
+      part(partNumber, {
+        source: partNumber === 'A' ? 'end_item' : 'buy',
+        leadTimeDays: leadTimes[partNumber],
+        onHand: onHand[partNumber] ?? 0,
+      }),
     );
 
   it('reproduces the gross requirements plan for 50 speaker kits with nothing on hand', () => {
@@ -211,8 +219,24 @@ describe('computePlan — gross-to-net rules', () => {
 
     // Day 1: need 32, one pack of 50, 18 left. Day 2: need 32, 18 on hand, net 14 → one more pack.
     expect(partPlan(result, 'BOLT').buckets).toEqual([
-      { date: '2026-03-02', gross: 32, scheduledReceipts: 0, projectedAvailable: 18, net: 32, plannedReceipt: 50, plannedRelease: 50 },
-      { date: '2026-03-03', gross: 32, scheduledReceipts: 0, projectedAvailable: 36, net: 14, plannedReceipt: 50, plannedRelease: 50 },
+      {
+        date: '2026-03-02',
+        gross: 32,
+        scheduledReceipts: 0,
+        projectedAvailable: 18,
+        net: 32,
+        plannedReceipt: 50,
+        plannedRelease: 50,
+      },
+      {
+        date: '2026-03-03',
+        gross: 32,
+        scheduledReceipts: 0,
+        projectedAvailable: 36,
+        net: 14,
+        plannedReceipt: 50,
+        plannedRelease: 50,
+      },
     ]);
   });
 
@@ -256,7 +280,16 @@ describe('computePlan — gross-to-net rules', () => {
 
     // Needed Tuesday 7 April; stepping back skips Mon 6 (holiday), the weekend and Fri 3 (holiday):
     // Thursday 2 April is one working day back, Wednesday 1 April two.
-    expect(result.days).toEqual(['2026-03-30', '2026-03-31', '2026-04-01', '2026-04-02', '2026-04-07', '2026-04-08', '2026-04-09', '2026-04-10']);
+    expect(result.days).toEqual([
+      '2026-03-30',
+      '2026-03-31',
+      '2026-04-01',
+      '2026-04-02',
+      '2026-04-07',
+      '2026-04-08',
+      '2026-04-09',
+      '2026-04-10',
+    ]);
     expect(nonZero(result, 'MOTOR', 'plannedRelease')).toEqual({ '2026-04-01': 6 });
   });
 
@@ -277,7 +310,11 @@ describe('computePlan — gross-to-net rules', () => {
 
   it('puts the component demand of a past-due release in the first bucket', () => {
     const result = plan({
-      parts: [part('M', { source: 'end_item' }), part('FRAME', { source: 'make', leadTimeDays: 2 }), part('SHEET', { leadTimeDays: 0 })],
+      parts: [
+        part('M', { source: 'end_item' }),
+        part('FRAME', { source: 'make', leadTimeDays: 2 }),
+        part('SHEET', { leadTimeDays: 0 }),
+      ],
       bom: [bomLine('M', 'FRAME', 1), bomLine('FRAME', 'SHEET', 3)],
       sequence: [slot('2026-03-03', 'M', 2)],
       from: '2026-03-02',
@@ -306,7 +343,12 @@ describe('computePlan — gross-to-net rules', () => {
 
   it('applies effectivity at the release date of a made part, not the build date', () => {
     const result = plan({
-      parts: [part('M', { source: 'end_item' }), part('DECK', { source: 'make', leadTimeDays: 2 }), part('STEEL-A'), part('STEEL-B')],
+      parts: [
+        part('M', { source: 'end_item' }),
+        part('DECK', { source: 'make', leadTimeDays: 2 }),
+        part('STEEL-A'),
+        part('STEEL-B'),
+      ],
       bom: [
         bomLine('M', 'DECK', 1),
         bomLine('DECK', 'STEEL-A', 4, { effectiveTo: '2026-03-03' }),
@@ -380,7 +422,12 @@ describe('computePlan — gross-to-net rules', () => {
   it('ignores sequence slots before the horizon and moves a weekend slot to the next working day', () => {
     const result = plan({
       parts: [part('M', { source: 'end_item' })],
-      sequence: [slot('2026-02-27', 'M', 7), slot('2026-03-07', 'M', 2), slot('2026-03-09', 'M', 1), slot('2026-03-16', 'M', 9)],
+      sequence: [
+        slot('2026-02-27', 'M', 7),
+        slot('2026-03-07', 'M', 2),
+        slot('2026-03-09', 'M', 1),
+        slot('2026-03-16', 'M', 9),
+      ],
       from: '2026-03-02',
       to: '2026-03-13',
     });
@@ -390,7 +437,12 @@ describe('computePlan — gross-to-net rules', () => {
 
   it('adds the demand of every parent of a shared component in the same bucket', () => {
     const result = plan({
-      parts: [part('M1', { source: 'end_item' }), part('M2', { source: 'end_item' }), part('SUB', { source: 'make' }), part('SCREW')],
+      parts: [
+        part('M1', { source: 'end_item' }),
+        part('M2', { source: 'end_item' }),
+        part('SUB', { source: 'make' }),
+        part('SCREW'),
+      ],
       bom: [bomLine('M1', 'SCREW', 4), bomLine('M1', 'SUB', 1), bomLine('M2', 'SUB', 2), bomLine('SUB', 'SCREW', 6)],
       sequence: [slot('2026-03-02', 'M1', 1), slot('2026-03-02', 'M2', 1, 2)],
       from: '2026-03-02',
@@ -407,9 +459,9 @@ describe('computePlan — input checks', () => {
   const base = { from: '2026-03-02', to: '2026-03-06' };
 
   it('rejects a BOM line whose component is not a known part', () => {
-    expect(() => plan({ ...base, parts: [part('M', { source: 'end_item' })], bom: [bomLine('M', 'GHOST', 1)] })).toThrow(
-      /component GHOST, which is not in the part list/,
-    );
+    expect(() =>
+      plan({ ...base, parts: [part('M', { source: 'end_item' })], bom: [bomLine('M', 'GHOST', 1)] }),
+    ).toThrow(/component GHOST, which is not in the part list/);
   });
 
   it('rejects a sequence slot for an unknown model', () => {
@@ -430,7 +482,12 @@ describe('computePlan — input checks', () => {
   });
 
   it('returns empty buckets when the horizon holds no working day', () => {
-    const result = plan({ from: '2026-03-07', to: '2026-03-08', parts: [part('M')], sequence: [slot('2026-03-07', 'M')] });
+    const result = plan({
+      from: '2026-03-07',
+      to: '2026-03-08',
+      parts: [part('M')],
+      sequence: [slot('2026-03-07', 'M')],
+    });
 
     expect(result.days).toEqual([]);
     expect(partPlan(result, 'M').buckets).toEqual([]);
@@ -439,14 +496,29 @@ describe('computePlan — input checks', () => {
 
 describe('plan result shape', () => {
   it('serialises buckets to JSON like a plain array property', () => {
-    const result = plan({ parts: [part('M')], sequence: [slot('2026-03-02', 'M', 2)], from: '2026-03-02', to: '2026-03-02' });
+    const result = plan({
+      parts: [part('M')],
+      sequence: [slot('2026-03-02', 'M', 2)],
+      from: '2026-03-02',
+      to: '2026-03-02',
+    });
 
     const json = JSON.parse(JSON.stringify(partPlan(result, 'M')));
 
     expect(json).toEqual({
       partNumber: 'M',
       lowLevelCode: 0,
-      buckets: [{ date: '2026-03-02', gross: 2, scheduledReceipts: 0, projectedAvailable: 0, net: 2, plannedReceipt: 2, plannedRelease: 2 }],
+      buckets: [
+        {
+          date: '2026-03-02',
+          gross: 2,
+          scheduledReceipts: 0,
+          projectedAvailable: 0,
+          net: 2,
+          plannedReceipt: 2,
+          plannedRelease: 2,
+        },
+      ],
       pastDue: [],
     });
   });
@@ -476,7 +548,13 @@ describe('grossDemandByDay', () => {
       ['S1', 'BATTERY', 8],
       ['S2', 'WHEEL', 16],
     ]);
-    expect(report.rows[1].byDay).toEqual({ '2026-03-02': 4, '2026-03-03': 0, '2026-03-04': 0, '2026-03-05': 0, '2026-03-06': 12 });
+    expect(report.rows[1].byDay).toEqual({
+      '2026-03-02': 4,
+      '2026-03-03': 0,
+      '2026-03-04': 0,
+      '2026-03-05': 0,
+      '2026-03-06': 12,
+    });
   });
 
   it('gives the same report for a result it did not compute itself, reading the buckets instead', () => {
@@ -496,6 +574,9 @@ describe('weeklyTotals', () => {
   it('sums days into ISO 8601 weeks, across a year boundary', () => {
     // ISO 8601-1:2019 week dates: 2026-12-31 (Thursday) is in 2026-W53, 2027-01-04 starts 2027-W01 (from memory;
     // both cross-checked against date-fns in calendar.test.ts' every-day comparison).
-    expect(weeklyTotals({ '2026-12-31': 1.5, '2027-01-01': 2, '2027-01-04': 4 })).toEqual({ '2026-W53': 3.5, '2027-W01': 4 });
+    expect(weeklyTotals({ '2026-12-31': 1.5, '2027-01-01': 2, '2027-01-04': 4 })).toEqual({
+      '2026-W53': 3.5,
+      '2027-W01': 4,
+    });
   });
 });

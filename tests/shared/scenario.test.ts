@@ -30,7 +30,10 @@ function distinctDays(scenario: DemoScenario): string[] {
 }
 
 function effective(line: DemoBomLine, date: string): boolean {
-  return (line.effectiveFrom === null || line.effectiveFrom <= date) && (line.effectiveTo === null || date <= line.effectiveTo);
+  return (
+    (line.effectiveFrom === null || line.effectiveFrom <= date) &&
+    (line.effectiveTo === null || date <= line.effectiveTo)
+  );
 }
 
 /** Gross need per part and build day: parent qty × qty per × (1 + scrap % / 100), level by level. */
@@ -192,8 +195,9 @@ describe('buildDemoScenario', () => {
           // Inclusive windows [from, to] overlap when each starts no later than the other ends.
           const a = lines[i];
           const b = lines[j];
-          const overlap = (a.effectiveFrom ?? '') <= (b.effectiveTo ?? '9999-12-31')
-            && (b.effectiveFrom ?? '') <= (a.effectiveTo ?? '9999-12-31');
+          const overlap =
+            (a.effectiveFrom ?? '') <= (b.effectiveTo ?? '9999-12-31') &&
+            (b.effectiveFrom ?? '') <= (a.effectiveTo ?? '9999-12-31');
           expect(overlap).toBe(false);
         }
       }
@@ -251,7 +255,9 @@ describe('buildDemoScenario', () => {
       expect(slots.map((slot) => slot.sequence).sort((a, b) => a - b)).toEqual(slots.map((_, index) => index + 1));
       for (const slot of slots) expect(slot.qty).toBe(1);
     }
-    const endItems = new Set(scenario.parts.filter((part) => part.source === 'end_item').map((part) => part.partNumber));
+    const endItems = new Set(
+      scenario.parts.filter((part) => part.source === 'end_item').map((part) => part.partNumber),
+    );
     expect(new Set(scenario.sequence.map((slot) => slot.model))).toEqual(endItems);
   });
 
@@ -264,8 +270,10 @@ describe('buildDemoScenario', () => {
     // Science 39(6), 1993 (from memory): a sequence keeping |xᵢₖ − k·dᵢ/D| < 1 for every model i
     // and position k always exists; compared in integers as |xᵢₖ·D − k·dᵢ| < D.
     for (const day of days) {
-      const models = scenario.sequence.filter((slot) => slot.date === day)
-        .sort((a, b) => a.sequence - b.sequence).map((slot) => slot.model);
+      const models = scenario.sequence
+        .filter((slot) => slot.date === day)
+        .sort((a, b) => a.sequence - b.sequence)
+        .map((slot) => slot.model);
       const total = models.length;
       const demand = new Map<string, number>();
       for (const model of models) demand.set(model, (demand.get(model) ?? 0) + 1);
@@ -312,7 +320,9 @@ describe('buildDemoScenario', () => {
       expect(scenario.users.find((user) => user.email === `${role}@example.com`)?.role).toBe(role);
     }
     const contacts = scenario.users.filter((user) => user.role === 'supplier');
-    expect(contacts.map((user) => user.supplierCode).sort()).toEqual(scenario.suppliers.map((supplier) => supplier.code).sort());
+    expect(contacts.map((user) => user.supplierCode).sort()).toEqual(
+      scenario.suppliers.map((supplier) => supplier.code).sort(),
+    );
     for (const user of scenario.users) {
       if (user.role !== 'supplier') expect(user.supplierCode).toBeNull();
     }

@@ -19,7 +19,12 @@ import {
 //   quantity based, usable goods only, by the need date.
 
 const base = { from: '2026-03', to: '2026-04', today: '2026-05-10', releases: [] } satisfies Partial<PerformanceInput>;
-const line = (needDate: string, orderedQty: number, receipts: PerformanceLine['receipts'], supplierCode = 'SUP-A'): PerformanceLine => ({
+const line = (
+  needDate: string,
+  orderedQty: number,
+  receipts: PerformanceLine['receipts'],
+  supplierCode = 'SUP-A',
+): PerformanceLine => ({
   supplierCode,
   needDate,
   orderedQty,
@@ -73,7 +78,17 @@ describe('supplierPerformance — hand-worked months', () => {
     const rows = supplierPerformance(input);
 
     // Only the 2026-05-09 line counts: 1 line, on time, 10 / 10 filled.
-    expect(rows).toEqual([expect.objectContaining({ month: '2026-05', lines: 1, onTimeLines: 1, onTimeRate: 1, orderedQty: 10, filledQty: 10, fillRate: 1 })]);
+    expect(rows).toEqual([
+      expect.objectContaining({
+        month: '2026-05',
+        lines: 1,
+        onTimeLines: 1,
+        onTimeRate: 1,
+        orderedQty: 10,
+        filledQty: 10,
+        fillRate: 1,
+      }),
+    ]);
   });
 
   it('measures confirmation latency per release and keeps unanswered releases apart', () => {
@@ -82,11 +97,26 @@ describe('supplierPerformance — hand-worked months', () => {
       lines: [],
       releases: [
         // 06:00 → 08:00 the same day = 2 h.
-        { supplierCode: 'SUP-B', firstNeedDate: '2026-04-02', sentAt: '2026-03-30T06:00:00.000Z', confirmedAt: '2026-03-30T08:00:00.000Z' },
+        {
+          supplierCode: 'SUP-B',
+          firstNeedDate: '2026-04-02',
+          sentAt: '2026-03-30T06:00:00.000Z',
+          confirmedAt: '2026-03-30T08:00:00.000Z',
+        },
         // 06:00 → 12:00 next day = 30 h.
-        { supplierCode: 'SUP-B', firstNeedDate: '2026-04-06', sentAt: '2026-04-01T06:00:00.000Z', confirmedAt: '2026-04-02T12:00:00.000Z' },
+        {
+          supplierCode: 'SUP-B',
+          firstNeedDate: '2026-04-06',
+          sentAt: '2026-04-01T06:00:00.000Z',
+          confirmedAt: '2026-04-02T12:00:00.000Z',
+        },
         // 06:00 → 10:00 = 4 h.
-        { supplierCode: 'SUP-B', firstNeedDate: '2026-04-09', sentAt: '2026-04-03T06:00:00.000Z', confirmedAt: '2026-04-03T10:00:00.000Z' },
+        {
+          supplierCode: 'SUP-B',
+          firstNeedDate: '2026-04-09',
+          sentAt: '2026-04-03T06:00:00.000Z',
+          confirmedAt: '2026-04-03T10:00:00.000Z',
+        },
         { supplierCode: 'SUP-B', firstNeedDate: '2026-04-14', sentAt: '2026-04-07T06:00:00.000Z', confirmedAt: null },
         // Never sent: not a release the supplier could answer.
         { supplierCode: 'SUP-B', firstNeedDate: '2026-04-15', sentAt: null, confirmedAt: null },
@@ -96,7 +126,13 @@ describe('supplierPerformance — hand-worked months', () => {
     const [april] = supplierPerformance(input);
 
     // Answered: 2, 30, 4 h → sorted 2, 4, 30 → median 4; mean (2 + 30 + 4) / 3 = 12.
-    expect(april).toMatchObject({ supplierCode: 'SUP-B', month: '2026-04', releases: 4, confirmedReleases: 3, unansweredReleases: 1 });
+    expect(april).toMatchObject({
+      supplierCode: 'SUP-B',
+      month: '2026-04',
+      releases: 4,
+      confirmedReleases: 3,
+      unansweredReleases: 1,
+    });
     expect(april.confirmationHoursMedian).toBe(4);
     expect(april.confirmationHoursMean).toBe(12);
     // No lines: the line rates have nothing to measure.
@@ -111,7 +147,11 @@ describe('supplierPerformance — hand-worked months', () => {
 
     const rows = supplierPerformance(input);
 
-    expect(rows.map((row) => `${row.supplierCode} ${row.month} ${row.lines}`)).toEqual(['SUP-A 2026-03 1', 'SUP-A 2026-04 1', 'SUP-B 2026-04 1']);
+    expect(rows.map((row) => `${row.supplierCode} ${row.month} ${row.lines}`)).toEqual([
+      'SUP-A 2026-03 1',
+      'SUP-A 2026-04 1',
+      'SUP-B 2026-04 1',
+    ]);
   });
 });
 
@@ -133,7 +173,15 @@ describe('summarisePerformance', () => {
 
     // On-time 1 / 4 = 0.25 (the mean of monthly rates would be 0.5).
     // Fill 100 / 130 (the mean of monthly fill rates would be 0.5).
-    expect(summary).toMatchObject({ supplierCode: 'SUP-A', months: 2, lines: 4, onTimeLines: 1, onTimeRate: 0.25, orderedQty: 130, filledQty: 100 });
+    expect(summary).toMatchObject({
+      supplierCode: 'SUP-A',
+      months: 2,
+      lines: 4,
+      onTimeLines: 1,
+      onTimeRate: 0.25,
+      orderedQty: 130,
+      filledQty: 100,
+    });
     expect(summary.fillRate).toBeCloseTo(100 / 130, 12);
   });
 });
@@ -171,19 +219,26 @@ const lineArb = fc.record({
 });
 const instantArb = fc.integer({ min: Date.UTC(2026, 0, 1), max: Date.UTC(2026, 5, 1) });
 const releaseArb = fc
-  .record({ supplierCode: fc.constantFrom('SUP-A', 'SUP-B'), firstNeedDate: dayArb, sent: instantArb, lag: fc.option(fc.integer({ min: 0, max: 500 * 3_600_000 })) })
+  .record({
+    supplierCode: fc.constantFrom('SUP-A', 'SUP-B'),
+    firstNeedDate: dayArb,
+    sent: instantArb,
+    lag: fc.option(fc.integer({ min: 0, max: 500 * 3_600_000 })),
+  })
   .map(({ supplierCode, firstNeedDate, sent, lag }) => ({
     supplierCode,
     firstNeedDate,
     sentAt: new Date(sent).toISOString(),
     confirmedAt: lag === null ? null : new Date(sent + lag).toISOString(),
   }));
-const inputArb = fc.record({ lines: fc.array(lineArb, { maxLength: 30 }), releases: fc.array(releaseArb, { maxLength: 10 }) }).map((parts) => ({
-  from: '2026-03',
-  to: '2026-03',
-  today: '2026-04-01',
-  ...parts,
-}));
+const inputArb = fc
+  .record({ lines: fc.array(lineArb, { maxLength: 30 }), releases: fc.array(releaseArb, { maxLength: 10 }) })
+  .map((parts) => ({
+    from: '2026-03',
+    to: '2026-03',
+    today: '2026-04-01',
+    ...parts,
+  }));
 
 describe('supplierPerformance — properties', () => {
   it('keeps every rate within 0 and 1, and null (never NaN) only when nothing is measured', () => {
@@ -209,9 +264,18 @@ describe('supplierPerformance — properties', () => {
   it('gives on-time and fill rate 1 when every line is received on time in full', () => {
     fc.assert(
       fc.property(fc.array(lineArb, { minLength: 1, maxLength: 30 }), (lines) => {
-        const full = lines.map((l) => ({ ...l, receipts: [{ qty: l.orderedQty, receivedOn: l.needDate, usable: true }] }));
+        const full = lines.map((l) => ({
+          ...l,
+          receipts: [{ qty: l.orderedQty, receivedOn: l.needDate, usable: true }],
+        }));
 
-        const rows = supplierPerformance({ from: '2026-03', to: '2026-03', today: '2026-04-01', lines: full, releases: [] });
+        const rows = supplierPerformance({
+          from: '2026-03',
+          to: '2026-03',
+          today: '2026-04-01',
+          lines: full,
+          releases: [],
+        });
 
         expect(rows.reduce((sum, row) => sum + row.lines, 0)).toBe(lines.length);
         for (const row of rows) expect([row.onTimeRate, row.fillRate]).toEqual([1, 1]);

@@ -18,7 +18,9 @@ export class ReleasesPage {
 
   /** Runs releases for the date in the picker (today unless changed) and resolves the server's answer. */
   async runNow(): Promise<{ date: string; releases: { number: string; supplierCode: string; lines: unknown[] }[] }> {
-    const answer = this.page.waitForResponse((response) => response.url().endsWith('/api/releases/run') && response.request().method() === 'POST');
+    const answer = this.page.waitForResponse(
+      (response) => response.url().endsWith('/api/releases/run') && response.request().method() === 'POST',
+    );
     await this.runButton().click();
     return (await answer).json();
   }

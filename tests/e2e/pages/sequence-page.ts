@@ -70,7 +70,11 @@ export class SequencePage {
     const menu = this.page.getByRole('menu', { name: `Actions for ${serial}` });
     await expect(menu).toBeVisible();
     const wanted = menu.getByRole('menuitem', { name: item });
-    for (let step = 0; step < 5 && !(await wanted.evaluate((element) => element === document.activeElement)); step += 1) {
+    for (
+      let step = 0;
+      step < 5 && !(await wanted.evaluate((element) => element === document.activeElement));
+      step += 1
+    ) {
       await this.page.keyboard.press('ArrowDown');
     }
     await expect(wanted).toBeFocused();
