@@ -29,14 +29,12 @@ export function createConfirmRouter(dataSource: DataSource, registry: OpenAPIReg
       standardHeaders: 'draft-8',
       legacyHeaders: false,
       handler: (_req, res) => {
-        res
-          .status(429)
-          .json({
-            error: {
-              code: 'rate_limited',
-              message: 'Too many requests from this address. Wait a minute and try again.',
-            },
-          });
+        res.status(429).json({
+          error: {
+            code: 'rate_limited',
+            message: 'Too many requests from this address. Wait a minute and try again.',
+          },
+        });
       },
     }),
   );

@@ -88,12 +88,9 @@ export const sequenceBoardSchema = z.object({
 });
 export type SequenceBoard = z.infer<typeof sequenceBoardSchema>;
 
-export const allowFrozenSchema = z
-  .boolean()
-  .optional()
-  .meta({
-    description: 'Set to change days inside the frozen window on purpose; without it such a change is refused (409).',
-  });
+export const allowFrozenSchema = z.boolean().optional().meta({
+  description: 'Set to change days inside the frozen window on purpose; without it such a change is refused (409).',
+});
 
 /** Body of PUT /api/sequence/days: the full new order of each listed day. */
 export const resequenceRequestSchema = z

@@ -31,26 +31,20 @@ describe('/api/users', () => {
       .post('/api/users')
       .set(bearer(context.tokens.admin))
       .send({ email: 'rep@supplier-b.example.net', name: 'Rep', role: 'supplier', password: 'supplier-password' });
-    const unknown = await request(context.app)
-      .post('/api/users')
-      .set(bearer(context.tokens.admin))
-      .send({
-        email: 'rep@supplier-b.example.net',
-        name: 'Rep',
-        role: 'supplier',
-        password: 'supplier-password',
-        supplierCode: 'NOPE',
-      });
-    const bound = await request(context.app)
-      .post('/api/users')
-      .set(bearer(context.tokens.admin))
-      .send({
-        email: 'rep@supplier-b.example.net',
-        name: 'Rep',
-        role: 'supplier',
-        password: 'supplier-password',
-        supplierCode: 'SUP-B',
-      });
+    const unknown = await request(context.app).post('/api/users').set(bearer(context.tokens.admin)).send({
+      email: 'rep@supplier-b.example.net',
+      name: 'Rep',
+      role: 'supplier',
+      password: 'supplier-password',
+      supplierCode: 'NOPE',
+    });
+    const bound = await request(context.app).post('/api/users').set(bearer(context.tokens.admin)).send({
+      email: 'rep@supplier-b.example.net',
+      name: 'Rep',
+      role: 'supplier',
+      password: 'supplier-password',
+      supplierCode: 'SUP-B',
+    });
 
     expect(missing.status).toBe(400);
     expect(missing.body.error.details[0].path).toEqual(['supplierCode']);
