@@ -1,8 +1,8 @@
 import type { DataSource } from 'typeorm';
 import { recordAudit } from '../server/audit/audit.service';
-import { hashPassword } from '../server/auth/passwords';
+import { hashPassword } from '../server/users/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
-import { syncLoops } from '../server/kanban/loop-sync';
+import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
 import {
   replaceBomLines,

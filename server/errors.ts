@@ -1,7 +1,25 @@
-/** Base of every error the API reports on purpose; the error middleware maps it to its status. */
+/*
+ * Errors the services raise on purpose. They say what went wrong in domain terms (a kind, a code
+ * the client can act on, a message a person can read, details naming fields or rows); only the
+ * error middleware knows which HTTP status each kind becomes.
+ */
+
+export type ErrorKind =
+  | 'invalid'
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'not_found'
+  | 'conflict'
+  | 'gone'
+  | 'too_large'
+  | 'unsupported_type'
+  | 'rejected'
+  | 'rate_limited';
+
+/** Base of every error the API reports on purpose. */
 export class AppError extends Error {
   constructor(
-    readonly status: number,
+    readonly kind: ErrorKind,
     readonly code: string,
     message: string,
     readonly details?: unknown[],
@@ -11,45 +29,65 @@ export class AppError extends Error {
   }
 }
 
+/** Input that breaks a rule zod cannot see (a reference, a combination of fields). */
+export class InvalidInputError extends AppError {
+  constructor(message: string, details?: unknown[], code = 'invalid_input') {
+    super('invalid', code, message, details);
+  }
+}
+
 export class BadRequestError extends AppError {
   constructor(message: string, details?: unknown[]) {
-    super(400, 'bad_request', message, details);
+    super('invalid', 'bad_request', message, details);
   }
 }
 
 export class UnauthorizedError extends AppError {
   constructor(message = 'Sign in first.') {
-    super(401, 'unauthorized', message);
+    super('unauthenticated', 'unauthorized', message);
   }
 }
 
 export class ForbiddenError extends AppError {
   constructor(message = 'Your role may not do this.') {
-    super(403, 'forbidden', message);
+    super('forbidden', 'forbidden', message);
   }
 }
 
 export class NotFoundError extends AppError {
   constructor(message = 'Not found.') {
-    super(404, 'not_found', message);
+    super('not_found', 'not_found', message);
   }
 }
 
+/** The request is well formed but clashes with the current state; `code` says how. */
 export class ConflictError extends AppError {
-  constructor(message: string, details?: unknown[]) {
-    super(409, 'conflict', message, details);
+  constructor(message: string, details?: unknown[], code = 'conflict') {
+    super('conflict', code, message, details);
   }
 }
 
 export class GoneError extends AppError {
   constructor(message: string) {
-    super(410, 'gone', message);
+    super('gone', 'gone', message);
   }
 }
 
 export class PayloadTooLargeError extends AppError {
   constructor(message: string) {
-    super(413, 'payload_too_large', message);
+    super('too_large', 'payload_too_large', message);
+  }
+}
+
+export class UnsupportedTypeError extends AppError {
+  constructor(message: string) {
+    super('unsupported_type', 'unsupported_file_type', message);
+  }
+}
+
+export class RateLimitedError extends AppError {
+  constructor(message: string, details?: unknown[]) {
+    super('rate_limited', 'rate_limited', message, details);
   }
 }
 
@@ -59,8 +97,9 @@ export interface ImportRowError {
   message: string;
 }
 
+/** A file whose rows break the rules: every problem, with its row and column; nothing was written. */
 export class ImportError extends AppError {
   constructor(message: string, details: ImportRowError[]) {
-    super(422, 'import_rejected', message, details);
+    super('rejected', 'import_rejected', message, details);
   }
 }

@@ -3,7 +3,7 @@ import type { LoginRequest, LoginResponse } from '../../shared/schemas/user';
 import { UnauthorizedError } from '../errors';
 import { UserEntity } from '../users/user.entity';
 import { toSessionUser } from '../users/users.service';
-import { hashPassword, verifyPassword } from './passwords';
+import { hashPassword, verifyPassword } from '../users/passwords';
 import { signSessionToken } from './tokens';
 
 export class AuthService {

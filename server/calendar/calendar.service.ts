@@ -1,7 +1,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { Calendar } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
-import { bumpPlanningVersion, readSetting, writeSetting } from '../settings/settings.service';
+import { bumpPlanningVersion, readSetting, writeSetting } from '../settings/settings';
 import { HolidayEntity } from './holiday.entity';
 
 const WORKING_WEEKDAYS = 'workingWeekdays';

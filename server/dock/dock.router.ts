@@ -16,8 +16,8 @@ import {
 } from '../../shared/schemas/dock';
 import { defineRoute } from '../http/route';
 import { READ_ROLES, RECEIVING_ROLES } from '../http/roles';
-import { ATTACHMENT_FIELD, receiveAttachmentFile } from '../receipts/attachment-upload';
-import { AttachmentsService } from '../receipts/attachments.service';
+import { ATTACHMENT_FIELD, receiveAttachmentFile } from './attachment-upload';
+import { AttachmentsService } from './attachments.service';
 import { DockService } from './dock.service';
 
 /** RFC 6266 inline disposition with an ASCII fallback name and the real one in RFC 8187 form. */

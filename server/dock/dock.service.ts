@@ -10,15 +10,15 @@ import {
 } from '../../shared/schemas/dock';
 import { recordAudit } from '../audit/audit.service';
 import { ConflictError, NotFoundError } from '../errors';
-import { KanbanCardEntity } from '../kanban/kanban-card.entity';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { PartEntity } from '../parts/part.entity';
+import { KanbanCardEntity } from '../loops/kanban-card.entity';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
-import { AttachmentEntity } from '../receipts/attachment.entity';
+import { AttachmentEntity } from './attachment.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
-import { SupplierEntity } from '../suppliers/supplier.entity';
-import { bumpDockVersion } from './dock-version';
+import { SupplierEntity } from '../master-data/supplier.entity';
+import { bumpDockVersion } from '../settings/versions';
 
 /** Release states on the board whatever the day: everything still awaited at the dock. */
 const OPEN_STATUSES = DOCK_STATUSES.filter((status) => status !== 'received');

@@ -3,8 +3,8 @@ import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import { defineRoute } from '../http/route';
 import { READ_ROLES } from '../http/roles';
-import { readDockVersion } from '../dock/dock-version';
-import { readPlanningVersion } from '../settings/settings.service';
+import { readDockVersion } from '../settings/versions';
+import { readPlanningVersion } from '../settings/settings';
 
 const POLL_MS = 2000;
 const HEARTBEAT_MS = 25_000;

@@ -4,7 +4,7 @@ import { z, type ZodType } from 'zod';
 import type { Role } from '../../shared/schemas/user';
 import { errorBodySchema } from '../../shared/schemas/error';
 import { ForbiddenError, UnauthorizedError } from '../errors';
-import type { AuthenticatedUser } from '../middleware/authenticate';
+import type { AuthenticatedUser } from '../auth/authenticate';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 

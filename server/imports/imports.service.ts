@@ -3,7 +3,7 @@ import type { IsoDate } from '../../shared/domain/types';
 import { IMPORT_LAYOUTS, type ImportKind, type ImportResult } from '../../shared/schemas/imports';
 import type { Part, Supplier } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
-import { BomLineEntity } from '../bom/bom-line.entity';
+import { BomLineEntity } from '../master-data/bom-line.entity';
 import { readCalendar } from '../calendar/calendar.service';
 import { ImportError } from '../errors';
 import {
@@ -13,10 +13,10 @@ import {
   upsertSequenceEntries,
   upsertSuppliers,
 } from '../master-data/master-data.writer';
-import { PartEntity } from '../parts/part.entity';
+import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import { SupplierEntity } from '../master-data/supplier.entity';
 import { checkBomRows } from './bom-rows';
 import { readCsvTable, type CsvTable } from './csv';
 import type { RowProblems } from './import-rows';

@@ -1,6 +1,6 @@
 import cron, { type ScheduledTask } from 'node-cron';
-import type { OutboxDispatcher } from '../mail/outbox.service';
-import type { ReleaseJob } from './release-job';
+import type { OutboxDispatcher } from '../outbox/outbox.service';
+import type { ReleaseJob } from '../releases/release-job';
 
 /** A check that returns what it reported, run every few minutes. */
 type PeriodicCheck = () => Promise<string[]>;

@@ -1,8 +1,8 @@
 import type { DataSource } from 'typeorm';
 import type { ShortageDto } from '../../shared/schemas/line-risk';
 import { recordAudit } from '../audit/audit.service';
-import { enqueueMail } from '../mail/outbox.service';
-import { readSetting, writeSetting } from '../settings/settings.service';
+import { enqueueMail } from '../outbox/outbox.service';
+import { readSetting, writeSetting } from '../settings/settings';
 import { UserEntity } from '../users/user.entity';
 import type { LineRiskService } from './line-risk.service';
 

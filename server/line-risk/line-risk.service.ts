@@ -8,7 +8,7 @@ import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk
 import { BadRequestError, ConflictError } from '../errors';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { readSequenceSettings } from '../sequence/sequence-settings';
-import { readPlanningVersion } from '../settings/settings.service';
+import { readPlanningVersion } from '../settings/settings';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
 
 const MAX_CACHED_REPORTS = 8;

@@ -1,8 +1,8 @@
 import type { DataSource } from 'typeorm';
 import type { Part, Supplier } from '../../shared/schemas/master-data';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { PartEntity } from '../parts/part.entity';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { PartEntity } from './part.entity';
+import { SupplierEntity } from './supplier.entity';
 
 function toSupplier(entity: SupplierEntity): Supplier {
   const { id: _id, ...supplier } = entity;

@@ -1,10 +1,10 @@
 import { In, type EntityManager, type EntityTarget, type ObjectLiteral } from 'typeorm';
 import type { BomLine, Part, SequenceEntry, Supplier } from '../../shared/schemas/master-data';
-import { BomLineEntity } from '../bom/bom-line.entity';
-import { PartEntity } from '../parts/part.entity';
+import { BomLineEntity } from './bom-line.entity';
+import { PartEntity } from './part.entity';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
-import { bumpPlanningVersion } from '../settings/settings.service';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import { bumpPlanningVersion } from '../settings/settings';
+import { SupplierEntity } from './supplier.entity';
 
 // Writers take rows that are already validated (schemas and references) and run inside the
 // caller's transaction; imports and the demo seed share them.

@@ -3,8 +3,8 @@ import { BomCycleError, computePlan, grossDemandByDay, PlanInputError } from '..
 import type { PlanResult } from '../../shared/domain/types';
 import type { DemandResponse, PlanResponse } from '../../shared/schemas/planning';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
-import { SupplierEntity } from '../suppliers/supplier.entity';
-import { readPlanningVersion } from '../settings/settings.service';
+import { SupplierEntity } from '../master-data/supplier.entity';
+import { readPlanningVersion } from '../settings/settings';
 import { loadPlanInputs, type PlanInputs } from './plan-inputs';
 import { resolveHorizon } from './plan-dates';
 

@@ -1,5 +1,5 @@
 import { UNIT_WORDS } from '../../shared/schemas/master-data';
-import type { OutgoingMail } from '../mail/outbox.service';
+import type { OutgoingMail } from '../outbox/outbox.service';
 
 export const HAZARDOUS_NOTE = 'Hazardous goods: pack and ship under the applicable dangerous-goods rules.';
 

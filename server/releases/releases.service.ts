@@ -12,18 +12,18 @@ import type {
 } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
 import { readCalendar } from '../calendar/calendar.service';
-import { issueConfirmationToken, revokeConfirmationTokens } from '../confirm/confirmation-tokens';
+import { issueConfirmationToken, revokeConfirmationTokens } from './confirmation-tokens';
 import { ConflictError, NotFoundError } from '../errors';
-import { applyCardEvent } from '../kanban/card-events';
-import { KanbanCardEntity } from '../kanban/kanban-card.entity';
-import { enqueueMail } from '../mail/outbox.service';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { PartEntity } from '../parts/part.entity';
+import { applyCardEvent } from '../loops/card-events';
+import { KanbanCardEntity } from '../loops/kanban-card.entity';
+import { enqueueMail } from '../outbox/outbox.service';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { PartEntity } from '../master-data/part.entity';
 import { DEFAULT_HORIZON_WORKING_DAYS } from '../planning/plan-dates';
 import { OPEN_RELEASE_STATES } from '../planning/plan-inputs';
 import type { PlanningService } from '../planning/planning.service';
-import { readSetting, writeSetting } from '../settings/settings.service';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import { readSetting, writeSetting } from '../settings/settings';
+import { SupplierEntity } from '../master-data/supplier.entity';
 import {
   groupBySupplier,
   kanbanLines,

@@ -4,7 +4,7 @@ import {
   DEFAULT_FROZEN_WINDOW_DAYS,
   type SequenceSettings,
 } from '../../shared/schemas/sequence';
-import { readSetting, writeSetting } from '../settings/settings.service';
+import { readSetting, writeSetting } from '../settings/settings';
 
 const FROZEN_WINDOW_DAYS = 'sequence.frozenWindowDays';
 const DAILY_CAPACITY = 'sequence.dailyCapacity';

@@ -15,10 +15,10 @@ import {
 } from '../../shared/schemas/sequence';
 import { recordAudit } from '../audit/audit.service';
 import { readCalendar } from '../calendar/calendar.service';
-import { AppError, BadRequestError, ConflictError, NotFoundError } from '../errors';
-import { PartEntity } from '../parts/part.entity';
+import { BadRequestError, ConflictError, NotFoundError } from '../errors';
+import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
-import { bumpPlanningVersion } from '../settings/settings.service';
+import { bumpPlanningVersion } from '../settings/settings';
 import { SequenceEntryEntity } from './sequence-entry.entity';
 import { readSequenceSettings, writeSequenceSettings } from './sequence-settings';
 import { listDates, SequenceRules } from './sequence-window';
@@ -66,21 +66,20 @@ function groupByDate(entries: SequenceEntryEntity[]): Map<string, SequenceEntryE
   return byDate;
 }
 
-function frozenWindowError(rules: SequenceRules, dates: IsoDate[]): AppError {
-  return new AppError(
-    409,
-    'frozen_window',
+function frozenWindowError(rules: SequenceRules, dates: IsoDate[]): ConflictError {
+  return new ConflictError(
     rules.frozenMessage(dates),
     dates.map((date) => ({ date, past: rules.isPast(date) })),
+    'frozen_window',
   );
 }
 
-function overCapacityError(overloaded: { date: string; load: number; capacity: number }[]): AppError {
+function overCapacityError(overloaded: { date: string; load: number; capacity: number }[]): ConflictError {
   const sentences = overloaded.map(
     ({ date, load, capacity }) =>
       `${listDates([date])} would hold ${load} units, over the daily capacity of ${capacity}`,
   );
-  return new AppError(409, 'over_capacity', `${sentences.join('; ')}.`, overloaded);
+  return new ConflictError(`${sentences.join('; ')}.`, overloaded, 'over_capacity');
 }
 
 /**

@@ -1,5 +1,5 @@
 import type { DataSource } from 'typeorm';
-import { hashPassword } from '../auth/passwords';
+import { hashPassword } from './passwords';
 import { UserEntity } from './user.entity';
 
 export async function isDatabaseEmpty(dataSource: DataSource): Promise<boolean> {

@@ -1,10 +1,10 @@
 import type { DataSource } from 'typeorm';
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from '../../shared/schemas/user';
 import { recordAudit } from '../audit/audit.service';
-import { hashPassword } from '../auth/passwords';
+import { hashPassword } from './passwords';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { SupplierEntity } from '../master-data/supplier.entity';
 import { UserEntity } from './user.entity';
 
 export function toSessionUser(user: Pick<UserEntity, 'email' | 'name' | 'role' | 'supplierCode'>): SessionUser {

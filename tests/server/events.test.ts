@@ -1,7 +1,7 @@
 import { get, type IncomingMessage } from 'node:http';
 import type { AddressInfo, Server } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { bumpPlanningVersion } from '../../server/settings/settings.service';
+import { bumpPlanningVersion } from '../../server/settings/settings';
 import { createTestContext, type TestContext } from './helpers';
 
 let context: TestContext;

@@ -1,9 +1,9 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
-import { OutboxMessageEntity } from '../../server/mail/outbox-message.entity';
-import { OutboxDispatcher } from '../../server/mail/outbox.service';
+import { startFakeSmtp, type FakeSmtp } from '../../server/outbox/fake-smtp';
+import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
+import { OutboxDispatcher } from '../../server/outbox/outbox.service';
 import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 

@@ -3,7 +3,7 @@ import { nextWorkingDay } from '../../shared/domain/calendar';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { alertFrozenWindowShortages } from '../../server/line-risk/frozen-window-alerts';
 import { LineRiskService } from '../../server/line-risk/line-risk.service';
-import { OutboxMessageEntity } from '../../server/mail/outbox-message.entity';
+import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
 import {
   replaceBomLines,
   setOnHand,

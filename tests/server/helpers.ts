@@ -4,9 +4,9 @@ import type { DataSource } from 'typeorm';
 import type { Part } from '../../shared/schemas/master-data';
 import type { Role } from '../../shared/schemas/user';
 import { createApp, type AppOptions } from '../../server/app';
-import { hashPassword } from '../../server/auth/passwords';
+import { hashPassword } from '../../server/users/passwords';
 import { openDatabase } from '../../server/db/data-source';
-import { SupplierEntity } from '../../server/suppliers/supplier.entity';
+import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { UserEntity } from '../../server/users/user.entity';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';

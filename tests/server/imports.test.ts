@@ -5,11 +5,11 @@ import { addCalendarDays, isoWeekday, nextWorkingDay } from '../../shared/domain
 import { IMPORT_LAYOUTS, IMPORT_MAX_BYTES, type ImportKind } from '../../shared/schemas/imports';
 import type { Role } from '../../shared/schemas/user';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
-import { BomLineEntity } from '../../server/bom/bom-line.entity';
-import { PartEntity } from '../../server/parts/part.entity';
+import { BomLineEntity } from '../../server/master-data/bom-line.entity';
+import { PartEntity } from '../../server/master-data/part.entity';
 import { plantToday } from '../../server/planning/plan-dates';
 import { SequenceEntryEntity } from '../../server/sequence/sequence-entry.entity';
-import { SupplierEntity } from '../../server/suppliers/supplier.entity';
+import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { bearer, createTestContext, type TestContext } from './helpers';
 
 const csv = (...lines: string[]) => `${lines.join('\n')}\n`;

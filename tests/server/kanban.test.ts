@@ -2,7 +2,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { CardScanEntity } from '../../server/kanban/card-scan.entity';
+import { CardScanEntity } from '../../server/loops/card-scan.entity';
 import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Part } from '../../shared/schemas/master-data';

@@ -9,7 +9,7 @@ import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../serve
 import { plantToday } from '../../server/planning/plan-dates';
 import { SequenceEntryEntity } from '../../server/sequence/sequence-entry.entity';
 import { writeSequenceSettings } from '../../server/sequence/sequence-settings';
-import { readPlanningVersion } from '../../server/settings/settings.service';
+import { readPlanningVersion } from '../../server/settings/settings';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;

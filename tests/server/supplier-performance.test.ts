@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ReceiptEntity } from '../../server/receipts/receipt.entity';
+import { ReceiptEntity } from '../../server/dock/receipt.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { plantToday } from '../../server/planning/plan-dates';

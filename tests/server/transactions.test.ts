@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { DataSource } from 'typeorm';
 import { openDatabase } from '../../server/db/data-source';
 import { SettingEntity } from '../../server/settings/setting.entity';
-import { bumpPlanningVersion, readPlanningVersion } from '../../server/settings/settings.service';
+import { bumpPlanningVersion, readPlanningVersion } from '../../server/settings/settings';
 
 let dataSource: DataSource;
 beforeAll(async () => {

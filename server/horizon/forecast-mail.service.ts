@@ -2,11 +2,11 @@ import type { DataSource } from 'typeorm';
 import type { ForecastMailRequest, ForecastMailResponse } from '../../shared/schemas/planning';
 import { recordAudit } from '../audit/audit.service';
 import { NotFoundError } from '../errors';
-import { enqueueMail } from '../mail/outbox.service';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { SupplierEntity } from '../suppliers/supplier.entity';
-import { demandToCsv } from './planning-csv';
-import type { PlanningService } from './planning.service';
+import { enqueueMail } from '../outbox/outbox.service';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { SupplierEntity } from '../master-data/supplier.entity';
+import { demandToCsv } from './horizon-csv';
+import type { PlanningService } from '../planning/planning.service';
 
 /** Sends a supplier its gross demand ahead as a CSV attachment, through the outbox. */
 export class ForecastMailService {

@@ -4,7 +4,7 @@ import type { DataSource } from 'typeorm';
 import { performanceQuerySchema, supplierPerformanceResponseSchema } from '../../shared/schemas/supplier-performance';
 import { defineRoute } from '../http/route';
 import { READ_ROLES } from '../http/roles';
-import { PerformanceService } from './performance.service';
+import { PerformanceService } from './supplier-performance.service';
 
 /** Supplier performance: on-time, fill rate and confirmation latency per supplier and month of need date. */
 export function createPerformanceRouter(

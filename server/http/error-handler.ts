@@ -1,6 +1,19 @@
 import type { NextFunction, Request, Response } from 'express';
 import { ZodError } from 'zod';
-import { AppError } from '../errors';
+import { AppError, type ErrorKind } from '../errors';
+
+const STATUS: Record<ErrorKind, number> = {
+  invalid: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  gone: 410,
+  too_large: 413,
+  unsupported_type: 415,
+  rejected: 422,
+  rate_limited: 429,
+};
 
 interface HttpLikeError {
   status?: number;
@@ -14,7 +27,7 @@ interface HttpLikeError {
 export function errorHandler(error: unknown, _req: Request, res: Response, _next: NextFunction) {
   if (res.headersSent) return;
   if (error instanceof AppError) {
-    res.status(error.status).json({
+    res.status(STATUS[error.kind]).json({
       error: { code: error.code, message: error.message, ...(error.details && { details: error.details }) },
     });
     return;

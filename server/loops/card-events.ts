@@ -9,14 +9,14 @@ import {
   type CardState,
 } from '../../shared/domain/card-cycle';
 import { isValidGs1, parseCardNumber } from '../../shared/domain/gs1';
-import { AppError, ConflictError, NotFoundError } from '../errors';
+import { ConflictError, InvalidInputError, NotFoundError } from '../errors';
 import { CardScanEntity } from './card-scan.entity';
 import { KanbanCardEntity } from './kanban-card.entity';
 
 const CARD_NUMBER_LENGTH = 12;
 
-function invalidCardNumber(message: string): AppError {
-  return new AppError(400, 'invalid_input', message, [{ path: ['cardNumber'], message }]);
+function invalidCardNumber(message: string): InvalidInputError {
+  return new InvalidInputError(message, [{ path: ['cardNumber'], message }]);
 }
 
 /**

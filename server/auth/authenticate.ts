@@ -1,7 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/schemas/user';
-import { verifySessionToken } from '../auth/tokens';
+import { verifySessionToken } from './tokens';
 import { UserEntity } from '../users/user.entity';
 
 export interface AuthenticatedUser {

@@ -4,10 +4,10 @@ import { basename, join, resolve, sep } from 'node:path';
 import type { DataSource } from 'typeorm';
 import type { AttachmentType, DockAttachment } from '../../shared/schemas/dock';
 import { recordAudit } from '../audit/audit.service';
-import { bumpDockVersion } from '../dock/dock-version';
-import { toDockAttachment } from '../dock/dock.service';
-import { AppError, NotFoundError } from '../errors';
-import type { AuthenticatedUser } from '../middleware/authenticate';
+import { bumpDockVersion } from '../settings/versions';
+import { toDockAttachment } from './dock.service';
+import { NotFoundError, UnsupportedTypeError } from '../errors';
+import type { AuthenticatedUser } from '../auth/authenticate';
 import { ReleaseEntity } from '../releases/release.entity';
 import { AttachmentEntity } from './attachment.entity';
 
@@ -70,9 +70,7 @@ export class AttachmentsService {
   ): Promise<DockAttachment> {
     const type = sniffAttachmentType(file.buffer);
     if (!type) {
-      throw new AppError(
-        415,
-        'unsupported_file_type',
+      throw new UnsupportedTypeError(
         'Attach a photo (JPEG, PNG or WebP) or a PDF of the packing slip; this file is neither.',
       );
     }

@@ -10,15 +10,15 @@ import {
   type ReceiptResponse,
 } from '../../shared/schemas/receipts';
 import { recordAudit } from '../audit/audit.service';
-import { bumpDockVersion } from '../dock/dock-version';
+import { bumpDockVersion } from '../settings/versions';
 import { ConflictError, NotFoundError } from '../errors';
-import { applyCardEvent } from '../kanban/card-events';
-import { KanbanCardEntity } from '../kanban/kanban-card.entity';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { PartEntity } from '../parts/part.entity';
+import { applyCardEvent } from '../loops/card-events';
+import { KanbanCardEntity } from '../loops/kanban-card.entity';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { PartEntity } from '../master-data/part.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
-import { bumpPlanningVersion } from '../settings/settings.service';
+import { bumpPlanningVersion } from '../settings/settings';
 import { ReceiptEntity } from './receipt.entity';
 
 /** A receipt's body, and whether this request created it (201) or replayed an earlier one (200). */

@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { readSetting, writeSetting } from '../settings/settings.service';
+import { readSetting, writeSetting } from './settings';
 
 const DOCK_VERSION = 'dock.version';
 

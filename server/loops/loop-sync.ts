@@ -1,7 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { LoopKind } from '../../shared/schemas/kanban-loops';
 import { recordAudit } from '../audit/audit.service';
-import { PartEntity } from '../parts/part.entity';
+import { PartEntity } from '../master-data/part.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';
 
 export const DEFAULT_SAFETY_FACTOR = 0.1;

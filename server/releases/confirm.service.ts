@@ -2,21 +2,21 @@ import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
 import { answerDiffers, answerStatus } from '../../shared/domain/release-rules';
 import type { ConfirmAnswer, Confirmation, ConfirmResult } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
-import { AppError, ConflictError, GoneError, NotFoundError } from '../errors';
-import { PartEntity } from '../parts/part.entity';
-import { ReleaseLineEntity } from '../releases/release-line.entity';
-import { ReleaseEntity } from '../releases/release.entity';
-import { readPlantName } from '../releases/releases.service';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import { ConflictError, InvalidInputError, GoneError, NotFoundError } from '../errors';
+import { PartEntity } from '../master-data/part.entity';
+import { ReleaseLineEntity } from './release-line.entity';
+import { ReleaseEntity } from './release.entity';
+import { readPlantName } from './releases.service';
+import { SupplierEntity } from '../master-data/supplier.entity';
 import { hashConfirmationToken } from './confirmation-tokens';
 import { ConfirmationTokenEntity } from './confirmation-token.entity';
-import { releasesChanged } from '../releases/release-events';
+import { releasesChanged } from './release-events';
 
 /** Release states a supplier can still answer through a live link. */
 const ANSWERABLE = ['draft', 'sent'];
 
-function invalidAnswer(message: string, details: { path: (string | number)[]; message: string }[]): AppError {
-  return new AppError(400, 'invalid_input', message, details);
+function invalidAnswer(message: string, details: { path: (string | number)[]; message: string }[]): InvalidInputError {
+  return new InvalidInputError(message, details);
 }
 
 interface OpenLink {

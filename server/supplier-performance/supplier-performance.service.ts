@@ -19,10 +19,10 @@ import {
 } from '../../shared/schemas/supplier-performance';
 import { BadRequestError, NotFoundError } from '../errors';
 import { plantToday } from '../planning/plan-dates';
-import { ReceiptEntity } from '../receipts/receipt.entity';
+import { ReceiptEntity } from '../dock/receipt.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import { SupplierEntity } from '../master-data/supplier.entity';
 
 /** Fills in and checks the month range: defaults to the last six months through the current one. */
 export function resolveMonths(

@@ -20,13 +20,13 @@ import type {
   UpdateKanbanLoopRequest,
 } from '../../shared/schemas/kanban-loops';
 import { recordAudit } from '../audit/audit.service';
-import { AppError, ConflictError, NotFoundError } from '../errors';
-import type { AuthenticatedUser } from '../middleware/authenticate';
-import { PartEntity } from '../parts/part.entity';
+import { ConflictError, InvalidInputError, NotFoundError } from '../errors';
+import type { AuthenticatedUser } from '../auth/authenticate';
+import { PartEntity } from '../master-data/part.entity';
 import { DEFAULT_HORIZON_WORKING_DAYS } from '../planning/plan-dates';
 import type { PlanningService } from '../planning/planning.service';
-import { readPlanningVersion } from '../settings/settings.service';
-import { SupplierEntity } from '../suppliers/supplier.entity';
+import { readPlanningVersion } from '../settings/settings';
+import { SupplierEntity } from '../master-data/supplier.entity';
 import { renderCardLabelsPdf } from './card-labels-pdf';
 import { withQrSvg, type CardLabelContent } from './card-labels';
 import { applyCardEvent, assertInCirculation, defaultEvent, findCard, readCardNumber } from './card-events';
@@ -96,7 +96,7 @@ export class KanbanService {
     } catch (error) {
       if (!(error instanceof KanbanInputError)) throw error;
       const message = error.message.slice(error.field.length + 2);
-      throw new AppError(400, 'invalid_input', error.message, [{ path: error.field.split('.'), message }]);
+      throw new InvalidInputError(error.message, [{ path: error.field.split('.'), message }]);
     }
   }
 

@@ -8,8 +8,8 @@ import {
   RELEASE_JOB_LAST_RUN,
   RELEASE_JOB_TIME,
   type ReleasesService,
-} from '../releases/releases.service';
-import { readSetting, writeSetting } from '../settings/settings.service';
+} from './releases.service';
+import { readSetting, writeSetting } from '../settings/settings';
 
 /** After a failed run the job waits this long before trying again, rather than every minute. */
 const RETRY_AFTER_MS = 15 * 60 * 1000;

@@ -22,7 +22,7 @@ import {
 import { defineRoute } from '../http/route';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 import type { PlanningService } from '../planning/planning.service';
-import { KanbanService } from './kanban.service';
+import { KanbanService } from './loops.service';
 
 /** Loops are the buyer's; cards are scanned wherever they travel — at the line, the desk and the dock. */
 const SCAN_ROLES: readonly Role[] = ['admin', 'buyer', 'planner', 'receiving'];

@@ -11,8 +11,8 @@ import {
 import { defineRoute } from '../http/route';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 import type { ForecastMailService } from './forecast-mail.service';
-import { demandToCsv, planToCsv } from './planning-csv';
-import type { PlanningService } from './planning.service';
+import { demandToCsv, planToCsv } from './horizon-csv';
+import type { PlanningService } from '../planning/planning.service';
 
 export function createPlanningRouter(
   planning: PlanningService,
