@@ -1,16 +1,16 @@
 import { resolve } from 'node:path';
 import { loadConfig } from '../server/config';
-import { openDatabase } from '../server/db/data-source';
+import { openDatabase } from '../server/db/database';
 import { isDatabaseEmpty } from '../server/users/bootstrap';
 import { seedDemoScenario } from './seed-demo';
 
 // `npm run seed`: migrates and seeds the demo into DATABASE_PATH when it is empty; never overwrites.
 const config = loadConfig();
-const dataSource = await openDatabase(resolve(config.DATABASE_PATH));
-if (await isDatabaseEmpty(dataSource)) {
-  await seedDemoScenario(dataSource, new Date().toISOString().slice(0, 10));
+const db = await openDatabase(resolve(config.DATABASE_PATH));
+if (await isDatabaseEmpty(db)) {
+  await seedDemoScenario(db, new Date().toISOString().slice(0, 10));
   console.log(`Seeded the demo scenario into ${config.DATABASE_PATH}.`);
 } else {
   console.log(`${config.DATABASE_PATH} already holds data; nothing seeded.`);
 }
-await dataSource.destroy();
+await db.close();

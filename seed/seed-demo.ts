@@ -1,4 +1,4 @@
-import type { DataSource } from 'typeorm';
+import type { Database } from '../server/db/database';
 import { recordAudit } from '../server/audit/audit.service';
 import { hashPassword } from '../server/users/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
@@ -17,10 +17,10 @@ import { buildDemoScenario } from './scenario';
 export const DEMO_PASSWORD = 'cardloop-demo';
 
 /** Writes the invented demo plant into an empty database in one transaction. */
-export async function seedDemoScenario(dataSource: DataSource, seedDay: string): Promise<void> {
+export async function seedDemoScenario(db: Database, seedDay: string): Promise<void> {
   const scenario = buildDemoScenario(seedDay);
   const passwordHash = await hashPassword(DEMO_PASSWORD);
-  await dataSource.transaction(async (manager) => {
+  await db.write(async (manager) => {
     await writeCalendar(manager, scenario.calendar);
     await upsertSuppliers(manager, scenario.suppliers);
     await upsertParts(manager, scenario.parts);

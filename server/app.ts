@@ -3,55 +3,50 @@ import express, { Router, type Express } from 'express';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import type { DataSource } from 'typeorm';
 import { z } from 'zod';
-import { AuthService } from './auth/auth.service';
 import { createAuthRouter } from './auth/auth.router';
+import { authenticate } from './auth/authenticate';
 import { createCalendarRouter } from './calendar/calendar.router';
-import { CalendarService } from './calendar/calendar.service';
-import { createConfirmRouter } from './releases/confirm.router';
+import type { Database } from './db/database';
 import { createDockRouter } from './dock/dock.router';
+import { createReceiptsRouter } from './dock/receipts.router';
 import { NotFoundError } from './errors';
 import { createEventsRouter } from './events/events.router';
-import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
-import { defineRoute } from './http/route';
-import type { FakeSmtp } from './outbox/fake-smtp';
-import { createKanbanRouter } from './loops/loops.router';
-import { createLineRiskRouter } from './line-risk/line-risk.router';
-import { createMailRouter } from './outbox/outbox.router';
-import { createMasterDataRouter } from './master-data/master-data.router';
-import { createPerformanceRouter } from './supplier-performance/supplier-performance.router';
-import { MasterDataService } from './master-data/master-data.service';
-import { authenticate } from './auth/authenticate';
-import { ForecastMailService } from './horizon/forecast-mail.service';
-import { createPlanningRouter } from './horizon/horizon.router';
-import { PlanningService } from './planning/planning.service';
+import { createHorizonRouter } from './horizon/horizon.router';
 import { errorHandler } from './http/error-handler';
+import { createOpenApiRegistry, generateOpenApiDocument } from './http/openapi';
+import { defineRoute, type RouteDeps } from './http/route';
 import { createImportsRouter } from './imports/imports.router';
+import { createLineRiskRouter } from './line-risk/line-risk.router';
+import { createLoopsRouter } from './loops/loops.router';
+import { createMasterDataRouter } from './master-data/master-data.router';
+import type { FakeSmtp } from './outbox/fake-smtp';
+import { createOutboxRouter } from './outbox/outbox.router';
+import { createConfirmRouter } from './releases/confirm.router';
 import { createReleasesRouter } from './releases/releases.router';
-import { ReleasesService } from './releases/releases.service';
-import { createReceiptsRouter } from './dock/receipts.router';
 import { createSequenceRouter } from './sequence/sequence.router';
+import { createServices, type ServiceOptions, type Services } from './services';
+import { createSupplierPerformanceRouter } from './supplier-performance/supplier-performance.router';
 import { createUsersRouter } from './users/users.router';
-import { UsersService } from './users/users.service';
 
-export interface AppOptions {
-  jwtSecret: string;
-  jwtTtl?: string;
+export interface AppOptions extends ServiceOptions {
   loginFailureLimit?: number;
   fakeSmtp?: FakeSmtp | null;
   /** Folder of the built client to serve; omitted in API tests. */
   clientDir?: string;
-  /** Base URL of the web client, for links in e-mails (release confirmation); APP_URL in production. */
-  appUrl?: string;
-  /** Folder for packing-slip files; defaults to `attachments` beside the database file (data/attachments in memory). */
-  attachmentsDir?: string;
 }
 
-/** Builds the whole HTTP application over an open data source; never listens (tests use supertest). */
-export function createApp(dataSource: DataSource, options: AppOptions): Express {
+/**
+ * Builds the whole HTTP application over an open database; never listens (tests use supertest).
+ * `services` are built here unless the caller (the server, which also runs jobs on them) passes its own.
+ */
+export function createApp(
+  db: Database,
+  options: AppOptions,
+  services: Services = createServices(db, options),
+): Express {
   const app = express();
-  const registry = createOpenApiRegistry();
+  const deps: RouteDeps = { registry: createOpenApiRegistry(), db };
   const api = Router();
 
   app.disable('x-powered-by');
@@ -70,42 +65,36 @@ export function createApp(dataSource: DataSource, options: AppOptions): Express 
   );
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
-  app.use('/api', authenticate(dataSource, options.jwtSecret));
+  app.use('/api', authenticate(db, options.jwtSecret));
 
-  defineRoute(api, registry, {
+  defineRoute(api, deps, {
     method: 'get',
     path: '/health',
     summary: 'Liveness check',
     access: 'public',
+    unit: 'none',
     response: z.object({ status: z.literal('ok') }),
     handler: () => ({ status: 'ok' }),
   });
 
-  const authService = new AuthService(dataSource, options.jwtSecret, options.jwtTtl ?? '8h');
-  api.use(createAuthRouter({ authService, registry, loginFailureLimit: options.loginFailureLimit ?? 10 }));
-  api.use(createUsersRouter(new UsersService(dataSource), registry));
-  api.use(createCalendarRouter(new CalendarService(dataSource), registry));
-  api.use(createPerformanceRouter(dataSource, registry));
-  api.use(createMasterDataRouter(new MasterDataService(dataSource), registry));
-  api.use(createImportsRouter(dataSource, registry));
-  api.use(createSequenceRouter(dataSource, registry));
-  const planning = new PlanningService(dataSource);
-  api.use(createPlanningRouter(planning, new ForecastMailService(dataSource, planning), registry));
-  api.use(createKanbanRouter(dataSource, planning, registry));
-  api.use(createEventsRouter(dataSource, registry));
-  api.use(createMailRouter(dataSource, options.fakeSmtp ?? null, registry));
-  api.use(createLineRiskRouter(dataSource, registry));
-  api.use(
-    createReleasesRouter(
-      new ReleasesService(dataSource, planning, { appUrl: options.appUrl ?? 'http://localhost:3000' }),
-      registry,
-    ),
-  );
-  api.use(createConfirmRouter(dataSource, registry));
-  api.use(createReceiptsRouter(dataSource, registry));
-  api.use(createDockRouter(dataSource, registry, options.attachmentsDir));
+  api.use(createAuthRouter(services, deps, { loginFailureLimit: options.loginFailureLimit ?? 10 }));
+  api.use(createUsersRouter(services, deps));
+  api.use(createCalendarRouter(services, deps));
+  api.use(createSupplierPerformanceRouter(services, deps));
+  api.use(createMasterDataRouter(services, deps));
+  api.use(createImportsRouter(services, deps));
+  api.use(createSequenceRouter(services, deps));
+  api.use(createHorizonRouter(services, deps));
+  api.use(createLoopsRouter(services, deps));
+  api.use(createEventsRouter(deps));
+  api.use(createOutboxRouter(services, deps, options.fakeSmtp ?? null));
+  api.use(createLineRiskRouter(services, deps));
+  api.use(createReleasesRouter(services, deps));
+  api.use(createConfirmRouter(services, deps));
+  api.use(createReceiptsRouter(services, deps));
+  api.use(createDockRouter(services, deps));
 
-  const openApiDocument = generateOpenApiDocument(registry);
+  const openApiDocument = generateOpenApiDocument(deps.registry);
   api.get('/openapi.json', (_req, res) => {
     res.json(openApiDocument);
   });

@@ -13,8 +13,7 @@ export type ErrorKind =
   | 'gone'
   | 'too_large'
   | 'unsupported_type'
-  | 'rejected'
-  | 'rate_limited';
+  | 'rejected';
 
 /** Base of every error the API reports on purpose. */
 export class AppError extends Error {
@@ -82,12 +81,6 @@ export class PayloadTooLargeError extends AppError {
 export class UnsupportedTypeError extends AppError {
   constructor(message: string) {
     super('unsupported_type', 'unsupported_file_type', message);
-  }
-}
-
-export class RateLimitedError extends AppError {
-  constructor(message: string, details?: unknown[]) {
-    super('rate_limited', 'rate_limited', message, details);
   }
 }
 

@@ -3,15 +3,13 @@ import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
 import { ensureClientBuilt } from './client-build';
 import { loadConfig } from './config';
-import { openDatabase } from './db/data-source';
+import { openDatabase, type Database } from './db/database';
+import { createServices } from './services';
 import { ReleaseJob } from './releases/release-job';
 import { startJobs } from './jobs/scheduler';
 import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
-import { LineRiskService } from './line-risk/line-risk.service';
 import { startFakeSmtp } from './outbox/fake-smtp';
 import { OutboxDispatcher } from './outbox/outbox.service';
-import { PlanningService } from './planning/planning.service';
-import { ReleasesService } from './releases/releases.service';
 import { ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
 import { DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
 
@@ -20,39 +18,37 @@ const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 async function main(): Promise<void> {
   const config = loadConfig();
   const clientDir = await ensureClientBuilt(root);
-  const dataSource = await openDatabase(resolve(root, config.DATABASE_PATH));
+  const db = await openDatabase(resolve(root, config.DATABASE_PATH));
 
   const fakeSmtp = config.SMTP_URL ? null : await startFakeSmtp();
   const smtpUrl = config.SMTP_URL ?? fakeSmtp!.url;
 
   let demoSignIns: string[] = [];
   if (config.SEED_DEMO === '1') {
-    if (await isDatabaseEmpty(dataSource)) {
+    if (await isDatabaseEmpty(db)) {
       console.log('Empty database: seeding the demo scenario…');
-      await seedDemoScenario(dataSource, new Date().toISOString().slice(0, 10));
+      await seedDemoScenario(db, new Date().toISOString().slice(0, 10));
     }
-    demoSignIns = await listDemoSignIns(dataSource);
+    demoSignIns = await listDemoSignIns(db);
   } else {
-    await ensureAdmin(dataSource, config.ADMIN_EMAIL!, config.ADMIN_PASSWORD!);
+    await ensureAdmin(db, config.ADMIN_EMAIL!, config.ADMIN_PASSWORD!);
   }
 
-  const dispatcher = new OutboxDispatcher(dataSource, smtpUrl, config.MAIL_FROM);
-  const releaseJob = new ReleaseJob(
-    dataSource,
-    new ReleasesService(dataSource, new PlanningService(dataSource), { appUrl: config.APP_URL }),
-  );
-  const lineRisk = new LineRiskService(dataSource);
-  const jobs = startJobs(dispatcher, releaseJob, () =>
-    alertFrozenWindowShortages(dataSource, lineRisk, config.APP_URL),
-  );
-  const app = createApp(dataSource, {
+  const appOptions = {
     jwtSecret: config.jwtSecret,
     jwtTtl: config.JWT_TTL,
     loginFailureLimit: config.LOGIN_RATE_LIMIT,
     fakeSmtp,
     clientDir,
     appUrl: config.APP_URL,
-  });
+  };
+  const services = createServices(db, appOptions);
+  const dispatcher = new OutboxDispatcher(db, smtpUrl, config.MAIL_FROM);
+  const releaseJob = new ReleaseJob(db, services.releases);
+  const jobs = startJobs(dispatcher, releaseJob, () =>
+    alertFrozenWindowShortages(db, services.lineRisk, config.APP_URL),
+  );
+  const app = createApp(db, appOptions, services);
   const server = app.listen(config.PORT, () => {
     console.log(`Cardloop is running on http://localhost:${config.PORT}`);
     console.log(
@@ -75,15 +71,15 @@ async function main(): Promise<void> {
     server.closeAllConnections();
     dispatcher.close();
     await fakeSmtp?.close();
-    await dataSource.destroy();
+    await db.close();
     process.exit(0);
   };
   process.on('SIGTERM', () => void shutdown('SIGTERM'));
   process.on('SIGINT', () => void shutdown('SIGINT'));
 }
 
-async function listDemoSignIns(dataSource: import('typeorm').DataSource): Promise<string[]> {
-  const rows: { email: string; role: string; supplier_code: string | null }[] = await dataSource.query(
+async function listDemoSignIns(db: Database): Promise<string[]> {
+  const rows: { email: string; role: string; supplier_code: string | null }[] = await db.manager.query(
     'SELECT email, role, supplier_code FROM "user" WHERE active = 1 ORDER BY CASE role WHEN \'supplier\' THEN 1 ELSE 0 END, id',
   );
   return rows.map((row) => `${row.role.padEnd(10)} ${row.email}${row.supplier_code ? `  (${row.supplier_code})` : ''}`);

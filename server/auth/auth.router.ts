@@ -1,18 +1,20 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { loginRequestSchema, loginResponseSchema, sessionUserSchema } from '../../shared/schemas/user';
-import { defineRoute } from '../http/route';
-import type { AuthService } from './auth.service';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 
 interface AuthRouterOptions {
-  authService: AuthService;
-  registry: OpenAPIRegistry;
   /** Failed sign-ins allowed per client address in a 15-minute window before 429. */
   loginFailureLimit: number;
 }
 
-export function createAuthRouter({ authService, registry, loginFailureLimit }: AuthRouterOptions): Router {
+export function createAuthRouter(
+  services: Services,
+  deps: RouteDeps,
+  { loginFailureLimit }: AuthRouterOptions,
+): Router {
+  const authService = services.auth;
   const router = Router();
   const loginLimiter = rateLimit({
     windowMs: 15 * 60 * 1000,
@@ -28,7 +30,7 @@ export function createAuthRouter({ authService, registry, loginFailureLimit }: A
   });
   router.use('/auth/login', loginLimiter);
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/auth/login',
     summary: 'Sign in with e-mail and password; returns a session token',
@@ -38,7 +40,7 @@ export function createAuthRouter({ authService, registry, loginFailureLimit }: A
     handler: ({ body }) => authService.login(body),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/auth/me',
     summary: 'The signed-in user',

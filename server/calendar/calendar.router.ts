@@ -1,14 +1,14 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { calendarSchema } from '../../shared/schemas/master-data';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { READ_ROLES } from '../http/roles';
-import type { CalendarService } from './calendar.service';
 
-export function createCalendarRouter(calendarService: CalendarService, registry: OpenAPIRegistry): Router {
+export function createCalendarRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const calendarService = services.calendar;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/calendar',
     summary: 'Working weekdays (ISO numbers, 1 = Monday) and holidays',
@@ -17,7 +17,7 @@ export function createCalendarRouter(calendarService: CalendarService, registry:
     handler: () => calendarService.get(),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'put',
     path: '/calendar',
     summary: 'Replace the plant calendar',

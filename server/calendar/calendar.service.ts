@@ -1,8 +1,10 @@
-import type { DataSource, EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import type { Calendar } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
-import { bumpPlanningVersion, readSetting, writeSetting } from '../settings/settings';
+import { readSetting, writeSetting } from '../settings/settings';
+import { bumpPlanningVersion } from '../settings/versions';
 import { HolidayEntity } from './holiday.entity';
+import type { Database } from '../db/database';
 
 const WORKING_WEEKDAYS = 'workingWeekdays';
 export const DEFAULT_WORKING_WEEKDAYS = [1, 2, 3, 4, 5];
@@ -30,14 +32,14 @@ export async function writeCalendar(manager: EntityManager, calendar: Calendar):
 }
 
 export class CalendarService {
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly db: Database) {}
 
   get(): Promise<Calendar> {
-    return readCalendar(this.dataSource.manager);
+    return readCalendar(this.db.manager);
   }
 
   update(calendar: Calendar, actorEmail: string): Promise<Calendar> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const before = await readCalendar(manager);
       const after = await writeCalendar(manager, calendar);
       await recordAudit(manager, {

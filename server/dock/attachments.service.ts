@@ -1,15 +1,15 @@
 import { randomBytes } from 'node:crypto';
 import { mkdir, rm, stat, writeFile } from 'node:fs/promises';
 import { basename, join, resolve, sep } from 'node:path';
-import type { DataSource } from 'typeorm';
 import type { AttachmentType, DockAttachment } from '../../shared/schemas/dock';
 import { recordAudit } from '../audit/audit.service';
 import { bumpDockVersion } from '../settings/versions';
 import { toDockAttachment } from './dock.service';
 import { NotFoundError, UnsupportedTypeError } from '../errors';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { ReleaseEntity } from '../releases/release.entity';
 import { AttachmentEntity } from './attachment.entity';
+import type { Database } from '../db/database';
 
 const EXTENSIONS: Record<AttachmentType, string> = {
   'image/jpeg': 'jpg',
@@ -57,7 +57,7 @@ export class AttachmentsService {
   private readonly root: string;
 
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     attachmentsDir: string,
   ) {
     this.root = resolve(attachmentsDir);
@@ -74,14 +74,14 @@ export class AttachmentsService {
         'Attach a photo (JPEG, PNG or WebP) or a PDF of the packing slip; this file is neither.',
       );
     }
-    const release = await this.dataSource.manager.findOneBy(ReleaseEntity, { id: releaseId });
+    const release = await this.db.manager.findOneBy(ReleaseEntity, { id: releaseId });
     if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
     const storagePath = `${release.id}/${randomBytes(16).toString('hex')}.${EXTENSIONS[type]}`;
     const absolutePath = this.locate(storagePath);
     await mkdir(join(this.root, String(release.id)), { recursive: true });
     await writeFile(absolutePath, file.buffer, { flag: 'wx' });
     try {
-      return await this.dataSource.transaction(async (manager) => {
+      return await this.db.write(async (manager) => {
         const attachment = await manager.save(
           manager.create(AttachmentEntity, {
             releaseId: release.id,
@@ -118,7 +118,7 @@ export class AttachmentsService {
 
   /** The attachment and its file on disk; 404 when either is gone. */
   async find(id: number): Promise<StoredAttachment> {
-    const attachment = await this.dataSource.manager.findOneBy(AttachmentEntity, { id });
+    const attachment = await this.db.manager.findOneBy(AttachmentEntity, { id });
     if (!attachment) throw new NotFoundError(`No attachment with id ${id}.`);
     const absolutePath = this.locate(attachment.storagePath);
     const onDisk = await stat(absolutePath).catch(() => null);

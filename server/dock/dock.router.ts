@@ -1,9 +1,6 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { createReadStream } from 'node:fs';
-import { dirname, join } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import {
   ATTACHMENT_MAX_BYTES,
@@ -14,11 +11,10 @@ import {
   dockItemSchema,
   moveDockItemRequestSchema,
 } from '../../shared/schemas/dock';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { READ_ROLES, RECEIVING_ROLES } from '../http/roles';
 import { ATTACHMENT_FIELD, receiveAttachmentFile } from './attachment-upload';
-import { AttachmentsService } from './attachments.service';
-import { DockService } from './dock.service';
 
 /** RFC 6266 inline disposition with an ASCII fallback name and the real one in RFC 8187 form. */
 function inlineDisposition(fileName: string): string {
@@ -26,21 +22,12 @@ function inlineDisposition(fileName: string): string {
   return `inline; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(fileName)}`;
 }
 
-/** Files live beside the database (`<its folder>/attachments`), or under data/ for an in-memory one. */
-function defaultAttachmentsDir(dataSource: DataSource): string {
-  const database = dataSource.options.database;
-  return typeof database === 'string' && database !== ':memory:'
-    ? join(dirname(database), 'attachments')
-    : join('data', 'attachments');
-}
-
 /** The receiving board and its packing slips; `attachmentsDir` is where the files are kept. */
-export function createDockRouter(dataSource: DataSource, registry: OpenAPIRegistry, attachmentsDir?: string): Router {
+export function createDockRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
-  const dock = new DockService(dataSource);
-  const attachments = new AttachmentsService(dataSource, attachmentsDir ?? defaultAttachmentsDir(dataSource));
+  const { dock, attachments } = services;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/dock',
     summary:
@@ -50,7 +37,7 @@ export function createDockRouter(dataSource: DataSource, registry: OpenAPIRegist
     handler: () => dock.list(),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'patch',
     path: '/dock/items/:id',
     summary:
@@ -62,7 +49,7 @@ export function createDockRouter(dataSource: DataSource, registry: OpenAPIRegist
     handler: ({ params, body, user }) => dock.move(params.id, body.column, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/dock/items/:id/attachments',
     summary:
@@ -78,7 +65,7 @@ export function createDockRouter(dataSource: DataSource, registry: OpenAPIRegist
     },
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/dock/attachments/:id',
     summary: 'The packing slip file itself, with its content type, shown inline',

@@ -1,4 +1,4 @@
-import { In, type DataSource, type EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import {
   DOCK_COLUMNS,
   DOCK_STATUSES,
@@ -11,7 +11,7 @@ import {
 import { recordAudit } from '../audit/audit.service';
 import { ConflictError, NotFoundError } from '../errors';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
 import { AttachmentEntity } from './attachment.entity';
@@ -19,6 +19,7 @@ import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { bumpDockVersion } from '../settings/versions';
+import type { Database } from '../db/database';
 
 /** Release states on the board whatever the day: everything still awaited at the dock. */
 const OPEN_STATUSES = DOCK_STATUSES.filter((status) => status !== 'received');
@@ -52,13 +53,13 @@ export function toDockAttachment(attachment: AttachmentEntity): DockAttachment {
 /** The receiving board: releases on their way in, one card each, and the moves between columns. */
 export class DockService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly now: () => Date = () => new Date(),
   ) {}
 
   /** Every open release, and those received today, ordered by column then need date. */
   async list(): Promise<DockItem[]> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     const now = this.now();
     const receivedToday: { releaseId: number }[] = await manager.query(
       `SELECT DISTINCT l.release_id AS releaseId FROM receipt r JOIN release_line l ON l.id = r.release_line_id
@@ -82,7 +83,7 @@ export class DockService {
   }
 
   /** One card of the board by release id; 404 when there is no such release or it is not on the dock. */
-  async item(releaseId: number, manager: EntityManager = this.dataSource.manager): Promise<DockItem> {
+  async item(releaseId: number, manager: EntityManager = this.db.manager): Promise<DockItem> {
     const release = await manager.findOneBy(ReleaseEntity, { id: releaseId });
     if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
     if (!isDockStatus(release.status))
@@ -96,7 +97,7 @@ export class DockService {
    * the dock), except out of `to_line` once everything is received: those goods are at the line.
    */
   move(releaseId: number, column: DockColumn, actor: AuthenticatedUser): Promise<DockItem> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const release = await manager.findOneBy(ReleaseEntity, { id: releaseId });
       if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
       if (!isDockStatus(release.status)) {

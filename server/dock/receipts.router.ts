@@ -1,6 +1,4 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
 import {
   IDEMPOTENCY_HEADER,
   idempotencyKeySchema,
@@ -8,9 +6,9 @@ import {
   receiptResponseSchema,
 } from '../../shared/schemas/receipts';
 import { BadRequestError } from '../errors';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { RECEIVING_ROLES } from '../http/roles';
-import { ReceiptsService } from './receipts.service';
 
 function readIdempotencyKey(header: string | undefined): string {
   const parsed = idempotencyKeySchema.safeParse(header ?? '');
@@ -20,11 +18,11 @@ function readIdempotencyKey(header: string | undefined): string {
 }
 
 /** Check-in of counted goods against release lines. */
-export function createReceiptsRouter(dataSource: DataSource, registry: OpenAPIRegistry): Router {
+export function createReceiptsRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
-  const service = new ReceiptsService(dataSource);
+  const service = services.receipts;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/receipts',
     summary:

@@ -1,4 +1,4 @@
-import { QueryFailedError, type DataSource, type EntityManager } from 'typeorm';
+import { QueryFailedError, type EntityManager } from 'typeorm';
 import { canTransition, isCardState } from '../../shared/domain/card-cycle';
 import { QTY_EPSILON, roundQty } from '../../shared/domain/quantity';
 import { RECEIVABLE_STATUSES, type DockStatus } from '../../shared/schemas/dock';
@@ -14,12 +14,13 @@ import { bumpDockVersion } from '../settings/versions';
 import { ConflictError, NotFoundError } from '../errors';
 import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
-import { bumpPlanningVersion } from '../settings/settings';
+import { bumpPlanningVersion } from '../settings/versions';
 import { ReceiptEntity } from './receipt.entity';
+import type { Database } from '../db/database';
 
 /** A receipt's body, and whether this request created it (201) or replayed an earlier one (200). */
 export interface ReceiveOutcome {
@@ -80,21 +81,21 @@ function sameRequest(entity: ReceiptEntity, request: ReceiptRequest): boolean {
  * Idempotency-Key — a double tap, a retry after a lost answer and a race all count once.
  */
 export class ReceiptsService {
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly db: Database) {}
 
   async receive(request: ReceiptRequest, idempotencyKey: string, actor: AuthenticatedUser): Promise<ReceiveOutcome> {
     // Transactions run one at a time (see serialiseTransactions), so the look-up of the key and
     // the insert cannot interleave with a twin request in this process; the unique index covers
     // another instance.
     try {
-      return await this.dataSource.transaction(async (manager) => {
+      return await this.db.write(async (manager) => {
         const earlier = await this.replay(manager, idempotencyKey, request);
         if (earlier) return earlier;
         return { created: true, body: await this.record(manager, request, idempotencyKey, actor) };
       });
     } catch (error) {
       if (!isUniqueViolation(error)) throw error;
-      const first = await this.replay(this.dataSource.manager, idempotencyKey, request);
+      const first = await this.replay(this.db.manager, idempotencyKey, request);
       if (first) return first;
       throw error;
     }

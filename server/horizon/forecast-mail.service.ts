@@ -1,22 +1,22 @@
-import type { DataSource } from 'typeorm';
 import type { ForecastMailRequest, ForecastMailResponse } from '../../shared/schemas/planning';
 import { recordAudit } from '../audit/audit.service';
 import { NotFoundError } from '../errors';
 import { enqueueMail } from '../outbox/outbox.service';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { demandToCsv } from './horizon-csv';
 import type { PlanningService } from '../planning/planning.service';
+import type { Database } from '../db/database';
 
 /** Sends a supplier its gross demand ahead as a CSV attachment, through the outbox. */
 export class ForecastMailService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly planning: PlanningService,
   ) {}
 
   async send(request: ForecastMailRequest, actor: AuthenticatedUser): Promise<ForecastMailResponse> {
-    const supplier = await this.dataSource.getRepository(SupplierEntity).findOneBy({ code: request.supplier });
+    const supplier = await this.db.manager.getRepository(SupplierEntity).findOneBy({ code: request.supplier });
     if (!supplier) throw new NotFoundError(`No supplier ${request.supplier}.`);
     const demand = await this.planning.demand({ from: request.from, to: request.to, supplierCode: supplier.code });
     const from = demand.days[0] ?? request.from ?? '';
@@ -34,7 +34,7 @@ export class ForecastMailService {
       '',
       `Sent by ${actor.name} (${actor.email}) from Cardloop.`,
     ].join('\n');
-    await this.dataSource.transaction(async (manager) => {
+    await this.db.write(async (manager) => {
       await enqueueMail(manager, {
         to: supplier.email,
         subject,

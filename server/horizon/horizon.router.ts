@@ -1,4 +1,3 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import {
   demandQuerySchema,
@@ -8,20 +7,16 @@ import {
   planQuerySchema,
   planResponseSchema,
 } from '../../shared/schemas/planning';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
-import type { ForecastMailService } from './forecast-mail.service';
 import { demandToCsv, planToCsv } from './horizon-csv';
-import type { PlanningService } from '../planning/planning.service';
 
-export function createPlanningRouter(
-  planning: PlanningService,
-  forecastMail: ForecastMailService,
-  registry: OpenAPIRegistry,
-): Router {
+export function createHorizonRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const { planning, forecastMail } = services;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/plan',
     summary: 'Gross-to-net buckets of one part, one per working day from `from` to `to` (JSON, or CSV with format=csv)',
@@ -40,7 +35,7 @@ export function createPlanningRouter(
     },
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/demand',
     summary: 'Gross demand of bought parts per working day (JSON, or CSV with format=csv)',
@@ -57,7 +52,7 @@ export function createPlanningRouter(
     },
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/demand/forecast-mail',
     summary: 'E-mail a supplier its gross demand ahead, with the CSV attached (queued in the outbox)',

@@ -4,7 +4,8 @@ import { z, type ZodType } from 'zod';
 import type { Role } from '../../shared/schemas/user';
 import { errorBodySchema } from '../../shared/schemas/error';
 import { ForbiddenError, UnauthorizedError } from '../errors';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { Database } from '../db/database';
+import type { AuthenticatedUser } from './request-user';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
@@ -20,6 +21,24 @@ interface RouteContext<B, Q, P> {
   res: Response;
 }
 
+/** What every router needs: the OpenAPI registry routes document themselves in, and the database. */
+export interface RouteDeps {
+  registry: OpenAPIRegistry;
+  db: Database;
+}
+
+/**
+ * A reply whose status (or headers) the handler decides, e.g. 201 for a new receipt and 200 for a
+ * replayed one. Returned, never written: the response leaves only after the unit of work committed.
+ */
+export class Reply {
+  constructor(
+    readonly status: number,
+    readonly body: unknown,
+    readonly headers: Record<string, string> = {},
+  ) {}
+}
+
 interface RouteSpec<B, Q, P> {
   method: Method;
   path: string;
@@ -33,7 +52,12 @@ interface RouteSpec<B, Q, P> {
   status?: number;
   /** Extra documented content types of the success response (e.g. text/csv). */
   produces?: string[];
-  /** Returns the body to send as JSON; return undefined after writing `res` yourself. */
+  /**
+   * A GET runs in one read snapshot of committed data unless it says `none` (an event stream, which
+   * must not hold a snapshot open for hours). Other methods write through the services' write units.
+   */
+  unit?: 'snapshot' | 'none';
+  /** Returns the body to send as JSON (or a Reply); return undefined after writing `res` yourself. */
   handler: (context: RouteContext<B, Q, P>) => unknown | Promise<unknown>;
 }
 
@@ -45,10 +69,11 @@ const errorResponse = (description: string) => ({
 /** Declares one API route: validates input with zod, enforces the role rule, documents it in OpenAPI. */
 export function defineRoute<B = undefined, Q = undefined, P = undefined>(
   router: Router,
-  registry: OpenAPIRegistry,
+  { registry, db }: RouteDeps,
   spec: RouteSpec<B, Q, P>,
 ): void {
   registry.registerPath(describeRoute(spec));
+  const inSnapshot = spec.method === 'get' && spec.unit !== 'none';
   router[spec.method](spec.path, async (req, res) => {
     const user = authorise(req, spec.access);
     const context: RouteContext<B, Q, P> = {
@@ -59,8 +84,13 @@ export function defineRoute<B = undefined, Q = undefined, P = undefined>(
       req,
       res,
     };
-    const result = await spec.handler(context);
-    if (result !== undefined && !res.headersSent) res.status(spec.status ?? 200).json(result);
+    const result = inSnapshot ? await db.read(async () => spec.handler(context)) : await spec.handler(context);
+    if (result === undefined || res.headersSent) return;
+    if (result instanceof Reply) {
+      res.status(result.status).set(result.headers).json(result.body);
+    } else {
+      res.status(spec.status ?? 200).json(result);
+    }
   });
 }
 

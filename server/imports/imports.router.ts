@@ -1,8 +1,6 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import {
   IMPORT_LAYOUTS,
@@ -12,9 +10,9 @@ import {
   type ImportKind,
 } from '../../shared/schemas/imports';
 import type { Role } from '../../shared/schemas/user';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES, SEQUENCE_ROLES } from '../http/roles';
-import { ImportsService } from './imports.service';
 import { FILE_FIELD, receiveCsvFile } from './upload';
 
 const TEMPLATE_DIR = fileURLToPath(new URL('../../seed/templates/', import.meta.url));
@@ -36,16 +34,13 @@ const NOTES: Record<ImportKind, string> = {
   'on-hand': 'sets the on-hand count of existing parts',
 };
 
-/** CSV import routes and their templates; `service` may be replaced, e.g. to pin today's date. */
-export function createImportsRouter(
-  dataSource: DataSource,
-  registry: OpenAPIRegistry,
-  service = new ImportsService(dataSource),
-): Router {
+/** CSV import routes and their templates. */
+export function createImportsRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const service = services.imports;
 
   for (const kind of importKindSchema.options) {
-    defineRoute(router, registry, {
+    defineRoute(router, deps, {
       method: 'post',
       path: `/imports/${kind}`,
       summary:
@@ -61,7 +56,7 @@ export function createImportsRouter(
     });
   }
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/imports/templates/:kind',
     summary: 'A CSV template with the header and example rows of one import kind',

@@ -1,4 +1,4 @@
-import type { DataSource, EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import type { IsoDate } from '../../shared/domain/types';
 import { IMPORT_LAYOUTS, type ImportKind, type ImportResult } from '../../shared/schemas/imports';
 import type { Part, Supplier } from '../../shared/schemas/master-data';
@@ -13,6 +13,7 @@ import {
   upsertSequenceEntries,
   upsertSuppliers,
 } from '../master-data/master-data.writer';
+import { syncLoops } from '../loops/loop-sync';
 import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
@@ -24,6 +25,7 @@ import { checkOnHandRows } from './on-hand-rows';
 import { checkPartRows } from './part-rows';
 import { checkScheduleRows } from './schedule-rows';
 import { checkSupplierRows } from './supplier-rows';
+import type { Database } from '../db/database';
 
 type Importer = (manager: EntityManager, table: CsvTable, today: IsoDate) => Promise<number>;
 
@@ -61,6 +63,8 @@ const IMPORTERS: Record<ImportKind, Importer> = {
     const checked = checkPartRows(table, await suppliersByCode(manager), parts);
     rejectOnProblems(checked.problems);
     await upsertParts(manager, checked.parts);
+    // A part that became a kanban part gets its loop at once.
+    await syncLoops(manager);
     return checked.parts.length;
   },
   bom: async (manager, table) => {
@@ -101,14 +105,14 @@ export interface ImportUpload {
 /** CSV imports: every row checked, then all written in one transaction or nothing at all. */
 export class ImportsService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly today: () => IsoDate = plantToday,
   ) {}
 
   async import(upload: ImportUpload): Promise<ImportResult> {
     const table = readCsvTable(upload.file, IMPORT_LAYOUTS[upload.kind]);
     if (table.records.length === 0 && table.problems.length === 0) return { imported: 0 };
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const imported = await IMPORTERS[upload.kind](manager, table, this.today());
       await recordAudit(manager, {
         actorEmail: upload.actorEmail,

@@ -1,4 +1,4 @@
-import type { DataSource } from 'typeorm';
+import type { Database } from '../db/database';
 import type { ShortageDto } from '../../shared/schemas/line-risk';
 import { recordAudit } from '../audit/audit.service';
 import { enqueueMail } from '../outbox/outbox.service';
@@ -44,12 +44,12 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
  * part numbers newly reported.
  */
 export async function alertFrozenWindowShortages(
-  dataSource: DataSource,
+  db: Database,
   lineRisk: LineRiskService,
   appUrl: string,
 ): Promise<string[]> {
   const inWindow = (await lineRisk.shortages()).filter((shortage) => shortage.inFrozenWindow);
-  return dataSource.transaction(async (manager) => {
+  return db.write(async (manager) => {
     const alerted = await readSetting<Record<string, string>>(manager, ALERTED, {});
     const fresh = inWindow.filter((shortage) => alerted[shortage.partNumber] !== shortage.firstShortDate);
     const stillAlerted = Object.fromEntries(inWindow.map((shortage) => [shortage.partNumber, shortage.firstShortDate]));

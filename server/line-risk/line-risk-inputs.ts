@@ -40,15 +40,13 @@ interface DetailRow {
   supplierName: string | null;
 }
 
-/** Reads the plan inputs, the firm receipts and the part details in one consistent snapshot. */
+/** Reads the plan inputs, the firm receipts and the part details; the caller runs it in one snapshot. */
 export async function loadLineRiskInputs(manager: EntityManager): Promise<LineRiskInputs> {
-  return manager.transaction(async (work) => {
-    const inputs = await loadPlanInputs(work);
-    const firmReceipts: ScheduledReceipt[] = await work.query(FIRM_LINES_SQL);
-    const rows: DetailRow[] = await work.query(DETAILS_SQL);
-    const details = new Map(
-      rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]),
-    );
-    return { ...inputs, firmReceipts, details };
-  });
+  const inputs = await loadPlanInputs(manager);
+  const firmReceipts: ScheduledReceipt[] = await manager.query(FIRM_LINES_SQL);
+  const rows: DetailRow[] = await manager.query(DETAILS_SQL);
+  const details = new Map(
+    rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]),
+  );
+  return { ...inputs, firmReceipts, details };
 }

@@ -1,20 +1,15 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
 import { lineRiskQuerySchema, lineRiskReportSchema, shortagesResponseSchema } from '../../shared/schemas/line-risk';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { READ_ROLES } from '../http/roles';
-import { LineRiskService } from './line-risk.service';
 
 /** Line risk: the published shortage list and the planner's full report over one horizon. */
-export function createLineRiskRouter(
-  dataSource: DataSource,
-  registry: OpenAPIRegistry,
-  service = new LineRiskService(dataSource),
-): Router {
+export function createLineRiskRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const service = services.lineRisk;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/shortages',
     summary:
@@ -25,7 +20,7 @@ export function createLineRiskRouter(
     handler: ({ query }) => service.shortages(query.from, query.to),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/line-risk',
     summary: 'Line risk report: units at risk with what each lacks, short parts, frozen window and rescues',

@@ -1,4 +1,3 @@
-import type { DataSource } from 'typeorm';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import { BomCycleError } from '../../shared/domain/bom';
 import { toDayNumber } from '../../shared/domain/date';
@@ -8,8 +7,9 @@ import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk
 import { BadRequestError, ConflictError } from '../errors';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { readSequenceSettings } from '../sequence/sequence-settings';
-import { readPlanningVersion } from '../settings/settings';
+import { readPlanningVersion } from '../settings/versions';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
+import type { Database } from '../db/database';
 
 const MAX_CACHED_REPORTS = 8;
 
@@ -24,7 +24,7 @@ export class LineRiskService {
   private readonly reports = new Map<string, LineRiskReport>();
 
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly today: () => string = plantToday,
   ) {}
 
@@ -38,7 +38,7 @@ export class LineRiskService {
       ]);
     }
     const today = this.today();
-    const { frozenWindowDays } = await readSequenceSettings(this.dataSource.manager);
+    const { frozenWindowDays } = await readSequenceSettings(this.db.manager);
     const key = `${horizon.from}|${horizon.to}|${today}|${frozenWindowDays}`;
     let report = this.reports.get(key);
     if (!report) {
@@ -54,12 +54,24 @@ export class LineRiskService {
     return (await this.report(from, to)).shortages;
   }
 
+  /**
+   * The inputs at the current planning version, read once per version and shared. Inside a write
+   * unit they may hold uncommitted changes, so they are read for that unit alone, never cached.
+   */
   private async currentInputs(): Promise<LineRiskInputs> {
-    const version = await readPlanningVersion(this.dataSource.manager);
+    if (this.db.inWriteUnit) return loadLineRiskInputs(this.db.manager);
+    const version = await readPlanningVersion(this.db.manager);
     if (version !== this.version || !this.inputs) {
       this.version = version;
       this.reports.clear();
-      this.inputs = loadLineRiskInputs(this.dataSource.manager);
+      const loading = this.db.read(async (manager) => ({
+        version: await readPlanningVersion(manager),
+        inputs: await loadLineRiskInputs(manager),
+      }));
+      this.inputs = loading.then((loaded) => {
+        this.version = loaded.version;
+        return loaded.inputs;
+      });
       this.inputs.catch(() => {
         this.inputs = null;
       });

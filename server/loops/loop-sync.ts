@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import type { LoopKind } from '../../shared/schemas/kanban-loops';
 import { recordAudit } from '../audit/audit.service';
 import { PartEntity } from '../master-data/part.entity';
@@ -6,6 +6,7 @@ import { KanbanLoopEntity } from './kanban-loop.entity';
 
 export const DEFAULT_SAFETY_FACTOR = 0.1;
 export const DEFAULT_SIZING_WINDOW_DAYS = 20;
+const INSERT_CHUNK = 200;
 
 /** Bought parts circulate cards to their supplier; made parts to the in-house supermarket. */
 export function loopKindOf(source: string): LoopKind {
@@ -27,13 +28,15 @@ export async function syncLoops(manager: EntityManager): Promise<{ created: stri
   const loopByPart = new Map(loops.map((loop) => [loop.partNumber, loop]));
 
   const missing = parts.filter((part) => !loopByPart.has(part.partNumber));
-  if (missing.length > 0) {
+  // In chunks, and without reading generated ids back: thousands of new kanban parts at once would
+  // otherwise exceed SQLite's limits on variables and expression depth.
+  for (let start = 0; start < missing.length; start += INSERT_CHUNK) {
     await manager
       .createQueryBuilder()
       .insert()
       .into(KanbanLoopEntity)
       .values(
-        missing.map((part) => ({
+        missing.slice(start, start + INSERT_CHUNK).map((part) => ({
           partNumber: part.partNumber,
           kind: loopKindOf(part.source),
           containerQty: part.packQty,
@@ -44,7 +47,10 @@ export async function syncLoops(manager: EntityManager): Promise<{ created: stri
         })),
       )
       .orIgnore()
+      .updateEntity(false)
       .execute();
+  }
+  if (missing.length > 0) {
     await recordAudit(manager, {
       actorEmail: null,
       action: 'create',
@@ -54,10 +60,15 @@ export async function syncLoops(manager: EntityManager): Promise<{ created: stri
     });
   }
 
-  for (const part of parts) {
-    const loop = loopByPart.get(part.partNumber);
-    const kind = loopKindOf(part.source);
-    if (loop && loop.kind !== kind) await manager.update(KanbanLoopEntity, { id: loop.id }, { kind });
+  for (const kind of ['supplier', 'supermarket'] as const) {
+    const ids = parts
+      .filter((part) => loopKindOf(part.source) === kind)
+      .map((part) => loopByPart.get(part.partNumber))
+      .filter((loop) => loop !== undefined && loop.kind !== kind)
+      .map((loop) => loop!.id);
+    for (let start = 0; start < ids.length; start += INSERT_CHUNK) {
+      await manager.update(KanbanLoopEntity, { id: In(ids.slice(start, start + INSERT_CHUNK)) }, { kind });
+    }
   }
   return { created: missing.map((part) => part.partNumber) };
 }

@@ -1,6 +1,4 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import type { Role } from '../../shared/schemas/user';
 import { kanbanSizeRequestSchema, kanbanSizeResponseSchema } from '../../shared/schemas/kanban';
@@ -19,24 +17,19 @@ import {
   kanbanLoopsQuerySchema,
   updateKanbanLoopRequestSchema,
 } from '../../shared/schemas/kanban-loops';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
-import type { PlanningService } from '../planning/planning.service';
-import { KanbanService } from './loops.service';
 
 /** Loops are the buyer's; cards are scanned wherever they travel — at the line, the desk and the dock. */
 const SCAN_ROLES: readonly Role[] = ['admin', 'buyer', 'planner', 'receiving'];
 
-/** Kanban routes over the app's one PlanningService, so loop sizing shares the cached plan. */
-export function createKanbanRouter(
-  dataSource: DataSource,
-  planning: PlanningService,
-  registry: OpenAPIRegistry,
-): Router {
+/** Kanban loops, cards and scans (published under /api/kanban). */
+export function createLoopsRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
-  const service = new KanbanService(dataSource, planning);
+  const service = services.loops;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/kanban/size',
     summary: 'Card count N = ⌈(D · (T · (1 + α) + safety days) + safety units) / C⌉ for the numbers given',
@@ -46,7 +39,7 @@ export function createKanbanRouter(
     handler: ({ body }) => service.size(body),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/kanban/loops',
     summary: 'Kanban loops with demand, replenishment time, recommended and active cards',
@@ -56,7 +49,7 @@ export function createKanbanRouter(
     handler: ({ query }) => service.listLoops({ supplierCode: query.supplier }),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/kanban/loops/:id',
     summary: 'One kanban loop',
@@ -66,7 +59,7 @@ export function createKanbanRouter(
     handler: ({ params }) => service.getLoop(params.id),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'patch',
     path: '/kanban/loops/:id',
     summary: 'Change a loop’s container quantity, safety allowance or sizing window',
@@ -77,7 +70,7 @@ export function createKanbanRouter(
     handler: ({ params, body, user }) => service.updateLoop(params.id, body, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/kanban/loops/:id/accept',
     summary: 'Add or pull cards so that active cards equal the recommendation',
@@ -88,7 +81,7 @@ export function createKanbanRouter(
     handler: ({ params, body, user }) => service.acceptLoop(params.id, body, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/kanban/loops/:id/cards',
     summary: 'Cards of a loop, pulled ones included, each with its latest scans',
@@ -98,7 +91,7 @@ export function createKanbanRouter(
     handler: ({ params }) => service.listCards(params.id),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/kanban/loops/:id/labels',
     summary: 'Everything a print view shows per card label, with the QR code as SVG',
@@ -109,7 +102,7 @@ export function createKanbanRouter(
     handler: ({ params, query }) => service.labels(params.id, query.cards),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/kanban/loops/:id/labels.pdf',
     summary: 'Printable card labels, eight to an A4 page',
@@ -124,7 +117,7 @@ export function createKanbanRouter(
     },
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/kanban/cards/:cardNumber',
     summary: 'One card by its number, with its whole scan log',
@@ -134,7 +127,7 @@ export function createKanbanRouter(
     handler: ({ params }) => service.getCard(params.cardNumber),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/kanban/scans',
     summary: 'Record a card scan: the card moves one step of full → empty → ordered → shipped → full',

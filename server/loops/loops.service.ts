@@ -1,4 +1,4 @@
-import { In, type DataSource, type EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import { addWorkingDays } from '../../shared/domain/calendar';
 import { MAX_CARD_INDEX, cardNumber } from '../../shared/domain/gs1';
 import { KanbanInputError, sizeKanban, type KanbanSizing } from '../../shared/domain/kanban-sizing';
@@ -21,11 +21,10 @@ import type {
 } from '../../shared/schemas/kanban-loops';
 import { recordAudit } from '../audit/audit.service';
 import { ConflictError, InvalidInputError, NotFoundError } from '../errors';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
 import { DEFAULT_HORIZON_WORKING_DAYS } from '../planning/plan-dates';
 import type { PlanningService } from '../planning/planning.service';
-import { readPlanningVersion } from '../settings/settings';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { renderCardLabelsPdf } from './card-labels-pdf';
 import { withQrSvg, type CardLabelContent } from './card-labels';
@@ -34,9 +33,7 @@ import { CardScanEntity } from './card-scan.entity';
 import { KanbanCardEntity } from './kanban-card.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';
 import { sizeLoop } from './loop-sizing';
-import { syncLoops } from './loop-sync';
-
-export { syncLoops };
+import type { Database } from '../db/database';
 
 /** Scans shown beside each card in a loop's card list; the card's own page has them all. */
 export const RECENT_SCANS_PER_CARD = 20;
@@ -80,12 +77,9 @@ function toKanbanCard(card: KanbanCardEntity, partNumber: string): KanbanCard {
 }
 
 /** Loops, their sizing against the cached plan, card circulation and scans, and card labels. */
-export class KanbanService {
-  private syncedVersion = -1;
-  private syncing: Promise<void> | null = null;
-
+export class LoopsService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly planning: PlanningService,
   ) {}
 
@@ -101,8 +95,7 @@ export class KanbanService {
   }
 
   async listLoops(options: { supplierCode?: string } = {}): Promise<KanbanLoop[]> {
-    await this.ensureLoopsSynced();
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     if (options.supplierCode && !(await manager.existsBy(SupplierEntity, { code: options.supplierCode }))) {
       throw new NotFoundError(`No supplier ${options.supplierCode}.`);
     }
@@ -116,12 +109,12 @@ export class KanbanService {
   }
 
   async getLoop(id: number): Promise<KanbanLoop> {
-    const loop = await this.findLoop(this.dataSource.manager, id);
-    return (await this.describeLoops(this.dataSource.manager, [loop], true))[0];
+    const loop = await this.findLoop(this.db.manager, id);
+    return (await this.describeLoops(this.db.manager, [loop], true))[0];
   }
 
   async updateLoop(id: number, patch: UpdateKanbanLoopRequest, actor: AuthenticatedUser): Promise<KanbanLoop> {
-    await this.dataSource.transaction(async (manager) => {
+    await this.db.write(async (manager) => {
       const loop = await this.findLoop(manager, id);
       const before: Record<string, number> = {};
       const after: Record<string, number> = {};
@@ -164,7 +157,7 @@ export class KanbanService {
         [{ expectedRecommended: request.expectedRecommended, recommendedCards: target }],
       );
     }
-    const outcome = await this.dataSource.transaction(async (manager) => {
+    const outcome = await this.db.write(async (manager) => {
       const cards = await manager.find(KanbanCardEntity, { where: { loopId: id }, order: { cardIndex: 'ASC' } });
       const active = cards.filter((card) => card.retiredAt === null);
       const added: string[] = [];
@@ -206,7 +199,7 @@ export class KanbanService {
   }
 
   async listCards(loopId: number): Promise<KanbanCardWithScans[]> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     const loop = await this.findLoop(manager, loopId);
     const cards = await manager.find(KanbanCardEntity, { where: { loopId }, order: { cardIndex: 'ASC' } });
     const scans = await this.recentScans(
@@ -217,7 +210,7 @@ export class KanbanService {
   }
 
   async getCard(typedNumber: string): Promise<KanbanCardDetail> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     const card = await findCard(manager, readCardNumber(typedNumber));
     const loop = await this.findLoop(manager, card.loopId);
     const part = await manager.findOneBy(PartEntity, { partNumber: loop.partNumber });
@@ -235,7 +228,7 @@ export class KanbanService {
   /** One scan: the card moves one step of its cycle and the scan log gains a row, together. */
   async scan(request: CardScanRequest, actor: AuthenticatedUser): Promise<CardScanResponse> {
     const number = readCardNumber(request.cardNumber);
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const card = await findCard(manager, number);
       assertInCirculation(card);
       const event = request.event ?? defaultEvent(card);
@@ -250,14 +243,14 @@ export class KanbanService {
   }
 
   async labelsPdf(loopId: number, which: 'all' | 'active'): Promise<{ fileName: string; pdf: Buffer }> {
-    const loop = await this.findLoop(this.dataSource.manager, loopId);
+    const loop = await this.findLoop(this.db.manager, loopId);
     const labels = await this.labelContents(loopId, which);
     const pdf = await renderCardLabelsPdf(labels, `Kanban cards ${loop.partNumber}`);
     return { fileName: `kanban-cards-${loop.partNumber.replace(/[^A-Za-z0-9._-]/g, '_')}.pdf`, pdf };
   }
 
   private async labelContents(loopId: number, which: 'all' | 'active'): Promise<CardLabelContent[]> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     const loop = await this.findLoop(manager, loopId);
     const part = await manager.findOneBy(PartEntity, { partNumber: loop.partNumber });
     const supplier = part?.supplierCode ? await manager.findOneBy(SupplierEntity, { code: part.supplierCode }) : null;
@@ -315,21 +308,6 @@ export class KanbanService {
     const loop = await manager.findOneBy(KanbanLoopEntity, { id });
     if (!loop) throw new NotFoundError(`No kanban loop ${id}.`);
     return loop;
-  }
-
-  /** Loops appear for new kanban parts on the first read after master data changed. */
-  private async ensureLoopsSynced(): Promise<void> {
-    const version = await readPlanningVersion(this.dataSource.manager);
-    if (version === this.syncedVersion) return;
-    this.syncing ??= this.dataSource
-      .transaction((manager) => syncLoops(manager))
-      .then(() => {
-        this.syncedVersion = version;
-      })
-      .finally(() => {
-        this.syncing = null;
-      });
-    await this.syncing;
   }
 
   /**

@@ -1,15 +1,15 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { z } from 'zod';
 import { PART_SOURCES, partSchema, supplierSchema } from '../../shared/schemas/master-data';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { READ_ROLES } from '../http/roles';
-import type { MasterDataService } from './master-data.service';
 
-export function createMasterDataRouter(service: MasterDataService, registry: OpenAPIRegistry): Router {
+export function createMasterDataRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const service = services.masterData;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/suppliers',
     summary: 'Suppliers (a supplier account sees only its own)',
@@ -18,7 +18,7 @@ export function createMasterDataRouter(service: MasterDataService, registry: Ope
     handler: ({ user }) => service.listSuppliers(user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/parts',
     summary: 'Parts, optionally of one supplier or source',

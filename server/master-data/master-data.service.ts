@@ -1,8 +1,8 @@
-import type { DataSource } from 'typeorm';
 import type { Part, Supplier } from '../../shared/schemas/master-data';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from './part.entity';
 import { SupplierEntity } from './supplier.entity';
+import type { Database } from '../db/database';
 
 function toSupplier(entity: SupplierEntity): Supplier {
   const { id: _id, ...supplier } = entity;
@@ -16,16 +16,16 @@ function toPart(entity: PartEntity): Part {
 
 /** Read side of suppliers and parts; a supplier account only ever sees its own. */
 export class MasterDataService {
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly db: Database) {}
 
   async listSuppliers(viewer: AuthenticatedUser): Promise<Supplier[]> {
     const where = viewer.role === 'supplier' ? { code: viewer.supplierCode ?? '' } : {};
-    const suppliers = await this.dataSource.getRepository(SupplierEntity).find({ where, order: { code: 'ASC' } });
+    const suppliers = await this.db.manager.getRepository(SupplierEntity).find({ where, order: { code: 'ASC' } });
     return suppliers.map(toSupplier);
   }
 
   async listParts(filter: { supplierCode?: string; source?: string }): Promise<Part[]> {
-    const parts = await this.dataSource.getRepository(PartEntity).find({
+    const parts = await this.db.manager.getRepository(PartEntity).find({
       where: {
         ...(filter.supplierCode && { supplierCode: filter.supplierCode }),
         ...(filter.source && { source: filter.source }),

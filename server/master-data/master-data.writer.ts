@@ -3,7 +3,7 @@ import type { BomLine, Part, SequenceEntry, Supplier } from '../../shared/schema
 import { BomLineEntity } from './bom-line.entity';
 import { PartEntity } from './part.entity';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
-import { bumpPlanningVersion } from '../settings/settings';
+import { bumpPlanningVersion } from '../settings/versions';
 import { SupplierEntity } from './supplier.entity';
 
 // Writers take rows that are already validated (schemas and references) and run inside the

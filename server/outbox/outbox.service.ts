@@ -1,6 +1,8 @@
 import nodemailer, { type Transporter } from 'nodemailer';
-import { LessThanOrEqual, type DataSource, type EntityManager } from 'typeorm';
+import { LessThanOrEqual, type EntityManager } from 'typeorm';
+import type { OutboxMessage } from '../../shared/schemas/mail';
 import { OutboxMessageEntity } from './outbox-message.entity';
+import type { Database } from '../db/database';
 
 export interface OutgoingMail {
   to: string;
@@ -34,13 +36,33 @@ export async function enqueueMail(manager: EntityManager, mail: OutgoingMail): P
   });
 }
 
+/** The admin's view of the outbox. */
+export class OutboxService {
+  constructor(private readonly db: Database) {}
+
+  /** The newest 200 notices and their delivery state. */
+  async list(): Promise<OutboxMessage[]> {
+    const rows = await this.db.manager.find(OutboxMessageEntity, { order: { id: 'DESC' }, take: 200 });
+    return rows.map((row) => ({
+      id: row.id,
+      to: row.to,
+      subject: row.subject,
+      status: row.status as OutboxMessage['status'],
+      attempts: row.attempts,
+      lastError: row.lastError,
+      createdAt: row.createdAt,
+      sentAt: row.sentAt,
+    }));
+  }
+}
+
 /** Hands pending outbox messages to the SMTP server, retrying with backoff while it is down. */
 export class OutboxDispatcher {
   private readonly transport: Transporter;
   private running = false;
 
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     smtpUrl: string,
     private readonly from: string,
   ) {
@@ -52,8 +74,7 @@ export class OutboxDispatcher {
     if (this.running) return 0;
     this.running = true;
     try {
-      const repository = this.dataSource.getRepository(OutboxMessageEntity);
-      const due = await repository.find({
+      const due = await this.db.manager.find(OutboxMessageEntity, {
         where: { status: 'pending', nextAttemptAt: LessThanOrEqual(now.toISOString()) },
         order: { id: 'ASC' },
         take: BATCH,
@@ -69,20 +90,24 @@ export class OutboxDispatcher {
             html: message.html ?? undefined,
             attachments: message.attachments ?? undefined,
           });
-          await repository.update(message.id, {
-            status: 'sent',
-            sentAt: new Date().toISOString(),
-            attempts: message.attempts + 1,
-          });
+          await this.db.write((manager) =>
+            manager.update(OutboxMessageEntity, message.id, {
+              status: 'sent',
+              sentAt: new Date().toISOString(),
+              attempts: message.attempts + 1,
+            }),
+          );
           sent += 1;
         } catch (error) {
           const attempts = message.attempts + 1;
-          await repository.update(message.id, {
-            attempts,
-            lastError: error instanceof Error ? error.message : String(error),
-            status: attempts >= MAX_ATTEMPTS ? 'failed' : 'pending',
-            nextAttemptAt: new Date(now.getTime() + retryDelayMs(attempts)).toISOString(),
-          });
+          await this.db.write((manager) =>
+            manager.update(OutboxMessageEntity, message.id, {
+              attempts,
+              lastError: error instanceof Error ? error.message : String(error),
+              status: attempts >= MAX_ATTEMPTS ? 'failed' : 'pending',
+              nextAttemptAt: new Date(now.getTime() + retryDelayMs(attempts)).toISOString(),
+            }),
+          );
         }
       }
       return sent;

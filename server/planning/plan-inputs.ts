@@ -42,15 +42,12 @@ const OPEN_LINES_SQL = `SELECT l.part_number AS partNumber, l.need_date AS date,
   FROM release_line l JOIN release r ON r.id = l.release_id
   WHERE l.closed = 0 AND ${EXPECTED_QTY} > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-/** Reads everything the engine needs in one consistent snapshot. */
+/** Reads everything the engine needs; the caller runs it in one snapshot (a unit of work). */
 export async function loadPlanInputs(manager: EntityManager): Promise<PlanInputs> {
-  const read = async (work: EntityManager) => {
-    const parts: PartRow[] = await work.query(PARTS_SQL);
-    const bom: PlanningBomLine[] = await work.query(BOM_SQL);
-    const sequence: SequenceSlot[] = await work.query(SEQUENCE_SQL);
-    const scheduledReceipts: ScheduledReceipt[] = await work.query(OPEN_LINES_SQL);
-    const calendar = await readCalendar(work);
-    return { parts, bom, sequence, scheduledReceipts, calendar };
-  };
-  return manager.queryRunner?.isTransactionActive ? read(manager) : manager.transaction(read);
+  const parts: PartRow[] = await manager.query(PARTS_SQL);
+  const bom: PlanningBomLine[] = await manager.query(BOM_SQL);
+  const sequence: SequenceSlot[] = await manager.query(SEQUENCE_SQL);
+  const scheduledReceipts: ScheduledReceipt[] = await manager.query(OPEN_LINES_SQL);
+  const calendar = await readCalendar(manager);
+  return { parts, bom, sequence, scheduledReceipts, calendar };
 }

@@ -1,12 +1,12 @@
-import type { DataSource } from 'typeorm';
 import { BomCycleError, computePlan, grossDemandByDay, PlanInputError } from '../../shared/domain/plan';
 import type { PlanResult } from '../../shared/domain/types';
 import type { DemandResponse, PlanResponse } from '../../shared/schemas/planning';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { SupplierEntity } from '../master-data/supplier.entity';
-import { readPlanningVersion } from '../settings/settings';
+import { readPlanningVersion } from '../settings/versions';
 import { loadPlanInputs, type PlanInputs } from './plan-inputs';
 import { resolveHorizon } from './plan-dates';
+import type { Database } from '../db/database';
 
 interface CachedPlan {
   inputs: PlanInputs;
@@ -24,7 +24,7 @@ export class PlanningService {
   private inputs: Promise<PlanInputs> | null = null;
   private readonly plans = new Map<string, CachedPlan>();
 
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly db: Database) {}
 
   /** The plan over a horizon (defaults: next working day, 20 working days). */
   async plan(from?: string, to?: string): Promise<CachedPlan & { from: string; to: string }> {
@@ -67,19 +67,31 @@ export class PlanningService {
     const { inputs, result } = await this.plan(options.from, options.to);
     if (
       options.supplierCode &&
-      !(await this.dataSource.getRepository(SupplierEntity).existsBy({ code: options.supplierCode }))
+      !(await this.db.manager.getRepository(SupplierEntity).existsBy({ code: options.supplierCode }))
     ) {
       throw new NotFoundError(`No supplier ${options.supplierCode}.`);
     }
     return grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode });
   }
 
+  /**
+   * The inputs at the current planning version, read once per version and shared. Inside a write
+   * unit they may hold uncommitted changes, so they are read for that unit alone, never cached.
+   */
   private async currentInputs(): Promise<PlanInputs> {
-    const version = await readPlanningVersion(this.dataSource.manager);
+    if (this.db.inWriteUnit) return loadPlanInputs(this.db.manager);
+    const version = await readPlanningVersion(this.db.manager);
     if (version !== this.version || !this.inputs) {
       this.version = version;
       this.plans.clear();
-      this.inputs = loadPlanInputs(this.dataSource.manager);
+      const loading = this.db.read(async (manager) => ({
+        version: await readPlanningVersion(manager),
+        inputs: await loadPlanInputs(manager),
+      }));
+      this.inputs = loading.then((loaded) => {
+        this.version = loaded.version;
+        return loaded.inputs;
+      });
       this.inputs.catch(() => {
         this.inputs = null;
       });

@@ -1,23 +1,21 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
-import type { DataSource } from 'typeorm';
 import {
   confirmAnswerSchema,
   confirmationSchema,
   confirmResultSchema,
   confirmTokenParamsSchema,
 } from '../../shared/schemas/releases';
-import { defineRoute } from '../http/route';
-import { ConfirmService } from './confirm.service';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 
 /** Requests per client address per minute on the public confirmation routes. */
 export const CONFIRM_RATE_LIMIT = 30;
 
 /** The supplier's public routes behind the e-mailed link: no sign-in, rate-limited per address. */
-export function createConfirmRouter(dataSource: DataSource, registry: OpenAPIRegistry): Router {
+export function createConfirmRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
-  const service = new ConfirmService(dataSource);
+  const service = services.confirm;
 
   // Guessing a 256-bit token is hopeless anyway; the limit keeps a scripted client from
   // hammering the database through a route that needs no account.
@@ -39,7 +37,7 @@ export function createConfirmRouter(dataSource: DataSource, registry: OpenAPIReg
     }),
   );
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/confirm/:token',
     summary: 'The release behind a confirmation link; 409 used, 410 expired, 404 unknown or altered',
@@ -49,7 +47,7 @@ export function createConfirmRouter(dataSource: DataSource, registry: OpenAPIReg
     handler: ({ params }) => service.view(params.token),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/confirm/:token',
     summary: 'The supplier’s answer: confirmed when every line is as asked, otherwise an exception for the buyer',

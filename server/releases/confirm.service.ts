@@ -1,4 +1,4 @@
-import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
+import { In, IsNull, type EntityManager } from 'typeorm';
 import { answerDiffers, answerStatus } from '../../shared/domain/release-rules';
 import type { ConfirmAnswer, Confirmation, ConfirmResult } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
@@ -11,6 +11,7 @@ import { SupplierEntity } from '../master-data/supplier.entity';
 import { hashConfirmationToken } from './confirmation-tokens';
 import { ConfirmationTokenEntity } from './confirmation-token.entity';
 import { releasesChanged } from './release-events';
+import type { Database } from '../db/database';
 
 /** Release states a supplier can still answer through a live link. */
 const ANSWERABLE = ['draft', 'sent'];
@@ -29,11 +30,11 @@ interface OpenLink {
  * token is looked up by its SHA-256, so an altered or unknown token simply matches nothing.
  */
 export class ConfirmService {
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly db: Database) {}
 
   /** What the confirmation page shows; 404 unknown, 409 used, 410 expired or cancelled. */
   async view(token: string): Promise<Confirmation> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     const { token: link, release } = await this.openLink(manager, token);
     const lines = await manager.find(ReleaseLineEntity, {
       where: { releaseId: release.id },
@@ -73,7 +74,7 @@ export class ConfirmService {
    * and the release change, and the audit row is written in one transaction.
    */
   async answer(token: string, answer: ConfirmAnswer): Promise<ConfirmResult> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const { token: link, release } = await this.openLink(manager, token);
       const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id } });
       const lineById = new Map(lines.map((line) => [line.id, line]));

@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import { bumpDockVersion } from '../settings/versions';
-import { bumpPlanningVersion } from '../settings/settings';
+import { bumpPlanningVersion } from '../settings/versions';
 
 /** A release changed: plans and line risk count its lines anew, and open dock boards refresh. */
 export async function releasesChanged(manager: EntityManager): Promise<void> {

@@ -1,4 +1,3 @@
-import type { DataSource } from 'typeorm';
 import { isWorkingDay } from '../../shared/domain/calendar';
 import type { RunReleasesResponse } from '../../shared/schemas/releases';
 import { readCalendar } from '../calendar/calendar.service';
@@ -10,6 +9,7 @@ import {
   type ReleasesService,
 } from './releases.service';
 import { readSetting, writeSetting } from '../settings/settings';
+import type { Database } from '../db/database';
 
 /** After a failed run the job waits this long before trying again, rather than every minute. */
 const RETRY_AFTER_MS = 15 * 60 * 1000;
@@ -32,7 +32,7 @@ export class ReleaseJob {
   private failedAt = 0;
 
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly releases: ReleasesService,
   ) {}
 
@@ -41,18 +41,19 @@ export class ReleaseJob {
     if (this.busy || now.getTime() - this.failedAt < RETRY_AFTER_MS) return null;
     this.busy = true;
     try {
-      const manager = this.dataSource.manager;
+      const manager = this.db.manager;
       const today = plantToday(now);
+      const markRun = () => this.db.write((work) => writeSetting(work, RELEASE_JOB_LAST_RUN, today));
       const jobTime = await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME);
       const lastRun = await readSetting<string | null>(manager, RELEASE_JOB_LAST_RUN, null);
       if (plantClock(now) < jobTime || (lastRun !== null && lastRun >= today)) return null;
       if (lastRun === null) {
-        await writeSetting(manager, RELEASE_JOB_LAST_RUN, today);
+        await markRun();
         return null;
       }
       if (!isWorkingDay(today, await readCalendar(manager))) return null;
       const result = await this.releases.run(today, null);
-      await writeSetting(manager, RELEASE_JOB_LAST_RUN, today);
+      await markRun();
       return result;
     } catch (error) {
       this.failedAt = now.getTime();

@@ -1,4 +1,3 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { z } from 'zod';
 import type { Role } from '../../shared/schemas/user';
@@ -11,18 +10,19 @@ import {
   runReleasesRequestSchema,
   runReleasesResponseSchema,
 } from '../../shared/schemas/releases';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
-import type { ReleasesService } from './releases.service';
 
 /** Everyone who reads releases; a supplier's account is narrowed to its own in the service. */
 const RELEASE_READERS: readonly Role[] = [...READ_ROLES, 'supplier'];
 
 /** Release routes: the buyer's desk actions and the readers' lists. */
-export function createReleasesRouter(service: ReleasesService, registry: OpenAPIRegistry): Router {
+export function createReleasesRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const service = services.releases;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/releases/run',
     summary: 'Build and send one release per supplier for the date; the same date again creates nothing new',
@@ -33,7 +33,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
   });
 
   // Registered before /releases/:number so "settings" is never read as a release number.
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/releases/settings',
     summary: 'Time of day (plant time) the release job runs, and the last day it ran',
@@ -42,7 +42,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
     handler: () => service.jobSettings(),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'put',
     path: '/releases/settings',
     summary: 'Set the time of day (HH:MM, plant time) the release job runs',
@@ -52,7 +52,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
     handler: ({ body, user }) => service.updateJobSettings(body.jobTime, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/releases',
     summary: 'Releases, newest release date first; a supplier sees only its own',
@@ -62,7 +62,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
     handler: ({ query, user }) => service.list(query, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/releases/:number',
     summary: 'One release with its lines; another supplier’s release is 404',
@@ -72,7 +72,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
     handler: ({ params, user }) => service.get(params.number, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/releases/:number/resend',
     summary: 'E-mail the release again with a new link; earlier links stop working',
@@ -82,7 +82,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
     handler: ({ params, user }) => service.resend(params.number, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/releases/:number/cancel',
     summary: 'Call a release off before anything is received; its kanban cards go back to empty',
@@ -92,7 +92,7 @@ export function createReleasesRouter(service: ReleasesService, registry: OpenAPI
     handler: ({ params, user }) => service.cancel(params.number, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/releases/:number/accept-exception',
     summary: 'Accept the supplier’s changed quantities or dates: exception → confirmed',

@@ -1,4 +1,4 @@
-import { In, QueryFailedError, type DataSource, type EntityManager } from 'typeorm';
+import { In, QueryFailedError, type EntityManager } from 'typeorm';
 import { addWorkingDays, nextWorkingDay, toWorkingCalendar } from '../../shared/domain/calendar';
 import { releaseNumber } from '../../shared/domain/release-rules';
 import type {
@@ -17,7 +17,7 @@ import { ConflictError, NotFoundError } from '../errors';
 import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
 import { enqueueMail } from '../outbox/outbox.service';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
 import { DEFAULT_HORIZON_WORKING_DAYS } from '../planning/plan-dates';
 import { OPEN_RELEASE_STATES } from '../planning/plan-inputs';
@@ -37,6 +37,7 @@ import { composeReleaseMail } from './release-mail';
 import { ReleaseLineEntity } from './release-line.entity';
 import { ReleaseEntity } from './release.entity';
 import { releasesChanged } from './release-events';
+import type { Database } from '../db/database';
 
 export const RELEASE_JOB_TIME = 'releases.jobTime';
 export const RELEASE_JOB_LAST_RUN = 'releases.lastRunDate';
@@ -85,7 +86,7 @@ export class ReleasesService {
   private running: Promise<unknown> = Promise.resolve();
 
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly planning: PlanningService,
     options: ReleasesServiceOptions,
   ) {
@@ -109,7 +110,7 @@ export class ReleasesService {
 
   private async runOnce(date: string, actor: ReleaseActor): Promise<RunReleasesResponse> {
     const planned = await this.duePlannedLines(date);
-    const created = await this.dataSource.transaction(async (manager) => {
+    const created = await this.db.write(async (manager) => {
       const calendar = toWorkingCalendar(await readCalendar(manager));
       const existing = await manager.find(ReleaseEntity, { where: { releaseDate: date }, order: { number: 'ASC' } });
       const releasedSuppliers = new Set(existing.map((release) => release.supplierCode));
@@ -147,12 +148,12 @@ export class ReleasesService {
       return { releaseIds, existing: existing.map((release) => release.number) };
     });
     const made = created.releaseIds.length
-      ? await this.dataSource.manager.find(ReleaseEntity, {
+      ? await this.db.manager.find(ReleaseEntity, {
           where: { id: In(created.releaseIds) },
           order: { number: 'ASC' },
         })
       : [];
-    return { date, releases: await this.describe(this.dataSource.manager, made), existing: created.existing };
+    return { date, releases: await this.describe(this.db.manager, made), existing: created.existing };
   }
 
   /**
@@ -181,7 +182,7 @@ export class ReleasesService {
 
   /** Need dates already on order for planned parts: a release the plan still shows for them is not ordered twice. */
   private async openPlanLineKeys(): Promise<Set<string>> {
-    const rows = await this.dataSource
+    const rows = await this.db.manager
       .getRepository(ReleaseLineEntity)
       .createQueryBuilder('line')
       .innerJoin(ReleaseEntity, 'release', 'release.id = line.releaseId')
@@ -306,7 +307,7 @@ export class ReleasesService {
   }
 
   async list(query: ReleasesQuery, user: AuthenticatedUser): Promise<Release[]> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     if (user.role === 'supplier' && !user.supplierCode) return [];
     const releases = await manager.find(ReleaseEntity, {
       where: {
@@ -321,13 +322,13 @@ export class ReleasesService {
   }
 
   async get(number: string, user: AuthenticatedUser): Promise<Release> {
-    const release = await this.findVisible(this.dataSource.manager, number, user);
-    return (await this.describe(this.dataSource.manager, [release]))[0];
+    const release = await this.findVisible(this.db.manager, number, user);
+    return (await this.describe(this.db.manager, [release]))[0];
   }
 
   /** Sends the release again with a new link; earlier links stop working. An exception goes back to waiting for an answer. */
   async resend(number: string, actor: AuthenticatedUser): Promise<Release> {
-    await this.dataSource.transaction(async (manager) => {
+    await this.db.write(async (manager) => {
       const release = await this.findRelease(manager, number);
       if (!RESENDABLE.includes(release.status as ReleaseStatus)) {
         throw new ConflictError(
@@ -371,7 +372,7 @@ export class ReleasesService {
    * next day's run orders them again (this day's release exists, cancelled, and a day has one).
    */
   async cancel(number: string, actor: AuthenticatedUser): Promise<Release> {
-    await this.dataSource.transaction(async (manager) => {
+    await this.db.write(async (manager) => {
       const release = await this.findRelease(manager, number);
       const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: release.id } });
       if (!CANCELLABLE.includes(release.status as ReleaseStatus) || lines.some((line) => line.receivedQty > 0)) {
@@ -413,7 +414,7 @@ export class ReleasesService {
 
   /** The buyer takes the supplier's proposal: the answered quantities and dates become the firm ones. */
   async acceptException(number: string, actor: AuthenticatedUser): Promise<Release> {
-    await this.dataSource.transaction(async (manager) => {
+    await this.db.write(async (manager) => {
       const release = await this.findRelease(manager, number);
       if (release.status !== 'exception') {
         throw new ConflictError(`Release ${number} is ${release.status}; only an exception can be accepted.`, [
@@ -436,7 +437,7 @@ export class ReleasesService {
   }
 
   async jobSettings(): Promise<ReleaseJobSettings> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     return {
       jobTime: await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME),
       lastRunDate: await readSetting<string | null>(manager, RELEASE_JOB_LAST_RUN, null),
@@ -444,7 +445,7 @@ export class ReleasesService {
   }
 
   async updateJobSettings(jobTime: string, actor: AuthenticatedUser): Promise<ReleaseJobSettings> {
-    await this.dataSource.transaction(async (manager) => {
+    await this.db.write(async (manager) => {
       const before = await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME);
       if (before === jobTime) return;
       await writeSetting(manager, RELEASE_JOB_TIME, jobTime);

@@ -1,7 +1,4 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
-import type { IsoDate } from '../../shared/domain/types';
 import {
   addSequenceUnitRequestSchema,
   removeSequenceUnitQuerySchema,
@@ -13,21 +10,16 @@ import {
   sequenceSettingsSchema,
   sequenceUnitSchema,
 } from '../../shared/schemas/sequence';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { READ_ROLES, SEQUENCE_ROLES } from '../http/roles';
-import { plantToday } from '../planning/plan-dates';
-import { SequenceService } from './sequence.service';
 
 /** Build sequence routes: everyone but suppliers reads, admin and planner change. */
-export function createSequenceRouter(
-  dataSource: DataSource,
-  registry: OpenAPIRegistry,
-  today: () => IsoDate = plantToday,
-): Router {
+export function createSequenceRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
-  const service = new SequenceService(dataSource, today);
+  const service = services.sequence;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/sequence',
     summary:
@@ -38,7 +30,7 @@ export function createSequenceRouter(
     handler: ({ query }) => service.board(query),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/sequence/settings',
     summary: 'Frozen window (working days from today, today counted as day 1 when it is worked) and daily capacity',
@@ -47,7 +39,7 @@ export function createSequenceRouter(
     handler: () => service.settings(),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'put',
     path: '/sequence/settings',
     summary: 'Set the frozen window and daily capacity',
@@ -57,7 +49,7 @@ export function createSequenceRouter(
     handler: ({ body, user }) => service.updateSettings(body, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'put',
     path: '/sequence/days',
     summary:
@@ -68,7 +60,7 @@ export function createSequenceRouter(
     handler: ({ body, user }) => service.resequence(body, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/sequence/units',
     summary: 'Add a unit at the end of a day',
@@ -79,7 +71,7 @@ export function createSequenceRouter(
     handler: ({ body, user }) => service.addUnit(body, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'delete',
     path: '/sequence/units/:serial',
     summary: 'Remove a unit; the units after it on its day close up',

@@ -1,4 +1,4 @@
-import { Between, In, type DataSource, type EntityManager } from 'typeorm';
+import { Between, In, type EntityManager } from 'typeorm';
 import { addWorkingDays, nextWorkingDay, workingDaysBetween } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
 import type { IsoDate } from '../../shared/domain/types';
@@ -18,10 +18,11 @@ import { readCalendar } from '../calendar/calendar.service';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
-import { bumpPlanningVersion } from '../settings/settings';
+import { bumpPlanningVersion } from '../settings/versions';
 import { SequenceEntryEntity } from './sequence-entry.entity';
 import { readSequenceSettings, writeSequenceSettings } from './sequence-settings';
 import { listDates, SequenceRules } from './sequence-window';
+import type { Database } from '../db/database';
 
 /** The board shows at most a year at once; more is a slip of the year digit. */
 const MAX_BOARD_CALENDAR_DAYS = 366;
@@ -89,7 +90,7 @@ function overCapacityError(overloaded: { date: string; load: number; capacity: n
  */
 export class SequenceService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly today: () => IsoDate = plantToday,
   ) {}
 
@@ -112,7 +113,7 @@ export class SequenceService {
 
   /** GET /api/sequence: every working day in the range, plus any non-working day still holding units. */
   async board(query: SequenceQuery): Promise<SequenceBoard> {
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
     const rules = await this.rules(manager);
     const from = query.from ?? rules.today;
     const to =
@@ -146,12 +147,12 @@ export class SequenceService {
   }
 
   settings(): Promise<SequenceSettings> {
-    return readSequenceSettings(this.dataSource.manager);
+    return readSequenceSettings(this.db.manager);
   }
 
   /** The frozen window and capacity feed line risk and every open board, so they bump the planning version. */
   updateSettings(settings: SequenceSettings, actor: Actor): Promise<SequenceSettings> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const before = await readSequenceSettings(manager);
       await writeSequenceSettings(manager, settings);
       await recordAudit(manager, {
@@ -173,7 +174,7 @@ export class SequenceService {
    * really changes count as touched for the frozen window and capacity.
    */
   resequence(request: ResequenceRequest, actor: Actor): Promise<ResequenceResponse> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const rules = await this.rules(manager);
       const named = new Set(request.days.flatMap((day) => day.serials));
       const namedEntries =
@@ -299,7 +300,7 @@ export class SequenceService {
 
   /** POST /api/sequence/units: a new unit at the end of a day, checked as the schedule import checks a row. */
   addUnit(request: AddSequenceUnitRequest, actor: Actor): Promise<SequenceUnit> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const rules = await this.rules(manager);
       const qty = request.qty ?? 1;
       const issues: { path: string[]; message: string }[] = [];
@@ -357,7 +358,7 @@ export class SequenceService {
 
   /** DELETE /api/sequence/units/:serial: the unit leaves and the units behind it close up. */
   removeUnit(serial: string, allowFrozen: boolean, actor: Actor): Promise<void> {
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const rules = await this.rules(manager);
       const entry = await manager.findOneBy(SequenceEntryEntity, { serial });
       if (!entry) throw new NotFoundError(`No unit with serial ${serial} in the sequence.`);

@@ -14,16 +14,3 @@ export async function writeSetting(
 ): Promise<void> {
   await manager.upsert(SettingEntity, { key, value }, ['key']);
 }
-
-const PLANNING_VERSION = 'planningVersion';
-
-/** Every change to a planning input bumps this, so a cached plan knows when it is stale. */
-export async function bumpPlanningVersion(manager: EntityManager): Promise<number> {
-  const next = (await readSetting<number>(manager, PLANNING_VERSION, 0)) + 1;
-  await writeSetting(manager, PLANNING_VERSION, next);
-  return next;
-}
-
-export function readPlanningVersion(manager: EntityManager): Promise<number> {
-  return readSetting<number>(manager, PLANNING_VERSION, 0);
-}

@@ -1,15 +1,30 @@
 import type { EntityManager } from 'typeorm';
+import { notifyAfterCommit } from '../db/database';
 import { readSetting, writeSetting } from './settings';
 
-const DOCK_VERSION = 'dock.version';
+/**
+ * Version counters of what open screens follow. Each change bumps its counter in the same
+ * transaction as the change (caches compare it, so a cached plan knows when it is stale) and, once
+ * committed, tells the open event streams.
+ */
+export type VersionChannel = 'planning' | 'dock';
 
-/** Every change to the receiving board bumps this, so open Dock screens know to reload. */
-export async function bumpDockVersion(manager: EntityManager): Promise<number> {
-  const next = (await readSetting<number>(manager, DOCK_VERSION, 0)) + 1;
-  await writeSetting(manager, DOCK_VERSION, next);
+const KEYS: Record<VersionChannel, string> = { planning: 'planningVersion', dock: 'dock.version' };
+
+export function readVersion(manager: EntityManager, channel: VersionChannel): Promise<number> {
+  return readSetting<number>(manager, KEYS[channel], 0);
+}
+
+export async function bumpVersion(manager: EntityManager, channel: VersionChannel): Promise<number> {
+  const next = (await readVersion(manager, channel)) + 1;
+  await writeSetting(manager, KEYS[channel], next);
+  notifyAfterCommit(channel, { version: next });
   return next;
 }
 
-export function readDockVersion(manager: EntityManager): Promise<number> {
-  return readSetting<number>(manager, DOCK_VERSION, 0);
-}
+/** Every change to a planning input (sequence, stock, BOM, releases, calendar…) bumps this. */
+export const bumpPlanningVersion = (manager: EntityManager) => bumpVersion(manager, 'planning');
+export const readPlanningVersion = (manager: EntityManager) => readVersion(manager, 'planning');
+/** Every change to the receiving board bumps this, so open Dock screens know to reload. */
+export const bumpDockVersion = (manager: EntityManager) => bumpVersion(manager, 'dock');
+export const readDockVersion = (manager: EntityManager) => readVersion(manager, 'dock');

@@ -1,20 +1,15 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
-import type { DataSource } from 'typeorm';
 import { performanceQuerySchema, supplierPerformanceResponseSchema } from '../../shared/schemas/supplier-performance';
-import { defineRoute } from '../http/route';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 import { READ_ROLES } from '../http/roles';
-import { PerformanceService } from './supplier-performance.service';
 
 /** Supplier performance: on-time, fill rate and confirmation latency per supplier and month of need date. */
-export function createPerformanceRouter(
-  dataSource: DataSource,
-  registry: OpenAPIRegistry,
-  service = new PerformanceService(dataSource),
-): Router {
+export function createSupplierPerformanceRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const service = services.supplierPerformance;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/suppliers/performance',
     summary:

@@ -1,4 +1,4 @@
-import { In, type DataSource } from 'typeorm';
+import { In } from 'typeorm';
 import {
   addMonths,
   firstDayOf,
@@ -23,6 +23,7 @@ import { ReceiptEntity } from '../dock/receipt.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
+import type { Database } from '../db/database';
 
 /** Fills in and checks the month range: defaults to the last six months through the current one. */
 export function resolveMonths(
@@ -42,9 +43,9 @@ export function resolveMonths(
 }
 
 /** Reads releases, lines and receipts of a range and measures each supplier's months. */
-export class PerformanceService {
+export class SupplierPerformanceService {
   constructor(
-    private readonly dataSource: DataSource,
+    private readonly db: Database,
     private readonly clock: () => Date = () => new Date(),
   ) {}
 
@@ -52,7 +53,7 @@ export class PerformanceService {
     const now = this.clock();
     const today = plantToday(now);
     const { from, to } = resolveMonths(query, today);
-    const manager = this.dataSource.manager;
+    const manager = this.db.manager;
 
     const suppliers = await manager.find(SupplierEntity, query.supplier ? { where: { code: query.supplier } } : {});
     if (query.supplier && suppliers.length === 0) throw new NotFoundError(`No supplier ${query.supplier}.`);
@@ -123,7 +124,7 @@ export class PerformanceService {
     const releases: PerformanceRelease[] = [];
     for (let start = 0; start < ids.length; start += 500) {
       const chunk = ids.slice(start, start + 500);
-      const found = await this.dataSource.manager
+      const found = await this.db.manager
         .createQueryBuilder(ReleaseEntity, 'release')
         .innerJoin(ReleaseLineEntity, 'line', 'line.releaseId = release.id')
         .select([

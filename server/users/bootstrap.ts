@@ -1,23 +1,22 @@
-import type { DataSource } from 'typeorm';
+import type { Database } from '../db/database';
 import { hashPassword } from './passwords';
 import { UserEntity } from './user.entity';
 
-export async function isDatabaseEmpty(dataSource: DataSource): Promise<boolean> {
-  return (await dataSource.getRepository(UserEntity).count()) === 0;
+export async function isDatabaseEmpty(db: Database): Promise<boolean> {
+  return (await db.manager.count(UserEntity)) === 0;
 }
 
 /** Makes sure the configured admin exists and may sign in; used when the demo is not seeded. */
-export async function ensureAdmin(dataSource: DataSource, email: string, password: string): Promise<void> {
-  const users = dataSource.getRepository(UserEntity);
+export async function ensureAdmin(db: Database, email: string, password: string): Promise<void> {
   const normalised = email.toLowerCase();
-  const existing = await users.findOneBy({ email: normalised });
-  if (existing) return;
-  await users.save(
-    users.create({
+  if (await db.manager.existsBy(UserEntity, { email: normalised })) return;
+  const passwordHash = await hashPassword(password);
+  await db.write((manager) =>
+    manager.insert(UserEntity, {
       email: normalised,
       name: 'Administrator',
       role: 'admin',
-      passwordHash: await hashPassword(password),
+      passwordHash,
       supplierCode: null,
     }),
   );

@@ -1,4 +1,3 @@
-import type { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import { Router } from 'express';
 import { z } from 'zod';
 import {
@@ -7,13 +6,14 @@ import {
   userIdParamsSchema,
   userSchema,
 } from '../../shared/schemas/user';
-import { defineRoute } from '../http/route';
-import type { UsersService } from './users.service';
+import { defineRoute, type RouteDeps } from '../http/route';
+import type { Services } from '../services';
 
-export function createUsersRouter(usersService: UsersService, registry: OpenAPIRegistry): Router {
+export function createUsersRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
+  const usersService = services.users;
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'get',
     path: '/users',
     summary: 'All user accounts',
@@ -22,7 +22,7 @@ export function createUsersRouter(usersService: UsersService, registry: OpenAPIR
     handler: () => usersService.list(),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'post',
     path: '/users',
     summary: 'Add a user account',
@@ -33,7 +33,7 @@ export function createUsersRouter(usersService: UsersService, registry: OpenAPIR
     handler: ({ body, user }) => usersService.create(body, user),
   });
 
-  defineRoute(router, registry, {
+  defineRoute(router, deps, {
     method: 'patch',
     path: '/users/:id',
     summary: 'Change a user’s role, password or whether it may sign in',

@@ -1,11 +1,11 @@
-import type { DataSource } from 'typeorm';
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from '../../shared/schemas/user';
 import { recordAudit } from '../audit/audit.service';
 import { hashPassword } from './passwords';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
-import type { AuthenticatedUser } from '../auth/authenticate';
+import type { AuthenticatedUser } from '../http/request-user';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { UserEntity } from './user.entity';
+import type { Database } from '../db/database';
 
 export function toSessionUser(user: Pick<UserEntity, 'email' | 'name' | 'role' | 'supplierCode'>): SessionUser {
   return { email: user.email, name: user.name, role: user.role as Role, supplierCode: user.supplierCode };
@@ -16,17 +16,17 @@ function toUser(user: UserEntity): User {
 }
 
 export class UsersService {
-  constructor(private readonly dataSource: DataSource) {}
+  constructor(private readonly db: Database) {}
 
   async list(): Promise<User[]> {
-    const users = await this.dataSource.getRepository(UserEntity).find({ order: { name: 'ASC' } });
+    const users = await this.db.manager.getRepository(UserEntity).find({ order: { name: 'ASC' } });
     return users.map(toUser);
   }
 
   async create(request: CreateUserRequest, actor: AuthenticatedUser | null): Promise<User> {
     const supplierCode = request.role === 'supplier' ? request.supplierCode! : null;
     const passwordHash = await hashPassword(request.password);
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       if (await manager.existsBy(UserEntity, { email: request.email })) {
         throw new ConflictError(`A user with e-mail ${request.email} already exists.`, [
           { path: ['email'], message: 'already in use' },
@@ -55,7 +55,7 @@ export class UsersService {
 
   async update(id: number, patch: UpdateUserRequest, actor: AuthenticatedUser): Promise<User> {
     const passwordHash = patch.password ? await hashPassword(patch.password) : undefined;
-    return this.dataSource.transaction(async (manager) => {
+    return this.db.write(async (manager) => {
       const user = await manager.findOneBy(UserEntity, { id });
       if (!user) throw new NotFoundError(`No user with id ${id}.`);
       if (user.id === actor.id && (patch.active === false || (patch.role && patch.role !== 'admin'))) {

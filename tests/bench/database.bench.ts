@@ -4,7 +4,7 @@ import { pathToFileURL } from 'node:url';
 import { createApp } from '../../server/app';
 import { signSessionToken } from '../../server/auth/tokens';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { openDatabase } from '../../server/db/data-source';
+import { openDatabase } from '../../server/db/database';
 import {
   replaceBomLines,
   upsertParts,
@@ -62,11 +62,11 @@ function p90(samples: number[]): number {
 
 export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   const fixture = generatePlanFixture();
-  const dataSource = await openDatabase(':memory:');
+  const db = await openDatabase(':memory:');
   const suppliers = [
     ...new Set(fixture.parts.map((part) => part.supplierCode).filter((code): code is string => !!code)),
   ];
-  await dataSource.transaction(async (manager) => {
+  await db.write(async (manager) => {
     await writeCalendar(manager, fixture.calendar);
     await upsertSuppliers(
       manager,
@@ -112,12 +112,12 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   let sqlRows = 0;
   for (let run = 0; run < RUNS + 1; run += 1) {
     const start = performance.now();
-    const rows = await dataSource.query(RECURSIVE_EXPLOSION, [fixture.from, fixture.to]);
+    const rows = await db.manager.query(RECURSIVE_EXPLOSION, [fixture.from, fixture.to]);
     if (run > 0) sqlSamples.push(performance.now() - start);
     sqlRows = rows.length;
   }
 
-  const inputs = await loadPlanInputs(dataSource.manager);
+  const inputs = await db.read((manager) => loadPlanInputs(manager));
   const engineSamples: number[] = [];
   for (let run = 0; run < RUNS + 3; run += 1) {
     const start = performance.now();
@@ -125,7 +125,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
     if (run >= 3) engineSamples.push(performance.now() - start);
   }
 
-  const admin = await dataSource.getRepository(UserEntity).save({
+  const admin = await db.dataSource.getRepository(UserEntity).save({
     email: 'bench@example.com',
     name: 'Bench',
     role: 'admin',
@@ -134,7 +134,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   });
   const secret = 'bench-secret-bench-secret-bench-secret-bench';
   const token = signSessionToken(admin.id, secret, '1h');
-  const server = createApp(dataSource, { jwtSecret: secret }).listen(0);
+  const server = createApp(db, { jwtSecret: secret }).listen(0);
   const { port } = server.address() as AddressInfo;
   const url = `http://127.0.0.1:${port}/api/demand?from=${fixture.from}&to=${fixture.to}`;
   const callDemand = async () => {
@@ -148,7 +148,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   const cached: number[] = [];
   for (let run = 0; run < API_RUNS; run += 1) cached.push((await callDemand()).ms);
   server.close();
-  await dataSource.destroy();
+  await db.close();
 
   const sqlMedian = median(sqlSamples);
   const engineMedian = median(engineSamples);

@@ -10,7 +10,7 @@ import { syncLoops } from '../../server/loops/loop-sync';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
 import { upsertParts } from '../../server/master-data/master-data.writer';
 import { ReleaseEntity } from '../../server/releases/release.entity';
-import { readPlanningVersion } from '../../server/settings/settings';
+import { readPlanningVersion } from '../../server/settings/versions';
 import { addCalendarDays } from '../../shared/domain/date';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';

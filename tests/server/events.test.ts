@@ -1,7 +1,7 @@
 import { get, type IncomingMessage } from 'node:http';
 import type { AddressInfo, Server } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { bumpPlanningVersion } from '../../server/settings/settings';
+import { bumpPlanningVersion } from '../../server/settings/versions';
 import { createTestContext, type TestContext } from './helpers';
 
 let context: TestContext;
@@ -43,7 +43,7 @@ describe('GET /api/events', () => {
     const stream = await openStream(context.tokens.viewer);
     const first = JSON.parse(await nextEvent(stream));
 
-    const nextVersion = await bumpPlanningVersion(context.dataSource.manager);
+    const nextVersion = await context.db.write((manager) => bumpPlanningVersion(manager));
     const second = JSON.parse(await nextEvent(stream));
 
     expect(stream.headers['content-type']).toBe('text/event-stream');

@@ -51,7 +51,7 @@ describe('POST /api/demand/forecast-mail', () => {
       'D,SUP-B,6,0,6',
     ]);
 
-    const dispatcher = new OutboxDispatcher(context.dataSource, smtp.url, 'Cardloop <cardloop@example.com>');
+    const dispatcher = new OutboxDispatcher(context.db, smtp.url, 'Cardloop <cardloop@example.com>');
     const sent = await dispatcher.dispatchDue();
     dispatcher.close();
 
@@ -84,11 +84,7 @@ describe('OutboxDispatcher', () => {
       .post('/api/demand/forecast-mail')
       .set(bearer(context.tokens.buyer))
       .send({ supplier: 'SUP-A' });
-    const dispatcher = new OutboxDispatcher(
-      context.dataSource,
-      'smtp://127.0.0.1:1',
-      'Cardloop <cardloop@example.com>',
-    );
+    const dispatcher = new OutboxDispatcher(context.db, 'smtp://127.0.0.1:1', 'Cardloop <cardloop@example.com>');
     const now = new Date();
 
     const sent = await dispatcher.dispatchDue(now);

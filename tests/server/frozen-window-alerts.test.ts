@@ -21,7 +21,7 @@ let lineRisk: LineRiskService;
 // unit of M needs 2 of P; with 1 on hand and nothing confirmed to arrive, that unit is at risk.
 beforeAll(async () => {
   context = await createTestContext();
-  lineRisk = new LineRiskService(context.dataSource);
+  lineRisk = new LineRiskService(context.db);
   const buildDay = nextWorkingDay(plantToday(), calendar);
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, calendar);
@@ -44,8 +44,8 @@ const alertsTo = async (email: string) =>
 
 describe('frozen-window shortage alerts', () => {
   it('e-mails every planner once when a shortage enters the frozen window, naming the unit', async () => {
-    const first = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
-    const again = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+    const first = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
+    const again = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
 
     expect(first).toEqual(['P']);
     expect(again).toEqual([]);
@@ -59,10 +59,10 @@ describe('frozen-window shortage alerts', () => {
 
   it('alerts again after the part has left the window and comes back', async () => {
     await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'P', onHand: 5 }]));
-    const cleared = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+    const cleared = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
     await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'P', onHand: 0 }]));
 
-    const back = await alertFrozenWindowShortages(context.dataSource, lineRisk, 'http://plant.example.com');
+    const back = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
 
     expect(cleared).toEqual([]);
     expect(back).toEqual(['P']);

@@ -5,7 +5,7 @@ import type { Part } from '../../shared/schemas/master-data';
 import type { Role } from '../../shared/schemas/user';
 import { createApp, type AppOptions } from '../../server/app';
 import { hashPassword } from '../../server/users/passwords';
-import { openDatabase } from '../../server/db/data-source';
+import { openDatabase, type Database } from '../../server/db/database';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { UserEntity } from '../../server/users/user.entity';
 
@@ -14,6 +14,8 @@ export const TEST_PASSWORD = 'correct-horse-battery';
 
 export interface TestContext {
   app: Express;
+  db: Database;
+  /** The writer connection, for arranging and inspecting data directly. */
   dataSource: DataSource;
   /** Bearer tokens of one user per role; the supplier user belongs to supplier `SUP-A`. */
   tokens: Record<Role, string>;
@@ -24,8 +26,9 @@ let sharedHash: Promise<string> | undefined;
 
 /** A fresh in-memory database with two suppliers and one signed-in user per role. */
 export async function createTestContext(options: Partial<AppOptions> = {}): Promise<TestContext> {
-  const dataSource = await openDatabase(':memory:');
-  const app = createApp(dataSource, { jwtSecret: TEST_SECRET, loginFailureLimit: 5, ...options });
+  const db = await openDatabase(':memory:');
+  const dataSource = db.dataSource;
+  const app = createApp(db, { jwtSecret: TEST_SECRET, loginFailureLimit: 5, ...options });
   sharedHash ??= hashPassword(TEST_PASSWORD);
   const passwordHash = await sharedHash;
   await dataSource.getRepository(SupplierEntity).insert([
@@ -60,7 +63,7 @@ export async function createTestContext(options: Partial<AppOptions> = {}): Prom
   );
   const tokens = {} as Record<Role, string>;
   for (const role of roles) tokens[role] = await signIn(app, `${role}@example.com`, TEST_PASSWORD);
-  return { app, dataSource, tokens, close: () => dataSource.destroy() };
+  return { app, db, dataSource, tokens, close: () => db.close() };
 }
 
 export async function signIn(app: Express, email: string, password: string): Promise<string> {

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { CardScanEntity } from '../../server/loops/card-scan.entity';
+import { syncLoops } from '../../server/loops/loop-sync';
 import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Part } from '../../shared/schemas/master-data';
@@ -79,6 +80,7 @@ beforeAll(async () => {
       part('S', { source: 'make', supplierCode: null }),
       part('X', { replenishment: 'scheduled' }),
     ]);
+    await syncLoops(manager);
     const line = (component: string, qtyPer: number) => ({
       parent: 'M',
       component,

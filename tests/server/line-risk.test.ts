@@ -11,7 +11,8 @@ import {
 } from '../../server/master-data/master-data.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
-import { bumpPlanningVersion, writeSetting } from '../../server/settings/settings';
+import { writeSetting } from '../../server/settings/settings';
+import { bumpPlanningVersion } from '../../server/settings/versions';
 import { addWorkingDays } from '../../shared/domain/calendar';
 import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import { bearer, createTestContext, signIn, TEST_PASSWORD, testPart, type TestContext } from './helpers';

@@ -9,7 +9,7 @@ import {
 } from '../../server/master-data/master-data.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
-import { bumpPlanningVersion } from '../../server/settings/settings';
+import { bumpPlanningVersion } from '../../server/settings/versions';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;

@@ -9,7 +9,7 @@ import { PartEntity } from '../../server/master-data/part.entity';
 import { ReceiptEntity } from '../../server/dock/receipt.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
-import { readPlanningVersion } from '../../server/settings/settings';
+import { readPlanningVersion } from '../../server/settings/versions';
 import { readDockVersion } from '../../server/settings/versions';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Role } from '../../shared/schemas/user';

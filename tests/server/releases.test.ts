@@ -12,7 +12,8 @@ import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../serve
 import { PlanningService } from '../../server/planning/planning.service';
 import { HAZARDOUS_NOTE } from '../../server/releases/release-mail';
 import { ReleasesService, RELEASE_JOB_LAST_RUN } from '../../server/releases/releases.service';
-import { readPlanningVersion, writeSetting } from '../../server/settings/settings';
+import { writeSetting } from '../../server/settings/settings';
+import { readPlanningVersion } from '../../server/settings/versions';
 import { cardNumber } from '../../shared/domain/gs1';
 import { kanbanReplenishmentWorkingDays, releaseNumber } from '../../shared/domain/release-rules';
 import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';
@@ -393,8 +394,8 @@ describe('ReleaseJob', () => {
 
   it('runs a working day once, at or after the set time, and catches up after a restart', async () => {
     const job = new ReleaseJob(
-      context.dataSource,
-      new ReleasesService(context.dataSource, new PlanningService(context.dataSource), { appUrl: APP_URL }),
+      context.db,
+      new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL }),
     );
     await writeSetting(context.dataSource.manager, RELEASE_JOB_LAST_RUN, '2027-03-02');
     await request(context.app)
@@ -419,8 +420,8 @@ describe('ReleaseJob', () => {
 
   it('starts a brand-new schedule on the next day rather than mailing at first start', async () => {
     const job = new ReleaseJob(
-      context.dataSource,
-      new ReleasesService(context.dataSource, new PlanningService(context.dataSource), { appUrl: APP_URL }),
+      context.db,
+      new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL }),
     );
     await context.dataSource.manager.query('DELETE FROM setting WHERE key = ?', [RELEASE_JOB_LAST_RUN]);
 

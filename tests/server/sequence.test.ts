@@ -9,7 +9,7 @@ import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../serve
 import { plantToday } from '../../server/planning/plan-dates';
 import { SequenceEntryEntity } from '../../server/sequence/sequence-entry.entity';
 import { writeSequenceSettings } from '../../server/sequence/sequence-settings';
-import { readPlanningVersion } from '../../server/settings/settings';
+import { readPlanningVersion } from '../../server/settings/versions';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;

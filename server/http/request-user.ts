@@ -1,0 +1,16 @@
+import type { Role } from '../../shared/schemas/user';
+
+/** The signed-in user a request acts for, as the authentication middleware resolved it. */
+export interface AuthenticatedUser {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  supplierCode: string | null;
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    user?: AuthenticatedUser;
+  }
+}

@@ -1,0 +1,64 @@
+import { dirname, join } from 'node:path';
+import type { Database } from './db/database';
+import { AuthService } from './auth/auth.service';
+import { CalendarService } from './calendar/calendar.service';
+import { AttachmentsService } from './dock/attachments.service';
+import { DockService } from './dock/dock.service';
+import { ReceiptsService } from './dock/receipts.service';
+import { ForecastMailService } from './horizon/forecast-mail.service';
+import { ImportsService } from './imports/imports.service';
+import { LineRiskService } from './line-risk/line-risk.service';
+import { LoopsService } from './loops/loops.service';
+import { MasterDataService } from './master-data/master-data.service';
+import { OutboxService } from './outbox/outbox.service';
+import { PlanningService } from './planning/planning.service';
+import { ConfirmService } from './releases/confirm.service';
+import { ReleasesService } from './releases/releases.service';
+import { SequenceService } from './sequence/sequence.service';
+import { SupplierPerformanceService } from './supplier-performance/supplier-performance.service';
+import { UsersService } from './users/users.service';
+
+export interface ServiceOptions {
+  jwtSecret: string;
+  jwtTtl?: string;
+  /** Base URL of the web client, for links in e-mails (release confirmation); APP_URL in production. */
+  appUrl?: string;
+  /** Folder for packing-slip files; defaults to `attachments` beside the database file. */
+  attachmentsDir?: string;
+}
+
+/** Every service of the application, built once over one database; routers and jobs share them. */
+export type Services = ReturnType<typeof createServices>;
+
+/** Packing slips live beside the database file, in `attachments`. */
+function defaultAttachmentsDir(db: Database): string {
+  return join(dirname(String(db.dataSource.options.database)), 'attachments');
+}
+
+/** The composition root: the one place services are built and wired to each other. */
+export function createServices(db: Database, options: ServiceOptions) {
+  const appUrl = (options.appUrl ?? 'http://localhost:3000').replace(/\/+$/, '');
+  const planning = new PlanningService(db);
+  const lineRisk = new LineRiskService(db);
+  return {
+    db,
+    appUrl,
+    auth: new AuthService(db, options.jwtSecret, options.jwtTtl ?? '8h'),
+    users: new UsersService(db),
+    calendar: new CalendarService(db),
+    masterData: new MasterDataService(db),
+    imports: new ImportsService(db),
+    sequence: new SequenceService(db),
+    planning,
+    forecastMail: new ForecastMailService(db, planning),
+    loops: new LoopsService(db, planning),
+    lineRisk,
+    releases: new ReleasesService(db, planning, { appUrl }),
+    confirm: new ConfirmService(db),
+    dock: new DockService(db),
+    receipts: new ReceiptsService(db),
+    attachments: new AttachmentsService(db, options.attachmentsDir ?? defaultAttachmentsDir(db)),
+    supplierPerformance: new SupplierPerformanceService(db),
+    outbox: new OutboxService(db),
+  };
+}
