@@ -4,12 +4,8 @@ import { hashPassword } from '../server/users/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
-import {
-  replaceBomLines,
-  upsertParts,
-  upsertSequenceEntries,
-  upsertSuppliers,
-} from '../server/master-data/master-data.writer';
+import { replaceBomLines, upsertParts, upsertSuppliers } from '../server/master-data/master-data.writer';
+import { upsertSequenceEntries } from '../server/sequence/sequence.writer';
 import { UserEntity } from '../server/users/user.entity';
 import { buildDemoScenario } from './scenario';
 

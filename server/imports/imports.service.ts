@@ -6,13 +6,8 @@ import { recordAudit } from '../audit/audit.service';
 import { BomLineEntity } from '../master-data/bom-line.entity';
 import { readCalendar } from '../calendar/calendar.service';
 import { ImportError } from '../errors';
-import {
-  replaceBomLines,
-  setOnHand,
-  upsertParts,
-  upsertSequenceEntries,
-  upsertSuppliers,
-} from '../master-data/master-data.writer';
+import { replaceBomLines, setOnHand, upsertParts, upsertSuppliers } from '../master-data/master-data.writer';
+import { upsertSequenceEntries } from '../sequence/sequence.writer';
 import { syncLoops } from '../loops/loop-sync';
 import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';

@@ -5,12 +5,8 @@ import { createApp } from '../../server/app';
 import { signSessionToken } from '../../server/auth/tokens';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { openDatabase } from '../../server/db/database';
-import {
-  replaceBomLines,
-  upsertParts,
-  upsertSequenceEntries,
-  upsertSuppliers,
-} from '../../server/master-data/master-data.writer';
+import { replaceBomLines, upsertParts, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { loadPlanInputs } from '../../server/planning/plan-inputs';
 import { UserEntity } from '../../server/users/user.entity';
 import { computePlan } from '../../shared/domain/plan';

@@ -4,7 +4,8 @@ import { writeCalendar } from '../../server/calendar/calendar.service';
 import { startFakeSmtp, type FakeSmtp } from '../../server/outbox/fake-smtp';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
 import { OutboxDispatcher } from '../../server/outbox/outbox.service';
-import { replaceBomLines, upsertParts, upsertSequenceEntries } from '../../server/master-data/master-data.writer';
+import { replaceBomLines, upsertParts } from '../../server/master-data/master-data.writer';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;

@@ -4,12 +4,8 @@ import { writeCalendar } from '../../server/calendar/calendar.service';
 import { alertFrozenWindowShortages } from '../../server/line-risk/frozen-window-alerts';
 import { LineRiskService } from '../../server/line-risk/line-risk.service';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
-import {
-  replaceBomLines,
-  setOnHand,
-  upsertParts,
-  upsertSequenceEntries,
-} from '../../server/master-data/master-data.writer';
+import { replaceBomLines, setOnHand, upsertParts } from '../../server/master-data/master-data.writer';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { plantToday } from '../../server/planning/plan-dates';
 import { createTestContext, testPart, type TestContext } from './helpers';
 

@@ -3,12 +3,8 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } 
 import { buildDemoScenario } from '../../seed/scenario';
 import { MADE } from '../../seed/scenario-parts';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import {
-  replaceBomLines,
-  upsertParts,
-  upsertSequenceEntries,
-  upsertSuppliers,
-} from '../../server/master-data/master-data.writer';
+import { replaceBomLines, upsertParts, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { writeSetting } from '../../server/settings/settings';

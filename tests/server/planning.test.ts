@@ -1,12 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import {
-  replaceBomLines,
-  setOnHand,
-  upsertParts,
-  upsertSequenceEntries,
-} from '../../server/master-data/master-data.writer';
+import { replaceBomLines, setOnHand, upsertParts } from '../../server/master-data/master-data.writer';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { bumpPlanningVersion } from '../../server/settings/versions';
