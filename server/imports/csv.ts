@@ -1,4 +1,10 @@
-import Papa from 'papaparse';
+import {
+  checkCsvHeader,
+  headerProblemMessage,
+  normaliseCsvText,
+  readCsvRows,
+  type CsvRow,
+} from '../../shared/domain/csv';
 import type { ImportLayout, ImportRowError } from '../../shared/schemas/imports';
 import { ImportError } from '../errors';
 
@@ -13,12 +19,6 @@ export interface CsvTable {
   records: CsvRecord[];
   /** Row-level problems found while reading (stray cells, broken quotes); checked rows add theirs. */
   problems: ImportRowError[];
-}
-
-interface RawRow {
-  line: number;
-  cells: string[];
-  broken: string | null;
 }
 
 const FILE_COLUMN = '';
@@ -47,52 +47,12 @@ function decodeUtf8(file: Buffer): string {
   }
 }
 
-function splitRows(text: string): RawRow[] {
-  const rows: RawRow[] = [];
-  let line = 1;
-  let consumed = 0;
-  Papa.parse<string[]>(text, {
-    delimiter: ',',
-    newline: '\n',
-    step: (result) => {
-      // A quoted cell may span lines, so the next row starts after every newline consumed so far.
-      const cursor = result.meta.cursor;
-      const broken = result.errors.length > 0 ? result.errors[0].message : null;
-      rows.push({ line, cells: result.data.map((cell) => cell.trim()), broken });
-      for (
-        let index = text.indexOf('\n', consumed);
-        index !== -1 && index < cursor;
-        index = text.indexOf('\n', index + 1)
-      )
-        line += 1;
-      consumed = cursor;
-    },
-  });
-  return rows;
-}
-
-const isBlank = (row: RawRow) => row.cells.every((cell) => cell === '');
-
-function readHeader(row: RawRow, layout: ImportLayout): string[] {
-  const problems: ImportRowError[] = [];
-  const seen = new Set<string>();
-  for (const name of row.cells) {
-    if (name === '') continue;
-    if (!layout.columns.includes(name)) {
-      problems.push({
-        row: row.line,
-        column: name,
-        message: `unknown column '${name}'; the columns are ${layout.columns.join(', ')}`,
-      });
-    } else if (seen.has(name)) {
-      problems.push({ row: row.line, column: name, message: `column '${name}' appears twice in the header` });
-    }
-    seen.add(name);
-  }
-  for (const name of layout.required) {
-    if (!seen.has(name))
-      problems.push({ row: row.line, column: name, message: `required column '${name}' is missing from the header` });
-  }
+function readHeader(row: CsvRow, layout: ImportLayout): string[] {
+  const problems = checkCsvHeader(row.cells, layout).map((problem) => ({
+    row: row.line,
+    column: problem.column,
+    message: headerProblemMessage(problem, layout),
+  }));
   if (problems.length > 0)
     throw new ImportError('The header row does not match the format; nothing was imported.', problems);
   return row.cells;
@@ -104,10 +64,10 @@ function readHeader(row: RawRow, layout: ImportLayout): string[] {
  * ImportError at once; row-level reading problems are returned with the table.
  */
 export function readCsvTable(file: Buffer, layout: ImportLayout): CsvTable {
-  const text = decodeUtf8(file)
-    .replace(/^\uFEFF/, '')
-    .replace(/\r\n?/g, '\n');
-  const rows = splitRows(text).filter((row) => !isBlank(row));
+  const rows: CsvRow[] = [];
+  readCsvRows(normaliseCsvText(decodeUtf8(file)), (row) => {
+    rows.push(row);
+  });
   if (rows.length === 0)
     rejectFile(1, FILE_COLUMN, `the file is empty; the first line must be the header: ${layout.columns.join(',')}`);
 
