@@ -1,6 +1,7 @@
 import { resolve } from 'node:path';
 import { loadConfig } from '../server/config';
 import { openDatabase } from '../server/db/database';
+import { plantToday } from '../server/planning/plan-dates';
 import { isDatabaseEmpty } from '../server/users/bootstrap';
 import { seedDemoScenario } from './seed-demo';
 
@@ -8,7 +9,7 @@ import { seedDemoScenario } from './seed-demo';
 const config = loadConfig();
 const db = await openDatabase(resolve(config.DATABASE_PATH));
 if (await isDatabaseEmpty(db)) {
-  await seedDemoScenario(db, new Date().toISOString().slice(0, 10));
+  await seedDemoScenario(db, plantToday());
   console.log(`Seeded the demo scenario into ${config.DATABASE_PATH}.`);
 } else {
   console.log(`${config.DATABASE_PATH} already holds data; nothing seeded.`);

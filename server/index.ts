@@ -4,6 +4,7 @@ import { createApp } from './app';
 import { ensureClientBuilt } from './client-build';
 import { loadConfig } from './config';
 import { openDatabase, type Database } from './db/database';
+import { plantToday } from './planning/plan-dates';
 import { createServices } from './services';
 import { ReleaseJob } from './releases/release-job';
 import { startJobs } from './jobs/scheduler';
@@ -27,7 +28,7 @@ async function main(): Promise<void> {
   if (config.SEED_DEMO === '1') {
     if (await isDatabaseEmpty(db)) {
       console.log('Empty database: seeding the demo scenario…');
-      await seedDemoScenario(db, new Date().toISOString().slice(0, 10));
+      await seedDemoScenario(db, plantToday());
     }
     demoSignIns = await listDemoSignIns(db);
   } else {

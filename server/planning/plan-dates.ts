@@ -1,11 +1,11 @@
 import { addWorkingDays, nextWorkingDay } from '../../shared/domain/calendar';
+import { localIsoDate } from '../../shared/domain/date';
 import type { PlantCalendar } from '../../shared/domain/types';
 import { BadRequestError } from '../errors';
 
-/** Today's date on the server's clock, as the plant's calendar day. */
+/** Today's date on the server's clock, which runs on plant time. */
 export function plantToday(now = new Date()): string {
-  const local = new Date(now.getTime() - now.getTimezoneOffset() * 60_000);
-  return local.toISOString().slice(0, 10);
+  return localIsoDate(now);
 }
 
 export const DEFAULT_HORIZON_WORKING_DAYS = 20;

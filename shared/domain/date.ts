@@ -58,3 +58,9 @@ export function addCalendarDays(date: IsoDate, days: number): IsoDate {
   if (!Number.isInteger(days)) throw new RangeError(`Calendar day offset must be a whole number: ${days}`);
   return fromDayNumber(toDayNumber(date) + days);
 }
+
+/** The calendar day of an instant on this machine's clock: the plant's "today" on the server, the user's in the browser. */
+export function localIsoDate(instant: Date = new Date()): IsoDate {
+  const pad = (value: number) => String(value).padStart(2, '0');
+  return `${instant.getFullYear()}-${pad(instant.getMonth() + 1)}-${pad(instant.getDate())}`;
+}
