@@ -6,11 +6,14 @@ import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
 import { replaceBomLines, upsertParts, upsertSuppliers } from '../server/master-data/master-data.writer';
 import { upsertSequenceEntries } from '../server/sequence/sequence.writer';
+import { writeSetting } from '../server/settings/settings';
 import { UserEntity } from '../server/users/user.entity';
 import { buildDemoScenario } from './scenario';
 
 /** Every demo account shares this password; it exists only in the demo database. */
 export const DEMO_PASSWORD = 'cardloop-demo';
+/** Setting holding the e-mail addresses of the accounts the demo seed created. */
+export const DEMO_ACCOUNTS = 'demo.accounts';
 
 /** Writes the invented demo plant into an empty database in one transaction. */
 export async function seedDemoScenario(db: Database, seedDay: string): Promise<void> {
@@ -28,6 +31,12 @@ export async function seedDemoScenario(db: Database, seedDay: string): Promise<v
     await manager.insert(
       UserEntity,
       scenario.users.map((user) => ({ ...user, passwordHash, active: true })),
+    );
+    // The start banner lists these accounts beside the demo password, and never anyone added later.
+    await writeSetting(
+      manager,
+      DEMO_ACCOUNTS,
+      scenario.users.map((user) => user.email),
     );
     await recordAudit(manager, {
       actorEmail: null,

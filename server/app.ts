@@ -61,8 +61,14 @@ export function createApp(
           'upgrade-insecure-requests': null,
         },
       },
+      // Set below, and only over HTTPS: over plain HTTP the header is meaningless at best.
+      strictTransportSecurity: false,
     }),
   );
+  app.use((req, res, next) => {
+    if (req.secure) res.setHeader('Strict-Transport-Security', 'max-age=31536000; includeSubDomains');
+    next();
+  });
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
   app.use('/api', authenticate(db, options.jwtSecret));

@@ -12,14 +12,32 @@ const configSchema = z.object({
   SMTP_URL: z.url().optional(),
   MAIL_FROM: z.string().default('Cardloop <cardloop@example.com>'),
   APP_URL: z.url().default('http://localhost:3000'),
-  SEED_DEMO: z.enum(['0', '1']).default('1'),
+  SEED_DEMO: z.enum(['0', '1']).optional(),
   ADMIN_EMAIL: z.email().optional(),
   ADMIN_PASSWORD: z.string().min(10, 'ADMIN_PASSWORD must be at least 10 characters').optional(),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
   NODE_ENV: z.string().default('development'),
 });
 
-export type AppConfig = z.infer<typeof configSchema> & { jwtSecret: string; jwtSecretGenerated: boolean };
+export type AppConfig = Omit<z.infer<typeof configSchema>, 'SEED_DEMO'> & {
+  SEED_DEMO: '0' | '1';
+  jwtSecret: string;
+  jwtSecretGenerated: boolean;
+};
+
+/**
+ * A real install (NODE_ENV=production) must say who it is and where its mail goes, and never gets
+ * the demo plant or the demo mail capture by accident.
+ */
+function productionProblems(env: NodeJS.ProcessEnv, config: z.infer<typeof configSchema>): string[] {
+  const problems: string[] = [];
+  if (!config.JWT_SECRET) problems.push('JWT_SECRET is required in production (at least 32 random characters)');
+  if (!config.SMTP_URL) problems.push('SMTP_URL is required in production: the embedded demo mail capture is refused');
+  if (!env.APP_URL) problems.push('APP_URL is required in production: the public address used in e-mailed links');
+  if (config.SEED_DEMO === '1')
+    problems.push('SEED_DEMO=1 is refused in production: the demo plant is for trying Cardloop out');
+  return problems;
+}
 
 /** Parses the environment once and fails fast with every bad variable named. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -28,7 +46,14 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     const problems = parsed.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`);
     throw new Error(`Invalid configuration:\n${problems.join('\n')}`);
   }
-  const config = parsed.data;
+  const production = parsed.data.NODE_ENV === 'production';
+  const problems = production ? productionProblems(env, parsed.data) : [];
+  if (problems.length > 0)
+    throw new Error(
+      `Invalid configuration for NODE_ENV=production:\n${problems.map((problem) => `  ${problem}`).join('\n')}`,
+    );
+  // The demo plant is the default only outside production.
+  const config = { ...parsed.data, SEED_DEMO: parsed.data.SEED_DEMO ?? (production ? '0' : '1') } as const;
   if (config.SEED_DEMO === '0' && (!config.ADMIN_EMAIL || !config.ADMIN_PASSWORD)) {
     throw new Error('Invalid configuration:\n  SEED_DEMO=0 needs ADMIN_EMAIL and ADMIN_PASSWORD');
   }

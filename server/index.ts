@@ -12,7 +12,8 @@ import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
 import { startFakeSmtp } from './outbox/fake-smtp';
 import { OutboxDispatcher } from './outbox/outbox.service';
 import { ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
-import { DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
+import { readSetting } from './settings/settings';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -79,10 +80,13 @@ async function main(): Promise<void> {
   process.on('SIGINT', () => void shutdown('SIGINT'));
 }
 
+/** The demo's own accounts still active; users added later are never printed beside the demo password. */
 async function listDemoSignIns(db: Database): Promise<string[]> {
-  const rows: { email: string; role: string; supplier_code: string | null }[] = await db.manager.query(
+  const demoAccounts = new Set(await readSetting<string[]>(db.manager, DEMO_ACCOUNTS, []));
+  const all: { email: string; role: string; supplier_code: string | null }[] = await db.manager.query(
     'SELECT email, role, supplier_code FROM "user" WHERE active = 1 ORDER BY CASE role WHEN \'supplier\' THEN 1 ELSE 0 END, id',
   );
+  const rows = all.filter((row) => demoAccounts.has(row.email));
   return rows.map((row) => `${row.role.padEnd(10)} ${row.email}${row.supplier_code ? `  (${row.supplier_code})` : ''}`);
 }
 

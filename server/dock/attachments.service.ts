@@ -1,11 +1,16 @@
 import { randomBytes } from 'node:crypto';
 import { mkdir, rm, stat, writeFile } from 'node:fs/promises';
 import { basename, join, resolve, sep } from 'node:path';
-import type { AttachmentType, DockAttachment } from '../../shared/schemas/dock';
+import {
+  RECEIVABLE_STATUSES,
+  type AttachmentType,
+  type DockAttachment,
+  type DockStatus,
+} from '../../shared/schemas/dock';
 import { recordAudit } from '../audit/audit.service';
 import { bumpDockVersion } from '../settings/versions';
 import { toDockAttachment } from './dock.service';
-import { NotFoundError, UnsupportedTypeError } from '../errors';
+import { ConflictError, NotFoundError, UnsupportedTypeError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';
 import { ReleaseEntity } from '../releases/release.entity';
 import { AttachmentEntity } from './attachment.entity';
@@ -46,6 +51,17 @@ function cleanFileName(original: string, type: AttachmentType): string {
   return (name || `packing-slip.${EXTENSIONS[type]}`).slice(0, 200);
 }
 
+/** A packing slip belongs to a delivery still being checked in; a received or cancelled release takes none. */
+function assertReceivable(release: ReleaseEntity): void {
+  if (!RECEIVABLE_STATUSES.includes(release.status as DockStatus)) {
+    throw new ConflictError(
+      `Release ${release.number} is ${release.status}; packing slips are attached while a delivery is being received.`,
+      [{ status: release.status }],
+      'not_receivable',
+    );
+  }
+}
+
 /** A packing slip and where its bytes are, for streaming it back. */
 export interface StoredAttachment {
   attachment: DockAttachment;
@@ -76,12 +92,15 @@ export class AttachmentsService {
     }
     const release = await this.db.manager.findOneBy(ReleaseEntity, { id: releaseId });
     if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
+    assertReceivable(release);
     const storagePath = `${release.id}/${randomBytes(16).toString('hex')}.${EXTENSIONS[type]}`;
     const absolutePath = this.locate(storagePath);
     await mkdir(join(this.root, String(release.id)), { recursive: true });
     await writeFile(absolutePath, file.buffer, { flag: 'wx' });
     try {
       return await this.db.write(async (manager) => {
+        // Checked again inside the unit: the release may have been received in full meanwhile.
+        assertReceivable(await manager.findOneByOrFail(ReleaseEntity, { id: release.id }));
         const attachment = await manager.save(
           manager.create(AttachmentEntity, {
             releaseId: release.id,

@@ -14,7 +14,7 @@ import {
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { READ_ROLES, RECEIVING_ROLES } from '../http/roles';
-import { ATTACHMENT_FIELD, receiveAttachmentFile } from './attachment-upload';
+import { FILE_FIELD, receiveFile } from '../http/upload';
 
 /** RFC 6266 inline disposition with an ASCII fallback name and the real one in RFC 8187 form. */
 function inlineDisposition(fileName: string): string {
@@ -53,14 +53,14 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
     method: 'post',
     path: '/dock/items/:id/attachments',
     summary:
-      `Attach a packing slip to a release: multipart/form-data field '${ATTACHMENT_FIELD}', ${ATTACHMENT_TYPES.join(', ')} ` +
+      `Attach a packing slip to a release: multipart/form-data field '${FILE_FIELD}', ${ATTACHMENT_TYPES.join(', ')} ` +
       `recognised by content (other files 415), at most ${ATTACHMENT_MAX_BYTES / 1024 / 1024} MB (413)`,
     access: RECEIVING_ROLES,
     params: dockItemParamsSchema,
     response: dockAttachmentSchema,
     status: 201,
     handler: async ({ params, req, res, user }) => {
-      const file = await receiveAttachmentFile(req, res);
+      const file = await receiveFile(req, res, { maxBytes: ATTACHMENT_MAX_BYTES, what: 'the photo or PDF' });
       return attachments.add(params.id, file, user);
     },
   });

@@ -1,4 +1,4 @@
-import Papa from 'papaparse';
+import { toCsv } from '../../shared/domain/csv';
 import type { DemandResponse, PlanResponse } from '../../shared/schemas/planning';
 
 /** Demand as CSV: one row per part, one column per day, then the total. */
@@ -10,7 +10,7 @@ export function demandToCsv(demand: DemandResponse): string {
     ...demand.days.map((day) => row.byDay[day] ?? 0),
     row.total,
   ]);
-  return Papa.unparse({ fields, data }, { newline: '\r\n' });
+  return toCsv(fields, data);
 }
 
 /** One part's gross-to-net record as CSV, one row per working day, past-due releases last. */
@@ -34,5 +34,5 @@ export function planToCsv(plan: PlanResponse): string {
     bucket.plannedRelease,
   ]);
   for (const release of plan.pastDue) data.push([`past due ${release.date}`, '', '', '', '', '', release.qty]);
-  return Papa.unparse({ fields, data }, { newline: '\r\n' });
+  return toCsv(fields, data);
 }

@@ -13,7 +13,7 @@ import type { Role } from '../../shared/schemas/user';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES, SEQUENCE_ROLES } from '../http/roles';
-import { FILE_FIELD, receiveCsvFile } from './upload';
+import { FILE_FIELD, receiveFile } from '../http/upload';
 
 const TEMPLATE_DIR = fileURLToPath(new URL('../../seed/templates/', import.meta.url));
 
@@ -50,7 +50,7 @@ export function createImportsRouter(services: Services, deps: RouteDeps): Router
       access: IMPORT_ROLES[kind],
       response: importResultSchema,
       handler: async ({ req, res, user }) => {
-        const upload = await receiveCsvFile(req, res);
+        const upload = await receiveFile(req, res, { maxBytes: IMPORT_MAX_BYTES, what: 'the CSV' });
         return service.import({ kind, file: upload.buffer, fileName: upload.fileName, actorEmail: user.email });
       },
     });

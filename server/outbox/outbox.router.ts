@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { capturedMailSchema, outboxMessageSchema } from '../../shared/schemas/mail';
+import { capturedMailSchema, outboxMessageSchema } from '../../shared/schemas/outbox';
 import { NotFoundError } from '../errors';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';

@@ -1,6 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import { LessThanOrEqual, type EntityManager } from 'typeorm';
-import type { OutboxMessage } from '../../shared/schemas/mail';
+import type { OutboxMessage } from '../../shared/schemas/outbox';
 import { OutboxMessageEntity } from './outbox-message.entity';
 import type { Database } from '../db/database';
 

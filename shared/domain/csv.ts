@@ -85,3 +85,15 @@ export function headerProblemMessage(problem: HeaderProblem, layout: ImportLayou
       return `required column '${problem.column}' is missing from the header`;
   }
 }
+
+/**
+ * Rows as CSV text for download or attachment: CRLF line ends (RFC 4180), and a text cell that a
+ * spreadsheet would run as a formula — one starting with =, +, -, @, tab or carriage return — is
+ * prefixed with an apostrophe (OWASP, "CSV Injection"). Numbers stay numbers.
+ */
+export function toCsv(fields: readonly string[], rows: readonly (readonly (string | number)[])[]): string {
+  return Papa.unparse(
+    { fields: [...fields], data: rows.map((row) => [...row]) },
+    { newline: '\r\n', escapeFormulae: true },
+  );
+}

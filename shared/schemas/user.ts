@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { plainText } from './text';
 
 export const ROLES = ['admin', 'planner', 'buyer', 'receiving', 'supplier', 'viewer'] as const;
 export const roleSchema = z.enum(ROLES);
@@ -51,7 +52,7 @@ export type User = z.infer<typeof userSchema>;
 export const createUserRequestSchema = z
   .object({
     email,
-    name: z.string().trim().min(1).max(120),
+    name: plainText(120),
     role: roleSchema,
     password,
     supplierCode: z.string().trim().min(1).max(20).optional(),

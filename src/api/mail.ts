@@ -1,4 +1,4 @@
-import type { CapturedMail, OutboxMessage } from '@shared/schemas/mail';
+import type { CapturedMail, OutboxMessage } from '@shared/schemas/outbox';
 import { http } from './http';
 
 /** The newest outgoing notices and their delivery state (admin). */

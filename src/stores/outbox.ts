@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { CapturedMail, OutboxMessage } from '@shared/schemas/mail';
+import type { CapturedMail, OutboxMessage } from '@shared/schemas/outbox';
 import { ApiError } from '@/api/http';
 import * as mailApi from '@/api/mail';
 

@@ -355,6 +355,19 @@ describe('packing-slip attachments', () => {
     expect((await listDock()).find((item) => item.id === release.id)?.attachments).toEqual([]);
   });
 
+  it.each(['received', 'cancelled'])(
+    'refuses a packing slip on a %s release (409) and stores nothing',
+    async (status) => {
+      const { release } = await makeRelease(status, [{ partNumber: 'BRUSH-20', qty: 1, closed: true }]);
+
+      const response = await upload(release.id, PNG, 'late slip.png');
+
+      expect(response.status).toBe(409);
+      expect(response.body.error.code).toBe('not_receivable');
+      expect(await readdir(join(attachmentsDir, String(release.id))).catch(() => [])).toEqual([]);
+    },
+  );
+
   it('refuses a file over 10 MB with 413', async () => {
     const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
     const tooBig = Buffer.concat([PNG, Buffer.alloc(10 * 1024 * 1024)]);

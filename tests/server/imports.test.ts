@@ -763,7 +763,7 @@ describe('import uploads and roles', () => {
     const response = await request(context.app).post('/api/imports/parts').set(bearer(context.tokens.buyer)).send({});
 
     expect(response.status).toBe(400);
-    expect(response.body.error.message).toBe("Attach the CSV file as multipart/form-data in the field 'file'.");
+    expect(response.body.error.message).toBe("Attach the CSV as multipart/form-data in the field 'file'.");
   });
 
   it('answers 422 at row 1 for an empty file', async () => {

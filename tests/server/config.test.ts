@@ -1,0 +1,46 @@
+import { describe, expect, it } from 'vitest';
+import { loadConfig } from '../../server/config';
+
+const SECRET = 'a-production-secret-of-more-than-32-characters';
+
+describe('loadConfig', () => {
+  it('runs the demo with the embedded mail capture when nothing is set', () => {
+    const config = loadConfig({});
+
+    expect(config.SEED_DEMO).toBe('1');
+    expect(config.SMTP_URL).toBeUndefined();
+    expect(config.jwtSecretGenerated).toBe(true);
+  });
+
+  it('refuses to start in production without a secret, a mail server and a public address, naming each', () => {
+    expect(() => loadConfig({ NODE_ENV: 'production' })).toThrow(
+      /JWT_SECRET is required in production[\s\S]*SMTP_URL is required[\s\S]*APP_URL is required/,
+    );
+  });
+
+  it('refuses the demo plant in production', () => {
+    const env = {
+      NODE_ENV: 'production',
+      JWT_SECRET: SECRET,
+      SMTP_URL: 'smtp://mail.example.com:587',
+      APP_URL: 'https://cardloop.example.com',
+      SEED_DEMO: '1',
+    };
+
+    expect(() => loadConfig(env)).toThrow(/SEED_DEMO=1 is refused in production/);
+  });
+
+  it('starts a production install empty, with the configured admin only', () => {
+    const env = {
+      NODE_ENV: 'production',
+      JWT_SECRET: SECRET,
+      SMTP_URL: 'smtp://mail.example.com:587',
+      APP_URL: 'https://cardloop.example.com',
+    };
+
+    expect(() => loadConfig(env)).toThrow(/SEED_DEMO=0 needs ADMIN_EMAIL and ADMIN_PASSWORD/);
+    const config = loadConfig({ ...env, ADMIN_EMAIL: 'it@example.com', ADMIN_PASSWORD: 'a-long-admin-password' });
+    expect(config.SEED_DEMO).toBe('0');
+    expect(config.jwtSecretGenerated).toBe(false);
+  });
+});
