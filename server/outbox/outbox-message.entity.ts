@@ -3,6 +3,7 @@ import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 /** A notice waiting to be (or already) handed to the mail server; nothing is lost while it is down. */
 @Entity('outbox_message')
 @Index(['status', 'nextAttemptAt'])
+@Index(['ref'])
 export class OutboxMessageEntity {
   @PrimaryGeneratedColumn()
   id: number;
@@ -23,9 +24,20 @@ export class OutboxMessageEntity {
   @Column({ type: 'simple-json', nullable: true })
   attachments: { filename: string; content: string; contentType: string }[] | null;
 
-  /** pending, sent or failed (gave up after the last retry). */
+  /** pending (not tried yet, or due again), sent, or failing (the last attempt failed; retried on). */
   @Column({ type: 'varchar', length: 10, default: 'pending' })
   status: string;
+
+  /** What the notice is about, e.g. `release:R261202-FBS`, so the release can show its mail. */
+  @Column({ type: 'varchar', length: 80, nullable: true })
+  ref: string | null;
+
+  @Column({ name: 'first_failed_at', type: 'varchar', length: 30, nullable: true })
+  firstFailedAt: string | null;
+
+  /** Until when a dispatcher holds the message to send it; another one leaves it alone till then. */
+  @Column({ name: 'claimed_until', type: 'varchar', length: 30, nullable: true })
+  claimedUntil: string | null;
 
   @Column({ type: 'integer', default: 0 })
   attempts: number;

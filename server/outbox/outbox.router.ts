@@ -1,6 +1,11 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { capturedMailSchema, outboxMessageSchema } from '../../shared/schemas/outbox';
+import {
+  capturedMailSchema,
+  outboxHealthSchema,
+  outboxMessageParamsSchema,
+  outboxMessageSchema,
+} from '../../shared/schemas/outbox';
 import { NotFoundError } from '../errors';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
@@ -28,6 +33,25 @@ export function createOutboxRouter(services: Services, deps: RouteDeps, fakeSmtp
     access: ['admin'],
     response: z.array(outboxMessageSchema),
     handler: () => services.outbox.list(),
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/outbox/health',
+    summary: 'How many notices wait and fail, and since when the oldest failing one fails',
+    access: ['admin'],
+    response: outboxHealthSchema,
+    handler: () => services.outbox.health(),
+  });
+
+  defineRoute(router, deps, {
+    method: 'post',
+    path: '/outbox/:id/send-again',
+    summary: 'Try a waiting or failing notice again at once (a sent one is left as it is)',
+    access: ['admin'],
+    params: outboxMessageParamsSchema,
+    response: outboxMessageSchema,
+    handler: ({ params }) => services.outbox.sendAgain(params.id),
   });
 
   return router;

@@ -84,6 +84,16 @@ export function createReleasesRouter(services: Services, deps: RouteDeps): Route
 
   defineRoute(router, deps, {
     method: 'post',
+    path: '/releases/:number/notice/send-again',
+    summary: 'Try the release’s latest e-mail again at once, same link (for a notice the mail server has not taken)',
+    access: MASTER_DATA_ROLES,
+    params: releaseNumberParamsSchema,
+    response: releaseSchema,
+    handler: ({ params, user }) => service.sendNoticeAgain(params.number, user),
+  });
+
+  defineRoute(router, deps, {
+    method: 'post',
     path: '/releases/:number/cancel',
     summary: 'Call a release off before anything is received; its kanban cards go back to empty',
     access: MASTER_DATA_ROLES,

@@ -16,7 +16,8 @@ import { issueConfirmationToken, revokeConfirmationTokens } from './confirmation
 import { ConflictError, NotFoundError } from '../errors';
 import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
-import { enqueueMail } from '../outbox/outbox.service';
+import { OutboxMessageEntity } from '../outbox/outbox-message.entity';
+import { enqueueMail, toOutboxMessage } from '../outbox/outbox.service';
 import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
 import { DEFAULT_HORIZON_WORKING_DAYS } from '../planning/plan-dates';
@@ -65,6 +66,11 @@ function isUniqueViolation(error: unknown): boolean {
   if (!(error instanceof QueryFailedError)) return false;
   const driverError = error.driverError as { code?: string } | undefined;
   return driverError?.code === '23505' || /UNIQUE constraint failed/i.test(error.message);
+}
+
+/** The outbox reference of a release's e-mails. */
+export function releaseNoticeRef(number: string): string {
+  return `release:${number}`;
 }
 
 function actorOf(actor: ReleaseActor): string {
@@ -277,9 +283,9 @@ export class ReleasesService {
       manager,
       lines.map((line) => line.partNumber),
     );
-    await enqueueMail(
-      manager,
-      composeReleaseMail({
+    await enqueueMail(manager, {
+      ref: releaseNoticeRef(release.number),
+      ...composeReleaseMail({
         number: release.number,
         releaseDate: release.releaseDate,
         supplierName: supplier.name,
@@ -300,7 +306,7 @@ export class ReleasesService {
           };
         }),
       }),
-    );
+    });
     release.status = 'sent';
     release.sentAt = now.toISOString();
     await manager.update(ReleaseEntity, { id: release.id }, { status: release.status, sentAt: release.sentAt });
@@ -363,6 +369,29 @@ export class ReleasesService {
         changes: { before, previousAnswer: before.status === 'exception' ? proposal : undefined, to: supplier.email },
       });
       await releasesChanged(manager);
+    });
+    return this.get(number, actor);
+  }
+
+  /** The release's latest e-mail is tried again at once; nothing else changes. */
+  async sendNoticeAgain(number: string, actor: AuthenticatedUser): Promise<Release> {
+    const release = await this.findRelease(this.db.manager, number);
+    const notice = await this.db.manager.findOne(OutboxMessageEntity, {
+      where: { ref: releaseNoticeRef(release.number) },
+      order: { id: 'DESC' },
+    });
+    if (!notice) throw new NotFoundError(`Release ${number} has no e-mail yet.`);
+    await this.db.write(async (manager) => {
+      if (notice.status !== 'sent') {
+        await manager.update(OutboxMessageEntity, { id: notice.id }, { nextAttemptAt: new Date().toISOString() });
+      }
+      await recordAudit(manager, {
+        actorEmail: actor.email,
+        action: 'send-again',
+        entity: 'release',
+        entityKey: number,
+        changes: { noticeId: notice.id, status: notice.status },
+      });
     });
     return this.get(number, actor);
   }
@@ -500,6 +529,11 @@ export class ReleasesService {
       where: { code: In([...new Set(releases.map((release) => release.supplierCode))]) },
     });
     const supplierName = new Map(suppliers.map((supplier) => [supplier.code, supplier.name]));
+    const notices = await manager.find(OutboxMessageEntity, {
+      where: { ref: In(releases.map((release) => releaseNoticeRef(release.number))) },
+      order: { id: 'ASC' },
+    });
+    const noticeOf = new Map(notices.map((notice) => [notice.ref, toOutboxMessage(notice)]));
     const linesByRelease = new Map<number, ReleaseLine[]>();
     for (const line of lines) {
       const part = parts.get(line.partNumber);
@@ -534,6 +568,7 @@ export class ReleasesService {
       carrier: release.carrier,
       trackingNumber: release.trackingNumber,
       supplierNote: release.supplierNote,
+      notice: noticeOf.get(releaseNoticeRef(release.number)) ?? null,
     }));
   }
 }

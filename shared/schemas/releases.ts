@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isoDateSchema } from './master-data';
+import { outboxMessageSchema } from './outbox';
 
 /** Life of a release: draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
 export const RELEASE_STATUSES = [
@@ -52,6 +53,8 @@ export const releaseSchema = z.object({
   carrier: z.string().nullable(),
   trackingNumber: z.string().nullable(),
   supplierNote: z.string().nullable(),
+  /** The latest e-mail of this release and whether the mail server took it; null before any. */
+  notice: outboxMessageSchema.nullable(),
 });
 export type Release = z.infer<typeof releaseSchema>;
 

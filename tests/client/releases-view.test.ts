@@ -58,6 +58,7 @@ const release = (overrides: Partial<Release>): Release => ({
   carrier: null,
   trackingNumber: null,
   supplierNote: null,
+  notice: null,
   ...overrides,
 });
 

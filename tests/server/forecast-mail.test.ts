@@ -1,4 +1,5 @@
 import request from 'supertest';
+import { Like } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { startFakeSmtp, type FakeSmtp } from '../../server/outbox/fake-smtp';
@@ -80,7 +81,7 @@ describe('POST /api/demand/forecast-mail', () => {
 });
 
 describe('OutboxDispatcher', () => {
-  it('keeps a message pending with the error and a later retry time while the mail server is down', async () => {
+  it('keeps a message failing with the error and a later retry time while the mail server is down', async () => {
     await request(context.app)
       .post('/api/demand/forecast-mail')
       .set(bearer(context.tokens.buyer))
@@ -92,7 +93,9 @@ describe('OutboxDispatcher', () => {
     dispatcher.close();
 
     expect(sent).toBe(0);
-    const pending = await context.dataSource.getRepository(OutboxMessageEntity).findOneByOrFail({ status: 'pending' });
+    const pending = await context.dataSource
+      .getRepository(OutboxMessageEntity)
+      .findOneByOrFail({ status: 'failing', subject: Like('Demand forecast%') });
     expect(pending.attempts).toBe(1);
     expect(pending.lastError).toEqual(expect.any(String));
     expect(new Date(pending.nextAttemptAt).getTime()).toBeGreaterThan(now.getTime());
