@@ -30,7 +30,6 @@ import { createSupplierPerformanceRouter } from './supplier-performance/supplier
 import { createUsersRouter } from './users/users.router';
 
 export interface AppOptions extends ServiceOptions {
-  loginFailureLimit?: number;
   fakeSmtp?: FakeSmtp | null;
   /** Folder of the built client to serve; omitted in API tests. */
   clientDir?: string;
@@ -71,7 +70,7 @@ export function createApp(
   });
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
-  app.use('/api', authenticate(db, options.jwtSecret));
+  app.use('/api', authenticate(services.auth));
 
   defineRoute(api, deps, {
     method: 'get',
@@ -83,7 +82,7 @@ export function createApp(
     handler: () => ({ status: 'ok' }),
   });
 
-  api.use(createAuthRouter(services, deps, { loginFailureLimit: options.loginFailureLimit ?? 10 }));
+  api.use(createAuthRouter(services, deps));
   api.use(createUsersRouter(services, deps));
   api.use(createCalendarRouter(services, deps));
   api.use(createSupplierPerformanceRouter(services, deps));
@@ -92,7 +91,7 @@ export function createApp(
   api.use(createSequenceRouter(services, deps));
   api.use(createHorizonRouter(services, deps));
   api.use(createLoopsRouter(services, deps));
-  api.use(createEventsRouter(deps));
+  api.use(createEventsRouter(services, deps));
   api.use(createOutboxRouter(services, deps, options.fakeSmtp ?? null));
   api.use(createLineRiskRouter(services, deps));
   api.use(createReleasesRouter(services, deps));

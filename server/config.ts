@@ -15,7 +15,8 @@ const configSchema = z.object({
   SEED_DEMO: z.enum(['0', '1']).optional(),
   ADMIN_EMAIL: z.email().optional(),
   ADMIN_PASSWORD: z.string().min(10, 'ADMIN_PASSWORD must be at least 10 characters').optional(),
-  LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
+  LOGIN_ACCOUNT_LIMIT: z.coerce.number().int().positive().default(10),
+  LOGIN_ADDRESS_LIMIT: z.coerce.number().int().positive().default(100),
   NODE_ENV: z.string().default('development'),
 });
 

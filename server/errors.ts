@@ -13,7 +13,8 @@ export type ErrorKind =
   | 'gone'
   | 'too_large'
   | 'unsupported_type'
-  | 'rejected';
+  | 'rejected'
+  | 'rate_limited';
 
 /** Base of every error the API reports on purpose. */
 export class AppError extends Error {
@@ -81,6 +82,12 @@ export class PayloadTooLargeError extends AppError {
 export class UnsupportedTypeError extends AppError {
   constructor(message: string) {
     super('unsupported_type', 'unsupported_file_type', message);
+  }
+}
+
+export class RateLimitedError extends AppError {
+  constructor(message: string, details?: unknown[]) {
+    super('rate_limited', 'rate_limited', message, details);
   }
 }
 

@@ -39,7 +39,8 @@ async function main(): Promise<void> {
   const appOptions = {
     jwtSecret: config.jwtSecret,
     jwtTtl: config.JWT_TTL,
-    loginFailureLimit: config.LOGIN_RATE_LIMIT,
+    loginAccountLimit: config.LOGIN_ACCOUNT_LIMIT,
+    loginAddressLimit: config.LOGIN_ADDRESS_LIMIT,
     fakeSmtp,
     clientDir,
     appUrl: config.APP_URL,

@@ -21,6 +21,10 @@ import { UsersService } from './users/users.service';
 export interface ServiceOptions {
   jwtSecret: string;
   jwtTtl?: string;
+  /** Failed sign-ins on one account (from anywhere) in 15 minutes before 429; default 10. */
+  loginAccountLimit?: number;
+  /** Failed sign-ins from one address (on any account) in 15 minutes before 429; default 100. */
+  loginAddressLimit?: number;
   /** Base URL of the web client, for links in e-mails (release confirmation); APP_URL in production. */
   appUrl?: string;
   /** Folder for packing-slip files; defaults to `attachments` beside the database file. */
@@ -43,7 +47,12 @@ export function createServices(db: Database, options: ServiceOptions) {
   return {
     db,
     appUrl,
-    auth: new AuthService(db, options.jwtSecret, options.jwtTtl ?? '8h'),
+    auth: new AuthService(db, {
+      jwtSecret: options.jwtSecret,
+      jwtTtl: options.jwtTtl ?? '8h',
+      appUrl,
+      throttle: { perAccount: options.loginAccountLimit ?? 10, perAddress: options.loginAddressLimit ?? 100 },
+    }),
     users: new UsersService(db),
     calendar: new CalendarService(db),
     masterData: new MasterDataService(db),

@@ -1,28 +1,21 @@
 import type { NextFunction, Request, Response } from 'express';
-import type { Database } from '../db/database';
-import type { Role } from '../../shared/schemas/user';
-import { verifySessionToken } from './tokens';
-import { UserEntity } from '../users/user.entity';
+import type { AuthService } from './auth.service';
 
 export const SESSION_COOKIE = 'cardloop_session';
 
-/** Resolves the bearer token (or session cookie) to an active user; routes decide whether one is needed. */
-export function authenticate(db: Database, jwtSecret: string) {
+/** The session token a request carries: the bearer token, or the session cookie. */
+export function tokenOf(req: Request): string | undefined {
+  const header = req.headers.authorization;
+  return header?.startsWith('Bearer ') ? header.slice(7).trim() : req.cookies?.[SESSION_COOKIE];
+}
+
+/** Resolves the bearer token (or session cookie) to the user of a live session; routes decide whether one is needed. */
+export function authenticate(auth: AuthService) {
   return async (req: Request, _res: Response, next: NextFunction) => {
-    const header = req.headers.authorization;
-    const token = header?.startsWith('Bearer ') ? header.slice(7).trim() : req.cookies?.[SESSION_COOKIE];
+    const token = tokenOf(req);
     if (token) {
-      const userId = verifySessionToken(token, jwtSecret);
-      const user = userId ? await db.manager.findOneBy(UserEntity, { id: userId, active: true }) : null;
-      if (user) {
-        req.user = {
-          id: user.id,
-          email: user.email,
-          name: user.name,
-          role: user.role as Role,
-          supplierCode: user.supplierCode,
-        };
-      }
+      const user = await auth.resolve(token);
+      if (user) req.user = user;
     }
     next();
   };

@@ -1,4 +1,7 @@
 import { AuditEventEntity } from '../audit/audit-event.entity';
+import { LoginFailureEntity } from '../auth/login-failure.entity';
+import { PasswordResetEntity } from '../auth/password-reset.entity';
+import { SessionEntity } from '../users/session.entity';
 import { BomLineEntity } from '../master-data/bom-line.entity';
 import { HolidayEntity } from '../calendar/holiday.entity';
 import { ConfirmationTokenEntity } from '../releases/confirmation-token.entity';
@@ -25,12 +28,15 @@ export const entities = [
   HolidayEntity,
   KanbanCardEntity,
   KanbanLoopEntity,
+  LoginFailureEntity,
   OutboxMessageEntity,
   PartEntity,
+  PasswordResetEntity,
   ReceiptEntity,
   ReleaseEntity,
   ReleaseLineEntity,
   SequenceEntryEntity,
+  SessionEntity,
   SettingEntity,
   SupplierEntity,
   UserEntity,

@@ -12,6 +12,7 @@ const STATUS: Record<ErrorKind, number> = {
   too_large: 413,
   unsupported_type: 415,
   rejected: 422,
+  rate_limited: 429,
 };
 
 interface HttpLikeError {

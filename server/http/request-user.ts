@@ -7,6 +7,8 @@ export interface AuthenticatedUser {
   name: string;
   role: Role;
   supplierCode: string | null;
+  /** The session the request's token names; sign-out ends this one. */
+  sessionId: string;
 }
 
 declare module 'express-serve-static-core' {

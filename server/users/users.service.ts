@@ -1,6 +1,7 @@
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from '../../shared/schemas/user';
 import { recordAudit } from '../audit/audit.service';
 import { hashPassword } from './passwords';
+import { revokeSessions } from './sessions';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';
 import { SupplierEntity } from '../master-data/supplier.entity';
@@ -72,11 +73,22 @@ export class UsersService {
         await assertSupplierExists(manager.getRepository(SupplierEntity), supplierCode);
       }
       const before = { role: user.role, active: user.active, supplierCode: user.supplierCode };
+      // What a token lets its holder do is re-read on every request, but a password change, a
+      // deactivation or a new role ends every session at once: nobody keeps what they had.
+      const endReason =
+        patch.active === false && user.active
+          ? 'deactivated'
+          : passwordHash
+            ? 'password-changed'
+            : role !== user.role || supplierCode !== user.supplierCode
+              ? 'role-changed'
+              : null;
       user.role = role;
       user.supplierCode = supplierCode;
       if (patch.active !== undefined) user.active = patch.active;
       if (passwordHash) user.passwordHash = passwordHash;
       await manager.save(user);
+      const sessionsEnded = endReason ? await revokeSessions(manager, user.id, endReason) : 0;
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'update',
@@ -86,6 +98,7 @@ export class UsersService {
           before,
           after: { role: user.role, active: user.active, supplierCode },
           passwordChanged: !!passwordHash,
+          sessionsEnded,
         },
       });
       return toUser(user);

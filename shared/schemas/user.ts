@@ -74,3 +74,25 @@ export const updateUserRequestSchema = z
 export type UpdateUserRequest = z.infer<typeof updateUserRequestSchema>;
 
 export const userIdParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+
+export const changePasswordRequestSchema = z
+  .object({
+    currentPassword: z.string().min(1).max(200),
+    newPassword: password,
+  })
+  .refine((request) => request.newPassword !== request.currentPassword, {
+    path: ['newPassword'],
+    message: 'must differ from the current password',
+  });
+export type ChangePasswordRequest = z.infer<typeof changePasswordRequestSchema>;
+
+/** A single-use reset link's secret part, as it appears in the e-mailed link. */
+export const passwordResetTokenSchema = z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'is not a password link');
+
+export const passwordResetRequestSchema = z.object({ token: passwordResetTokenSchema, password });
+export type PasswordResetRequest = z.infer<typeof passwordResetRequestSchema>;
+
+export const passwordResetInfoSchema = z.object({ email: z.string(), name: z.string(), expiresAt: z.string() });
+export type PasswordResetInfo = z.infer<typeof passwordResetInfoSchema>;
+
+export const passwordResetSentSchema = z.object({ to: z.string(), expiresAt: z.string() });

@@ -28,7 +28,7 @@ let sharedHash: Promise<string> | undefined;
 export async function createTestContext(options: Partial<AppOptions> = {}): Promise<TestContext> {
   const db = await openDatabase(':memory:');
   const dataSource = db.dataSource;
-  const app = createApp(db, { jwtSecret: TEST_SECRET, loginFailureLimit: 5, ...options });
+  const app = createApp(db, { jwtSecret: TEST_SECRET, loginAccountLimit: 5, ...options });
   sharedHash ??= hashPassword(TEST_PASSWORD);
   const passwordHash = await sharedHash;
   await dataSource.getRepository(SupplierEntity).insert([

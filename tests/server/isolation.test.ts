@@ -19,7 +19,7 @@ import { bearer, createTestContext, testPart, type TestContext } from './helpers
 
 let context: TestContext;
 beforeAll(async () => {
-  context = await createTestContext({ loginFailureLimit: 1000 });
+  context = await createTestContext();
 });
 afterAll(() => context.close());
 

@@ -1,0 +1,50 @@
+import { randomBytes } from 'node:crypto';
+import { IsNull, Not, type EntityManager } from 'typeorm';
+import { notifyAfterCommit } from '../db/database';
+import { SessionEntity } from './session.entity';
+
+export type RevokeReason = 'sign-out' | 'password-changed' | 'password-reset' | 'deactivated' | 'role-changed';
+
+/** A change notice telling open event streams of these sessions to close. */
+export interface SessionsRevoked {
+  userId: number;
+  /** The sessions ended; every session of the user when null. */
+  sessionIds: string[] | null;
+}
+
+export const SESSIONS_CHANNEL = 'sessions';
+
+/** Opens a session for a user until `expiresAt`; its id goes into the token. */
+export async function openSession(manager: EntityManager, userId: number, expiresAt: Date): Promise<SessionEntity> {
+  const session = manager.create(SessionEntity, {
+    id: randomBytes(32).toString('base64url'),
+    userId,
+    createdAt: new Date().toISOString(),
+    expiresAt: expiresAt.toISOString(),
+    revokedAt: null,
+    revokedReason: null,
+  });
+  await manager.insert(SessionEntity, session);
+  return session;
+}
+
+/**
+ * Ends the user's live sessions (all of them, or all but `keep`): their tokens stop working at
+ * once and their open event streams close after the unit commits.
+ */
+export async function revokeSessions(
+  manager: EntityManager,
+  userId: number,
+  reason: RevokeReason,
+  keep?: string,
+): Promise<number> {
+  const live = await manager.find(SessionEntity, {
+    where: { userId, revokedAt: IsNull(), ...(keep && { id: Not(keep) }) },
+    select: { id: true },
+  });
+  if (live.length === 0) return 0;
+  const ids = live.map((session) => session.id);
+  await manager.update(SessionEntity, ids, { revokedAt: new Date().toISOString(), revokedReason: reason });
+  notifyAfterCommit(SESSIONS_CHANNEL, { userId, sessionIds: ids } satisfies SessionsRevoked);
+  return ids.length;
+}

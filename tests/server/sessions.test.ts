@@ -1,0 +1,220 @@
+import { get, type IncomingMessage, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import request from 'supertest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
+import { MAX_STREAMS_PER_USER } from '../../server/events/events.router';
+import { bearer, createTestContext, signIn, TEST_PASSWORD, type TestContext } from './helpers';
+
+let context: TestContext;
+beforeEach(async () => {
+  context = await createTestContext({ loginAccountLimit: 5, loginAddressLimit: 8 });
+});
+afterEach(() => context.close());
+
+const me = (token: string) => request(context.app).get('/api/auth/me').set(bearer(token));
+const idOf = async (email: string) =>
+  (
+    (await request(context.app).get('/api/users').set(bearer(context.tokens.admin))).body as {
+      id: number;
+      email: string;
+    }[]
+  ).find((user) => user.email === email)!.id;
+
+describe('sessions the server can end', () => {
+  it('signs out one session: its token stops working, another device stays signed in', async () => {
+    const laptop = context.tokens.buyer;
+    const tablet = await signIn(context.app, 'buyer@example.com', TEST_PASSWORD);
+
+    const out = await request(context.app).post('/api/auth/logout').set(bearer(laptop));
+
+    expect(out.status).toBe(204);
+    expect((await me(laptop)).status).toBe(401);
+    expect((await me(tablet)).status).toBe(200);
+  });
+
+  it('ends every session of a user whose password the admin changes, or who is deactivated', async () => {
+    const buyerId = await idOf('buyer@example.com');
+    const viewerId = await idOf('viewer@example.com');
+
+    await request(context.app)
+      .patch(`/api/users/${buyerId}`)
+      .set(bearer(context.tokens.admin))
+      .send({ password: 'a-brand-new-password' });
+    await request(context.app)
+      .patch(`/api/users/${viewerId}`)
+      .set(bearer(context.tokens.admin))
+      .send({ active: false });
+
+    expect((await me(context.tokens.buyer)).status).toBe(401);
+    expect((await me(context.tokens.viewer)).status).toBe(401);
+    expect((await me(context.tokens.admin)).status).toBe(200);
+  });
+
+  it('lets a user change their own password, ending their other sessions but not this one', async () => {
+    const other = await signIn(context.app, 'planner@example.com', TEST_PASSWORD);
+
+    const wrong = await request(context.app)
+      .post('/api/auth/password')
+      .set(bearer(context.tokens.planner))
+      .send({ currentPassword: 'not-it-at-all', newPassword: 'planner-new-password' });
+    const changed = await request(context.app)
+      .post('/api/auth/password')
+      .set(bearer(context.tokens.planner))
+      .send({ currentPassword: TEST_PASSWORD, newPassword: 'planner-new-password' });
+
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.error.details[0].path).toEqual(['currentPassword']);
+    expect(changed.status).toBe(204);
+    expect((await me(context.tokens.planner)).status).toBe(200);
+    expect((await me(other)).status).toBe(401);
+    expect(
+      (
+        await request(context.app)
+          .post('/api/auth/login')
+          .send({ email: 'planner@example.com', password: 'planner-new-password' })
+      ).status,
+    ).toBe(200);
+  });
+
+  it('closes an open event stream the moment its user is deactivated', async () => {
+    const server: Server = context.app.listen(0);
+    try {
+      const { port } = server.address() as AddressInfo;
+      const stream = await new Promise<IncomingMessage>((resolve) =>
+        get({ port, path: '/api/events', headers: bearer(context.tokens.viewer) }, resolve),
+      );
+      expect(stream.statusCode).toBe(200);
+      const ended = new Promise<void>((resolve) => stream.on('end', () => resolve()));
+      stream.resume();
+
+      await request(context.app)
+        .patch(`/api/users/${await idOf('viewer@example.com')}`)
+        .set(bearer(context.tokens.admin))
+        .send({ active: false });
+
+      await ended;
+    } finally {
+      server.closeAllConnections();
+      server.close();
+    }
+  });
+
+  it(`refuses a user's event stream beyond ${MAX_STREAMS_PER_USER} open at once`, async () => {
+    const server: Server = context.app.listen(0);
+    const streams: IncomingMessage[] = [];
+    try {
+      const { port } = server.address() as AddressInfo;
+      const open = () =>
+        new Promise<IncomingMessage>((resolve) =>
+          get({ port, path: '/api/events', headers: bearer(context.tokens.viewer) }, resolve),
+        );
+      for (let index = 0; index < MAX_STREAMS_PER_USER; index += 1) streams.push(await open());
+      const oneMore = await open();
+      streams.push(oneMore);
+      const otherUser = await new Promise<IncomingMessage>((resolve) =>
+        get({ port, path: '/api/events', headers: bearer(context.tokens.planner) }, resolve),
+      );
+      streams.push(otherUser);
+
+      expect(streams.slice(0, MAX_STREAMS_PER_USER).every((stream) => stream.statusCode === 200)).toBe(true);
+      expect(oneMore.statusCode).toBe(429);
+      expect(otherUser.statusCode).toBe(200);
+    } finally {
+      for (const stream of streams) stream.destroy();
+      server.closeAllConnections();
+      server.close();
+    }
+  });
+});
+
+describe('password reset links sent by an admin', () => {
+  const linkIn = (text: string) => /\/reset-password\/([A-Za-z0-9_-]+)/.exec(text)?.[1];
+
+  it('e-mails a single-use link that sets a new password and ends every session', async () => {
+    const buyerId = await idOf('buyer@example.com');
+
+    const sent = await request(context.app)
+      .post(`/api/users/${buyerId}/password-reset`)
+      .set(bearer(context.tokens.admin));
+    const mail = await context.dataSource
+      .getRepository(OutboxMessageEntity)
+      .findOneByOrFail({ to: 'buyer@example.com' });
+    const token = linkIn(mail.text)!;
+    const info = await request(context.app).get(`/api/auth/password-reset/${token}`);
+    const reset = await request(context.app)
+      .post('/api/auth/password-reset')
+      .send({ token, password: 'reset-by-link-password' });
+    const again = await request(context.app)
+      .post('/api/auth/password-reset')
+      .send({ token, password: 'another-new-password' });
+
+    expect(sent.status).toBe(202);
+    expect(sent.body.to).toBe('buyer@example.com');
+    expect(mail.subject).toBe('Set a new Cardloop password');
+    expect(info.body).toMatchObject({ email: 'buyer@example.com', name: 'Test buyer' });
+    expect(reset.status).toBe(204);
+    expect(again.status).toBe(409);
+    expect((await me(context.tokens.buyer)).status).toBe(401);
+    const login = await request(context.app)
+      .post('/api/auth/login')
+      .send({ email: 'buyer@example.com', password: 'reset-by-link-password' });
+    expect(login.status).toBe(200);
+  });
+
+  it('answers 404 for an unknown link, 410 for one replaced by a newer link, and 403 to a non-admin', async () => {
+    const buyerId = await idOf('buyer@example.com');
+    await request(context.app).post(`/api/users/${buyerId}/password-reset`).set(bearer(context.tokens.admin));
+    const first = linkIn(
+      (await context.dataSource.getRepository(OutboxMessageEntity).findOneByOrFail({ to: 'buyer@example.com' })).text,
+    )!;
+    await request(context.app).post(`/api/users/${buyerId}/password-reset`).set(bearer(context.tokens.admin));
+
+    const unknown = await request(context.app).get('/api/auth/password-reset/AAAAAAAAAAAAAAAAAAAAAAAAAAAA');
+    const replaced = await request(context.app).get(`/api/auth/password-reset/${first}`);
+    const byBuyer = await request(context.app)
+      .post(`/api/users/${buyerId}/password-reset`)
+      .set(bearer(context.tokens.buyer));
+
+    expect(unknown.status).toBe(404);
+    expect(replaced.status).toBe(410);
+    expect(byBuyer.status).toBe(403);
+  });
+});
+
+describe('sign-in throttling', () => {
+  const login = (email: string, password: string, address: string) =>
+    request(context.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email, password });
+
+  it('locks an account tried from many addresses, whatever address comes next', async () => {
+    for (let attempt = 0; attempt < 5; attempt += 1) {
+      expect((await login('buyer@example.com', 'guess', `198.51.100.${attempt + 1}`)).status).toBe(401);
+    }
+
+    const fromNewAddress = await login('buyer@example.com', TEST_PASSWORD, '198.51.100.200');
+
+    expect(fromNewAddress.status).toBe(429);
+    expect(fromNewAddress.body.error.details[0]).toMatchObject({ scope: 'account' });
+    expect(fromNewAddress.body.error.message).toMatch(/for this account/);
+  });
+
+  it('does not lock colleagues behind the same proxy out for one person’s typos', async () => {
+    for (let attempt = 0; attempt < 5; attempt += 1) await login('buyer@example.com', 'typo', '203.0.113.7');
+
+    const colleague = await login('planner@example.com', TEST_PASSWORD, '203.0.113.7');
+
+    expect(colleague.status).toBe(200);
+  });
+
+  it('stops one address trying many accounts, and only that address', async () => {
+    const accounts = ['admin', 'planner', 'buyer', 'receiving', 'viewer', 'supplier', 'nobody', 'ghost'];
+    for (const account of accounts) await login(`${account}@example.com`, 'guess', '192.0.2.9');
+
+    const sameAddress = await login('viewer@example.com', TEST_PASSWORD, '192.0.2.9');
+    const otherAddress = await login('viewer@example.com', TEST_PASSWORD, '192.0.2.10');
+
+    expect(sameAddress.status).toBe(429);
+    expect(sameAddress.body.error.details[0]).toMatchObject({ scope: 'address' });
+    expect(otherAddress.status).toBe(200);
+  });
+});
