@@ -2,18 +2,13 @@
 import { fileURLToPath, URL } from 'node:url';
 import { defineConfig } from 'vite';
 import vue from '@vitejs/plugin-vue';
-import AutoImport from 'unplugin-auto-import/vite';
 import Components from 'unplugin-vue-components/vite';
 import { ElementPlusResolver } from 'unplugin-vue-components/resolvers';
 
 const serverPort = Number(process.env.PORT ?? 3000);
 
 export default defineConfig({
-  plugins: [
-    vue(),
-    AutoImport({ resolvers: [ElementPlusResolver()], dts: false }),
-    Components({ resolvers: [ElementPlusResolver()], dts: false }),
-  ],
+  plugins: [vue(), Components({ resolvers: [ElementPlusResolver()], dts: false })],
   resolve: {
     alias: {
       '@': fileURLToPath(new URL('./src', import.meta.url)),

@@ -7,10 +7,6 @@ import type { SessionUser } from '@shared/schemas/user';
 import DockCheckInDialog from '@/components/DockCheckInDialog.vue';
 import { newIdempotencyKey, parseCount, suggestDiscrepancy } from '@/stores/dock';
 
-vi.mock('element-plus/es/components/checkbox/style/css', () => ({}));
-vi.mock('element-plus/es/components/upload/style/css', () => ({}));
-vi.mock('element-plus/es/components/progress/style/css', () => ({}));
-
 const receiving: SessionUser = {
   email: 'receiving@example.com',
   name: 'Rae Receiving',

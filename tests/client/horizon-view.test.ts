@@ -6,13 +6,6 @@ import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
 import HorizonView from '@/views/HorizonView.vue';
 import { localToday } from '@/stores/horizon';
 
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/drawer/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-
 const demand: DemandResponse = {
   days: ['2026-12-01', '2026-12-02'],
   rows: [

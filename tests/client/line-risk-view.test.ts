@@ -8,14 +8,6 @@ import LineRiskView from '@/views/LineRiskView.vue';
 import { localToday } from '@/stores/horizon';
 import { expediteSentence, formatQuantity, impactLevel, impactWhen, resequenceSentence } from '@/stores/line-risk';
 
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-vi.mock('element-plus/es/components/tabs/style/css', () => ({}));
-vi.mock('element-plus/es/components/tab-pane/style/css', () => ({}));
-
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
 
 const battery: ShortageDto = {

@@ -7,12 +7,6 @@ import SupplierPerformanceView from '@/views/SupplierPerformanceView.vue';
 import { localToday } from '@/stores/horizon';
 import { defaultMonthRange, rateBand } from '@/stores/performance';
 
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/date-picker/style/css', () => ({}));
-vi.mock('element-plus/es/components/date-picker-panel/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-
 const buyer: SessionUser = { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null };
 
 const month = (overrides: Partial<SupplierMonthPerformanceDto>): SupplierMonthPerformanceDto => ({

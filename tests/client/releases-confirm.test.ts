@@ -5,11 +5,6 @@ import type { Confirmation } from '@shared/schemas/releases';
 import App from '@/App.vue';
 import ConfirmView from '@/views/ConfirmView.vue';
 
-// Styles of the components only this page uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-
 const TOKEN = 'k3vY0m3pQmU5s2Lr9xW1aZ7bC4dE6fG8hJ0kL2nP4qS';
 
 const confirmation: Confirmation = {

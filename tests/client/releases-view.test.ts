@@ -7,14 +7,6 @@ import ReleasesView from '@/views/ReleasesView.vue';
 import { localToday } from '@/stores/horizon';
 import { lineDifference, runSummary } from '@/stores/releases';
 
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/date-picker/style/css', () => ({}));
-vi.mock('element-plus/es/components/dropdown/style/css', () => ({}));
-vi.mock('element-plus/es/components/dropdown-menu/style/css', () => ({}));
-vi.mock('element-plus/es/components/dropdown-item/style/css', () => ({}));
-vi.mock('element-plus/es/components/popover/style/css', () => ({}));
-vi.mock('element-plus/es/components/time-select/style/css', () => ({}));
-
 const confirmBox = vi.hoisted(() => vi.fn(() => Promise.resolve('confirm')));
 vi.mock('element-plus', async (importOriginal) => {
   const original = await importOriginal<typeof import('element-plus')>();
