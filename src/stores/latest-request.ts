@@ -7,9 +7,9 @@ export function isAbort(cause: unknown): boolean {
 }
 
 /**
- * Loading state for a store whose filters can change faster than the server answers: each `run`
- * aborts the one before it, so only the latest answer lands. An ApiError is kept in `error`;
- * anything else is a bug and is thrown on.
+ * Loading state for a store action that reads from the server: each `run` aborts the one before
+ * it, so only the latest answer lands even when filters change faster than the server answers.
+ * An ApiError is kept in `error`; anything else is a bug and is thrown on.
  */
 export function useLatestRequest() {
   const loading = ref(false);
@@ -25,7 +25,7 @@ export function useLatestRequest() {
     try {
       await load(controller.signal);
     } catch (cause) {
-      if (isAbort(cause)) return;
+      if (isAbort(cause) || controller.signal.aborted) return;
       if (!(cause instanceof ApiError)) throw cause;
       error.value = cause;
     } finally {
@@ -36,5 +36,13 @@ export function useLatestRequest() {
     }
   }
 
-  return { loading, error, run };
+  /** Drops the request in flight, if any, and its loading and error state. */
+  function cancel(): void {
+    pending?.abort();
+    pending = null;
+    loading.value = false;
+    error.value = null;
+  }
+
+  return { loading, error, run, cancel };
 }
