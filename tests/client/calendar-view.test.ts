@@ -162,6 +162,8 @@ describe('CalendarHolidayList', () => {
     await flushPromises();
 
     expect(wrapper.emitted('add')).toBeUndefined();
-    await vi.waitFor(() => expect(wrapper.get('.el-form-item__error').text()).toBe('2030-12-25 is already a holiday.'));
+    await vi.waitFor(() =>
+      expect(wrapper.get('.el-form-item__error').text()).toBe('Wed 25 Dec 2030 is already a holiday.'),
+    );
   });
 });

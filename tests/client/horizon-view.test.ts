@@ -4,7 +4,7 @@ import { flushPromises } from '@vue/test-utils';
 import { addCalendarDays } from '@shared/domain/date';
 import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
 import HorizonView from '@/views/HorizonView.vue';
-import { localToday } from '@/stores/horizon';
+import { localToday } from '@/format';
 
 const demand: DemandResponse = {
   days: ['2026-12-01', '2026-12-02'],

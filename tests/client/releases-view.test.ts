@@ -4,8 +4,8 @@ import { flushPromises } from '@vue/test-utils';
 import type { Release, ReleaseLine } from '@shared/schemas/releases';
 import type { SessionUser } from '@shared/schemas/user';
 import ReleasesView from '@/views/ReleasesView.vue';
-import { localToday } from '@/stores/horizon';
-import { lineDifference, runSummary } from '@/stores/releases';
+import { lineDifference, runSummary } from '@/components/releases-presentation';
+import { localToday } from '@/format';
 
 const confirmBox = vi.hoisted(() => vi.fn(() => Promise.resolve('confirm')));
 vi.mock('element-plus', async (importOriginal) => {
