@@ -28,6 +28,7 @@ import {
   localToday,
   unitWord,
 } from '@/format';
+import { setUpDatePickers } from '@/format/date-pickers';
 
 // date-fns (a general-purpose date library) writes the same fields with its own code; its default
 // English names are the short names used here ("Wed", "Dec"). It works on local-time Dates, so
@@ -64,6 +65,25 @@ describe('plant dates on screen', () => {
     for (const day of everyDay(new Date(2026, 0, 1), 366)) {
       expect(dayjs(day).format(DATE_PICKER_FORMAT)).toBe(formatDate(day));
     }
+  });
+
+  it('lets a date picker read back a date typed as shown, without its weekday, or as ISO', () => {
+    setUpDatePickers();
+    // What Element Plus does with typed text: dayjs(text, format), then isValid().
+    const typed = (text: string) => {
+      const day = dayjs(text, DATE_PICKER_FORMAT);
+      return day.isValid() ? day.format('YYYY-MM-DD') : null;
+    };
+
+    expect(typed('Fri 25 Dec 2026')).toBe('2026-12-25');
+    expect(typed(' 25 Dec 2026 ')).toBe('2026-12-25');
+    expect(typed('25 December 2026')).toBe('2026-12-25');
+    expect(typed('2026-12-25')).toBe('2026-12-25');
+    expect(typed('Mon 25 Dec 2026')).toBeNull();
+    expect(typed('31 Feb 2026')).toBeNull();
+    expect(typed('12/25/26')).toBeNull();
+    // Weeks start on Monday (ISO 8601), in pickers and calendars.
+    expect(dayjs('2026-12-02').startOf('week').format('YYYY-MM-DD')).toBe('2026-11-30');
   });
 
   it('leaves nothing for no date and shows a value that is no date as it is', () => {
