@@ -11,8 +11,8 @@ export const useCalendarStore = defineStore('calendar', () => {
 
   /** Loads the plant calendar; a failure is kept in `error` for the view to show. */
   function loadCalendar(): Promise<void> {
-    return run(async (signal) => {
-      calendar.value = await calendarApi.fetchCalendar(signal);
+    return run(calendarApi.fetchCalendar, (answer) => {
+      calendar.value = answer;
     });
   }
 

@@ -42,8 +42,8 @@ export const useDockStore = defineStore('dock', () => {
 
   /** Loads the board; a failure is kept in `error` and the previous board stays. */
   function loadBoard(): Promise<void> {
-    return run(async (signal) => {
-      items.value = await dockApi.listDock(signal);
+    return run(dockApi.listDock, (board) => {
+      items.value = board;
       loaded.value = true;
     });
   }

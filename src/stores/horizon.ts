@@ -25,10 +25,14 @@ export const useHorizonStore = defineStore('horizon', () => {
 
   /** Loads the demand table for a horizon and supplier; a failure is kept in `error`. */
   function fetchDemand(query: DemandQuery, options: FetchOptions = {}): Promise<void> {
-    return runDemand(async (signal) => {
-      demand.value = await planningApi.getDemand(query, signal);
-      demandQuery.value = { ...query };
-    }, options);
+    return runDemand(
+      (signal) => planningApi.getDemand(query, signal),
+      (answer) => {
+        demand.value = answer;
+        demandQuery.value = { ...query };
+      },
+      options,
+    );
   }
 
   /** Loads one part's gross-to-net record; a failure is kept in `planError`. */
@@ -38,9 +42,13 @@ export const useHorizonStore = defineStore('horizon', () => {
     options: FetchOptions = {},
   ): Promise<void> {
     if (!options.quiet && plan.value?.part.partNumber !== part) plan.value = null;
-    await runPlan(async (signal) => {
-      plan.value = await planningApi.getPlan(part, range, signal);
-    }, options);
+    await runPlan(
+      (signal) => planningApi.getPlan(part, range, signal),
+      (answer) => {
+        plan.value = answer;
+      },
+      options,
+    );
     // A failed quiet refresh keeps the record on screen; a failed first load shows none.
     if (planError.value && !options.quiet) plan.value = null;
   }

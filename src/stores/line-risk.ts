@@ -19,10 +19,14 @@ export const useLineRiskStore = defineStore('line-risk', () => {
 
   /** Loads the report for a horizon; a failure is kept in `error`. */
   function fetchReport(next: LineRiskRange, options: FetchOptions = {}): Promise<void> {
-    return run(async (signal) => {
-      report.value = await lineRiskApi.getLineRisk(next, signal);
-      range.value = { ...next };
-    }, options);
+    return run(
+      (signal) => lineRiskApi.getLineRisk(next, signal),
+      (answer) => {
+        report.value = answer;
+        range.value = { ...next };
+      },
+      options,
+    );
   }
 
   /** Re-reads the same horizon after a planning change, without a spinner. */

@@ -81,10 +81,13 @@ export const useLoopsStore = defineStore('loops', () => {
 
   /** Loads the loops (of the chosen supplier); a failure is kept in `error` and the previous list stays. */
   function fetchAll(): Promise<void> {
-    return run(async (signal) => {
-      loops.value = await kanbanApi.listLoops(supplierCode.value || undefined, signal);
-      loaded.value = true;
-    });
+    return run(
+      (signal) => kanbanApi.listLoops(supplierCode.value || undefined, signal),
+      (answer) => {
+        loops.value = answer;
+        loaded.value = true;
+      },
+    );
   }
 
   function replaceLoop(updated: KanbanLoop): void {
@@ -136,21 +139,23 @@ export const useLoopsStore = defineStore('loops', () => {
         error: request.error,
       });
     }
-    return request.run(async (signal) => {
-      cardsByLoop[loopId]!.cards = await kanbanApi.listCards(loopId, signal);
-    });
+    return request.run(
+      (signal) => kanbanApi.listCards(loopId, signal),
+      (cards) => {
+        cardsByLoop[loopId]!.cards = cards;
+      },
+    );
   }
 
   /** Loads a loop and the labels of its cards for the print view; a failure is kept in `labelsError`. */
   async function fetchLabels(loopId: number, cards: kanbanApi.LabelSelection): Promise<void> {
-    await runLabels(async (signal) => {
-      const [loop, loopLabels] = await Promise.all([
-        kanbanApi.getLoop(loopId, signal),
-        kanbanApi.listLabels(loopId, cards, signal),
-      ]);
-      printLoop.value = loop;
-      labels.value = loopLabels;
-    });
+    await runLabels(
+      (signal) => Promise.all([kanbanApi.getLoop(loopId, signal), kanbanApi.listLabels(loopId, cards, signal)]),
+      ([loop, loopLabels]) => {
+        printLoop.value = loop;
+        labels.value = loopLabels;
+      },
+    );
     // A sheet of the wrong cards is worse than none.
     if (labelsError.value) labels.value = [];
   }

@@ -16,23 +16,27 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   /** Loads the newest outgoing notices; a failure is kept in `error`. */
   function fetchOutbox(): Promise<void> {
-    return run(async (signal) => {
-      messages.value = await mailApi.listOutbox(signal);
+    return run(mailApi.listOutbox, (answer) => {
+      messages.value = answer;
     });
   }
 
   /** Loads what the demo mail server caught; a 404 means there is none, not a failure. */
   function fetchCaptured(): Promise<void> {
-    return runCaptured(async (signal) => {
-      try {
-        captured.value = await mailApi.listCapturedMail(signal);
-        capturedUnavailable.value = false;
-      } catch (cause) {
-        if (!(cause instanceof ApiError) || cause.status !== 404) throw cause;
-        capturedUnavailable.value = true;
-        captured.value = [];
-      }
-    });
+    return runCaptured(
+      async (signal) => {
+        try {
+          return await mailApi.listCapturedMail(signal);
+        } catch (cause) {
+          if (cause instanceof ApiError && cause.status === 404) return null;
+          throw cause;
+        }
+      },
+      (answer) => {
+        capturedUnavailable.value = answer === null;
+        captured.value = answer ?? [];
+      },
+    );
   }
 
   return {

@@ -13,10 +13,13 @@ export const usePerformanceStore = defineStore('performance', () => {
 
   /** Loads the figures for a range (and supplier); a failure is kept in `error`. */
   function fetchPerformance(next: PerformanceFilter): Promise<void> {
-    return run(async (signal) => {
-      rows.value = await performanceApi.getSupplierPerformance(next, signal);
-      filter.value = { ...next };
-    });
+    return run(
+      (signal) => performanceApi.getSupplierPerformance(next, signal),
+      (answer) => {
+        rows.value = answer;
+        filter.value = { ...next };
+      },
+    );
   }
 
   /** Each supplier over the whole range, re-weighted from the monthly counts, with its name. */

@@ -39,16 +39,19 @@ export const useReleasesStore = defineStore('releases', () => {
   /** Loads the filtered list and the open exceptions; a failure is kept in `error`. */
   function fetchReleases(filter: ReleasesFilter = lastFilter): Promise<void> {
     lastFilter = { ...filter };
-    return runLoad(async (signal) => {
-      const query = { status: filter.status || undefined, date: filter.date || undefined };
-      const [list, open] = await Promise.all([
-        releasesApi.listReleases(query, signal),
-        releasesApi.listReleases({ status: 'exception' }, signal),
-      ]);
-      releases.value = list;
-      exceptions.value = open;
-      loaded.value = true;
-    });
+    const query = { status: filter.status || undefined, date: filter.date || undefined };
+    return runLoad(
+      (signal) =>
+        Promise.all([
+          releasesApi.listReleases(query, signal),
+          releasesApi.listReleases({ status: 'exception' }, signal),
+        ]),
+      ([list, open]) => {
+        releases.value = list;
+        exceptions.value = open;
+        loaded.value = true;
+      },
+    );
   }
 
   /** Runs the releases of a date and reloads the list; rethrows the ApiError for the view to report. */

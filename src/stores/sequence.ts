@@ -103,11 +103,13 @@ export const useSequenceStore = defineStore('sequence', () => {
   /** Loads the board for the chosen horizon; a failure is kept in `error` and the board shown stays. */
   function loadBoard(): Promise<void> {
     const startedAt = changeCount;
-    return run(async (signal) => {
-      const next = await sequenceApi.fetchBoard({ days: horizonDays.value }, signal);
-      if (startedAt === changeCount) board.value = next;
-      loaded.value = true;
-    });
+    return run(
+      (signal) => sequenceApi.fetchBoard({ days: horizonDays.value }, signal),
+      (next) => {
+        if (startedAt === changeCount) board.value = next;
+        loaded.value = true;
+      },
+    );
   }
 
   function replaceDays(replacements: readonly SequenceDay[]): void {

@@ -10,8 +10,8 @@ export const useSuppliersStore = defineStore('suppliers', () => {
 
   /** Loads the supplier list; a failure is kept in `error` and leaves the previous list. */
   function fetchAll(): Promise<void> {
-    return run(async (signal) => {
-      suppliers.value = await suppliersApi.listSuppliers(signal);
+    return run(suppliersApi.listSuppliers, (answer) => {
+      suppliers.value = answer;
     });
   }
 

@@ -16,8 +16,8 @@ export const useUsersStore = defineStore('users', () => {
 
   /** Loads all accounts; a failure is kept in `error` for the view to show. */
   function fetchAll(): Promise<void> {
-    return run(async (signal) => {
-      users.value = await usersApi.listUsers(signal);
+    return run(usersApi.listUsers, (answer) => {
+      users.value = answer;
     });
   }
 
