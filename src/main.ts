@@ -1,7 +1,5 @@
 import { createApp } from 'vue';
 import { createPinia } from 'pinia';
-import dayjs from 'dayjs';
-import updateLocale from 'dayjs/plugin/updateLocale';
 import '@fontsource/work-sans/400.css';
 import '@fontsource/work-sans/500.css';
 import '@fontsource/work-sans/600.css';
@@ -15,11 +13,10 @@ import 'element-plus/es/components/message-box/style/css';
 import 'element-plus/es/components/loading/style/css';
 import '@/styles/theme.css';
 import App from './App.vue';
+import { setUpDatePickers } from './format/date-pickers';
 import { createAppRouter } from './router';
 
-// Plant weeks are ISO 8601 weeks: calendars and date pickers start them on Monday.
-dayjs.extend(updateLocale);
-dayjs.updateLocale('en', { weekStart: 1 });
+setUpDatePickers();
 
 const app = createApp(App);
 app.use(createPinia());

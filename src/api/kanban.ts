@@ -15,13 +15,13 @@ import { http } from './http';
 export type LabelSelection = 'active' | 'all';
 
 /** Every kanban loop with its sizing, proposal and card counts; optionally one supplier's only. */
-export function listLoops(supplierCode?: string): Promise<KanbanLoop[]> {
-  return http.get<KanbanLoop[]>('/kanban/loops', { query: { supplier: supplierCode || undefined } });
+export function listLoops(supplierCode?: string, signal?: AbortSignal): Promise<KanbanLoop[]> {
+  return http.get<KanbanLoop[]>('/kanban/loops', { query: { supplier: supplierCode || undefined }, signal });
 }
 
 /** One loop, sized on the same plan as the list. */
-export function getLoop(id: number): Promise<KanbanLoop> {
-  return http.get<KanbanLoop>(`/kanban/loops/${id}`);
+export function getLoop(id: number, signal?: AbortSignal): Promise<KanbanLoop> {
+  return http.get<KanbanLoop>(`/kanban/loops/${id}`, { signal });
 }
 
 /** Changes container quantity, safety allowance or sizing window; bad fields reject with a 400 carrying zod issues. */
@@ -38,13 +38,17 @@ export function acceptLoop(id: number, expectedRecommended: number): Promise<Acc
 }
 
 /** Cards of a loop, pulled ones included, each with its latest scans (newest first). */
-export function listCards(loopId: number): Promise<KanbanCardWithScans[]> {
-  return http.get<KanbanCardWithScans[]>(`/kanban/loops/${loopId}/cards`);
+export function listCards(loopId: number, signal?: AbortSignal): Promise<KanbanCardWithScans[]> {
+  return http.get<KanbanCardWithScans[]>(`/kanban/loops/${loopId}/cards`, { signal });
 }
 
 /** What each printed label shows, the QR code included as SVG markup. */
-export function listLabels(loopId: number, cards: LabelSelection = 'active'): Promise<CardLabel[]> {
-  return http.get<CardLabel[]>(`/kanban/loops/${loopId}/labels`, { query: { cards } });
+export function listLabels(
+  loopId: number,
+  cards: LabelSelection = 'active',
+  signal?: AbortSignal,
+): Promise<CardLabel[]> {
+  return http.get<CardLabel[]>(`/kanban/loops/${loopId}/labels`, { query: { cards }, signal });
 }
 
 /** Downloads the printable PDF of a loop's labels (eight to an A4 page); resolves to the saved file name. */

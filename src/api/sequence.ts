@@ -14,8 +14,8 @@ export interface DayOrder {
 }
 
 /** The build sequence by day from `from` (default today) for `days` working days (default 10). */
-export function fetchBoard(range: { from?: string; days?: number } = {}): Promise<SequenceBoard> {
-  return http.get<SequenceBoard>('/sequence', { query: { from: range.from, days: range.days } });
+export function fetchBoard(range: { from?: string; days?: number } = {}, signal?: AbortSignal): Promise<SequenceBoard> {
+  return http.get<SequenceBoard>('/sequence', { query: { from: range.from, days: range.days }, signal });
 }
 
 /** Sets the frozen window and capacity (admin, planner); out-of-range values reject with a 400 carrying zod issues. */

@@ -7,6 +7,6 @@ export interface SupplierSummary {
 }
 
 /** All suppliers, e.g. to bind a supplier contact's account to its company. */
-export function listSuppliers(): Promise<SupplierSummary[]> {
-  return http.get<SupplierSummary[]>('/suppliers');
+export function listSuppliers(signal?: AbortSignal): Promise<SupplierSummary[]> {
+  return http.get<SupplierSummary[]>('/suppliers', { signal });
 }

@@ -8,8 +8,8 @@ export type NewUser = z.input<typeof createUserRequestSchema>;
 export type UserPatch = z.input<typeof updateUserRequestSchema>;
 
 /** Every account, for the admin's user list. */
-export function listUsers(): Promise<User[]> {
-  return http.get<User[]>('/users');
+export function listUsers(signal?: AbortSignal): Promise<User[]> {
+  return http.get<User[]>('/users', { signal });
 }
 
 /** Creates an account; a taken e-mail rejects with a 409 ApiError, bad fields with a 400 carrying zod issues. */

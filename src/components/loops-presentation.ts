@@ -2,7 +2,6 @@ import { markRaw, type Component } from 'vue';
 import { Check, Minus, Plus } from '@element-plus/icons-vue';
 import { CARD_STATES, type CardEvent, type CardState } from '@shared/domain/card-cycle';
 import type { LoopKind, LoopProposal } from '@shared/schemas/kanban-loops';
-import { UNIT_WORDS } from '@shared/schemas/master-data';
 
 /**
  * Words and swatches for card states. The tones are muted on purpose (teal, ochre, slate, sand) so
@@ -31,23 +30,6 @@ export const CARD_EVENT_WORDS: Record<CardEvent, string> = {
   ship: 'Ship',
   receive: 'Receive',
 };
-
-/** The unit of measure in words (`kg`, `pcs`); an unknown code shows as it is. */
-export function unitWord(uom: string): string {
-  return UNIT_WORDS[uom] ?? uom;
-}
-
-/** A quantity with its unit in words, e.g. `25 kg`. */
-export function quantityWithUnit(quantity: number, uom: string): string {
-  return `${formatNumber(quantity)} ${unitWord(uom)}`;
-}
-
-const numberFormat = new Intl.NumberFormat('en', { maximumFractionDigits: 2 });
-
-/** A figure for a table cell: at most two decimals, no trailing zeros. */
-export function formatNumber(value: number): string {
-  return numberFormat.format(value);
-}
 
 /** Which loops the table shows: all, or only those with one kind of proposal. */
 export type ProposalFilter = 'all' | LoopProposal['action'];

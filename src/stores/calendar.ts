@@ -2,26 +2,18 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { Calendar } from '@shared/schemas/master-data';
 import * as calendarApi from '@/api/calendar';
-import { ApiError } from '@/api/http';
+import { useLatestRequest } from './latest-request';
 
 export const useCalendarStore = defineStore('calendar', () => {
   const calendar = ref<Calendar | null>(null);
-  const loading = ref(false);
+  const { loading, error, run } = useLatestRequest();
   const saving = ref(false);
-  const error = ref<ApiError | null>(null);
 
   /** Loads the plant calendar; a failure is kept in `error` for the view to show. */
-  async function fetch(): Promise<void> {
-    loading.value = true;
-    error.value = null;
-    try {
-      calendar.value = await calendarApi.fetchCalendar();
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+  function loadCalendar(): Promise<void> {
+    return run(calendarApi.fetchCalendar, (answer) => {
+      calendar.value = answer;
+    });
   }
 
   /** Replaces the calendar and keeps what the server stored; rethrows the ApiError for the form. */
@@ -35,5 +27,5 @@ export const useCalendarStore = defineStore('calendar', () => {
     }
   }
 
-  return { calendar, loading, saving, error, fetch, save };
+  return { calendar, loading, saving, error, loadCalendar, save };
 });

@@ -10,6 +10,7 @@ import {
 } from '@shared/schemas/imports';
 import { ApiError } from '@/api/http';
 import * as importsApi from '@/api/imports';
+import { formatFileSize } from '@/format';
 
 /** Data rows shown before the import; enough to spot a shifted column or a wrong file. */
 export const PREVIEW_ROWS = 10;
@@ -49,8 +50,7 @@ export function checkCsvFile(file: { name: string; size: number }): string | nul
     return `“${file.name}” is not a .csv file. Save the sheet as “CSV UTF-8 (comma delimited)” and choose that file.`;
   }
   if (file.size > IMPORT_MAX_BYTES) {
-    const megabytes = (file.size / 1024 / 1024).toFixed(1);
-    return `“${file.name}” is ${megabytes} MB; an import file may be at most ${IMPORT_MAX_BYTES / 1024 / 1024} MB. Split it into smaller files and import each.`;
+    return `“${file.name}” is ${formatFileSize(file.size)}; an import file may be at most ${formatFileSize(IMPORT_MAX_BYTES)}. Split it into smaller files and import each.`;
   }
   return null;
 }

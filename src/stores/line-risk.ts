@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
-import type { LineRiskReport, ResequenceOptionDto, ShortageDto } from '@shared/schemas/line-risk';
+import type { LineRiskReport, ShortageDto } from '@shared/schemas/line-risk';
 import * as lineRiskApi from '@/api/line-risk';
 import type { LineRiskRange } from '@/api/line-risk';
 import { useLatestRequest } from './latest-request';
@@ -19,10 +19,14 @@ export const useLineRiskStore = defineStore('line-risk', () => {
 
   /** Loads the report for a horizon; a failure is kept in `error`. */
   function fetchReport(next: LineRiskRange, options: FetchOptions = {}): Promise<void> {
-    return run(async (signal) => {
-      report.value = await lineRiskApi.getLineRisk(next, signal);
-      range.value = { ...next };
-    }, options);
+    return run(
+      (signal) => lineRiskApi.getLineRisk(next, signal),
+      (answer) => {
+        report.value = answer;
+        range.value = { ...next };
+      },
+      options,
+    );
   }
 
   /** Re-reads the same horizon after a planning change, without a spinner. */
@@ -50,71 +54,3 @@ export const useLineRiskStore = defineStore('line-risk', () => {
     refreshLive,
   };
 });
-
-// --- Presentation helpers shared by the view and its components ---
-
-/** Horizon lengths the planner can pick, in weeks. */
-export const LINE_RISK_WEEKS = [1, 2, 4] as const;
-export const DEFAULT_LINE_RISK_WEEKS = 2;
-
-/** "next week", "next 2 weeks". */
-export function horizonWords(weeks: number): string {
-  return weeks === 1 ? 'next week' : `next ${weeks} weeks`;
-}
-
-/** How soon a shortage stops the line: inside the frozen sequence, within a working week, or later. */
-export type ImpactLevel = 'frozen' | 'week' | 'later';
-
-/** Working days in a plant week, the reach of "within a week". */
-const WORKING_WEEK = 5;
-
-export function impactLevel(shortage: Pick<ShortageDto, 'inFrozenWindow' | 'daysUntilImpact'>): ImpactLevel {
-  if (shortage.inFrozenWindow) return 'frozen';
-  return shortage.daysUntilImpact <= WORKING_WEEK ? 'week' : 'later';
-}
-
-export const IMPACT_WORDS: Record<ImpactLevel, string> = {
-  frozen: 'In frozen window',
-  week: 'Within a week',
-  later: 'Later',
-};
-
-/** "today", "tomorrow", "in 3 working days" (or "3 working days ago" for a past date). */
-export function impactWhen(daysUntilImpact: number): string {
-  if (daysUntilImpact === 0) return 'today';
-  if (daysUntilImpact === 1) return 'in 1 working day';
-  if (daysUntilImpact > 1) return `in ${daysUntilImpact} working days`;
-  const ago = -daysUntilImpact;
-  return `${ago} working ${ago === 1 ? 'day' : 'days'} ago`;
-}
-
-// UN/ECE Recommendation 20 codes the plant uses, as people say them.
-const UOM_WORDS: Record<string, string> = { H87: 'pcs', KGM: 'kg', MTR: 'm', LTR: 'L' };
-
-/** The unit of measure as people say it: `pcs`, `kg`, `m`, `L`; an unknown code as it is. */
-export function uomWord(uom: string): string {
-  return UOM_WORDS[uom] ?? uom;
-}
-
-const QTY_FORMAT = new Intl.NumberFormat('en', { maximumFractionDigits: 3 });
-
-/** `12 pcs`, `1 pc`, `1,250.5 kg`. */
-export function formatQuantity(qty: number, uom: string): string {
-  const word = uom === 'H87' && qty === 1 ? 'pc' : uomWord(uom);
-  return `${QTY_FORMAT.format(qty)} ${word}`;
-}
-
-/** "Expedite 12 pcs of TNK-R60 from SRM (Rotomould Co) by 2026-12-04." */
-export function expediteSentence(shortage: ShortageDto): string {
-  const supplier = shortage.supplierCode
-    ? ` from ${shortage.supplierCode}${shortage.supplierName ? ` (${shortage.supplierName})` : ''}`
-    : '';
-  const { qty, needBy } = shortage.rescue.expedite;
-  return `Expedite ${formatQuantity(qty, shortage.uom)} of ${shortage.partNumber}${supplier} by ${needBy}.`;
-}
-
-/** "Build SN… (FS-20W) in slot 14 of 2026-12-03 instead of SN…: all its parts are present." */
-export function resequenceSentence(option: ResequenceOptionDto): string {
-  const { slot, candidate } = option;
-  return `Build ${candidate.serial} (${candidate.model}) in slot ${slot.sequence} of ${slot.date} instead of ${slot.serial}: all its parts are present.`;
-}

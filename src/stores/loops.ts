@@ -4,6 +4,7 @@ import { isCardState, type CardEvent, type CardState } from '@shared/domain/card
 import type { CardLabel, KanbanCardWithScans, KanbanLoop, UpdateKanbanLoopRequest } from '@shared/schemas/kanban-loops';
 import * as kanbanApi from '@/api/kanban';
 import { ApiError } from '@/api/http';
+import { useLatestRequest } from './latest-request';
 
 /** How many scans the scan screen keeps in view. */
 export const SCAN_HISTORY_LENGTH = 10;
@@ -55,20 +56,18 @@ function problemOf(error: ApiError): { problem: ScanProblem; currentState: CardS
 export const useLoopsStore = defineStore('loops', () => {
   const loops = ref<KanbanLoop[]>([]);
   const supplierCode = ref('');
-  const loading = ref(false);
   const loaded = ref(false);
-  const error = ref<ApiError | null>(null);
+  const { loading, error, run } = useLatestRequest();
   // Rows with a change in flight, so their buttons can spin and refuse a second click.
   const busyIds = ref(new Set<number>());
   const cardsByLoop = reactive<Record<number, LoopCardsState>>({});
+  const cardRequests = new Map<number, ReturnType<typeof useLatestRequest>>();
   const scans = ref<ScanRecord[]>([]);
   let scanKey = 0;
   const printLoop = ref<KanbanLoop | null>(null);
   const labels = ref<CardLabel[]>([]);
-  const labelsLoading = ref(false);
-  const labelsError = ref<ApiError | null>(null);
   // Only the latest label request may fill the sheet: toggling active/all twice must not show the first answer.
-  let labelsRequest = 0;
+  const { loading: labelsLoading, error: labelsError, run: runLabels } = useLatestRequest();
 
   const toAdd = computed(() => loops.value.filter((loop) => loop.recommendedCards > loop.activeCards));
   const toPull = computed(() => loops.value.filter((loop) => loop.recommendedCards < loop.activeCards));
@@ -81,18 +80,14 @@ export const useLoopsStore = defineStore('loops', () => {
   );
 
   /** Loads the loops (of the chosen supplier); a failure is kept in `error` and the previous list stays. */
-  async function fetchAll(): Promise<void> {
-    loading.value = true;
-    error.value = null;
-    try {
-      loops.value = await kanbanApi.listLoops(supplierCode.value || undefined);
-      loaded.value = true;
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+  function fetchAll(): Promise<void> {
+    return run(
+      (signal) => kanbanApi.listLoops(supplierCode.value || undefined, signal),
+      (answer) => {
+        loops.value = answer;
+        loaded.value = true;
+      },
+    );
   }
 
   function replaceLoop(updated: KanbanLoop): void {
@@ -132,40 +127,37 @@ export const useLoopsStore = defineStore('loops', () => {
   }
 
   /** Loads (or reloads) one loop's cards with their recent scans. */
-  async function fetchCards(loopId: number): Promise<void> {
-    cardsByLoop[loopId] ??= { cards: [], loading: false, error: null };
-    // Read back through the reactive record: the object literal itself is not tracked.
-    const entry = cardsByLoop[loopId];
-    entry.loading = true;
-    entry.error = null;
-    try {
-      entry.cards = await kanbanApi.listCards(loopId);
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      entry.error = cause;
-    } finally {
-      entry.loading = false;
+  function fetchCards(loopId: number): Promise<void> {
+    let request = cardRequests.get(loopId);
+    if (!request) {
+      request = useLatestRequest();
+      cardRequests.set(loopId, request);
+      // The entry shows the request's own loading and error: refs unwrap inside reactive().
+      cardsByLoop[loopId] = reactive({
+        cards: [] as KanbanCardWithScans[],
+        loading: request.loading,
+        error: request.error,
+      });
     }
+    return request.run(
+      (signal) => kanbanApi.listCards(loopId, signal),
+      (cards) => {
+        cardsByLoop[loopId]!.cards = cards;
+      },
+    );
   }
 
   /** Loads a loop and the labels of its cards for the print view; a failure is kept in `labelsError`. */
   async function fetchLabels(loopId: number, cards: kanbanApi.LabelSelection): Promise<void> {
-    const request = (labelsRequest += 1);
-    labelsLoading.value = true;
-    labelsError.value = null;
-    try {
-      const [loop, loopLabels] = await Promise.all([kanbanApi.getLoop(loopId), kanbanApi.listLabels(loopId, cards)]);
-      if (request !== labelsRequest) return;
-      printLoop.value = loop;
-      labels.value = loopLabels;
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      if (request !== labelsRequest) return;
-      labelsError.value = cause;
-      labels.value = [];
-    } finally {
-      if (request === labelsRequest) labelsLoading.value = false;
-    }
+    await runLabels(
+      (signal) => Promise.all([kanbanApi.getLoop(loopId, signal), kanbanApi.listLabels(loopId, cards, signal)]),
+      ([loop, loopLabels]) => {
+        printLoop.value = loop;
+        labels.value = loopLabels;
+      },
+    );
+    // A sheet of the wrong cards is worse than none.
+    if (labelsError.value) labels.value = [];
   }
 
   function isBusy(id: number): boolean {

@@ -10,7 +10,7 @@ import {
 } from '@shared/schemas/sequence';
 import * as sequenceApi from '@/api/sequence';
 import type { DayOrder } from '@/api/sequence';
-import { ApiError } from '@/api/http';
+import { useLatestRequest } from './latest-request';
 
 /** One unit moving to a place on a day, with the day orders to send and the days it changes. */
 export interface PlannedMove {
@@ -86,35 +86,11 @@ export function reorderDay(
   return { ...day, units, load: units.reduce((sum, unit) => sum + unit.qty, 0) };
 }
 
-/** Units per model on a day, in the board's model order, models with no unit left out. */
-export function modelMix(day: SequenceDay, modelOrder: readonly string[]): { model: string; count: number }[] {
-  const counts = new Map<string, number>();
-  for (const unit of day.units) counts.set(unit.model, (counts.get(unit.model) ?? 0) + unit.qty);
-  const known = modelOrder.filter((model) => counts.has(model));
-  const others = [...counts.keys()].filter((model) => !modelOrder.includes(model)).sort();
-  return [...known, ...others].map((model) => ({ model, count: counts.get(model)! }));
-}
-
-const DAY_FORMAT = new Intl.DateTimeFormat('en-GB', {
-  weekday: 'short',
-  day: 'numeric',
-  month: 'short',
-  timeZone: 'UTC',
-});
-
-/** A plant day as people say it: "Tue 1 Dec". */
-export function dayLabel(date: string): string {
-  return DAY_FORMAT.format(new Date(`${date}T00:00:00Z`));
-}
-
-export const HORIZON_CHOICES = [5, 10, 15, 20, 30] as const;
-
 export const useSequenceStore = defineStore('sequence', () => {
   const board = ref<SequenceBoard | null>(null);
   const horizonDays = ref<number>(DEFAULT_BOARD_WORKING_DAYS);
-  const loading = ref(false);
   const loaded = ref(false);
-  const error = ref<ApiError | null>(null);
+  const { loading, error, run } = useLatestRequest();
   const saving = ref(false);
   // Changes made here since a load started; a load that started before one would show the old order.
   let changeCount = 0;
@@ -125,20 +101,15 @@ export const useSequenceStore = defineStore('sequence', () => {
   const unitCount = computed(() => days.value.reduce((sum, day) => sum + day.units.length, 0));
 
   /** Loads the board for the chosen horizon; a failure is kept in `error` and the board shown stays. */
-  async function fetch(): Promise<void> {
+  function loadBoard(): Promise<void> {
     const startedAt = changeCount;
-    loading.value = true;
-    error.value = null;
-    try {
-      const next = await sequenceApi.fetchBoard({ days: horizonDays.value });
-      if (startedAt === changeCount) board.value = next;
-      loaded.value = true;
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+    return run(
+      (signal) => sequenceApi.fetchBoard({ days: horizonDays.value }, signal),
+      (next) => {
+        if (startedAt === changeCount) board.value = next;
+        loaded.value = true;
+      },
+    );
   }
 
   function replaceDays(replacements: readonly SequenceDay[]): void {
@@ -175,7 +146,7 @@ export const useSequenceStore = defineStore('sequence', () => {
       replaceDays(saved.days);
     } catch (cause) {
       replaceDays(before);
-      void fetch();
+      void loadBoard();
       throw cause;
     } finally {
       saving.value = false;
@@ -188,7 +159,7 @@ export const useSequenceStore = defineStore('sequence', () => {
     try {
       const added = await sequenceApi.addUnit(unit);
       changeCount += 1;
-      await fetch();
+      await loadBoard();
       return added;
     } finally {
       saving.value = false;
@@ -201,7 +172,7 @@ export const useSequenceStore = defineStore('sequence', () => {
     try {
       await sequenceApi.removeUnit(serial, allowFrozen);
       changeCount += 1;
-      await fetch();
+      await loadBoard();
     } finally {
       saving.value = false;
     }
@@ -213,7 +184,7 @@ export const useSequenceStore = defineStore('sequence', () => {
     try {
       const saved = await sequenceApi.saveSettings(settings);
       changeCount += 1;
-      await fetch();
+      await loadBoard();
       return saved;
     } finally {
       saving.value = false;
@@ -223,7 +194,7 @@ export const useSequenceStore = defineStore('sequence', () => {
   /** Shows another number of working days. */
   async function setHorizon(workingDays: number): Promise<void> {
     horizonDays.value = workingDays;
-    await fetch();
+    await loadBoard();
   }
 
   return {
@@ -237,7 +208,7 @@ export const useSequenceStore = defineStore('sequence', () => {
     models,
     modelOrder,
     unitCount,
-    fetch,
+    loadBoard,
     touchesFrozen,
     move,
     addUnit,

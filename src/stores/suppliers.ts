@@ -2,25 +2,17 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import * as suppliersApi from '@/api/suppliers';
 import type { SupplierSummary } from '@/api/suppliers';
-import { ApiError } from '@/api/http';
+import { useLatestRequest } from './latest-request';
 
 export const useSuppliersStore = defineStore('suppliers', () => {
   const suppliers = ref<SupplierSummary[]>([]);
-  const loading = ref(false);
-  const error = ref<ApiError | null>(null);
+  const { loading, error, run } = useLatestRequest();
 
   /** Loads the supplier list; a failure is kept in `error` and leaves the previous list. */
-  async function fetchAll(): Promise<void> {
-    loading.value = true;
-    error.value = null;
-    try {
-      suppliers.value = await suppliersApi.listSuppliers();
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+  function fetchAll(): Promise<void> {
+    return run(suppliersApi.listSuppliers, (answer) => {
+      suppliers.value = answer;
+    });
   }
 
   return { suppliers, loading, error, fetchAll };

@@ -3,30 +3,22 @@ import { computed, ref } from 'vue';
 import type { User } from '@shared/schemas/user';
 import * as usersApi from '@/api/users';
 import type { NewUser, UserPatch } from '@/api/users';
-import { ApiError } from '@/api/http';
+import { useLatestRequest } from './latest-request';
 
 export const useUsersStore = defineStore('users', () => {
   const users = ref<User[]>([]);
-  const loading = ref(false);
+  const { loading, error, run } = useLatestRequest();
   const saving = ref(false);
-  const error = ref<ApiError | null>(null);
   // Rows with a change in flight, so their controls can show a spinner and refuse a second click.
   const updatingIds = ref(new Set<number>());
 
   const byNewest = computed(() => [...users.value].sort((a, b) => b.createdAt.localeCompare(a.createdAt)));
 
   /** Loads all accounts; a failure is kept in `error` for the view to show. */
-  async function fetchAll(): Promise<void> {
-    loading.value = true;
-    error.value = null;
-    try {
-      users.value = await usersApi.listUsers();
-    } catch (cause) {
-      if (!(cause instanceof ApiError)) throw cause;
-      error.value = cause;
-    } finally {
-      loading.value = false;
-    }
+  function fetchAll(): Promise<void> {
+    return run(usersApi.listUsers, (answer) => {
+      users.value = answer;
+    });
   }
 
   /** Creates an account; rethrows the ApiError so the form can place field messages. */

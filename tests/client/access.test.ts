@@ -1,3 +1,4 @@
+// @vitest-environment node
 import { describe, expect, it } from 'vitest';
 import type { RouteLocationNormalized } from 'vue-router';
 import { decideAccess, safeRedirect } from '@/router/access';

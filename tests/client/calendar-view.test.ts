@@ -1,10 +1,11 @@
 import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, stubFetch } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, type VueWrapper } from '@vue/test-utils';
-import { addDays, format, getISODay } from 'date-fns';
+import { addDays, addMonths, format, getISODay } from 'date-fns';
 import { RouterView } from 'vue-router';
 import type { SessionUser } from '@shared/schemas/user';
 import CalendarHolidayList from '@/components/CalendarHolidayList.vue';
+import CalendarMonth from '@/components/CalendarMonth.vue';
 
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
 const viewer: SessionUser = { email: 'viewer@example.com', name: 'Vi Viewer', role: 'viewer', supplierCode: null };
@@ -162,6 +163,30 @@ describe('CalendarHolidayList', () => {
     await flushPromises();
 
     expect(wrapper.emitted('add')).toBeUndefined();
-    await vi.waitFor(() => expect(wrapper.get('.el-form-item__error').text()).toBe('2030-12-25 is already a holiday.'));
+    await vi.waitFor(() =>
+      expect(wrapper.get('.el-form-item__error').text()).toBe('Wed 25 Dec 2030 is already a holiday.'),
+    );
+  });
+});
+
+describe('CalendarMonth', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+  });
+
+  it('names the month shown in the screen style and pages from month to month', async () => {
+    const context = await createAppContext({ user: planner, path: '/' });
+    const wrapper = await mountInApp(CalendarMonth, context, {
+      props: { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] },
+    });
+    const today = new Date();
+
+    // date-fns writes the expected month names ("Dec 2030"), independently of the component.
+    expect(wrapper.get('.calendar-month__title').text()).toBe(format(today, 'MMM yyyy'));
+    getButton(wrapper.element, 'Next month').click();
+    await flushPromises();
+
+    expect(wrapper.get('.calendar-month__title').text()).toBe(format(addMonths(today, 1), 'MMM yyyy'));
   });
 });

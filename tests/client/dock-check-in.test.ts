@@ -5,11 +5,8 @@ import type { DockItem, DockLine } from '@shared/schemas/dock';
 import type { ReceiptRequest, ReceiptResponse } from '@shared/schemas/receipts';
 import type { SessionUser } from '@shared/schemas/user';
 import DockCheckInDialog from '@/components/DockCheckInDialog.vue';
-import { newIdempotencyKey, parseCount, suggestDiscrepancy } from '@/stores/dock';
-
-vi.mock('element-plus/es/components/checkbox/style/css', () => ({}));
-vi.mock('element-plus/es/components/upload/style/css', () => ({}));
-vi.mock('element-plus/es/components/progress/style/css', () => ({}));
+import { newIdempotencyKey } from '@/api/idempotency-key';
+import { parseCount, suggestDiscrepancy } from '@/components/dock-presentation';
 
 const receiving: SessionUser = {
   email: 'receiving@example.com',

@@ -6,12 +6,6 @@ import type { DockColumn, DockItem } from '@shared/schemas/dock';
 import type { SessionUser } from '@shared/schemas/user';
 import DockView from '@/views/DockView.vue';
 
-vi.mock('element-plus/es/components/checkbox/style/css', () => ({}));
-vi.mock('element-plus/es/components/upload/style/css', () => ({}));
-vi.mock('element-plus/es/components/progress/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-
 const receiving: SessionUser = {
   email: 'receiving@example.com',
   name: 'Rae Receiving',

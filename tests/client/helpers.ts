@@ -8,29 +8,6 @@ import { writeToken } from '@/api/session-token';
 import { createAppRouter } from '@/router';
 import { useAuthStore } from '@/stores/auth';
 
-// The on-demand resolver adds `import 'element-plus/es/components/<name>/style/css'` to every
-// SFC; Node cannot load those .css files when vitest externalises element-plus, and styles
-// play no part in these tests. Import this module first in a test file so the mocks are in
-// place before any component module loads.
-vi.mock('element-plus/es/components/base/style/css', () => ({}));
-vi.mock('element-plus/es/components/alert/style/css', () => ({}));
-vi.mock('element-plus/es/components/button/style/css', () => ({}));
-vi.mock('element-plus/es/components/dialog/style/css', () => ({}));
-vi.mock('element-plus/es/components/empty/style/css', () => ({}));
-vi.mock('element-plus/es/components/form/style/css', () => ({}));
-vi.mock('element-plus/es/components/form-item/style/css', () => ({}));
-vi.mock('element-plus/es/components/icon/style/css', () => ({}));
-vi.mock('element-plus/es/components/input/style/css', () => ({}));
-vi.mock('element-plus/es/components/loading/style/css', () => ({}));
-vi.mock('element-plus/es/components/message/style/css', () => ({}));
-vi.mock('element-plus/es/components/message-box/style/css', () => ({}));
-vi.mock('element-plus/es/components/option/style/css', () => ({}));
-vi.mock('element-plus/es/components/select/style/css', () => ({}));
-vi.mock('element-plus/es/components/switch/style/css', () => ({}));
-vi.mock('element-plus/es/components/table/style/css', () => ({}));
-vi.mock('element-plus/es/components/table-column/style/css', () => ({}));
-vi.mock('element-plus/es/components/tag/style/css', () => ({}));
-
 export const demoUsers = {
   admin: { email: 'admin@example.com', name: 'Ada Admin', role: 'admin', supplierCode: null },
   buyer: { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null },

@@ -4,7 +4,7 @@ import { getISOWeek, getISOWeekYear } from 'date-fns';
 import { weeklyTotals } from '@shared/domain/plan-demand';
 import type { DemandResponse } from '@shared/schemas/planning';
 import HorizonTable from '@/components/HorizonTable.vue';
-import { demandColumns, demandTable } from '@/stores/horizon';
+import { demandColumns, demandTable } from '@/components/horizon-presentation';
 
 // A demand response across the 2009/2010 year boundary, as GET /api/demand sends it (every
 // horizon day a key of byDay). The quantities are arbitrary: the checks below are ISO week

@@ -4,14 +4,7 @@ import { flushPromises } from '@vue/test-utils';
 import { addCalendarDays } from '@shared/domain/date';
 import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
 import HorizonView from '@/views/HorizonView.vue';
-import { localToday } from '@/stores/horizon';
-
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/drawer/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
+import { localToday } from '@/format';
 
 const demand: DemandResponse = {
   days: ['2026-12-01', '2026-12-02'],

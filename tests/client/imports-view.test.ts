@@ -184,7 +184,7 @@ describe('ImportsView', () => {
     await input.trigger('change');
     await flushPromises();
 
-    expect(wrapper.text()).toContain('“big.csv” is 6.0 MB; an import file may be at most 5 MB.');
+    expect(wrapper.text()).toContain('“big.csv” is 6 MB; an import file may be at most 5 MB.');
     expect(wrapper.find('.imports-view__file').exists()).toBe(false);
     expect(FakeXhr.sent).toHaveLength(0);
   });

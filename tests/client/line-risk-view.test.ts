@@ -5,16 +5,8 @@ import { addCalendarDays } from '@shared/domain/date';
 import type { LineRiskReport, ShortageDto } from '@shared/schemas/line-risk';
 import type { SessionUser } from '@shared/schemas/user';
 import LineRiskView from '@/views/LineRiskView.vue';
-import { localToday } from '@/stores/horizon';
-import { expediteSentence, formatQuantity, impactLevel, impactWhen, resequenceSentence } from '@/stores/line-risk';
-
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-vi.mock('element-plus/es/components/tabs/style/css', () => ({}));
-vi.mock('element-plus/es/components/tab-pane/style/css', () => ({}));
+import { expediteSentence, impactLevel, impactWhen, resequenceSentence } from '@/components/line-risk-presentation';
+import { formatQuantity, localToday } from '@/format';
 
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
 
@@ -147,9 +139,9 @@ describe('LineRiskView', () => {
     expect(rows[1]!.text()).not.toContain('Hazardous');
     // The first, most urgent part opens with its rescue and the exact units it stops.
     const detail = wrapper.get('[aria-label="Rescue for BAT-06-312"]');
-    expect(detail.text()).toContain('Expedite 12 pcs of BAT-06-312 from FBS (Battery Supply Co) by 2026-12-03.');
+    expect(detail.text()).toContain('Expedite 12 pcs of BAT-06-312 from FBS (Battery Supply Co) by Thu 3 Dec.');
     expect(detail.text()).toContain(
-      'Build SN26120314 (FS-20W) in slot 13 of 2026-12-03 instead of SN26120313: all its parts are present.',
+      'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec instead of SN26120313: all its parts are present.',
     );
     expect(detail.text()).toContain("Hazardous goods: follow the plant's handling and transport rules.");
     const units = wrapper.get('[aria-label="Units that lack BAT-06-312"]');
@@ -255,9 +247,9 @@ describe('line-risk wording', () => {
   });
 
   it('words the rescues as instructions', () => {
-    expect(expediteSentence(tank)).toBe('Expedite 3 pcs of TNK-R60 from SRM by 2026-12-08.');
+    expect(expediteSentence(tank)).toBe('Expedite 3 pcs of TNK-R60 from SRM by Tue 8 Dec.');
     expect(resequenceSentence(battery.rescue.resequence!)).toBe(
-      'Build SN26120314 (FS-20W) in slot 13 of 2026-12-03 instead of SN26120313: all its parts are present.',
+      'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec instead of SN26120313: all its parts are present.',
     );
   });
 });

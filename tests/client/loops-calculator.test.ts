@@ -3,11 +3,6 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import LoopsSizingCalculator from '@/components/LoopsSizingCalculator.vue';
 
-vi.mock('element-plus/es/components/drawer/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
-
 async function openCalculator() {
   const context = await createAppContext({ user: demoUsers.buyer, path: '/loops' });
   const wrapper = await mountInApp(LoopsSizingCalculator, context, { props: { modelValue: true, loop: null } });

@@ -6,9 +6,6 @@ import type { CardLabel, KanbanLoop } from '@shared/schemas/kanban-loops';
 import LoopPrintQr from '@/components/LoopPrintQr.vue';
 import LoopPrintView from '@/views/LoopPrintView.vue';
 
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-
 // The shape the server's QR library writes: a white square and one path of dark modules.
 const QR_SVG =
   '<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 23 23" shape-rendering="crispEdges">' +

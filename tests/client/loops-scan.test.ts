@@ -4,9 +4,6 @@ import { flushPromises } from '@vue/test-utils';
 import type { CardScanResponse } from '@shared/schemas/kanban-loops';
 import CardScanView from '@/views/CardScanView.vue';
 
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-
 /**
  * Card 1 of loop 45: data digits 0000045 0001, check digit by the GS1 mod-10 rule (GS1 General
  * Specifications, section 7.9): weights 3,1,3… from the right give 1×3 + 5×3 + 4×1 = 22, and

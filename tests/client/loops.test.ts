@@ -8,13 +8,6 @@ import LoopsCardStateStrip from '@/components/LoopsCardStateStrip.vue';
 import LoopsProposalBadge from '@/components/LoopsProposalBadge.vue';
 import LoopsView from '@/views/LoopsView.vue';
 
-// Styles of the components only this screen uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/drawer/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-group/style/css', () => ({}));
-vi.mock('element-plus/es/components/radio-button/style/css', () => ({}));
-vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
-vi.mock('element-plus/es/components/pagination/style/css', () => ({}));
-
 /**
  * A loop as GET /api/kanban/loops sends it. The figures are the formula's own arithmetic:
  * D = 8/day, delivery cycle 5–2–1 gives T = 5 × (1 + 1) / 2 = 5 days, α = 0.1, C = 10, so

@@ -4,14 +4,8 @@ import { flushPromises } from '@vue/test-utils';
 import type { SupplierMonthPerformanceDto } from '@shared/schemas/supplier-performance';
 import type { SessionUser } from '@shared/schemas/user';
 import SupplierPerformanceView from '@/views/SupplierPerformanceView.vue';
-import { localToday } from '@/stores/horizon';
-import { defaultMonthRange, rateBand } from '@/stores/performance';
-
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/date-picker/style/css', () => ({}));
-vi.mock('element-plus/es/components/date-picker-panel/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
+import { defaultMonthRange, rateBand } from '@/components/performance-presentation';
+import { localToday } from '@/format';
 
 const buyer: SessionUser = { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null };
 

@@ -5,11 +5,6 @@ import type { Confirmation } from '@shared/schemas/releases';
 import App from '@/App.vue';
 import ConfirmView from '@/views/ConfirmView.vue';
 
-// Styles of the components only this page uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-
 const TOKEN = 'k3vY0m3pQmU5s2Lr9xW1aZ7bC4dE6fG8hJ0kL2nP4qS';
 
 const confirmation: Confirmation = {
@@ -95,11 +90,12 @@ describe('ConfirmView', () => {
     expect(fetchMock.mock.calls[0]![1]!.headers).not.toHaveProperty('Authorization');
     expect(wrapper.get('h1').text()).toBe('R261201-SRM');
     expect(wrapper.text()).toContain('For Rotomould Co from Cardloop demo plant');
-    expect(wrapper.text()).toContain('Fri 4 Dec to Mon 7 Dec');
-    expect(wrapper.text()).toContain('Requested 6 pcs, needed by Fri 4 Dec');
+    expect(wrapper.text()).toContain('Fri 4 Dec 2026 to Mon 7 Dec 2026');
+    expect(wrapper.text()).toContain('Requested 6 pcs, needed by Fri 4 Dec 2026');
     expect(wrapper.text()).toContain('Hazardous goods: pack and ship under the applicable dangerous-goods rules.');
     expect(qtyInput(wrapper, 11).value).toBe('6');
-    expect((wrapper.get('#confirm-line-12-ship').element as HTMLInputElement).value).toBe('2026-12-07');
+    // The picker shows the date in the screen style and hands the ISO date to the answer.
+    expect((wrapper.get('#confirm-line-12-ship').element as HTMLInputElement).value).toBe('Mon 7 Dec 2026');
     expect(wrapper.text()).toContain('Every line as requested: the release will be confirmed.');
   });
 
@@ -154,7 +150,12 @@ describe('ConfirmView', () => {
     const fetchMock = stubConfirm(() => jsonResponse(200, confirmation));
     const wrapper = await openConfirm();
 
-    await wrapper.get('#confirm-line-12-ship').setValue('');
+    // Cleared the way a person clears it: the picker hands back no date.
+    const shipPicker = wrapper
+      .findAllComponents({ name: 'ElDatePicker' })
+      .find((picker) => picker.find('#confirm-line-12-ship').exists());
+    shipPicker!.vm.$emit('update:modelValue', null);
+    await flushPromises();
     getButton(wrapper.element, 'Send answer').click();
     await flushPromises();
 

@@ -4,16 +4,8 @@ import { flushPromises } from '@vue/test-utils';
 import type { Release, ReleaseLine } from '@shared/schemas/releases';
 import type { SessionUser } from '@shared/schemas/user';
 import ReleasesView from '@/views/ReleasesView.vue';
-import { localToday } from '@/stores/horizon';
-import { lineDifference, runSummary } from '@/stores/releases';
-
-// Styles of the components only this view uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/date-picker/style/css', () => ({}));
-vi.mock('element-plus/es/components/dropdown/style/css', () => ({}));
-vi.mock('element-plus/es/components/dropdown-menu/style/css', () => ({}));
-vi.mock('element-plus/es/components/dropdown-item/style/css', () => ({}));
-vi.mock('element-plus/es/components/popover/style/css', () => ({}));
-vi.mock('element-plus/es/components/time-select/style/css', () => ({}));
+import { lineDifference, runSummary } from '@/components/releases-presentation';
+import { localToday } from '@/format';
 
 const confirmBox = vi.hoisted(() => vi.fn(() => Promise.resolve('confirm')));
 vi.mock('element-plus', async (importOriginal) => {

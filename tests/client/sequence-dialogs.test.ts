@@ -7,8 +7,6 @@ import SequenceAddUnitDialog from '@/components/SequenceAddUnitDialog.vue';
 import SequenceSettingsDialog from '@/components/SequenceSettingsDialog.vue';
 import { useSequenceStore } from '@/stores/sequence';
 
-vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
-
 const FROZEN = '2026-12-01';
 const OPEN = '2026-12-07';
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };

@@ -7,11 +7,6 @@ import type { SessionUser } from '@shared/schemas/user';
 import { planMove } from '@/stores/sequence';
 import SequenceView from '@/views/SequenceView.vue';
 
-// Styles of the components only this screen uses; Node cannot load them and they play no part here.
-vi.mock('element-plus/es/components/input-number/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton/style/css', () => ({}));
-vi.mock('element-plus/es/components/skeleton-item/style/css', () => ({}));
-
 const FROZEN = '2026-12-01';
 const FULL = '2026-12-04';
 const OPEN = '2026-12-07';

@@ -1,3 +1,4 @@
+// @vitest-environment node
 import { describe, expect, it } from 'vitest';
 import type { FormItemRule } from 'element-plus';
 import { createUserRequestSchema } from '@shared/schemas/user';

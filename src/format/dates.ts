@@ -1,0 +1,103 @@
+import { isIsoDate, toDayNumber, weekdayOfDayNumber } from '@shared/domain/date';
+import type { IsoDate } from '@shared/domain/types';
+
+/*
+ * One date style on every screen, in English day-month order whatever the browser's language:
+ * weekday, day, short month — "Wed 2 Dec" in dense tables and sentences, "Wed 2 Dec 2026" where
+ * the year matters — and a 24-hour clock, "14:05". Files and API bodies keep ISO 8601
+ * `YYYY-MM-DD`. The names come from these tables rather than Intl so that a browser's locale
+ * data (newer en-GB data writes "Sept") cannot change a screen.
+ */
+const WEEKDAY_NAMES = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'];
+const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+
+/** The same style in dayjs tokens, for Element Plus date pickers (`format`). */
+export const DATE_PICKER_FORMAT = 'ddd D MMM YYYY';
+/** Month pickers show "Mar 2026". */
+export const MONTH_PICKER_FORMAT = 'MMM YYYY';
+/** What a picker hands back (`value-format`): the ISO date the API takes. */
+export const ISO_DATE_FORMAT = 'YYYY-MM-DD';
+export const ISO_MONTH_FORMAT = 'YYYY-MM';
+
+function pad2(value: number): string {
+  return String(value).padStart(2, '0');
+}
+
+/** `Wed` for a plant date (a calendar day, so no time zone is involved). */
+export function formatWeekday(date: IsoDate): string {
+  return isIsoDate(date) ? WEEKDAY_NAMES[weekdayOfDayNumber(toDayNumber(date)) - 1]! : date;
+}
+
+/** `2 Dec` for a plant date. */
+export function formatDayMonth(date: IsoDate): string {
+  return isIsoDate(date) ? `${Number(date.slice(8, 10))} ${MONTH_NAMES[Number(date.slice(5, 7)) - 1]}` : date;
+}
+
+/** `Wed 2 Dec` for a plant date, the style of tables and sentences; blank for none. */
+export function formatDay(date: IsoDate | null): string {
+  if (!date) return '';
+  return isIsoDate(date) ? `${formatWeekday(date)} ${formatDayMonth(date)}` : date;
+}
+
+/** `Wed 2 Dec 2026` for a plant date whose year matters; blank for none. */
+export function formatDate(date: IsoDate | null): string {
+  if (!date) return '';
+  return isIsoDate(date) ? `${formatDay(date)} ${date.slice(0, 4)}` : date;
+}
+
+/** `1–4 Dec`, or `30 Nov – 4 Dec` across a month end: the first to the last day of a span. */
+export function formatDayRange(first: IsoDate, last: IsoDate): string {
+  if (first === last) return formatDayMonth(first);
+  if (first.slice(0, 7) === last.slice(0, 7)) return `${Number(first.slice(8, 10))}–${formatDayMonth(last)}`;
+  return `${formatDayMonth(first)} – ${formatDayMonth(last)}`;
+}
+
+/** `Mar 2026` for a month written `YYYY-MM`. */
+export function formatMonth(month: string): string {
+  const match = /^(\d{4})-(\d{2})$/.exec(month);
+  const name = match ? MONTH_NAMES[Number(match[2]) - 1] : undefined;
+  return match && name ? `${name} ${match[1]}` : month;
+}
+
+function toInstant(value: string | Date): Date | null {
+  const instant = value instanceof Date ? value : new Date(value);
+  return Number.isNaN(instant.getTime()) ? null : instant;
+}
+
+/** The calendar day of an instant on this computer's clock, as `YYYY-MM-DD`. */
+export function isoDateOf(instant: Date): IsoDate {
+  return `${String(instant.getFullYear()).padStart(4, '0')}-${pad2(instant.getMonth() + 1)}-${pad2(instant.getDate())}`;
+}
+
+/** Today's date on this computer's clock, as `YYYY-MM-DD`. */
+export function localToday(now = new Date()): IsoDate {
+  return isoDateOf(now);
+}
+
+/** `14:05` (or `14:05:09` with seconds) on a 24-hour clock, in this computer's time zone; blank for none. */
+export function formatTime(value: string | Date | null, options: { seconds?: boolean } = {}): string {
+  if (!value) return '';
+  const instant = toInstant(value);
+  if (!instant) return String(value);
+  const time = `${pad2(instant.getHours())}:${pad2(instant.getMinutes())}`;
+  return options.seconds ? `${time}:${pad2(instant.getSeconds())}` : time;
+}
+
+/** `Wed 2 Dec 2026`: the day of a stored timestamp on this computer's clock; blank for none. */
+export function formatDateOf(value: string | Date | null): string {
+  if (!value) return '';
+  const instant = toInstant(value);
+  return instant ? formatDate(isoDateOf(instant)) : String(value);
+}
+
+/**
+ * `Wed 2 Dec 14:05` for a stored timestamp, in this computer's time zone, or `Wed 2 Dec 2026
+ * 14:05` with the year; blank for none, and a value that is no timestamp as it is.
+ */
+export function formatDateTime(value: string | Date | null, options: { year?: boolean } = {}): string {
+  if (!value) return '';
+  const instant = toInstant(value);
+  if (!instant) return String(value);
+  const day = isoDateOf(instant);
+  return `${options.year ? formatDate(day) : formatDay(day)} ${formatTime(instant)}`;
+}
