@@ -1,4 +1,4 @@
-import type { ForecastMailRequest, ForecastMailResponse } from '../../shared/schemas/planning';
+import type { ForecastMailRequest, ForecastMailResponse } from '../../shared/schemas/horizon';
 import { recordAudit } from '../audit/audit.service';
 import { NotFoundError } from '../errors';
 import { enqueueMail } from '../outbox/outbox.service';

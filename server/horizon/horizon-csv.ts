@@ -1,5 +1,5 @@
 import { toCsv } from '../../shared/domain/csv';
-import type { DemandResponse, PlanResponse } from '../../shared/schemas/planning';
+import type { DemandResponse, PlanResponse } from '../../shared/schemas/horizon';
 
 /** Demand as CSV: one row per part, one column per day, then the total. */
 export function demandToCsv(demand: DemandResponse): string {

@@ -6,7 +6,7 @@ import {
   forecastMailResponseSchema,
   planQuerySchema,
   planResponseSchema,
-} from '../../shared/schemas/planning';
+} from '../../shared/schemas/horizon';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';

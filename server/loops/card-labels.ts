@@ -1,5 +1,5 @@
 import QRCode from 'qrcode';
-import type { CardLabel } from '../../shared/schemas/kanban-loops';
+import type { CardLabel } from '../../shared/schemas/loops';
 
 /** One label's printed content; the QR image is drawn from `cardNumber` by each renderer. */
 export type CardLabelContent = Omit<CardLabel, 'qrSvg'>;

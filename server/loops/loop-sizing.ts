@@ -1,5 +1,5 @@
 import { sizeKanban, type DeliveryCycle } from '../../shared/domain/kanban-sizing';
-import type { LoopKind } from '../../shared/schemas/kanban-loops';
+import type { LoopKind } from '../../shared/schemas/loops';
 
 /**
  * An in-house (supermarket) loop is never sized on less than one working day: even a part made

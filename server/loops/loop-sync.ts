@@ -1,5 +1,5 @@
 import { In, type EntityManager } from 'typeorm';
-import type { LoopKind } from '../../shared/schemas/kanban-loops';
+import type { LoopKind } from '../../shared/schemas/loops';
 import { recordAudit } from '../audit/audit.service';
 import { PartEntity } from '../master-data/part.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';

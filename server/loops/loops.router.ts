@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import type { Role } from '../../shared/schemas/user';
-import { kanbanSizeRequestSchema, kanbanSizeResponseSchema } from '../../shared/schemas/kanban';
+import { kanbanSizeRequestSchema, kanbanSizeResponseSchema } from '../../shared/schemas/loops-sizing';
 import {
   acceptKanbanLoopRequestSchema,
   acceptKanbanLoopResponseSchema,
@@ -16,7 +16,7 @@ import {
   kanbanLoopSchema,
   kanbanLoopsQuerySchema,
   updateKanbanLoopRequestSchema,
-} from '../../shared/schemas/kanban-loops';
+} from '../../shared/schemas/loops';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';

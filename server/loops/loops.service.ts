@@ -3,7 +3,7 @@ import { addWorkingDays } from '../../shared/domain/calendar';
 import { MAX_CARD_INDEX, cardNumber } from '../../shared/domain/gs1';
 import { KanbanInputError, sizeKanban, type KanbanSizing } from '../../shared/domain/kanban-sizing';
 import type { CardState } from '../../shared/domain/card-cycle';
-import type { KanbanSizeRequest } from '../../shared/schemas/kanban';
+import type { KanbanSizeRequest } from '../../shared/schemas/loops-sizing';
 import type {
   AcceptKanbanLoopRequest,
   AcceptKanbanLoopResponse,
@@ -18,7 +18,7 @@ import type {
   KanbanLoop,
   LoopKind,
   UpdateKanbanLoopRequest,
-} from '../../shared/schemas/kanban-loops';
+} from '../../shared/schemas/loops';
 import { recordAudit } from '../audit/audit.service';
 import { ConflictError, InvalidInputError, NotFoundError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';

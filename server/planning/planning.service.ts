@@ -1,6 +1,6 @@
 import { BomCycleError, computePlan, grossDemandByDay, PlanInputError } from '../../shared/domain/plan';
 import type { PlanResult } from '../../shared/domain/types';
-import type { DemandResponse, PlanResponse } from '../../shared/schemas/planning';
+import type { DemandResponse, PlanResponse } from '../../shared/schemas/horizon';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { readPlanningVersion } from '../settings/versions';

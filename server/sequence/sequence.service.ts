@@ -15,6 +15,7 @@ import {
 } from '../../shared/schemas/sequence';
 import { recordAudit } from '../audit/audit.service';
 import { readCalendar } from '../calendar/calendar.service';
+import { dayLoad } from '../../shared/domain/sequence';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
@@ -47,10 +48,6 @@ function toUnit(entry: SequenceEntryEntity): SequenceUnit {
     serial: entry.serial,
     qty: entry.qty,
   };
-}
-
-function loadOf(units: { qty: number }[]): number {
-  return units.reduce((sum, unit) => sum + unit.qty, 0);
 }
 
 function sameOrder(left: readonly string[], right: readonly string[]): boolean {
@@ -106,7 +103,7 @@ export class SequenceService {
       frozen: rules.isFrozen(date),
       past: rules.isPast(date),
       capacity: rules.settings.dailyCapacity,
-      load: loadOf(units),
+      load: dayLoad(units),
       units,
     };
   }
@@ -231,7 +228,7 @@ export class SequenceService {
       const frozen = changed.filter((date) => rules.isFrozen(date));
       if (frozen.length > 0 && !request.allowFrozen) throw frozenWindowError(rules, frozen);
       const capacity = rules.settings.dailyCapacity;
-      const loads = (serials: string[]) => loadOf(serials.map((serial) => bySerial.get(serial)!));
+      const loads = (serials: string[]) => dayLoad(serials.map((serial) => bySerial.get(serial)!));
       const overloaded = changed
         .map((date) => ({ date, load: loads(after.get(date)!), was: loads(before.get(date) ?? []), capacity }))
         .filter(({ load, was }) => load > capacity && load > was)
@@ -324,7 +321,7 @@ export class SequenceService {
         where: { date: request.date },
         order: { sequence: 'ASC' },
       });
-      const load = loadOf(day) + qty;
+      const load = dayLoad(day) + qty;
       const capacity = rules.settings.dailyCapacity;
       if (load > capacity) throw overCapacityError([{ date: request.date, load, capacity }]);
 

@@ -86,6 +86,11 @@ export function headerProblemMessage(problem: HeaderProblem, layout: ImportLayou
   }
 }
 
+/** Optional columns of the layout that the header leaves out (existing values are kept). */
+export function leftOutColumns(header: readonly string[], layout: ImportLayout): string[] {
+  return layout.columns.filter((name) => !layout.required.includes(name) && !header.includes(name));
+}
+
 /**
  * Rows as CSV text for download or attachment: CRLF line ends (RFC 4180), and a text cell that a
  * spreadsheet would run as a formula — one starting with =, +, -, @, tab or carriage return — is

@@ -7,11 +7,7 @@ import type {
 } from '@shared/schemas/sequence';
 import { http } from './http';
 
-/** The days of the board and the new order of each, as PUT /api/sequence/days takes them. */
-export interface DayOrder {
-  date: string;
-  serials: string[];
-}
+import type { DayOrder } from '@shared/domain/sequence';
 
 /** The build sequence by day from `from` (default today) for `days` working days (default 10). */
 export function fetchBoard(range: { from?: string; days?: number } = {}, signal?: AbortSignal): Promise<SequenceBoard> {

@@ -2,7 +2,7 @@ import { isoWeekKey } from '@shared/domain/calendar';
 import { addCalendarDays } from '@shared/domain/date';
 import { weeklyTotals } from '@shared/domain/plan-demand';
 import { roundQty } from '@shared/domain/quantity';
-import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
+import type { DemandResponse, PlanResponse } from '@shared/schemas/horizon';
 import { formatDayMonth, formatDayRange, formatWeekday } from '@/format';
 
 /** How the horizon is cut into columns: one per working day, or one per ISO 8601 week. */

@@ -1,7 +1,7 @@
 import { markRaw, type Component } from 'vue';
 import { Check, Minus, Plus } from '@element-plus/icons-vue';
 import { CARD_STATES, type CardEvent, type CardState } from '@shared/domain/card-cycle';
-import type { LoopKind, LoopProposal } from '@shared/schemas/kanban-loops';
+import type { LoopKind, LoopProposal } from '@shared/schemas/loops';
 
 /**
  * Words and swatches for card states. The tones are muted on purpose (teal, ochre, slate, sand) so
@@ -43,13 +43,10 @@ export interface ProposalLook {
   tone: 'add' | 'pull' | 'right';
 }
 
-/** Cards to add or pull so active equals recommended, as the badge shows it. */
-export function proposalLook(recommended: number, active: number): ProposalLook {
-  const difference = recommended - active;
-  if (difference > 0)
-    return { action: 'add', count: difference, word: `Add ${difference}`, icon: markRaw(Plus), tone: 'add' };
-  if (difference < 0) {
-    return { action: 'pull', count: -difference, word: `Pull ${-difference}`, icon: markRaw(Minus), tone: 'pull' };
-  }
+/** The server's proposal (cards to add or pull so active equals recommended), as the badge shows it. */
+export function proposalLook(proposal: LoopProposal): ProposalLook {
+  const { action, count } = proposal;
+  if (action === 'add') return { action, count, word: `Add ${count}`, icon: markRaw(Plus), tone: 'add' };
+  if (action === 'pull') return { action, count, word: `Pull ${count}`, icon: markRaw(Minus), tone: 'pull' };
   return { action: 'none', count: 0, word: 'Right-sized', icon: markRaw(Check), tone: 'right' };
 }

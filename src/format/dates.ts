@@ -1,4 +1,4 @@
-import { isIsoDate, toDayNumber, weekdayOfDayNumber } from '@shared/domain/date';
+import { isIsoDate, localIsoDate, toDayNumber, weekdayOfDayNumber } from '@shared/domain/date';
 import type { IsoDate } from '@shared/domain/types';
 
 /*
@@ -64,15 +64,11 @@ function toInstant(value: string | Date): Date | null {
   return Number.isNaN(instant.getTime()) ? null : instant;
 }
 
-/** The calendar day of an instant on this computer's clock, as `YYYY-MM-DD`. */
-export function isoDateOf(instant: Date): IsoDate {
-  return `${String(instant.getFullYear()).padStart(4, '0')}-${pad2(instant.getMonth() + 1)}-${pad2(instant.getDate())}`;
-}
+/** The calendar day of an instant on this computer's clock, as `YYYY-MM-DD` (one rule with the server's). */
+export const isoDateOf = (instant: Date): IsoDate => localIsoDate(instant);
 
 /** Today's date on this computer's clock, as `YYYY-MM-DD`. */
-export function localToday(now = new Date()): IsoDate {
-  return isoDateOf(now);
-}
+export const localToday = (now = new Date()): IsoDate => localIsoDate(now);
 
 /** `14:05` (or `14:05:09` with seconds) on a 24-hour clock, in this computer's time zone; blank for none. */
 export function formatTime(value: string | Date | null, options: { seconds?: boolean } = {}): string {

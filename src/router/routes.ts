@@ -58,13 +58,13 @@ export const routes: RouteRecordRaw[] = [
   {
     path: '/loops/:id/print',
     name: 'loop-print',
-    component: () => import('@/views/LoopPrintView.vue'),
+    component: () => import('@/views/LoopsPrintView.vue'),
     meta: { title: 'Card labels', roles: ['admin', 'buyer', 'planner', 'viewer'] },
   },
   {
     path: '/scan',
     name: 'card-scan',
-    component: () => import('@/views/CardScanView.vue'),
+    component: () => import('@/views/LoopsScanView.vue'),
     meta: { title: 'Scan cards', roles: ['admin', 'buyer', 'planner', 'receiving'] },
   },
   {

@@ -1,8 +1,8 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/planning';
-import * as planningApi from '@/api/planning';
-import type { DemandQuery } from '@/api/planning';
+import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
+import * as horizonApi from '@/api/horizon';
+import type { DemandQuery } from '@/api/horizon';
 import { useLatestRequest } from './latest-request';
 
 interface FetchOptions {
@@ -26,7 +26,7 @@ export const useHorizonStore = defineStore('horizon', () => {
   /** Loads the demand table for a horizon and supplier; a failure is kept in `error`. */
   function fetchDemand(query: DemandQuery, options: FetchOptions = {}): Promise<void> {
     return runDemand(
-      (signal) => planningApi.getDemand(query, signal),
+      (signal) => horizonApi.getDemand(query, signal),
       (answer) => {
         demand.value = answer;
         demandQuery.value = { ...query };
@@ -43,7 +43,7 @@ export const useHorizonStore = defineStore('horizon', () => {
   ): Promise<void> {
     if (!options.quiet && plan.value?.part.partNumber !== part) plan.value = null;
     await runPlan(
-      (signal) => planningApi.getPlan(part, range, signal),
+      (signal) => horizonApi.getPlan(part, range, signal),
       (answer) => {
         plan.value = answer;
       },
@@ -73,7 +73,7 @@ export const useHorizonStore = defineStore('horizon', () => {
   async function exportCsv(query: DemandQuery): Promise<string> {
     exporting.value = true;
     try {
-      return await planningApi.downloadDemandCsv(query);
+      return await horizonApi.downloadDemandCsv(query);
     } finally {
       exporting.value = false;
     }
@@ -85,7 +85,7 @@ export const useHorizonStore = defineStore('horizon', () => {
   async function mailForecast(query: DemandQuery & { supplier: string }): Promise<ForecastMailResponse> {
     mailing.value = true;
     try {
-      return await planningApi.sendForecastMail(query);
+      return await horizonApi.sendForecastMail(query);
     } finally {
       mailing.value = false;
     }

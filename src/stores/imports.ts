@@ -1,5 +1,4 @@
 import { defineStore } from 'pinia';
-import Papa from 'papaparse';
 import { computed, ref, shallowRef } from 'vue';
 import {
   IMPORT_LAYOUTS,
@@ -8,6 +7,7 @@ import {
   type ImportLayout,
   type ImportRowError,
 } from '@shared/schemas/imports';
+import { normaliseCsvText, readCsvRows } from '@shared/domain/csv';
 import { ApiError } from '@/api/http';
 import * as importsApi from '@/api/imports';
 import { formatFileSize } from '@/format';
@@ -33,14 +33,6 @@ export interface CsvPreview {
   rowCount: number;
 }
 
-export type HeaderProblemKind = 'unknown' | 'missing' | 'duplicate';
-
-/** A header cell that the server would refuse, found before upload. */
-export interface HeaderProblem {
-  column: string;
-  kind: HeaderProblemKind;
-}
-
 /**
  * Why a chosen file cannot be imported before reading it (wrong type, too large), or null.
  * The server checks the same limit; refusing here saves sending 5 MB for nothing.
@@ -55,60 +47,20 @@ export function checkCsvFile(file: { name: string; size: number }): string | nul
   return null;
 }
 
-/**
- * Reads CSV text the way the server does (byte-order mark dropped, blank lines skipped, cells
- * trimmed, quoted cells may span lines) so the row numbers shown match the server's report.
- */
+/** The header, the first rows and the row count of CSV text, read by the same rule as the server's import. */
 export function readCsvPreview(text: string, limit = PREVIEW_ROWS): Pick<CsvPreview, 'header' | 'rows' | 'rowCount'> {
-  const clean = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
-  const read = { header: null as string[] | null, rows: [] as PreviewRow[], rowCount: 0 };
-  let line = 1;
-  let consumed = 0;
-  Papa.parse<string[]>(clean, {
-    delimiter: ',',
-    newline: '\n',
-    step: (result) => {
-      const start = line;
-      const cells = result.data.map((cell) => cell.trim());
-      for (
-        let index = clean.indexOf('\n', consumed);
-        index !== -1 && index < result.meta.cursor;
-        index = clean.indexOf('\n', index + 1)
-      ) {
-        line += 1;
-      }
-      consumed = result.meta.cursor;
-      if (cells.every((cell) => cell === '')) return;
-      if (read.header === null) {
-        read.header = cells;
-        return;
-      }
-      read.rowCount += 1;
-      if (read.rows.length < limit) read.rows.push({ line: start, cells });
-    },
+  let header: string[] | null = null;
+  const rows: PreviewRow[] = [];
+  let rowCount = 0;
+  readCsvRows(normaliseCsvText(text), ({ line, cells }) => {
+    if (header === null) {
+      header = cells;
+      return;
+    }
+    rowCount += 1;
+    if (rows.length < limit) rows.push({ line, cells });
   });
-  return { header: read.header ?? [], rows: read.rows, rowCount: read.rowCount };
-}
-
-/** Header cells the layout does not know, required columns it lacks, and repeated names. */
-export function findHeaderProblems(header: readonly string[], layout: ImportLayout): HeaderProblem[] {
-  const problems: HeaderProblem[] = [];
-  const seen = new Set<string>();
-  for (const name of header) {
-    if (name === '') continue;
-    if (!layout.columns.includes(name)) problems.push({ column: name, kind: 'unknown' });
-    else if (seen.has(name)) problems.push({ column: name, kind: 'duplicate' });
-    seen.add(name);
-  }
-  for (const name of layout.required) {
-    if (!seen.has(name)) problems.push({ column: name, kind: 'missing' });
-  }
-  return problems;
-}
-
-/** Optional columns of the layout that the header leaves out (existing values are kept). */
-export function findLeftOutColumns(header: readonly string[], layout: ImportLayout): string[] {
-  return layout.columns.filter((name) => !layout.required.includes(name) && !header.includes(name));
+  return { header: header ?? [], rows, rowCount };
 }
 
 /** How the last import of the chosen file ended. */

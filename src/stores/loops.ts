@@ -1,8 +1,8 @@
 import { defineStore } from 'pinia';
 import { computed, reactive, ref } from 'vue';
 import { isCardState, type CardEvent, type CardState } from '@shared/domain/card-cycle';
-import type { CardLabel, KanbanCardWithScans, KanbanLoop, UpdateKanbanLoopRequest } from '@shared/schemas/kanban-loops';
-import * as kanbanApi from '@/api/kanban';
+import type { CardLabel, KanbanCardWithScans, KanbanLoop, UpdateKanbanLoopRequest } from '@shared/schemas/loops';
+import * as loopsApi from '@/api/loops';
 import { ApiError } from '@/api/http';
 import { useLatestRequest } from './latest-request';
 
@@ -69,20 +69,17 @@ export const useLoopsStore = defineStore('loops', () => {
   // Only the latest label request may fill the sheet: toggling active/all twice must not show the first answer.
   const { loading: labelsLoading, error: labelsError, run: runLabels } = useLatestRequest();
 
-  const toAdd = computed(() => loops.value.filter((loop) => loop.recommendedCards > loop.activeCards));
-  const toPull = computed(() => loops.value.filter((loop) => loop.recommendedCards < loop.activeCards));
-  const rightSized = computed(() => loops.value.filter((loop) => loop.recommendedCards === loop.activeCards));
-  const cardsToAdd = computed(() =>
-    toAdd.value.reduce((sum, loop) => sum + loop.recommendedCards - loop.activeCards, 0),
-  );
-  const cardsToPull = computed(() =>
-    toPull.value.reduce((sum, loop) => sum + loop.activeCards - loop.recommendedCards, 0),
-  );
+  // The server's proposal is the one rule of how many cards to add or pull.
+  const toAdd = computed(() => loops.value.filter((loop) => loop.proposal.action === 'add'));
+  const toPull = computed(() => loops.value.filter((loop) => loop.proposal.action === 'pull'));
+  const rightSized = computed(() => loops.value.filter((loop) => loop.proposal.action === 'none'));
+  const cardsToAdd = computed(() => toAdd.value.reduce((sum, loop) => sum + loop.proposal.count, 0));
+  const cardsToPull = computed(() => toPull.value.reduce((sum, loop) => sum + loop.proposal.count, 0));
 
   /** Loads the loops (of the chosen supplier); a failure is kept in `error` and the previous list stays. */
   function fetchAll(): Promise<void> {
     return run(
-      (signal) => kanbanApi.listLoops(supplierCode.value || undefined, signal),
+      (signal) => loopsApi.listLoops(supplierCode.value || undefined, signal),
       (answer) => {
         loops.value = answer;
         loaded.value = true;
@@ -109,7 +106,7 @@ export const useLoopsStore = defineStore('loops', () => {
    */
   async function accept(loop: KanbanLoop) {
     return whileBusy(loop.id, async () => {
-      const outcome = await kanbanApi.acceptLoop(loop.id, loop.recommendedCards);
+      const outcome = await loopsApi.acceptLoop(loop.id, loop.recommendedCards);
       const { added: _added, retired: _retired, stillToPull: _stillToPull, ...updated } = outcome;
       replaceLoop(updated);
       if (cardsByLoop[loop.id]) void fetchCards(loop.id);
@@ -120,7 +117,7 @@ export const useLoopsStore = defineStore('loops', () => {
   /** Saves loop settings; rethrows the ApiError so the form can place field messages. */
   async function update(id: number, patch: UpdateKanbanLoopRequest): Promise<KanbanLoop> {
     return whileBusy(id, async () => {
-      const updated = await kanbanApi.updateLoop(id, patch);
+      const updated = await loopsApi.updateLoop(id, patch);
       replaceLoop(updated);
       return updated;
     });
@@ -140,7 +137,7 @@ export const useLoopsStore = defineStore('loops', () => {
       });
     }
     return request.run(
-      (signal) => kanbanApi.listCards(loopId, signal),
+      (signal) => loopsApi.listCards(loopId, signal),
       (cards) => {
         cardsByLoop[loopId]!.cards = cards;
       },
@@ -148,9 +145,9 @@ export const useLoopsStore = defineStore('loops', () => {
   }
 
   /** Loads a loop and the labels of its cards for the print view; a failure is kept in `labelsError`. */
-  async function fetchLabels(loopId: number, cards: kanbanApi.LabelSelection): Promise<void> {
+  async function fetchLabels(loopId: number, cards: loopsApi.LabelSelection): Promise<void> {
     await runLabels(
-      (signal) => Promise.all([kanbanApi.getLoop(loopId, signal), kanbanApi.listLabels(loopId, cards, signal)]),
+      (signal) => Promise.all([loopsApi.getLoop(loopId, signal), loopsApi.listLabels(loopId, cards, signal)]),
       ([loop, loopLabels]) => {
         printLoop.value = loop;
         labels.value = loopLabels;
@@ -173,7 +170,7 @@ export const useLoopsStore = defineStore('loops', () => {
   async function scan(cardNumber: string, event?: CardEvent): Promise<ScanRecord> {
     const base = { key: (scanKey += 1), cardNumber, scannedAt: new Date() };
     try {
-      const { card, scan: logged } = await kanbanApi.scanCard(event ? { cardNumber, event } : { cardNumber });
+      const { card, scan: logged } = await loopsApi.scanCard(event ? { cardNumber, event } : { cardNumber });
       return remember({
         ...base,
         ok: true,

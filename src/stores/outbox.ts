@@ -2,7 +2,7 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { CapturedMail, OutboxMessage } from '@shared/schemas/outbox';
 import { ApiError } from '@/api/http';
-import * as mailApi from '@/api/mail';
+import * as outboxApi from '@/api/outbox';
 import { useLatestRequest } from './latest-request';
 
 export const useOutboxStore = defineStore('outbox', () => {
@@ -16,7 +16,7 @@ export const useOutboxStore = defineStore('outbox', () => {
 
   /** Loads the newest outgoing notices; a failure is kept in `error`. */
   function fetchOutbox(): Promise<void> {
-    return run(mailApi.listOutbox, (answer) => {
+    return run(outboxApi.listOutbox, (answer) => {
       messages.value = answer;
     });
   }
@@ -26,7 +26,7 @@ export const useOutboxStore = defineStore('outbox', () => {
     return runCaptured(
       async (signal) => {
         try {
-          return await mailApi.listCapturedMail(signal);
+          return await outboxApi.listCapturedMail(signal);
         } catch (cause) {
           if (cause instanceof ApiError && cause.status === 404) return null;
           throw cause;

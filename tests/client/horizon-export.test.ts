@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { fetchFile } from '@/api/download';
 import { ApiError } from '@/api/http';
-import { downloadDemandCsv } from '@/api/planning';
+import { downloadDemandCsv } from '@/api/horizon';
 import { TOKEN_KEY } from '@/api/session-token';
 import { jsonResponse, stubFetch } from './helpers';
 

@@ -2,7 +2,7 @@ import { createAppContext, demoUsers, mountInApp } from './helpers';
 import { afterEach, describe, expect, it } from 'vitest';
 import { getISOWeek, getISOWeekYear } from 'date-fns';
 import { weeklyTotals } from '@shared/domain/plan-demand';
-import type { DemandResponse } from '@shared/schemas/planning';
+import type { DemandResponse } from '@shared/schemas/horizon';
 import HorizonTable from '@/components/HorizonTable.vue';
 import { demandColumns, demandTable } from '@/components/horizon-presentation';
 

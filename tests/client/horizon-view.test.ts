@@ -2,7 +2,7 @@ import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import { addCalendarDays } from '@shared/domain/date';
-import type { DemandResponse, PlanResponse } from '@shared/schemas/planning';
+import type { DemandResponse, PlanResponse } from '@shared/schemas/horizon';
 import HorizonView from '@/views/HorizonView.vue';
 import { localToday } from '@/format';
 

@@ -2,7 +2,8 @@ import { createAppContext, demoUsers, mountInApp } from './helpers';
 import { afterEach, describe, expect, it } from 'vitest';
 import { IMPORT_LAYOUTS, IMPORT_MAX_BYTES } from '@shared/schemas/imports';
 import ImportsPreview from '@/components/ImportsPreview.vue';
-import { checkCsvFile, findHeaderProblems, readCsvPreview, type CsvPreview } from '@/stores/imports';
+import { checkCsvHeader } from '@shared/domain/csv';
+import { checkCsvFile, readCsvPreview, type CsvPreview } from '@/stores/imports';
 
 // Layouts as published in PRODUCT.md, "CSV formats (header names exactly)":
 // on-hand is `part_number,on_hand`; bom is `parent,component,qty_per,scrap_pct,effective_from,effective_to`.
@@ -59,9 +60,9 @@ describe('readCsvPreview', () => {
   });
 });
 
-describe('findHeaderProblems', () => {
+describe('checkCsvHeader', () => {
   it('reports an unknown name, a repeated name and each required column left out', () => {
-    const problems = findHeaderProblems(['parent', 'qty', 'parent'], BOM);
+    const problems = checkCsvHeader(['parent', 'qty', 'parent'], BOM);
 
     expect(problems).toEqual([
       { column: 'qty', kind: 'unknown' },

@@ -2,18 +2,18 @@ import { createAppContext, demoUsers, jsonResponse, mountInApp } from './helpers
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { gs1CheckDigit } from '@shared/domain/gs1';
-import type { CardLabel, KanbanLoop } from '@shared/schemas/kanban-loops';
-import LoopPrintQr from '@/components/LoopPrintQr.vue';
-import LoopPrintView from '@/views/LoopPrintView.vue';
+import type { CardLabel, KanbanLoop } from '@shared/schemas/loops';
+import LoopsPrintQr from '@/components/LoopsPrintQr.vue';
+import LoopsPrintView from '@/views/LoopsPrintView.vue';
 
 // The shape the server's QR library writes: a white square and one path of dark modules.
 const QR_SVG =
   '<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 23 23" shape-rendering="crispEdges">' +
   '<path fill="#ffffff" d="M0 0h23v23H0z"/><path stroke="#000000" d="M1 1.5h7m1 0h1"/></svg>\n';
 
-describe('LoopPrintQr', () => {
+describe('LoopsPrintQr', () => {
   it('shows the QR drawing as an image, where markup cannot run', () => {
-    const wrapper = mount(LoopPrintQr, { props: { svg: QR_SVG, cardNumber: '000004500018' } });
+    const wrapper = mount(LoopsPrintQr, { props: { svg: QR_SVG, cardNumber: '000004500018' } });
 
     const image = wrapper.get('img');
     expect(image.attributes('alt')).toBe('QR code of card 000004500018');
@@ -21,7 +21,7 @@ describe('LoopPrintQr', () => {
   });
 
   it('shows words instead of a drawing that is not SVG', () => {
-    const wrapper = mount(LoopPrintQr, { props: { svg: '<b>not a code</b>', cardNumber: '000004500018' } });
+    const wrapper = mount(LoopsPrintQr, { props: { svg: '<b>not a code</b>', cardNumber: '000004500018' } });
 
     expect(wrapper.text()).toBe('QR code unavailable');
     expect(wrapper.find('b').exists()).toBe(false);
@@ -57,7 +57,7 @@ function labelOf(index: number, count: number, hazardous = false): CardLabel {
 
 const loop = { id: 52, partNumber: 'BAT-12-105', description: 'Battery 12 V 105 Ah, AGM' } as KanbanLoop;
 
-describe('LoopPrintView', () => {
+describe('LoopsPrintView', () => {
   afterEach(() => {
     document.body.innerHTML = '';
     document.documentElement.className = '';
@@ -75,7 +75,7 @@ describe('LoopPrintView', () => {
     );
     const context = await createAppContext({ user: demoUsers.buyer, path: '/loops/52/print' });
 
-    const wrapper = await mountInApp(LoopPrintView, context);
+    const wrapper = await mountInApp(LoopsPrintView, context);
     await flushPromises();
 
     const sheets = wrapper.findAll('.loop-print-view__sheet');
@@ -94,7 +94,7 @@ describe('LoopPrintView', () => {
     );
     vi.stubGlobal('fetch', fetchMock);
     const context = await createAppContext({ user: demoUsers.buyer, path: '/loops/52/print' });
-    const wrapper = await mountInApp(LoopPrintView, context);
+    const wrapper = await mountInApp(LoopsPrintView, context);
 
     wrapper.findComponent({ name: 'ElRadioGroup' }).vm.$emit('update:modelValue', 'all');
     await flushPromises();

@@ -1,8 +1,8 @@
 import { createAppContext, demoUsers, jsonResponse, mountInApp } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
-import type { CardScanResponse } from '@shared/schemas/kanban-loops';
-import CardScanView from '@/views/CardScanView.vue';
+import type { CardScanResponse } from '@shared/schemas/loops';
+import LoopsScanView from '@/views/LoopsScanView.vue';
 
 /**
  * Card 1 of loop 45: data digits 0000045 0001, check digit by the GS1 mod-10 rule (GS1 General
@@ -42,7 +42,7 @@ function stubScans(...answers: Response[]) {
 
 async function openScan() {
   const context = await createAppContext({ user: demoUsers.buyer, path: '/scan' });
-  const wrapper = await mountInApp(CardScanView, context);
+  const wrapper = await mountInApp(LoopsScanView, context);
   const input = document.getElementById('card-scan-input') as HTMLInputElement;
   return { wrapper, input };
 }
@@ -61,7 +61,7 @@ function feedback(): string {
   return document.querySelector('[data-test="scan-feedback"]')?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
 }
 
-describe('CardScanView', () => {
+describe('LoopsScanView', () => {
   afterEach(() => {
     document.body.innerHTML = '';
     localStorage.clear();

@@ -4,7 +4,7 @@ import { flushPromises } from '@vue/test-utils';
 import draggable from 'vuedraggable';
 import type { SequenceBoard, SequenceDay, SequenceUnit } from '@shared/schemas/sequence';
 import type { SessionUser } from '@shared/schemas/user';
-import { planMove } from '@/stores/sequence';
+import { planMove } from '@shared/domain/sequence';
 import SequenceView from '@/views/SequenceView.vue';
 
 const FROZEN = '2026-12-01';

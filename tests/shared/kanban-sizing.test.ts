@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { KanbanInputError, sizeKanban, type KanbanSizeInput } from '../../shared/domain/kanban-sizing';
-import { kanbanSizeRequestSchema, kanbanSizeResponseSchema, type KanbanSizeRequest } from '../../shared/schemas/kanban';
+import {
+  kanbanSizeRequestSchema,
+  kanbanSizeResponseSchema,
+  type KanbanSizeRequest,
+} from '../../shared/schemas/loops-sizing';
 
 /** The formula evaluated the obvious way in doubles, to show where Math.ceil alone goes wrong. */
 function naiveCards(input: {

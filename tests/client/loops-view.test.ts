@@ -2,7 +2,7 @@ import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { Check, Minus, Plus } from '@element-plus/icons-vue';
-import type { KanbanLoop } from '@shared/schemas/kanban-loops';
+import type { KanbanLoop } from '@shared/schemas/loops';
 import type { SessionUser } from '@shared/schemas/user';
 import LoopsCardStateStrip from '@/components/LoopsCardStateStrip.vue';
 import LoopsProposalBadge from '@/components/LoopsProposalBadge.vue';
@@ -70,14 +70,21 @@ function callsTo(fetchMock: ReturnType<typeof stubApi>, method: string, pathname
 // pull"; the badge is that difference in words, with an icon, never colour alone.
 describe('LoopsProposalBadge', () => {
   it.each([
-    { recommended: 5, active: 3, word: 'Add 2', icon: Plus, tone: 'is-add' },
-    { recommended: 2, active: 3, word: 'Pull 1', icon: Minus, tone: 'is-pull' },
-    { recommended: 4, active: 4, word: 'Right-sized', icon: Check, tone: 'is-right' },
-    { recommended: 0, active: 2, word: 'Pull 2', icon: Minus, tone: 'is-pull' },
-  ])(
-    'shows “$word” for $recommended recommended and $active active cards',
-    ({ recommended, active, word, icon, tone }) => {
-      const wrapper = mount(LoopsProposalBadge, { props: { recommended, active } });
+    { recommended: 5, active: 3, proposal: { action: 'add', count: 2 }, word: 'Add 2', icon: Plus, tone: 'is-add' },
+    { recommended: 2, active: 3, proposal: { action: 'pull', count: 1 }, word: 'Pull 1', icon: Minus, tone: 'is-pull' },
+    {
+      recommended: 4,
+      active: 4,
+      proposal: { action: 'none', count: 0 },
+      word: 'Right-sized',
+      icon: Check,
+      tone: 'is-right',
+    },
+    { recommended: 0, active: 2, proposal: { action: 'pull', count: 2 }, word: 'Pull 2', icon: Minus, tone: 'is-pull' },
+  ] as const)(
+    'shows “$word” for the proposal of $recommended recommended and $active active cards',
+    ({ recommended, active, proposal, word, icon, tone }) => {
+      const wrapper = mount(LoopsProposalBadge, { props: { proposal, recommended, active } });
 
       expect(wrapper.text()).toBe(word);
       expect(wrapper.findComponent(icon).exists()).toBe(true);

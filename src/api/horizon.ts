@@ -1,4 +1,4 @@
-import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/planning';
+import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
 import { download } from './download';
 import { http } from './http';
 

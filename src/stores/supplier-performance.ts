@@ -2,11 +2,11 @@ import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
 import { summarisePerformance, type SupplierPerformanceSummary } from '@shared/domain/supplier-performance';
 import type { SupplierMonthPerformanceDto } from '@shared/schemas/supplier-performance';
-import * as performanceApi from '@/api/performance';
-import type { PerformanceFilter } from '@/api/performance';
+import * as supplierPerformanceApi from '@/api/supplier-performance';
+import type { PerformanceFilter } from '@/api/supplier-performance';
 import { useLatestRequest } from './latest-request';
 
-export const usePerformanceStore = defineStore('performance', () => {
+export const useSupplierPerformanceStore = defineStore('supplier-performance', () => {
   const rows = ref<SupplierMonthPerformanceDto[]>([]);
   const filter = ref<PerformanceFilter | null>(null);
   const { loading, error, run } = useLatestRequest();
@@ -14,7 +14,7 @@ export const usePerformanceStore = defineStore('performance', () => {
   /** Loads the figures for a range (and supplier); a failure is kept in `error`. */
   function fetchPerformance(next: PerformanceFilter): Promise<void> {
     return run(
-      (signal) => performanceApi.getSupplierPerformance(next, signal),
+      (signal) => supplierPerformanceApi.getSupplierPerformance(next, signal),
       (answer) => {
         rows.value = answer;
         filter.value = { ...next };

@@ -4,7 +4,7 @@ import { flushPromises } from '@vue/test-utils';
 import type { SupplierMonthPerformanceDto } from '@shared/schemas/supplier-performance';
 import type { SessionUser } from '@shared/schemas/user';
 import SupplierPerformanceView from '@/views/SupplierPerformanceView.vue';
-import { defaultMonthRange, rateBand } from '@/components/performance-presentation';
+import { defaultMonthRange, rateBand } from '@/components/supplier-performance-presentation';
 import { localToday } from '@/format';
 
 const buyer: SessionUser = { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null };

@@ -1,16 +1,16 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import * as suppliersApi from '@/api/suppliers';
-import type { SupplierSummary } from '@/api/suppliers';
+import * as masterDataApi from '@/api/master-data';
+import type { SupplierSummary } from '@/api/master-data';
 import { useLatestRequest } from './latest-request';
 
-export const useSuppliersStore = defineStore('suppliers', () => {
+export const useMasterDataStore = defineStore('master-data', () => {
   const suppliers = ref<SupplierSummary[]>([]);
   const { loading, error, run } = useLatestRequest();
 
   /** Loads the supplier list; a failure is kept in `error` and leaves the previous list. */
   function fetchAll(): Promise<void> {
-    return run(suppliersApi.listSuppliers, (answer) => {
+    return run(masterDataApi.listSuppliers, (answer) => {
       suppliers.value = answer;
     });
   }

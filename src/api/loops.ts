@@ -1,4 +1,4 @@
-import type { KanbanSizeRequest, KanbanSizeResponse } from '@shared/schemas/kanban';
+import type { KanbanSizeRequest, KanbanSizeResponse } from '@shared/schemas/loops-sizing';
 import type {
   AcceptKanbanLoopResponse,
   CardLabel,
@@ -7,7 +7,7 @@ import type {
   KanbanCardWithScans,
   KanbanLoop,
   UpdateKanbanLoopRequest,
-} from '@shared/schemas/kanban-loops';
+} from '@shared/schemas/loops';
 import { download } from './download';
 import { http } from './http';
 
