@@ -1,8 +1,9 @@
 import { Router } from 'express';
-import { calendarSchema } from '../../shared/schemas/master-data';
+import { calendarSchema, versionedCalendarSchema } from '../../shared/schemas/master-data';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { READ_ROLES } from '../http/roles';
+import { ifMatchOf } from '../http/versions';
 
 export function createCalendarRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
@@ -13,7 +14,7 @@ export function createCalendarRouter(services: Services, deps: RouteDeps): Route
     path: '/calendar',
     summary: 'Working weekdays (ISO numbers, 1 = Monday) and holidays',
     access: READ_ROLES,
-    response: calendarSchema,
+    response: versionedCalendarSchema,
     handler: () => calendarService.get(),
   });
 
@@ -23,8 +24,8 @@ export function createCalendarRouter(services: Services, deps: RouteDeps): Route
     summary: 'Replace the plant calendar',
     access: ['admin', 'planner'],
     body: calendarSchema,
-    response: calendarSchema,
-    handler: ({ body, user }) => calendarService.update(body, user.email),
+    response: versionedCalendarSchema,
+    handler: ({ body, user, req }) => calendarService.update(body, user.email, ifMatchOf(req)),
   });
 
   return router;

@@ -1,10 +1,11 @@
 import type { EntityManager } from 'typeorm';
-import type { Calendar } from '../../shared/schemas/master-data';
+import type { Calendar, VersionedCalendar } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
 import { readSetting, writeSetting } from '../settings/settings';
 import { bumpPlanningVersion } from '../settings/versions';
 import { HolidayEntity } from './holiday.entity';
 import type { Database } from '../db/database';
+import { assertCurrent, withVersion } from '../http/versions';
 
 const WORKING_WEEKDAYS = 'workingWeekdays';
 export const DEFAULT_WORKING_WEEKDAYS = [1, 2, 3, 4, 5];
@@ -34,13 +35,14 @@ export async function writeCalendar(manager: EntityManager, calendar: Calendar):
 export class CalendarService {
   constructor(private readonly db: Database) {}
 
-  get(): Promise<Calendar> {
-    return readCalendar(this.db.manager);
+  async get(): Promise<VersionedCalendar> {
+    return withVersion(await readCalendar(this.db.manager));
   }
 
-  update(calendar: Calendar, actorEmail: string): Promise<Calendar> {
+  update(calendar: Calendar, actorEmail: string, basedOn?: string): Promise<VersionedCalendar> {
     return this.db.write(async (manager) => {
       const before = await readCalendar(manager);
+      assertCurrent(basedOn, withVersion(before), 'The plant calendar');
       const after = await writeCalendar(manager, calendar);
       await recordAudit(manager, {
         actorEmail,
@@ -49,7 +51,7 @@ export class CalendarService {
         entityKey: 'plant',
         changes: { before, after },
       });
-      return after;
+      return withVersion(after);
     });
   }
 }

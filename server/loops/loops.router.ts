@@ -20,6 +20,7 @@ import {
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
+import { ifMatchOf } from '../http/versions';
 
 /** Loops are the buyer's; cards are scanned wherever they travel — at the line, the desk and the dock. */
 const SCAN_ROLES: readonly Role[] = ['admin', 'buyer', 'planner', 'receiving'];
@@ -67,7 +68,7 @@ export function createLoopsRouter(services: Services, deps: RouteDeps): Router {
     params: kanbanLoopIdParamsSchema,
     body: updateKanbanLoopRequestSchema,
     response: kanbanLoopSchema,
-    handler: ({ params, body, user }) => service.updateLoop(params.id, body, user),
+    handler: ({ params, body, user, req }) => service.updateLoop(params.id, body, user, ifMatchOf(req)),
   });
 
   defineRoute(router, deps, {

@@ -34,6 +34,7 @@ import { KanbanCardEntity } from './kanban-card.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';
 import { sizeLoop } from './loop-sizing';
 import type { Database } from '../db/database';
+import { assertCurrent, versionOf } from '../http/versions';
 
 /** Scans shown beside each card in a loop's card list; the card's own page has them all. */
 export const RECENT_SCANS_PER_CARD = 20;
@@ -76,6 +77,11 @@ function toKanbanCard(card: KanbanCardEntity, partNumber: string): KanbanCard {
   };
 }
 
+/** The version of what a buyer edits on a loop (not of its demand, which moves by itself). */
+function loopVersion(loop: KanbanLoopEntity): string {
+  return versionOf(LOOP_SETTINGS.map((key) => loop[key]));
+}
+
 /** Loops, their sizing against the cached plan, card circulation and scans, and card labels. */
 export class LoopsService {
   constructor(
@@ -113,9 +119,17 @@ export class LoopsService {
     return (await this.describeLoops(this.db.manager, [loop], true))[0];
   }
 
-  async updateLoop(id: number, patch: UpdateKanbanLoopRequest, actor: AuthenticatedUser): Promise<KanbanLoop> {
+  async updateLoop(
+    id: number,
+    patch: UpdateKanbanLoopRequest,
+    actor: AuthenticatedUser,
+    basedOn?: string,
+  ): Promise<KanbanLoop> {
     await this.db.write(async (manager) => {
       const loop = await this.findLoop(manager, id);
+      if (basedOn !== undefined && basedOn !== loopVersion(loop)) {
+        assertCurrent(basedOn, (await this.describeLoops(manager, [loop], true))[0], `Loop ${loop.partNumber}`);
+      }
       const before: Record<string, number> = {};
       const after: Record<string, number> = {};
       for (const key of LOOP_SETTINGS) {
@@ -396,6 +410,7 @@ export class LoopsService {
       const activeCards = cardStates.full + cardStates.empty + cardStates.ordered + cardStates.shipped;
       const difference = sizing.recommendedCards - activeCards;
       return {
+        version: loopVersion(loop),
         partNumber: loop.partNumber,
         supplierCode: part?.supplierCode ?? null,
         containerQty: loop.containerQty,

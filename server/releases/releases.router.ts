@@ -11,6 +11,7 @@ import {
   runReleasesResponseSchema,
 } from '../../shared/schemas/releases';
 import { defineRoute, type RouteDeps } from '../http/route';
+import { ifMatchOf } from '../http/versions';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 
@@ -49,7 +50,7 @@ export function createReleasesRouter(services: Services, deps: RouteDeps): Route
     access: ['admin'],
     body: releaseJobSettingsRequestSchema,
     response: releaseJobSettingsSchema,
-    handler: ({ body, user }) => service.updateJobSettings(body.jobTime, user),
+    handler: ({ body, user, req }) => service.updateJobSettings(body.jobTime, user, ifMatchOf(req)),
   });
 
   defineRoute(router, deps, {

@@ -11,6 +11,7 @@ import type {
   RunReleasesResponse,
 } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
+import { assertCurrent, versionOf } from '../http/versions';
 import { readCalendar } from '../calendar/calendar.service';
 import { issueConfirmationToken, revokeConfirmationTokens } from './confirmation-tokens';
 import { ConflictError, NotFoundError } from '../errors';
@@ -465,16 +466,16 @@ export class ReleasesService {
     return this.get(number, actor);
   }
 
-  async jobSettings(): Promise<ReleaseJobSettings> {
-    const manager = this.db.manager;
-    return {
-      jobTime: await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME),
-      lastRunDate: await readSetting<string | null>(manager, RELEASE_JOB_LAST_RUN, null),
-    };
+  async jobSettings(manager = this.db.manager): Promise<ReleaseJobSettings> {
+    const jobTime = await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME);
+    const lastRunDate = await readSetting<string | null>(manager, RELEASE_JOB_LAST_RUN, null);
+    // The version is of the admin's setting only: the job's own last run is not an edit.
+    return { jobTime, lastRunDate, version: versionOf({ jobTime }) };
   }
 
-  async updateJobSettings(jobTime: string, actor: AuthenticatedUser): Promise<ReleaseJobSettings> {
+  async updateJobSettings(jobTime: string, actor: AuthenticatedUser, basedOn?: string): Promise<ReleaseJobSettings> {
     await this.db.write(async (manager) => {
+      assertCurrent(basedOn, await this.jobSettings(manager), 'The release job time');
       const before = await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME);
       if (before === jobTime) return;
       await writeSetting(manager, RELEASE_JOB_TIME, jobTime);

@@ -8,9 +8,11 @@ import {
   sequenceQuerySchema,
   sequenceSerialParamsSchema,
   sequenceSettingsSchema,
+  versionedSequenceSettingsSchema,
   sequenceUnitSchema,
 } from '../../shared/schemas/sequence';
 import { defineRoute, type RouteDeps } from '../http/route';
+import { ifMatchOf } from '../http/versions';
 import type { Services } from '../services';
 import { READ_ROLES, SEQUENCE_ROLES } from '../http/roles';
 
@@ -35,7 +37,7 @@ export function createSequenceRouter(services: Services, deps: RouteDeps): Route
     path: '/sequence/settings',
     summary: 'Frozen window (working days from today, today counted as day 1 when it is worked) and daily capacity',
     access: READ_ROLES,
-    response: sequenceSettingsSchema,
+    response: versionedSequenceSettingsSchema,
     handler: () => service.settings(),
   });
 
@@ -45,8 +47,8 @@ export function createSequenceRouter(services: Services, deps: RouteDeps): Route
     summary: 'Set the frozen window and daily capacity',
     access: SEQUENCE_ROLES,
     body: sequenceSettingsSchema,
-    response: sequenceSettingsSchema,
-    handler: ({ body, user }) => service.updateSettings(body, user),
+    response: versionedSequenceSettingsSchema,
+    handler: ({ body, user, req }) => service.updateSettings(body, user, ifMatchOf(req)),
   });
 
   defineRoute(router, deps, {

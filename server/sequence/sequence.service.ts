@@ -11,9 +11,12 @@ import {
   type SequenceDay,
   type SequenceQuery,
   type SequenceSettings,
+  type VersionedSequenceSettings,
   type SequenceUnit,
 } from '../../shared/schemas/sequence';
+import { AuditEventEntity } from '../audit/audit-event.entity';
 import { recordAudit } from '../audit/audit.service';
+import { UserEntity } from '../users/user.entity';
 import { readCalendar } from '../calendar/calendar.service';
 import { dayLoad } from '../../shared/domain/sequence';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
@@ -24,6 +27,7 @@ import { SequenceEntryEntity } from './sequence-entry.entity';
 import { readSequenceSettings, writeSequenceSettings } from './sequence-settings';
 import { listDates, SequenceRules } from './sequence-window';
 import type { Database } from '../db/database';
+import { assertCurrent, versionOf, withVersion } from '../http/versions';
 
 /** The board shows at most a year at once; more is a slip of the year digit. */
 const MAX_BOARD_CALENDAR_DAYS = 366;
@@ -62,6 +66,31 @@ function groupByDate(entries: SequenceEntryEntity[]): Map<string, SequenceEntryE
     byDate.set(entry.date, day);
   }
   return byDate;
+}
+
+/** The version of a day's order: its serials and quantities, in build order. */
+function dayVersion(entries: readonly SequenceEntryEntity[]): string {
+  return versionOf([...entries].sort((a, b) => a.sequence - b.sequence).map((entry) => [entry.serial, entry.qty]));
+}
+
+/** Who last changed one of these days of the sequence, and when (from the audit trail). */
+async function lastSequenceChange(
+  manager: EntityManager,
+  dates: IsoDate[],
+): Promise<{ by: string; at: string; action: string } | null> {
+  const recent = await manager.find(AuditEventEntity, {
+    where: { entity: In(['sequence', 'sequence-unit', 'import']) },
+    order: { id: 'DESC' },
+    take: 100,
+  });
+  const event = recent.find((candidate) => {
+    const changes = candidate.changes as { days?: string[]; date?: string } | null;
+    const touched = [...(changes?.days ?? []), ...(changes?.date ? [changes.date] : [])];
+    return touched.some((date) => dates.includes(date)) || candidate.entityKey === 'schedule';
+  });
+  if (!event) return null;
+  const user = event.actorEmail ? await manager.findOneBy(UserEntity, { email: event.actorEmail }) : null;
+  return { by: user?.name ?? event.actorEmail ?? 'Cardloop', at: event.at, action: event.action };
 }
 
 function frozenWindowError(rules: SequenceRules, dates: IsoDate[]): ConflictError {
@@ -105,7 +134,36 @@ export class SequenceService {
       capacity: rules.settings.dailyCapacity,
       load: dayLoad(units),
       units,
+      version: dayVersion(entries),
     };
+  }
+
+  /**
+   * Refuses a change made on a stale board: a day whose order changed since the planner's board
+   * showed it answers 409 `stale` with the day as it is now and who changed it last.
+   */
+  private async assertDaysCurrent(
+    manager: EntityManager,
+    rules: SequenceRules,
+    basedOn: { date: IsoDate; version: string }[],
+    loaded: SequenceEntryEntity[],
+  ): Promise<void> {
+    if (basedOn.length === 0) return;
+    const dates = [...new Set(basedOn.map((day) => day.date))];
+    const missing = dates.filter((date) => !loaded.some((entry) => entry.date === date));
+    const extra = missing.length > 0 ? await manager.find(SequenceEntryEntity, { where: { date: In(missing) } }) : [];
+    const byDate = groupByDate([...loaded.filter((entry) => dates.includes(entry.date)), ...extra]);
+    const stale = basedOn
+      .filter((day) => dayVersion(byDate.get(day.date) ?? []) !== day.version)
+      .map((day) => day.date);
+    if (stale.length === 0) return;
+    const lastChange = await lastSequenceChange(manager, stale);
+    const who = lastChange ? ` ${lastChange.by} changed it at ${lastChange.at.slice(11, 16)}.` : '';
+    throw new ConflictError(
+      `${listDates(stale)} changed since your board was loaded.${who} The board shows it as it is now; make your move again.`,
+      [{ days: stale.map((date) => this.describeDay(rules, date, byDate.get(date) ?? [])), lastChange }],
+      'stale',
+    );
   }
 
   /** GET /api/sequence: every working day in the range, plus any non-working day still holding units. */
@@ -143,14 +201,15 @@ export class SequenceService {
     };
   }
 
-  settings(): Promise<SequenceSettings> {
-    return readSequenceSettings(this.db.manager);
+  async settings(): Promise<VersionedSequenceSettings> {
+    return withVersion(await readSequenceSettings(this.db.manager));
   }
 
   /** The frozen window and capacity feed line risk and every open board, so they bump the planning version. */
-  updateSettings(settings: SequenceSettings, actor: Actor): Promise<SequenceSettings> {
+  updateSettings(settings: SequenceSettings, actor: Actor, basedOn?: string): Promise<VersionedSequenceSettings> {
     return this.db.write(async (manager) => {
       const before = await readSequenceSettings(manager);
+      assertCurrent(basedOn, withVersion(before), 'The frozen window and capacity');
       await writeSequenceSettings(manager, settings);
       await recordAudit(manager, {
         actorEmail: actor.email,
@@ -160,7 +219,7 @@ export class SequenceService {
         changes: { before, after: settings },
       });
       await bumpPlanningVersion(manager);
-      return readSequenceSettings(manager);
+      return withVersion(await readSequenceSettings(manager));
     });
   }
 
@@ -192,6 +251,7 @@ export class SequenceService {
       const listed = new Map(request.days.map((day) => [day.date, day.serials]));
       const affected = [...new Set([...listed.keys(), ...namedEntries.map((entry) => entry.date)])];
       const entries = await manager.find(SequenceEntryEntity, { where: { date: In(affected) } });
+      await this.assertDaysCurrent(manager, rules, request.basedOn ?? [], entries);
       const bySerial = new Map(entries.map((entry) => [entry.serial, entry]));
       const before = new Map<string, string[]>(affected.map((date) => [date, []]));
       for (const [date, dayEntries] of groupByDate(entries))

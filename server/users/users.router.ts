@@ -8,6 +8,7 @@ import {
 } from '../../shared/schemas/user';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
+import { ifMatchOf } from '../http/versions';
 
 export function createUsersRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
@@ -41,7 +42,7 @@ export function createUsersRouter(services: Services, deps: RouteDeps): Router {
     params: userIdParamsSchema,
     body: updateUserRequestSchema,
     response: userSchema,
-    handler: ({ params, body, user }) => usersService.update(params.id, body, user),
+    handler: ({ params, body, user, req }) => usersService.update(params.id, body, user, ifMatchOf(req)),
   });
 
   return router;

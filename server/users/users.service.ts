@@ -7,13 +7,15 @@ import type { AuthenticatedUser } from '../http/request-user';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { UserEntity } from './user.entity';
 import type { Database } from '../db/database';
+import { assertCurrent, withVersion } from '../http/versions';
 
 export function toSessionUser(user: Pick<UserEntity, 'email' | 'name' | 'role' | 'supplierCode'>): SessionUser {
   return { email: user.email, name: user.name, role: user.role as Role, supplierCode: user.supplierCode };
 }
 
 function toUser(user: UserEntity): User {
-  return { id: user.id, ...toSessionUser(user), active: user.active, createdAt: user.createdAt.toISOString() };
+  const { version, ...rest } = withVersion({ ...toSessionUser(user), active: user.active });
+  return { id: user.id, ...rest, createdAt: user.createdAt.toISOString(), version };
 }
 
 export class UsersService {
@@ -54,11 +56,12 @@ export class UsersService {
     });
   }
 
-  async update(id: number, patch: UpdateUserRequest, actor: AuthenticatedUser): Promise<User> {
+  async update(id: number, patch: UpdateUserRequest, actor: AuthenticatedUser, basedOn?: string): Promise<User> {
     const passwordHash = patch.password ? await hashPassword(patch.password) : undefined;
     return this.db.write(async (manager) => {
       const user = await manager.findOneBy(UserEntity, { id });
       if (!user) throw new NotFoundError(`No user with id ${id}.`);
+      assertCurrent(basedOn, toUser(user), `The account of ${user.email}`);
       if (user.id === actor.id && (patch.active === false || (patch.role && patch.role !== 'admin'))) {
         throw new BadRequestError('You cannot disable yourself or take away your own admin role.');
       }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { versionField } from './version';
 import { CARD_EVENTS, CARD_STATES } from '../domain/card-cycle';
 
 export const LOOP_KINDS = ['supplier', 'supermarket'] as const;
@@ -31,6 +32,7 @@ export type CardStateCounts = z.infer<typeof cardStateCountsSchema>;
 
 /** One row of GET /api/kanban/loops: the published fields first, then what the screens need beside them. */
 export const kanbanLoopSchema = z.object({
+  ...versionField,
   partNumber: z.string(),
   supplierCode: z.string().nullable(),
   containerQty: z.number(),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { versionField } from './version';
 
 export const isoDateSchema = z.iso.date({ message: 'a date as YYYY-MM-DD' });
 const code = z
@@ -95,3 +96,5 @@ export const calendarSchema = z.object({
   holidays: z.array(isoDateSchema).refine((days) => new Set(days).size === days.length, 'each holiday once'),
 });
 export type Calendar = z.infer<typeof calendarSchema>;
+export const versionedCalendarSchema = calendarSchema.extend(versionField);
+export type VersionedCalendar = z.infer<typeof versionedCalendarSchema>;

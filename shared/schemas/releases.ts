@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { isoDateSchema } from './master-data';
 import { outboxMessageSchema } from './outbox';
+import { versionField } from './version';
 
 /** Life of a release: draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
 export const RELEASE_STATUSES = [
@@ -87,6 +88,7 @@ export const releaseJobSettingsSchema = z.object({
   jobTime: jobTimeSchema,
   /** The last day the scheduled job ran, or null when it never has. */
   lastRunDate: z.string().nullable(),
+  ...versionField,
 });
 export type ReleaseJobSettings = z.infer<typeof releaseJobSettingsSchema>;
 

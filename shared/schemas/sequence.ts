@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DEFAULT_FROZEN_WINDOW_DAYS } from '../domain/line-risk';
 import { isoDateSchema } from './master-data';
+import { versionField } from './version';
 
 export { DEFAULT_FROZEN_WINDOW_DAYS };
 
@@ -37,6 +38,8 @@ export const sequenceSettingsSchema = z.object({
     .meta({ description: 'Units the line builds per working day.' }),
 });
 export type SequenceSettings = z.infer<typeof sequenceSettingsSchema>;
+export const versionedSequenceSettingsSchema = sequenceSettingsSchema.extend(versionField);
+export type VersionedSequenceSettings = z.infer<typeof versionedSequenceSettingsSchema>;
 
 export const sequenceQuerySchema = z.object({
   from: isoDateSchema.optional(),
@@ -69,6 +72,10 @@ export const sequenceDaySchema = z.object({
   capacity: z.number().int(),
   load: z.number().int().meta({ description: 'Units planned: the sum of qty over the day’s slots.' }),
   units: z.array(sequenceUnitSchema),
+  version: z.string().meta({
+    description:
+      'Version of the day’s order; send it in `basedOn` when reordering, to get 409 `stale` if someone changed the day first.',
+  }),
 });
 export type SequenceDay = z.infer<typeof sequenceDaySchema>;
 
@@ -105,6 +112,14 @@ export const resequenceRequestSchema = z
       .min(1)
       .max(MAX_DAYS_PER_CHANGE),
     allowFrozen: allowFrozenSchema,
+    basedOn: z
+      .array(z.object({ date: isoDateSchema, version: z.string().max(40) }))
+      .max(MAX_DAYS_PER_CHANGE * 2)
+      .optional()
+      .meta({
+        description:
+          'The versions of the days (those listed and those units leave) the board showed; a day changed since answers 409 `stale` with the current days and who changed them.',
+      }),
   })
   .superRefine((body, context) => {
     const dates = new Set<string>();

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { plainText } from './text';
+import { versionField } from './version';
 
 export const ROLES = ['admin', 'planner', 'buyer', 'receiving', 'supplier', 'viewer'] as const;
 export const roleSchema = z.enum(ROLES);
@@ -46,6 +47,7 @@ export const userSchema = sessionUserSchema.extend({
   id: z.number().int(),
   active: z.boolean(),
   createdAt: z.string(),
+  ...versionField,
 });
 export type User = z.infer<typeof userSchema>;
 

@@ -15,6 +15,7 @@ import LoopsView from '@/views/LoopsView.vue';
  */
 function loopOf(overrides: Partial<KanbanLoop> = {}): KanbanLoop {
   return {
+    version: 'v1',
     partNumber: 'ACT-DK36',
     supplierCode: 'OMW',
     containerQty: 10,

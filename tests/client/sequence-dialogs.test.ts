@@ -12,7 +12,7 @@ const OPEN = '2026-12-07';
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
 
 function day(date: string, frozen: boolean): SequenceDay {
-  return { date, working: true, frozen, past: false, capacity: 24, load: 0, units: [] };
+  return { date, working: true, frozen, past: false, capacity: 24, load: 0, units: [], version: `v-${date}` };
 }
 
 const board: SequenceBoard = {

@@ -18,7 +18,17 @@ function unit(serial: string, model: string, date: string, sequence: number): Se
 
 function day(date: string, units: [string, string][], overrides: Partial<SequenceDay> = {}): SequenceDay {
   const list = units.map(([serial, model], index) => unit(serial, model, date, index + 1));
-  return { date, working: true, frozen: false, past: false, capacity: 3, load: list.length, units: list, ...overrides };
+  return {
+    date,
+    working: true,
+    frozen: false,
+    past: false,
+    capacity: 3,
+    load: list.length,
+    units: list,
+    version: `v-${date}`,
+    ...overrides,
+  };
 }
 
 /** A board with capacity 3: one frozen day, one full, one with room, one over capacity. */

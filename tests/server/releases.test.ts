@@ -363,7 +363,7 @@ describe('GET|PUT /api/releases/settings', () => {
       .set(bearer(context.tokens.admin))
       .send({ jobTime: '05:30' });
 
-    expect(before.body).toEqual({ jobTime: '06:00', lastRunDate: null });
+    expect(before.body).toEqual({ jobTime: '06:00', lastRunDate: null, version: expect.any(String) });
     expect(put.status).toBe(200);
     expect(put.body.jobTime).toBe('05:30');
     const after = await request(context.app).get('/api/releases/settings').set(bearer(context.tokens.admin));

@@ -356,9 +356,9 @@ describe('sequence settings', () => {
       .send({ frozenWindowDays: 0, dailyCapacity: 30 });
     const days = await board(F1, O1);
 
-    expect(defaults.body).toEqual({ frozenWindowDays: 3, dailyCapacity: 24 });
+    expect(defaults.body).toEqual({ frozenWindowDays: 3, dailyCapacity: 24, version: expect.any(String) });
     expect(saved.status).toBe(200);
-    expect(saved.body).toEqual({ frozenWindowDays: 0, dailyCapacity: 30 });
+    expect(saved.body).toEqual({ frozenWindowDays: 0, dailyCapacity: 30, version: expect.any(String) });
     expect(days.map((day) => day.frozen)).toEqual([false, false, false, false]);
     const audit = await context.dataSource.getRepository(AuditEventEntity).findOneBy({ entity: 'sequence-settings' });
     expect(audit?.changes).toMatchObject({ after: { frozenWindowDays: 0, dailyCapacity: 30 } });
