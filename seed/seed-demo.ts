@@ -4,7 +4,8 @@ import { hashPassword } from '../server/users/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
-import { replaceBomLines, upsertParts, upsertSuppliers } from '../server/master-data/master-data.writer';
+import { replaceBomLines, upsertSuppliers } from '../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../server/stock/stock.service';
 import { upsertSequenceEntries } from '../server/sequence/sequence.writer';
 import { writeSetting } from '../server/settings/settings';
 import { UserEntity } from '../server/users/user.entity';
@@ -22,7 +23,7 @@ export async function seedDemoScenario(db: Database, seedDay: string): Promise<v
   await db.write(async (manager) => {
     await writeCalendar(manager, scenario.calendar);
     await upsertSuppliers(manager, scenario.suppliers);
-    await upsertParts(manager, scenario.parts);
+    await savePartsWithStock(manager, scenario.parts);
     await replaceBomLines(manager, scenario.bom);
     await upsertSequenceEntries(manager, scenario.sequence);
     await syncLoops(manager);

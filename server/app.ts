@@ -6,6 +6,7 @@ import { join } from 'node:path';
 import { z } from 'zod';
 import { createAuthRouter } from './auth/auth.router';
 import { authenticate } from './auth/authenticate';
+import { createBuildsRouter } from './builds/builds.router';
 import { createCalendarRouter } from './calendar/calendar.router';
 import type { Database } from './db/database';
 import { createDockRouter } from './dock/dock.router';
@@ -26,6 +27,7 @@ import { createConfirmRouter } from './releases/confirm.router';
 import { createReleasesRouter } from './releases/releases.router';
 import { createSequenceRouter } from './sequence/sequence.router';
 import { createServices, type ServiceOptions, type Services } from './services';
+import { createStockRouter } from './stock/stock.router';
 import { createSupplierPerformanceRouter } from './supplier-performance/supplier-performance.router';
 import { createUsersRouter } from './users/users.router';
 
@@ -98,6 +100,8 @@ export function createApp(
   api.use(createConfirmRouter(services, deps));
   api.use(createReceiptsRouter(services, deps));
   api.use(createDockRouter(services, deps));
+  api.use(createStockRouter(services, deps));
+  api.use(createBuildsRouter(services, deps));
 
   const openApiDocument = generateOpenApiDocument(deps.registry);
   api.get('/openapi.json', (_req, res) => {

@@ -7,6 +7,7 @@ import { openDatabase, type Database } from './db/database';
 import { plantToday } from './planning/plan-dates';
 import { createServices } from './services';
 import { ReleaseJob } from './releases/release-job';
+import { CloseDayJob } from './builds/close-day-job';
 import { startJobs } from './jobs/scheduler';
 import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
 import { startFakeSmtp } from './outbox/fake-smtp';
@@ -48,9 +49,41 @@ async function main(): Promise<void> {
   const services = createServices(db, appOptions);
   const dispatcher = new OutboxDispatcher(db, smtpUrl, config.MAIL_FROM);
   const releaseJob = new ReleaseJob(db, services.releases);
-  const jobs = startJobs(dispatcher, releaseJob, () =>
-    alertFrozenWindowShortages(db, services.lineRisk, config.APP_URL),
-  );
+  const closeDayJob = new CloseDayJob(db, services.builds);
+  const jobs = startJobs([
+    {
+      name: 'Outbox',
+      schedule: '*/10 * * * * *',
+      run: async () => {
+        await dispatcher.dispatchDue();
+        return null;
+      },
+    },
+    {
+      name: 'Release job',
+      schedule: '0 * * * * *',
+      run: async () => {
+        const result = await releaseJob.tick();
+        return result && `${result.date}: ${result.releases.length} releases sent.`;
+      },
+    },
+    {
+      name: 'End of shift',
+      schedule: '15 * * * * *',
+      run: async () => {
+        const result = await closeDayJob.tick();
+        return result && `${result.date}: ${result.built.length} units reported built.`;
+      },
+    },
+    {
+      name: 'Frozen-window check',
+      schedule: '30 */5 * * * *',
+      run: async () => {
+        const parts = await alertFrozenWindowShortages(db, services.lineRisk, config.APP_URL);
+        return parts.length > 0 ? `shortage alert sent for ${parts.join(', ')}.` : null;
+      },
+    },
+  ]);
   const app = createApp(db, appOptions, services);
   const server = app.listen(config.PORT, () => {
     console.log(`Cardloop is running on http://localhost:${config.PORT}`);

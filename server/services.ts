@@ -1,6 +1,7 @@
 import { dirname, join } from 'node:path';
 import type { Database } from './db/database';
 import { AuthService } from './auth/auth.service';
+import { BuildsService } from './builds/builds.service';
 import { CalendarService } from './calendar/calendar.service';
 import { AttachmentsService } from './dock/attachments.service';
 import { DockService } from './dock/dock.service';
@@ -15,6 +16,7 @@ import { PlanningService } from './planning/planning.service';
 import { ConfirmService } from './releases/confirm.service';
 import { ReleasesService } from './releases/releases.service';
 import { SequenceService } from './sequence/sequence.service';
+import { StockService } from './stock/stock.service';
 import { SupplierPerformanceService } from './supplier-performance/supplier-performance.service';
 import { UsersService } from './users/users.service';
 
@@ -69,5 +71,7 @@ export function createServices(db: Database, options: ServiceOptions) {
     attachments: new AttachmentsService(db, options.attachmentsDir ?? defaultAttachmentsDir(db)),
     supplierPerformance: new SupplierPerformanceService(db),
     outbox: new OutboxService(db),
+    stock: new StockService(db),
+    builds: new BuildsService(db),
   };
 }

@@ -4,6 +4,8 @@ import { PasswordResetEntity } from '../auth/password-reset.entity';
 import { SessionEntity } from '../users/session.entity';
 import { BomLineEntity } from '../master-data/bom-line.entity';
 import { HolidayEntity } from '../calendar/holiday.entity';
+import { IdempotentRequestEntity } from '../http/idempotent-request.entity';
+import { StockMovementEntity } from '../stock/stock-movement.entity';
 import { ConfirmationTokenEntity } from '../releases/confirmation-token.entity';
 import { CardScanEntity } from '../loops/card-scan.entity';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
@@ -26,6 +28,7 @@ export const entities = [
   CardScanEntity,
   ConfirmationTokenEntity,
   HolidayEntity,
+  IdempotentRequestEntity,
   KanbanCardEntity,
   KanbanLoopEntity,
   LoginFailureEntity,
@@ -38,6 +41,7 @@ export const entities = [
   SequenceEntryEntity,
   SessionEntity,
   SettingEntity,
+  StockMovementEntity,
   SupplierEntity,
   UserEntity,
 ];

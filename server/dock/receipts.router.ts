@@ -1,21 +1,10 @@
 import { Router } from 'express';
-import {
-  IDEMPOTENCY_HEADER,
-  idempotencyKeySchema,
-  receiptRequestSchema,
-  receiptResponseSchema,
-} from '../../shared/schemas/receipts';
-import { BadRequestError } from '../errors';
-import { defineRoute, type RouteDeps } from '../http/route';
+import { IDEMPOTENCY_HEADER } from '../../shared/schemas/idempotency';
+import { receiptRequestSchema, receiptResponseSchema } from '../../shared/schemas/receipts';
+import { readIdempotencyKey } from '../http/idempotency';
+import { defineRoute, Reply, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { RECEIVING_ROLES } from '../http/roles';
-
-function readIdempotencyKey(header: string | undefined): string {
-  const parsed = idempotencyKeySchema.safeParse(header ?? '');
-  if (parsed.success) return parsed.data;
-  const message = `The ${IDEMPOTENCY_HEADER} header ${parsed.error.issues[0]?.message ?? 'is invalid'}: send a fresh key (1–100 characters) with each new count.`;
-  throw new BadRequestError(message, [{ path: [IDEMPOTENCY_HEADER], message }]);
-}
 
 /** Check-in of counted goods against release lines. */
 export function createReceiptsRouter(services: Services, deps: RouteDeps): Router {
@@ -32,11 +21,9 @@ export function createReceiptsRouter(services: Services, deps: RouteDeps): Route
     body: receiptRequestSchema,
     response: receiptResponseSchema,
     status: 201,
-    handler: async ({ body, req, res, user }) => {
-      const key = readIdempotencyKey(req.get(IDEMPOTENCY_HEADER));
-      const outcome = await service.receive(body, key, user);
-      res.status(outcome.created ? 201 : 200).json(outcome.body);
-      return undefined;
+    handler: async ({ body, req, user }) => {
+      const outcome = await service.receive(body, readIdempotencyKey(req, 'count'), user);
+      return new Reply(outcome.created ? 201 : 200, outcome.body);
     },
   });
 

@@ -16,6 +16,7 @@ import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
 import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
+import { postMovements } from '../stock/stock-ledger';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { bumpPlanningVersion } from '../settings/versions';
@@ -148,12 +149,22 @@ export class ReceiptsService {
     const stored = normalise(request);
     const usable = addsToOnHand(stored.discrepancy) ? stored.qty : 0;
     const onHandBefore = part.onHand;
-    const onHandAfter = roundQty(onHandBefore + usable);
     const receivedQty = roundQty(line.receivedQty + usable);
     const ordered = line.confirmedQty ?? line.qty;
     const closes = stored.final || receivedQty >= ordered - QTY_EPSILON;
 
-    await manager.update(PartEntity, { id: part.id }, { onHand: onHandAfter });
+    const [movement] = await postMovements(manager, [
+      {
+        partNumber: part.partNumber,
+        qty: usable,
+        kind: 'receipt',
+        userEmail: actor.email,
+        reason: `Release ${release.number}${stored.discrepancy ? ` (${stored.discrepancy})` : ''}`,
+        refType: 'release-line',
+        ref: String(line.id),
+      },
+    ]);
+    const onHandAfter = movement?.balanceAfter ?? onHandBefore;
     await manager.update(ReleaseLineEntity, { id: line.id }, { receivedQty, closed: closes });
     if (closes && line.cardId !== null) await this.returnCard(manager, line.cardId, actor.email);
 

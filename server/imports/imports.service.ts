@@ -6,7 +6,8 @@ import { recordAudit } from '../audit/audit.service';
 import { BomLineEntity } from '../master-data/bom-line.entity';
 import { readCalendar } from '../calendar/calendar.service';
 import { ImportError } from '../errors';
-import { replaceBomLines, setOnHand, upsertParts, upsertSuppliers } from '../master-data/master-data.writer';
+import { replaceBomLines, upsertSuppliers } from '../master-data/master-data.writer';
+import { postCounts, savePartsWithStock } from '../stock/stock.service';
 import { upsertSequenceEntries } from '../sequence/sequence.writer';
 import { syncLoops } from '../loops/loop-sync';
 import { PartEntity } from '../master-data/part.entity';
@@ -22,7 +23,7 @@ import { checkScheduleRows } from './schedule-rows';
 import { checkSupplierRows } from './supplier-rows';
 import type { Database } from '../db/database';
 
-type Importer = (manager: EntityManager, table: CsvTable, today: IsoDate) => Promise<number>;
+type Importer = (manager: EntityManager, table: CsvTable, today: IsoDate, actorEmail: string) => Promise<number>;
 
 function rejectOnProblems(problems: RowProblems): void {
   if (problems.count === 0) return;
@@ -52,12 +53,12 @@ const IMPORTERS: Record<ImportKind, Importer> = {
     await upsertSuppliers(manager, suppliers);
     return suppliers.length;
   },
-  parts: async (manager, table) => {
+  parts: async (manager, table, _today, actorEmail) => {
     const existing = await manager.find(PartEntity);
     const parts = new Map(existing.map(({ id: _id, ...part }) => [part.partNumber, part as Part]));
     const checked = checkPartRows(table, await suppliersByCode(manager), parts);
     rejectOnProblems(checked.problems);
-    await upsertParts(manager, checked.parts);
+    await savePartsWithStock(manager, checked.parts, actorEmail, 'Parts import');
     // A part that became a kanban part gets its loop at once.
     await syncLoops(manager);
     return checked.parts.length;
@@ -82,10 +83,15 @@ const IMPORTERS: Record<ImportKind, Importer> = {
     await upsertSequenceEntries(manager, entries);
     return entries.length;
   },
-  'on-hand': async (manager, table) => {
+  'on-hand': async (manager, table, _today, actorEmail) => {
     const { counts, problems } = checkOnHandRows(table, await partNumbers(manager));
     rejectOnProblems(problems);
-    await setOnHand(manager, counts);
+    await postCounts(
+      manager,
+      counts.map((count) => ({ partNumber: count.partNumber, counted: count.onHand })),
+      actorEmail,
+      'On-hand import',
+    );
     return counts.length;
   },
 };
@@ -108,7 +114,7 @@ export class ImportsService {
     const table = readCsvTable(upload.file, IMPORT_LAYOUTS[upload.kind]);
     if (table.records.length === 0 && table.problems.length === 0) return { imported: 0 };
     return this.db.write(async (manager) => {
-      const imported = await IMPORTERS[upload.kind](manager, table, this.today());
+      const imported = await IMPORTERS[upload.kind](manager, table, this.today(), upload.actorEmail);
       await recordAudit(manager, {
         actorEmail: upload.actorEmail,
         action: 'import',

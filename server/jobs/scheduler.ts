@@ -1,38 +1,27 @@
 import cron, { type ScheduledTask } from 'node-cron';
-import type { OutboxDispatcher } from '../outbox/outbox.service';
-import type { ReleaseJob } from '../releases/release-job';
 
-/** A check that returns what it reported, run every few minutes. */
-type PeriodicCheck = () => Promise<string[]>;
+/** A job the process runs on a schedule; `run` resolves to a line worth logging, or nothing. */
+export interface ScheduledJob {
+  name: string;
+  /** node-cron expression, with seconds. */
+  schedule: string;
+  run: () => Promise<string | null | undefined>;
+}
 
 /**
- * In-process jobs: the outbox is drained every ten seconds; the release job looks at its clock
- * every minute; the frozen window is checked for new shortages every five minutes.
+ * Starts the in-process jobs. Clock jobs (releases, end of shift) look at their set time every
+ * minute rather than being scheduled at it: a changed time needs no rescheduling, and a time
+ * missed while the server was down is caught up when it starts again.
  */
-export function startJobs(
-  dispatcher: OutboxDispatcher,
-  releaseJob: ReleaseJob,
-  frozenWindowCheck: PeriodicCheck,
-): ScheduledTask[] {
-  const drainOutbox = cron.schedule('*/10 * * * * *', () => {
-    dispatcher.dispatchDue().catch((error) => console.error('Outbox dispatch failed:', error));
-  });
-  // Every minute rather than a cron at the set time: the admin's time change needs no rescheduling,
-  // and a missed time is caught up after a restart.
-  const releases = cron.schedule('0 * * * * *', () => {
-    releaseJob
-      .tick()
-      .then((result) => {
-        if (result) console.log(`Release job ${result.date}: ${result.releases.length} releases sent.`);
-      })
-      .catch((error) => console.error('Release job failed:', error));
-  });
-  const shortages = cron.schedule('30 */5 * * * *', () => {
-    frozenWindowCheck()
-      .then((parts) => {
-        if (parts.length > 0) console.log(`Frozen-window shortage alert sent for ${parts.join(', ')}.`);
-      })
-      .catch((error) => console.error('Frozen-window shortage check failed:', error));
-  });
-  return [drainOutbox, releases, shortages];
+export function startJobs(jobs: readonly ScheduledJob[]): ScheduledTask[] {
+  return jobs.map((job) =>
+    cron.schedule(job.schedule, () => {
+      job
+        .run()
+        .then((line) => {
+          if (line) console.log(`${job.name}: ${line}`);
+        })
+        .catch((error) => console.error(`${job.name} failed:`, error));
+    }),
+  );
 }

@@ -14,8 +14,13 @@ export async function upsertSuppliers(manager: EntityManager, suppliers: Supplie
   await bumpPlanningVersion(manager);
 }
 
+/**
+ * Upserts the part master. On-hand is not master data: it is left out here (a new part starts at
+ * 0, an existing one keeps its stock) and the stock ledger posts what a file says is on hand.
+ */
 export async function upsertParts(manager: EntityManager, parts: Part[]): Promise<void> {
-  await upsertBy(manager, PartEntity, parts as PartEntity[], 'partNumber');
+  const master = parts.map(({ onHand: _onHand, ...part }) => part);
+  await upsertBy(manager, PartEntity, master as PartEntity[], 'partNumber');
   await bumpPlanningVersion(manager);
 }
 
@@ -24,14 +29,5 @@ export async function replaceBomLines(manager: EntityManager, lines: BomLine[]):
   const parents = [...new Set(lines.map((line) => line.parent))];
   for (const chunk of chunks(parents)) await manager.delete(BomLineEntity, { parent: In(chunk) });
   for (const chunk of chunks(lines)) await manager.insert(BomLineEntity, chunk);
-  await bumpPlanningVersion(manager);
-}
-
-export async function setOnHand(
-  manager: EntityManager,
-  counts: { partNumber: string; onHand: number }[],
-): Promise<void> {
-  for (const count of counts)
-    await manager.update(PartEntity, { partNumber: count.partNumber }, { onHand: count.onHand });
   await bumpPlanningVersion(manager);
 }

@@ -29,6 +29,7 @@ export class PartEntity {
   @Column({ name: 'pack_qty', type: 'double precision', default: 1 })
   packQty: number;
 
+  /** The sum of the part's stock movements, kept here for planning; changed only by the ledger. */
   @Column({ name: 'on_hand', type: 'double precision', default: 0 })
   onHand: number;
 
@@ -43,4 +44,8 @@ export class PartEntity {
 
   @Column({ type: 'boolean', default: false })
   hazardous: boolean;
+
+  /** When stock of this part was last counted (a count or an on-hand import); null when never. */
+  @Column({ name: 'last_counted_at', type: 'varchar', length: 30, nullable: true })
+  lastCountedAt: string | null;
 }

@@ -34,7 +34,9 @@ const PARTS_SQL = `SELECT part_number AS partNumber, description, uom, source, s
   FROM part ORDER BY part_number`;
 const BOM_SQL = `SELECT parent, component, qty_per AS qtyPer, scrap_pct AS scrapPct, effective_from AS effectiveFrom,
   effective_to AS effectiveTo FROM bom_line`;
-const SEQUENCE_SQL = 'SELECT date, sequence, model, serial, qty FROM sequence_entry ORDER BY date, sequence';
+// Built units consumed their parts already (the backflush); only the rest is demand.
+const SEQUENCE_SQL = `SELECT date, sequence, model, serial, qty FROM sequence_entry WHERE status <> 'built'
+  ORDER BY date, sequence`;
 // Once the buyer has a confirmed answer, the supplier's quantity is what will come.
 const EXPECTED_QTY = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.confirmed_qty IS NOT NULL
   THEN l.confirmed_qty ELSE l.qty END`;

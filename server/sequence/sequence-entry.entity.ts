@@ -22,4 +22,14 @@ export class SequenceEntryEntity {
 
   @Column({ type: 'integer', default: 1 })
   qty: number;
+
+  /** planned, started (its kit was issued) or built (its components were backflushed). */
+  @Column({ type: 'varchar', length: 10, default: 'planned' })
+  status: string;
+
+  @Column({ name: 'started_at', type: 'varchar', length: 30, nullable: true })
+  startedAt: string | null;
+
+  @Column({ name: 'built_at', type: 'varchar', length: 30, nullable: true })
+  builtAt: string | null;
 }

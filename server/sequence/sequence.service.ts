@@ -2,6 +2,7 @@ import { Between, In, type EntityManager } from 'typeorm';
 import { addWorkingDays, nextWorkingDay, workingDaysBetween } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
 import type { IsoDate } from '../../shared/domain/types';
+import type { UnitStatus } from '../../shared/schemas/builds';
 import {
   DEFAULT_BOARD_WORKING_DAYS,
   type AddSequenceUnitRequest,
@@ -51,6 +52,8 @@ function toUnit(entry: SequenceEntryEntity): SequenceUnit {
     model: entry.model,
     serial: entry.serial,
     qty: entry.qty,
+    status: entry.status as UnitStatus,
+    builtAt: entry.builtAt,
   };
 }
 

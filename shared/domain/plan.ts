@@ -11,10 +11,12 @@ export { grossDemandByDay, weeklyTotals } from './plan-demand';
 
 /*
  * Conventions of the engine (one bucket = one working day of the plant calendar):
- * - Independent demand is the build sequence: a slot's qty is a gross requirement of its model on
- *   the slot's date. Slots before `from` are taken as built, slots after `to` are outside the
- *   horizon, and a slot dated on a non-working day counts in the next working day's bucket (it
- *   cannot be built earlier than the line runs); if that day lies after `to` it drops out too.
+ * - Independent demand is the build sequence of units not yet built (the caller leaves built units
+ *   out: their parts were backflushed): a slot's qty is a gross requirement of its model on the
+ *   slot's date. A slot dated before `from` is a unit still to build, past due: it counts in the
+ *   first bucket. Slots after `to` are outside the horizon, and a slot dated on a non-working day
+ *   counts in the next working day's bucket (it cannot be built earlier than the line runs); if
+ *   that day lies after `to` it drops out too.
  * - On-hand counts at the start of the first bucket; a scheduled receipt dated before `from` is
  *   late and counted in the first bucket, one on a non-working day in the next working bucket.
  * - Planned receipts are lot-for-lot rounded up to whole packs; the planned release lies
@@ -46,7 +48,8 @@ function loadSequence(input: PlanInput, model: PlanModel, tables: NettingTables)
       if (!Number.isFinite(slot.qty)) throw new PlanInputError(`${where}: quantity must be a finite number`);
       requireDate(day, slot.date, where);
     }
-    const bucket = model.bucketOf(day as number);
+    let bucket = model.bucketOf(day as number);
+    if (bucket === BEFORE_HORIZON && days > 0) bucket = 0;
     if (bucket >= 0) gross[(part as number) * days + bucket] += slot.qty;
   }
 }

@@ -56,7 +56,7 @@ export interface PlanInput {
   sequence: SequenceSlot[];
   scheduledReceipts: ScheduledReceipt[];
   calendar: PlantCalendar;
-  /** First bucket; on-hand counts at its start and sequence slots before it are taken as built. */
+  /** First bucket; on-hand counts at its start, and unbuilt sequence slots dated before it are due in it. */
   from: IsoDate;
   /** Last bucket (inclusive). */
   to: IsoDate;

@@ -8,7 +8,7 @@ const code = z
   .min(1)
   .max(20)
   .regex(/^[A-Za-z0-9._-]+$/, 'letters, digits, . _ - only');
-const partNumber = z
+export const partNumberSchema = z
   .string()
   .trim()
   .min(1)
@@ -44,7 +44,7 @@ export type Supplier = z.infer<typeof supplierSchema>;
 
 export const partSchema = z
   .object({
-    partNumber,
+    partNumber: partNumberSchema,
     description: z.string().trim().min(1).max(200),
     uom: z.enum(UNIT_CODES),
     source: z.enum(PART_SOURCES),
@@ -65,8 +65,8 @@ export type Part = z.infer<typeof partSchema>;
 
 export const bomLineSchema = z
   .object({
-    parent: partNumber,
-    component: partNumber,
+    parent: partNumberSchema,
+    component: partNumberSchema,
     qtyPer: z.number().positive(),
     scrapPct: z.number().min(0).max(100),
     effectiveFrom: isoDateSchema.nullable(),
@@ -82,7 +82,7 @@ export type BomLine = z.infer<typeof bomLineSchema>;
 export const sequenceEntrySchema = z.object({
   date: isoDateSchema,
   sequence: z.number().int().min(1).max(9999),
-  model: partNumber,
+  model: partNumberSchema,
   serial: z.string().trim().min(1).max(40),
   qty: z.number().int().min(1).max(1000),
 });

@@ -17,8 +17,6 @@ export function addsToOnHand(discrepancy: Discrepancy | null | undefined): boole
 }
 
 /** Header that makes POST /api/receipts safe to repeat. */
-export const IDEMPOTENCY_HEADER = 'Idempotency-Key';
-export const idempotencyKeySchema = z.string().trim().min(1, 'is required').max(100, 'is longer than 100 characters');
 
 export const MAX_RECEIPT_QTY = 1_000_000_000;
 

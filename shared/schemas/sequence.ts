@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DEFAULT_FROZEN_WINDOW_DAYS } from '../domain/line-risk';
 import { isoDateSchema } from './master-data';
+import { UNIT_STATUSES } from './builds';
 import { versionField } from './version';
 
 export { DEFAULT_FROZEN_WINDOW_DAYS };
@@ -61,6 +62,8 @@ export const sequenceUnitSchema = z.object({
   model: z.string(),
   serial: z.string(),
   qty: z.number().int(),
+  status: z.enum(UNIT_STATUSES),
+  builtAt: z.string().nullable(),
 });
 export type SequenceUnit = z.infer<typeof sequenceUnitSchema>;
 

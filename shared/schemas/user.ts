@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { plainText } from './text';
 import { versionField } from './version';
 
-export const ROLES = ['admin', 'planner', 'buyer', 'receiving', 'supplier', 'viewer'] as const;
+export const ROLES = ['admin', 'planner', 'buyer', 'receiving', 'line', 'supplier', 'viewer'] as const;
 export const roleSchema = z.enum(ROLES);
 export type Role = z.infer<typeof roleSchema>;
 
@@ -11,6 +11,7 @@ export const ROLE_LABELS: Record<Role, string> = {
   planner: 'Planner',
   buyer: 'Buyer',
   receiving: 'Receiving',
+  line: 'Line end',
   supplier: 'Supplier',
   viewer: 'Viewer',
 };

@@ -1,5 +1,6 @@
 import type { DockAttachment, DockColumn, DockItem } from '@shared/schemas/dock';
-import { IDEMPOTENCY_HEADER, type ReceiptRequest, type ReceiptResponse } from '@shared/schemas/receipts';
+import type { ReceiptRequest, ReceiptResponse } from '@shared/schemas/receipts';
+import { IDEMPOTENCY_HEADER } from '@shared/schemas/idempotency';
 import { fetchFile, type DownloadedFile } from './download';
 import { http } from './http';
 import { uploadFile, type UploadOptions } from './upload';

@@ -1,5 +1,5 @@
 import { markRaw, type Component } from 'vue';
-import { Box, Calendar, Setting, ShoppingCart, Van, View } from '@element-plus/icons-vue';
+import { Box, Calendar, Finished, Setting, ShoppingCart, Van, View } from '@element-plus/icons-vue';
 import type { Role } from '@shared/schemas/user';
 
 type TagType = 'primary' | 'success' | 'info' | 'warning' | 'danger';
@@ -13,6 +13,7 @@ export const ROLE_BADGES: Record<Role, { icon: Component; tagType: TagType }> = 
   planner: { icon: markRaw(Calendar), tagType: 'primary' },
   buyer: { icon: markRaw(ShoppingCart), tagType: 'primary' },
   receiving: { icon: markRaw(Box), tagType: 'primary' },
+  line: { icon: markRaw(Finished), tagType: 'primary' },
   supplier: { icon: markRaw(Van), tagType: 'info' },
   viewer: { icon: markRaw(View), tagType: 'info' },
 };
@@ -24,6 +25,7 @@ export const ROLE_DUTIES: Record<Role, string> = {
   planner: 'You own the build sequence: import and edit it, freeze the next days and watch which units are at risk.',
   buyer: 'You keep parts, suppliers and bills of materials, read demand ahead, size kanban loops and send releases.',
   receiving: 'You check deliveries in at the dock, record counts and discrepancies, and move stock to the line.',
+  line: 'You report each unit built at the end of the line, so its parts come off stock, and bring each unit its kit.',
   supplier: 'You see your own releases and forecast and confirm what you will ship and when.',
   viewer: 'You can read plans, loops and deliveries; changes are made by the people who own them.',
 };

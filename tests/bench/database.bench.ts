@@ -5,7 +5,8 @@ import { createApp } from '../../server/app';
 import { sessionExpiry, signSessionToken } from '../../server/auth/tokens';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { openDatabase, type Database } from '../../server/db/database';
-import { replaceBomLines, upsertParts, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { replaceBomLines, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { loadPlanInputs } from '../../server/planning/plan-inputs';
 import { openSession } from '../../server/users/sessions';
@@ -84,7 +85,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
         deliveryDelay: 1,
       })),
     );
-    await upsertParts(
+    await savePartsWithStock(
       manager,
       fixture.parts.map((part) => ({
         partNumber: part.partNumber,

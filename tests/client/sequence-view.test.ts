@@ -13,7 +13,7 @@ const OPEN = '2026-12-07';
 const OVER = '2026-12-08';
 
 function unit(serial: string, model: string, date: string, sequence: number): SequenceUnit {
-  return { id: Number(serial.slice(1)), date, sequence, model, serial, qty: 1 };
+  return { id: Number(serial.slice(1)), date, sequence, model, serial, qty: 1, status: 'planned', builtAt: null };
 }
 
 function day(date: string, units: [string, string][], overrides: Partial<SequenceDay> = {}): SequenceDay {

@@ -8,7 +8,7 @@ import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { syncLoops } from '../../server/loops/loop-sync';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
-import { upsertParts } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { readPlanningVersion } from '../../server/settings/versions';
 import { addCalendarDays } from '../../shared/domain/date';
@@ -29,7 +29,7 @@ let nextDay = 1;
 beforeAll(async () => {
   context = await createTestContext({ appUrl: APP_URL });
   await context.dataSource.transaction(async (manager) => {
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('K', { packQty: 10, description: 'Caster 100 mm' }),
       testPart('W', { packQty: 25, uom: 'KGM', description: 'Wire, 1.5 mm²' }),
     ]);

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
-import { upsertParts } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { plantToday } from '../../server/planning/plan-dates';
 import { ReceiptEntity } from '../../server/dock/receipt.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
@@ -99,7 +99,7 @@ beforeAll(async () => {
   attachmentsDir = await mkdtemp(join(tmpdir(), 'cardloop-dock-'));
   context = await createTestContext({ attachmentsDir });
   await context.dataSource.transaction((manager) =>
-    upsertParts(manager, [
+    savePartsWithStock(manager, [
       testPart('BRUSH-20', { description: 'Disc brush 20 in', replenishment: 'scheduled' }),
       testPart('BATT-24V', { description: 'Traction battery 24 V', hazardous: true, replenishment: 'scheduled' }),
       testPart('CASTER-75', { description: 'Caster 75 mm', uom: 'PR' }),

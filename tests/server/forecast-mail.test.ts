@@ -5,7 +5,8 @@ import { writeCalendar } from '../../server/calendar/calendar.service';
 import { startFakeSmtp, type FakeSmtp } from '../../server/outbox/fake-smtp';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
 import { OutboxDispatcher } from '../../server/outbox/outbox.service';
-import { replaceBomLines, upsertParts } from '../../server/master-data/master-data.writer';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
@@ -17,7 +18,7 @@ beforeAll(async () => {
   context = await createTestContext({ fakeSmtp: smtp });
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] });
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('D', { supplierCode: 'SUP-B' }),
     ]);

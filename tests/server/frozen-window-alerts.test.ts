@@ -4,7 +4,8 @@ import { writeCalendar } from '../../server/calendar/calendar.service';
 import { alertFrozenWindowShortages } from '../../server/line-risk/frozen-window-alerts';
 import { LineRiskService } from '../../server/line-risk/line-risk.service';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
-import { replaceBomLines, setOnHand, upsertParts } from '../../server/master-data/master-data.writer';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { postCounts, savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { plantToday } from '../../server/planning/plan-dates';
 import { createTestContext, testPart, type TestContext } from './helpers';
@@ -21,7 +22,7 @@ beforeAll(async () => {
   const buildDay = nextWorkingDay(plantToday(), calendar);
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, calendar);
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('P', { onHand: 1, description: 'Drive motor' }),
     ]);
@@ -54,9 +55,9 @@ describe('frozen-window shortage alerts', () => {
   });
 
   it('alerts again after the part has left the window and comes back', async () => {
-    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'P', onHand: 5 }]));
+    await context.db.write((manager) => postCounts(manager, [{ partNumber: 'P', counted: 5 }], null, 'Count'));
     const cleared = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
-    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'P', onHand: 0 }]));
+    await context.db.write((manager) => postCounts(manager, [{ partNumber: 'P', counted: 0 }], null, 'Count'));
 
     const back = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
 

@@ -51,7 +51,7 @@ export async function createTestContext(options: Partial<AppOptions> = {}): Prom
       deliveryDelay: 1,
     },
   ]);
-  const roles: Role[] = ['admin', 'planner', 'buyer', 'receiving', 'supplier', 'viewer'];
+  const roles: Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'supplier', 'viewer'];
   await dataSource.getRepository(UserEntity).insert(
     roles.map((role) => ({
       email: `${role}@example.com`,

@@ -1,7 +1,8 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { replaceBomLines, setOnHand, upsertParts } from '../../server/master-data/master-data.writer';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { postCounts, savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
@@ -16,7 +17,7 @@ beforeAll(async () => {
   context = await createTestContext();
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-12-25'] });
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('C', { packQty: 10, onHand: 5, leadTimeDays: 2 }),
       testPart('D', { supplierCode: 'SUP-B', onHand: 100 }),
@@ -90,13 +91,13 @@ describe('GET /api/plan', () => {
     const query = { part: 'C', from: '2026-12-21', to: '2026-12-28' };
     const before = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
 
-    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'C', onHand: 50 }]));
+    await context.db.write((manager) => postCounts(manager, [{ partNumber: 'C', counted: 50 }], null, 'Count'));
     const after = await request(context.app).get('/api/plan').query(query).set(bearer(context.tokens.buyer));
 
     expect(before.body.buckets[0].projectedAvailable).toBe(1);
     expect(after.body.buckets[0].projectedAvailable).toBe(46);
     expect(after.body.pastDue).toEqual([]);
-    await context.dataSource.transaction((manager) => setOnHand(manager, [{ partNumber: 'C', onHand: 5 }]));
+    await context.db.write((manager) => postCounts(manager, [{ partNumber: 'C', counted: 5 }], null, 'Count'));
   });
 
   it('counts open release lines as scheduled receipts, at the supplier’s confirmed quantity once confirmed', async () => {

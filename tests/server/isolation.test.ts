@@ -4,7 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addWorkingDays, nextWorkingDay } from '../../shared/domain/calendar';
 import type { PlantCalendar } from '../../shared/domain/types';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { upsertParts, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { startFakeSmtp, type FakeSmtp } from '../../server/outbox/fake-smtp';
 import { enqueueMail, OutboxDispatcher } from '../../server/outbox/outbox.service';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
@@ -80,7 +81,9 @@ describe('request isolation', () => {
     const dayB = Array.from({ length: 6 }, (_, index) => `SB-${index}`);
     await context.db.write(async (manager) => {
       await writeCalendar(manager, calendar);
-      await upsertParts(manager, [testPart('MDL', { source: 'end_item', supplierCode: null, replenishment: null })]);
+      await savePartsWithStock(manager, [
+        testPart('MDL', { source: 'end_item', supplierCode: null, replenishment: null }),
+      ]);
       await upsertSequenceEntries(manager, [
         ...dayA.map((serial, index) => ({ date: first, sequence: index + 1, model: 'MDL', serial, qty: 1 })),
         ...dayB.map((serial, index) => ({ date: second, sequence: index + 1, model: 'MDL', serial, qty: 1 })),

@@ -3,7 +3,8 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } 
 import { buildDemoScenario } from '../../seed/scenario';
 import { MADE } from '../../seed/scenario-parts';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { replaceBomLines, upsertParts, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { replaceBomLines, upsertSuppliers } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
@@ -33,7 +34,7 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
     context = await createTestContext();
     await context.dataSource.transaction(async (manager) => {
       await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-12-25'] });
-      await upsertParts(manager, [
+      await savePartsWithStock(manager, [
         testPart('M', { source: 'end_item', supplierCode: null, replenishment: null, description: 'Model M' }),
         testPart('C', { onHand: 5, description: 'Battery pack', hazardous: true }),
         testPart('D', { supplierCode: 'SUP-B', onHand: 100 }),
@@ -243,7 +244,7 @@ describe('GET /api/shortages on the demo plant', () => {
     await context.dataSource.transaction(async (manager) => {
       await writeCalendar(manager, scenario.calendar);
       await upsertSuppliers(manager, scenario.suppliers);
-      await upsertParts(manager, scenario.parts);
+      await savePartsWithStock(manager, scenario.parts);
       await replaceBomLines(manager, scenario.bom);
       await upsertSequenceEntries(manager, scenario.sequence);
     });

@@ -4,7 +4,8 @@ import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { CardScanEntity } from '../../server/loops/card-scan.entity';
 import { syncLoops } from '../../server/loops/loop-sync';
-import { replaceBomLines, upsertParts } from '../../server/master-data/master-data.writer';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Part } from '../../shared/schemas/master-data';
@@ -74,7 +75,7 @@ beforeAll(async () => {
   context = await createTestContext();
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] });
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       part('M', { source: 'end_item', supplierCode: null, replenishment: null, pointOfUse: null }),
       part('C', { packQty: 2, description: 'Caster 100 mm' }),
       part('D', { supplierCode: 'SUP-B' }),

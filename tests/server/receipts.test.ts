@@ -4,7 +4,7 @@ import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { CardScanEntity } from '../../server/loops/card-scan.entity';
 import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
-import { upsertParts } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { PartEntity } from '../../server/master-data/part.entity';
 import { ReceiptEntity } from '../../server/dock/receipt.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
@@ -76,7 +76,7 @@ const receiptCount = (releaseLineId: number) =>
 beforeAll(async () => {
   context = await createTestContext();
   await context.dataSource.transaction((manager) =>
-    upsertParts(manager, [
+    savePartsWithStock(manager, [
       testPart('BRUSH-20', { onHand: 10, replenishment: 'scheduled' }),
       testPart('PAD-26', { onHand: 0, replenishment: 'scheduled' }),
       testPart('CASTER-75', { onHand: 4 }),
@@ -110,6 +110,15 @@ describe('POST /api/receipts', () => {
       userEmail: 'receiving@example.com',
     });
     expect(await onHandOf('BRUSH-20')).toBe(50);
+    const ledger = await request(context.app).get('/api/stock/BRUSH-20/movements').set(bearer(context.tokens.buyer));
+    expect(ledger.body.movements.at(-1)).toMatchObject({
+      kind: 'receipt',
+      qty: 40,
+      balance: 50,
+      refType: 'release-line',
+      ref: String(lines[0].id),
+      userEmail: 'receiving@example.com',
+    });
     expect(await lineOf(lines[0].id)).toMatchObject({ receivedQty: 40, closed: true });
     expect(await releaseOf(release.id)).toMatchObject({ status: 'received', dockColumn: 'counted' });
     expect(await readPlanningVersion(context.dataSource.manager)).toBeGreaterThan(planningBefore);

@@ -8,7 +8,8 @@ import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { syncLoops } from '../../server/loops/loop-sync';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
-import { replaceBomLines, upsertParts } from '../../server/master-data/master-data.writer';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { PlanningService } from '../../server/planning/planning.service';
 import { HAZARDOUS_NOTE } from '../../server/releases/release-mail';
@@ -41,7 +42,7 @@ const RUN_DATE = '2027-03-01';
 async function seedFixture(): Promise<void> {
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] });
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('K', { packQty: 10, description: 'Caster 100 mm' }),
       testPart('H', { packQty: 4, supplierCode: 'SUP-B', hazardous: true, description: 'Battery 6 V' }),

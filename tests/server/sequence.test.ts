@@ -5,7 +5,8 @@ import { addCalendarDays } from '../../shared/domain/date';
 import type { PlantCalendar } from '../../shared/domain/types';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { replaceBomLines, upsertParts } from '../../server/master-data/master-data.writer';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { plantToday } from '../../server/planning/plan-dates';
 import { SequenceEntryEntity } from '../../server/sequence/sequence-entry.entity';
@@ -66,7 +67,7 @@ beforeAll(async () => {
   context = await createTestContext();
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, calendar);
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('M1', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('M2', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('C', { packQty: 1, onHand: 0, leadTimeDays: 0 }),

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addWorkingDays, nextWorkingDay } from '../../shared/domain/calendar';
 import type { PlantCalendar } from '../../shared/domain/types';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { upsertParts } from '../../server/master-data/master-data.writer';
+import { savePartsWithStock } from '../../server/stock/stock.service';
 import { syncLoops } from '../../server/loops/loop-sync';
 import { plantToday } from '../../server/planning/plan-dates';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
@@ -21,7 +21,7 @@ beforeAll(async () => {
   context = await createTestContext();
   await context.db.write(async (manager) => {
     await writeCalendar(manager, calendar);
-    await upsertParts(manager, [
+    await savePartsWithStock(manager, [
       testPart('MDL', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('KAN-1', { replenishment: 'kanban' }),
     ]);

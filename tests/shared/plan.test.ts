@@ -419,7 +419,8 @@ describe('computePlan — gross-to-net rules', () => {
     expect(partPlan(result, 'CASTER').buckets.at(-1)?.projectedAvailable).toBe(10);
   });
 
-  it('ignores sequence slots before the horizon and moves a weekend slot to the next working day', () => {
+  // The caller passes only units not yet built; one dated before the horizon is still to build.
+  it('counts an unbuilt slot before the horizon on its first day and moves a weekend slot to the next working day', () => {
     const result = plan({
       parts: [part('M', { source: 'end_item' })],
       sequence: [
@@ -432,7 +433,7 @@ describe('computePlan — gross-to-net rules', () => {
       to: '2026-03-13',
     });
 
-    expect(nonZero(result, 'M', 'gross')).toEqual({ '2026-03-09': 3 });
+    expect(nonZero(result, 'M', 'gross')).toEqual({ '2026-03-02': 7, '2026-03-09': 3 });
   });
 
   it('adds the demand of every parent of a shared component in the same bucket', () => {

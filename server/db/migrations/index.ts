@@ -2,6 +2,7 @@ import { InitialSchema1764626400000 } from './1764626400000-initial-schema';
 import { ReceiptFinal1764720000000 } from './1764720000000-receipt-final';
 import { OutboxDelivery1764800000000 } from './1764800000000-outbox-delivery';
 import { Sessions1764810000000 } from './1764810000000-sessions';
+import { StockLedger1764900000000 } from './1764900000000-stock-ledger';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -9,4 +10,5 @@ export const migrations = [
   ReceiptFinal1764720000000,
   OutboxDelivery1764800000000,
   Sessions1764810000000,
+  StockLedger1764900000000,
 ];
