@@ -2,10 +2,11 @@ import { In, type EntityManager } from 'typeorm';
 import { backflush, bomByParent, type BackflushPart, type BomByParent } from '../../shared/domain/backflush';
 import { isEffective } from '../../shared/domain/bom';
 import { roundQty } from '../../shared/domain/quantity';
-import type { IsoDate, PartSource } from '../../shared/domain/types';
+import type { IsoDate, PartSource, PlanningBomLine } from '../../shared/domain/types';
 import type { BuildResponse, CloseDayResponse, CloseDaySettings, Kit, UnitStatus } from '../../shared/schemas/builds';
 import { recordAudit } from '../audit/audit.service';
 import type { Database } from '../db/database';
+import { chunks } from '../db/upsert';
 import { ConflictError, ForbiddenError, NotFoundError } from '../errors';
 import { oncePerKey, type IdempotentOutcome } from '../http/idempotency';
 import type { AuthenticatedUser } from '../http/request-user';
@@ -14,7 +15,7 @@ import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
 import { readSetting, writeSetting } from '../settings/settings';
-import { postMovements, type NewMovement } from '../stock/stock-ledger';
+import { postMovements, type NewMovement, type PostedMovement } from '../stock/stock-ledger';
 import { StockMovementEntity } from '../stock/stock-movement.entity';
 
 /** A line operator may undo a unit they reported themselves within this long; a planner any time. */
@@ -29,11 +30,16 @@ interface BackflushContext {
   subassemblyStock: Map<string, number>;
 }
 
+// Raw selects: a large plant has tens of thousands of lines and parts, and entity hydration would
+// cost more than the backflush itself.
 async function backflushContext(manager: EntityManager): Promise<BackflushContext> {
-  const [lines, parts] = await Promise.all([
-    manager.find(BomLineEntity),
-    manager.find(PartEntity, { select: { partNumber: true, source: true, onHand: true } }),
-  ]);
+  const lines: PlanningBomLine[] = await manager.query(
+    `SELECT parent, component, qty_per AS qtyPer, scrap_pct AS scrapPct, effective_from AS effectiveFrom,
+     effective_to AS effectiveTo FROM bom_line`,
+  );
+  const parts: { partNumber: string; source: string; onHand: number }[] = await manager.query(
+    'SELECT part_number AS partNumber, source, on_hand AS onHand FROM part',
+  );
   return {
     bom: bomByParent(lines),
     parts: new Map(parts.map((part) => [part.partNumber, { source: part.source as PartSource }])),
@@ -65,8 +71,7 @@ export class BuildsService {
     return this.db.write((manager) =>
       oncePerKey(manager, 'build', key, { serial }, async () => {
         const entry = await this.findEntry(manager, serial);
-        const context = await backflushContext(manager);
-        const result = await this.buildEntry(manager, entry, context, actor);
+        const [result] = await this.buildEntries(manager, [entry], await backflushContext(manager), actor);
         await recordAudit(manager, {
           actorEmail: actor.email,
           action: 'build',
@@ -132,15 +137,9 @@ export class BuildsService {
         where: { date, status: In(['planned', 'started']) },
         order: { sequence: 'ASC' },
       });
-      const context = await backflushContext(manager);
-      const built: string[] = [];
-      const movements: { partNumber: string; qty: number }[] = [];
-      for (const entry of entries) {
-        const result = await this.buildEntry(manager, entry, context, actor);
-        built.push(entry.serial);
-        movements.push(...result.movements);
-      }
-      const summary = summarise(movements);
+      const results = await this.buildEntries(manager, entries, await backflushContext(manager), actor);
+      const built = results.map((result) => result.serial);
+      const summary = summarise(results.flatMap((result) => result.movements));
       await recordAudit(manager, {
         actorEmail: actor?.email ?? 'job:close-day',
         action: 'close-day',
@@ -209,26 +208,38 @@ export class BuildsService {
     });
   }
 
-  private async buildEntry(
+  /**
+   * Backflushes the units in the order given (they share subassembly stock as the line does) and
+   * marks them built, with one posting of all their movements: a day of 160 units is one ledger
+   * write, not 160.
+   */
+  private async buildEntries(
     manager: EntityManager,
-    entry: SequenceEntryEntity,
+    entries: readonly SequenceEntryEntity[],
     context: BackflushContext,
     actor: AuthenticatedUser | null,
-  ): Promise<BuildResponse> {
-    if (entry.status === 'built') {
+  ): Promise<BuildResponse[]> {
+    const built = entries.find((entry) => entry.status === 'built');
+    if (built) {
       throw new ConflictError(
-        `Unit ${entry.serial} was already reported built${entry.builtAt ? ` at ${entry.builtAt}` : ''}; nothing was consumed again.`,
-        [{ serial: entry.serial, builtAt: entry.builtAt }],
+        `Unit ${built.serial} was already reported built${built.builtAt ? ` at ${built.builtAt}` : ''}; nothing was consumed again.`,
+        [{ serial: built.serial, builtAt: built.builtAt }],
         'already_built',
       );
     }
     const buildDate = this.today();
-    const consumed = backflush(entry.model, entry.qty, buildDate, context.bom, context.parts, context.subassemblyStock);
-    const posted = await postMovements(
-      manager,
-      [...consumed]
-        .sort(([a], [b]) => a.localeCompare(b))
-        .map(([partNumber, qty]) => ({
+    const movements: NewMovement[] = [];
+    for (const entry of entries) {
+      const consumed = backflush(
+        entry.model,
+        entry.qty,
+        buildDate,
+        context.bom,
+        context.parts,
+        context.subassemblyStock,
+      );
+      for (const [partNumber, qty] of [...consumed].sort(([a], [b]) => a.localeCompare(b))) {
+        movements.push({
           partNumber,
           qty: -qty,
           kind: 'backflush',
@@ -236,17 +247,35 @@ export class BuildsService {
           reason: `Built ${entry.serial} (${entry.model})`,
           refType: 'serial',
           ref: entry.serial,
-        })),
-    );
+        });
+      }
+    }
+    const posted = await postMovements(manager, movements);
     const builtAt = new Date().toISOString();
     // Conditional on the status read, so two requests racing for one unit consume it once.
-    const result = await manager.update(
-      SequenceEntryEntity,
-      { id: entry.id, status: In(['planned', 'started']) },
-      { status: 'built', builtAt },
-    );
-    if (result.affected === 0) throw new ConflictError(`Unit ${entry.serial} changed meanwhile; look again.`);
-    return { serial: entry.serial, status: 'built', builtAt, movements: summarise(posted) };
+    let affected = 0;
+    for (const chunk of chunks(entries.map((entry) => entry.id))) {
+      const result = await manager.update(
+        SequenceEntryEntity,
+        { id: In(chunk), status: In(['planned', 'started']) },
+        { status: 'built', builtAt },
+      );
+      affected += result.affected ?? 0;
+    }
+    if (affected !== entries.length)
+      throw new ConflictError('A unit changed while it was being reported built; look again.');
+    const bySerial = new Map<string, PostedMovement[]>();
+    for (const movement of posted) {
+      const list = bySerial.get(movement.ref!);
+      if (list) list.push(movement);
+      else bySerial.set(movement.ref!, [movement]);
+    }
+    return entries.map((entry) => ({
+      serial: entry.serial,
+      status: 'built',
+      builtAt,
+      movements: summarise(bySerial.get(entry.serial) ?? []),
+    }));
   }
 
   private async kitsOf(manager: EntityManager, entries: SequenceEntryEntity[]): Promise<Kit[]> {

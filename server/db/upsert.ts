@@ -29,7 +29,9 @@ export async function upsertBy<T extends ObjectLiteral>(
   const groups = new Map<string, T[]>();
   for (const row of rows) {
     const carried = updatable.map((column) => (column.getEntityValue(row) === undefined ? '0' : '1')).join('');
-    groups.set(carried, [...(groups.get(carried) ?? []), row]);
+    const group = groups.get(carried);
+    if (group) group.push(row);
+    else groups.set(carried, [row]);
   }
   for (const [carried, group] of groups) {
     const overwrite = updatable.filter((_, index) => carried[index] === '1').map((column) => column.databaseName);

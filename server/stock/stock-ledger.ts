@@ -1,11 +1,9 @@
-import { In, type EntityManager } from 'typeorm';
+import type { EntityManager } from 'typeorm';
 import { QTY_EPSILON, roundQty } from '../../shared/domain/quantity';
 import type { StockMovementKind } from '../../shared/schemas/stock';
 import { chunks } from '../db/upsert';
 import { ConflictError } from '../errors';
-import { PartEntity } from '../master-data/part.entity';
 import { bumpPlanningVersion } from '../settings/versions';
-import { StockMovementEntity } from './stock-movement.entity';
 
 /** A movement to post: signed quantity, what it is, who and why, and what it belongs to. */
 export interface NewMovement {
@@ -18,6 +16,35 @@ export interface NewMovement {
   ref?: string | null;
 }
 
+/** A movement as written, with the part's on-hand right after it. */
+export interface PostedMovement extends Required<NewMovement> {
+  at: string;
+  balanceAfter: number;
+}
+
+/** Rows per statement: 9 parameters a row stays far below SQLite's 32,766 and PostgreSQL's 65,535. */
+const ROWS_PER_INSERT = 1000;
+
+/*
+ * Plain SQL throughout: closing a day of a large plant posts tens of thousands of movements and
+ * moves thousands of parts, and an ORM's per-row bookkeeping would cost more than the database.
+ */
+
+async function readOnHand(
+  manager: EntityManager,
+  partNumbers: string[],
+): Promise<Map<string, { id: number; onHand: number }>> {
+  const found = new Map<string, { id: number; onHand: number }>();
+  for (const chunk of chunks(partNumbers)) {
+    const rows: { id: number; partNumber: string; onHand: number }[] = await manager.query(
+      `SELECT id, part_number AS "partNumber", on_hand AS "onHand" FROM "part" WHERE part_number IN (${chunk.map(() => '?').join(', ')})`,
+      chunk,
+    );
+    for (const row of rows) found.set(row.partNumber, { id: Number(row.id), onHand: Number(row.onHand) });
+  }
+  return found;
+}
+
 /**
  * The only way on-hand changes: each movement is written with the balance after it and the part's
  * on-hand moves by the same quantity, inside the caller's unit of work, so on-hand always equals the
@@ -27,45 +54,69 @@ export interface NewMovement {
 export async function postMovements(
   manager: EntityManager,
   movements: readonly NewMovement[],
-): Promise<StockMovementEntity[]> {
+): Promise<PostedMovement[]> {
   const wanted = movements.filter((movement) => movement.kind === 'count' || Math.abs(movement.qty) > QTY_EPSILON);
   if (wanted.length === 0) return [];
   const partNumbers = [...new Set(wanted.map((movement) => movement.partNumber))];
-  const parts = await manager.find(PartEntity, { where: { partNumber: In(partNumbers) } });
-  const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
-  const missing = partNumbers.filter((partNumber) => !partByNumber.has(partNumber));
+  const parts = await readOnHand(manager, partNumbers);
+  const missing = partNumbers.filter((partNumber) => !parts.has(partNumber));
   if (missing.length > 0)
     throw new ConflictError(`No part ${missing.join(', ')} in the master data; its stock cannot move.`);
 
   const at = new Date().toISOString();
-  const posted: StockMovementEntity[] = [];
-  const balance = new Map(parts.map((part) => [part.partNumber, part.onHand]));
-  for (const movement of wanted) {
-    const after = roundQty((balance.get(movement.partNumber) ?? 0) + movement.qty);
-    balance.set(movement.partNumber, after);
-    posted.push(
-      manager.create(StockMovementEntity, {
-        partNumber: movement.partNumber,
-        qty: roundQty(movement.qty),
-        kind: movement.kind,
+  const balance = new Map([...parts].map(([partNumber, part]) => [partNumber, part.onHand]));
+  const posted: PostedMovement[] = wanted.map((movement) => {
+    const balanceAfter = roundQty(balance.get(movement.partNumber)! + movement.qty);
+    balance.set(movement.partNumber, balanceAfter);
+    return {
+      partNumber: movement.partNumber,
+      qty: roundQty(movement.qty),
+      kind: movement.kind,
+      userEmail: movement.userEmail,
+      reason: movement.reason ?? null,
+      refType: movement.refType ?? null,
+      ref: movement.ref ?? null,
+      at,
+      balanceAfter,
+    };
+  });
+
+  for (const chunk of chunks(posted, ROWS_PER_INSERT)) {
+    await manager.query(
+      `INSERT INTO "stock_movement" ("part_number", "qty", "kind", "at", "user_email", "reason", "ref_type", "ref", "balance_after")
+       VALUES ${chunk.map(() => '(?, ?, ?, ?, ?, ?, ?, ?, ?)').join(', ')}`,
+      chunk.flatMap((row) => [
+        row.partNumber,
+        row.qty,
+        row.kind,
         at,
-        userEmail: movement.userEmail,
-        reason: movement.reason ?? null,
-        refType: movement.refType ?? null,
-        ref: movement.ref ?? null,
-        balanceAfter: after,
-      }),
+        row.userEmail,
+        row.reason,
+        row.refType,
+        row.ref,
+        row.balanceAfter,
+      ]),
     );
   }
-  for (const chunk of chunks(posted)) {
-    await manager.createQueryBuilder().insert().into(StockMovementEntity).values(chunk).updateEntity(false).execute();
+  const changed = [...parts].filter(([partNumber, part]) => balance.get(partNumber) !== part.onHand);
+  for (const chunk of chunks(changed, ROWS_PER_INSERT)) {
+    await manager.query(
+      `UPDATE "part" SET "on_hand" = CASE "id" ${chunk.map(() => 'WHEN ? THEN ?').join(' ')} END
+       WHERE "id" IN (${chunk.map(() => '?').join(', ')})`,
+      [
+        ...chunk.flatMap(([partNumber, part]) => [part.id, balance.get(partNumber)!]),
+        ...chunk.map(([, part]) => part.id),
+      ],
+    );
   }
-  for (const part of parts) {
-    const after = balance.get(part.partNumber)!;
-    const counted = wanted.some((movement) => movement.partNumber === part.partNumber && movement.kind === 'count');
-    if (after !== part.onHand || counted) {
-      await manager.update(PartEntity, { id: part.id }, { onHand: after, ...(counted && { lastCountedAt: at }) });
-    }
+  const counted = [
+    ...new Set(wanted.filter((movement) => movement.kind === 'count').map((movement) => movement.partNumber)),
+  ];
+  for (const chunk of chunks(counted)) {
+    await manager.query(
+      `UPDATE "part" SET "last_counted_at" = ? WHERE part_number IN (${chunk.map(() => '?').join(', ')})`,
+      [at, ...chunk],
+    );
   }
   await bumpPlanningVersion(manager);
   return posted;

@@ -18,7 +18,7 @@ import type { Part } from '../../shared/schemas/master-data';
 import { upsertParts } from '../master-data/master-data.writer';
 import { PartEntity } from '../master-data/part.entity';
 import { readSetting } from '../settings/settings';
-import { postMovements } from './stock-ledger';
+import { postMovements, type PostedMovement } from './stock-ledger';
 import { StockMovementEntity } from './stock-movement.entity';
 
 /** Days after which a part's stock is due a count; the plant may set its own. Common practice, no source. */
@@ -48,13 +48,17 @@ export function toStockMovement(entity: StockMovementEntity, balance: number): S
   };
 }
 
+function latestMovement(manager: EntityManager, partNumber: string): Promise<StockMovementEntity> {
+  return manager.findOneOrFail(StockMovementEntity, { where: { partNumber }, order: { id: 'DESC' } });
+}
+
 /** Counts posted as variances, one per part: the on-hand import and single counts alike. */
 export async function postCounts(
   manager: EntityManager,
   counts: readonly { partNumber: string; counted: number }[],
   actorEmail: string | null,
   reason: string,
-): Promise<StockMovementEntity[]> {
+): Promise<PostedMovement[]> {
   const parts = await manager.find(PartEntity, { select: { partNumber: true, onHand: true } });
   const onHand = new Map(parts.map((part) => [part.partNumber, part.onHand]));
   return postMovements(
@@ -184,12 +188,13 @@ export class StockService {
   count(request: StockCountRequest, actor: AuthenticatedUser): Promise<StockChange> {
     return this.db.write(async (manager) => {
       const part = await this.findPart(manager, request.partNumber);
-      const [movement] = await postCounts(
+      await postCounts(
         manager,
         [{ partNumber: part.partNumber, counted: request.counted }],
         actor.email,
         request.reason ?? 'Count',
       );
+      const movement = await latestMovement(manager, part.partNumber);
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'count',
@@ -209,7 +214,7 @@ export class StockService {
   scrap(request: StockScrapRequest, actor: AuthenticatedUser): Promise<StockChange> {
     return this.db.write(async (manager) => {
       const part = await this.findPart(manager, request.partNumber);
-      const [movement] = await postMovements(manager, [
+      await postMovements(manager, [
         {
           partNumber: part.partNumber,
           qty: -request.qty,
@@ -218,6 +223,7 @@ export class StockService {
           reason: request.reason,
         },
       ]);
+      const movement = await latestMovement(manager, part.partNumber);
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'scrap',

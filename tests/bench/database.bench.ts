@@ -3,16 +3,13 @@ import { performance } from 'node:perf_hooks';
 import { pathToFileURL } from 'node:url';
 import { createApp } from '../../server/app';
 import { sessionExpiry, signSessionToken } from '../../server/auth/tokens';
-import { writeCalendar } from '../../server/calendar/calendar.service';
 import { openDatabase, type Database } from '../../server/db/database';
-import { replaceBomLines, upsertSuppliers } from '../../server/master-data/master-data.writer';
-import { savePartsWithStock } from '../../server/stock/stock.service';
-import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { loadPlanInputs } from '../../server/planning/plan-inputs';
 import { openSession } from '../../server/users/sessions';
 import { UserEntity } from '../../server/users/user.entity';
 import { computePlan } from '../../shared/domain/plan';
 import { generatePlanFixture } from './plan-fixture';
+import { writeFixture } from './plan-fixture-db';
 
 /** A token of a live session for the user, without going through the password. */
 async function signInAs(db: Database, userId: number, secret: string): Promise<string> {
@@ -68,50 +65,7 @@ function p90(samples: number[]): number {
 export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   const fixture = generatePlanFixture();
   const db = await openDatabase(':memory:');
-  const suppliers = [
-    ...new Set(fixture.parts.map((part) => part.supplierCode).filter((code): code is string => !!code)),
-  ];
-  await db.write(async (manager) => {
-    await writeCalendar(manager, fixture.calendar);
-    await upsertSuppliers(
-      manager,
-      suppliers.map((code) => ({
-        code,
-        name: code,
-        email: `${code.toLowerCase()}@example.com`,
-        leadTimeDays: 5,
-        cycleDays: 1,
-        deliveriesPerCycle: 1,
-        deliveryDelay: 1,
-      })),
-    );
-    await savePartsWithStock(
-      manager,
-      fixture.parts.map((part) => ({
-        partNumber: part.partNumber,
-        description: part.partNumber,
-        uom: 'H87' as const,
-        source: part.source,
-        supplierCode: part.supplierCode ?? null,
-        leadTimeDays: part.leadTimeDays,
-        packQty: part.packQty,
-        onHand: part.onHand,
-        replenishment: null,
-        safetyStock: part.safetyStock,
-        pointOfUse: null,
-        hazardous: false,
-      })),
-    );
-    await replaceBomLines(
-      manager,
-      fixture.bom.map((line) => ({
-        ...line,
-        effectiveFrom: line.effectiveFrom ?? null,
-        effectiveTo: line.effectiveTo ?? null,
-      })),
-    );
-    await upsertSequenceEntries(manager, fixture.sequence);
-  });
+  await writeFixture(db, fixture);
 
   const sqlSamples: number[] = [];
   let sqlRows = 0;

@@ -1,3 +1,4 @@
+import { printCloseDayBench, runCloseDayBench } from './close-day.bench';
 import { printDatabaseBench, runDatabaseBench } from './database.bench';
 import { runPlanBench } from './plan.bench';
 
@@ -16,3 +17,5 @@ console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}
 console.log(`engine / floor                     ${(plan.medianMs / plan.floorMedianMs).toFixed(1)}×`);
 console.log('');
 printDatabaseBench(await runDatabaseBench());
+console.log('');
+printCloseDayBench(await runCloseDayBench());

@@ -16,6 +16,12 @@ import type {
 
 export interface PlanFixtureOptions {
   seed?: number;
+  /**
+   * Size of the plant against the benchmark plant (1): parts × scale; models, BOM lines per model
+   * and units a day × √scale. Scale 4 and 16 are 8,000 and 32,000 parts, 24 and 48 models, 300 and
+   * 600-line structures, 80 and 160 units a day.
+   */
+  scale?: number;
   partCount?: number;
   models?: number;
   workingDays?: number;
@@ -47,10 +53,14 @@ const pad = (value: number, width: number): string => String(value).padStart(wid
 /** Generates the benchmark plant: parts, BOM, sequence, open receipts, calendar and horizon. */
 export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput {
   const random = seededRandom(options.seed ?? 20260302);
-  const partCount = options.partCount ?? 2000;
-  const modelCount = options.models ?? 12;
+  const scale = options.scale ?? 1;
+  const root = Math.sqrt(scale);
+  const partCount = options.partCount ?? 2000 * scale;
+  const modelCount = options.models ?? Math.round(12 * root);
   const workingDays = options.workingDays ?? 60;
-  const unitsPerDay = options.unitsPerDay ?? 40;
+  const unitsPerDay = options.unitsPerDay ?? Math.round(40 * root);
+  const subassembliesPerModel = Math.round(SUBASSEMBLIES_PER_MODEL * root);
+  const directBoughtLines = Math.round(DIRECT_BOUGHT_LINES * root);
   const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)];
   const between = (low: number, high: number): number => low + Math.floor(random() * (high - low + 1));
 
@@ -68,7 +78,7 @@ export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput
     models.push(partNumber);
     parts.push({ partNumber, source: 'end_item', leadTimeDays: 0, packQty: 1, onHand: 0, safetyStock: 0 });
   }
-  const makeCount = modelCount * SUBASSEMBLIES_PER_MODEL * 2;
+  const makeCount = modelCount * subassembliesPerModel * 2;
   const boughtCount = partCount - modelCount - makeCount;
   const bought: string[] = [];
   for (let b = 1; b <= boughtCount; b += 1) {
@@ -112,9 +122,9 @@ export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput
 
   for (let m = 0; m < modelCount; m += 1) {
     const model = models[m];
-    for (let s = 1; s <= SUBASSEMBLIES_PER_MODEL; s += 1) {
-      const subassembly = `SUB-${pad(m + 1, 2)}-${s}`;
-      const subSubassembly = `SSA-${pad(m + 1, 2)}-${s}`;
+    for (let s = 1; s <= subassembliesPerModel; s += 1) {
+      const subassembly = `SUB-${pad(m + 1, 2)}-${pad(s, 2)}`;
+      const subSubassembly = `SSA-${pad(m + 1, 2)}-${pad(s, 2)}`;
       parts.push({
         partNumber: subassembly,
         source: 'make',
@@ -136,13 +146,13 @@ export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput
       for (let k = 0; k < BOUGHT_LINES_PER_SUBASSEMBLY; k += 1) addLine(subassembly, boughtComponent());
       for (let k = 0; k < BOUGHT_LINES_PER_SUBSUBASSEMBLY; k += 1) addLine(subSubassembly, boughtComponent());
     }
-    for (let k = 0; k < DIRECT_BOUGHT_LINES; k += 1) addLine(model, boughtComponent());
+    for (let k = 0; k < directBoughtLines; k += 1) addLine(model, boughtComponent());
   }
 
-  // A level mix with some noise; the week before `from` is already built and must be ignored.
+  // A level mix with some noise, from the first day of the horizon (units before it are built).
   const sequence: SequenceSlot[] = [];
   let serial = 1;
-  let day = addCalendarDays(from, -7);
+  let day = from;
   while (day <= to) {
     if (isWorkingDay(day, calendar)) {
       for (let position = 1; position <= unitsPerDay; position += 1) {
