@@ -174,6 +174,7 @@ const STAFF: DemoUser[] = [
   { email: 'planner@example.com', name: 'Noor Castellan', role: 'planner', supplierCode: null },
   { email: 'buyer@example.com', name: 'Theo Marwick', role: 'buyer', supplierCode: null },
   { email: 'receiving@example.com', name: 'Keisha Doran', role: 'receiving', supplierCode: null },
+  { email: 'line@example.com', name: 'Ravi Okonkwo', role: 'line', supplierCode: null },
   { email: 'viewer@example.com', name: 'Felix Arnwood', role: 'viewer', supplierCode: null },
 ];
 

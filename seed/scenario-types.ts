@@ -3,7 +3,7 @@ import type { IsoDate, PartSource, PlantCalendar, Replenishment } from '../share
 /** UN/ECE Recommendation 20 unit codes used by the demo: piece, kilogram, metre, litre. */
 export type DemoUom = 'H87' | 'KGM' | 'MTR' | 'LTR';
 
-export type DemoRole = 'admin' | 'planner' | 'buyer' | 'receiving' | 'viewer' | 'supplier';
+export type DemoRole = 'admin' | 'planner' | 'buyer' | 'receiving' | 'line' | 'viewer' | 'supplier';
 
 export interface DemoSupplier {
   code: string;
@@ -61,5 +61,7 @@ export interface DemoScenario {
   parts: DemoPart[];
   bom: DemoBomLine[];
   sequence: DemoSequenceSlot[];
+  /** Units of the working days before the sequence starts, already built. */
+  history: DemoSequenceSlot[];
   users: DemoUser[];
 }

@@ -11,6 +11,8 @@ export type * from './scenario-types';
 
 /** Working days of build sequence the demo holds. */
 export const SEQUENCE_DAYS = 30;
+/** Working days before the sequence whose units are already built, so the stock ledger has history. */
+export const HISTORY_DAYS = 15;
 
 /** The working day (counted from the first, which is 1) that the demo turns into a holiday. */
 const HOLIDAY_WORKING_DAY = 12;
@@ -131,8 +133,13 @@ export function buildDemoScenario(seedDay: IsoDate): DemoScenario {
   const { calendar, days } = demoCalendar(seedDay);
   const bom = demoBom(days[ENGINEERING_CHANGE.workingDaysFromStart]);
   const sequence = buildSequence(days, quotasForDay);
+  // The history continues the same level mix backwards, so past days look like the days ahead.
+  const historyDays = Array.from({ length: HISTORY_DAYS }, (_, index) =>
+    addWorkingDays(days[0], index - HISTORY_DAYS, calendar),
+  );
+  const history = buildSequence(historyDays, (dayIndex) => quotasForDay(dayIndex + SEQUENCE_DAYS));
   const suppliers = demoSuppliers();
   const supplierLeadTimes = new Map(suppliers.map((supplier) => [supplier.code, supplier.leadTimeDays]));
   const parts = demoParts(dailyGrossDemand(bom, sequence, days), supplierLeadTimes);
-  return { calendar, suppliers, parts, bom, sequence, users: demoUsers() };
+  return { calendar, suppliers, parts, bom, sequence, history, users: demoUsers() };
 }

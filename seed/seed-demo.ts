@@ -4,17 +4,72 @@ import { hashPassword } from '../server/users/passwords';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
-import { replaceBomLines, upsertSuppliers } from '../server/master-data/master-data.writer';
-import { savePartsWithStock } from '../server/stock/stock.service';
+import { replaceBomLines, upsertParts, upsertSuppliers } from '../server/master-data/master-data.writer';
+import { postMovements, type NewMovement } from '../server/stock/stock-ledger';
 import { upsertSequenceEntries } from '../server/sequence/sequence.writer';
 import { writeSetting } from '../server/settings/settings';
 import { UserEntity } from '../server/users/user.entity';
-import { buildDemoScenario } from './scenario';
+import { SequenceEntryEntity } from '../server/sequence/sequence-entry.entity';
+import { backflush, bomByParent } from '../shared/domain/backflush';
+import { roundQty } from '../shared/domain/quantity';
+import type { EntityManager } from 'typeorm';
+import { buildDemoScenario, type DemoScenario } from './scenario';
 
 /** Every demo account shares this password; it exists only in the demo database. */
 export const DEMO_PASSWORD = 'cardloop-demo';
 /** Setting holding the e-mail addresses of the accounts the demo seed created. */
 export const DEMO_ACCOUNTS = 'demo.accounts';
+
+/** An instant on a plant day: `minutes` after local midnight. */
+function instantOn(date: string, minutes: number): string {
+  const midnight = new Date(`${date}T00:00:00`);
+  return new Date(midnight.getTime() + minutes * 60_000).toISOString();
+}
+
+/**
+ * The weeks before the sequence: every unit was built and backflushed, one every 18 minutes from
+ * 07:00. Stock opened on the first of those days with what the plant holds now plus what those
+ * units consumed, so the ledger has history and on-hand is exactly what its movements say. Made
+ * subassemblies were made for those units just in time: their stock is the opening one.
+ */
+async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario): Promise<void> {
+  await upsertSequenceEntries(manager, scenario.history);
+  const bom = bomByParent(scenario.bom);
+  const sources = new Map(scenario.parts.map((part) => [part.partNumber, { source: part.source }]));
+  const consumedInTotal = new Map<string, number>();
+  const unitMovements: NewMovement[] = [];
+  const builtAt = new Map<string, string>();
+  for (const unit of scenario.history) {
+    const at = instantOn(unit.date, 7 * 60 + unit.sequence * 18);
+    builtAt.set(unit.serial, at);
+    for (const [partNumber, qty] of backflush(unit.model, unit.qty, unit.date, bom, sources, new Map())) {
+      consumedInTotal.set(partNumber, roundQty((consumedInTotal.get(partNumber) ?? 0) + qty));
+      unitMovements.push({
+        partNumber,
+        qty: -qty,
+        kind: 'backflush',
+        userEmail: 'line@example.com',
+        reason: `Built ${unit.serial} (${unit.model})`,
+        refType: 'serial',
+        ref: unit.serial,
+        at,
+      });
+    }
+  }
+  const opened = instantOn(scenario.history[0]?.date ?? scenario.sequence[0].date, 6 * 60);
+  const opening: NewMovement[] = scenario.parts.map((part) => ({
+    partNumber: part.partNumber,
+    qty: roundQty(part.onHand + (consumedInTotal.get(part.partNumber) ?? 0)),
+    kind: 'opening',
+    userEmail: null,
+    reason: 'On-hand when the plant started with Cardloop',
+    at: opened,
+  }));
+  await postMovements(manager, [...opening, ...unitMovements]);
+  for (const [serial, at] of builtAt) {
+    await manager.update(SequenceEntryEntity, { serial }, { status: 'built', builtAt: at });
+  }
+}
 
 /** Writes the invented demo plant into an empty database in one transaction. */
 export async function seedDemoScenario(db: Database, seedDay: string): Promise<void> {
@@ -23,9 +78,10 @@ export async function seedDemoScenario(db: Database, seedDay: string): Promise<v
   await db.write(async (manager) => {
     await writeCalendar(manager, scenario.calendar);
     await upsertSuppliers(manager, scenario.suppliers);
-    await savePartsWithStock(manager, scenario.parts);
+    await upsertParts(manager, scenario.parts);
     await replaceBomLines(manager, scenario.bom);
     await upsertSequenceEntries(manager, scenario.sequence);
+    await seedBuiltHistory(manager, scenario);
     await syncLoops(manager);
     // The demo line can take 26 units a day against a plan of about 24, so a planner can move units.
     await writeSequenceSettings(manager, { frozenWindowDays: 3, dailyCapacity: 26 });
@@ -44,7 +100,12 @@ export async function seedDemoScenario(db: Database, seedDay: string): Promise<v
       action: 'seed',
       entity: 'scenario',
       entityKey: seedDay,
-      changes: { suppliers: scenario.suppliers.length, parts: scenario.parts.length, units: scenario.sequence.length },
+      changes: {
+        suppliers: scenario.suppliers.length,
+        parts: scenario.parts.length,
+        units: scenario.sequence.length,
+        built: scenario.history.length,
+      },
     });
   });
 }

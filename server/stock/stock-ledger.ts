@@ -14,6 +14,8 @@ export interface NewMovement {
   reason?: string | null;
   refType?: string | null;
   ref?: string | null;
+  /** When it happened, when not now (the demo's history). */
+  at?: string;
 }
 
 /** A movement as written, with the part's on-hand right after it. */
@@ -76,7 +78,7 @@ export async function postMovements(
       reason: movement.reason ?? null,
       refType: movement.refType ?? null,
       ref: movement.ref ?? null,
-      at,
+      at: movement.at ?? at,
       balanceAfter,
     };
   });
@@ -89,7 +91,7 @@ export async function postMovements(
         row.partNumber,
         row.qty,
         row.kind,
-        at,
+        row.at,
         row.userEmail,
         row.reason,
         row.refType,
