@@ -45,7 +45,8 @@ function defaultAttachmentsDir(db: Database): string {
 export function createServices(db: Database, options: ServiceOptions) {
   const appUrl = (options.appUrl ?? 'http://localhost:3000').replace(/\/+$/, '');
   const planning = new PlanningService(db);
-  const lineRisk = new LineRiskService(db);
+  const loops = new LoopsService(db, planning);
+  const lineRisk = new LineRiskService(db, loops);
   return {
     db,
     appUrl,
@@ -62,7 +63,7 @@ export function createServices(db: Database, options: ServiceOptions) {
     sequence: new SequenceService(db),
     planning,
     forecastMail: new ForecastMailService(db, planning),
-    loops: new LoopsService(db, planning),
+    loops,
     lineRisk,
     releases: new ReleasesService(db, planning, { appUrl }),
     confirm: new ConfirmService(db),

@@ -14,7 +14,7 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
     const units = shortage.slotsAtRisk
       .slice(0, 10)
       .map((slot) => `    ${slot.date} position ${slot.sequence}: ${slot.serial} (${slot.model})`);
-    const more = shortage.slotsAtRisk.length > 10 ? [`    … and ${shortage.slotsAtRisk.length - 10} more units`] : [];
+    const more = shortage.slotsAtRiskCount > 10 ? [`    … and ${shortage.slotsAtRiskCount - 10} more units`] : [];
     const resequence = shortage.rescue.resequence
       ? [
           `  Or build ${shortage.rescue.resequence.candidate.serial} (${shortage.rescue.resequence.candidate.model}) in the slot of ${shortage.rescue.resequence.slot.serial}: all its parts are present.`,
@@ -22,10 +22,10 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
       : [];
     return [
       `${shortage.partNumber} ${shortage.description}${shortage.hazardous ? ' [hazardous goods]' : ''}`,
-      `  Short from ${shortage.firstShortDate} by ${shortage.shortQty} ${shortage.uom}; ${shortage.slotsAtRisk.length} units cannot be built:`,
+      `  Short from ${shortage.firstShortDate} by ${shortage.shortQty} ${shortage.uom}; ${shortage.slotsAtRiskCount} units cannot be built:`,
       ...units,
       ...more,
-      `  Expedite ${shortage.rescue.expedite.qty} ${shortage.uom} from ${shortage.supplierName ?? shortage.supplierCode ?? 'the supplier'} by ${shortage.rescue.expedite.needBy}.`,
+      ...actionLines(shortage),
       ...resequence,
     ].join('\n');
   });
@@ -38,6 +38,19 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
   ].join('\n');
 }
 
+function actionLines(shortage: ShortageDto): string[] {
+  const supplier = shortage.supplierName ?? shortage.supplierCode ?? 'the supplier';
+  if (shortage.action === 'loop' && shortage.loop) {
+    return [
+      `  The kanban loop cannot keep up: ${shortage.loop.activeCards} cards in circulation, ${shortage.loop.recommendedCards} needed. Add cards on the Loops page.`,
+    ];
+  }
+  if (shortage.action === 'count') return ['  Its on-hand is negative or due a count: count it before expediting.'];
+  return [
+    `  Expedite from ${supplier}: ${shortage.needBy.map((entry) => `${entry.qty} ${shortage.uom} by ${entry.date}`).join(', ')}.`,
+  ];
+}
+
 /**
  * E-mails the planners once when a part's shortage enters the frozen window (again only if its
  * first short date moves); a part that leaves the window may alert again later. Returns the
@@ -48,7 +61,10 @@ export async function alertFrozenWindowShortages(
   lineRisk: LineRiskService,
   appUrl: string,
 ): Promise<string[]> {
-  const inWindow = (await lineRisk.shortages()).filter((shortage) => shortage.inFrozenWindow);
+  // A shortage the normal release covers is no alarm, whatever its date.
+  const inWindow = (await lineRisk.shortages()).filter(
+    (shortage) => shortage.inFrozenWindow && shortage.action !== 'release',
+  );
   return db.write(async (manager) => {
     const alerted = await readSetting<Record<string, string>>(manager, ALERTED, {});
     const fresh = inWindow.filter((shortage) => alerted[shortage.partNumber] !== shortage.firstShortDate);

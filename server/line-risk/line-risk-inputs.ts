@@ -1,6 +1,10 @@
 import type { EntityManager } from 'typeorm';
+import type { LineRiskPart, LoopSupply } from '../../shared/domain/line-risk';
 import type { ScheduledReceipt } from '../../shared/domain/types';
-import { loadPlanInputs, type PlanInputs } from '../planning/plan-inputs';
+import type { KanbanLoop } from '../../shared/schemas/loops';
+import { EXPECTED_ARRIVAL, loadPlanInputs, type PlanInputs } from '../planning/plan-inputs';
+import { readSetting } from '../settings/settings';
+import { COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS } from '../stock/stock.service';
 
 /**
  * Release states whose open lines the line risk counts on: the supplier has confirmed them (or
@@ -14,39 +18,71 @@ export interface PartDetails {
   supplierName: string | null;
 }
 
-export interface LineRiskInputs extends PlanInputs {
+export interface LineRiskInputs extends Omit<PlanInputs, 'parts'> {
+  parts: (LineRiskPart & { description: string; uom: string })[];
   firmReceipts: ScheduledReceipt[];
+  loops: LoopSupply[];
   details: Map<string, PartDetails>;
 }
 
-/*
- * A confirmed line is counted at the later of its confirmed ship date and its need date: goods
- * never arrive before they ship, and nothing is counted on before the day it was asked for.
- * Its quantity is the confirmed one (the requested one when none was given) less what came in.
- */
-const FIRM_LINES_SQL = `SELECT l.part_number AS partNumber,
-  CASE WHEN l.ship_date IS NOT NULL AND l.ship_date > l.need_date THEN l.ship_date ELSE l.need_date END AS date,
+// The same expected arrival as the plan's; only the firm (confirmed or shipped) lines count here.
+const FIRM_LINES_SQL = `SELECT l.part_number AS partNumber, ${EXPECTED_ARRIVAL} AS date,
   COALESCE(l.confirmed_qty, l.qty) - l.received_qty AS qty
   FROM release_line l JOIN release r ON r.id = l.release_id
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-const DETAILS_SQL = `SELECT p.part_number AS partNumber, p.hazardous AS hazardous, s.name AS supplierName
+const DETAILS_SQL = `SELECT p.part_number AS partNumber, p.hazardous AS hazardous, s.name AS supplierName,
+  p.last_counted_at AS lastCountedAt,
+  (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number) AS firstMovementAt
   FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code`;
 
 interface DetailRow {
   partNumber: string;
   hazardous: boolean | number;
   supplierName: string | null;
+  lastCountedAt: string | null;
+  firstMovementAt: string | null;
 }
 
-/** Reads the plan inputs, the firm receipts and the part details; the caller runs it in one snapshot. */
-export async function loadLineRiskInputs(manager: EntityManager): Promise<LineRiskInputs> {
+/**
+ * Reads the plan inputs, the firm receipts, the kanban loops as supply and the part details; the
+ * caller runs it in one snapshot. A part is due a count when its on-hand is negative or its last
+ * count (or, never counted, the opening of its ledger) is older than the plant's count interval.
+ */
+export async function loadLineRiskInputs(
+  manager: EntityManager,
+  loops: readonly KanbanLoop[],
+  now = new Date(),
+): Promise<LineRiskInputs> {
   const inputs = await loadPlanInputs(manager);
   const firmReceipts: ScheduledReceipt[] = await manager.query(FIRM_LINES_SQL);
   const rows: DetailRow[] = await manager.query(DETAILS_SQL);
+  const interval = await readSetting<number>(manager, COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS);
+  const dueBefore = new Date(now.getTime() - interval * 86_400_000).toISOString();
   const details = new Map(
     rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]),
   );
-  return { ...inputs, firmReceipts, details };
+  const lastCounted = new Map(rows.map((row) => [row.partNumber, row.lastCountedAt ?? row.firstMovementAt]));
+  const parts = inputs.parts.map((part) => {
+    const counted = lastCounted.get(part.partNumber);
+    return {
+      ...part,
+      replenishment: part.replenishment as LineRiskPart['replenishment'],
+      countDue:
+        part.source !== 'end_item' &&
+        (part.onHand < 0 || (counted !== null && counted !== undefined && counted < dueBefore)),
+    };
+  });
+  const supplies: LoopSupply[] = loops
+    .filter((loop) => loop.partIsKanban)
+    .map((loop) => ({
+      partNumber: loop.partNumber,
+      activeCards: loop.activeCards,
+      recommendedCards: loop.recommendedCards,
+      containerQty: loop.containerQty,
+      replenishmentDays: loop.replenishmentDays,
+      emptyCards: loop.cardStates.empty,
+    }));
+  return { ...inputs, parts, firmReceipts, loops: supplies, details };
 }

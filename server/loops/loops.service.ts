@@ -20,6 +20,7 @@ import type {
   UpdateKanbanLoopRequest,
 } from '../../shared/schemas/loops';
 import { recordAudit } from '../audit/audit.service';
+import { bumpPlanningVersion } from '../settings/versions';
 import { ConflictError, InvalidInputError, NotFoundError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
@@ -192,6 +193,7 @@ export class LoopsService {
         stillToPull = excess - toRetire.length;
       }
       if (added.length > 0 || retired.length > 0) {
+        await bumpPlanningVersion(manager);
         await recordAudit(manager, {
           actorEmail: actor.email,
           action: 'accept',
@@ -248,6 +250,8 @@ export class LoopsService {
       const event = request.event ?? defaultEvent(card);
       const loop = await this.findLoop(manager, card.loopId);
       const moved = await applyCardEvent(manager, card, event, actor.email);
+      // Cards in circulation are the loop's supply, which the line risk counts.
+      await bumpPlanningVersion(manager);
       return { card: toKanbanCard(moved.card, loop.partNumber), scan: toCardScan(moved.scan) };
     });
   }

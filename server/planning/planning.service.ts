@@ -3,7 +3,7 @@ import type { PlanResult } from '../../shared/domain/types';
 import type { DemandResponse, PlanResponse } from '../../shared/schemas/horizon';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { SupplierEntity } from '../master-data/supplier.entity';
-import { readPlanningVersion } from '../settings/versions';
+import { PerPlanningVersion } from './per-version';
 import { loadPlanInputs, type PlanInputs } from './plan-inputs';
 import { resolveHorizon } from './plan-dates';
 import type { Database } from '../db/database';
@@ -20,15 +20,16 @@ const MAX_CACHED_HORIZONS = 8;
  * run again only after something that feeds the plan has changed.
  */
 export class PlanningService {
-  private version = -1;
-  private inputs: Promise<PlanInputs> | null = null;
   private readonly plans = new Map<string, CachedPlan>();
+  private readonly inputs: PerPlanningVersion<PlanInputs>;
 
-  constructor(private readonly db: Database) {}
+  constructor(private readonly db: Database) {
+    this.inputs = new PerPlanningVersion(db, loadPlanInputs, () => this.plans.clear());
+  }
 
   /** The plan over a horizon (defaults: next working day, 20 working days). */
   async plan(from?: string, to?: string): Promise<CachedPlan & { from: string; to: string }> {
-    const inputs = await this.currentInputs();
+    const inputs = await this.inputs.get();
     const horizon = resolveHorizon(inputs.calendar, from, to);
     const key = `${horizon.from}|${horizon.to}`;
     let cached = this.plans.get(key);
@@ -72,31 +73,6 @@ export class PlanningService {
       throw new NotFoundError(`No supplier ${options.supplierCode}.`);
     }
     return grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode });
-  }
-
-  /**
-   * The inputs at the current planning version, read once per version and shared. Inside a write
-   * unit they may hold uncommitted changes, so they are read for that unit alone, never cached.
-   */
-  private async currentInputs(): Promise<PlanInputs> {
-    if (this.db.inWriteUnit) return loadPlanInputs(this.db.manager);
-    const version = await readPlanningVersion(this.db.manager);
-    if (version !== this.version || !this.inputs) {
-      this.version = version;
-      this.plans.clear();
-      const loading = this.db.read(async (manager) => ({
-        version: await readPlanningVersion(manager),
-        inputs: await loadPlanInputs(manager),
-      }));
-      this.inputs = loading.then((loaded) => {
-        this.version = loaded.version;
-        return loaded.inputs;
-      });
-      this.inputs.catch(() => {
-        this.inputs = null;
-      });
-    }
-    return this.inputs;
   }
 
   private run(inputs: PlanInputs, from: string, to: string): PlanResult {

@@ -1,44 +1,36 @@
-import { lowLevelCodes } from './bom';
-import { WorkingCalendar } from './calendar';
-import { fromDayNumber, isIsoDate, toDayNumber } from './date';
-import { PlanInputError } from './plan-model';
+import { BOUGHT, MADE, buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
+import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
 import type { IsoDate, PlanningBomLine, PlanningPart, PlantCalendar, ScheduledReceipt, SequenceSlot } from './types';
 
 /*
- * Line risk: which units of the build sequence cannot be built for want of a bought part, counting
- * only what is on hand and what suppliers have firmly confirmed. Nothing new is ordered: stock is
- * promised to units first come, first served in build order, the way available-to-promise is
- * consumed by orders in sequence (APICS Dictionary, "available-to-promise"; Vollmann, Berry,
+ * Line risk: which units of the build sequence cannot be built for want of a part, and what to do
+ * about each short part. It reads the same plan model as the planning engine (part index, working-
+ * day buckets, BOM lines with effectivity), with the same rules:
+ * - A unit in the sequence is a build order: it needs its components whatever finished stock of its
+ *   model exists. Units already built are not passed in; a unit dated before `from` is still to be
+ *   built and needed now (the first bucket).
+ * - A unit needs its BOM quantities on its build date, without the scrap allowance (that is for
+ *   ordering). A made subassembly is taken from its own stock first; what is not in stock is made
+ *   for the unit, starting the subassembly's lead time in working days ahead of the day it is
+ *   needed, and its components are needed at that start, through the BOM lines effective then.
+ * - Supply is on-hand (at the start of the first bucket) plus firm receipts on their arrival day.
+ *   A kanban part is supplied by its loop: the containers on their way, and one container coming
+ *   back a replenishment time after each container emptied — so a right-sized loop is no shortage.
+ *
+ * Stock is promised to units first come, first served in build order, the way available-to-promise
+ * is consumed by orders in sequence (APICS Dictionary, "available-to-promise"; Vollmann, Berry,
  * Whybark and Jacobs, Manufacturing Planning and Control for Supply Chain Management, chapter on
- * master production scheduling — from memory).
+ * master production scheduling — from memory): a unit is built only if every part it needs is
+ * free for it, and then takes all of them; otherwise it is at risk and takes nothing, leaving its
+ * parts to later units. A countable part (pieces, sets, pairs) is never short by a fraction
+ * (common practice, no source).
  *
- * Conventions (one bucket = one working day of the horizon):
- * - On-hand counts at the start of `from`; slots dated before `from` are taken as built, a slot on
- *   a non-working day is built on the next working day, slots after `to` are out of view.
- * - A firm receipt arrives at the start of its date (a non-working date: the next working day; a
- *   date before `from`: late, counted on the first day; after `to`: out of view).
- * - Slots are walked by date, then position. A slot (one serial) is built whole or not at all; its
- *   requirement is its BOM exploded at its build date with effectivity and scrap
- *   (qtyPer × (1 + scrap % / 100)).
- * - A made (or end-item) component is taken from its own on-hand first; what is not on hand is
- *   made in-house in time, so the explosion goes on to its components, needed on the parent's day
- *   minus the made part's lead time in working days (never before the first day), with the lines
- *   effective on that day. Made parts are never reported short: the line risk is about bought
- *   parts, the ones the plant cannot make more of.
- * - "Free" for a need on day d is the least uncommitted quantity on any day from d on, so a unit
- *   never takes stock already promised to an earlier unit for a later day.
- *
- * Two views come out of one walk:
- * - The build view decides which units are at risk: a unit whose every bought part is free is
- *   built and takes its parts; otherwise it is at risk, takes nothing (its parts stay for later
- *   units) and records what it lacks now.
- * - The queue view gives each bought part its own figures, independent of the other parts: its
- *   projected on-hand when every unit of the horizon draws on it (first day below zero = first
- *   short date, deepest shortfall = quantity to expedite), and which units would still lack it if
- *   every unit ahead of them were served first. Without it, a part that runs out a day after
- *   another part on the same model would stay hidden until the first one is rescued.
- * A part is reported when at least one unit at risk lacks it in either view.
+ * Each short part then gets its own projection (every unit draws on it, whatever its other parts
+ * do): when it first runs short, how much must arrive by each date to keep every unit building,
+ * and what to do — expedite (short inside the supplier's lead time), release (later: the normal
+ * release covers it if sent by a date), loop (the kanban loop cannot keep up), count (on-hand is
+ * negative or due a count, so the shortage may not be real).
  */
 
 /** Horizons longer than this many calendar days are refused: the line risk looks weeks ahead. */
@@ -47,16 +39,46 @@ export const MAX_LINE_RISK_CALENDAR_DAYS = 186;
 /** Frozen window of the build sequence when the plant has not set one, in working days. */
 export const DEFAULT_FROZEN_WINDOW_DAYS = 3;
 
+/** UN/ECE Recommendation 20 codes counted in whole units: piece, set, pair. */
+export const COUNTABLE_UNITS = new Set(['H87', 'SET', 'PR']);
+
+export type ShortageAction = 'expedite' | 'loop' | 'count' | 'release';
+
+/** Display and alarm order: what only an immediate action saves first. */
+export const SHORTAGE_ACTIONS: readonly ShortageAction[] = ['expedite', 'loop', 'count', 'release'];
+
+export interface LineRiskPart extends PlanningPart {
+  /** UN/ECE Rec. 20 unit code; countable units are never short by a fraction. */
+  uom?: string;
+  replenishment?: 'kanban' | 'scheduled' | null;
+  /** On-hand is negative or the part was not counted within the plant's interval. */
+  countDue?: boolean;
+}
+
+/** A kanban loop as supply: its containers, the time one takes to come back, and those already on their way. */
+export interface LoopSupply {
+  partNumber: string;
+  activeCards: number;
+  recommendedCards: number;
+  containerQty: number;
+  /** Working days from a container emptied to it coming back full. */
+  replenishmentDays: number;
+  /** Containers emptied and not yet ordered: they come back a replenishment time after the next release. */
+  emptyCards: number;
+}
+
 export interface LineRiskInput {
-  parts: PlanningPart[];
+  parts: LineRiskPart[];
   bom: PlanningBomLine[];
+  /** Units not yet built. */
   sequence: SequenceSlot[];
-  /** Open quantities suppliers have confirmed, dated when they are expected in. */
+  /** Open quantities suppliers have firmly confirmed, dated on their expected arrival. */
   firmReceipts: ScheduledReceipt[];
+  loops?: LoopSupply[];
   calendar: PlantCalendar;
   from: IsoDate;
   to: IsoDate;
-  /** Day the days until impact count from; defaults to `from`. */
+  /** Day the days until impact and the lead-time test count from; defaults to `from`. */
   today?: IsoDate;
   /** Working days of frozen sequence, from the first working day on or after `today`. */
   frozenWindowDays?: number;
@@ -72,10 +94,14 @@ export interface UnitRef {
 
 export interface UnitLack {
   partNumber: string;
-  /** Quantity missing for this unit. */
+  /** Quantity missing for this unit (whole for countable parts). */
   qty: number;
   /** True: missing with what is free now (it stops the unit). False: missing once the units ahead are served. */
   now: boolean;
+  /** The made subassembly that needs the part, when the unit lacks it through one. */
+  via: string | null;
+  /** The day the part is needed: the build date, or the subassembly's start. */
+  neededOn: IsoDate;
 }
 
 /** A later unit that could take the at-risk unit's slot: every part it needs is free at that moment. */
@@ -93,15 +119,30 @@ export interface UnitAtRisk extends UnitRef {
 export interface SlotAtRisk extends UnitRef {
   /** Quantity of this part the unit lacks. */
   lackQty: number;
+  via: string | null;
+}
+
+export interface NeedBy {
+  date: IsoDate;
+  /** What must arrive by `date`, beyond what arrived for earlier dates. */
+  qty: number;
 }
 
 export interface PartShortage {
   partNumber: string;
   supplierCode: string | null;
-  /** First day the projected on-hand (on-hand + firm receipts − every unit's need) is below zero. */
+  action: ShortageAction;
+  /** First day the part's projection (on-hand + supply − every unit's need) is below zero. */
   firstShortDate: IsoDate;
-  /** Deepest shortfall of that projection: what must arrive by firstShortDate to build the horizon. */
+  /** All that must arrive over the horizon to build every unit: the sum of needBy. */
   shortQty: number;
+  /** How much must arrive by each date to keep every unit building. */
+  needBy: NeedBy[];
+  /** For `release`: the last day the normal release can go out and still arrive in time. */
+  releaseBy: IsoDate | null;
+  /** The part's lead time in working days (the supplier's, for a bought part). */
+  leadTimeDays: number;
+  /** Units that lack the part (in build order); the first of them lack it now. */
   slotsAtRisk: SlotAtRisk[];
   onHand: number;
   /** Firm receipts counted inside the horizon. */
@@ -109,11 +150,15 @@ export interface PartShortage {
   /** Working days after `today` up to firstShortDate (0: today). */
   daysUntilImpact: number;
   inFrozenWindow: boolean;
+  /** For `loop`: the loop's cards in circulation against those it needs. */
+  loop: { activeCards: number; recommendedCards: number } | null;
   rescue: {
     expedite: { qty: number; needBy: IsoDate };
     /** For the first unit at risk in slotsAtRisk. */
     resequence: ResequenceOption | null;
   };
+  /** Every unit's need of the part per working day of the horizon (what the plan would call gross, without scrap). */
+  requiredByDay: number[];
 }
 
 export interface LineRiskResult {
@@ -129,33 +174,25 @@ export interface LineRiskResult {
   unitsBuilt: number;
   /** In build order. */
   unitsAtRisk: UnitAtRisk[];
-  /** Sorted by firstShortDate, then partNumber. */
+  /** By action (expedite, loop, count, release), then first short date, then part number. */
   shortages: PartShortage[];
 }
 
-interface Line {
-  component: number;
-  factor: number;
-  effectiveFrom: IsoDate | null;
-  effectiveTo: IsoDate | null;
-}
-
-/** A quantity of a part needed on a bucket (index into the horizon's working days). */
+/** A quantity of a part needed on a bucket, and through which made part. */
 interface Need {
   part: number;
   bucket: number;
   qty: number;
+  via: number;
 }
 
 interface Evaluation {
-  /** What the unit would take, made-part stock included; committed only when it is built. */
+  /** Made parts taken from their stock; committed only when the unit is built. */
   takes: Need[];
-  /** The same takes by part, for the free quantity seen by the unit's next lines. */
-  held: Map<number, Need[]>;
-  /** Needs of bought parts alone, for the queue view. */
-  boughtNeeds: Need[];
-  /** Bought part → quantity lacking now. */
-  lacks: Map<number, number>;
+  /** Needs of bought parts. */
+  needs: Need[];
+  /** Bought part → quantity lacking now (first need that lacks gives `via` and bucket). */
+  lacks: Map<number, Need>;
 }
 
 interface OrderedSlot {
@@ -165,26 +202,17 @@ interface OrderedSlot {
 }
 
 const epsilon = QTY_EPSILON;
-
-function unitRef(slot: SequenceSlot): UnitRef {
-  return { date: slot.date, sequence: slot.sequence, serial: slot.serial, model: slot.model };
-}
+const NO_VIA = -1;
 
 function compareText(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
-function requireIsoDate(date: unknown, where: string): number {
-  if (!isIsoDate(date))
-    throw new PlanInputError(`${where}: not a date in the form YYYY-MM-DD: ${JSON.stringify(date)}`);
-  return toDayNumber(date);
-}
-
 /**
- * Uncommitted quantity per part and working day, as a flat table: row p, column t holds on-hand
- * plus receipts up to day t less what was committed for days up to t. A commitment on day b
- * lowers every column from b on; the free quantity for a need on day b is the row's least value
- * from b on (cumulative available-to-promise with look-ahead), kept ready in `least`.
+ * Uncommitted quantity per part and working day, as a flat table: row p, column t holds supply up
+ * to day t less what was committed for days up to t. A commitment on day b lowers every column
+ * from b on; the free quantity for a need on day b is the row's least value from b on (cumulative
+ * available-to-promise with look-ahead), kept ready in `least`.
  */
 class StockLedger {
   private readonly cells: Float64Array;
@@ -192,25 +220,22 @@ class StockLedger {
 
   constructor(
     private readonly days: number,
-    supplyByDay: Float64Array,
-    onHand: readonly number[],
+    cumulativeSupply: Float64Array,
   ) {
-    this.cells = new Float64Array(supplyByDay.length);
-    this.least = new Float64Array(supplyByDay.length);
-    onHand.forEach((opening, part) => {
-      let cumulative = opening;
-      for (let t = 0; t < days; t += 1) {
-        cumulative += supplyByDay[part * days + t];
-        this.cells[part * days + t] = roundQty(cumulative);
-      }
-      this.refreshLeast(part);
-    });
+    this.cells = cumulativeSupply.slice();
+    this.least = new Float64Array(cumulativeSupply.length);
+    const parts = days === 0 ? 0 : cumulativeSupply.length / days;
+    for (let part = 0; part < parts; part += 1) this.refreshLeast(part);
   }
 
-  /** Least free quantity of `part` from `bucket` on, less what `held` (same part) already claims. */
+  /** Least free quantity of `part` from `bucket` on, less what this unit already holds of it (and when). */
   free(part: number, bucket: number, held: readonly Need[] | undefined): number {
     const base = part * this.days;
-    if (held === undefined) return this.least[base + bucket];
+    if (held === undefined || held.length === 0) return this.least[base + bucket];
+    // Held quantities only lower the days from their own need on.
+    if (held.every((need) => need.bucket <= bucket)) {
+      return roundQty(this.least[base + bucket] - held.reduce((sum, need) => sum + need.qty, 0));
+    }
     let least = Infinity;
     for (let t = bucket; t < this.days; t += 1) {
       let value = this.cells[base + t];
@@ -220,23 +245,21 @@ class StockLedger {
     return roundQty(least);
   }
 
-  commit(needs: readonly Need[]): void {
-    for (const need of needs) {
-      const base = need.part * this.days;
-      let least = Infinity;
-      for (let t = this.days - 1; t >= need.bucket; t -= 1) {
-        const cell = roundQty(this.cells[base + t] - need.qty);
-        this.cells[base + t] = cell;
-        if (cell < least) least = cell;
-        this.least[base + t] = least;
-      }
-      // Before the need's day a minimum only changes while the lowered one still reaches back.
-      for (let t = need.bucket - 1; t >= 0; t -= 1) {
-        const value = Math.min(this.cells[base + t], least);
-        if (value === this.least[base + t]) break;
-        this.least[base + t] = value;
-        least = value;
-      }
+  commit(part: number, bucket: number, qty: number): void {
+    const base = part * this.days;
+    let least = Infinity;
+    for (let t = this.days - 1; t >= bucket; t -= 1) {
+      const cell = roundQty(this.cells[base + t] - qty);
+      this.cells[base + t] = cell;
+      if (cell < least) least = cell;
+      this.least[base + t] = least;
+    }
+    // Before the need's day a minimum only changes while the lowered one still reaches back.
+    for (let t = bucket - 1; t >= 0; t -= 1) {
+      const value = Math.min(this.cells[base + t], least);
+      if (value === this.least[base + t]) break;
+      this.least[base + t] = value;
+      least = value;
     }
   }
 
@@ -250,171 +273,135 @@ class StockLedger {
   }
 }
 
-/** The working days of the horizon and a look-up of the first working day on or after a day. */
-function horizonDays(calendar: WorkingCalendar, from: IsoDate, to: IsoDate) {
-  const fromDay = requireIsoDate(from, 'Horizon start');
-  const toDay = requireIsoDate(to, 'Horizon end');
-  if (fromDay > toDay) throw new PlanInputError(`Horizon start ${from} is after its end ${to}`);
-  if (toDay - fromDay + 1 > MAX_LINE_RISK_CALENDAR_DAYS) {
-    throw new PlanInputError(`Horizon ${from} … ${to} is longer than ${MAX_LINE_RISK_CALENDAR_DAYS} days`);
-  }
-  const dayNumbers: number[] = [];
-  for (let day = fromDay; day <= toDay; day += 1) if (calendar.isWorking(day)) dayNumbers.push(day);
-  /** Bucket of the first working day on or after `day`: 0 before the horizon, -1 after it. */
-  const bucketOf = (day: number): number => {
-    if (dayNumbers.length === 0 || day > toDay) return -1;
-    let low = 0;
-    let high = dayNumbers.length;
-    while (low < high) {
-      const middle = (low + high) >> 1;
-      if (dayNumbers[middle] < day) low = middle + 1;
-      else high = middle;
-    }
-    return low < dayNumbers.length ? low : -1;
-  };
-  return { fromDay, dayNumbers, dates: dayNumbers.map(fromDayNumber), bucketOf };
-}
-
 /**
- * Walks the build sequence over [from, to], promising on-hand and firm receipts to units in build
- * order; returns the units that cannot be built, the bought parts short (first short date,
- * shortfall, units stopped, days until impact, frozen window) and a rescue per part: expedite,
- * or move up a later unit whose parts are all free. Throws PlanInputError for unusable input and
- * BomCycleError for a cyclic BOM.
+ * Walks the build sequence over [from, to], promising supply to units in build order; returns the
+ * units that cannot be built, the short parts with their action, dated need and units stopped, and
+ * a rescue per part. Throws PlanInputError for unusable input and BomCycleError for a cyclic BOM.
  */
 export function computeLineRisk(input: LineRiskInput): LineRiskResult {
-  const calendar = new WorkingCalendar(input.calendar);
-  const { fromDay, dayNumbers, dates, bucketOf } = horizonDays(calendar, input.from, input.to);
-  const days = dayNumbers.length;
+  const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+  const { calendar, dayNumbers, indexOf } = model;
+  const days = model.days.length;
   const { parts } = input;
-
-  const indexOf = new Map<string, number>();
-  parts.forEach((part, index) => {
-    if (indexOf.has(part.partNumber)) throw new PlanInputError(`Part ${part.partNumber} is listed twice`);
-    if (!Number.isInteger(part.leadTimeDays) || part.leadTimeDays < 0) {
-      throw new PlanInputError(`Part ${part.partNumber}: lead time must be a whole number of working days ≥ 0`);
-    }
-    if (!Number.isFinite(part.onHand))
-      throw new PlanInputError(`Part ${part.partNumber}: on-hand must be a finite number`);
-    indexOf.set(part.partNumber, index);
-  });
-  const partIndex = (partNumber: string, where: string): number => {
-    const index = indexOf.get(partNumber);
-    if (index === undefined) throw new PlanInputError(`${where} names ${partNumber}, which is not in the part list`);
-    return index;
-  };
-  const bought = parts.map((part) => part.source === 'buy');
-  // Rank of each part in part-number order, so listing a unit's lacks compares numbers, not strings.
+  if (days > 0 && dayNumbers[days - 1] - dayNumbers[0] + 1 > MAX_LINE_RISK_CALENDAR_DAYS) {
+    throw new PlanInputError(`Horizon ${input.from} … ${input.to} is longer than ${MAX_LINE_RISK_CALENDAR_DAYS} days`);
+  }
+  const countable = parts.map((part) => COUNTABLE_UNITS.has(part.uom ?? 'H87'));
+  const wholeIfCountable = (part: number, qty: number) => (countable[part] ? Math.ceil(qty - epsilon) : roundQty(qty));
   const rankOf = new Int32Array(parts.length);
   parts
     .map((_, index) => index)
     .sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber))
     .forEach((index, rank) => (rankOf[index] = rank));
 
-  // Refuses a cyclic structure before an explosion could recurse forever.
-  lowLevelCodes(
-    parts.map((part) => part.partNumber),
-    input.bom,
-  );
-  const linesOf: Line[][] = parts.map(() => []);
-  input.bom.forEach((line, row) => {
-    const where = `BOM line ${row + 1} (${line.parent} → ${line.component})`;
-    if (!Number.isFinite(line.qtyPer) || !Number.isFinite(line.scrapPct)) {
-      throw new PlanInputError(`${where}: quantity per and scrap must be finite numbers`);
-    }
-    linesOf[partIndex(line.parent, where)].push({
-      component: partIndex(line.component, where),
-      factor: line.qtyPer * (1 + line.scrapPct / 100),
-      effectiveFrom: line.effectiveFrom ?? null,
-      effectiveTo: line.effectiveTo ?? null,
-    });
-  });
+  const ordered = orderSlots(input.sequence, model);
+  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, parts.length);
 
-  const receiptsByDay = new Float64Array(parts.length * days);
-  const firmReceiptQty = new Float64Array(parts.length);
-  input.firmReceipts.forEach((receipt, row) => {
-    const where = `Firm receipt ${row + 1} (${receipt.partNumber} on ${receipt.date})`;
-    const part = partIndex(receipt.partNumber, where);
-    if (!Number.isFinite(receipt.qty)) throw new PlanInputError(`${where}: quantity must be a finite number`);
-    const bucket = bucketOf(requireIsoDate(receipt.date, where));
-    if (bucket < 0) return;
-    receiptsByDay[part * days + bucket] += receipt.qty;
-    firmReceiptQty[part] += receipt.qty;
-  });
-  const onHand = parts.map((part) => part.onHand);
-  const build = new StockLedger(days, receiptsByDay, onHand);
-  const queue = new StockLedger(days, receiptsByDay, onHand);
+  // --- Explosion with pegging ---
 
-  const ordered: OrderedSlot[] = [];
-  input.sequence.forEach((slot, row) => {
-    const where = `Sequence slot ${row + 1} (${slot.date} #${slot.sequence})`;
-    const model = partIndex(slot.model, where);
-    if (!Number.isFinite(slot.qty)) throw new PlanInputError(`${where}: quantity must be a finite number`);
-    const day = requireIsoDate(slot.date, where);
-    const bucket = bucketOf(day);
-    if (day < fromDay || bucket < 0 || slot.qty <= 0) return;
-    ordered.push({ slot, model, bucket });
-  });
-  ordered.sort((a, b) => compareText(a.slot.date, b.slot.date) || a.slot.sequence - b.slot.sequence);
+  const toBucket = (offset: number) => Math.max(0, offset);
+  /** Day number of bucket offset b, which may lie before the horizon (a subassembly started earlier). */
+  const dayOfOffset = (offset: number) =>
+    offset >= 0 ? dayNumbers[Math.min(offset, days - 1)] : model.workingDayBeforeStart(-offset);
 
-  // --- Explosion against the build view ---
-
-  const startDays = new Map<string, number>();
-  const startDay = (day: number, leadTime: number): number => {
-    if (leadTime === 0) return day;
-    const key = `${day}:${leadTime}`;
-    let start = startDays.get(key);
-    if (start === undefined) {
-      start = calendar.addWorking(day, -leadTime);
-      startDays.set(key, start);
-    }
-    return start;
-  };
-  const dateMemo = new Map<number, IsoDate>();
-  const dateOf = (day: number): IsoDate => {
-    let date = dateMemo.get(day);
-    if (date === undefined) {
-      date = fromDayNumber(day);
-      dateMemo.set(day, date);
-    }
-    return date;
-  };
-
-  function hold(evaluation: Evaluation, part: number, bucket: number, qty: number): void {
-    const take = { part, bucket, qty };
-    evaluation.takes.push(take);
-    const held = evaluation.held.get(part);
-    if (held) held.push(take);
-    else evaluation.held.set(part, [take]);
-  }
-
-  function explode(parent: number, qty: number, day: number, evaluation: Evaluation): void {
-    const date = dateOf(day);
-    const bucket = Math.max(0, bucketOf(day));
-    for (const line of linesOf[parent]) {
-      if (line.effectiveFrom !== null && date < line.effectiveFrom) continue;
-      if (line.effectiveTo !== null && date > line.effectiveTo) continue;
-      const need = roundQty(qty * line.factor);
+  function explode(
+    ledger: StockLedger,
+    parent: number,
+    qty: number,
+    offset: number,
+    via: number,
+    evaluation: Evaluation,
+    held: Map<number, Need[]>,
+  ): void {
+    const day = dayOfOffset(offset);
+    const bucket = toBucket(offset);
+    for (let line = model.lineStart[parent]; line < model.lineStart[parent + 1]; line += 1) {
+      if (day < model.lineFrom[line] || day > model.lineTo[line]) continue;
+      const need = roundQty(qty * model.lineQtyPer[line]);
       if (need <= epsilon) continue;
-      const component = line.component;
-      const freeQty = Math.max(0, build.free(component, bucket, evaluation.held.get(component)));
-      const fromStock = Math.min(need, freeQty);
-      if (fromStock > epsilon) hold(evaluation, component, bucket, fromStock);
-      const rest = roundQty(need - fromStock);
-      if (bought[component]) {
-        evaluation.boughtNeeds.push({ part: component, bucket, qty: need });
-        if (rest > epsilon) evaluation.lacks.set(component, roundQty((evaluation.lacks.get(component) ?? 0) + rest));
-      } else if (rest > epsilon) {
-        explode(component, rest, startDay(day, parts[component].leadTimeDays), evaluation);
+      const component = model.lineComponent[line];
+      if (model.source[component] === BOUGHT) {
+        const entry = { part: component, bucket, qty: need, via };
+        evaluation.needs.push(entry);
+        const free = Math.max(0, ledger.free(component, bucket, held.get(component)));
+        hold(held, entry);
+        const lack = need - free;
+        if (lack > epsilon && !evaluation.lacks.has(component)) {
+          evaluation.lacks.set(component, { part: component, bucket, qty: lack, via });
+        } else if (lack > epsilon) {
+          const known = evaluation.lacks.get(component)!;
+          known.qty = roundQty(known.qty + Math.min(need, lack));
+        }
+        continue;
+      }
+      // A made part (or a model used as a component): from its stock first, the rest made for the unit.
+      const inStock = Math.max(0, ledger.free(component, bucket, held.get(component)));
+      const taken = Math.min(need, inStock);
+      if (taken > epsilon) {
+        const take = { part: component, bucket, qty: taken, via };
+        evaluation.takes.push(take);
+        hold(held, take);
+      }
+      const made = roundQty(need - taken);
+      if (made > epsilon) {
+        const start = offset - model.leadTimeDays[component];
+        explode(
+          ledger,
+          component,
+          made,
+          start,
+          via === NO_VIA && model.source[component] === MADE ? component : via,
+          evaluation,
+          held,
+        );
       }
     }
   }
 
-  function evaluate(model: number, qty: number, bucket: number): Evaluation {
-    const evaluation: Evaluation = { takes: [], held: new Map(), boughtNeeds: [], lacks: new Map() };
-    explode(model, qty, dayNumbers[bucket], evaluation);
+  function hold(held: Map<number, Need[]>, need: Need): void {
+    const list = held.get(need.part);
+    if (list) list.push(need);
+    else held.set(need.part, [need]);
+  }
+
+  function evaluate(ledger: StockLedger, part: number, qty: number, bucket: number): Evaluation {
+    const evaluation: Evaluation = { takes: [], needs: [], lacks: new Map() };
+    explode(ledger, part, qty, bucket, NO_VIA, evaluation, new Map());
     return evaluation;
   }
+
+  // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
+
+  const probe = new StockLedger(days, cumulativeSupply);
+  const requiredByDay = new Float64Array(parts.length * days);
+  // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
+  const evaluations = ordered.map((entry) => {
+    const evaluation = evaluate(probe, entry.model, entry.slot.qty, entry.bucket);
+    for (const take of evaluation.takes) probe.commit(take.part, take.bucket, take.qty);
+    for (const need of evaluation.needs) requiredByDay[need.part * days + need.bucket] += need.qty;
+    return evaluation;
+  });
+  const loopByPart = new Map<number, LoopSupply>();
+  for (const loop of input.loops ?? []) {
+    const part = indexOf.get(loop.partNumber);
+    if (part !== undefined && parts[part].replenishment === 'kanban') loopByPart.set(part, loop);
+  }
+  for (const [part, loop] of loopByPart) {
+    pullSupply(part, loop, model, parts[part].onHand, receiptsByDay, requiredByDay, cumulativeSupply);
+  }
+  // Made parts only supply their own stock; nothing is ordered for them here.
+
+  // --- The walk ---
+
+  const build = new StockLedger(days, cumulativeSupply);
+  const queue = new StockLedger(days, cumulativeSupply);
+  interface PartRisk {
+    slots: SlotAtRisk[];
+    resequence: ResequenceOption | null;
+  }
+  const risks = new Map<number, PartRisk>();
+  const unitsAtRisk: UnitAtRisk[] = [];
+  let unitsBuilt = 0;
 
   /** The first later unit, same or next working day, of another model whose parts are all free now. */
   function findResequence(position: number): ResequenceOption | null {
@@ -426,75 +413,85 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
       const key = `${candidate.model}:${candidate.slot.qty}`;
       if (candidate.model === atRisk.model || tried.has(key)) continue;
       tried.add(key);
-      if (evaluate(candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
+      if (evaluate(build, candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
         return { slot: unitRef(atRisk.slot), candidate: unitRef(candidate.slot) };
       }
     }
     return null;
   }
 
-  /** Queue view: each bought part serves this unit if it can, whatever the unit's other parts do. */
-  function queueLacks(boughtNeeds: Need[]): Map<number, number> | null {
-    let lacks: Map<number, number> | null = null;
-    // Sorted by part, so the needs of one part (direct and through made parts) sit together.
-    const needs =
-      boughtNeeds.length > 1 ? boughtNeeds.slice().sort((a, b) => a.part - b.part || a.bucket - b.bucket) : boughtNeeds;
-    for (let first = 0; first < needs.length;) {
-      const part = needs[first].part;
-      let end = first + 1;
-      while (end < needs.length && needs[end].part === part) end += 1;
+  /** Queue view: each part serves this unit if it can, whatever the unit's other parts do. */
+  function queueLacks(needs: Need[]): Map<number, number> {
+    const lacks = new Map<number, number>();
+    const byPart = new Map<number, Need[]>();
+    for (const need of needs) byPart.set(need.part, [...(byPart.get(need.part) ?? []), need]);
+    for (const [part, partNeeds] of byPart) {
       let lack = 0;
-      for (let index = first; index < end; index += 1) {
-        const held = index > first ? needs.slice(first, index) : undefined;
-        lack += Math.max(0, needs[index].qty - Math.max(0, queue.free(part, needs[index].bucket, held)));
-      }
-      lack = roundQty(lack);
-      if (lack > epsilon) (lacks ??= new Map()).set(part, lack);
-      else queue.commit(needs.slice(first, end));
-      first = end;
+      partNeeds.forEach((need, index) => {
+        lack += Math.max(0, need.qty - Math.max(0, queue.free(part, need.bucket, partNeeds.slice(0, index))));
+      });
+      if (lack > epsilon) lacks.set(part, roundQty(lack));
+      else for (const need of partNeeds) queue.commit(part, need.bucket, need.qty);
     }
     return lacks;
   }
 
-  // --- The walk ---
-
-  interface PartRisk {
-    slots: SlotAtRisk[];
-    resequence: ResequenceOption | null;
+  /** A slot of `part` for this unit; the first unit at risk of a part works out its resequence rescue. */
+  function addSlot(
+    part: number,
+    entry: OrderedSlot,
+    qty: number,
+    via: string | null,
+    resequence: () => ResequenceOption | null,
+  ) {
+    let risk = risks.get(part);
+    if (!risk) {
+      risk = { slots: [], resequence: resequence() };
+      risks.set(part, risk);
+    }
+    risk.slots.push({ ...unitRef(entry.slot), lackQty: qty, via });
   }
-  const risks = new Map<number, PartRisk>();
-  const requiredByDay = new Float64Array(parts.length * days);
-  const unitsAtRisk: UnitAtRisk[] = [];
-  let unitsBuilt = 0;
 
   ordered.forEach((entry, position) => {
-    const evaluation = evaluate(entry.model, entry.slot.qty, entry.bucket);
-    for (const need of evaluation.boughtNeeds) requiredByDay[need.part * days + need.bucket] += need.qty;
-    const behind = queueLacks(evaluation.boughtNeeds);
+    // The queue view runs for every unit: a part can stop a unit that is buildable now only
+    // because a unit ahead of it, short of something else, is not taking its share.
+    const behind = queueLacks(evaluations[position].needs);
+    // Evaluated again against the build ledger, which holds the commitments of the units built so far.
+    const evaluation = evaluate(build, entry.model, entry.slot.qty, entry.bucket);
+    const viaOf = (part: number, need: Need | undefined) => {
+      const found = need ?? evaluations[position].needs.find((candidate) => candidate.part === part)!;
+      return { via: found.via === NO_VIA ? null : parts[found.via].partNumber, bucket: found.bucket };
+    };
     if (evaluation.lacks.size === 0) {
-      build.commit(evaluation.takes);
+      for (const need of evaluation.needs) build.commit(need.part, need.bucket, need.qty);
+      for (const take of evaluation.takes) build.commit(take.part, take.bucket, take.qty);
       unitsBuilt += 1;
+      for (const [part, lack] of behind)
+        addSlot(part, entry, wholeIfCountable(part, lack), viaOf(part, undefined).via, () => null);
       return;
     }
     const unit: UnitAtRisk = { ...unitRef(entry.slot), lacks: [] };
-    // Parts that stop the unit now first, then those it would lack behind the units ahead.
+    // The unit took nothing, so the stock stands exactly as it did at its turn.
+    const resequence = () => {
+      if (unit.resequence === undefined) unit.resequence = findResequence(position);
+      return unit.resequence;
+    };
     const lacking = [...evaluation.lacks.keys()].sort((a, b) => rankOf[a] - rankOf[b]);
-    const behindOnly = [...(behind?.keys() ?? [])]
+    const behindOnly = [...behind.keys()]
       .filter((part) => !evaluation.lacks.has(part))
       .sort((a, b) => rankOf[a] - rankOf[b]);
     for (const part of lacking.concat(behindOnly)) {
       const now = evaluation.lacks.get(part);
-      const qty = now ?? (behind?.get(part) as number);
-      unit.lacks.push({ partNumber: parts[part].partNumber, qty, now: now !== undefined });
-      let risk = risks.get(part);
-      if (!risk) {
-        // The unit took nothing, so the stock stands exactly as it did at its turn.
-        if (unit.resequence === undefined) unit.resequence = findResequence(position);
-        risk = { slots: [], resequence: unit.resequence };
-        risks.set(part, risk);
-      }
-      const { date, sequence, serial, model } = entry.slot;
-      risk.slots.push({ date, sequence, serial, model, lackQty: qty });
+      const qty = wholeIfCountable(part, now?.qty ?? behind.get(part)!);
+      const { via, bucket } = viaOf(part, now);
+      unit.lacks.push({
+        partNumber: parts[part].partNumber,
+        qty,
+        now: now !== undefined,
+        via,
+        neededOn: model.days[bucket],
+      });
+      addSlot(part, entry, qty, via, resequence);
     }
     unitsAtRisk.push(unit);
   });
@@ -502,7 +499,7 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   // --- Figures per short part ---
 
   const today = input.today ?? input.from;
-  const todayDay = requireIsoDate(today, 'Today');
+  const todayDay = requireDate(model.dayNumberOf(today), today, 'Today');
   const frozenWindowDays = Math.max(0, Math.floor(input.frozenWindowDays ?? DEFAULT_FROZEN_WINDOW_DAYS));
   // The window starts on the first working day on or after today: today's own build is frozen too.
   const frozenEnd =
@@ -516,40 +513,58 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
 
   const shortages: PartShortage[] = [];
   for (const [part, risk] of risks) {
-    let required = 0;
-    let supplied = onHand[part];
-    let firstShort = -1;
-    let deepest = 0;
-    for (let t = 0; t < days; t += 1) {
-      required += requiredByDay[part * days + t];
-      supplied += receiptsByDay[part * days + t];
-      const shortfall = roundQty(required - supplied);
-      if (shortfall > epsilon && firstShort < 0) firstShort = t;
-      if (shortfall > deepest) deepest = shortfall;
-    }
-    // A lack in either view implies the projection dips below zero; the fallback is only a guard.
-    if (firstShort < 0) firstShort = bucketOf(requireIsoDate(risk.slots[0].date, 'Slot'));
+    const projection = needSchedule(part, model.days, requiredByDay, cumulativeSupply, (qty) =>
+      wholeIfCountable(part, qty),
+    );
+    const first =
+      projection.firstShort >= 0
+        ? projection.firstShort
+        : Math.max(0, model.bucketOf(requireDate(model.dayNumberOf(risk.slots[0].date), risk.slots[0].date, 'Slot')));
     const shortPart = parts[part];
-    const firstShortDate = dates[firstShort];
+    const firstShortDay = dayNumbers[first];
+    const needBy =
+      projection.needBy.length > 0 ? projection.needBy : [{ date: model.days[first], qty: risk.slots[0].lackQty }];
+    const shortQty = roundQty(needBy.reduce((sum, entry) => sum + entry.qty, 0));
+    const leadTimeDays = shortPart.leadTimeDays;
+    const lastArrivalInLeadTime = calendar.addWorking(calendar.nextWorking(todayDay), leadTimeDays);
+    const loop = loopByPart.get(part);
+    const action: ShortageAction = loop
+      ? 'loop'
+      : shortPart.countDue || shortPart.onHand < 0
+        ? 'count'
+        : firstShortDay <= lastArrivalInLeadTime
+          ? 'expedite'
+          : 'release';
     shortages.push({
       partNumber: shortPart.partNumber,
       supplierCode: shortPart.supplierCode ?? null,
-      firstShortDate,
-      shortQty: deepest,
+      action,
+      firstShortDate: model.days[first],
+      shortQty,
+      needBy,
+      releaseBy: action === 'release' ? fromDayNumber(calendar.addWorking(firstShortDay, -leadTimeDays)) : null,
+      leadTimeDays,
       slotsAtRisk: risk.slots,
       onHand: shortPart.onHand,
       firmReceiptQty: roundQty(firmReceiptQty[part]),
-      daysUntilImpact: workingDaysAfterToday(dayNumbers[firstShort]),
-      inFrozenWindow: frozenEnd !== null && dayNumbers[firstShort] <= frozenEnd,
-      rescue: { expedite: { qty: deepest, needBy: firstShortDate }, resequence: risk.resequence },
+      daysUntilImpact: workingDaysAfterToday(firstShortDay),
+      inFrozenWindow: frozenEnd !== null && firstShortDay <= frozenEnd,
+      loop: loop ? { activeCards: loop.activeCards, recommendedCards: loop.recommendedCards } : null,
+      rescue: { expedite: { qty: needBy[0].qty, needBy: needBy[0].date }, resequence: risk.resequence },
+      requiredByDay: Array.from(requiredByDay.subarray(part * days, (part + 1) * days), (qty) => roundQty(qty)),
     });
   }
-  shortages.sort((a, b) => compareText(a.firstShortDate, b.firstShortDate) || compareText(a.partNumber, b.partNumber));
+  shortages.sort(
+    (a, b) =>
+      SHORTAGE_ACTIONS.indexOf(a.action) - SHORTAGE_ACTIONS.indexOf(b.action) ||
+      compareText(a.firstShortDate, b.firstShortDate) ||
+      compareText(a.partNumber, b.partNumber),
+  );
 
   return {
     from: input.from,
     to: input.to,
-    days: dates,
+    days: model.days,
     today,
     frozenWindowDays,
     frozenUntil: frozenEnd === null ? null : fromDayNumber(frozenEnd),
@@ -558,4 +573,121 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     unitsAtRisk,
     shortages,
   };
+}
+
+function unitRef(slot: SequenceSlot): UnitRef {
+  return { date: slot.date, sequence: slot.sequence, serial: slot.serial, model: slot.model };
+}
+
+/** Units of the horizon in build order; a unit dated before it is needed now, after it is out of view. */
+function orderSlots(sequence: readonly SequenceSlot[], model: PlanModel): OrderedSlot[] {
+  const ordered: OrderedSlot[] = [];
+  sequence.forEach((slot, row) => {
+    const where = `Sequence slot ${row + 1} (${slot.date} #${slot.sequence})`;
+    const part = model.indexOf.get(slot.model);
+    if (part === undefined)
+      throw new PlanInputError(`${where} builds model ${slot.model}, which is not in the part list`);
+    if (!Number.isFinite(slot.qty)) throw new PlanInputError(`${where}: quantity must be a finite number`);
+    let bucket = model.bucketOf(requireDate(model.dayNumberOf(slot.date), slot.date, where));
+    if (bucket === -1 && model.days.length > 0) bucket = 0;
+    if (bucket < 0 || slot.qty <= 0) return;
+    ordered.push({ slot, model: part, bucket });
+  });
+  return ordered.sort((a, b) => compareText(a.slot.date, b.slot.date) || a.slot.sequence - b.slot.sequence);
+}
+
+/** On-hand plus firm receipts by day, cumulated per part (late receipts count on the first day). */
+function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, partCount: number) {
+  const days = model.days.length;
+  const receiptsByDay = new Float64Array(partCount * days);
+  const firmReceiptQty = new Float64Array(partCount);
+  receipts.forEach((receipt, row) => {
+    const where = `Firm receipt ${row + 1} (${receipt.partNumber} on ${receipt.date})`;
+    const part = model.indexOf.get(receipt.partNumber);
+    if (part === undefined)
+      throw new PlanInputError(`${where} names ${receipt.partNumber}, which is not in the part list`);
+    if (!Number.isFinite(receipt.qty)) throw new PlanInputError(`${where}: quantity must be a finite number`);
+    let bucket = model.bucketOf(requireDate(model.dayNumberOf(receipt.date), receipt.date, where));
+    if (bucket === -1 && days > 0) bucket = 0;
+    if (bucket < 0) return;
+    receiptsByDay[part * days + bucket] += receipt.qty;
+    firmReceiptQty[part] += receipt.qty;
+  });
+  const cumulativeSupply = new Float64Array(partCount * days);
+  for (let part = 0; part < partCount; part += 1) {
+    let cumulative = model.source[part] === 2 ? 0 : model.onHand[part];
+    for (let t = 0; t < days; t += 1) {
+      cumulative += receiptsByDay[part * days + t];
+      cumulativeSupply[part * days + t] = roundQty(cumulative);
+    }
+  }
+  return { cumulativeSupply, firmReceiptQty, receiptsByDay };
+}
+
+/**
+ * A kanban part's supply when every unit draws on it: what is on hand, the containers already on
+ * their way (open lines on their arrival day, emptied cards one replenishment time after the next
+ * release), and then one container back a replenishment time after each container emptied. With
+ * enough cards this always keeps up; an undersized loop starves, and that is its shortage.
+ */
+function pullSupply(
+  part: number,
+  loop: LoopSupply,
+  model: PlanModel,
+  onHand: number,
+  receiptsByDay: Float64Array,
+  requiredByDay: Float64Array,
+  cumulativeSupply: Float64Array,
+): void {
+  const days = model.days.length;
+  const base = part * days;
+  const arrivals = new Float64Array(days);
+  for (let t = 0; t < days; t += 1) arrivals[t] = receiptsByDay[base + t];
+  const container = loop.containerQty > 0 ? loop.containerQty : 1;
+  const back = Math.max(1, Math.round(loop.replenishmentDays));
+  // The release job orders emptied cards the next working day.
+  for (let card = 0; card < loop.emptyCards; card += 1) if (1 + back < days) arrivals[1 + back] += container;
+  let consumed = 0;
+  let containersEmptied = 0;
+  let cumulative = onHand;
+  for (let t = 0; t < days; t += 1) {
+    cumulative += arrivals[t];
+    cumulativeSupply[base + t] = roundQty(cumulative);
+    consumed += requiredByDay[base + t];
+    // Containers emptied today go back tomorrow and return full a replenishment time later.
+    const emptied = Math.floor((consumed + epsilon) / container);
+    for (; containersEmptied < emptied; containersEmptied += 1) {
+      const arrival = t + 1 + back;
+      if (arrival < days) arrivals[arrival] += container;
+    }
+  }
+}
+
+/**
+ * A part's projection against every unit's need: the first day it is short and how much must have
+ * arrived by each day to keep every unit building (the running worst shortfall, as increments).
+ */
+function needSchedule(
+  part: number,
+  dates: readonly IsoDate[],
+  requiredByDay: Float64Array,
+  cumulativeSupply: Float64Array,
+  round: (qty: number) => number,
+): { firstShort: number; needBy: NeedBy[] } {
+  const days = dates.length;
+  const base = part * days;
+  let required = 0;
+  let covered = 0;
+  let firstShort = -1;
+  const needBy: NeedBy[] = [];
+  for (let t = 0; t < days; t += 1) {
+    required += requiredByDay[base + t];
+    const shortfall = round(required - cumulativeSupply[base + t]);
+    if (shortfall > covered + epsilon) {
+      if (firstShort < 0) firstShort = t;
+      needBy.push({ date: dates[t], qty: roundQty(shortfall - covered) });
+      covered = shortfall;
+    }
+  }
+  return { firstShort, needBy };
 }

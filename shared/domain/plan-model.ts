@@ -12,6 +12,11 @@ import type { IsoDate, PlanInput, PlanningBomLine, PlanningPart } from './types'
 /** Horizons longer than this many calendar days are refused, to bound memory (parts × days). */
 export const MAX_PLAN_CALENDAR_DAYS = 800;
 
+/** Codes of PlanModel.source. */
+export const PART_SOURCE_CODES: Record<string, number> = { buy: 0, make: 1, end_item: 2 };
+export const BOUGHT = 0;
+export const MADE = 1;
+
 /** Bucket index of a date before `from`. */
 export const BEFORE_HORIZON = -1;
 /** Bucket index of a date whose working day falls after `to`. */
@@ -32,7 +37,13 @@ export interface PlanModel {
   days: IsoDate[];
   dayNumbers: Int32Array;
   lowLevelCode: Int32Array;
-  /** Planning attributes copied at the start, so later edits of the input cannot leak into a plan. */
+  /** 0 bought, 1 made, 2 end item (see PART_SOURCE_CODES). */
+  source: Uint8Array;
+  /**
+   * Planning attributes copied at the start, so later edits of the input cannot leak into a plan.
+   * An end item is planned as build orders: a unit in the sequence needs its components whatever
+   * finished stock of its model exists, so end items carry no on-hand or safety stock here.
+   */
   onHand: Float64Array;
   safetyStock: Float64Array;
   packQty: Float64Array;
@@ -42,8 +53,10 @@ export interface PlanModel {
   /** Lines of parent p are lineStart[p] … lineStart[p + 1] - 1. */
   lineStart: Int32Array;
   lineComponent: Int32Array;
-  /** qtyPer × (1 + scrapPct / 100). */
+  /** qtyPer × (1 + scrapPct / 100): what is ordered. */
   lineFactor: Float64Array;
+  /** qtyPer alone: what a unit consumes (the scrap allowance is for ordering). */
+  lineQtyPer: Float64Array;
   /** Effectivity as day numbers; open ends are ±Infinity. */
   lineFrom: Float64Array;
   lineTo: Float64Array;
@@ -188,12 +201,14 @@ export function buildPlanModel(input: PlanInput): PlanModel {
   const fill = lineStart.slice(0, partCount);
   const lineComponent = new Int32Array(bom.length);
   const lineFactor = new Float64Array(bom.length);
+  const lineQtyPer = new Float64Array(bom.length);
   const lineFrom = new Float64Array(bom.length);
   const lineTo = new Float64Array(bom.length);
   bom.forEach((line, row) => {
     const slot = fill[parentOf[row]]++;
     lineComponent[slot] = componentOf[row];
     lineFactor[slot] = line.qtyPer * (1 + line.scrapPct / 100);
+    lineQtyPer[slot] = line.qtyPer;
     lineFrom[slot] =
       line.effectiveFrom == null
         ? -Infinity
@@ -217,14 +232,16 @@ export function buildPlanModel(input: PlanInput): PlanModel {
     days: workingDays.map(fromDayNumber),
     dayNumbers: Int32Array.from(workingDays),
     lowLevelCode,
-    onHand: Float64Array.from(parts, (part) => part.onHand),
-    safetyStock: Float64Array.from(parts, (part) => part.safetyStock),
+    source: Uint8Array.from(parts, (part) => PART_SOURCE_CODES[part.source] ?? 0),
+    onHand: Float64Array.from(parts, (part) => (part.source === 'end_item' ? 0 : part.onHand)),
+    safetyStock: Float64Array.from(parts, (part) => (part.source === 'end_item' ? 0 : part.safetyStock)),
     packQty: Float64Array.from(parts, (part) => part.packQty),
     leadTimeDays: Int32Array.from(parts, (part) => part.leadTimeDays),
     levelOrder: levelOrderOf(lowLevelCode),
     lineStart,
     lineComponent,
     lineFactor,
+    lineQtyPer,
     lineFrom,
     lineTo,
     bucketOf,

@@ -15,9 +15,15 @@ const battery: ShortageDto = {
   firstShortDate: '2026-12-03',
   shortQty: 12,
   slotsAtRisk: [
-    { date: '2026-12-03', sequence: 13, serial: 'SN26120313', model: 'FS-32R', lackQty: 6 },
-    { date: '2026-12-03', sequence: 17, serial: 'SN26120317', model: 'FS-40R', lackQty: 6 },
+    { date: '2026-12-03', sequence: 13, serial: 'SN26120313', model: 'FS-32R', lackQty: 6, via: null },
+    { date: '2026-12-03', sequence: 17, serial: 'SN26120317', model: 'FS-40R', lackQty: 6, via: null },
   ],
+  slotsAtRiskCount: 2,
+  action: 'expedite',
+  needBy: [{ date: '2026-12-03', qty: 12 }],
+  releaseBy: null,
+  leadTimeDays: 7,
+  loop: null,
   description: 'Battery 6 V 312 Ah, flooded lead-acid',
   uom: 'H87',
   supplierCode: 'FBS',
@@ -41,7 +47,9 @@ const tank: ShortageDto = {
   partNumber: 'TNK-R60',
   firstShortDate: '2026-12-08',
   shortQty: 3,
-  slotsAtRisk: [{ date: '2026-12-08', sequence: 2, serial: 'SN26120802', model: 'FS-26W', lackQty: 1 }],
+  slotsAtRisk: [{ date: '2026-12-08', sequence: 2, serial: 'SN26120802', model: 'FS-26W', lackQty: 1, via: null }],
+  slotsAtRiskCount: 1,
+  needBy: [{ date: '2026-12-08', qty: 3 }],
   description: 'Recovery tank 60 L',
   supplierCode: 'SRM',
   supplierName: null,
@@ -62,11 +70,12 @@ function reportOf(shortages: ShortageDto[]): LineRiskReport {
     unitsInHorizon: 240,
     unitsBuilt: 237,
     unitsAtRisk: shortages.flatMap((shortage) =>
-      shortage.slotsAtRisk.map(({ lackQty, ...slot }) => ({
+      shortage.slotsAtRisk.map(({ lackQty, via, ...slot }) => ({
         ...slot,
-        lacks: [{ partNumber: shortage.partNumber, qty: lackQty, now: true }],
+        lacks: [{ partNumber: shortage.partNumber, qty: lackQty, now: true, via, neededOn: slot.date }],
       })),
     ),
+    unitsAtRiskCount: shortages.reduce((sum, shortage) => sum + shortage.slotsAtRisk.length, 0),
     shortages,
   };
 }

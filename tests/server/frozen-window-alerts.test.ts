@@ -18,7 +18,7 @@ let lineRisk: LineRiskService;
 // unit of M needs 2 of P; with 1 on hand and nothing confirmed to arrive, that unit is at risk.
 beforeAll(async () => {
   context = await createTestContext();
-  lineRisk = new LineRiskService(context.db);
+  lineRisk = context.services.lineRisk;
   const buildDay = nextWorkingDay(plantToday(), calendar);
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, calendar);

@@ -4,6 +4,7 @@ import type { DataSource } from 'typeorm';
 import type { Part } from '../../shared/schemas/master-data';
 import type { Role } from '../../shared/schemas/user';
 import { createApp, type AppOptions } from '../../server/app';
+import { createServices, type Services } from '../../server/services';
 import { hashPassword } from '../../server/users/passwords';
 import { openDatabase, type Database } from '../../server/db/database';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
@@ -15,6 +16,8 @@ export const TEST_PASSWORD = 'correct-horse-battery';
 export interface TestContext {
   app: Express;
   db: Database;
+  /** The app's services, for jobs and checks that do not go through HTTP. */
+  services: Services;
   /** The writer connection, for arranging and inspecting data directly. */
   dataSource: DataSource;
   /** Bearer tokens of one user per role; the supplier user belongs to supplier `SUP-A`. */
@@ -28,7 +31,9 @@ let sharedHash: Promise<string> | undefined;
 export async function createTestContext(options: Partial<AppOptions> = {}): Promise<TestContext> {
   const db = await openDatabase(':memory:');
   const dataSource = db.dataSource;
-  const app = createApp(db, { jwtSecret: TEST_SECRET, loginAccountLimit: 5, ...options });
+  const appOptions = { jwtSecret: TEST_SECRET, loginAccountLimit: 5, ...options };
+  const services = createServices(db, appOptions);
+  const app = createApp(db, appOptions, services);
   sharedHash ??= hashPassword(TEST_PASSWORD);
   const passwordHash = await sharedHash;
   await dataSource.getRepository(SupplierEntity).insert([
@@ -63,7 +68,7 @@ export async function createTestContext(options: Partial<AppOptions> = {}): Prom
   );
   const tokens = {} as Record<Role, string>;
   for (const role of roles) tokens[role] = await signIn(app, `${role}@example.com`, TEST_PASSWORD);
-  return { app, db, dataSource, tokens, close: () => db.close() };
+  return { app, db, services, dataSource, tokens, close: () => db.close() };
 }
 
 export async function signIn(app: Express, email: string, password: string): Promise<string> {

@@ -36,7 +36,7 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
       await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-12-25'] });
       await savePartsWithStock(manager, [
         testPart('M', { source: 'end_item', supplierCode: null, replenishment: null, description: 'Model M' }),
-        testPart('C', { onHand: 5, description: 'Battery pack', hazardous: true }),
+        testPart('C', { onHand: 5, description: 'Battery pack', hazardous: true, leadTimeDays: 3 }),
         testPart('D', { supplierCode: 'SUP-B', onHand: 100 }),
       ]);
       await replaceBomLines(manager, [
@@ -105,7 +105,14 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
         partNumber: 'C',
         firstShortDate: '2026-12-22',
         shortQty: 1,
-        slotsAtRisk: [{ date: '2026-12-22', sequence: 1, serial: 'S3', model: 'M', lackQty: 1 }],
+        slotsAtRisk: [{ date: '2026-12-22', sequence: 1, serial: 'S3', model: 'M', lackQty: 1, via: null }],
+        slotsAtRiskCount: 1,
+        // Lead time 3 working days: released today, C arrives Wednesday 23 — too late for Tuesday.
+        action: 'expedite',
+        needBy: [{ date: '2026-12-22', qty: 1 }],
+        releaseBy: null,
+        leadTimeDays: 3,
+        loop: null,
         description: 'Battery pack',
         uom: 'H87',
         supplierCode: 'SUP-A',
@@ -283,8 +290,10 @@ describe('GET /api/shortages on the demo plant', () => {
       hazardous: true,
       supplierCode: 'FBS',
     });
-    const dates = twoWeeks.map((shortage) => shortage.firstShortDate);
-    expect(dates).toEqual([...dates].sort());
+    // Listed by action (what only an expedite saves first), then by first short date.
+    const order = ['expedite', 'loop', 'count', 'release'];
+    const keys = twoWeeks.map((shortage) => `${order.indexOf(shortage.action)}|${shortage.firstShortDate}`);
+    expect(keys).toEqual([...keys].sort());
   });
 
   it('never reports a part made in-house, however far it looks', async () => {
@@ -300,7 +309,8 @@ describe('GET /api/shortages on the demo plant', () => {
   it('offers a rescue for the first short part: expedite by its first short date and a unit to move up', async () => {
     const [first] = await shortages(10);
 
-    expect(first!.rescue.expedite).toEqual({ qty: first!.shortQty, needBy: first!.firstShortDate });
+    expect(first!.rescue.expedite).toEqual({ qty: first!.needBy[0]!.qty, needBy: first!.firstShortDate });
+    expect(first!.needBy.reduce((sum, entry) => sum + entry.qty, 0)).toBeCloseTo(first!.shortQty, 9);
     expect(first!.rescue.resequence?.slot).toEqual(expect.objectContaining({ serial: first!.slotsAtRisk[0]!.serial }));
     expect(first!.rescue.resequence?.candidate.model).not.toBe(first!.slotsAtRisk[0]!.model);
   });

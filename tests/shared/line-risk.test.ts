@@ -2,7 +2,12 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { addCalendarDays, addWorkingDays, isWorkingDay, workingDaysBetween } from '../../shared/domain/calendar';
 import { BomCycleError } from '../../shared/domain/bom';
-import { computeLineRisk, type LineRiskInput, type LineRiskResult } from '../../shared/domain/line-risk';
+import {
+  computeLineRisk,
+  type LineRiskInput,
+  type LineRiskPart,
+  type LineRiskResult,
+} from '../../shared/domain/line-risk';
 import { PlanInputError } from '../../shared/domain/plan-model';
 import type {
   PlanningBomLine,
@@ -29,7 +34,7 @@ const WED = '2026-03-04';
 const THU = '2026-03-05';
 const FRI = '2026-03-06';
 
-function part(partNumber: string, fields: Partial<PlanningPart> = {}): PlanningPart {
+function part(partNumber: string, fields: Partial<LineRiskPart> = {}): LineRiskPart {
   return {
     partNumber,
     source: 'buy',
@@ -83,7 +88,7 @@ describe('computeLineRisk — hand-worked cases', () => {
         sequence: 1,
         serial: 'S3',
         model: 'M',
-        lacks: [{ partNumber: 'C', qty: 1, now: true }],
+        lacks: [{ partNumber: 'C', qty: 1, now: true, via: null, neededOn: TUE }],
         resequence: null,
       },
     ]);
@@ -92,8 +97,39 @@ describe('computeLineRisk — hand-worked cases', () => {
       partNumber: 'C',
       firstShortDate: TUE,
       shortQty: 1,
-      slotsAtRisk: [{ date: TUE, sequence: 1, serial: 'S3', model: 'M', lackQty: 1 }],
+      needBy: [{ date: TUE, qty: 1 }],
+      slotsAtRisk: [{ date: TUE, sequence: 1, serial: 'S3', model: 'M', lackQty: 1, via: null }],
       rescue: { expedite: { qty: 1, needBy: TUE } },
+    });
+  });
+
+  it('promises stock to units in order like discrete available-to-promise with look-ahead', () => {
+    // The method of the MPS record's available-to-promise row (Vollmann, Berry, Whybark and Jacobs,
+    // Manufacturing Planning and Control for Supply Chain Management, 5th ed., ch. 6 — from
+    // memory; the figures are worked here by that method, not taken from the book): on hand 10,
+    // a firm receipt of 20 on Wednesday, orders of 5 Mon, 8 Tue, 12 Wed, 5 Thu. Monday's 5 are
+    // promised (5 left); Tuesday's 8 cannot be (5 free until the receipt) and take nothing;
+    // Wednesday's 12 and Thursday's 5 come out of 5 + 20 = 25. The running shortfall is 3 on
+    // Tuesday and never more, so 3 must arrive by Tuesday.
+    const orders = [
+      { date: MON, qty: 5 },
+      { date: TUE, qty: 8 },
+      { date: WED, qty: 12 },
+      { date: THU, qty: 5 },
+    ];
+    const result = lineRisk({
+      parts: [model('M'), part('C', { onHand: 10 })],
+      bom: [line('M', 'C', 1)],
+      sequence: orders.map((order, index) => ({ ...slot(order.date, 1, 'M', `O${index + 1}`), qty: order.qty })),
+      firmReceipts: [{ partNumber: 'C', date: WED, qty: 20 }],
+    });
+
+    expect(serialsAtRisk(result)).toEqual(['O2']);
+    expect(result.unitsBuilt).toBe(3);
+    expect(result.shortages[0]).toMatchObject({
+      partNumber: 'C',
+      firstShortDate: TUE,
+      needBy: [{ date: TUE, qty: 3 }],
     });
   });
 
@@ -130,7 +166,8 @@ describe('computeLineRisk — hand-worked cases', () => {
 
   it('lets a unit that cannot be built take nothing, so a later unit gets the part', () => {
     // M1 takes A + B, M2 takes A alone; 1 A and no B on hand. Mon #1 (M1) lacks B: at risk, its A
-    // stays. Mon #2 (M2) takes the one A and is built. Only B is short: 1 by Monday.
+    // stays. Mon #2 (M2) takes the one A and is built. B is short 1 by Monday — and so is A: once
+    // U1 gets its B it takes the A, and U2 would lack it (2 A needed, 1 on hand).
     const result = lineRisk({
       parts: [model('M1'), model('M2'), part('A', { onHand: 1 }), part('B')],
       bom: [line('M1', 'A', 1), line('M1', 'B', 1), line('M2', 'A', 1)],
@@ -141,7 +178,11 @@ describe('computeLineRisk — hand-worked cases', () => {
     expect(result.unitsBuilt).toBe(1);
     expect(
       result.shortages.map((shortage) => [shortage.partNumber, shortage.firstShortDate, shortage.shortQty]),
-    ).toEqual([['B', MON, 1]]);
+    ).toEqual([
+      ['A', MON, 1],
+      ['B', MON, 1],
+    ]);
+    expect(result.shortages[0]!.slotsAtRisk.map((entry) => entry.serial)).toEqual(['U2']);
   });
 
   it('looks through a made part to its bought components, needed its lead time earlier', () => {
@@ -157,23 +198,24 @@ describe('computeLineRisk — hand-worked cases', () => {
     });
 
     expect(serialsAtRisk(result)).toEqual(['U2']);
-    expect(result.unitsAtRisk[0]!.lacks).toEqual([{ partNumber: 'S', qty: 3, now: true }]);
+    expect(result.unitsAtRisk[0]!.lacks).toEqual([{ partNumber: 'S', qty: 3, now: true, via: 'F', neededOn: MON }]);
     expect(result.shortages.map((shortage) => shortage.partNumber)).toEqual(['S']);
     expect(result.shortages[0]).toMatchObject({ firstShortDate: MON, shortQty: 3 });
   });
 
-  it('counts scrap and only the BOM lines effective on the build date', () => {
-    // C at 2 per unit with 10 % scrap = 2.2, effective up to Tuesday; D from Wednesday. 4.4 C on
-    // hand covers Mon and Tue exactly; Wednesday's unit needs D (none) and no C → lacks 1 D only.
+  it('needs the BOM quantity without the scrap allowance, through the lines effective on the build date', () => {
+    // C at 2 per unit (its 10 % scrap allowance is for ordering, not consumption), effective up to
+    // Tuesday; D from Wednesday. 4 C on hand covers Mon and Tue exactly; Wednesday's unit needs D
+    // (none) and no C → lacks 1 D only.
     const result = lineRisk({
-      parts: [model('M'), part('C', { onHand: 4.4 }), part('D')],
+      parts: [model('M'), part('C', { onHand: 4 }), part('D')],
       bom: [line('M', 'C', 2, { scrapPct: 10, effectiveTo: TUE }), line('M', 'D', 1, { effectiveFrom: WED })],
       sequence: [slot(MON, 1, 'M', 'U1'), slot(TUE, 1, 'M', 'U2'), slot(WED, 1, 'M', 'U3')],
     });
 
     expect(result.unitsBuilt).toBe(2);
     expect(result.unitsAtRisk.map((unit) => [unit.serial, unit.lacks])).toEqual([
-      ['U3', [{ partNumber: 'D', qty: 1, now: true }]],
+      ['U3', [{ partNumber: 'D', qty: 1, now: true, via: null, neededOn: WED }]],
     ]);
     expect(result.shortages.map((shortage) => shortage.partNumber)).toEqual(['D']);
   });
@@ -214,8 +256,8 @@ describe('computeLineRisk — hand-worked cases', () => {
     ]);
     expect(result.shortages[1]!.slotsAtRisk.map((entry) => entry.serial)).toEqual(['U3', 'U4']);
     expect(result.unitsAtRisk.find((unit) => unit.serial === 'U3')!.lacks).toEqual([
-      { partNumber: 'A', qty: 1, now: true },
-      { partNumber: 'B', qty: 1, now: false },
+      { partNumber: 'A', qty: 1, now: true, via: null, neededOn: WED },
+      { partNumber: 'B', qty: 1, now: false, via: null, neededOn: WED },
     ]);
   });
 
@@ -274,17 +316,19 @@ describe('computeLineRisk — hand-worked cases', () => {
     ]);
   });
 
-  it('takes slots before the horizon as built and builds a weekend slot on the next working day', () => {
-    // The Friday-before slot is history; the Saturday slot is built Monday 9th, outside a horizon
-    // that ends Friday 6th, so nothing in view needs C.
+  it('needs an unbuilt unit dated before the horizon now, and builds a weekend slot on the next working day', () => {
+    // Units already built are not passed in: the Friday-before unit is still to build, so it needs
+    // C on the first day. The Saturday unit is built Monday 9th, outside a horizon that ends
+    // Friday 6th.
     const result = lineRisk({
       parts: [model('M'), part('C')],
       bom: [line('M', 'C', 1)],
-      sequence: [slot('2026-02-27', 1, 'M'), slot('2026-03-07', 1, 'M')],
+      sequence: [slot('2026-02-27', 1, 'M', 'LATE'), slot('2026-03-07', 1, 'M', 'SAT')],
     });
 
-    expect(result.unitsInHorizon).toBe(0);
-    expect(result.shortages).toEqual([]);
+    expect(result.unitsInHorizon).toBe(1);
+    expect(serialsAtRisk(result)).toEqual(['LATE']);
+    expect(result.shortages[0]).toMatchObject({ partNumber: 'C', firstShortDate: MON, shortQty: 1 });
   });
 
   it('refuses a reversed or overlong horizon, an unknown model and a BOM cycle', () => {
@@ -504,7 +548,15 @@ describe('computeLineRisk — properties', () => {
           const first = deficits.findIndex((deficit) => deficit > 1e-9);
           expect(shortage.firstShortDate).toBe(DAYS[first]);
           expect(shortage.shortQty).toBeCloseTo(Math.max(...deficits), 9);
-          expect(shortage.rescue.expedite).toEqual({ qty: shortage.shortQty, needBy: shortage.firstShortDate });
+          // What must have arrived by each day is the worst shortfall so far; needBy lists its increases.
+          let arrived = 0;
+          let worst = 0;
+          DAYS.forEach((day, index) => {
+            arrived += shortage.needBy.filter((entry) => entry.date === day).reduce((sum, entry) => sum + entry.qty, 0);
+            worst = Math.max(worst, deficits[index]!);
+            expect(arrived).toBeCloseTo(worst, 9);
+          });
+          expect(shortage.rescue.expedite).toEqual({ qty: shortage.needBy[0]!.qty, needBy: shortage.firstShortDate });
         }
       }),
     );
@@ -537,5 +589,138 @@ describe('computeLineRisk — properties', () => {
         }
       }),
     );
+  });
+});
+
+describe('computeLineRisk — what to do about each short part', () => {
+  const oneUnitADay = (modelNumber: string) => [
+    slot(MON, 1, modelNumber, 'D1'),
+    slot(TUE, 1, modelNumber, 'D2'),
+    slot(WED, 1, modelNumber, 'D3'),
+    slot(THU, 1, modelNumber, 'D4'),
+    slot(FRI, 1, modelNumber, 'D5'),
+  ];
+
+  it('asks to expedite inside the supplier lead time, and only to release in time beyond it', () => {
+    // Today Monday. E (lead time 2 working days) runs out Wednesday: only Monday + 2 = Wednesday
+    // could still arrive by a normal release, so a shortage from Wednesday is an expedite.
+    // R (lead time 2) runs out Friday: a release sent by Wednesday (Friday − 2) arrives in time.
+    const result = lineRisk({
+      today: MON,
+      parts: [
+        model('ME'),
+        model('MR'),
+        part('E', { onHand: 2, leadTimeDays: 2 }),
+        part('R', { onHand: 4, leadTimeDays: 2 }),
+      ],
+      bom: [line('ME', 'E', 1), line('MR', 'R', 1)],
+      sequence: [
+        ...oneUnitADay('ME'),
+        ...oneUnitADay('MR').map((unit) => ({ ...unit, sequence: 2, serial: `R-${unit.date}` })),
+      ],
+    });
+
+    const byPart = Object.fromEntries(result.shortages.map((shortage) => [shortage.partNumber, shortage]));
+    expect(byPart.E).toMatchObject({ action: 'expedite', firstShortDate: WED, releaseBy: null });
+    expect(byPart.R).toMatchObject({ action: 'release', firstShortDate: FRI, releaseBy: WED });
+    expect(result.shortages.map((shortage) => shortage.action)).toEqual(['expedite', 'release']);
+  });
+
+  it('says how much must arrive by each date, not one lump on the first', () => {
+    // 1 on hand, one unit a day needing 2: short 1 on Monday, then 2 more each day.
+    const result = lineRisk({
+      parts: [model('M'), part('C', { onHand: 1 })],
+      bom: [line('M', 'C', 2)],
+      sequence: oneUnitADay('M'),
+    });
+
+    expect(result.shortages[0]!.needBy).toEqual([
+      { date: MON, qty: 1 },
+      { date: TUE, qty: 2 },
+      { date: WED, qty: 2 },
+      { date: THU, qty: 2 },
+      { date: FRI, qty: 2 },
+    ]);
+    expect(result.shortages[0]!.shortQty).toBe(9);
+    expect(result.shortages[0]!.rescue.expedite).toEqual({ qty: 1, needBy: MON });
+  });
+
+  it('asks for a count first when on-hand is negative or due a count', () => {
+    const negative = lineRisk({
+      parts: [model('M'), part('C', { onHand: -2, leadTimeDays: 5 })],
+      bom: [line('M', 'C', 1)],
+      sequence: [slot(TUE, 1, 'M')],
+    });
+    const stale = lineRisk({
+      parts: [model('M'), { ...part('C', { onHand: 0, leadTimeDays: 5 }), countDue: true }],
+      bom: [line('M', 'C', 1)],
+      sequence: [slot(TUE, 1, 'M')],
+    });
+
+    expect(negative.shortages[0]).toMatchObject({ action: 'count', shortQty: 3 });
+    expect(stale.shortages[0]).toMatchObject({ action: 'count' });
+  });
+
+  it('counts a kanban loop as supply: a right-sized loop is no shortage, an undersized one is a loop shortage', () => {
+    // 10 a day, containers of 10, back 2 working days after emptied (ordered the next day). With
+    // 3 cards (2 full on hand, 1 on its way for Tuesday) every day's need arrives in time: each
+    // container emptied on day t is back on day t + 3. With 1 card, Monday empties it and it is back
+    // Thursday: Tuesday and Wednesday starve.
+    const kanban = (onHand: number) => ({ ...part('K', { onHand }), replenishment: 'kanban' as const });
+    const loop = (activeCards: number) => ({
+      partNumber: 'K',
+      activeCards,
+      recommendedCards: 3,
+      containerQty: 10,
+      replenishmentDays: 2,
+      emptyCards: 0,
+    });
+    const base = { bom: [line('M', 'K', 10)], sequence: oneUnitADay('M') };
+
+    const rightSized = lineRisk({
+      ...base,
+      parts: [model('M'), kanban(20)],
+      loops: [loop(3)],
+      firmReceipts: [{ partNumber: 'K', date: TUE, qty: 10 }],
+    });
+    const undersized = lineRisk({ ...base, parts: [model('M'), kanban(10)], loops: [loop(1)] });
+
+    expect(rightSized.shortages).toEqual([]);
+    expect(rightSized.unitsAtRisk).toEqual([]);
+    expect(undersized.shortages[0]).toMatchObject({
+      partNumber: 'K',
+      action: 'loop',
+      firstShortDate: TUE,
+      loop: { activeCards: 1, recommendedCards: 3 },
+    });
+    expect(serialsAtRisk(undersized)).toEqual(['D2', 'D3']);
+  });
+
+  // Whole units: a countable part is counted in whole pieces (common practice, no source).
+  it('never reports a piece part short by a fraction, and leaves kilograms as they are', () => {
+    // Half a bracket per unit, 1 bracket on hand: units 1 and 2 share it, unit 3 lacks half a
+    // bracket — one whole bracket. Steel at 0.3 kg per unit with 0.5 kg: unit 2 lacks 0.1 kg.
+    const result = lineRisk({
+      parts: [
+        model('M'),
+        part('BRACKET', { onHand: 1, uom: 'H87' }),
+        model('S'),
+        part('STEEL', { onHand: 0.5, uom: 'KGM' }),
+      ],
+      bom: [line('M', 'BRACKET', 0.5), line('S', 'STEEL', 0.3)],
+      sequence: [
+        slot(MON, 1, 'M', 'B1'),
+        slot(MON, 2, 'M', 'B2'),
+        slot(MON, 3, 'M', 'B3'),
+        slot(TUE, 1, 'S', 'S1'),
+        slot(TUE, 2, 'S', 'S2'),
+      ],
+    });
+
+    const bracket = result.unitsAtRisk.find((unit) => unit.serial === 'B3')!;
+    const steel = result.unitsAtRisk.find((unit) => unit.serial === 'S2')!;
+    expect(bracket.lacks[0]).toMatchObject({ partNumber: 'BRACKET', qty: 1 });
+    expect(steel.lacks[0]!.qty).toBeCloseTo(0.1, 9);
+    expect(result.shortages.find((shortage) => shortage.partNumber === 'BRACKET')!.shortQty).toBe(1);
   });
 });
