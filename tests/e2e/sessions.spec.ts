@@ -58,6 +58,9 @@ test.describe('sessions and passwords', () => {
     await account.submit();
     await expect(account.errorUnder('Current password')).toHaveText('Is not your current password');
     await shoot(laptop, 'password-change-1440');
+    await laptop.setViewportSize(PHONE);
+    await shoot(laptop, 'password-change-390');
+    await laptop.setViewportSize(DESKTOP);
     await account.fillPasswords('first-password-1', 'second-password-2');
     await account.submit();
     await expect(
@@ -113,6 +116,9 @@ test.describe('sessions and passwords', () => {
     await expect(reset.heading()).toHaveText('Set a new password');
     await expect(phone.getByText('Jo Marlow')).toBeVisible();
     await shoot(phone, 'password-reset-form-390');
+    await phone.setViewportSize(DESKTOP);
+    await shoot(phone, 'password-reset-form-1440');
+    await phone.setViewportSize(PHONE);
     await reset.setPassword('third-password-3');
     await expect(reset.heading()).toHaveText('Password set — sign in');
     await shoot(phone, 'password-reset-done-390');
