@@ -1,4 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
+import type { OutboxMessage } from '../../shared/schemas/outbox';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
 
@@ -19,7 +20,7 @@ function minutesAgo(minutes: number): string {
 const failingSince = minutesAgo(50);
 const lastError = 'connect ECONNREFUSED 127.0.0.1:2525';
 
-const failingNotice = {
+const failingNotice: OutboxMessage = {
   id: 71,
   to: 'oldwick.orders@example.com',
   subject: 'Release R261202-OMW from Cardloop demo plant',
@@ -32,7 +33,7 @@ const failingNotice = {
   firstFailedAt: failingSince,
   nextAttemptAt: new Date(Date.now() + 8 * 60_000).toISOString(),
 };
-const waitingNotice = {
+const waitingNotice: OutboxMessage = {
   ...failingNotice,
   id: 72,
   to: 'saltmarsh.orders@example.com',
@@ -45,7 +46,7 @@ const waitingNotice = {
   createdAt: minutesAgo(1),
   nextAttemptAt: minutesAgo(1),
 };
-const sentNotice = {
+const sentNotice: OutboxMessage = {
   ...waitingNotice,
   id: 70,
   to: 'elmstead.orders@example.com',
@@ -58,7 +59,7 @@ const sentNotice = {
   nextAttemptAt: null,
 };
 
-function releaseWith(notice: typeof failingNotice, supplierCode: string, supplierName: string) {
+function releaseWith(notice: OutboxMessage, supplierCode: string, supplierName: string) {
   return {
     number: `R261202-${supplierCode}`,
     supplierCode,
