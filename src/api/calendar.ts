@@ -1,12 +1,15 @@
-import type { Calendar } from '@shared/schemas/master-data';
+import type { Calendar, VersionedCalendar } from '@shared/schemas/master-data';
 import { http } from './http';
 
 /** The plant calendar: working ISO weekdays (1 = Monday) and holiday dates. */
-export function fetchCalendar(signal?: AbortSignal): Promise<Calendar> {
-  return http.get<Calendar>('/calendar', { signal });
+export function fetchCalendar(signal?: AbortSignal): Promise<VersionedCalendar> {
+  return http.get<VersionedCalendar>('/calendar', { signal });
 }
 
-/** Replaces the whole calendar (admin, planner); bad input rejects with a 400 ApiError carrying zod issues. */
-export function saveCalendar(calendar: Calendar): Promise<Calendar> {
-  return http.put<Calendar>('/calendar', calendar);
+/**
+ * Replaces the whole calendar (admin, planner) as it was shown (`version`); bad input rejects with
+ * a 400 ApiError carrying zod issues, a change someone made first with 409 `stale`.
+ */
+export function saveCalendar(calendar: Calendar, version: string): Promise<VersionedCalendar> {
+  return http.put<VersionedCalendar>('/calendar', calendar, { ifMatch: version });
 }

@@ -26,6 +26,19 @@ export class ApiError extends Error {
     }
     return byField;
   }
+
+  /** True when the change was made on a copy someone else changed first (409 `stale`). */
+  get isStale(): boolean {
+    return this.status === 409 && this.code === 'stale';
+  }
+
+  /** The state as it is now that a 409 `stale` carries in `details[0].current`, if any. */
+  staleCurrent<T>(): T | undefined {
+    if (!this.isStale) return undefined;
+    const first = this.details[0];
+    if (typeof first !== 'object' || first === null || !('current' in first)) return undefined;
+    return (first as { current: T }).current;
+  }
 }
 
 interface FieldIssue {
@@ -48,6 +61,11 @@ export interface RequestOptions {
   signal?: AbortSignal;
   /** Extra request headers, e.g. an `Idempotency-Key` that makes a POST safe to retry. */
   headers?: Record<string, string>;
+  /**
+   * The `version` of the representation this change was made on, sent as `If-Match`: the server
+   * refuses the change with 409 `stale` when someone else changed it first.
+   */
+  ifMatch?: string;
   /**
    * For calls made without a session (sign-in): no token is sent and a 401 means
    * "wrong credentials", not "session over".
@@ -162,6 +180,7 @@ async function send(
 ): Promise<Response> {
   const { query, signal, anonymous = false } = options;
   const headers: Record<string, string> = { ...options.headers, Accept: init.accept };
+  if (options.ifMatch !== undefined) headers['If-Match'] = `"${options.ifMatch}"`;
   if (init.body !== undefined) headers['Content-Type'] = 'application/json';
   const token = anonymous ? null : readToken();
   if (token) headers.Authorization = `Bearer ${token}`;

@@ -24,9 +24,13 @@ export function getLoop(id: number, signal?: AbortSignal): Promise<KanbanLoop> {
   return http.get<KanbanLoop>(`/kanban/loops/${id}`, { signal });
 }
 
-/** Changes container quantity, safety allowance or sizing window; bad fields reject with a 400 carrying zod issues. */
-export function updateLoop(id: number, patch: UpdateKanbanLoopRequest): Promise<KanbanLoop> {
-  return http.patch<KanbanLoop>(`/kanban/loops/${id}`, patch);
+/**
+ * Changes container quantity, safety allowance or sizing window of the loop as it was shown
+ * (`version`); bad fields reject with a 400 carrying zod issues, a change someone made first
+ * with 409 `stale` carrying the loop as it is.
+ */
+export function updateLoop(id: number, patch: UpdateKanbanLoopRequest, version: string): Promise<KanbanLoop> {
+  return http.patch<KanbanLoop>(`/kanban/loops/${id}`, patch, { ifMatch: version });
 }
 
 /**

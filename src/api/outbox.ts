@@ -1,9 +1,19 @@
-import type { CapturedMail, OutboxMessage } from '@shared/schemas/outbox';
+import type { CapturedMail, OutboxHealth, OutboxMessage } from '@shared/schemas/outbox';
 import { http } from './http';
 
 /** The newest outgoing notices and their delivery state (admin). */
 export function listOutbox(signal?: AbortSignal): Promise<OutboxMessage[]> {
   return http.get<OutboxMessage[]>('/outbox', { signal });
+}
+
+/** How many notices wait and fail, and since when the oldest failing one fails (admin). */
+export function getOutboxHealth(signal?: AbortSignal): Promise<OutboxHealth> {
+  return http.get<OutboxHealth>('/outbox/health', { signal });
+}
+
+/** Tries a waiting or failing notice again at once and answers it as it now stands (admin). */
+export function sendOutboxMessageAgain(id: number): Promise<OutboxMessage> {
+  return http.post<OutboxMessage>(`/outbox/${id}/send-again`);
 }
 
 /**

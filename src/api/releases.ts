@@ -16,6 +16,14 @@ export function resendRelease(number: string): Promise<Release> {
   return http.post<Release>(`/releases/${encodeURIComponent(number)}/resend`);
 }
 
+/**
+ * Tries the release's latest e-mail again at once, with the same link (for one the mail server
+ * has not taken yet); unlike `resendRelease` it issues no new link.
+ */
+export function sendReleaseNoticeAgain(number: string): Promise<Release> {
+  return http.post<Release>(`/releases/${encodeURIComponent(number)}/notice/send-again`);
+}
+
 /** Calls a release off before anything is received. */
 export function cancelRelease(number: string): Promise<Release> {
   return http.post<Release>(`/releases/${encodeURIComponent(number)}/cancel`);
@@ -31,7 +39,10 @@ export function getReleaseJobSettings(): Promise<ReleaseJobSettings> {
   return http.get<ReleaseJobSettings>('/releases/settings');
 }
 
-/** Sets the daily release job's time (HH:MM, plant time); admin only. */
-export function putReleaseJobSettings(jobTime: string): Promise<ReleaseJobSettings> {
-  return http.put<ReleaseJobSettings>('/releases/settings', { jobTime });
+/**
+ * Sets the daily release job's time (HH:MM, plant time) on the settings as they were shown
+ * (`version`); admin only. A change someone made first rejects with 409 `stale`.
+ */
+export function putReleaseJobSettings(jobTime: string, version: string): Promise<ReleaseJobSettings> {
+  return http.put<ReleaseJobSettings>('/releases/settings', { jobTime }, { ifMatch: version });
 }

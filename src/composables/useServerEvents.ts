@@ -1,4 +1,4 @@
-import { getCurrentInstance, onBeforeUnmount, onMounted, readonly, ref, type Ref } from 'vue';
+import { computed, getCurrentInstance, onBeforeUnmount, onMounted, reactive, readonly, ref, type Ref } from 'vue';
 import { ApiError, requestRaw } from '@/api/http';
 
 /** One server-sent event: its name (`message` when none is given) and its data lines joined. */
@@ -65,6 +65,18 @@ export class EventStreamParser {
 
 const FIRST_RETRY_MS = 1000;
 const MAX_RETRY_MS = 30_000;
+/** After a 429 (too many open streams for this user) the stream waits this long before asking again. */
+export const PAUSED_RETRY_MS = 3 * 60_000;
+
+// Streams the server refused for now (429); shared by every screen so the shell can say so once.
+let nextStreamId = 0;
+const pausedStreams = reactive(new Set<number>());
+const liveUpdatesPaused = computed(() => pausedStreams.size > 0);
+
+/** True while a screen's live updates wait because too many Cardloop windows are open. */
+export function useLiveUpdatesPaused(): Readonly<Ref<boolean>> {
+  return liveUpdatesPaused;
+}
 
 /** Names of the version events `GET /api/events` sends. */
 export type VersionEventName = 'planning' | 'dock';
@@ -90,6 +102,7 @@ export function useVersionEvents(eventName: VersionEventName, onChange: (version
   let retryTimer: ReturnType<typeof setTimeout> | null = null;
   let retryMs = FIRST_RETRY_MS;
   let stopped = false;
+  const streamId = nextStreamId++;
 
   function receive(event: ServerSentEvent): void {
     if (event.event !== eventName) return;
@@ -111,6 +124,7 @@ export function useVersionEvents(eventName: VersionEventName, onChange: (version
       const response = await requestRaw('/events', { accept: 'text/event-stream', signal: controller.signal });
       if (!response.body) throw new ApiError(0, 'no_stream', 'The browser cannot read the event stream.');
       connected.value = true;
+      pausedStreams.delete(streamId);
       retryMs = FIRST_RETRY_MS;
       const reader = response.body.pipeThrough(new TextDecoderStream()).getReader();
       const parser = new EventStreamParser();
@@ -124,24 +138,34 @@ export function useVersionEvents(eventName: VersionEventName, onChange: (version
       // 401/403: the session is over or the role may not listen; retrying cannot help.
       if (cause instanceof ApiError && (cause.status === 401 || cause.status === 403)) {
         stopped = true;
+        pausedStreams.delete(streamId);
+      }
+      // 429: too many windows of this user listen already; asking again soon only adds load.
+      if (cause instanceof ApiError && cause.status === 429) {
+        pausedStreams.add(streamId);
+        scheduleReconnect(PAUSED_RETRY_MS);
+        return;
       }
     } finally {
       connected.value = false;
     }
+    // A stream that ended (the server closes it when the session ends) reconnects soon: if the
+    // session is over, that next request answers 401 and signs this browser out.
     scheduleReconnect();
   }
 
-  function scheduleReconnect(): void {
+  function scheduleReconnect(delayMs?: number): void {
     if (stopped) return;
     retryTimer = setTimeout(() => {
       retryTimer = null;
       void connect();
-    }, retryMs);
-    retryMs = Math.min(retryMs * 2, MAX_RETRY_MS);
+    }, delayMs ?? retryMs);
+    if (delayMs === undefined) retryMs = Math.min(retryMs * 2, MAX_RETRY_MS);
   }
 
   function stop(): void {
     stopped = true;
+    pausedStreams.delete(streamId);
     if (retryTimer) clearTimeout(retryTimer);
     retryTimer = null;
     controller?.abort();

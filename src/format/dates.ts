@@ -97,3 +97,14 @@ export function formatDateTime(value: string | Date | null, options: { year?: bo
   const day = isoDateOf(instant);
   return `${options.year ? formatDate(day) : formatDay(day)} ${formatTime(instant)}`;
 }
+
+/**
+ * `14:05` for a timestamp of today, `Tue 1 Dec 14:05` for one of another day: how a person says
+ * when something happened or will, in this computer's time zone; blank for none.
+ */
+export function formatWhen(value: string | Date | null, now = new Date()): string {
+  if (!value) return '';
+  const instant = toInstant(value);
+  if (!instant) return String(value);
+  return isoDateOf(instant) === isoDateOf(now) ? formatTime(instant) : formatDateTime(instant);
+}

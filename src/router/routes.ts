@@ -14,6 +14,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Confirm release', public: true, bare: true },
   },
   {
+    path: '/reset-password/:token',
+    name: 'reset-password',
+    component: () => import('@/views/PasswordResetView.vue'),
+    meta: { title: 'Set a new password', public: true, bare: true },
+  },
+  {
     path: '/',
     name: 'home',
     component: () => import('@/views/HomeView.vue'),

@@ -1,12 +1,19 @@
 import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
-import type { LoginRequest, Role, SessionUser } from '@shared/schemas/user';
+import type { ChangePasswordRequest, LoginRequest, Role, SessionUser } from '@shared/schemas/user';
 import * as authApi from '@/api/auth';
 import { ApiError, onUnauthorized } from '@/api/http';
 import { readToken, writeToken } from '@/api/session-token';
 
-/** Why the last session ended: the login page words its greeting from this. */
+/**
+ * Why the last session ended: the login page words its greeting from this. `expired`: the
+ * server stopped taking the token (signed out elsewhere, password changed, account changed by
+ * an administrator, or its time ran out).
+ */
 export type SessionEnd = 'signed-out' | 'expired';
+
+/** Sign-out waits this long for the server before forgetting the token anyway. */
+const LOGOUT_WAIT_MS = 5000;
 
 export const useAuthStore = defineStore('auth', () => {
   const token = ref<string | null>(readToken());
@@ -14,6 +21,7 @@ export const useAuthStore = defineStore('auth', () => {
   const loading = ref(false);
   const error = ref<ApiError | null>(null);
   const sessionEnd = ref<SessionEnd | null>(null);
+  const signingOut = ref(false);
 
   const isAuthenticated = computed(() => token.value !== null && user.value !== null);
   const role = computed<Role | null>(() => user.value?.role ?? null);
@@ -75,12 +83,34 @@ export const useAuthStore = defineStore('auth', () => {
     return pendingMe;
   }
 
-  function logout(): void {
-    endSession('signed-out');
+  /**
+   * Ends this session on the server, then forgets the token here. Offline, or when the server
+   * does not answer in time, the token is forgotten all the same: signing out never fails.
+   */
+  async function logout(): Promise<void> {
+    if (signingOut.value) return;
+    signingOut.value = true;
+    try {
+      await authApi.logout(AbortSignal.timeout(LOGOUT_WAIT_MS));
+    } catch {
+      // The server may be unreachable or the session already over; this browser signs out anyway.
+    } finally {
+      signingOut.value = false;
+      endSession('signed-out');
+    }
   }
 
-  // A 401 on any call after sign-in means the token expired or was revoked.
-  onUnauthorized(() => endSession('expired'));
+  /** Changes the password; other sessions end, this one stays. Rethrows the ApiError for the form. */
+  function changePassword(request: ChangePasswordRequest): Promise<void> {
+    return authApi.changePassword(request);
+  }
+
+  // A 401 on any call after sign-in means the server ended the session; a sign-out under way
+  // already says why it ended.
+  onUnauthorized(() => {
+    if (signingOut.value || token.value === null) return;
+    endSession('expired');
+  });
 
   return {
     token,
@@ -88,12 +118,14 @@ export const useAuthStore = defineStore('auth', () => {
     loading,
     error,
     sessionEnd,
+    signingOut,
     isAuthenticated,
     role,
     hasRole,
     login,
     fetchMe,
     logout,
+    changePassword,
   };
 });
 

@@ -114,12 +114,26 @@ export const useLoopsStore = defineStore('loops', () => {
     });
   }
 
-  /** Saves loop settings; rethrows the ApiError so the form can place field messages. */
+  /**
+   * Saves settings of the loop as the list shows it; rethrows the ApiError so the form can place
+   * field messages. When someone changed the loop first (409 `stale`) the list shows it as it is now.
+   */
   async function update(id: number, patch: UpdateKanbanLoopRequest): Promise<KanbanLoop> {
+    const shown = loops.value.find((loop) => loop.id === id);
+    if (!shown) throw new ApiError(404, 'not_found', 'This loop is no longer in the list; refresh it.');
     return whileBusy(id, async () => {
-      const updated = await loopsApi.updateLoop(id, patch);
-      replaceLoop(updated);
-      return updated;
+      try {
+        const updated = await loopsApi.updateLoop(id, patch, shown.version);
+        replaceLoop(updated);
+        return updated;
+      } catch (cause) {
+        if (cause instanceof ApiError && cause.isStale) {
+          const current = cause.staleCurrent<KanbanLoop>();
+          if (current) replaceLoop(current);
+          else void fetchAll();
+        }
+        throw cause;
+      }
     });
   }
 

@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { CapturedMail, OutboxMessage } from '@shared/schemas/outbox';
+import type { CapturedMail, OutboxHealth, OutboxMessage } from '@shared/schemas/outbox';
 import { ApiError } from '@/api/http';
 import * as outboxApi from '@/api/outbox';
 import { useLatestRequest } from './latest-request';
@@ -14,11 +14,47 @@ export const useOutboxStore = defineStore('outbox', () => {
   /** True when the server runs no demo mail server (SMTP_URL points at a real one). */
   const capturedUnavailable = ref(false);
 
+  const health = ref<OutboxHealth | null>(null);
+  const { run: runHealth } = useLatestRequest();
+  /** Notices with a "send again" in flight, so their buttons spin and refuse a second click. */
+  const sendingIds = ref(new Set<number>());
+
   /** Loads the newest outgoing notices; a failure is kept in `error`. */
   function fetchOutbox(): Promise<void> {
     return run(outboxApi.listOutbox, (answer) => {
       messages.value = answer;
     });
+  }
+
+  /**
+   * Asks how many notices fail to reach the mail server (admin). Quiet: the banner it feeds is a
+   * side note, so a failed check keeps the last answer rather than raising an error of its own.
+   */
+  function checkHealth(): Promise<void> {
+    return runHealth(
+      outboxApi.getOutboxHealth,
+      (answer) => {
+        health.value = answer;
+      },
+      { quiet: true },
+    );
+  }
+
+  /** Tries one notice again now and swaps in its new state; rethrows the ApiError for the view. */
+  async function sendAgain(id: number): Promise<OutboxMessage> {
+    sendingIds.value.add(id);
+    try {
+      const updated = await outboxApi.sendOutboxMessageAgain(id);
+      messages.value = messages.value.map((message) => (message.id === id ? updated : message));
+      void checkHealth();
+      return updated;
+    } finally {
+      sendingIds.value.delete(id);
+    }
+  }
+
+  function isSending(id: number): boolean {
+    return sendingIds.value.has(id);
   }
 
   /** Loads what the demo mail server caught; a 404 means there is none, not a failure. */
@@ -47,7 +83,11 @@ export const useOutboxStore = defineStore('outbox', () => {
     capturedLoading,
     capturedError,
     capturedUnavailable,
+    health,
     fetchOutbox,
     fetchCaptured,
+    checkHealth,
+    sendAgain,
+    isSending,
   };
 });

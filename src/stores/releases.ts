@@ -20,7 +20,11 @@ export interface ReleasesFilter {
   date: string;
 }
 
-export type ReleaseAction = 'accept' | 'resend' | 'cancel';
+/**
+ * What a buyer can do with a release. `resend` mails a new link (the old one stops working);
+ * `send-notice` tries the e-mail not yet taken by the mail server again, with the same link.
+ */
+export type ReleaseAction = 'accept' | 'resend' | 'cancel' | 'send-notice';
 
 export const useReleasesStore = defineStore('releases', () => {
   const releases = ref<Release[]>([]);
@@ -79,9 +83,10 @@ export const useReleasesStore = defineStore('releases', () => {
     accept: releasesApi.acceptReleaseException,
     resend: releasesApi.resendRelease,
     cancel: releasesApi.cancelRelease,
+    'send-notice': releasesApi.sendReleaseNoticeAgain,
   };
 
-  /** Accepts, resends or cancels a release; rethrows the ApiError (409 when it moved on meanwhile). */
+  /** Accepts, resends, cancels or re-mails a release; rethrows the ApiError (409 when it moved on meanwhile). */
   async function act(number: string, action: ReleaseAction): Promise<Release> {
     busyNumbers.value.add(number);
     try {
@@ -101,10 +106,23 @@ export const useReleasesStore = defineStore('releases', () => {
     jobSettings.value = await releasesApi.getReleaseJobSettings();
   }
 
-  /** Saves the job time; rethrows the ApiError so the popover can show it. */
+  /**
+   * Saves the job time on the settings as shown; rethrows the ApiError so the popover can show
+   * it. When someone changed the time first (409 `stale`) the settings shown become theirs.
+   */
   async function saveJobTime(jobTime: string): Promise<ReleaseJobSettings> {
-    jobSettings.value = await releasesApi.putReleaseJobSettings(jobTime);
-    return jobSettings.value;
+    if (!jobSettings.value) await fetchJobSettings();
+    try {
+      jobSettings.value = await releasesApi.putReleaseJobSettings(jobTime, jobSettings.value!.version);
+      return jobSettings.value;
+    } catch (cause) {
+      if (cause instanceof ApiError && cause.isStale) {
+        const current = cause.staleCurrent<ReleaseJobSettings>();
+        if (current) jobSettings.value = current;
+        else await fetchJobSettings().catch(() => undefined);
+      }
+      throw cause;
+    }
   }
 
   const exceptionCount = computed(() => exceptions.value.length);

@@ -7,9 +7,11 @@ import {
   type SequenceDay,
   type SequenceSettings,
   type SequenceUnit,
+  type VersionedSequenceSettings,
 } from '@shared/schemas/sequence';
 import { reorderDay, type PlannedMove } from '@shared/domain/sequence';
 import * as sequenceApi from '@/api/sequence';
+import { ApiError } from '@/api/http';
 import { useLatestRequest } from './latest-request';
 
 export const useSequenceStore = defineStore('sequence', () => {
@@ -18,6 +20,8 @@ export const useSequenceStore = defineStore('sequence', () => {
   const loaded = ref(false);
   const { loading, error, run } = useLatestRequest();
   const saving = ref(false);
+  /** The settings with their version, loaded when the planner opens them. */
+  const settings = ref<VersionedSequenceSettings | null>(null);
   // Changes made here since a load started; a load that started before one would show the old order.
   let changeCount = 0;
 
@@ -66,9 +70,11 @@ export const useSequenceStore = defineStore('sequence', () => {
         ),
       ),
     );
+    // Every day the move touches, as the board showed it: the server refuses the move if one changed.
+    const basedOn = before.map((day) => ({ date: day.date, version: day.version }));
     saving.value = true;
     try {
-      const saved = await sequenceApi.resequenceDays(planned.orders, allowFrozen);
+      const saved = await sequenceApi.resequenceDays(planned.orders, basedOn, allowFrozen);
       replaceDays(saved.days);
     } catch (cause) {
       replaceDays(before);
@@ -104,14 +110,32 @@ export const useSequenceStore = defineStore('sequence', () => {
     }
   }
 
-  /** Saves the frozen window and capacity, then reloads the board whose flags depend on them. */
-  async function saveSettings(settings: SequenceSettings): Promise<SequenceSettings> {
+  /** Loads the frozen window and capacity with their version; rethrows the ApiError for the dialog. */
+  async function loadSettings(): Promise<VersionedSequenceSettings> {
+    settings.value = await sequenceApi.fetchSettings();
+    return settings.value;
+  }
+
+  /**
+   * Saves the frozen window and capacity as the planner saw them, then reloads the board whose
+   * flags depend on them. Rethrows the ApiError; when someone changed them first (409 `stale`)
+   * the settings and the board shown become the current ones.
+   */
+  async function saveSettings(next: SequenceSettings): Promise<SequenceSettings> {
     saving.value = true;
     try {
-      const saved = await sequenceApi.saveSettings(settings);
+      const version = settings.value?.version ?? (await loadSettings()).version;
+      settings.value = await sequenceApi.saveSettings(next, version);
       changeCount += 1;
       await loadBoard();
-      return saved;
+      return settings.value;
+    } catch (cause) {
+      if (cause instanceof ApiError && cause.isStale) {
+        settings.value = cause.staleCurrent<VersionedSequenceSettings>() ?? null;
+        changeCount += 1;
+        await Promise.all([settings.value ? undefined : loadSettings().catch(() => undefined), loadBoard()]);
+      }
+      throw cause;
     } finally {
       saving.value = false;
     }
@@ -134,7 +158,9 @@ export const useSequenceStore = defineStore('sequence', () => {
     models,
     modelOrder,
     unitCount,
+    settings,
     loadBoard,
+    loadSettings,
     touchesFrozen,
     move,
     addUnit,

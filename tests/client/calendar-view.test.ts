@@ -10,7 +10,7 @@ import CalendarMonth from '@/components/CalendarMonth.vue';
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
 const viewer: SessionUser = { email: 'viewer@example.com', name: 'Vi Viewer', role: 'viewer', supplierCode: null };
 
-const STORED = { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2030-12-25'] };
+const STORED = { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2030-12-25'], version: 'cal-v1' };
 
 // ISO 8601 numbers the days of the week Monday = 1 … Sunday = 7 (from memory); the numbers here
 // come from date-fns (getISODay), a general-purpose date library, for seven days in a row.
@@ -61,6 +61,34 @@ describe('CalendarView', () => {
     // PRODUCT.md's `GET|PUT /api/calendar` takes ISO weekday numbers.
     expect(lastPutBody(fetchMock)).toEqual({ workingWeekdays: expected, holidays: ['2030-12-25'] });
     expect(fetchMock.mock.calls.at(-1)![0]).toBe('/api/calendar');
+  });
+
+  it('saves on the version shown; when someone saved first, shows their calendar and says so', async () => {
+    const { wrapper, fetchMock } = await openCalendar(planner);
+    const theirs = { workingWeekdays: [1, 2, 3, 4, 5, 6], holidays: ['2030-12-25', '2030-12-26'], version: 'cal-v2' };
+    fetchMock.mockResolvedValueOnce(
+      jsonResponse(409, {
+        error: { code: 'stale', message: 'Changed by someone else.', details: [{ current: theirs }] },
+      }),
+    );
+
+    await weekdayBox(wrapper, 'Friday').setValue(false);
+    getButton(wrapper.element, 'Save calendar').click();
+    await flushPromises();
+
+    const put = fetchMock.mock.calls.find(([, init]) => init?.method === 'PUT')!;
+    expect((put[1]!.headers as Record<string, string>)['If-Match']).toBe('"cal-v1"');
+    expect(wrapper.text()).toContain(
+      'The plant calendar was changed by someone else first. The screen now shows their version',
+    );
+    expect((weekdayBox(wrapper, 'Friday').element as HTMLInputElement).checked).toBe(true);
+    expect((weekdayBox(wrapper, 'Saturday').element as HTMLInputElement).checked).toBe(true);
+    expect(
+      wrapper
+        .findAll('button')
+        .find((button) => button.text() === 'Save calendar')!
+        .attributes('disabled'),
+    ).toBeDefined();
   });
 
   it('adds a holiday from the list to the saved body in date order', async () => {

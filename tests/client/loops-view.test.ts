@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { Check, Minus, Plus } from '@element-plus/icons-vue';
@@ -180,6 +180,39 @@ describe('LoopsView', () => {
     expect(JSON.parse(String(init?.body))).toEqual({ expectedRecommended: 5 });
     await vi.waitFor(() => expect(document.body.textContent).toContain(reason));
     expect(callsTo(fetchMock, 'GET', '/api/kanban/loops')).toHaveLength(2);
+  });
+
+  it('saves an edit on the version shown; when someone changed the loop first, shows theirs and says so', async () => {
+    const theirs = loopOf({ version: 'v2', containerQty: 12 });
+    const fetchMock = stubApi({
+      'GET /api/kanban/loops': () => jsonResponse(200, [loopOf()]),
+      'GET /api/suppliers': () => jsonResponse(200, []),
+      'PATCH /api/kanban/loops/45': () =>
+        jsonResponse(409, {
+          error: { code: 'stale', message: 'Changed by someone else.', details: [{ current: theirs }] },
+        }),
+    });
+    const wrapper = await openLoops();
+
+    wrapper.get('[aria-label="Edit loop ACT-DK36"]').trigger('click');
+    await flushPromises();
+    const dialog = document.body.querySelector<HTMLElement>('[role="dialog"][aria-label="Edit loop ACT-DK36"]')!;
+    const containerInput = getByLabel(dialog, 'Container quantity (C)') as HTMLInputElement;
+    containerInput.value = '20';
+    containerInput.dispatchEvent(new Event('input'));
+    containerInput.dispatchEvent(new Event('change'));
+    await flushPromises();
+    getButton(dialog, 'Save loop').click();
+    await vi.waitFor(() => expect(callsTo(fetchMock, 'PATCH', '/api/kanban/loops/45')).toHaveLength(1));
+    await flushPromises();
+
+    const [, init] = callsTo(fetchMock, 'PATCH', '/api/kanban/loops/45')[0]!;
+    expect(JSON.parse(String(init?.body))).toEqual({ containerQty: 20 });
+    expect((init?.headers as Record<string, string>)['If-Match']).toBe('"v1"');
+    expect(dialog.textContent).toContain(
+      'Loop ACT-DK36 was changed by someone else first. The screen now shows their version',
+    );
+    expect(containerInput.value).toBe('12');
   });
 
   it('offers Accept and Edit to a buyer but not to a viewer', async () => {

@@ -1,6 +1,7 @@
 import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
+import type { OutboxMessage } from '@shared/schemas/outbox';
 import type { Release, ReleaseLine } from '@shared/schemas/releases';
 import type { SessionUser } from '@shared/schemas/user';
 import ReleasesView from '@/views/ReleasesView.vue';
@@ -222,6 +223,146 @@ describe('ReleasesView', () => {
     expect(wrapper.text()).not.toContain('Run releases now');
     expect(wrapper.find('[aria-label="Actions for R261201-FBS"]').exists()).toBe(false);
     expect(wrapper.get('.releases-table tr.el-table__row').text()).toContain('R261201-FBS');
+  });
+});
+
+describe('release e-mails', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+    confirmBox.mockClear();
+  });
+
+  /** 00:05 today on this computer's clock: shown as a time alone, being today. */
+  function earlyToday(): string {
+    const instant = new Date();
+    instant.setHours(0, 5, 0, 0);
+    return instant.toISOString();
+  }
+
+  const notice = (overrides: Partial<OutboxMessage>): OutboxMessage => ({
+    id: 9,
+    to: 'orders@example.net',
+    subject: 'Release R261201-FBS',
+    status: 'sent',
+    ref: 'release:R261201-FBS',
+    attempts: 1,
+    lastError: null,
+    createdAt: earlyToday(),
+    sentAt: earlyToday(),
+    firstFailedAt: null,
+    nextAttemptAt: null,
+    ...overrides,
+  });
+  const failingNotice = notice({
+    status: 'failing',
+    attempts: 2,
+    sentAt: null,
+    firstFailedAt: earlyToday(),
+    lastError: 'connect ECONNREFUSED 127.0.0.1:2525',
+    nextAttemptAt: '2026-01-01T00:00:00.000Z',
+  });
+
+  function emailCell(wrapper: Awaited<ReturnType<typeof openReleases>>, number: string): string {
+    const row = wrapper
+      .findAll('.releases-table tr.el-table__row')
+      .find((candidate) => candidate.text().includes(number));
+    return row!.get('.outbox-status').text();
+  }
+
+  it('says for each release whether its e-mail was sent, waits or fails', async () => {
+    stubApi({
+      'GET /api/releases': listAnswer([
+        release({ number: 'R261201-AAA', notice: notice({}) }),
+        release({ number: 'R261201-BBB', notice: notice({ status: 'pending', attempts: 0, sentAt: null }) }),
+        release({ number: 'R261201-CCC', notice: failingNotice }),
+      ]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null, version: 'j1' }),
+    });
+
+    const wrapper = await openReleases();
+
+    expect(emailCell(wrapper, 'R261201-AAA')).toBe('E-mail sent 00:05');
+    expect(emailCell(wrapper, 'R261201-BBB')).toBe('E-mail waiting');
+    expect(emailCell(wrapper, 'R261201-CCC')).toBe('E-mail failing since 00:05 — retrying');
+  });
+
+  it('tries an unsent e-mail again with the same link, apart from resending with a new link', async () => {
+    const failing = release({ number: 'R261201-FBS', notice: failingNotice });
+    const fetchMock = stubApi({
+      'GET /api/releases': listAnswer([failing]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null, version: 'j1' }),
+      'POST /api/releases/R261201-FBS/notice/send-again': () =>
+        jsonResponse(200, { ...failing, notice: notice({ attempts: 3 }) }),
+    });
+    const wrapper = await openReleases();
+
+    (document.querySelector('[aria-label="Actions for R261201-FBS"]') as HTMLElement).click();
+    await flushPromises();
+    const items = [...document.querySelectorAll('[role="menuitem"]')].map((item) => item.textContent?.trim());
+    expect(items).toEqual(
+      expect.arrayContaining(['Send e-mail again (same link)', 'Resend with a new link', 'Cancel release']),
+    );
+    const sendAgain = [...document.querySelectorAll('[role="menuitem"]')].find(
+      (item) => item.textContent?.trim() === 'Send e-mail again (same link)',
+    ) as HTMLElement;
+    sendAgain.click();
+    await flushPromises();
+
+    expect(confirmBox).not.toHaveBeenCalled();
+    const posts = fetchMock.mock.calls.filter(([, init]) => init?.method === 'POST').map(([input]) => String(input));
+    expect(posts).toEqual(['/api/releases/R261201-FBS/notice/send-again']);
+    expect(emailCell(wrapper, 'R261201-FBS')).toBe('E-mail sent 00:05');
+    expect(document.body.textContent).toContain('The e-mail for R261201-FBS has reached the mail server.');
+  });
+
+  it('offers no e-mail retry once the mail server took it', async () => {
+    stubApi({
+      'GET /api/releases': listAnswer([release({ number: 'R261201-FBS', notice: notice({}) })]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null, version: 'j1' }),
+    });
+    await openReleases();
+
+    (document.querySelector('[aria-label="Actions for R261201-FBS"]') as HTMLElement).click();
+    await flushPromises();
+
+    const items = [...document.querySelectorAll('[role="menuitem"]')].map((item) => item.textContent?.trim());
+    expect(items).not.toContain('Send e-mail again (same link)');
+    expect(items).toContain('Resend with a new link');
+  });
+
+  it('sends the job time on the version shown, and shows the time someone else saved first', async () => {
+    const fetchMock = stubApi({
+      'GET /api/releases': listAnswer([]),
+      'GET /api/releases/settings': () => jsonResponse(200, { jobTime: '06:00', lastRunDate: null, version: 'j1' }),
+      'PUT /api/releases/settings': () =>
+        jsonResponse(409, {
+          error: {
+            code: 'stale',
+            message: 'Changed by someone else.',
+            details: [{ current: { jobTime: '07:00', lastRunDate: null, version: 'j2' } }],
+          },
+        }),
+    });
+    const wrapper = await openReleases(demoUsers.admin);
+
+    getButton(wrapper.element, 'Daily run 06:00').click();
+    // The popover starts from the stored time once it has opened.
+    await vi.waitFor(() => expect(wrapper.findComponent({ name: 'ElTimeSelect' }).props('modelValue')).toBe('06:00'));
+    wrapper.findComponent({ name: 'ElTimeSelect' }).vm.$emit('update:modelValue', '05:15');
+    await flushPromises();
+    getButton(document.body, 'Save').click();
+    await flushPromises();
+
+    const [, init] = fetchMock.mock.calls.find(([, candidate]) => candidate?.method === 'PUT')!;
+    expect(JSON.parse(String(init!.body))).toEqual({ jobTime: '05:15' });
+    expect((init!.headers as Record<string, string>)['If-Match']).toBe('"j1"');
+    expect(document.body.textContent).toContain(
+      'The release job time was changed by someone else first. The screen now shows their version',
+    );
+    expect(getButton(wrapper.element, 'Daily run 07:00')).toBeTruthy();
+    expect(wrapper.findComponent({ name: 'ElTimeSelect' }).props('modelValue')).toBe('07:00');
   });
 });
 

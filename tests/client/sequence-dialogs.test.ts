@@ -152,9 +152,12 @@ describe('SequenceSettingsDialog', () => {
     vi.unstubAllGlobals();
   });
 
-  it('starts from the board’s settings and saves the new ones', async () => {
+  it('starts from the stored settings and saves the new ones on that version', async () => {
     const fetchMock = stubApi({
-      'PUT /api/sequence/settings': () => jsonResponse(200, { frozenWindowDays: 5, dailyCapacity: 24 }),
+      'GET /api/sequence/settings': () =>
+        jsonResponse(200, { frozenWindowDays: 1, dailyCapacity: 24, version: 'settings-v1' }),
+      'PUT /api/sequence/settings': () =>
+        jsonResponse(200, { frozenWindowDays: 5, dailyCapacity: 24, version: 'settings-v2' }),
       'GET /api/sequence': () => jsonResponse(200, board),
     });
     const context = await createAppContext({ user: planner, path: '/sequence' });
@@ -173,5 +176,58 @@ describe('SequenceSettingsDialog', () => {
     await vi.waitFor(() => expect(wrapper.emitted('saved')).toHaveLength(1));
 
     expect(bodiesOf(fetchMock, 'PUT', '/api/sequence/settings')).toEqual([{ frozenWindowDays: 5, dailyCapacity: 24 }]);
+    expect(ifMatchOf(fetchMock, '/api/sequence/settings')).toEqual(['"settings-v1"']);
+  });
+
+  it('shows the settings someone else saved first, says so, and saves on their version next', async () => {
+    const theirs = { frozenWindowDays: 4, dailyCapacity: 30, version: 'settings-v2' };
+    let refused = false;
+    const fetchMock = stubApi({
+      'GET /api/sequence/settings': () =>
+        jsonResponse(200, { frozenWindowDays: 1, dailyCapacity: 24, version: 'settings-v1' }),
+      'PUT /api/sequence/settings': () => {
+        if (refused) return jsonResponse(200, { frozenWindowDays: 6, dailyCapacity: 30, version: 'settings-v3' });
+        refused = true;
+        return jsonResponse(409, {
+          error: { code: 'stale', message: 'Changed by someone else.', details: [{ current: theirs }] },
+        });
+      },
+      'GET /api/sequence': () => jsonResponse(200, { ...board, frozenWindowDays: 4, dailyCapacity: 30 }),
+    });
+    const context = await createAppContext({ user: planner, path: '/sequence' });
+    useSequenceStore().board = board;
+    const wrapper = await mountInApp(SequenceSettingsDialog, context, { props: { modelValue: false } });
+    await wrapper.setProps({ modelValue: true });
+    await flushPromises();
+    const dialog = document.body.querySelector<HTMLElement>('[role="dialog"]')!;
+    const frozenInput = getByLabel(dialog, 'Frozen window (working days)') as HTMLInputElement;
+
+    type(frozenInput, '5');
+    frozenInput.dispatchEvent(new Event('change'));
+    await flushPromises();
+    getButton(dialog, 'Save settings').click();
+    await vi.waitFor(() => expect(dialog.textContent).toContain('was changed by someone else first'));
+    await flushPromises();
+
+    expect(dialog.textContent).toContain('The screen now shows their version');
+    expect(frozenInput.value).toBe('4');
+    expect((getByLabel(dialog, 'Daily capacity (units)') as HTMLInputElement).value).toBe('30');
+    expect(wrapper.emitted('saved')).toBeUndefined();
+    expect(useSequenceStore().board?.dailyCapacity).toBe(30);
+
+    type(frozenInput, '6');
+    frozenInput.dispatchEvent(new Event('change'));
+    await flushPromises();
+    getButton(dialog, 'Save settings').click();
+    await vi.waitFor(() => expect(wrapper.emitted('saved')).toHaveLength(1));
+    expect(ifMatchOf(fetchMock, '/api/sequence/settings')).toEqual(['"settings-v1"', '"settings-v2"']);
   });
 });
+
+function ifMatchOf(fetchMock: ReturnType<typeof stubApi>, pathname: string): (string | undefined)[] {
+  return fetchMock.mock.calls
+    .filter(
+      ([input, init]) => init?.method === 'PUT' && new URL(String(input), 'http://localhost').pathname === pathname,
+    )
+    .map(([, init]) => (init?.headers as Record<string, string>)['If-Match']);
+}

@@ -208,7 +208,9 @@ describe('SequenceView', () => {
 
     await chooseFromMenu('S3', 'Move down');
 
-    expect(putBodies(fetchMock)).toEqual([{ days: [{ date: FULL, serials: ['S4', 'S3', 'S5'] }] }]);
+    expect(putBodies(fetchMock)).toEqual([
+      { days: [{ date: FULL, serials: ['S4', 'S3', 'S5'] }], basedOn: [{ date: FULL, version: `v-${FULL}` }] },
+    ]);
     expect(serialsOn(wrapper, FULL)).toEqual(['S4', 'S3', 'S5']);
     expect(
       column(wrapper, FULL)
@@ -232,6 +234,11 @@ describe('SequenceView', () => {
           { date: OPEN, serials: ['S5', 'S6'] },
           { date: FULL, serials: ['S3', 'S4'] },
         ],
+        // Both days the move touches, as the board showed them: the unit leaves one and joins the other.
+        basedOn: [
+          { date: FULL, version: `v-${FULL}` },
+          { date: OPEN, version: `v-${OPEN}` },
+        ],
       },
     ]);
     expect(serialsOn(wrapper, OPEN)).toEqual(['S5', 'S6']);
@@ -253,7 +260,11 @@ describe('SequenceView', () => {
     await vi.waitFor(() => expect(putBodies(fetchMock)).toHaveLength(1));
 
     expect(afterNo).toBe(0);
-    expect(putBodies(fetchMock)[0]).toEqual({ days: [{ date: FROZEN, serials: ['S2', 'S1'] }], allowFrozen: true });
+    expect(putBodies(fetchMock)[0]).toEqual({
+      days: [{ date: FROZEN, serials: ['S2', 'S1'] }],
+      basedOn: [{ date: FROZEN, version: `v-${FROZEN}` }],
+      allowFrozen: true,
+    });
     await flushPromises();
     expect(serialsOn(wrapper, FROZEN)).toEqual(['S2', 'S1']);
   });
@@ -272,6 +283,51 @@ describe('SequenceView', () => {
     await vi.waitFor(() => expect(document.body.textContent).toContain(`The move was not saved: ${reason}`));
     expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
     expect(serialsOn(wrapper, OPEN)).toEqual(['S6']);
+  });
+
+  it('says who changed a day first when the move was made on a stale board, and shows the board as it is now', async () => {
+    // The day as another planner left it: S5 moved to the front.
+    const current = boardOf();
+    const changedDay = day(FULL, [
+      ['S5', 'M-B'],
+      ['S3', 'M-A'],
+      ['S4', 'M-A'],
+    ]);
+    current.days[1] = { ...changedDay, version: 'v-changed' };
+    const changedAt = new Date(2026, 11, 4, 14, 5).toISOString();
+    let moved = false;
+    const fetchMock = stubApi({
+      'GET /api/sequence': () => jsonResponse(200, moved ? current : boardOf()),
+      'PUT /api/sequence/days': () => {
+        moved = true;
+        return jsonResponse(409, {
+          error: {
+            code: 'stale',
+            message: 'Fri 2026-12-04 changed since your board was loaded.',
+            details: [
+              { days: [current.days[1]], lastChange: { by: 'Ada Admin', at: changedAt, action: 'resequence' } },
+            ],
+          },
+        });
+      },
+    });
+    const wrapper = await openSequence();
+
+    await chooseFromMenu('S3', 'Move down');
+    await flushPromises();
+
+    const alert = wrapper.get('[role="alert"]');
+    expect(alert.text()).toContain('Someone changed these days first');
+    expect(alert.text()).toContain(
+      'Fri 4 Dec has changed since your board was loaded. Ada Admin changed it at Fri 4 Dec 14:05.',
+    );
+    expect(alert.text()).toContain('The board now shows the current order');
+    expect(serialsOn(wrapper, FULL)).toEqual(['S5', 'S3', 'S4']);
+    const boardLoads = fetchMock.mock.calls.filter(
+      ([input, init]) =>
+        (init?.method ?? 'GET') === 'GET' && new URL(String(input), 'http://localhost').pathname === '/api/sequence',
+    );
+    expect(boardLoads).toHaveLength(2);
   });
 
   it('shows other roles the board without grips, menus or the add button', async () => {

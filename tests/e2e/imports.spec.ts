@@ -77,7 +77,8 @@ test.describe('imports', () => {
     await signIn(page, 'admin@example.com');
     await page.getByRole('navigation').getByRole('link', { name: 'Outbox' }).click();
     await expect(page.getByRole('heading', { name: 'Outbox', level: 1 })).toBeVisible();
-    await expect(page.getByRole('columnheader', { name: 'Last error' })).toBeVisible();
+    // Delivery holds the attempts, since when a notice fails, its last error and the next try.
+    await expect(page.getByRole('columnheader', { name: 'Delivery' })).toBeVisible();
 
     await page.getByRole('tab', { name: 'Captured by the demo mail server' }).click();
     await expect(page.getByRole('tab', { name: 'Captured by the demo mail server' })).toHaveAttribute(
