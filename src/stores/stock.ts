@@ -60,7 +60,8 @@ export const useStockStore = defineStore('stock', () => {
       items.value = items.value.map((item) =>
         item.partNumber === result.partNumber ? { ...item, onHand: result.onHand, negative: result.onHand < 0 } : item,
       );
-      await reloadLedger();
+      // A count also clears "count due", which only the server's list knows how to judge.
+      await Promise.all([reloadLedger(), loaded.value ? loadList({ quiet: true }) : undefined]);
       return result;
     } finally {
       saving.value = false;

@@ -3,6 +3,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { StockItem, StockLedger } from '@shared/schemas/stock';
 import type { SessionUser } from '@shared/schemas/user';
+import AppPartLink from '@/components/AppPartLink.vue';
 import StockCountDialog from '@/components/StockCountDialog.vue';
 import StockScrapDialog from '@/components/StockScrapDialog.vue';
 import StockPartView from '@/views/StockPartView.vue';
@@ -184,6 +185,32 @@ describe('StockView', () => {
     const wrapper = await mountInApp(StockView, context);
 
     expect(wrapper.get('a.app-part-link').attributes('href')).toBe('/stock/BRM-04');
+  });
+});
+
+describe('AppPartLink', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+  });
+
+  it('links a part to its stock page, but shows a supplier, who may not read stock, the plain number', async () => {
+    const supplier: SessionUser = {
+      email: 'contact@example.net',
+      name: 'Sam Supplier',
+      role: 'supplier',
+      supplierCode: 'FBS',
+    };
+    const asBuyer = await mountInApp(AppPartLink, await createAppContext({ user: buyer }), {
+      props: { partNumber: 'BAT/6 V' },
+    });
+    const asSupplier = await mountInApp(AppPartLink, await createAppContext({ user: supplier, path: '/releases' }), {
+      props: { partNumber: 'BAT/6 V' },
+    });
+
+    expect(asBuyer.get('a').attributes('href')).toBe('/stock/BAT%2F6%20V');
+    expect(asSupplier.find('a').exists()).toBe(false);
+    expect(asSupplier.text()).toBe('BAT/6 V');
   });
 });
 

@@ -78,6 +78,10 @@ test.describe('Line end', () => {
     await expect(lineEnd.feedback()).toHaveClass(/is-info/);
     await expect(lineEnd.builtCount()).toHaveText(`${builtBefore + 2} of ${unitCount} built`);
     await screenshots(page, 'line-end');
+    // The line's own tablet, held landscape.
+    await page.setViewportSize({ width: 1024, height: 768 });
+    await page.screenshot({ path: 'test-results/line-end-tablet.png', animations: 'disabled' });
+    await page.setViewportSize({ width: 1440, height: 900 });
 
     const kitDialog = await lineEnd.openKit(first!);
     await expect(kitDialog.getByRole('img', { name: `QR code of serial ${first}` })).toBeVisible();
@@ -146,5 +150,61 @@ test.describe('Line end', () => {
     await expect(page.getByRole('heading', { name: 'Stock', level: 1 })).toBeVisible();
     await expect(page.locator('[data-test="stock-summary"]')).toBeVisible();
     await screenshots(page, 'stock');
+  });
+
+  test('a line operator added by the admin reports a unit, issues the next kit and may undo only its own build', async ({
+    page,
+    request,
+  }) => {
+    const admin = await tokenOf(request, 'admin@example.com');
+    const operator = { email: 'line.operator@example.com', name: 'Lina Operator', password: 'line-operator-2026' };
+    const created = await request.post('/api/users', {
+      headers: { Authorization: `Bearer ${admin}` },
+      data: { ...operator, role: 'line' },
+    });
+    expect(created.status()).toBe(201);
+    const planner = await tokenOf(request, 'planner@example.com');
+    const login = new LoginPage(page);
+    await login.open();
+    await login.signIn(operator.email, operator.password);
+    await expect(page).toHaveURL(/\/$/);
+
+    await expect(page.getByText('You report each unit built as it leaves the line')).toBeVisible();
+    await expect(page.getByRole('navigation', { name: 'Main' }).getByRole('link')).toHaveText([
+      'Overview',
+      'Build sequence',
+      'Line end',
+      'Stock',
+    ]);
+    await screenshots(page, 'home-line');
+    const lineEnd = new LineEndPage(page);
+    await lineEnd.open();
+    const [plannerUnit, lineUnit, kitUnit] = await lineEnd.plannedSerials();
+    // The planner reports the day's next unit first, so the line's "Undo last" later reaches a build not its own.
+    const plannerBuild = await request.post('/api/builds', {
+      headers: { Authorization: `Bearer ${planner}`, 'Idempotency-Key': `e2e-${plannerUnit}` },
+      data: { serial: plannerUnit },
+    });
+    expect(plannerBuild.status()).toBe(201);
+    await expect(lineEnd.unit(plannerUnit!)).toContainText('Built');
+
+    await lineEnd.report(lineUnit!);
+    await expect(lineEnd.feedback()).toContainText(`${lineUnit} reported built`);
+    const kit = await lineEnd.openKit(kitUnit!);
+    await kit.getByRole('button', { name: 'Issue kit' }).click();
+    await expect(kit.locator('[data-test="kit-sheet"] [data-test="unit-status"]')).toHaveText('Started');
+    await kit.getByRole('button', { name: 'Close', exact: true }).click();
+    await expect(lineEnd.unit(kitUnit!)).toContainText('Started');
+
+    await lineEnd.undoLast('Scanned the wrong unit');
+    await expect(lineEnd.feedback()).toContainText(`${lineUnit} undone`);
+    await page.getByRole('button', { name: `Undo last (${plannerUnit})` }).click();
+    const undo = page.getByRole('dialog', { name: `Undo ${plannerUnit}?` });
+    await undo.getByRole('button', { name: 'Undo build' }).click();
+    await expect(undo.locator('[data-test="undo-refusal"]')).toContainText('30 minutes');
+    await screenshots(page, 'line-end-undo-refused', false);
+    await undo.getByRole('button', { name: 'Keep it built' }).click();
+    await expect(lineEnd.unit(plannerUnit!)).toContainText('Built');
+    await expect(page.getByRole('button', { name: 'Close the day' })).toHaveCount(0);
   });
 });
