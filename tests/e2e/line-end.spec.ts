@@ -207,4 +207,31 @@ test.describe('Line end', () => {
     await expect(lineEnd.unit(plannerUnit!)).toContainText('Built');
     await expect(page.getByRole('button', { name: 'Close the day' })).toHaveCount(0);
   });
+
+  test('a buyer counts a part due a count: the difference is posted and the flag goes', async ({ page, request }) => {
+    const buyer = await tokenOf(request, 'buyer@example.com');
+    const stock = await getJson<StockItem[]>(request, buyer, '/api/stock');
+    const due = stock.find((item) => item.countDue && !item.negative && item.onHand > 2)!;
+    const login = new LoginPage(page);
+    await login.open();
+    await login.signIn('buyer@example.com', DEMO_PASSWORD);
+    await expect(page).toHaveURL(/\/$/);
+    const stockPage = new StockPartPage(page);
+
+    await stockPage.open(due.partNumber);
+    await expect(page.locator('[data-test="stock-flag"]')).toHaveText(['Count due']);
+    await page.getByRole('button', { name: 'Record a count' }).click();
+    const count = page.getByRole('dialog', { name: `Record a count of ${due.partNumber}` });
+    await count.getByLabel(/^Counted/).fill(String(due.onHand - 2));
+    await count.getByLabel(/^Reason/).fill('Cycle count');
+    await expect(count.locator('[data-test="count-difference"]')).toContainText('Adjustment: −2');
+    await screenshots(page, 'stock-count', false);
+    await count.getByRole('button', { name: 'Record count' }).click();
+
+    await expect(count).toBeHidden();
+    await expect.poll(() => stockPage.onHand()).toBe(due.onHand - 2);
+    await expect(stockPage.movements().first()).toContainText('Count adjustment');
+    await expect(stockPage.movements().first()).toContainText('Cycle count');
+    await expect(page.locator('[data-test="stock-flag"]')).toHaveCount(0);
+  });
 });
