@@ -25,7 +25,7 @@ export const ROLE_DUTIES: Record<Role, string> = {
   planner: 'You own the build sequence: import and edit it, freeze the next days and watch which units are at risk.',
   buyer: 'You keep parts, suppliers and bills of materials, read demand ahead, size kanban loops and send releases.',
   receiving: 'You check deliveries in at the dock, record counts and discrepancies, and move stock to the line.',
-  line: 'You report each unit built at the end of the line, so its parts come off stock, and bring each unit its kit.',
+  line: 'You report each unit built as it leaves the line, so its parts come off stock; you open and print each unit’s kit, and record parts scrapped at the line.',
   supplier: 'You see your own releases and forecast and confirm what you will ship and when.',
   viewer: 'You can read plans, loops and deliveries; changes are made by the people who own them.',
 };

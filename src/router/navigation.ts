@@ -2,6 +2,8 @@ import { markRaw, type Component } from 'vue';
 import {
   Aim,
   Calendar,
+  Finished,
+  Goods,
   House,
   Medal,
   Message,
@@ -16,6 +18,7 @@ import {
 } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { RouteName } from './route-map';
+import { LINE_END_ROLES, STOCK_ROLES } from './routes';
 
 export interface NavigationEntry {
   routeName: RouteName;
@@ -39,8 +42,24 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'sequence',
     label: 'Build sequence',
     icon: markRaw(Sort),
-    roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'],
-    summary: 'Units by day and position: drag to resequence, watch capacity and the model mix, keep the frozen window.',
+    roles: ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'],
+    summary:
+      'Units by day and position, planned, started or built: drag to resequence, watch capacity and the model mix, keep the frozen window.',
+  },
+  {
+    routeName: 'line-end',
+    label: 'Line end',
+    icon: markRaw(Finished),
+    roles: LINE_END_ROLES,
+    summary:
+      'Scan each unit as it comes off the line so its parts come off stock; see the day tick off, undo a mistake, print kits.',
+  },
+  {
+    routeName: 'stock',
+    label: 'Stock',
+    icon: markRaw(Goods),
+    roles: STOCK_ROLES,
+    summary: 'On-hand of every part with its ledger of receipts, builds, counts and scrap; parts to count are flagged.',
   },
   {
     routeName: 'line-risk',

@@ -12,6 +12,10 @@ export interface RouteNamedMap {
   home: RouteRecordInfo<'home', '/', NoParams, NoParams>;
   'line-risk': RouteRecordInfo<'line-risk', '/line-risk', NoParams, NoParams>;
   sequence: RouteRecordInfo<'sequence', '/sequence', NoParams, NoParams>;
+  'line-end': RouteRecordInfo<'line-end', '/line-end', NoParams, NoParams>;
+  'line-end-kits': RouteRecordInfo<'line-end-kits', '/line-end/kits', NoParams, NoParams>;
+  stock: RouteRecordInfo<'stock', '/stock', NoParams, NoParams>;
+  'stock-part': RouteRecordInfo<'stock-part', '/stock/:partNumber', { partNumber: string }, { partNumber: string }>;
   horizon: RouteRecordInfo<'horizon', '/horizon', NoParams, NoParams>;
   loops: RouteRecordInfo<'loops', '/loops', NoParams, NoParams>;
   releases: RouteRecordInfo<'releases', '/releases', NoParams, NoParams>;

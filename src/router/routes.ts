@@ -1,4 +1,10 @@
 import type { RouteRecordRaw } from 'vue-router';
+import type { Role } from '@shared/schemas/user';
+
+/** Reporting units built at the end of the line (the server's rule for builds). */
+export const LINE_END_ROLES: readonly Role[] = ['admin', 'planner', 'line'];
+/** Stock and kits are read by everyone signed in except suppliers. */
+export const STOCK_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
 
 export const routes: RouteRecordRaw[] = [
   {
@@ -35,7 +41,31 @@ export const routes: RouteRecordRaw[] = [
     path: '/sequence',
     name: 'sequence',
     component: () => import('@/views/SequenceView.vue'),
-    meta: { title: 'Build sequence', roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'] },
+    meta: { title: 'Build sequence', roles: ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'] },
+  },
+  {
+    path: '/line-end',
+    name: 'line-end',
+    component: () => import('@/views/BuildsView.vue'),
+    meta: { title: 'Line end', roles: LINE_END_ROLES },
+  },
+  {
+    path: '/line-end/kits',
+    name: 'line-end-kits',
+    component: () => import('@/views/BuildsKitsView.vue'),
+    meta: { title: 'Kit sheets', roles: STOCK_ROLES },
+  },
+  {
+    path: '/stock',
+    name: 'stock',
+    component: () => import('@/views/StockView.vue'),
+    meta: { title: 'Stock', roles: STOCK_ROLES },
+  },
+  {
+    path: '/stock/:partNumber',
+    name: 'stock-part',
+    component: () => import('@/views/StockPartView.vue'),
+    meta: { title: 'Part stock', roles: STOCK_ROLES },
   },
   {
     path: '/horizon',

@@ -125,6 +125,24 @@ describe('HorizonView', () => {
     expect(document.body.textContent).toContain('Battery 6 V 225 Ah');
   });
 
+  it('says in the drill-down that the scrap allowance is added when ordering, and links the part to its stock', async () => {
+    stubApi({
+      '/api/demand': () => jsonResponse(200, demand),
+      '/api/suppliers': () => jsonResponse(200, []),
+      '/api/plan': () => jsonResponse(200, plan),
+    });
+
+    await openHorizon('/horizon?part=BAT-06-225');
+    await vi.waitFor(() => expect(document.body.querySelector('[data-test="scrap-note"]')).not.toBeNull());
+
+    const note = document.body.querySelector('[data-test="scrap-note"]')!;
+    expect(note.textContent).toContain('added when ordering, not when consuming');
+    expect(note.querySelector('a')?.getAttribute('href')).toBe('/stock/BAT-06-225');
+    expect(document.body.querySelector('.horizon-part-drawer__title a')?.getAttribute('href')).toBe(
+      '/stock/BAT-06-225',
+    );
+  });
+
   it('reports a failed load with a Retry that asks again', async () => {
     let calls = 0;
     const fetchMock = stubApi({

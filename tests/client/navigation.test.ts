@@ -14,6 +14,8 @@ describe('navigationFor', () => {
     expect(names).toEqual([
       'home',
       'sequence',
+      'line-end',
+      'stock',
       'line-risk',
       'horizon',
       'loops',
@@ -40,6 +42,20 @@ describe('navigationFor', () => {
     const names = navigationFor('supplier').map((entry) => entry.routeName);
 
     expect(names).toEqual(['home', 'releases']);
+  });
+
+  // Role rules from PRODUCT.md, "Second round": the line reports units built; stock is read by
+  // everyone but suppliers.
+  it('offers the line its end of the line, the sequence to read and stock', () => {
+    const names = navigationFor('line').map((entry) => entry.routeName);
+
+    expect(names).toEqual(['home', 'sequence', 'line-end', 'stock']);
+  });
+
+  it('offers the Line end only to the roles that may report units built', () => {
+    const roles = ROLES.filter((role) => navigationFor(role).some((entry) => entry.routeName === 'line-end'));
+
+    expect(roles.sort()).toEqual(['admin', 'line', 'planner']);
   });
 
   it('offers nothing when nobody is signed in', () => {
@@ -72,6 +88,7 @@ describe('AppShellNav', () => {
     expect(nav.findAll('a').map((link) => link.text())).toEqual([
       'Overview',
       'Build sequence',
+      'Stock',
       'Line risk',
       'Horizon',
       'Loops',
@@ -93,6 +110,8 @@ describe('AppShellNav', () => {
     expect(links.map((link) => link.text())).toEqual([
       'Overview',
       'Build sequence',
+      'Line end',
+      'Stock',
       'Line risk',
       'Horizon',
       'Loops',
