@@ -3,8 +3,9 @@ import { backflush, bomByParent, type BackflushPart, type BomByParent } from '..
 import { isEffective } from '../../shared/domain/bom';
 import { roundQty } from '../../shared/domain/quantity';
 import type { IsoDate, PartSource, PlanningBomLine } from '../../shared/domain/types';
-import type { BuildResponse, CloseDayResponse, CloseDaySettings, Kit, UnitStatus } from '../../shared/schemas/builds';
+import type { BuildResponse, CloseDayResponse, CloseDaySettings, Kit } from '../../shared/schemas/builds';
 import { recordAudit } from '../audit/audit.service';
+import { bumpPlanningVersion } from '../settings/versions';
 import type { Database } from '../db/database';
 import { chunks } from '../db/upsert';
 import { ConflictError, ForbiddenError, NotFoundError } from '../errors';
@@ -182,9 +183,11 @@ export class BuildsService {
           entity: 'sequence-unit',
           entityKey: serial,
         });
+        // The sequence is a planning input; open boards and line-end screens show the new status.
+        await bumpPlanningVersion(manager);
         entry.status = 'started';
       }
-      return { serial, status: entry.status as UnitStatus, builtAt: entry.builtAt, movements: [] };
+      return { serial, status: entry.status, builtAt: entry.builtAt, movements: [] };
     });
   }
 
@@ -314,7 +317,7 @@ export class BuildsService {
         modelDescription: partByNumber.get(entry.model)?.description ?? '',
         date: entry.date,
         sequence: entry.sequence,
-        status: entry.status as UnitStatus,
+        status: entry.status,
         pointsOfUse,
       };
     });

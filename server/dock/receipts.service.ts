@@ -160,8 +160,8 @@ export class ReceiptsService {
         kind: 'receipt',
         userEmail: actor.email,
         reason: `Release ${release.number}${stored.discrepancy ? ` (${stored.discrepancy})` : ''}`,
-        refType: 'release-line',
-        ref: String(line.id),
+        refType: 'release',
+        ref: release.number,
       },
     ]);
     const onHandAfter = movement?.balanceAfter ?? onHandBefore;

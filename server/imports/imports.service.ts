@@ -72,7 +72,9 @@ const IMPORTERS: Record<ImportKind, Importer> = {
   },
   schedule: async (manager, table, today) => {
     const parts = await manager.find(PartEntity, { select: { partNumber: true, source: true } });
-    const existing = await manager.find(SequenceEntryEntity, { select: { date: true, sequence: true, serial: true } });
+    const existing = await manager.find(SequenceEntryEntity, {
+      select: { date: true, sequence: true, serial: true, model: true, qty: true, status: true },
+    });
     const { entries, problems } = checkScheduleRows(table, {
       parts: new Map(parts.map((part) => [part.partNumber, { source: part.source as Part['source'] }])),
       existing,

@@ -2,6 +2,8 @@ import { isoWeekday, WorkingCalendar } from '../../shared/domain/calendar';
 import { fromDayNumber, toDayNumber } from '../../shared/domain/date';
 import type { IsoDate, PlantCalendar } from '../../shared/domain/types';
 import { IMPORT_DEFAULTS, scheduleRowSchema } from '../../shared/schemas/imports';
+import { unitChangeProblem } from '../../shared/domain/sequence';
+import type { UnitStatus } from '../../shared/schemas/builds';
 import { sequenceEntrySchema, type Part, type SequenceEntry } from '../../shared/schemas/master-data';
 import type { CsvTable } from './csv';
 import { isComplete, KeyRegister, parseRows, RowProblems } from './import-rows';
@@ -15,8 +17,11 @@ export const SCHEDULE_YEARS_AHEAD = 2;
 export interface ScheduleContext {
   /** Part number → source of every part on file; a model must be an end item. */
   parts: ReadonlyMap<string, Pick<Part, 'source'>>;
-  /** The sequence as it stands, to find positions a row would take from a unit not in the file. */
-  existing: readonly Pick<SequenceEntry, 'date' | 'sequence' | 'serial'>[];
+  /**
+   * The sequence as it stands, to find positions a row would take from a unit not in the file and
+   * units already at the line (started or built) that a row would change.
+   */
+  existing: readonly (SequenceEntry & { status: UnitStatus })[];
   calendar: PlantCalendar;
   today: IsoDate;
 }
@@ -67,6 +72,7 @@ export function checkScheduleRows(
 
   const movingSerials = new Set(parsed.map((row) => row.values.serial).filter((serial) => serial !== undefined));
   const staying = new Map<string, string>();
+  const bySerial = new Map(context.existing.map((entry) => [entry.serial, entry]));
   for (const entry of context.existing) {
     if (!movingSerials.has(entry.serial)) staying.set(`${entry.sequence} on ${entry.date}`, entry.serial);
   }
@@ -99,6 +105,12 @@ export function checkScheduleRows(
       serial: cells.serial,
       qty: cells.qty ?? DEFAULTS.qty,
     };
+    const current = bySerial.get(record.serial);
+    const locked = current ? unitChangeProblem(current, record) : null;
+    if (locked) {
+      problems.add(row.line, 'serial', locked);
+      continue;
+    }
     const checked = sequenceEntrySchema.safeParse(record);
     if (checked.success) entries.push(checked.data);
     else problems.addDomainIssues(row.line, checked.error.issues, record);

@@ -3,8 +3,7 @@ import type { LineRiskPart, LoopSupply } from '../../shared/domain/line-risk';
 import type { ScheduledReceipt } from '../../shared/domain/types';
 import type { KanbanLoop } from '../../shared/schemas/loops';
 import { EXPECTED_ARRIVAL, loadPlanInputs, type PlanInputs } from '../planning/plan-inputs';
-import { readSetting } from '../settings/settings';
-import { COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS } from '../stock/stock.service';
+import { readCountDue } from '../stock/stock.service';
 
 /**
  * Release states whose open lines the line risk counts on: the supplier has confirmed them (or
@@ -32,23 +31,18 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS partNumber, ${EXPECTED_ARRIVAL} 
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-const DETAILS_SQL = `SELECT p.part_number AS partNumber, p.hazardous AS hazardous, s.name AS supplierName,
-  p.last_counted_at AS lastCountedAt,
-  (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number) AS firstMovementAt
+const DETAILS_SQL = `SELECT p.part_number AS partNumber, p.hazardous AS hazardous, s.name AS supplierName
   FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code`;
 
 interface DetailRow {
   partNumber: string;
   hazardous: boolean | number;
   supplierName: string | null;
-  lastCountedAt: string | null;
-  firstMovementAt: string | null;
 }
 
 /**
  * Reads the plan inputs, the firm receipts, the kanban loops as supply and the part details; the
- * caller runs it in one snapshot. A part is due a count when its on-hand is negative or its last
- * count (or, never counted, the opening of its ledger) is older than the plant's count interval.
+ * caller runs it in one snapshot.
  */
 export async function loadLineRiskInputs(
   manager: EntityManager,
@@ -58,22 +52,15 @@ export async function loadLineRiskInputs(
   const inputs = await loadPlanInputs(manager);
   const firmReceipts: ScheduledReceipt[] = await manager.query(FIRM_LINES_SQL);
   const rows: DetailRow[] = await manager.query(DETAILS_SQL);
-  const interval = await readSetting<number>(manager, COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS);
-  const dueBefore = new Date(now.getTime() - interval * 86_400_000).toISOString();
+  const countDue = await readCountDue(manager, now);
   const details = new Map(
     rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]),
   );
-  const lastCounted = new Map(rows.map((row) => [row.partNumber, row.lastCountedAt ?? row.firstMovementAt]));
-  const parts = inputs.parts.map((part) => {
-    const counted = lastCounted.get(part.partNumber);
-    return {
-      ...part,
-      replenishment: part.replenishment as LineRiskPart['replenishment'],
-      countDue:
-        part.source !== 'end_item' &&
-        (part.onHand < 0 || (counted !== null && counted !== undefined && counted < dueBefore)),
-    };
-  });
+  const parts = inputs.parts.map((part) => ({
+    ...part,
+    replenishment: part.replenishment as LineRiskPart['replenishment'],
+    countDue: countDue.has(part.partNumber),
+  }));
   const supplies: LoopSupply[] = loops
     .filter((loop) => loop.partIsKanban)
     .map((loop) => ({

@@ -1,3 +1,4 @@
+import type { UnitStatus } from '../../shared/schemas/builds';
 import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 
 /** One unit slot of the daily build sequence, keyed by its serial. */
@@ -25,7 +26,7 @@ export class SequenceEntryEntity {
 
   /** planned, started (its kit was issued) or built (its components were backflushed). */
   @Column({ type: 'varchar', length: 10, default: 'planned' })
-  status: string;
+  status: UnitStatus;
 
   @Column({ name: 'started_at', type: 'varchar', length: 30, nullable: true })
   startedAt: string | null;

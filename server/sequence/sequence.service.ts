@@ -2,7 +2,6 @@ import { Between, In, type EntityManager } from 'typeorm';
 import { addWorkingDays, nextWorkingDay, workingDaysBetween } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
 import type { IsoDate } from '../../shared/domain/types';
-import type { UnitStatus } from '../../shared/schemas/builds';
 import {
   DEFAULT_BOARD_WORKING_DAYS,
   type AddSequenceUnitRequest,
@@ -19,7 +18,7 @@ import { AuditEventEntity } from '../audit/audit-event.entity';
 import { recordAudit } from '../audit/audit.service';
 import { UserEntity } from '../users/user.entity';
 import { readCalendar } from '../calendar/calendar.service';
-import { dayLoad } from '../../shared/domain/sequence';
+import { dayLoad, unitChangeProblem } from '../../shared/domain/sequence';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { PartEntity } from '../master-data/part.entity';
 import { plantToday } from '../planning/plan-dates';
@@ -52,7 +51,7 @@ function toUnit(entry: SequenceEntryEntity): SequenceUnit {
     model: entry.model,
     serial: entry.serial,
     qty: entry.qty,
-    status: entry.status as UnitStatus,
+    status: entry.status,
     builtAt: entry.builtAt,
   };
 }
@@ -288,6 +287,19 @@ export class SequenceService {
       if (changed.length === 0) return { days: [] };
 
       this.checkDates(rules, request, changed, before, after);
+      const locked = changed.flatMap((date) =>
+        after.get(date)!.flatMap((serial, index) => {
+          const entry = bySerial.get(serial)!;
+          const problem = unitChangeProblem(toUnit(entry), { ...toUnit(entry), date, sequence: index + 1 });
+          const dayIndex = request.days.findIndex((day) => day.date === date);
+          return problem ? [{ path: ['days', Math.max(dayIndex, 0), 'serials'], message: problem }] : [];
+        }),
+      );
+      if (locked.length > 0)
+        throw new ConflictError(
+          `Units at the line stay put: ${locked.map((issue) => issue.message).join('; ')}.`,
+          locked,
+        );
       const frozen = changed.filter((date) => rules.isFrozen(date));
       if (frozen.length > 0 && !request.allowFrozen) throw frozenWindowError(rules, frozen);
       const capacity = rules.settings.dailyCapacity;
@@ -422,6 +434,8 @@ export class SequenceService {
       const rules = await this.rules(manager);
       const entry = await manager.findOneBy(SequenceEntryEntity, { serial });
       if (!entry) throw new NotFoundError(`No unit with serial ${serial} in the sequence.`);
+      const locked = unitChangeProblem(toUnit(entry), null);
+      if (locked) throw new ConflictError(`${locked[0].toUpperCase()}${locked.slice(1)}.`);
       if (rules.isFrozen(entry.date) && !allowFrozen) throw frozenWindowError(rules, [entry.date]);
 
       await manager.delete(SequenceEntryEntity, { id: entry.id });

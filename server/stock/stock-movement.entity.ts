@@ -29,7 +29,7 @@ export class StockMovementEntity {
   @Column({ type: 'varchar', length: 200, nullable: true })
   reason: string | null;
 
-  /** What the movement belongs to: release-line, receipt, serial, count. */
+  /** What the movement belongs to: release (its number), serial, count. */
   @Column({ name: 'ref_type', type: 'varchar', length: 16, nullable: true })
   refType: string | null;
 

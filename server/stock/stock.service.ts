@@ -25,6 +25,27 @@ import { StockMovementEntity } from './stock-movement.entity';
 export const DEFAULT_COUNT_INTERVAL_DAYS = 90;
 export const COUNT_INTERVAL = 'stock.countIntervalDays';
 
+// A part never counted is judged from its first movement: opening stock counts as its first count.
+const COUNTED_SQL = `SELECT p.part_number AS partNumber, p.source AS source,
+  COALESCE(p.last_counted_at, (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number)) AS countedAt
+  FROM part p`;
+
+/**
+ * Which parts are due a count: no count (nor opening stock) within the plant's interval. End items
+ * are built, not stocked, so they are never due. A negative on-hand is its own flag.
+ */
+export async function readCountDue(manager: EntityManager, now = new Date()): Promise<Set<string>> {
+  const interval = await readSetting<number>(manager, COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS);
+  const dueBefore = new Date(now.getTime() - interval * 86_400_000).toISOString();
+  const rows: { partNumber: string; source: string; countedAt: string | null }[] = await manager.query(COUNTED_SQL);
+  return new Set(
+    rows
+      .filter((row) => row.source !== 'end_item')
+      .filter((row) => row.countedAt === null || row.countedAt < dueBefore)
+      .map((row) => row.partNumber),
+  );
+}
+
 /** The start of a plant day as an instant, for ledger date filters on stored timestamps. */
 function startOf(date: string): string {
   return new Date(`${date}T00:00:00`).toISOString();
@@ -132,8 +153,7 @@ export class StockService {
   /** Every part's on-hand with the reasons to count it (negative, not counted lately). */
   async list(now = new Date()): Promise<StockItem[]> {
     const manager = this.db.manager;
-    const interval = await readSetting<number>(manager, COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS);
-    const dueBefore = new Date(now.getTime() - interval * 86_400_000).toISOString();
+    const due = await readCountDue(manager, now);
     const parts = await manager.find(PartEntity, { order: { partNumber: 'ASC' } });
     return parts.map((part) => ({
       partNumber: part.partNumber,
@@ -145,7 +165,7 @@ export class StockService {
       onHand: part.onHand,
       lastCountedAt: part.lastCountedAt,
       negative: part.onHand < 0,
-      countDue: part.lastCountedAt === null || part.lastCountedAt < dueBefore,
+      countDue: due.has(part.partNumber),
     }));
   }
 

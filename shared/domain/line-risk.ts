@@ -51,7 +51,7 @@ export interface LineRiskPart extends PlanningPart {
   /** UN/ECE Rec. 20 unit code; countable units are never short by a fraction. */
   uom?: string;
   replenishment?: 'kanban' | 'scheduled' | null;
-  /** On-hand is negative or the part was not counted within the plant's interval. */
+  /** Not counted (nor opened in the ledger) within the plant's count interval. */
   countDue?: boolean;
 }
 

@@ -1,3 +1,4 @@
+import type { UnitStatus } from '../schemas/builds';
 import type { SequenceDay, SequenceUnit } from '../schemas/sequence';
 import type { IsoDate } from './types';
 
@@ -17,6 +18,39 @@ export function dayLoad(units: readonly { qty: number }[]): number {
   return units.reduce((sum, unit) => sum + unit.qty, 0);
 }
 
+/** A unit as it stands, and the place and content a change would give it. */
+export interface UnitPlace {
+  date: IsoDate;
+  sequence: number;
+  model: string;
+  qty: number;
+}
+
+/**
+ * Why a unit cannot change as asked, or null. A built unit is history: its parts were backflushed
+ * on that day, so it keeps its day, place, model and quantity and cannot be removed. A started unit
+ * has its kit at the line: it keeps its day, model and quantity but may change place within the day.
+ * `next` null means removal.
+ */
+export function unitChangeProblem(
+  unit: UnitPlace & { serial: string; status: UnitStatus },
+  next: UnitPlace | null,
+): string | null {
+  if (unit.status === 'planned') return null;
+  const what =
+    unit.status === 'built' ? `was built on ${unit.date}` : `was started on ${unit.date} (its kit is at the line)`;
+  if (next === null) return `unit '${unit.serial}' ${what}; reverse it at the line end before removing it`;
+  const changes = [
+    next.date !== unit.date && 'day',
+    unit.status === 'built' && next.sequence !== unit.sequence && 'place',
+    next.model !== unit.model && 'model',
+    next.qty !== unit.qty && 'quantity',
+  ].filter((change): change is string => change !== false);
+  return changes.length === 0
+    ? null
+    : `unit '${unit.serial}' ${what}; its ${new Intl.ListFormat('en').format(changes)} cannot change`;
+}
+
 /** One unit moving to a place on a day, with the day orders to send and the days it changes. */
 export interface PlannedMove {
   serial: string;
@@ -27,6 +61,21 @@ export interface PlannedMove {
   orders: DayOrder[];
   /** Days whose order changes: the target, and the day the unit leaves when that differs. */
   changedDates: string[];
+  /** Why the move cannot be saved (it would shift a built unit or carry off a started one), or null. */
+  problem: string | null;
+}
+
+/** The first unit the new day orders would change against its status, as unitChangeProblem words it. */
+export function ordersProblem(days: readonly SequenceDay[], orders: readonly DayOrder[]): string | null {
+  const units = new Map(days.flatMap((day) => day.units.map((unit) => [unit.serial, unit])));
+  for (const order of orders) {
+    for (const [index, serial] of order.serials.entries()) {
+      const unit = units.get(serial);
+      const problem = unit && unitChangeProblem(unit, { ...unit, date: order.date, sequence: index + 1 });
+      if (problem) return problem;
+    }
+  }
+  return null;
 }
 
 /** The day holding a serial, or undefined. */
@@ -54,26 +103,30 @@ export function planMove(
   if (from === to) {
     const unchanged = target.every((candidate, position) => candidate === from.units[position]?.serial);
     if (unchanged) return null;
+    const orders = [{ date: toDate, serials: target }];
     return {
       serial,
       fromDate: from.date,
       toDate,
       toIndex: index,
-      orders: [{ date: toDate, serials: target }],
+      orders,
       changedDates: [toDate],
+      problem: ordersProblem(days, orders),
     };
   }
+  // The target first: it is what the planner aimed at; the server takes both at once anyway.
+  const orders = [
+    { date: toDate, serials: target },
+    { date: from.date, serials: fromSerials },
+  ];
   return {
     serial,
     fromDate: from.date,
     toDate,
     toIndex: index,
-    // The target first: it is what the planner aimed at; the server takes both at once anyway.
-    orders: [
-      { date: toDate, serials: target },
-      { date: from.date, serials: fromSerials },
-    ],
+    orders,
     changedDates: [toDate, from.date],
+    problem: ordersProblem(days, orders),
   };
 }
 

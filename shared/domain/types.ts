@@ -28,7 +28,7 @@ export interface PlanningBomLine {
   parent: string;
   component: string;
   qtyPer: number;
-  /** Scrap allowance in percent: the component is issued at qtyPer × (1 + scrapPct / 100). */
+  /** Scrap allowance in percent: ordering plans qtyPer × (1 + scrapPct / 100); a build consumes qtyPer (scrap is posted when it happens). */
   scrapPct: number;
   effectiveFrom?: IsoDate | null;
   effectiveTo?: IsoDate | null;

@@ -66,9 +66,9 @@ function ledgerOf(partNumber = 'P-1'): StockLedger {
         qty: 8,
         balance: 40,
         userEmail: 'receiving@example.com',
-        reason: 'Release R1',
-        refType: 'release-line',
-        ref: '17',
+        reason: 'Release R261201-SUP1',
+        refType: 'release',
+        ref: 'R261201-SUP1',
       },
     ],
     closing: 40,
@@ -256,7 +256,7 @@ describe('StockPartView', () => {
         '34 pcs',
       ]);
       expect(rows[2]!.textContent).toContain('Unit SN1');
-      expect(rows[0]!.textContent).toContain('Release line 17');
+      expect(rows[0]!.textContent).toContain('Release R261201-SUP1');
       expect(wrapper.get('[data-test="part-on-hand"]').text()).toBe('40 pcs');
       expect(wrapper.text()).toContain('Count due');
       expect(wrapper.get('.stock-part-view__range-text').text()).toBe(

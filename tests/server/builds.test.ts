@@ -169,6 +169,64 @@ describe('DELETE /api/builds/:serial', () => {
   });
 });
 
+describe('units at the line stay put', () => {
+  const tomorrow = new Date(Date.parse(`${today}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
+  const resequence = (days: { date: string; serials: string[] }[]) =>
+    request(context.app)
+      .put('/api/sequence/days')
+      .set(bearer(context.tokens.planner))
+      .send({ days, allowFrozen: true });
+  const placeOf = async (serial: string) => {
+    const entry = await context.dataSource.getRepository(SequenceEntryEntity).findOneByOrFail({ serial });
+    return `${entry.date}#${entry.sequence}`;
+  };
+
+  it('keeps a built unit’s day and place, and keeps a started unit on its day, changing nothing when refused', async () => {
+    await build('SN1', 'key-1');
+    await request(context.app).post('/api/builds/SN2/start').set(bearer(context.tokens.line));
+
+    const aheadOfBuilt = await resequence([{ date: today, serials: ['SN3', 'SN1', 'SN2'] }]);
+    const startedAway = await resequence([
+      { date: today, serials: ['SN1', 'SN3'] },
+      { date: tomorrow, serials: ['SN2'] },
+    ]);
+    const removeBuilt = await request(context.app)
+      .delete('/api/sequence/units/SN1')
+      .query({ allowFrozen: true })
+      .set(bearer(context.tokens.planner));
+    const swapBehind = await resequence([{ date: today, serials: ['SN1', 'SN3', 'SN2'] }]);
+
+    expect(aheadOfBuilt.status).toBe(409);
+    expect(aheadOfBuilt.body.error.message).toContain("unit 'SN1' was built on");
+    expect(startedAway.status).toBe(409);
+    expect(startedAway.body.error.message).toContain("unit 'SN2' was started on");
+    expect(removeBuilt.status).toBe(409);
+    expect(removeBuilt.body.error.message).toContain('reverse it at the line end');
+    // A started unit may still change place within its day.
+    expect(swapBehind.status).toBe(200);
+    expect([await placeOf('SN1'), await placeOf('SN2'), await placeOf('SN3')]).toEqual([
+      `${today}#1`,
+      `${today}#3`,
+      `${today}#2`,
+    ]);
+  });
+
+  it('refuses a schedule import that would move or change a built unit, naming the row', async () => {
+    await build('SN1', 'key-1');
+
+    const upload = await request(context.app)
+      .post('/api/imports/schedule')
+      .set(bearer(context.tokens.planner))
+      .attach('file', Buffer.from(`date,sequence,model,serial,qty\n${tomorrow},1,M,SN1,1\n`), 'schedule.csv');
+
+    expect(upload.status).toBe(422);
+    expect(upload.body.error.details).toEqual([
+      expect.objectContaining({ row: 2, column: 'serial', message: expect.stringContaining('its day cannot change') }),
+    ]);
+    expect(await placeOf('SN1')).toBe(`${today}#1`);
+  });
+});
+
 describe('POST /api/builds/close-day', () => {
   it('builds every unit of the day not yet built, in sequence order, in one go, and only the planner may', async () => {
     await build('SN2', 'key-2');

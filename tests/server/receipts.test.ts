@@ -115,8 +115,8 @@ describe('POST /api/receipts', () => {
       kind: 'receipt',
       qty: 40,
       balance: 50,
-      refType: 'release-line',
-      ref: String(lines[0].id),
+      refType: 'release',
+      ref: release.number,
       userEmail: 'receiving@example.com',
     });
     expect(await lineOf(lines[0].id)).toMatchObject({ receivedQty: 40, closed: true });

@@ -19,6 +19,7 @@ beforeAll(async () => {
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
       testPart('WHEEL', { onHand: 40 }),
       testPart('GLUE', { uom: 'LTR', onHand: 2.5 }),
+      testPart('BOLT', { onHand: 0 }),
     ]);
     await replaceBomLines(manager, [
       { parent: 'M', component: 'WHEEL', qtyPer: 4, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
@@ -112,12 +113,22 @@ describe('the stock ledger', () => {
       .set('Idempotency-Key', 'flag-1')
       .send({ serial: 'FLAG-1' });
 
-    const list = await request(context.app).get('/api/stock').set(bearer(context.tokens.viewer));
+    // Counted 91 days ago: one day past the default 90-day interval.
+    const longAgo = new Date(Date.now() - 91 * 86_400_000).toISOString();
+    await context.db.write((manager) =>
+      manager.query('UPDATE part SET last_counted_at = ? WHERE part_number = ?', [longAgo, 'GLUE']),
+    );
 
-    const wheels = list.body.find((item: { partNumber: string }) => item.partNumber === 'WHEEL');
-    expect(wheels).toMatchObject({ onHand: -5, negative: true, countDue: false });
-    const model = list.body.find((item: { partNumber: string }) => item.partNumber === 'M');
-    expect(model).toMatchObject({ negative: false, countDue: true, lastCountedAt: null });
+    const list = await request(context.app).get('/api/stock').set(bearer(context.tokens.viewer));
+    const item = (partNumber: string) =>
+      list.body.find((entry: { partNumber: string }) => entry.partNumber === partNumber);
+
+    expect(item('WHEEL')).toMatchObject({ onHand: -5, negative: true, countDue: false });
+    expect(item('GLUE')).toMatchObject({ negative: false, countDue: true });
+    // No count and no ledger at all: nothing says what is on the shelf.
+    expect(item('BOLT')).toMatchObject({ negative: false, countDue: true, lastCountedAt: null });
+    // End items are built, not stocked.
+    expect(item('M')).toMatchObject({ negative: false, countDue: false, lastCountedAt: null });
   });
 });
 
