@@ -9,6 +9,7 @@ import { postMovements, type NewMovement } from '../server/stock/stock-ledger';
 import { upsertSequenceEntries } from '../server/sequence/sequence.writer';
 import { writeSetting } from '../server/settings/settings';
 import { UserEntity } from '../server/users/user.entity';
+import { PartEntity } from '../server/master-data/part.entity';
 import { SequenceEntryEntity } from '../server/sequence/sequence-entry.entity';
 import { backflush, bomByParent } from '../shared/domain/backflush';
 import { roundQty } from '../shared/domain/quantity';
@@ -68,6 +69,21 @@ async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario):
   await postMovements(manager, [...opening, ...unitMovements]);
   for (const [serial, at] of builtAt) {
     await manager.update(SequenceEntryEntity, { serial }, { status: 'built', builtAt: at });
+  }
+  await seedCountHistory(manager, scenario, opened);
+}
+
+/**
+ * The opening figures came from the plant's rolling cycle count, so each stocked part carries the
+ * date it was last counted: spread over the 80 days before the opening, which leaves a handful
+ * past the 90-day interval and due a count when the demo starts.
+ */
+async function seedCountHistory(manager: EntityManager, scenario: DemoScenario, opened: string): Promise<void> {
+  const stocked = scenario.parts.filter((part) => part.source !== 'end_item');
+  for (const [index, part] of stocked.entries()) {
+    const daysBefore = 1 + ((index * 37) % 80);
+    const countedAt = new Date(new Date(opened).getTime() - daysBefore * 86_400_000).toISOString();
+    await manager.update(PartEntity, { partNumber: part.partNumber }, { lastCountedAt: countedAt });
   }
 }
 
