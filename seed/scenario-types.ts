@@ -1,3 +1,4 @@
+import type { Supplier } from '../shared/schemas/master-data';
 import type { IsoDate, PartSource, PlantCalendar, Replenishment } from '../shared/domain/types';
 
 /** UN/ECE Recommendation 20 unit codes used by the demo: piece, kilogram, metre, litre. */
@@ -5,15 +6,7 @@ export type DemoUom = 'H87' | 'KGM' | 'MTR' | 'LTR';
 
 export type DemoRole = 'admin' | 'planner' | 'buyer' | 'receiving' | 'line' | 'viewer' | 'supplier';
 
-export interface DemoSupplier {
-  code: string;
-  name: string;
-  email: string;
-  leadTimeDays: number;
-  cycleDays: number;
-  deliveriesPerCycle: number;
-  deliveryDelay: number;
-}
+export type DemoSupplier = Supplier;
 
 export interface DemoPart {
   partNumber: string;

@@ -36,6 +36,13 @@ export class InvalidInputError extends AppError {
   }
 }
 
+/** Well-formed input that the plant's rules refuse (a ship date already past): 422 naming the field. */
+export class RefusedInputError extends AppError {
+  constructor(message: string, details?: unknown[], code = 'refused') {
+    super('rejected', code, message, details);
+  }
+}
+
 export class BadRequestError extends AppError {
   constructor(message: string, details?: unknown[]) {
     super('invalid', 'bad_request', message, details);

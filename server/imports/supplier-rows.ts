@@ -24,20 +24,49 @@ export function checkSupplierRows(
       name: cells.name,
       email: cells.email,
       leadTimeDays: cells.lead_time_days,
-      cycleDays: cellOrKept(row, 'cycle_days', cells.cycle_days, kept?.cycleDays, DEFAULTS.cycle_days),
-      deliveriesPerCycle: cellOrKept(
+      cycleDays: cellOrKept<number | null>(row, 'cycle_days', cells.cycle_days, kept?.cycleDays, DEFAULTS.cycle_days),
+      deliveriesPerCycle: cellOrKept<number | null>(
         row,
         'deliveries_per_cycle',
         cells.deliveries_per_cycle,
         kept?.deliveriesPerCycle,
         DEFAULTS.deliveries_per_cycle,
       ),
-      deliveryDelay: cellOrKept(
+      deliveryDelay: cellOrKept<number | null>(
         row,
         'delivery_delay',
         cells.delivery_delay,
         kept?.deliveryDelay,
         DEFAULTS.delivery_delay,
+      ),
+      transitDays: cellOrKept(row, 'transit_days', cells.transit_days, kept?.transitDays, DEFAULTS.transit_days),
+      deliveryWeekdays: cellOrKept(
+        row,
+        'delivery_weekdays',
+        cells.delivery_weekdays,
+        kept?.deliveryWeekdays,
+        DEFAULTS.delivery_weekdays,
+      ),
+      overTolerancePct: cellOrKept(
+        row,
+        'over_tolerance_pct',
+        cells.over_tolerance_pct,
+        kept?.overTolerancePct,
+        DEFAULTS.over_tolerance_pct,
+      ),
+      earlyToleranceDays: cellOrKept(
+        row,
+        'early_tolerance_days',
+        cells.early_tolerance_days,
+        kept?.earlyToleranceDays,
+        DEFAULTS.early_tolerance_days,
+      ),
+      lateToleranceDays: cellOrKept(
+        row,
+        'late_tolerance_days',
+        cells.late_tolerance_days,
+        kept?.lateToleranceDays,
+        DEFAULTS.late_tolerance_days,
       ),
     };
     const checked = supplierSchema.safeParse(record);

@@ -34,6 +34,9 @@ import { CardScanEntity } from './card-scan.entity';
 import { KanbanCardEntity } from './kanban-card.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';
 import { sizeLoop } from './loop-sizing';
+import { effectiveCycle, partTerms } from '../../shared/domain/supplier-timing';
+import { supplierTerms } from '../../shared/schemas/master-data';
+import type { PlantCalendar } from '../../shared/domain/types';
 import type { Database } from '../db/database';
 import { assertCurrent, versionOf } from '../http/versions';
 
@@ -44,6 +47,8 @@ const LOOP_SETTINGS = ['containerQty', 'safetyFactor', 'safetyDays', 'safetyUnit
 
 interface SizingDemand {
   days: string[];
+  /** The plant calendar: its working week is the `days` of a derived delivery cycle. */
+  calendar: PlantCalendar;
   /** Gross demand of a part on each working day of the horizon (zeros for a part the plan lacks). */
   grossOf(partNumber: string): number[];
 }
@@ -346,6 +351,7 @@ export class LoopsService {
     const { result } = plan;
     return {
       days: result.days,
+      calendar: plan.inputs.calendar,
       grossOf: (partNumber) =>
         result.parts.get(partNumber)?.buckets.map((bucket) => bucket.gross) ?? result.days.map(() => 0),
     };
@@ -405,7 +411,7 @@ export class LoopsService {
         safetyUnits: loop.safetyUnits,
         dailyGross: demand.grossOf(loop.partNumber).slice(0, loop.sizingWindowDays),
         cycle: supplier
-          ? { days: supplier.cycleDays, deliveries: supplier.deliveriesPerCycle, delay: supplier.deliveryDelay }
+          ? effectiveCycle(partTerms(supplierTerms(supplier), part?.leadTimeDays ?? 0), demand.calendar)
           : null,
         leadTimeDays: part?.leadTimeDays ?? 0,
         partIsKanban: part?.replenishment === 'kanban',

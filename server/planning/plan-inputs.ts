@@ -41,12 +41,12 @@ const SEQUENCE_SQL = `SELECT date, sequence, model, serial, qty FROM sequence_en
 const EXPECTED_QTY = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.confirmed_qty IS NOT NULL
   THEN l.confirmed_qty ELSE l.qty END`;
 /**
- * When an open line is expected at the dock: once the supplier's answer is accepted (confirmed,
- * shipped), its ship date if that is later than asked; otherwise the date asked for. The plan and
- * the line risk read receipts on this one date.
+ * When an open line is expected at the dock: once the supplier's answer is firm (confirmed as
+ * asked, or accepted by the buyer, which also moves the need date), the arrival it implies — ship
+ * date plus transit; otherwise the date asked for. The plan, line risk and the dock read this one date.
  */
-export const EXPECTED_ARRIVAL = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.ship_date IS NOT NULL
-  AND l.ship_date > l.need_date THEN l.ship_date ELSE l.need_date END`;
+export const EXPECTED_ARRIVAL = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.arrival_date IS NOT NULL
+  THEN l.arrival_date ELSE l.need_date END`;
 const OPEN_LINES_SQL = `SELECT l.part_number AS partNumber, ${EXPECTED_ARRIVAL} AS date, ${EXPECTED_QTY} - l.received_qty AS qty
   FROM release_line l JOIN release r ON r.id = l.release_id
   WHERE l.closed = 0 AND ${EXPECTED_QTY} > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;

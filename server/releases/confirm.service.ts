@@ -2,7 +2,7 @@ import { In, IsNull, type EntityManager } from 'typeorm';
 import { answerDiffers, answerStatus } from '../../shared/domain/release-rules';
 import type { ConfirmAnswer, Confirmation, ConfirmResult } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
-import { ConflictError, InvalidInputError, GoneError, NotFoundError } from '../errors';
+import { ConflictError, InvalidInputError, GoneError, NotFoundError, RefusedInputError } from '../errors';
 import { PartEntity } from '../master-data/part.entity';
 import { ReleaseLineEntity } from './release-line.entity';
 import { ReleaseEntity } from './release.entity';
@@ -11,6 +11,8 @@ import { SupplierEntity } from '../master-data/supplier.entity';
 import { hashConfirmationToken } from './confirmation-tokens';
 import { ConfirmationTokenEntity } from './confirmation-token.entity';
 import { releasesChanged } from './release-events';
+import { readLineTiming } from './line-timing';
+import { plantToday } from '../planning/plan-dates';
 import type { Database } from '../db/database';
 
 /** Release states a supplier can still answer through a live link. */
@@ -44,6 +46,7 @@ export class ConfirmService {
     const parts = partNumbers.length ? await manager.find(PartEntity, { where: { partNumber: In(partNumbers) } }) : [];
     const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
     const supplier = await manager.findOneBy(SupplierEntity, { code: release.supplierCode });
+    const timing = await readLineTiming(manager, [release.supplierCode]);
     return {
       release: {
         number: release.number,
@@ -58,12 +61,16 @@ export class ConfirmService {
             description: part?.description ?? '',
             uom: part?.uom ?? 'H87',
             hazardous: Boolean(part?.hazardous),
+            expedite: Boolean(line.expedite),
+            ...timing.windowOf(release.supplierCode, line.needDate),
           };
         }),
         supplierName: supplier?.name ?? release.supplierCode,
         plantName: await readPlantName(manager),
         releaseDate: release.releaseDate,
+        transitDays: timing.transitDaysOf(release.supplierCode),
       },
+      today: plantToday(),
       expiresAt: link.expiresAt,
     };
   }
@@ -97,6 +104,21 @@ export class ConfirmService {
         );
       }
 
+      const today = plantToday();
+      const past = answer.lines
+        .map((line, index) => ({ line, index }))
+        .filter(({ line }) => line.shipDate < today)
+        .map(({ line, index }) => ({
+          path: ['lines', index, 'shipDate'],
+          message: `the ship date ${line.shipDate} is before today (${today})`,
+        }));
+      if (past.length > 0) throw new RefusedInputError('A ship date cannot be in the past.', past);
+
+      const timing = await readLineTiming(manager, [release.supplierCode]);
+      const requestedOf = (line: ReleaseLineEntity) => ({
+        qty: line.qty,
+        ...timing.windowOf(release.supplierCode, line.needDate),
+      });
       const now = new Date().toISOString();
       // Conditional on the link still being unused, so two submissions racing each other count once.
       const spent = await manager.update(ConfirmationTokenEntity, { id: link.id, usedAt: IsNull() }, { usedAt: now });
@@ -106,7 +128,8 @@ export class ConfirmService {
       const changes: Record<string, unknown>[] = [];
       for (const reply of answer.lines) {
         const line = lineById.get(reply.id)!;
-        const differs = answerDiffers(line, reply);
+        const differs = answerDiffers(requestedOf(line), reply);
+        const arrivalDate = timing.arrivalOf(release.supplierCode, reply.shipDate);
         if (differs) changedLines += 1;
         changes.push({
           partNumber: line.partNumber,
@@ -114,15 +137,18 @@ export class ConfirmService {
           needDate: line.needDate,
           confirmedQty: reply.confirmedQty,
           shipDate: reply.shipDate,
+          arrivalDate,
           differs,
         });
         await manager.update(
           ReleaseLineEntity,
           { id: line.id },
-          { confirmedQty: reply.confirmedQty, shipDate: reply.shipDate },
+          { confirmedQty: reply.confirmedQty, shipDate: reply.shipDate, arrivalDate },
         );
       }
-      const status = answerStatus(answer.lines.map((reply) => ({ requested: lineById.get(reply.id)!, answer: reply })));
+      const status = answerStatus(
+        answer.lines.map((reply) => ({ requested: requestedOf(lineById.get(reply.id)!), answer: reply })),
+      );
       await manager.update(
         ReleaseEntity,
         { id: release.id },

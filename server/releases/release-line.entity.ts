@@ -19,6 +19,17 @@ export class ReleaseLineEntity {
   @Column({ name: 'need_date', type: 'varchar', length: 10 })
   needDate: string;
 
+  /** What the release first asked, kept when an accepted answer changes qty and need date: the scorecard measures against it. */
+  @Column({ name: 'requested_qty', type: 'double precision', nullable: true })
+  requestedQty: number | null;
+
+  @Column({ name: 'requested_date', type: 'varchar', length: 10, nullable: true })
+  requestedDate: string | null;
+
+  /** Needed sooner than the supplier's lead time allows: only an expedite brings it in time. */
+  @Column({ type: 'boolean', default: false })
+  expedite: boolean;
+
   /** `kanban` when an empty card asked for it, `plan` when a planned release of a scheduled part did. */
   @Column({ type: 'varchar', length: 10 })
   origin: string;
@@ -31,6 +42,10 @@ export class ReleaseLineEntity {
 
   @Column({ name: 'ship_date', type: 'varchar', length: 10, nullable: true })
   shipDate: string | null;
+
+  /** When the answered shipment arrives at our dock: ship date plus the supplier's transit days. */
+  @Column({ name: 'arrival_date', type: 'varchar', length: 10, nullable: true })
+  arrivalDate: string | null;
 
   @Column({ name: 'received_qty', type: 'double precision', default: 0 })
   receivedQty: number;

@@ -2,6 +2,8 @@ import { UNIT_WORDS } from '../../shared/schemas/master-data';
 import type { OutgoingMail } from '../outbox/outbox.service';
 
 export const HAZARDOUS_NOTE = 'Hazardous goods: pack and ship under the applicable dangerous-goods rules.';
+export const EXPEDITE_NOTE =
+  'Expedite: needed sooner than your usual lead time; tell us the earliest date you can ship.';
 
 export interface ReleaseMailLine {
   partNumber: string;
@@ -10,6 +12,8 @@ export interface ReleaseMailLine {
   uom: string;
   needDate: string;
   hazardous: boolean;
+  /** Needed sooner than the supplier's lead time: said on the line, in words. */
+  expedite: boolean;
 }
 
 export interface ReleaseMailContent {
@@ -19,6 +23,8 @@ export interface ReleaseMailContent {
   supplierEmail: string;
   plantName: string;
   lines: ReleaseMailLine[];
+  /** Working days the goods spend on the road: the need date is at our dock, so shipping is earlier. */
+  transitDays: number;
   link: string;
   expiresAt: string;
   /** True when the buyer sends the release again with a fresh link. */
@@ -44,7 +50,7 @@ function textTable(lines: ReleaseMailLine[]): string[] {
     unitOf(line.uom),
     line.needDate,
   ]);
-  const header = ['Part', 'Description', 'Qty', 'Unit', 'Need date'];
+  const header = ['Part', 'Description', 'Qty', 'Unit', 'At our dock by'];
   const widths = header.map((title, column) => Math.max(title.length, ...rows.map((row) => row[column].length)));
   const format = (cells: string[]) =>
     cells
@@ -54,6 +60,7 @@ function textTable(lines: ReleaseMailLine[]): string[] {
   const out = [format(header), widths.map((width) => '-'.repeat(width)).join('  ')];
   lines.forEach((line, index) => {
     out.push(format(rows[index]));
+    if (line.expedite) out.push(`  ! ${EXPEDITE_NOTE}`);
     if (line.hazardous) out.push(`  ! ${HAZARDOUS_NOTE}`);
   });
   return out;
@@ -63,9 +70,10 @@ function htmlTable(lines: ReleaseMailLine[]): string {
   const cell = 'padding:4px 10px;border-bottom:1px solid #e4ddd3;text-align:left';
   const rows = lines
     .map((line) => {
-      const hazard = line.hazardous
-        ? `<br><strong style="color:#a3300b">&#9888; ${escapeHtml(HAZARDOUS_NOTE)}</strong>`
-        : '';
+      const expedite = line.expedite ? `<br><strong style="color:#8a3a00">${escapeHtml(EXPEDITE_NOTE)}</strong>` : '';
+      const hazard =
+        expedite +
+        (line.hazardous ? `<br><strong style="color:#a3300b">&#9888; ${escapeHtml(HAZARDOUS_NOTE)}</strong>` : '');
       return (
         `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
         `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitOf(line.uom))}</td>` +
@@ -73,7 +81,7 @@ function htmlTable(lines: ReleaseMailLine[]): string {
       );
     })
     .join('');
-  const head = ['Part', 'Description', 'Qty', 'Unit', 'Need date']
+  const head = ['Part', 'Description', 'Qty', 'Unit', 'At our dock by']
     .map((title) => `<th style="${cell}">${title}</th>`)
     .join('');
   return `<table style="border-collapse:collapse;font-size:14px"><thead><tr>${head}</tr></thead><tbody>${rows}</tbody></table>`;
@@ -83,7 +91,11 @@ function htmlTable(lines: ReleaseMailLine[]): string {
 export function composeReleaseMail(content: ReleaseMailContent): OutgoingMail {
   const validUntil = content.expiresAt.slice(0, 10);
   const subject = `${content.resent ? 'Release (sent again)' : 'Release'} ${content.number} from ${content.plantName}: please confirm`;
-  const intro = `${content.plantName} releases the parts below for delivery (release ${content.number} of ${content.releaseDate}).`;
+  const transit =
+    content.transitDays > 0
+      ? ` Dates are when the goods must be at our dock: ship ${content.transitDays} working day${content.transitDays === 1 ? '' : 's'} earlier.`
+      : ' Dates are when the goods must be at our dock.';
+  const intro = `${content.plantName} releases the parts below for delivery (release ${content.number} of ${content.releaseDate}).${transit}`;
   const ask =
     'Please confirm each quantity and ship date, or propose others, on this page — no sign-in needed. ' +
     `The link works once and until ${validUntil}.`;

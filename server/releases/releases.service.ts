@@ -1,6 +1,8 @@
 import { In, QueryFailedError, type EntityManager } from 'typeorm';
 import { addWorkingDays, nextWorkingDay, toWorkingCalendar } from '../../shared/domain/calendar';
 import { releaseNumber } from '../../shared/domain/release-rules';
+import { partTerms } from '../../shared/domain/supplier-timing';
+import { supplierTerms } from '../../shared/schemas/master-data';
 import type {
   Release,
   ReleaseJobSettings,
@@ -39,6 +41,7 @@ import { composeReleaseMail } from './release-mail';
 import { ReleaseLineEntity } from './release-line.entity';
 import { ReleaseEntity } from './release.entity';
 import { releasesChanged } from './release-events';
+import { readLineTiming } from './line-timing';
 import type { Database } from '../db/database';
 
 export const RELEASE_JOB_TIME = 'releases.jobTime';
@@ -177,12 +180,15 @@ export class ReleasesService {
     if (needed > Math.max(DEFAULT_HORIZON_WORKING_DAYS, plan.result.days.length)) {
       plan = await this.planning.plan(date, addWorkingDays(nextWorkingDay(date, calendar), needed - 1, calendar));
     }
+    const suppliers = await this.db.manager.find(SupplierEntity);
+    const termsByCode = new Map(suppliers.map((supplier) => [supplier.code, supplierTerms(supplier)]));
     const parts: ScheduledPart[] = plan.inputs.parts
       .filter((part) => part.source === 'buy' && part.replenishment === 'scheduled' && part.supplierCode)
+      .filter((part) => termsByCode.has(part.supplierCode!))
       .map((part) => ({
         partNumber: part.partNumber,
         supplierCode: part.supplierCode!,
-        leadTimeDays: part.leadTimeDays,
+        terms: partTerms(termsByCode.get(part.supplierCode!)!, part.leadTimeDays),
       }));
     return plannedLines(plan.result, parts, date, calendar, await this.openPlanLineKeys());
   }
@@ -231,6 +237,10 @@ export class ReleasesService {
           partNumber: draft.partNumber,
           qty: draft.qty,
           needDate: draft.needDate,
+          requestedQty: draft.qty,
+          requestedDate: draft.needDate,
+          expedite: draft.expedite,
+          arrivalDate: null,
           origin: draft.origin,
           cardId: draft.cardId,
           confirmedQty: null,
@@ -259,6 +269,7 @@ export class ReleasesService {
           qty: line.qty,
           needDate: line.needDate,
           origin: line.origin,
+          expedite: line.expedite,
         })),
         cards: cardNumbers,
       },
@@ -295,6 +306,7 @@ export class ReleasesService {
         link: `${this.appUrl}/confirm/${token}`,
         expiresAt,
         resent,
+        transitDays: supplier.transitDays,
         lines: lines.map((line) => {
           const part = parts.get(line.partNumber);
           return {
@@ -304,6 +316,7 @@ export class ReleasesService {
             uom: part?.uom ?? 'H87',
             needDate: line.needDate,
             hazardous: part?.hazardous ?? false,
+            expedite: Boolean(line.expedite),
           };
         }),
       }),
@@ -453,6 +466,14 @@ export class ReleasesService {
       }
       release.status = 'confirmed';
       await manager.save(release);
+      // The answer becomes the order: the plan, line risk and dock read the new quantity and arrival,
+      // while requested_qty and requested_date keep what was first asked for the scorecard.
+      await manager
+        .createQueryBuilder()
+        .update(ReleaseLineEntity)
+        .set({ qty: () => 'confirmed_qty', needDate: () => 'arrival_date' })
+        .where('release_id = :id AND confirmed_qty IS NOT NULL AND arrival_date IS NOT NULL', { id: release.id })
+        .execute();
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'accept',
@@ -535,6 +556,8 @@ export class ReleasesService {
       order: { id: 'ASC' },
     });
     const noticeOf = new Map(notices.map((notice) => [notice.ref, toOutboxMessage(notice)]));
+    const supplierOf = new Map(releases.map((release) => [release.id, release.supplierCode]));
+    const timing = await readLineTiming(manager, [...supplierOf.values()]);
     const linesByRelease = new Map<number, ReleaseLine[]>();
     for (const line of lines) {
       const part = parts.get(line.partNumber);
@@ -553,6 +576,11 @@ export class ReleasesService {
         shipDate: line.shipDate,
         receivedQty: line.receivedQty,
         closed: Boolean(line.closed),
+        requestedQty: line.requestedQty ?? line.qty,
+        requestedDate: line.requestedDate ?? line.needDate,
+        expedite: Boolean(line.expedite),
+        arrivalDate: line.arrivalDate,
+        ...timing.windowOf(supplierOf.get(line.releaseId)!, line.needDate),
       });
       linesByRelease.set(line.releaseId, list);
     }

@@ -1,8 +1,7 @@
 /**
  * Rules of supplier releases that the server and the confirmation page share: how a release is
- * numbered, how far ahead a kanban line is needed, and when a supplier's answer is an exception.
+ * numbered and when a supplier's answer is an exception.
  */
-import type { DeliveryCycle } from './kanban-sizing';
 import type { IsoDate } from './types';
 
 /** Quantities closer than this are the same quantity (the engine snaps to the same grid). */
@@ -16,26 +15,11 @@ export function releaseNumber(supplierCode: string, releaseDate: IsoDate): strin
   return `R${releaseDate.slice(2, 4)}${releaseDate.slice(5, 7)}${releaseDate.slice(8, 10)}-${supplierCode}`;
 }
 
-/**
- * Working days from releasing a kanban card to needing its container back: the supplier's
- * replenishment time T = days × (1 + delay) / deliveries of its delivery cycle, rounded up to whole
- * working days (a delivery arrives on a day, not part-way through one) and never less than one
- * (a card released today cannot come back today). Integer arithmetic, so a whole T stays whole.
- */
-export function kanbanReplenishmentWorkingDays(cycle: DeliveryCycle): number {
-  const { days, deliveries, delay } = cycle;
-  if (![days, deliveries, delay].every(Number.isInteger) || days < 1 || deliveries < 1 || delay < 0) {
-    throw new RangeError(
-      `A delivery cycle needs whole days ≥ 1, deliveries ≥ 1 and delay ≥ 0, got ${days}-${deliveries}-${delay}`,
-    );
-  }
-  // ⌈a / b⌉ for whole a, b ≥ 1 as ⌊(a + b − 1) / b⌋: no fractional division involved.
-  return Math.max(1, Math.floor((days * (1 + delay) + deliveries - 1) / deliveries));
-}
-
 export interface RequestedLine {
   qty: number;
-  needDate: IsoDate;
+  /** The ship dates that bring the goods inside the on-time window (see shipWindow in supplier-timing). */
+  earliestShipDate: IsoDate;
+  latestShipDate: IsoDate;
 }
 
 export interface LineAnswer {
@@ -43,13 +27,29 @@ export interface LineAnswer {
   shipDate: IsoDate;
 }
 
+export interface AnswerDifference {
+  qtyChanged: boolean;
+  /** Ships too late to arrive by the need date, transit counted. */
+  late: boolean;
+  /** Ships so early that the goods arrive before the early tolerance allows. */
+  early: boolean;
+  differs: boolean;
+}
+
 /**
- * True when the supplier's answer is not what was asked: another quantity, or a ship date after
- * the need date. Shipping on the need date itself still counts as meeting it — the release cannot
- * know the transit time, and the buyer sees the ship date beside the need date anyway.
+ * How the supplier's answer departs from what was asked: another quantity, or a ship date whose
+ * arrival (ship date plus transit) falls outside the on-time window around the need date.
  */
+export function answerDifference(requested: RequestedLine, answer: LineAnswer): AnswerDifference {
+  const qtyChanged = quantityDiffers(requested.qty, answer.confirmedQty);
+  const late = answer.shipDate > requested.latestShipDate;
+  const early = answer.shipDate < requested.earliestShipDate;
+  return { qtyChanged, late, early, differs: qtyChanged || late || early };
+}
+
+/** True when the answer is not what was asked (see answerDifference). */
 export function answerDiffers(requested: RequestedLine, answer: LineAnswer): boolean {
-  return quantityDiffers(requested.qty, answer.confirmedQty) || answer.shipDate > requested.needDate;
+  return answerDifference(requested, answer).differs;
 }
 
 /** True when a confirmed quantity is not the requested one (beyond floating-point noise). */

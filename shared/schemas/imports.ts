@@ -1,5 +1,12 @@
 import { z } from 'zod';
-import { bomLineSchema, isoDateSchema, partSchema, sequenceEntrySchema, supplierSchema } from './master-data';
+import {
+  bomLineSchema,
+  isoDateSchema,
+  partSchema,
+  sequenceEntrySchema,
+  SUPPLIER_DEFAULT_TERMS,
+  supplierSchema,
+} from './master-data';
 
 export const IMPORT_KINDS = ['suppliers', 'parts', 'bom', 'schedule', 'on-hand'] as const;
 export type ImportKind = (typeof IMPORT_KINDS)[number];
@@ -15,7 +22,20 @@ export const IMPORT_MAX_BYTES = 5 * 1024 * 1024;
  */
 export const IMPORT_LAYOUTS = {
   suppliers: {
-    columns: ['code', 'name', 'email', 'lead_time_days', 'cycle_days', 'deliveries_per_cycle', 'delivery_delay'],
+    columns: [
+      'code',
+      'name',
+      'email',
+      'lead_time_days',
+      'cycle_days',
+      'deliveries_per_cycle',
+      'delivery_delay',
+      'transit_days',
+      'delivery_weekdays',
+      'over_tolerance_pct',
+      'early_tolerance_days',
+      'late_tolerance_days',
+    ],
     required: ['code', 'name', 'email', 'lead_time_days'],
   },
   parts: {
@@ -58,7 +78,17 @@ export type ImportLayout = { columns: readonly string[]; required: readonly stri
  * never wipes stock. Empty effectivity dates leave that end of the window open.
  */
 export const IMPORT_DEFAULTS = {
-  suppliers: { cycle_days: 1, deliveries_per_cycle: 1, delivery_delay: 1 },
+  // An empty delivery cycle is derived from the delivery weekdays and the lead time.
+  suppliers: {
+    cycle_days: null,
+    deliveries_per_cycle: null,
+    delivery_delay: null,
+    transit_days: SUPPLIER_DEFAULT_TERMS.transitDays,
+    delivery_weekdays: SUPPLIER_DEFAULT_TERMS.deliveryWeekdays,
+    over_tolerance_pct: SUPPLIER_DEFAULT_TERMS.overTolerancePct,
+    early_tolerance_days: SUPPLIER_DEFAULT_TERMS.earlyToleranceDays,
+    late_tolerance_days: SUPPLIER_DEFAULT_TERMS.lateToleranceDays,
+  },
   parts: {
     uom: 'H87',
     supplier_code: null,
@@ -134,6 +164,20 @@ const numberIn =
 
 const isoDate: CellParser<string> = (raw) => checkWith(isoDateSchema, raw, raw);
 
+const WEEKDAY_NAMES = ['mon', 'tue', 'wed', 'thu', 'fri', 'sat', 'sun'];
+
+/** Delivery weekdays as ISO numbers (1 = Monday) or three-letter names, separated by semicolons: `1;4` or `Mon;Thu`. */
+const weekdays: CellParser<number[]> = (raw) => {
+  const days: number[] = [];
+  for (const token of raw.split(/[;\s]+/).filter(Boolean)) {
+    const day = /^[1-7]$/.test(token) ? Number(token) : WEEKDAY_NAMES.indexOf(token.slice(0, 3).toLowerCase()) + 1;
+    if (day === 0) return { ok: false, message: `'${token}' is not a weekday (1–7 from Monday, or Mon…Sun)` };
+    if (days.includes(day)) return { ok: false, message: `'${token}' is named twice` };
+    days.push(day);
+  }
+  return { ok: true, value: days.sort((a, b) => a - b) };
+};
+
 const flag: CellParser<boolean> = (raw) => {
   const word = raw.toLowerCase();
   if (TRUE_WORDS.includes(word)) return { ok: true, value: true };
@@ -189,9 +233,14 @@ export const supplierRowSchema = z.object({
   name: requiredCell(text(supplier.name)),
   email: requiredCell(text(supplier.email)),
   lead_time_days: requiredCell(numberIn(supplier.leadTimeDays)),
-  cycle_days: optionalCell(numberIn(supplier.cycleDays)),
-  deliveries_per_cycle: optionalCell(numberIn(supplier.deliveriesPerCycle)),
-  delivery_delay: optionalCell(numberIn(supplier.deliveryDelay)),
+  cycle_days: optionalCell(numberIn(supplier.cycleDays.unwrap())),
+  deliveries_per_cycle: optionalCell(numberIn(supplier.deliveriesPerCycle.unwrap())),
+  delivery_delay: optionalCell(numberIn(supplier.deliveryDelay.unwrap())),
+  transit_days: optionalCell(numberIn(supplier.transitDays)),
+  delivery_weekdays: optionalCell(weekdays),
+  over_tolerance_pct: optionalCell(numberIn(supplier.overTolerancePct)),
+  early_tolerance_days: optionalCell(numberIn(supplier.earlyToleranceDays)),
+  late_tolerance_days: optionalCell(numberIn(supplier.lateToleranceDays)),
 });
 
 export const partRowSchema = z.object({

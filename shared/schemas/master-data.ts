@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { cycleContradiction, type SupplierTerms } from '../domain/supplier-timing';
+import { plainText } from './text';
 import { versionField } from './version';
 
 export const isoDateSchema = z.iso.date({ message: 'a date as YYYY-MM-DD' });
@@ -31,16 +33,91 @@ export const UNIT_WORDS: Record<string, string> = {
   PR: 'pairs',
 };
 
-export const supplierSchema = z.object({
-  code,
-  name: z.string().trim().min(1).max(120),
-  email: z.email().max(254),
-  leadTimeDays: z.number().int().min(0).max(365),
-  cycleDays: z.number().int().min(1).max(60),
-  deliveriesPerCycle: z.number().int().min(1).max(60),
-  deliveryDelay: z.number().int().min(0).max(60),
-});
+const weekday = z.number().int().min(1).max(7);
+
+/**
+ * A supplier and its terms (see shared/domain/supplier-timing.ts for how they fit together): lead
+ * time from release to arrival at our dock and transit from shipping to arrival, both in working
+ * days; the weekdays it delivers; the delivery cycle days–deliveries–delay (delay counted in
+ * deliveries), all three or none (none: derived); the over-delivery it may make without asking;
+ * the on-time window around the requested arrival date.
+ */
+export const supplierSchema = z
+  .object({
+    code,
+    name: plainText(120),
+    email: z.email().max(254),
+    leadTimeDays: z.number().int().min(0).max(365),
+    transitDays: z.number().int().min(0).max(60),
+    deliveryWeekdays: z
+      .array(weekday)
+      .max(7)
+      .refine((days) => new Set(days).size === days.length, 'each weekday once'),
+    cycleDays: z.number().int().min(1).max(60).nullable(),
+    deliveriesPerCycle: z.number().int().min(1).max(60).nullable(),
+    deliveryDelay: z.number().int().min(0).max(60).nullable(),
+    overTolerancePct: z.number().min(0).max(100),
+    earlyToleranceDays: z.number().int().min(0).max(30),
+    lateToleranceDays: z.number().int().min(0).max(30),
+  })
+  .superRefine((supplier, context) => {
+    const cycle = [supplier.cycleDays, supplier.deliveriesPerCycle, supplier.deliveryDelay];
+    const given = cycle.filter((value) => value !== null).length;
+    if (given !== 0 && given !== 3) {
+      context.addIssue({
+        code: 'custom',
+        path: ['cycleDays'],
+        message: 'give the delivery cycle whole (days, deliveries and delay) or leave all three empty',
+      });
+      return;
+    }
+    if (supplier.transitDays > supplier.leadTimeDays) {
+      context.addIssue({
+        code: 'custom',
+        path: ['transitDays'],
+        message: `transit (${supplier.transitDays} working days) cannot be longer than the lead time (${supplier.leadTimeDays})`,
+      });
+    }
+    const contradiction = cycleContradiction(supplierTerms(supplier));
+    if (contradiction) context.addIssue({ code: 'custom', path: ['deliveryDelay'], message: contradiction });
+  });
 export type Supplier = z.infer<typeof supplierSchema>;
+
+/** Receiving tolerances a supplier gets unless it is given its own: nothing over, one working day early, none late. */
+export const SUPPLIER_DEFAULT_TOLERANCES = {
+  overTolerancePct: 0,
+  earlyToleranceDays: 1,
+  lateToleranceDays: 0,
+} as const;
+
+/** Terms a supplier gets when a file or form leaves them out: no transit, every working day, a derived cycle. */
+export const SUPPLIER_DEFAULT_TERMS = {
+  transitDays: 0,
+  deliveryWeekdays: [] as number[],
+  cycleDays: null,
+  deliveriesPerCycle: null,
+  deliveryDelay: null,
+  ...SUPPLIER_DEFAULT_TOLERANCES,
+} satisfies Partial<Supplier>;
+
+/** The timing terms of a supplier record, as the shared timing rules take them. */
+export function supplierTerms(
+  supplier: Pick<
+    Supplier,
+    'leadTimeDays' | 'transitDays' | 'deliveryWeekdays' | 'cycleDays' | 'deliveriesPerCycle' | 'deliveryDelay'
+  >,
+): SupplierTerms {
+  const { cycleDays, deliveriesPerCycle, deliveryDelay } = supplier;
+  return {
+    leadTimeDays: supplier.leadTimeDays,
+    transitDays: supplier.transitDays,
+    deliveryWeekdays: supplier.deliveryWeekdays,
+    cycle:
+      cycleDays !== null && deliveriesPerCycle !== null && deliveryDelay !== null
+        ? { days: cycleDays, deliveries: deliveriesPerCycle, delay: deliveryDelay }
+        : null,
+  };
+}
 
 export const partSchema = z
   .object({

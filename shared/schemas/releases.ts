@@ -38,6 +38,16 @@ export const releaseLineSchema = z.object({
   shipDate: z.string().nullable(),
   receivedQty: z.number(),
   closed: z.boolean(),
+  /** What the release first asked; qty and needDate change when the buyer accepts another answer. */
+  requestedQty: z.number(),
+  requestedDate: z.string(),
+  /** Needed sooner than the supplier's lead time or delivery days allow. */
+  expedite: z.boolean(),
+  /** When the answered shipment arrives: ship date plus the supplier's transit days. */
+  arrivalDate: z.string().nullable(),
+  /** Ship dates that arrive inside the on-time window of the need date. */
+  earliestShipDate: z.string(),
+  latestShipDate: z.string(),
 });
 export type ReleaseLine = z.infer<typeof releaseLineSchema>;
 
@@ -104,6 +114,10 @@ export const confirmationLineSchema = z.object({
   description: z.string(),
   uom: z.string(),
   hazardous: z.boolean(),
+  expedite: z.boolean(),
+  /** Ship dates that arrive inside the on-time window of the need date, transit counted. */
+  earliestShipDate: z.string(),
+  latestShipDate: z.string(),
 });
 export type ConfirmationLine = z.infer<typeof confirmationLineSchema>;
 
@@ -116,7 +130,11 @@ export const confirmationSchema = z.object({
     supplierName: z.string(),
     plantName: z.string(),
     releaseDate: z.string(),
+    /** Working days the supplier's goods spend on the road to the plant. */
+    transitDays: z.number().int(),
   }),
+  /** The plant's today: the earliest ship date an answer may give. */
+  today: z.string(),
   expiresAt: z.string(),
 });
 export type Confirmation = z.infer<typeof confirmationSchema>;

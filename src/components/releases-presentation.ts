@@ -9,7 +9,7 @@ import {
   Van,
   WarningFilled,
 } from '@element-plus/icons-vue';
-import { answerDiffers, quantityDiffers } from '@shared/domain/release-rules';
+import { answerDifference } from '@shared/domain/release-rules';
 import type { Release, ReleaseLine, ReleaseStatus, RunReleasesResponse } from '@shared/schemas/releases';
 
 /**
@@ -56,21 +56,16 @@ export interface LineDifference {
   answered: boolean;
   qtyChanged: boolean;
   late: boolean;
+  early: boolean;
   differs: boolean;
 }
 
 export function lineDifference(
-  line: Pick<ReleaseLine, 'qty' | 'needDate' | 'confirmedQty' | 'shipDate'>,
+  line: Pick<ReleaseLine, 'qty' | 'confirmedQty' | 'shipDate' | 'earliestShipDate' | 'latestShipDate'>,
 ): LineDifference {
   if (line.confirmedQty === null || line.shipDate === null)
-    return { answered: false, qtyChanged: false, late: false, differs: false };
-  const answer = { confirmedQty: line.confirmedQty, shipDate: line.shipDate };
-  return {
-    answered: true,
-    qtyChanged: quantityDiffers(line.qty, line.confirmedQty),
-    late: line.shipDate > line.needDate,
-    differs: answerDiffers(line, answer),
-  };
+    return { answered: false, qtyChanged: false, late: false, early: false, differs: false };
+  return { answered: true, ...answerDifference(line, { confirmedQty: line.confirmedQty, shipDate: line.shipDate }) };
 }
 
 /** "3 releases with 5 lines sent for Wed 2 Dec." style summary of a run; `dateWords` is the day as shown. */

@@ -4,6 +4,7 @@ import { replaceBomLines, upsertSuppliers } from '../../server/master-data/maste
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import type { PlanInput } from '../../shared/domain/types';
+import { SUPPLIER_DEFAULT_TERMS } from '../../shared/schemas/master-data';
 
 /** Writes a generated plant (calendar, suppliers, parts with stock, BOM, sequence) into a database. */
 export async function writeFixture(db: Database, fixture: PlanInput): Promise<void> {
@@ -19,9 +20,7 @@ export async function writeFixture(db: Database, fixture: PlanInput): Promise<vo
         name: code,
         email: `${code.toLowerCase()}@example.com`,
         leadTimeDays: 5,
-        cycleDays: 1,
-        deliveriesPerCycle: 1,
-        deliveryDelay: 1,
+        ...SUPPLIER_DEFAULT_TERMS,
       })),
     );
     await savePartsWithStock(

@@ -14,6 +14,7 @@ const confirmation: Confirmation = {
     supplierName: 'Rotomould Co',
     plantName: 'Cardloop demo plant',
     releaseDate: '2026-12-01',
+    transitDays: 0,
     lines: [
       {
         id: 11,
@@ -23,6 +24,9 @@ const confirmation: Confirmation = {
         description: 'Recovery tank 60 L',
         uom: 'H87',
         hazardous: false,
+        expedite: false,
+        earliestShipDate: '2026-12-03',
+        latestShipDate: '2026-12-04',
       },
       {
         id: 12,
@@ -32,9 +36,13 @@ const confirmation: Confirmation = {
         description: 'Battery 6 V',
         uom: 'H87',
         hazardous: true,
+        expedite: false,
+        earliestShipDate: '2026-12-04',
+        latestShipDate: '2026-12-07',
       },
     ],
   },
+  today: '2026-12-01',
   expiresAt: '2026-12-08T06:00:00.000Z',
 };
 
@@ -91,7 +99,7 @@ describe('ConfirmView', () => {
     expect(wrapper.get('h1').text()).toBe('R261201-SRM');
     expect(wrapper.text()).toContain('For Rotomould Co from Cardloop demo plant');
     expect(wrapper.text()).toContain('Fri 4 Dec 2026 to Mon 7 Dec 2026');
-    expect(wrapper.text()).toContain('Requested 6 pcs, needed by Fri 4 Dec 2026');
+    expect(wrapper.text()).toContain('Requested 6 pcs, needed at our dock by Fri 4 Dec 2026');
     expect(wrapper.text()).toContain('Hazardous goods: pack and ship under the applicable dangerous-goods rules.');
     expect(qtyInput(wrapper, 11).value).toBe('6');
     // The picker shows the date in the screen style and hands the ISO date to the answer.

@@ -35,6 +35,12 @@ const line = (overrides: Partial<ReleaseLine>): ReleaseLine => ({
   shipDate: null,
   receivedQty: 0,
   closed: false,
+  requestedQty: 15,
+  requestedDate: '2026-12-09',
+  expedite: false,
+  arrivalDate: null,
+  earliestShipDate: '2026-12-08',
+  latestShipDate: '2026-12-09',
   ...overrides,
 });
 
@@ -64,8 +70,22 @@ const exception = release({
   supplierNote: 'Ten this week, the rest on Monday.',
   lines: [
     line({ id: 1, confirmedQty: 10, shipDate: '2026-12-09' }),
-    line({ id: 2, needDate: '2026-12-10', confirmedQty: 15, shipDate: '2026-12-10' }),
-    line({ id: 3, needDate: '2026-12-11', confirmedQty: 15, shipDate: '2026-12-14' }),
+    line({
+      id: 2,
+      needDate: '2026-12-10',
+      earliestShipDate: '2026-12-09',
+      latestShipDate: '2026-12-10',
+      confirmedQty: 15,
+      shipDate: '2026-12-10',
+    }),
+    line({
+      id: 3,
+      needDate: '2026-12-11',
+      earliestShipDate: '2026-12-10',
+      latestShipDate: '2026-12-11',
+      confirmedQty: 15,
+      shipDate: '2026-12-14',
+    }),
   ],
 });
 const sent = release({
@@ -126,7 +146,7 @@ describe('ReleasesView', () => {
     const diffRows = decisions.findAll('tbody tr');
     expect(diffRows).toHaveLength(2);
     expect(diffRows[0]!.text()).toContain('5 pcs short');
-    expect(diffRows[1]!.text()).toContain('ships after need date');
+    expect(diffRows[1]!.text()).toContain('arrives after the need date');
     expect(decisions.text()).toContain('1 other line confirmed as asked.');
     const rows = wrapper.findAll('.releases-table tr.el-table__row');
     expect(rows.map((row) => row.find('.releases-table__number').text())).toEqual(['R261201-GDC', 'R261201-FBS']);
@@ -367,26 +387,39 @@ describe('release e-mails', () => {
 });
 
 describe('release presentation', () => {
-  it('tells a short quantity and a late ship date apart', () => {
+  it('tells a short quantity, a late and an early ship date apart', () => {
     expect(lineDifference(exception.lines[0]!)).toEqual({
       answered: true,
       qtyChanged: true,
       late: false,
+      early: false,
       differs: true,
     });
     expect(lineDifference(exception.lines[1]!)).toEqual({
       answered: true,
       qtyChanged: false,
       late: false,
+      early: false,
       differs: false,
     });
     expect(lineDifference(exception.lines[2]!)).toEqual({
       answered: true,
       qtyChanged: false,
       late: true,
+      early: false,
       differs: true,
     });
-    expect(lineDifference(line({}))).toEqual({ answered: false, qtyChanged: false, late: false, differs: false });
+    expect(lineDifference(line({ confirmedQty: 15, shipDate: '2026-12-04' }))).toMatchObject({
+      early: true,
+      differs: true,
+    });
+    expect(lineDifference(line({}))).toEqual({
+      answered: false,
+      qtyChanged: false,
+      late: false,
+      early: false,
+      differs: false,
+    });
   });
 
   it('says when a run made nothing new', () => {

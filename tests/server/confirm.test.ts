@@ -10,6 +10,9 @@ import { syncLoops } from '../../server/loops/loop-sync';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { ReleaseEntity } from '../../server/releases/release.entity';
+import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { SupplierEntity } from '../../server/master-data/supplier.entity';
+import { isoWeekday } from '../../shared/domain/calendar';
 import { readPlanningVersion } from '../../server/settings/versions';
 import { addCalendarDays } from '../../shared/domain/date';
 import { cardNumber } from '../../shared/domain/gs1';
@@ -24,14 +27,15 @@ let nextDay = 1;
 /*
  * Fixture: kanban part K (container 10, "Caster 100 mm") and kanban part W (container 25, in kg)
  * from SUP-A, one card each. Each test empties both cards and runs releases for a new March 2027
- * day, so every test gets a fresh release of two lines. SUP-A's cycle 1-1-1 gives T = 2 working days.
+ * day, so every test gets a fresh release of two lines. SUP-A delivers every working day with no
+ * transit, and the parts' 2-day lead time puts each line's need date two working days after release.
  */
 beforeAll(async () => {
   context = await createTestContext({ appUrl: APP_URL });
   await context.dataSource.transaction(async (manager) => {
     await savePartsWithStock(manager, [
-      testPart('K', { packQty: 10, description: 'Caster 100 mm' }),
-      testPart('W', { packQty: 25, uom: 'KGM', description: 'Wire, 1.5 mm²' }),
+      testPart('K', { packQty: 10, leadTimeDays: 2, description: 'Caster 100 mm' }),
+      testPart('W', { packQty: 25, leadTimeDays: 2, uom: 'KGM', description: 'Wire, 1.5 mm²' }),
     ]);
     await syncLoops(manager);
     const loops = await manager.find(KanbanLoopEntity, { order: { partNumber: 'ASC' } });
@@ -97,7 +101,11 @@ describe('GET /api/confirm/:token', () => {
       supplierName: 'Supplier A',
       plantName: 'Cardloop demo plant',
       releaseDate: release.releaseDate,
+      transitDays: 0,
     });
+    // Released Monday 1 Mar 2027, needed Wednesday 3 Mar; the default on-time window lets the goods
+    // arrive one working day early, so with no transit they may ship Tuesday 2 or Wednesday 3 Mar.
+    const window = { expedite: false, earliestShipDate: '2027-03-02', latestShipDate: '2027-03-03' };
     expect(response.body.release.lines).toEqual([
       {
         id: expect.any(Number),
@@ -107,6 +115,7 @@ describe('GET /api/confirm/:token', () => {
         description: 'Caster 100 mm',
         uom: 'H87',
         hazardous: false,
+        ...window,
       },
       {
         id: expect.any(Number),
@@ -116,8 +125,10 @@ describe('GET /api/confirm/:token', () => {
         description: 'Wire, 1.5 mm²',
         uom: 'KGM',
         hazardous: false,
+        ...window,
       },
     ]);
+    expect(response.body.today).toMatch(/^\d{4}-\d{2}-\d{2}$/);
     expect(Date.parse(response.body.expiresAt)).toBeGreaterThan(Date.now() + 6 * 24 * 3600 * 1000);
   });
 
@@ -223,26 +234,66 @@ describe('POST /api/confirm/:token', () => {
       .set(bearer(context.tokens.buyer));
     expect(accepted.status).toBe(200);
     expect(accepted.body.status).toBe('confirmed');
-    expect(accepted.body.lines[0]).toMatchObject({ qty: 10, confirmedQty: 8 });
+    // The accepted answer becomes the order everywhere; what was first asked stays beside it.
+    expect(accepted.body.lines[0]).toMatchObject({ qty: 8, confirmedQty: 8, requestedQty: 10 });
     const twice = await request(context.app)
       .post(`/api/releases/${release.number}/accept-exception`)
       .set(bearer(context.tokens.buyer));
     expect(twice.status).toBe(409);
   });
 
-  it('makes a ship date after the need date an exception, but not one on it', async () => {
+  it('makes a ship date after the need date an exception, and one earlier than the window allows', async () => {
     const late = await freshRelease();
     const onTime = await freshRelease();
+    const early = await freshRelease();
     const lateLines = asRequested(late.release);
     lateLines[1].shipDate = dayAfter(late.release.lines[1].needDate);
-    const earlyLines = asRequested(onTime.release);
-    earlyLines[0].shipDate = '2027-03-01';
+    // One working day early is inside the default early tolerance; two is not.
+    const onTimeLines = asRequested(onTime.release);
+    onTimeLines[0].shipDate = onTime.release.lines[0].earliestShipDate;
+    const earlyLines = asRequested(early.release);
+    earlyLines[0].shipDate = early.release.releaseDate;
 
     const lateResponse = await answer(late.token, { lines: lateLines, note: '' });
-    const onTimeResponse = await answer(onTime.token, { lines: earlyLines });
+    const onTimeResponse = await answer(onTime.token, { lines: onTimeLines });
+    const earlyResponse = await answer(early.token, { lines: earlyLines });
 
     expect(lateResponse.body.status).toBe('exception');
     expect(onTimeResponse.body.status).toBe('confirmed');
+    expect(earlyResponse.body).toMatchObject({ status: 'exception', changedLines: 1 });
+  });
+
+  it('refuses a ship date before today with 422 naming the line, and the link stays usable', async () => {
+    const { release, token } = await freshRelease();
+    const lines = asRequested(release);
+    lines[1].shipDate = '2020-01-06';
+
+    const response = await answer(token, { lines });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.details).toEqual([
+      expect.objectContaining({ path: ['lines', 1, 'shipDate'], message: expect.stringContaining('before today') }),
+    ]);
+    expect((await request(context.app).get(`/api/confirm/${token}`)).status).toBe(200);
+  });
+
+  it('stores the arrival a ship date implies: transit days after it, in working days', async () => {
+    await context.dataSource.getRepository(SupplierEntity).update({ code: 'SUP-A' }, { transitDays: 2 });
+    try {
+      const { release, token } = await freshRelease();
+      const lines = asRequested(release);
+      // Shipped Friday 26 Mar 2027 (a Friday in the Gregorian calendar), two working days on the
+      // road (Monday 29, Tuesday 30): arrives Tuesday 30 Mar.
+      expect(isoWeekday('2027-03-26')).toBe(5);
+      for (const line of lines) line.shipDate = '2027-03-26';
+
+      await answer(token, { lines });
+
+      const stored = await context.dataSource.getRepository(ReleaseLineEntity).findBy({ releaseId: release.id });
+      expect(stored.map((line) => line.arrivalDate)).toEqual(['2027-03-30', '2027-03-30']);
+    } finally {
+      await context.dataSource.getRepository(SupplierEntity).update({ code: 'SUP-A' }, { transitDays: 0 });
+    }
   });
 
   it('lets the buyer resend an exception, which waits for a new answer', async () => {

@@ -9,6 +9,7 @@ import { hashPassword } from '../../server/users/passwords';
 import { openDatabase, type Database } from '../../server/db/database';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { UserEntity } from '../../server/users/user.entity';
+import { SUPPLIER_DEFAULT_TERMS } from '../../shared/schemas/master-data';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
 export const TEST_PASSWORD = 'correct-horse-battery';
@@ -42,18 +43,18 @@ export async function createTestContext(options: Partial<AppOptions> = {}): Prom
       name: 'Supplier A',
       email: 'orders@supplier-a.example.com',
       leadTimeDays: 3,
-      cycleDays: 1,
-      deliveriesPerCycle: 1,
-      deliveryDelay: 1,
+      ...SUPPLIER_DEFAULT_TERMS,
     },
     {
       code: 'SUP-B',
       name: 'Supplier B',
       email: 'orders@supplier-b.example.net',
       leadTimeDays: 5,
+      ...SUPPLIER_DEFAULT_TERMS,
+      // Two deliveries a week, each two deliveries (5 working days) after its signal.
       cycleDays: 5,
       deliveriesPerCycle: 2,
-      deliveryDelay: 1,
+      deliveryDelay: 2,
     },
   ]);
   const roles: Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'supplier', 'viewer'];

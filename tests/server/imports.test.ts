@@ -76,11 +76,11 @@ describe('POST /api/imports/suppliers', () => {
   });
   afterAll(() => context.close());
 
-  it('adds new suppliers, updates existing ones by code and fills empty delivery-cycle cells with 1–1–1', async () => {
+  it('adds new suppliers, updates existing ones by code and leaves an empty delivery cycle to be derived', async () => {
     const file = csv(
-      'code,name,email,lead_time_days,cycle_days,deliveries_per_cycle,delivery_delay',
-      'SUP-A,Supplier A renamed,orders@supplier-a.example.com,4,5,2,1',
-      'SUP-C,Supplier C,orders@supplier-c.example.org,6,,,',
+      'code,name,email,lead_time_days,cycle_days,deliveries_per_cycle,delivery_delay,transit_days,delivery_weekdays',
+      'SUP-A,Supplier A renamed,orders@supplier-a.example.com,4,5,2,2,1,Mon;Thu',
+      'SUP-C,Supplier C,orders@supplier-c.example.org,6,,,,,',
     );
 
     const response = await upload(context, 'suppliers', file);
@@ -94,8 +94,47 @@ describe('POST /api/imports/suppliers', () => {
       leadTimeDays: 4,
       cycleDays: 5,
       deliveriesPerCycle: 2,
+      deliveryDelay: 2,
+      transitDays: 1,
+      deliveryWeekdays: [1, 4],
     });
-    expect(suppliers[2]).toMatchObject({ leadTimeDays: 6, cycleDays: 1, deliveriesPerCycle: 1, deliveryDelay: 1 });
+    expect(suppliers[2]).toMatchObject({
+      leadTimeDays: 6,
+      cycleDays: null,
+      deliveriesPerCycle: null,
+      deliveryDelay: null,
+      transitDays: 0,
+      deliveryWeekdays: [],
+      overTolerancePct: 0,
+      earlyToleranceDays: 1,
+      lateToleranceDays: 0,
+    });
+  });
+
+  it('refuses a delivery cycle that contradicts the lead time, a partial cycle and an unknown weekday, naming each cell', async () => {
+    const file = csv(
+      'code,name,email,lead_time_days,cycle_days,deliveries_per_cycle,delivery_delay,transit_days,delivery_weekdays',
+      'SUP-X,Supplier X,orders@supplier-x.example.org,10,1,1,1,,',
+      'SUP-Y,Supplier Y,orders@supplier-y.example.org,5,5,,,,',
+      'SUP-Z,Supplier Z,orders@supplier-z.example.org,5,,,,6,Mon;Funday',
+    );
+
+    const response = await upload(context, 'suppliers', file);
+
+    expect(response.status).toBe(422);
+    const details: { row: number; column: string; message: string }[] = response.body.error.details;
+    expect(details).toContainEqual({
+      row: 2,
+      column: 'delivery_delay',
+      message: expect.stringContaining('use a delay of at least 10 deliveries (1-1-10)'),
+    });
+    expect(details).toContainEqual({ row: 3, column: 'cycle_days', message: expect.stringContaining('whole') });
+    expect(details).toContainEqual({
+      row: 4,
+      column: 'delivery_weekdays',
+      message: expect.stringContaining("'Funday' is not a weekday"),
+    });
+    expect(await count(context, SupplierEntity)).toBe(3);
   });
 
   it('updates instead of duplicating when the same file is imported again', async () => {
@@ -105,9 +144,17 @@ describe('POST /api/imports/suppliers', () => {
 
     expect(response.status).toBe(200);
     expect(await count(context, SupplierEntity)).toBe(3);
-    // The delivery-cycle columns are left out of this header, so SUP-C keeps what it had.
+    // The terms columns are left out of this header, so SUP-A keeps what it had.
     const supplierC = await context.dataSource.getRepository(SupplierEntity).findOneByOrFail({ code: 'SUP-C' });
-    expect(supplierC).toMatchObject({ name: 'Supplier C second name', leadTimeDays: 7, cycleDays: 1 });
+    expect(supplierC).toMatchObject({ name: 'Supplier C second name', leadTimeDays: 7, cycleDays: null });
+    const kept = await upload(
+      context,
+      'suppliers',
+      csv('code,name,email,lead_time_days', 'SUP-A,A,orders@supplier-a.example.com,4'),
+    );
+    expect(kept.status).toBe(200);
+    const supplierA = await context.dataSource.getRepository(SupplierEntity).findOneByOrFail({ code: 'SUP-A' });
+    expect(supplierA).toMatchObject({ cycleDays: 5, deliveryDelay: 2, transitDays: 1, deliveryWeekdays: [1, 4] });
   });
 
   it('records one audit event per import with the kind and the count', async () => {

@@ -13,6 +13,7 @@ import { plantToday } from '../../server/planning/plan-dates';
 import { SequenceEntryEntity } from '../../server/sequence/sequence-entry.entity';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { SUPPLIER_DEFAULT_TERMS } from '../../shared/schemas/master-data';
 
 // Three faults seen when one SQLite connection served every request: a read saw rows of an import
 // that later rolled back, a read saw a two-day swap half applied, and a mail marked sent inside
@@ -52,9 +53,7 @@ describe('request isolation', () => {
           name: `Imported ${index}`,
           email: `imp${index}@example.com`,
           leadTimeDays: 3,
-          cycleDays: 1,
-          deliveriesPerCycle: 1,
-          deliveryDelay: 1,
+          ...SUPPLIER_DEFAULT_TERMS,
         })),
       ),
     );
@@ -160,9 +159,7 @@ describe('request isolation', () => {
             name: 'Never committed',
             email: 'killed@example.com',
             leadTimeDays: 1,
-            cycleDays: 1,
-            deliveriesPerCycle: 1,
-            deliveryDelay: 0,
+            ...SUPPLIER_DEFAULT_TERMS,
           },
         ]),
       );

@@ -127,11 +127,15 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
     ]);
   });
 
-  it('counts a confirmed line at the later of its ship and need dates, with its confirmed open quantity', async () => {
-    await releaseLineForC('confirmed', { confirmedQty: 2, shipDate: '2026-12-22' });
+  it('counts a confirmed line on the arrival its ship date implies, with its confirmed open quantity', async () => {
+    await releaseLineForC('confirmed', { confirmedQty: 2, shipDate: '2026-12-21', arrivalDate: '2026-12-22' });
     const onTime = await getShortages();
     await context.dataSource.transaction(async (manager) => {
-      await manager.update(ReleaseLineEntity, { partNumber: 'C' }, { shipDate: '2026-12-23' });
+      await manager.update(
+        ReleaseLineEntity,
+        { partNumber: 'C' },
+        { shipDate: '2026-12-22', arrivalDate: '2026-12-23' },
+      );
       await bumpPlanningVersion(manager);
     });
     const shippedLate = await getShortages();

@@ -6,6 +6,7 @@ import { CardScanEntity } from '../../server/loops/card-scan.entity';
 import { syncLoops } from '../../server/loops/loop-sync';
 import { replaceBomLines } from '../../server/master-data/master-data.writer';
 import { savePartsWithStock } from '../../server/stock/stock.service';
+import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Part } from '../../shared/schemas/master-data';
@@ -75,6 +76,13 @@ beforeAll(async () => {
   context = await createTestContext();
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] });
+    // SUP-B states its cycle 5-2-1 (two deliveries a week, each one delivery after its signal: 2.5
+    // working days), which its 2-day lead time allows.
+    await manager.update(
+      SupplierEntity,
+      { code: 'SUP-B' },
+      { leadTimeDays: 2, cycleDays: 5, deliveriesPerCycle: 2, deliveryDelay: 1 },
+    );
     await savePartsWithStock(manager, [
       part('M', { source: 'end_item', supplierCode: null, replenishment: null, pointOfUse: null }),
       part('C', { packQty: 2, description: 'Caster 100 mm' }),
@@ -182,8 +190,9 @@ describe('GET /api/kanban/loops', () => {
     // Sizing by N = ⌈D · T · (1 + α) / C⌉ (Krajewski, Ritzman & Malhotra, "Operations Management:
     // Processes and Supply Chains", ch. "Lean Systems"; Stevenson, "Operations Management", ch. 14 —
     // from memory), α = 0.1 by default. Worked by hand from the fixture above:
-    // C: D = 2 × 20 units / 20 days = 2/day, peak 2 × 10 = 20 on 11 Jan; SUP-A cycle 1-1-1 →
-    //    T = 1 × (1 + 1) / 1 = 2 days; N = ⌈2 × 2 × 1.1 / 2⌉ = ⌈2.2⌉ = 3.
+    // C: D = 2 × 20 units / 20 days = 2/day, peak 2 × 10 = 20 on 11 Jan; SUP-A states no cycle and
+    //    delivers every working day, so with lead time 0 its cycle is 5-5-1 (the least delay is one
+    //    delivery) → T = 5 × (1 + 1) / 5 = 2 days; N = ⌈2 × 2 × 1.1 / 2⌉ = ⌈2.2⌉ = 3.
     // D: D = 20 / 20 = 1/day, peak 10; SUP-B cycle 5-2-1 → T = 5 × (1 + 1) / 2 = 5 days;
     //    N = ⌈1 × 5 × 1.1 / 1⌉ = ⌈5.5⌉ = 6.
     // S: made in-house, lead time 0 raised to the 1-day minimum; N = ⌈1 × 1 × 1.1 / 1⌉ = ⌈1.1⌉ = 2.

@@ -41,9 +41,9 @@ const PARTS = csv(
 );
 const SUPPLIERS = csv(
   'code,name,email,lead_time_days,cycle_days,deliveries_per_cycle,delivery_delay',
-  'SUP-A,Supplier A again,orders@supplier-a.example.com,4,5,2,1',
+  'SUP-A,Supplier A again,orders@supplier-a.example.com,4,5,2,2',
   'SUP-C,Supplier C,orders@supplier-c.example.org,6,,,',
-  'SUP-D,Supplier D,orders@supplier-d.example.net,2,1,1,0',
+  'SUP-D,Supplier D,orders@supplier-d.example.net,2,1,1,2',
 );
 const BOM = csv(
   'parent,component,qty_per,scrap_pct,effective_from,effective_to',

@@ -12,12 +12,13 @@ import { replaceBomLines } from '../../server/master-data/master-data.writer';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { PlanningService } from '../../server/planning/planning.service';
-import { HAZARDOUS_NOTE } from '../../server/releases/release-mail';
+import { EXPEDITE_NOTE, HAZARDOUS_NOTE } from '../../server/releases/release-mail';
 import { ReleasesService, RELEASE_JOB_LAST_RUN } from '../../server/releases/releases.service';
 import { writeSetting } from '../../server/settings/settings';
 import { readPlanningVersion } from '../../server/settings/versions';
 import { cardNumber } from '../../shared/domain/gs1';
-import { kanbanReplenishmentWorkingDays, releaseNumber } from '../../shared/domain/release-rules';
+import { releaseNumber } from '../../shared/domain/release-rules';
+import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
@@ -27,11 +28,12 @@ let context: TestContext;
 
 /*
  * Fixture, on a Monday–Friday calendar without holidays; the run date is Monday 1 March 2027.
- * Suppliers (from helpers): SUP-A delivers on cycle 1-1-1, SUP-B on cycle 5-2-1.
+ * Suppliers (from helpers): SUP-A delivers every working day; SUP-B here on Thursdays only.
  *
  * Kanban parts, one supplier loop each:
- * - K from SUP-A, container 10: cards 1 and 2 empty, card 3 full, card 4 empty but pulled (retired).
- * - H from SUP-B, container 4, hazardous: card 1 empty.
+ * - K from SUP-A, lead time 2, container 10: cards 1 and 2 empty, card 3 full, card 4 empty but
+ *   pulled (retired).
+ * - H from SUP-B, lead time 5, container 4, hazardous: card 1 empty.
  * Scheduled parts (bought), under end item M (1 × P and 2 × Q per unit):
  * - P from SUP-A: lead time 2 working days, pack 5, on hand 3.
  * - Q from SUP-B: lead time 3 working days, pack 1, on hand 20.
@@ -42,10 +44,17 @@ const RUN_DATE = '2027-03-01';
 async function seedFixture(): Promise<void> {
   await context.dataSource.transaction(async (manager) => {
     await writeCalendar(manager, { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] });
+    await manager.update(SupplierEntity, { code: 'SUP-B' }, { deliveryWeekdays: [4] });
     await savePartsWithStock(manager, [
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
-      testPart('K', { packQty: 10, description: 'Caster 100 mm' }),
-      testPart('H', { packQty: 4, supplierCode: 'SUP-B', hazardous: true, description: 'Battery 6 V' }),
+      testPart('K', { packQty: 10, leadTimeDays: 2, description: 'Caster 100 mm' }),
+      testPart('H', {
+        packQty: 4,
+        leadTimeDays: 5,
+        supplierCode: 'SUP-B',
+        hazardous: true,
+        description: 'Battery 6 V',
+      }),
       testPart('P', { replenishment: 'scheduled', leadTimeDays: 2, packQty: 5, onHand: 3, description: 'Side panel' }),
       testPart('Q', { replenishment: 'scheduled', supplierCode: 'SUP-B', leadTimeDays: 3, packQty: 1, onHand: 20 }),
     ]);
@@ -125,27 +134,35 @@ afterAll(async () => {
 
 describe('POST /api/releases/run', () => {
   it('builds one release per supplier from empty cards and due planned releases', () => {
-    // Kanban lines: one per empty card in circulation, qty = container, needed after the
-    // supplier's replenishment time T = days × (1 + delay) / deliveries (Monden, "Toyota Production
-    // System", supplier kanban cycle, from memory), rounded up to whole working days:
-    //   SUP-A 1-1-1 → T = 1 × 2 / 1 = 2 → Mon 1 Mar + 2 working days = Wed 3 Mar;
-    //   SUP-B 5-2-1 → T = 5 × 2 / 2 = 5 → Mon 1 Mar + 5 working days = Mon 8 Mar.
+    // Kanban lines: one per empty card in circulation, qty = container, needed on the supplier's
+    // first delivery day once its lead time has passed (the loop's T = lead time plus one delivery
+    // interval covers the wait):
+    //   K (SUP-A, every day, LT 2): Mon 1 Mar + 2 working days = Wed 3 Mar;
+    //   H (SUP-B, Thursdays, LT 5): Mon 1 Mar + 5 = Mon 8 Mar → next Thursday, Thu 11 Mar.
     // Planned lines, worked by hand with the MRP record's rules (gross-to-net against on hand,
     // lot-for-lot rounded up to packs, release = receipt − lead time; Vollmann, Berry, Whybark and
     // Jacobs, "Manufacturing Planning and Control for Supply Chain Management", 5th ed., ch. 6,
-    // from memory):
-    //   P (on hand 3, pack 5, LT 2): Mon 1 Mar gross 4 → net 1 → receipt 5, released Thu 25 Feb
-    //     (past due); Wed 3 Mar gross 6 on 4 available → net 2 → receipt 5, released Mon 1 Mar (due);
-    //     Mon 8 Mar gross 10 on 3 → receipt 10 released Thu 4 Mar, not yet due.
-    //   Q (on hand 20, LT 3): 8 and 12 use up the stock; Mon 8 Mar needs 20, released Wed 3 Mar —
-    //     not yet due, so SUP-B's release carries only the kanban line.
+    // from memory), each receipt then brought forward to the supplier's last delivery day on or
+    // before it and ordered a lead time before that:
+    //   P (SUP-A, on hand 3, pack 5, LT 2): Mon 1 Mar gross 4 → net 1 → receipt 5 on Mon 1 Mar,
+    //     released Thu 25 Feb (past due): ordered today it can come Wed 3 Mar at the earliest, so it
+    //     is an expedite asked for Mon 1 Mar; Wed 3 Mar gross 6 on 4 available → net 2 → receipt 5,
+    //     due today; Mon 8 Mar gross 10 on 3 → receipt 10, ordered Thu 4 Mar, not yet due.
+    //   Q (SUP-B, on hand 20, LT 3): 8 and 12 use up the stock; Mon 8 Mar needs 20. The plan would
+    //     release it Wed 3 Mar, but SUP-B brings it on Thursday 4 Mar, which must be ordered today.
     expect(firstRun.date).toBe(RUN_DATE);
     expect(firstRun.existing).toEqual([]);
     const summary = firstRun.releases.map((release) => ({
       number: release.number,
       supplierCode: release.supplierCode,
       status: release.status,
-      lines: release.lines.map(({ partNumber, qty, needDate, origin }) => ({ partNumber, qty, needDate, origin })),
+      lines: release.lines.map(({ partNumber, qty, needDate, origin, expedite }) => ({
+        partNumber,
+        qty,
+        needDate,
+        origin,
+        expedite,
+      })),
     }));
     expect(summary).toEqual([
       {
@@ -153,17 +170,20 @@ describe('POST /api/releases/run', () => {
         supplierCode: 'SUP-A',
         status: 'sent',
         lines: [
-          { partNumber: 'P', qty: 5, needDate: '2027-03-01', origin: 'plan' },
-          { partNumber: 'K', qty: 10, needDate: '2027-03-03', origin: 'kanban' },
-          { partNumber: 'K', qty: 10, needDate: '2027-03-03', origin: 'kanban' },
-          { partNumber: 'P', qty: 5, needDate: '2027-03-03', origin: 'plan' },
+          { partNumber: 'P', qty: 5, needDate: '2027-03-01', origin: 'plan', expedite: true },
+          { partNumber: 'K', qty: 10, needDate: '2027-03-03', origin: 'kanban', expedite: false },
+          { partNumber: 'K', qty: 10, needDate: '2027-03-03', origin: 'kanban', expedite: false },
+          { partNumber: 'P', qty: 5, needDate: '2027-03-03', origin: 'plan', expedite: false },
         ],
       },
       {
         number: 'R270301-SUP-B',
         supplierCode: 'SUP-B',
         status: 'sent',
-        lines: [{ partNumber: 'H', qty: 4, needDate: '2027-03-08', origin: 'kanban' }],
+        lines: [
+          { partNumber: 'Q', qty: 20, needDate: '2027-03-04', origin: 'plan', expedite: false },
+          { partNumber: 'H', qty: 4, needDate: '2027-03-11', origin: 'kanban', expedite: false },
+        ],
       },
     ]);
     expect(firstRun.releases[0].lines[0]).toMatchObject({
@@ -215,6 +235,10 @@ describe('POST /api/releases/run', () => {
     expect(mailA.html).toContain('R270301-SUP-A');
     expect(mailA.text).not.toContain(HAZARDOUS_NOTE);
     expect(mailB.text).toContain(HAZARDOUS_NOTE);
+    // One expedite line on SUP-A's release (P for Mon 1 Mar), none on SUP-B's.
+    expect(mailA.text.split(EXPEDITE_NOTE)).toHaveLength(2);
+    expect(mailA.html).toContain('Expedite');
+    expect(mailB.text).not.toContain(EXPEDITE_NOTE);
     const page = await request(context.app).get(`/api/confirm/${tokenIn(mailA.text)}`);
     expect(page.status).toBe(200);
     expect(page.body.release).toMatchObject({
@@ -438,13 +462,5 @@ describe('ReleaseJob', () => {
 describe('release rules', () => {
   it('numbers a release R + yymmdd + supplier code', () => {
     expect(releaseNumber('SUP-A', '2027-03-01')).toBe('R270301-SUP-A');
-  });
-
-  it('rounds the delivery-cycle replenishment time up to whole working days, at least one', () => {
-    // T = days × (1 + delay) / deliveries (Monden, "Toyota Production System", from memory):
-    // 1-4-2 → 0.75 day → 1; 5-2-1 → 5; 2-3-1 → 4/3 → 2.
-    expect(kanbanReplenishmentWorkingDays({ days: 1, deliveries: 4, delay: 2 })).toBe(1);
-    expect(kanbanReplenishmentWorkingDays({ days: 5, deliveries: 2, delay: 1 })).toBe(5);
-    expect(kanbanReplenishmentWorkingDays({ days: 2, deliveries: 3, delay: 1 })).toBe(2);
   });
 });
