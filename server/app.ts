@@ -23,6 +23,7 @@ import { createLoopsRouter } from './loops/loops.router';
 import { createMasterDataRouter } from './master-data/master-data.router';
 import type { FakeSmtp } from './outbox/fake-smtp';
 import { createOutboxRouter } from './outbox/outbox.router';
+import { createOverviewRouter } from './overview/overview.router';
 import { createConfirmRouter } from './releases/confirm.router';
 import { createReleasesRouter } from './releases/releases.router';
 import { createSequenceRouter } from './sequence/sequence.router';
@@ -102,6 +103,7 @@ export function createApp(
   api.use(createDockRouter(services, deps));
   api.use(createStockRouter(services, deps));
   api.use(createBuildsRouter(services, deps));
+  api.use(createOverviewRouter(services, deps));
 
   const openApiDocument = generateOpenApiDocument(deps.registry);
   api.get('/openapi.json', (_req, res) => {

@@ -12,6 +12,7 @@ import { LineRiskService } from './line-risk/line-risk.service';
 import { LoopsService } from './loops/loops.service';
 import { MasterDataService } from './master-data/master-data.service';
 import { OutboxService } from './outbox/outbox.service';
+import { OverviewService } from './overview/overview.service';
 import { PlanningService } from './planning/planning.service';
 import { ConfirmService } from './releases/confirm.service';
 import { ReleasesService } from './releases/releases.service';
@@ -47,6 +48,8 @@ export function createServices(db: Database, options: ServiceOptions) {
   const planning = new PlanningService(db);
   const loops = new LoopsService(db, planning);
   const lineRisk = new LineRiskService(db, loops);
+  const dock = new DockService(db);
+  const outbox = new OutboxService(db);
   return {
     db,
     appUrl,
@@ -67,11 +70,12 @@ export function createServices(db: Database, options: ServiceOptions) {
     lineRisk,
     releases: new ReleasesService(db, planning, { appUrl }),
     confirm: new ConfirmService(db),
-    dock: new DockService(db),
+    dock,
     receipts: new ReceiptsService(db),
     attachments: new AttachmentsService(db, options.attachmentsDir ?? defaultAttachmentsDir(db)),
     supplierPerformance: new SupplierPerformanceService(db),
-    outbox: new OutboxService(db),
+    outbox,
+    overview: new OverviewService(db, { lineRisk, loops, dock, outbox }),
     stock: new StockService(db),
     builds: new BuildsService(db),
   };

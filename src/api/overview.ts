@@ -1,0 +1,7 @@
+import type { Overview } from '@shared/schemas/overview';
+import { http } from './http';
+
+/** The figures the signed-in role watches on its Overview. */
+export function getOverview(signal?: AbortSignal): Promise<Overview> {
+  return http.get<Overview>('/overview', { signal });
+}
