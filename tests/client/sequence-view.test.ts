@@ -398,6 +398,7 @@ describe('SequenceView', () => {
       .filter((card) => card.find('[data-test="unit-risk"]').exists())
       .map((card) => card.attributes('data-serial'));
     expect(marked).toEqual(['S7', 'S9']);
+    expect(wrapper.get('[data-test="at-risk-count"]').text()).toContain('2 units at risk');
     const mark = wrapper.get('[data-serial="S7"] [data-test="unit-risk"]');
     expect(mark.attributes('tabindex')).toBe('0');
     expect(mark.text()).toBe('At risk');

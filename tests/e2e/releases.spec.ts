@@ -20,8 +20,9 @@ interface LoopRow {
 }
 
 /**
- * The demo starts its loops without cards: put one supplier loop's cards into circulation and
- * signal one card empty at the line, so today's run has a kanban line as well as planned ones.
+ * The demo starts its loops with full cards (one loop short of two): top up a supplier loop that
+ * proposes cards and signal one card empty at the line, so today's run has a kanban line as well
+ * as planned ones.
  */
 async function emptyOneKanbanCard(request: APIRequestContext, token: string): Promise<LoopRow> {
   const headers = { Authorization: `Bearer ${token}` };
