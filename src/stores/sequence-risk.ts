@@ -48,11 +48,6 @@ export const useSequenceRiskStore = defineStore('sequence-risk', () => {
     );
   }
 
-  /** Reads the inputs again after a planning change (same days). */
-  async function refresh(): Promise<void> {
-    if (range.value) await load(range.value);
-  }
-
   /** What the new day orders would do, or null while the inputs are not loaded. */
   function preview(orders: readonly DayOrder[]): TimedWhatIf | null {
     if (!input.value || !outlook.value) return null;
@@ -68,5 +63,5 @@ export const useSequenceRiskStore = defineStore('sequence-risk', () => {
     outlook.value = result.after;
   }
 
-  return { input, outlook, range, loading, error, atRisk, load, refresh, preview, adopt };
+  return { input, outlook, range, loading, error, atRisk, load, preview, adopt };
 });
