@@ -1,25 +1,42 @@
 /*
- * Opening stock of the demo. Ordinary bought parts hold 12–20 days of their own demand, so none
- * runs out inside the first two working weeks; the parts below are deliberately thin so that
- * Line risk has real shortages to show, the first one a hazardous battery.
+ * Opening stock of the demo. Ordinary scheduled parts hold 12–20 days of their own demand, so none
+ * runs out inside the first two working weeks (later days are for the normal releases to cover).
+ * A kanban part's stock is its loop's full containers, which hold more than the demand over the
+ * loop's replenishment time: 10 days more than a scheduled part, so no right-sized loop runs dry
+ * before its first emptied container comes back. One part is deliberately thin so that Line risk has
+ * a real alarm to show: the hazardous traction battery, whose supplier is late with the next
+ * delivery, runs out inside its lead time (an expedite).
  */
 
 /** Days of demand held by the deliberately short parts (each also gets half the next day's need). */
 export const SHORT_COVER_DAYS: Record<string, number> = {
   'BAT-06-312': 4,
-  'TNK-R60': 3,
-  'HNS-M26': 5,
-  'CTL-W24': 6,
 };
+
+/**
+ * The other planted line-risk stories. A kanban loop that lost cards on the floor and never had
+ * them replaced: fewer cards circulate than it needs (a loop alarm). A part last counted long ago
+ * that runs short in the four-week view: count it before trusting the figure (a count alarm).
+ */
+export const UNDERSIZED_LOOP = { partNumber: 'GRP-W', lostCards: 2, coverDays: 10 };
+export const COUNT_TO_CHECK = 'DRM-R15';
 
 const MIN_COVER_DAYS = 12;
 const COVER_SPREAD_DAYS = 9;
+const KANBAN_EXTRA_COVER_DAYS = 10;
 
 /** A stable 12–20 day cover per part number, so stock levels differ without any randomness. */
 export function normalCoverDays(partNumber: string): number {
   let hash = 0;
   for (const char of partNumber) hash = (hash * 31 + char.charCodeAt(0)) % 9973;
   return MIN_COVER_DAYS + (hash % COVER_SPREAD_DAYS);
+}
+
+/** Days of demand a bought part holds at the start, by how it is replenished. */
+export function openingCoverDays(partNumber: string, replenishment: string | null): number {
+  if (partNumber === UNDERSIZED_LOOP.partNumber) return UNDERSIZED_LOOP.coverDays;
+  const normal = normalCoverDays(partNumber);
+  return replenishment === 'kanban' ? normal + KANBAN_EXTRA_COVER_DAYS : normal;
 }
 
 /** The days on which a part is needed at all, in order (a new part after a change starts late). */

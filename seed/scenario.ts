@@ -3,7 +3,7 @@ import type { IsoDate, PlantCalendar } from '../shared/domain/types';
 import { dailyGrossDemand } from './scenario-demand';
 import { BOUGHT, ENGINEERING_CHANGE, MADE, MODELS, FS20W, FS26W, FS32R, FS40R } from './scenario-parts';
 import { buildSequence, type ModelQuota } from './scenario-sequence';
-import { SHORT_COVER_DAYS, coveringStock, madeStock, normalCoverDays, shortStock } from './scenario-stock';
+import { SHORT_COVER_DAYS, coveringStock, madeStock, openingCoverDays, shortStock } from './scenario-stock';
 import { demoSuppliers, demoUsers } from './scenario-suppliers';
 import type { DemoBomLine, DemoPart, DemoScenario } from './scenario-types';
 
@@ -104,7 +104,11 @@ function demoParts(demand: Map<string, number[]>, supplierLeadTimes: Map<string,
     const shortDays = SHORT_COVER_DAYS[entry.partNumber];
     const onHand =
       shortDays === undefined
-        ? coveringStock(perDay(entry.partNumber), normalCoverDays(entry.partNumber), entry.packQty)
+        ? coveringStock(
+            perDay(entry.partNumber),
+            openingCoverDays(entry.partNumber, entry.replenishment ?? null),
+            entry.packQty,
+          )
         : shortStock(perDay(entry.partNumber), shortDays);
     return {
       partNumber: entry.partNumber,

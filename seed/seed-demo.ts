@@ -14,7 +14,13 @@ import { SequenceEntryEntity } from '../server/sequence/sequence-entry.entity';
 import { backflush, bomByParent } from '../shared/domain/backflush';
 import { roundQty } from '../shared/domain/quantity';
 import type { EntityManager } from 'typeorm';
+import { LoopsService } from '../server/loops/loops.service';
+import { KanbanCardEntity } from '../server/loops/kanban-card.entity';
+import { PlanningService } from '../server/planning/planning.service';
+import { bumpPlanningVersion } from '../server/settings/versions';
+import { cardNumber } from '../shared/domain/gs1';
 import { buildDemoScenario, type DemoScenario } from './scenario';
+import { COUNT_TO_CHECK, UNDERSIZED_LOOP } from './scenario-stock';
 
 /** Every demo account shares this password; it exists only in the demo database. */
 export const DEMO_PASSWORD = 'cardloop-demo';
@@ -81,13 +87,45 @@ async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario):
 async function seedCountHistory(manager: EntityManager, scenario: DemoScenario, opened: string): Promise<void> {
   const stocked = scenario.parts.filter((part) => part.source !== 'end_item');
   for (const [index, part] of stocked.entries()) {
-    const daysBefore = 1 + ((index * 37) % 80);
+    // The part planted for Line risk's count story was counted well past the interval.
+    const daysBefore = part.partNumber === COUNT_TO_CHECK ? 120 : 1 + ((index * 37) % 80);
     const countedAt = new Date(new Date(opened).getTime() - daysBefore * 86_400_000).toISOString();
     await manager.update(PartEntity, { partNumber: part.partNumber }, { lastCountedAt: countedAt });
   }
 }
 
-/** Writes the invented demo plant into an empty database in one transaction. */
+const CARD_INSERT_CHUNK = 200;
+
+/**
+ * The buyer printed every kanban loop's recommended cards when the plant started, all full, so
+ * each loop supplies its part; the one planted loop lost two cards on the floor that were never
+ * replaced, and runs short.
+ */
+async function seedLoopCards(db: Database): Promise<void> {
+  const loops = await new LoopsService(db, new PlanningService(db)).listLoops();
+  const now = new Date().toISOString();
+  const rows = loops.flatMap((loop) => {
+    const lost = loop.partNumber === UNDERSIZED_LOOP.partNumber ? UNDERSIZED_LOOP.lostCards : 0;
+    const count = Math.max(0, loop.recommendedCards - lost);
+    return Array.from({ length: count }, (_, offset) => ({
+      loopId: loop.id,
+      cardIndex: offset + 1,
+      cardNumber: cardNumber(loop.id, offset + 1),
+      state: 'full',
+      stateChangedAt: now,
+      retiredAt: null,
+      releaseLineId: null,
+    }));
+  });
+  await db.write(async (manager) => {
+    for (let start = 0; start < rows.length; start += CARD_INSERT_CHUNK) {
+      await manager.insert(KanbanCardEntity, rows.slice(start, start + CARD_INSERT_CHUNK));
+    }
+    await bumpPlanningVersion(manager);
+  });
+}
+
+/** Writes the invented demo plant into an empty database in one transaction, then issues its kanban cards. */
 export async function seedDemoScenario(db: Database, seedDay: string): Promise<void> {
   const scenario = buildDemoScenario(seedDay);
   const passwordHash = await hashPassword(DEMO_PASSWORD);
@@ -124,4 +162,5 @@ export async function seedDemoScenario(db: Database, seedDay: string): Promise<v
       },
     });
   });
+  await seedLoopCards(db);
 }

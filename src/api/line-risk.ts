@@ -1,3 +1,4 @@
+import type { LineRiskInput } from '@shared/domain/line-risk';
 import type { LineRiskReport } from '@shared/schemas/line-risk';
 import { http } from './http';
 
@@ -10,4 +11,9 @@ export interface LineRiskRange {
 /** Units at risk, short parts and rescues over the horizon, for the Line risk screen. */
 export function getLineRisk(range: LineRiskRange, signal?: AbortSignal): Promise<LineRiskReport> {
   return http.get<LineRiskReport>('/line-risk', { query: { ...range }, signal });
+}
+
+/** The line-risk engine's inputs over a horizon (parts, BOM, units not built, firm receipts, loops, calendar), for a what-if in the browser. */
+export function getEngineInput(range: LineRiskRange, signal?: AbortSignal): Promise<LineRiskInput> {
+  return http.get<LineRiskInput>('/line-risk/engine-input', { query: { ...range }, signal });
 }

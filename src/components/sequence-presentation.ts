@@ -1,5 +1,6 @@
+import type { UnitAtRisk } from '@shared/domain/line-risk';
 import type { SequenceDay } from '@shared/schemas/sequence';
-import { formatDay, formatWhen } from '@/format';
+import { formatDay, formatQty, formatQuantity, formatWhen } from '@/format';
 
 /** Units per model on a day, in the board's model order, models with no unit left out. */
 export function modelMix(day: SequenceDay, modelOrder: readonly string[]): { model: string; count: number }[] {
@@ -48,4 +49,35 @@ export function staleMoveMessage(error: { message: string; details: readonly unk
     ? ` ${lastChange.by} changed ${dates.length === 1 ? 'it' : 'them'} at ${formatWhen(lastChange.at)}.`
     : '';
   return `Your move was not saved: ${days} ${verb} changed since your board was loaded.${who} The board now shows the current order; make your move again if it is still needed.`;
+}
+
+/** "At risk: lacks BAT-06-312 ×6 by Tue 8 Dec; STL-TUB-25 ×0.4 through FRM-32R by Mon 7 Dec." */
+export function riskDescription(unit: Pick<UnitAtRisk, 'lacks'>): string {
+  return `At risk: lacks ${lackList(unit)}.`;
+}
+
+/** "BAT-06-312 ×6 by Tue 8 Dec; STL-TUB-25 ×0.4 through FRM-32R by Mon 7 Dec". */
+export function lackList(unit: Pick<UnitAtRisk, 'lacks'>): string {
+  return unit.lacks
+    .map((lack) => {
+      const via = lack.via ? ` through ${lack.via}` : '';
+      return `${lack.partNumber} ×${formatQty(lack.qty)}${via} by ${formatDay(lack.neededOn)}`;
+    })
+    .join('; ');
+}
+
+/** "+6 pcs", "−2.5 kg": a change in demand with its sign and unit. */
+export function formatDemandChange(change: number, uom: string): string {
+  const sign = change > 0 ? '+' : '−';
+  return `${sign}${formatQuantity(Math.abs(change), uom)}`;
+}
+
+/** "SN26120904 (FS-32R), Wed 9 Dec position 4". */
+export function unitPlace(unit: { serial: string; model: string; date: string; sequence: number }): string {
+  return `${unit.serial} (${unit.model}), ${formatDay(unit.date)} position ${unit.sequence}`;
+}
+
+/** "Worked out in 12 ms in this browser." */
+export function elapsedWords(elapsedMs: number): string {
+  return `Worked out in ${Math.max(1, Math.round(elapsedMs))} ms in this browser.`;
 }

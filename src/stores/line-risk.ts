@@ -37,9 +37,17 @@ export const useLineRiskStore = defineStore('line-risk', () => {
   }
 
   const shortages = computed<ShortageDto[]>(() => report.value?.shortages ?? []);
-  const partsInFrozenWindow = computed(() => shortages.value.filter((shortage) => shortage.inFrozenWindow).length);
-  /** The shortage that hits first (the list is sorted by first short date). */
-  const earliest = computed<ShortageDto | null>(() => shortages.value[0] ?? null);
+  /** Shortages that need the planner now: everything but those the normal release covers. */
+  const alarms = computed<ShortageDto[]>(() => shortages.value.filter((shortage) => shortage.action !== 'release'));
+  const partsInFrozenWindow = computed(() => alarms.value.filter((shortage) => shortage.inFrozenWindow).length);
+  /** The alarm that hits first (the list comes sorted by action, then first short date). */
+  const earliest = computed<ShortageDto | null>(
+    () =>
+      alarms.value.reduce<ShortageDto | null>(
+        (first, shortage) => (!first || shortage.firstShortDate < first.firstShortDate ? shortage : first),
+        null,
+      ) ?? null,
+  );
 
   return {
     report,
@@ -48,6 +56,7 @@ export const useLineRiskStore = defineStore('line-risk', () => {
     error,
     liveUpdatedAt,
     shortages,
+    alarms,
     partsInFrozenWindow,
     earliest,
     fetchReport,

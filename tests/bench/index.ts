@@ -1,6 +1,7 @@
 import { printCloseDayBench, runCloseDayBench } from './close-day.bench';
 import { printDatabaseBench, runDatabaseBench } from './database.bench';
 import { runPlanBench } from './plan.bench';
+import { printWhatIfBench, runWhatIfBench } from './what-if.bench';
 
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
 const ms = (value: number) => `${value.toFixed(2)} ms`;
@@ -19,3 +20,5 @@ console.log('');
 printDatabaseBench(await runDatabaseBench());
 console.log('');
 printCloseDayBench(await runCloseDayBench());
+console.log('');
+printWhatIfBench(await runWhatIfBench());

@@ -5,7 +5,16 @@ import { addCalendarDays } from '@shared/domain/date';
 import type { LineRiskReport, ShortageDto } from '@shared/schemas/line-risk';
 import type { SessionUser } from '@shared/schemas/user';
 import LineRiskView from '@/views/LineRiskView.vue';
-import { expediteSentence, impactLevel, impactWhen, resequenceSentence } from '@/components/line-risk-presentation';
+import {
+  actionSentence,
+  expediteSentence,
+  groupShortages,
+  impactLevel,
+  impactWhen,
+  needByLines,
+  needBySummary,
+  resequenceSentence,
+} from '@/components/line-risk-presentation';
 import { formatQuantity, localToday } from '@/format';
 
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };
@@ -57,6 +66,56 @@ const tank: ShortageDto = {
   daysUntilImpact: 5,
   inFrozenWindow: false,
   rescue: { expedite: { qty: 3, needBy: '2026-12-08' }, resequence: null },
+};
+
+// A welding wire short through made frames: a loop with too few cards.
+const wire: ShortageDto = {
+  ...battery,
+  partNumber: 'WLD-W10',
+  uom: 'KGM',
+  action: 'loop',
+  firstShortDate: '2026-12-09',
+  shortQty: 4.5,
+  needBy: [
+    { date: '2026-12-09', qty: 2 },
+    { date: '2026-12-10', qty: 2.5 },
+  ],
+  slotsAtRisk: [
+    { date: '2026-12-11', sequence: 3, serial: 'SN26121103', model: 'FS-32R', lackQty: 0.35, via: 'FRM-32R' },
+  ],
+  slotsAtRiskCount: 1,
+  loop: { activeCards: 2, recommendedCards: 5 },
+  hazardous: false,
+  daysUntilImpact: 6,
+  inFrozenWindow: false,
+  description: 'Welding wire 1.0 mm',
+  supplierCode: 'HSS',
+  supplierName: null,
+  rescue: { expedite: { qty: 2, needBy: '2026-12-09' }, resequence: null },
+};
+
+const drum: ShortageDto = {
+  ...tank,
+  partNumber: 'DRM-R15',
+  action: 'count',
+  onHand: -2,
+  needBy: [{ date: '2026-12-10', qty: 2 }],
+  shortQty: 2,
+};
+
+// Short in three weeks: the release due on Mon 14 Dec covers it.
+const squeegee: ShortageDto = {
+  ...tank,
+  partNumber: 'SQG-W',
+  action: 'release',
+  firstShortDate: '2026-12-22',
+  releaseBy: '2026-12-14',
+  leadTimeDays: 6,
+  needBy: [{ date: '2026-12-22', qty: 8 }],
+  shortQty: 8,
+  daysUntilImpact: 14,
+  inFrozenWindow: false,
+  rescue: { expedite: { qty: 8, needBy: '2026-12-22' }, resequence: null },
 };
 
 function reportOf(shortages: ShortageDto[]): LineRiskReport {
@@ -125,7 +184,7 @@ describe('LineRiskView', () => {
     const summary = wrapper.get('[aria-label="Line risk in numbers"]');
     expect(summary.get('[data-test="summary-units"]').text()).toContain('3 units at risk');
     expect(summary.get('[data-test="summary-units"]').text()).toContain('of 240 units in the sequence');
-    expect(summary.get('[data-test="summary-parts"]').text()).toContain('2 parts short');
+    expect(summary.get('[data-test="summary-parts"]').text()).toContain('2 parts to act on');
     expect(summary.get('[data-test="summary-parts"]').text()).toContain('1 in the frozen window');
     expect(summary.get('[data-test="summary-impact"]').text()).toContain('in 2 working days');
     expect(summary.get('[data-test="summary-impact"]').text()).toContain('BAT-06-312 runs short Thu 3 Dec');
@@ -230,6 +289,51 @@ describe('LineRiskView', () => {
     expect(wrapper.text()).toContain('Updated just now');
   });
 
+  it('puts expedite and loop parts first, then count, and keeps releases closed with their send-by date', async () => {
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery, wire, drum, squeegee])) });
+
+    const { wrapper } = await openLineRisk();
+
+    const groups = wrapper.findAll('[data-test="action-group"]');
+    expect(groups.map((group) => group.attributes('data-action'))).toEqual(['expedite', 'loop', 'count', 'release']);
+    // Each group says its action in words beside its icon, never by colour alone.
+    expect(groups[0]!.get('h2').text()).toContain('Expedite now (1)');
+    expect(groups[1]!.get('h2').text()).toContain('Kanban loop cannot keep up (1)');
+    expect(groups[2]!.get('h2').text()).toContain('Count the stock first (1)');
+    expect(groups[3]!.text()).toContain(
+      '1 part covered by the normal release; the first must be released by Mon 14 Dec',
+    );
+    expect(groups[3]!.find('.el-collapse-item.is-active').exists()).toBe(false);
+    expect(groups[1]!.text()).toContain('through FRM-32R');
+  });
+
+  it('shows an expedite as a dated schedule, not one lump', async () => {
+    const spread: ShortageDto = {
+      ...battery,
+      shortQty: 30,
+      needBy: [
+        { date: '2026-12-03', qty: 6 },
+        { date: '2026-12-04', qty: 12 },
+        { date: '2026-12-07', qty: 12 },
+      ],
+      rescue: { ...battery.rescue, expedite: { qty: 6, needBy: '2026-12-03' } },
+    };
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([spread])) });
+
+    const { wrapper } = await openLineRisk();
+
+    const schedule = wrapper.get('[data-test="need-by"]');
+    const rows = schedule.findAll('tbody tr').map((row) => row.findAll('th, td').map((cell) => cell.text()));
+    expect(rows).toEqual([
+      ['Thu 3 Dec', '6 pcs', '6 pcs'],
+      ['Fri 4 Dec', '12 pcs', '18 pcs'],
+      ['Mon 7 Dec', '12 pcs', '30 pcs'],
+    ]);
+    expect(wrapper.get('[aria-label="Rescue for BAT-06-312"]').text()).toContain(
+      'Expedite 6 pcs of BAT-06-312 from FBS (Battery Supply Co) by Thu 3 Dec.',
+    );
+  });
+
   it('lists each unit at risk with the parts that stop it', async () => {
     stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery, tank])) });
     const { wrapper } = await openLineRisk();
@@ -253,6 +357,25 @@ describe('line-risk wording', () => {
     expect([0, 1, 4].map(impactWhen)).toEqual(['today', 'in 1 working day', 'in 4 working days']);
     expect(formatQuantity(1, 'H87')).toBe('1 pc');
     expect(formatQuantity(1250.5, 'KGM')).toBe('1,250.5 kg');
+  });
+
+  it('groups alarms in action order and leaves out empty groups', () => {
+    const { alarms, releases } = groupShortages([squeegee, drum, battery]);
+
+    expect(alarms.map((group) => group.action)).toEqual(['expedite', 'count']);
+    expect(releases.map((shortage) => shortage.partNumber)).toEqual(['SQG-W']);
+  });
+
+  it('words the dated need and what each action asks', () => {
+    expect(needBySummary(wire)).toBe('2 kg by Wed 9 Dec, then 2.5 kg more to Thu 10 Dec');
+    expect(needByLines(wire).map((line) => line.cumulative)).toEqual(['2 kg', '4.5 kg']);
+    expect(actionSentence(wire)).toBe(
+      'The loop has 2 cards in circulation and needs 5. Add cards (Loops) so the loop covers the demand over its replenishment time.',
+    );
+    expect(actionSentence(drum)).toBe('On-hand reads -2 pcs: count DRM-R15 before expediting anything.');
+    expect(actionSentence(squeegee)).toBe(
+      'The normal release covers it if sent by Mon 14 Dec (lead time 6 working days).',
+    );
   });
 
   it('words the rescues as instructions', () => {

@@ -4,6 +4,7 @@ import { flushPromises } from '@vue/test-utils';
 import draggable from 'vuedraggable';
 import type { SequenceBoard, SequenceDay, SequenceUnit } from '@shared/schemas/sequence';
 import type { SessionUser } from '@shared/schemas/user';
+import type { LineRiskInput } from '@shared/domain/line-risk';
 import { planMove } from '@shared/domain/sequence';
 import SequenceView from '@/views/SequenceView.vue';
 
@@ -69,6 +70,46 @@ function boardOf(): SequenceBoard {
   };
 }
 
+/**
+ * The line-risk engine's inputs for the board: model M-A takes one BAT-1, M-B none, and three
+ * batteries are in stock, so the first three M-A units in build order get one (S1, S3, S4) and the
+ * next ones (S7, S9) are at risk.
+ */
+function engineInputOf(board: SequenceBoard): LineRiskInput {
+  return {
+    parts: [
+      { partNumber: 'M-A', source: 'end_item', leadTimeDays: 0, packQty: 1, onHand: 0, safetyStock: 0, uom: 'H87' },
+      { partNumber: 'M-B', source: 'end_item', leadTimeDays: 0, packQty: 1, onHand: 0, safetyStock: 0, uom: 'H87' },
+      {
+        partNumber: 'BAT-1',
+        source: 'buy',
+        supplierCode: 'SUP',
+        leadTimeDays: 5,
+        packQty: 1,
+        onHand: 3,
+        safetyStock: 0,
+        uom: 'H87',
+      },
+    ],
+    bom: [{ parent: 'M-A', component: 'BAT-1', qtyPer: 1, scrapPct: 0 }],
+    sequence: board.days.flatMap((known) =>
+      known.units.map((unit) => ({
+        date: unit.date,
+        sequence: unit.sequence,
+        model: unit.model,
+        serial: unit.serial,
+        qty: unit.qty,
+      })),
+    ),
+    firmReceipts: [],
+    calendar: { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] },
+    from: board.from,
+    to: board.to,
+    today: board.today,
+    frozenWindowDays: 1,
+  };
+}
+
 type Answer = (init: RequestInit | undefined) => Response;
 
 /** Answers `METHOD /api/path`; PUT /api/sequence/days echoes the new orders unless told otherwise. */
@@ -76,6 +117,7 @@ function stubApi(answers: Record<string, Answer> = {}) {
   const board = boardOf();
   const defaults: Record<string, Answer> = {
     'GET /api/sequence': () => jsonResponse(200, board),
+    'GET /api/line-risk/engine-input': () => jsonResponse(200, engineInputOf(board)),
     'PUT /api/sequence/days': (init) => {
       const body = JSON.parse(String(init?.body)) as { days: { date: string; serials: string[] }[] };
       const units = new Map(board.days.flatMap((known) => known.units.map((known) => [known.serial, known] as const)));
@@ -143,6 +185,13 @@ function lastButton(name: string): HTMLButtonElement {
   return buttons[buttons.length - 1]!;
 }
 
+/** Answers the what-if shown before a move is saved. */
+async function answerWhatIf(button: 'Save the change' | 'Cancel'): Promise<void> {
+  await vi.waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
+  lastButton(button).click();
+  await flushPromises();
+}
+
 async function chooseFromMenu(serial: string, item: string): Promise<void> {
   (document.querySelector(`[aria-label="Actions for ${serial}"]`) as HTMLElement).click();
   await flushPromises();
@@ -207,6 +256,7 @@ describe('SequenceView', () => {
     const wrapper = await openSequence();
 
     await chooseFromMenu('S3', 'Move down');
+    await answerWhatIf('Save the change');
 
     expect(putBodies(fetchMock)).toEqual([
       { days: [{ date: FULL, serials: ['S4', 'S3', 'S5'] }], basedOn: [{ date: FULL, version: `v-${FULL}` }] },
@@ -227,6 +277,7 @@ describe('SequenceView', () => {
 
     target.vm.$emit('change', { added: { element: dragged, newIndex: 0 } });
     await flushPromises();
+    await answerWhatIf('Save the change');
 
     expect(putBodies(fetchMock)).toEqual([
       {
@@ -251,11 +302,16 @@ describe('SequenceView', () => {
     const wrapper = await openSequence();
 
     await chooseFromMenu('S1', 'Move down');
-    expect(document.body.textContent).toContain('This changes the frozen window — are you sure?');
+    await answerWhatIf('Save the change');
+    await vi.waitFor(() =>
+      expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'),
+    );
     getButton(document.body, 'Keep it as it is').click();
     await flushPromises();
     const afterNo = putBodies(fetchMock).length;
     await chooseFromMenu('S1', 'Move down');
+    await answerWhatIf('Save the change');
+    await vi.waitFor(() => lastButton('Change the frozen window'));
     lastButton('Change the frozen window').click();
     await vi.waitFor(() => expect(putBodies(fetchMock)).toHaveLength(1));
 
@@ -279,6 +335,7 @@ describe('SequenceView', () => {
 
     target.vm.$emit('change', { added: { element: boardOf().days[2]!.units[0]!, newIndex: 3 } });
     await flushPromises();
+    await answerWhatIf('Save the change');
 
     await vi.waitFor(() => expect(document.body.textContent).toContain(`The move was not saved: ${reason}`));
     expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
@@ -314,6 +371,7 @@ describe('SequenceView', () => {
     const wrapper = await openSequence();
 
     await chooseFromMenu('S3', 'Move down');
+    await answerWhatIf('Save the change');
     await flushPromises();
 
     const alert = wrapper.get('[role="alert"]');
@@ -328,6 +386,71 @@ describe('SequenceView', () => {
         (init?.method ?? 'GET') === 'GET' && new URL(String(input), 'http://localhost').pathname === '/api/sequence',
     );
     expect(boardLoads).toHaveLength(2);
+  });
+
+  it('marks the units at risk on their cards, with what they lack for hover and keyboard focus', async () => {
+    stubApi();
+
+    const wrapper = await openSequence();
+
+    const marked = wrapper
+      .findAll('[data-test="unit-card"]')
+      .filter((card) => card.find('[data-test="unit-risk"]').exists())
+      .map((card) => card.attributes('data-serial'));
+    expect(marked).toEqual(['S7', 'S9']);
+    expect(wrapper.get('[data-test="at-risk-count"]').text()).toContain('2 units at risk');
+    const mark = wrapper.get('[data-serial="S7"] [data-test="unit-risk"]');
+    expect(mark.attributes('tabindex')).toBe('0');
+    expect(mark.text()).toBe('At risk');
+    const description = wrapper.get(`[id="${mark.attributes('aria-describedby')}"]`);
+    expect(description.text()).toBe('At risk: lacks BAT-1 ×1 by Tue 8 Dec.');
+    await mark.trigger('focus');
+    expect(document.querySelector('[data-test="unit-risk-tip"]')?.textContent).toBe(
+      'At risk: lacks BAT-1 ×1 by Tue 8 Dec.',
+    );
+    await mark.trigger('blur');
+    expect(document.querySelector('[data-test="unit-risk-tip"]')).toBeNull();
+  });
+
+  it('shows what a move would do before saving it, and saves nothing on Cancel', async () => {
+    const fetchMock = stubApi();
+    const wrapper = await openSequence();
+    const over = wrapper.findAllComponents(draggable)[3]!;
+    const s4 = boardOf().days[1]!.units[1]!;
+
+    // S4 goes to the end of Tue 8 Dec: S7 now gets the third battery, S4 none.
+    over.vm.$emit('change', { added: { element: s4, newIndex: 4 } });
+    await flushPromises();
+    await vi.waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
+    const dialog = document.querySelector('[data-test="what-if"]')!;
+    expect(dialog.textContent).toContain('Move S4 to Tue 8 Dec, position 5.');
+    expect(dialog.querySelector('[data-test="what-if-becomes"]')?.textContent).toContain(
+      'Becomes at risk: S4 (M-A), Tue 8 Dec position 5. Would lack BAT-1 ×1 by Tue 8 Dec.',
+    );
+    expect(dialog.querySelector('[data-test="what-if-stops"]')?.textContent).toContain(
+      'No longer at risk: S7 (M-A), Tue 8 Dec position 1.',
+    );
+    const demand = [...dialog.querySelectorAll('[data-test="what-if-demand"] tbody tr')].map((row) =>
+      [...row.querySelectorAll('td')].map((cell) => cell.textContent),
+    );
+    expect(demand).toEqual([
+      ['SUP', 'BAT-1', 'Fri 4 Dec', '2 pcs', '1 pc', '−1 pc'],
+      ['SUP', 'BAT-1', 'Tue 8 Dec', '2 pcs', '3 pcs', '+1 pc'],
+    ]);
+    await answerWhatIf('Cancel');
+
+    expect(putBodies(fetchMock)).toHaveLength(0);
+    expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
+    over.vm.$emit('change', { added: { element: s4, newIndex: 4 } });
+    await flushPromises();
+    await answerWhatIf('Save the change');
+    expect(putBodies(fetchMock)).toHaveLength(1);
+    await flushPromises();
+    const marked = wrapper
+      .findAll('[data-test="unit-card"]')
+      .filter((card) => card.find('[data-test="unit-risk"]').exists())
+      .map((card) => card.attributes('data-serial'));
+    expect(marked).toEqual(['S9', 'S4']);
   });
 
   it('shows other roles the board without grips, menus or the add button', async () => {

@@ -20,26 +20,23 @@ interface LoopRow {
 }
 
 /**
- * The demo starts its loops without cards: put one supplier loop's cards into circulation and
- * signal one card empty at the line, so today's run has a kanban line as well as planned ones.
+ * The demo starts its loops with full cards: signal one card of a supplier loop empty at the line,
+ * so today's run has a kanban line as well as planned ones.
  */
 async function emptyOneKanbanCard(request: APIRequestContext, token: string): Promise<LoopRow> {
   const headers = { Authorization: `Bearer ${token}` };
   const loops = (await (await request.get('/api/kanban/loops', { headers })).json()) as LoopRow[];
   const loop = loops.find(
-    (candidate) =>
-      candidate.kind === 'supplier' && candidate.supplierCode && candidate.recommendedCards > candidate.activeCards,
+    (candidate) => candidate.kind === 'supplier' && candidate.supplierCode && candidate.activeCards > 0,
   );
-  expect(loop, 'a supplier loop that proposes cards').toBeDefined();
-  const accepted = await request.post(`/api/kanban/loops/${loop!.id}/accept`, {
-    headers,
-    data: { expectedRecommended: loop!.recommendedCards },
-  });
-  expect(accepted.ok()).toBe(true);
+  expect(loop, 'a supplier loop with cards in circulation').toBeDefined();
   const cards = (await (await request.get(`/api/kanban/loops/${loop!.id}/cards`, { headers })).json()) as {
     cardNumber: string;
+    state: string;
   }[];
-  const scan = await request.post('/api/kanban/scans', { headers, data: { cardNumber: cards[0]!.cardNumber } });
+  const full = cards.find((card) => card.state === 'full');
+  expect(full, 'a full card of that loop').toBeDefined();
+  const scan = await request.post('/api/kanban/scans', { headers, data: { cardNumber: full!.cardNumber } });
   expect(scan.ok()).toBe(true);
   return loop!;
 }

@@ -34,6 +34,7 @@ test.describe('Build sequence', () => {
     const serial = (await moving.getAttribute('data-serial'))!;
 
     await sequence.dragCard(moving, sequence.cards(target).nth(1));
+    await sequence.saveWhatIf();
 
     await expect.poll(() => sequence.load(source)).toBe(sourceLoad - 1);
     await expect.poll(() => sequence.load(target)).toBe(targetLoad + 1);
@@ -50,6 +51,7 @@ test.describe('Build sequence', () => {
     // The keyboard way: the first unit of the day moves down one place and keeps the focus.
     const first = (await sequence.serials(targetAfterReload))[0]!;
     await sequence.chooseWithKeyboard(first, 'Move down');
+    await sequence.saveWhatIf();
 
     await expect.poll(async () => (await sequence.serials(targetAfterReload)).slice(0, 2)[1]).toBe(first);
     await expect(page.getByRole('button', { name: `Actions for ${first}` })).toBeFocused();

@@ -174,6 +174,7 @@ test.describe('sessions and passwords', () => {
 
     // The planner, still looking at the old order, moves the first unit down.
     await sequence.chooseWithKeyboard(shown[0]!, 'Move down');
+    await sequence.saveWhatIf();
 
     const alert = page.getByRole('alert').filter({ hasText: 'Someone changed these days first' });
     await expect(alert).toBeVisible();

@@ -31,6 +31,20 @@ export class LineRiskPage {
     return this.page.getByRole('region', { name: `Units that lack ${partNumber}` }).locator('.el-table__body tr');
   }
 
+  /** The short parts grouped by action, in the order shown. */
+  actionGroups(): Locator {
+    return this.page.locator('[data-test="action-group"]');
+  }
+
+  group(action: 'expedite' | 'loop' | 'count' | 'release'): Locator {
+    return this.page.locator(`[data-test="action-group"][data-action="${action}"]`);
+  }
+
+  /** An opened part's schedule: how much must arrive by each date. */
+  needBy(): Locator {
+    return this.page.locator('[data-test="need-by"]');
+  }
+
   async chooseHorizon(label: 'Next week' | '2 weeks' | '4 weeks'): Promise<void> {
     await this.page.getByRole('radiogroup', { name: 'Horizon' }).getByText(label, { exact: true }).click();
   }

@@ -81,6 +81,26 @@ export class SequencePage {
     await this.page.keyboard.press('Enter');
   }
 
+  /** What a move would do, shown before it is saved. */
+  whatIf(): Locator {
+    return this.page.getByRole('dialog', { name: 'Before you save' });
+  }
+
+  async saveWhatIf(): Promise<void> {
+    await this.whatIf().getByRole('button', { name: 'Save the change' }).click();
+    await expect(this.whatIf()).toBeHidden();
+  }
+
+  async cancelWhatIf(): Promise<void> {
+    await this.whatIf().getByRole('button', { name: 'Cancel' }).click();
+    await expect(this.whatIf()).toBeHidden();
+  }
+
+  /** Cards marked at risk of not being built for want of a part. */
+  atRiskCards(): Locator {
+    return this.page.locator('[data-test="unit-card"]').filter({ has: this.page.locator('[data-test="unit-risk"]') });
+  }
+
   /** The line that says what the last change did. */
   status(): Locator {
     return this.page.locator('[data-test="sequence-summary"]').getByRole('status');
