@@ -35,6 +35,7 @@ import { KanbanCardEntity } from './kanban-card.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';
 import { sizeLoop } from './loop-sizing';
 import type { Database } from '../db/database';
+import { chunks } from '../db/upsert';
 import { assertCurrent, versionOf } from '../http/versions';
 
 /** Scans shown beside each card in a loop's card list; the card's own page has them all. */
@@ -318,7 +319,7 @@ export class LoopsService {
       retiredAt: null,
       releaseLineId: null,
     }));
-    await manager.insert(KanbanCardEntity, rows);
+    for (const chunk of chunks(rows)) await manager.insert(KanbanCardEntity, chunk);
     return rows.map((row) => row.cardNumber);
   }
 
