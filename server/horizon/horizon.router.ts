@@ -8,6 +8,7 @@ import {
   planResponseSchema,
 } from '../../shared/schemas/horizon';
 import { defineRoute, type RouteDeps } from '../http/route';
+import { sendSerialised } from '../http/serialised-body';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 import { demandToCsv, planToCsv } from './horizon-csv';
@@ -43,9 +44,13 @@ export function createHorizonRouter(services: Services, deps: RouteDeps): Router
     query: demandQuerySchema,
     response: demandResponseSchema,
     produces: ['text/csv'],
-    handler: async ({ query, res }) => {
-      const demand = await planning.demand({ from: query.from, to: query.to, supplierCode: query.supplier });
-      if (query.format !== 'csv') return demand;
+    handler: async ({ query, req, res }) => {
+      const options = { from: query.from, to: query.to, supplierCode: query.supplier };
+      if (query.format !== 'csv') {
+        await sendSerialised(req, res, await planning.demandBody(options));
+        return undefined;
+      }
+      const demand = await planning.demand(options);
       const name = `demand-${demand.days[0] ?? 'empty'}${query.supplier ? `-${query.supplier}` : ''}.csv`;
       res.type('text/csv').attachment(name).send(demandToCsv(demand));
       return undefined;
