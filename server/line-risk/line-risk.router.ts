@@ -21,6 +21,8 @@ export function createLineRiskRouter(services: Services, deps: RouteDeps): Route
   defineRoute(router, deps, {
     method: 'get',
     path: '/shortages',
+    // Computed in a worker thread, maybe for seconds: no read snapshot held open meanwhile.
+    unit: 'none',
     summary:
       'Parts that stop units of the build sequence, each with its action (expedite, loop, count, release) and dated need, counting on-hand, confirmed receipts and kanban loops (defaults: next working day, 20 working days)',
     access: READ_ROLES,
@@ -32,6 +34,7 @@ export function createLineRiskRouter(services: Services, deps: RouteDeps): Route
   defineRoute(router, deps, {
     method: 'get',
     path: '/line-risk',
+    unit: 'none',
     summary: 'Line risk report: units at risk with what each lacks, short parts by action, frozen window and rescues',
     access: READ_ROLES,
     query: lineRiskQuerySchema,
@@ -42,6 +45,7 @@ export function createLineRiskRouter(services: Services, deps: RouteDeps): Route
   defineRoute(router, deps, {
     method: 'get',
     path: '/line-risk/units',
+    unit: 'none',
     summary: 'Units at risk in build order, a page at a time',
     access: READ_ROLES,
     query: pageQuerySchema,
@@ -52,6 +56,7 @@ export function createLineRiskRouter(services: Services, deps: RouteDeps): Route
   defineRoute(router, deps, {
     method: 'get',
     path: '/line-risk/parts/:partNumber/slots',
+    unit: 'none',
     summary: 'The units that lack one short part, a page at a time',
     access: READ_ROLES,
     params: z.object({ partNumber: partNumberSchema }),

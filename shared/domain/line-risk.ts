@@ -424,12 +424,20 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   function queueLacks(needs: Need[]): Map<number, number> {
     const lacks = new Map<number, number>();
     const byPart = new Map<number, Need[]>();
-    for (const need of needs) byPart.set(need.part, [...(byPart.get(need.part) ?? []), need]);
+    for (const need of needs) {
+      const list = byPart.get(need.part);
+      if (list) list.push(need);
+      else byPart.set(need.part, [need]);
+    }
     for (const [part, partNeeds] of byPart) {
       let lack = 0;
-      partNeeds.forEach((need, index) => {
-        lack += Math.max(0, need.qty - Math.max(0, queue.free(part, need.bucket, partNeeds.slice(0, index))));
-      });
+      if (partNeeds.length === 1) {
+        lack = Math.max(0, partNeeds[0].qty - Math.max(0, queue.free(part, partNeeds[0].bucket, undefined)));
+      } else {
+        partNeeds.forEach((need, index) => {
+          lack += Math.max(0, need.qty - Math.max(0, queue.free(part, need.bucket, partNeeds.slice(0, index))));
+        });
+      }
       if (lack > epsilon) lacks.set(part, roundQty(lack));
       else for (const need of partNeeds) queue.commit(part, need.bucket, need.qty);
     }
@@ -458,8 +466,15 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     const behind = queueLacks(evaluations[position].needs);
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
     const evaluation = evaluate(build, entry.model, entry.slot.qty, entry.bucket);
+    // The first need of each part, looked up only for parts short behind other units.
+    let firstNeeds: Map<number, Need> | null = null;
     const viaOf = (part: number, need: Need | undefined) => {
-      const found = need ?? evaluations[position].needs.find((candidate) => candidate.part === part)!;
+      if (!need && !firstNeeds) {
+        firstNeeds = new Map();
+        for (const candidate of evaluations[position].needs)
+          if (!firstNeeds.has(candidate.part)) firstNeeds.set(candidate.part, candidate);
+      }
+      const found = need ?? firstNeeds!.get(part)!;
       return { via: found.via === NO_VIA ? null : parts[found.via].partNumber, bucket: found.bucket };
     };
     if (evaluation.lacks.size === 0) {
