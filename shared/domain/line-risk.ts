@@ -457,7 +457,9 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
       risk = { slots: [], resequence: resequence() };
       risks.set(part, risk);
     }
-    risk.slots.push({ ...unitRef(entry.slot), lackQty: qty, via });
+    // One object per slot, built in one go: a large plant has hundreds of thousands of them.
+    const { date, sequence, serial, model } = entry.slot;
+    risk.slots.push({ date, sequence, serial, model, lackQty: qty, via });
   }
 
   ordered.forEach((entry, position) => {
