@@ -11,6 +11,7 @@ import {
 import { partNumberSchema } from '../../shared/schemas/master-data';
 import { READ_ROLES } from '../http/roles';
 import { defineRoute, type RouteDeps } from '../http/route';
+import { sendSerialised } from '../http/serialised-body';
 import type { Services } from '../services';
 
 /** Line risk: the published shortage list, the planner's report, its pages, and the engine's input for a what-if. */
@@ -28,7 +29,10 @@ export function createLineRiskRouter(services: Services, deps: RouteDeps): Route
     access: READ_ROLES,
     query: lineRiskQuerySchema,
     response: shortagesResponseSchema,
-    handler: ({ query }) => service.shortages(query),
+    handler: async ({ query, req, res }) => {
+      await sendSerialised(req, res, await service.shortagesBody(query));
+      return undefined;
+    },
   });
 
   defineRoute(router, deps, {
@@ -39,7 +43,10 @@ export function createLineRiskRouter(services: Services, deps: RouteDeps): Route
     access: READ_ROLES,
     query: lineRiskQuerySchema,
     response: lineRiskReportSchema,
-    handler: ({ query }) => service.report(query),
+    handler: async ({ query, req, res }) => {
+      await sendSerialised(req, res, await service.reportBody(query));
+      return undefined;
+    },
   });
 
   defineRoute(router, deps, {

@@ -6,6 +6,7 @@ import { PlanInputError } from '../../shared/domain/plan-model';
 import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import type { Database } from '../db/database';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
+import { SerialisedBody } from '../http/serialised-body';
 import type { LoopsService } from '../loops/loops.service';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { PerPlanningVersion } from '../planning/per-version';
@@ -23,8 +24,9 @@ interface Horizon {
 
 interface Computed {
   key: string;
-  summary: LineRiskSummary;
-  inputs: LineRiskInputs;
+  report: LineRiskReport;
+  reportBody?: SerialisedBody;
+  shortagesBody?: SerialisedBody;
 }
 
 /**
@@ -54,23 +56,24 @@ export class LineRiskService {
 
   /** The report for the screen (defaults: next working day, 20 working days). */
   async report(horizon: Horizon = {}): Promise<LineRiskReport> {
-    const { summary, inputs } = await this.compute(horizon);
-    return {
-      from: summary.from,
-      to: summary.to,
-      today: summary.today,
-      days: summary.days,
-      frozenWindowDays: summary.frozenWindowDays,
-      frozenUntil: summary.frozenUntil,
-      unitsInHorizon: summary.unitsInHorizon,
-      unitsBuilt: summary.unitsBuilt,
-      unitsAtRisk: summary.unitsAtRisk,
-      unitsAtRiskCount: summary.unitsAtRiskCount,
-      shortages: summary.shortages.map((shortage) => toShortage(shortage, inputs)),
-    };
+    return (await this.compute(horizon)).report;
   }
 
-  /** GET /api/shortages: the short parts alone. */
+  /** The report serialised once per result, for GET /api/line-risk. */
+  async reportBody(horizon: Horizon = {}): Promise<SerialisedBody> {
+    const computed = await this.compute(horizon);
+    computed.reportBody ??= new SerialisedBody(computed.report);
+    return computed.reportBody;
+  }
+
+  /** GET /api/shortages: the short parts alone, serialised once per result. */
+  async shortagesBody(horizon: Horizon = {}): Promise<SerialisedBody> {
+    const computed = await this.compute(horizon);
+    computed.shortagesBody ??= new SerialisedBody(computed.report.shortages);
+    return computed.shortagesBody;
+  }
+
+  /** The short parts alone. */
   async shortages(horizon: Horizon = {}): Promise<ShortageDto[]> {
     return (await this.report(horizon)).shortages;
   }
@@ -115,7 +118,7 @@ export class LineRiskService {
     if (this.db.inWriteUnit) {
       // Inputs read inside a write unit may be uncommitted: computed here, for this unit alone.
       try {
-        return { key: '', summary: summarise(computeLineRisk(input)), inputs };
+        return { key: '', report: toReport(summarise(computeLineRisk(input)), inputs) };
       } catch (error) {
         throw asHttpError(error);
       }
@@ -125,7 +128,7 @@ export class LineRiskService {
     if (!computed) {
       computed = this.runner
         .compute(key, input)
-        .then((summary) => ({ key, summary, inputs }))
+        .then((summary) => ({ key, report: toReport(summary, inputs) }))
         .catch((error: unknown) => {
           throw asHttpError(error);
         });
@@ -189,9 +192,30 @@ function asHttpError(error: unknown): unknown {
   return error;
 }
 
+/** The report as published, built once per result. */
+function toReport(summary: LineRiskSummary, inputs: LineRiskInputs): LineRiskReport {
+  const partByNumber = new Map(inputs.parts.map((part) => [part.partNumber, part]));
+  return {
+    from: summary.from,
+    to: summary.to,
+    today: summary.today,
+    days: summary.days,
+    frozenWindowDays: summary.frozenWindowDays,
+    frozenUntil: summary.frozenUntil,
+    unitsInHorizon: summary.unitsInHorizon,
+    unitsBuilt: summary.unitsBuilt,
+    unitsAtRisk: summary.unitsAtRisk,
+    unitsAtRiskCount: summary.unitsAtRiskCount,
+    shortages: summary.shortages.map((shortage) => toShortage(shortage, partByNumber.get(shortage.partNumber), inputs)),
+  };
+}
+
 /** A short part as published, with what the screen shows beside the figures. */
-function toShortage(shortage: ShortageSummary, inputs: LineRiskInputs): ShortageDto {
-  const part = inputs.parts.find((candidate) => candidate.partNumber === shortage.partNumber);
+function toShortage(
+  shortage: ShortageSummary,
+  part: LineRiskInputs['parts'][number] | undefined,
+  inputs: LineRiskInputs,
+): ShortageDto {
   const details = inputs.details.get(shortage.partNumber);
   return {
     partNumber: shortage.partNumber,

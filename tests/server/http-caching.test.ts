@@ -141,3 +141,18 @@ describe('GET /api/demand, served from its serialised copy', () => {
     expect(dayOf(after.body)).toBe(1);
   });
 });
+
+describe('GET /api/line-risk, served from its serialised copy', () => {
+  it('answers a client that holds the same report with 304', async () => {
+    const path = '/api/line-risk?from=2026-12-21&to=2026-12-24';
+    const first = await request(context.app).get(path).set(bearer(context.tokens.planner));
+    const again = await request(context.app)
+      .get(path)
+      .set(bearer(context.tokens.planner))
+      .set('If-None-Match', String(first.headers.etag));
+
+    expect(first.status).toBe(200);
+    expect(first.body.unitsInHorizon).toBeGreaterThan(0);
+    expect(again.status).toBe(304);
+  });
+});
