@@ -41,6 +41,9 @@ export function createHorizonRouter(services: Services, deps: RouteDeps): Router
     path: '/demand',
     summary: 'Gross demand of bought parts per working day (JSON, or CSV with format=csv)',
     access: READ_ROLES,
+    // The plan reads its inputs in a snapshot of its own when they changed; a cached answer needs
+    // none, and holding one of the few snapshot readers per request would queue busy clients.
+    unit: 'none',
     query: demandQuerySchema,
     response: demandResponseSchema,
     produces: ['text/csv'],
