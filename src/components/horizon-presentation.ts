@@ -112,7 +112,7 @@ export function horizonRange(today: string, weeks: number): { from: string; to: 
 }
 
 /** Rows of the demand table shown at once; the rest are a page away, so a large plant opens fast. */
-export const HORIZON_PAGE_SIZE = 100;
+export const HORIZON_PAGE_SIZE = 50;
 
 /** A sort the buyer asked for by clicking a column head; null order keeps the server's order. */
 export interface DemandSort {
