@@ -403,6 +403,19 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   const unitsAtRisk: UnitAtRisk[] = [];
   let unitsBuilt = 0;
 
+  // A unit's evaluation against the build ledger depends only on its model, quantity and day and
+  // on the ledger, which changes only when a unit is built: evaluations are kept until then.
+  const againstBuild = new Map<string, Evaluation>();
+  function evaluateForBuild(model: number, qty: number, bucket: number): Evaluation {
+    const key = `${model}:${qty}:${bucket}`;
+    let evaluation = againstBuild.get(key);
+    if (evaluation === undefined) {
+      evaluation = evaluate(build, model, qty, bucket);
+      againstBuild.set(key, evaluation);
+    }
+    return evaluation;
+  }
+
   /** The first later unit, same or next working day, of another model whose parts are all free now. */
   function findResequence(position: number): ResequenceOption | null {
     const atRisk = ordered[position];
@@ -413,7 +426,7 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
       const key = `${candidate.model}:${candidate.slot.qty}`;
       if (candidate.model === atRisk.model || tried.has(key)) continue;
       tried.add(key);
-      if (evaluate(build, candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
+      if (evaluateForBuild(candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
         return { slot: unitRef(atRisk.slot), candidate: unitRef(candidate.slot) };
       }
     }
@@ -467,7 +480,7 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     // because a unit ahead of it, short of something else, is not taking its share.
     const behind = queueLacks(evaluations[position].needs);
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
-    const evaluation = evaluate(build, entry.model, entry.slot.qty, entry.bucket);
+    const evaluation = evaluateForBuild(entry.model, entry.slot.qty, entry.bucket);
     // The first need of each part, looked up only for parts short behind other units.
     let firstNeeds: Map<number, Need> | null = null;
     const viaOf = (part: number, need: Need | undefined) => {
@@ -482,6 +495,7 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     if (evaluation.lacks.size === 0) {
       for (const need of evaluation.needs) build.commit(need.part, need.bucket, need.qty);
       for (const take of evaluation.takes) build.commit(take.part, take.bucket, take.qty);
+      againstBuild.clear();
       unitsBuilt += 1;
       for (const [part, lack] of behind)
         addSlot(part, entry, wholeIfCountable(part, lack), viaOf(part, undefined).via, () => null);
