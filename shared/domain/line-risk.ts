@@ -375,8 +375,17 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   const probe = new StockLedger(days, cumulativeSupply);
   const requiredByDay = new Float64Array(parts.length * days);
   // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
+  // The probe ledger changes only when a unit takes made stock: until then, a unit of the same
+  // model, quantity and day explodes exactly as the one before it.
+  const probed = new Map<string, Evaluation>();
   const evaluations = ordered.map((entry) => {
-    const evaluation = evaluate(probe, entry.model, entry.slot.qty, entry.bucket);
+    const key = `${entry.model}:${entry.slot.qty}:${entry.bucket}`;
+    let evaluation = probed.get(key);
+    if (evaluation === undefined) {
+      evaluation = evaluate(probe, entry.model, entry.slot.qty, entry.bucket);
+      probed.set(key, evaluation);
+    }
+    if (evaluation.takes.length > 0) probed.clear();
     for (const take of evaluation.takes) probe.commit(take.part, take.bucket, take.qty);
     for (const need of evaluation.needs) requiredByDay[need.part * days + need.bucket] += need.qty;
     return evaluation;
