@@ -18,7 +18,7 @@ const OPEN_TIMEOUT_MS = 180_000;
  * took until the first row showed, the page's DOM size, and the main-thread work (long tasks) a
  * planning change caused. A printout for a person to read, never a pass/fail.
  */
-export async function printHorizonOpen(db: Database, horizonTo: string): Promise<void> {
+export async function printHorizonOpen(db: Database): Promise<void> {
   await db.dataSource.getRepository(UserEntity).save({
     email: 'bench-buyer@example.com',
     name: 'Bench buyer',
@@ -58,9 +58,10 @@ export async function printHorizonOpen(db: Database, horizonTo: string): Promise
       return;
     }
     const nodes = await page.evaluate(() => document.getElementsByTagName('*').length);
+    const count = await page.locator('.horizon-view__count').textContent();
     console.log(
       `Horizon open (Chromium, 1440 px), click to first rows: ${cold.toFixed(0)} ms with the server's plan cache cold, ` +
-        `${warm.toFixed(0)} ms warm; ${nodes} DOM nodes`,
+        `${warm.toFixed(0)} ms warm; ${nodes} DOM nodes; ${count?.trim()}`,
     );
 
     // Main-thread work of one planning change: long tasks (> 50 ms) from the notice until the
@@ -82,7 +83,7 @@ export async function printHorizonOpen(db: Database, horizonTo: string): Promise
     const longTasks = await page.evaluate(() => (window as unknown as { benchLongTasks: number }).benchLongTasks);
     console.log(
       `  a planning change: new demand fetched after ${(performance.now() - changed - 1500).toFixed(0)} ms or less, ` +
-        `${longTasks.toFixed(0)} ms of long tasks on the main thread (horizon to ${horizonTo})`,
+        `${longTasks.toFixed(0)} ms of long tasks on the main thread`,
     );
   } finally {
     await browser.close();
