@@ -1,5 +1,6 @@
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
-import express, { Router, type Express } from 'express';
+import express, { Router, type Express, type Response } from 'express';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -71,6 +72,13 @@ export function createApp(
     if (req.secure) res.setHeader('Strict-Transport-Security', 'max-age=31536000; includeSubDomains');
     next();
   });
+  // An event stream must reach the browser as each event is written, not when a buffer fills.
+  app.use(
+    compression({
+      filter: (req, res) =>
+        !String(res.getHeader('Content-Type') ?? '').startsWith('text/event-stream') && compression.filter(req, res),
+    }),
+  );
   app.use(express.json({ limit: '1mb' }));
   app.use(cookieParser());
   app.use('/api', authenticate(services.auth));
@@ -116,12 +124,23 @@ export function createApp(
 
   if (options.clientDir && existsSync(join(options.clientDir, 'index.html'))) {
     const clientDir = options.clientDir;
-    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.use(express.static(clientDir, { index: false, setHeaders: setStaticCaching }));
     app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
       res.sendFile(join(clientDir, 'index.html'));
     });
   }
 
   app.use(errorHandler);
   return app;
+}
+
+/**
+ * Vite names every built asset after a hash of its content, so a name never changes meaning: the
+ * browser may keep it for a year without asking. The page itself (and anything unhashed) is asked
+ * for again each time, so a new release is picked up at the next load.
+ */
+function setStaticCaching(res: Response, path: string): void {
+  const hashed = /[\\/]assets[\\/][^\\/]+-[\w-]{8,}\.\w+$/.test(path);
+  res.setHeader('Cache-Control', hashed ? 'public, max-age=31536000, immutable' : 'no-cache');
 }

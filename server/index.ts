@@ -106,6 +106,7 @@ async function main(): Promise<void> {
     server.close();
     server.closeAllConnections();
     dispatcher.close();
+    await services.lineRisk.close();
     await fakeSmtp?.close();
     await db.close();
     process.exit(0);

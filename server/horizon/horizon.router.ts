@@ -8,6 +8,7 @@ import {
   planResponseSchema,
 } from '../../shared/schemas/horizon';
 import { defineRoute, type RouteDeps } from '../http/route';
+import { sendSerialised } from '../http/serialised-body';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 import { demandToCsv, planToCsv } from './horizon-csv';
@@ -40,12 +41,19 @@ export function createHorizonRouter(services: Services, deps: RouteDeps): Router
     path: '/demand',
     summary: 'Gross demand of bought parts per working day (JSON, or CSV with format=csv)',
     access: READ_ROLES,
+    // The plan reads its inputs in a snapshot of its own when they changed; a cached answer needs
+    // none, and holding one of the few snapshot readers per request would queue busy clients.
+    unit: 'none',
     query: demandQuerySchema,
     response: demandResponseSchema,
     produces: ['text/csv'],
-    handler: async ({ query, res }) => {
-      const demand = await planning.demand({ from: query.from, to: query.to, supplierCode: query.supplier });
-      if (query.format !== 'csv') return demand;
+    handler: async ({ query, req, res }) => {
+      const options = { from: query.from, to: query.to, supplierCode: query.supplier };
+      if (query.format !== 'csv') {
+        await sendSerialised(req, res, await planning.demandBody(options));
+        return undefined;
+      }
+      const demand = await planning.demand(options);
       const name = `demand-${demand.days[0] ?? 'empty'}${query.supplier ? `-${query.supplier}` : ''}.csv`;
       res.type('text/csv').attachment(name).send(demandToCsv(demand));
       return undefined;

@@ -1,26 +1,19 @@
 import { BomCycleError } from '../../shared/domain/bom';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
-import {
-  computeLineRisk,
-  MAX_LINE_RISK_CALENDAR_DAYS,
-  type LineRiskInput,
-  type LineRiskResult,
-} from '../../shared/domain/line-risk';
+import { computeLineRisk, MAX_LINE_RISK_CALENDAR_DAYS, type LineRiskInput } from '../../shared/domain/line-risk';
 import { PlanInputError } from '../../shared/domain/plan-model';
-import {
-  SLOTS_PER_SHORTAGE,
-  UNITS_PER_REPORT,
-  type LineRiskReport,
-  type ShortageDto,
-} from '../../shared/schemas/line-risk';
+import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import type { Database } from '../db/database';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
+import { SerialisedBody } from '../http/serialised-body';
 import type { LoopsService } from '../loops/loops.service';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { PerPlanningVersion } from '../planning/per-version';
 import { readSequenceSettings } from '../sequence/sequence-settings';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
+import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
+import { summarise, type LineRiskSummary, type ShortageSummary } from './line-risk-summary';
 
 const MAX_CACHED_RESULTS = 8;
 
@@ -30,19 +23,24 @@ interface Horizon {
 }
 
 interface Computed {
-  result: LineRiskResult;
-  inputs: LineRiskInputs;
+  key: string;
+  report: LineRiskReport;
+  reportBody?: SerialisedBody;
+  shortagesBody?: SerialisedBody;
 }
 
 /**
  * Serves the line risk from a cache keyed by the planning data version (like the plan): inputs
  * are read again only after something that feeds planning has changed, and a result is computed
- * once per horizon, day and frozen window. Reports list the first units and slots; the rest are
- * paged, so a large plant's answer stays small.
+ * once per horizon, day and frozen window, in a worker thread so other requests go on meanwhile.
+ * Reports list the first units and slots; the rest are paged, so a large plant's answer stays small.
  */
 export class LineRiskService {
-  private readonly results = new Map<string, Computed>();
+  private readonly results = new Map<string, Promise<Computed>>();
   private readonly inputs: PerPlanningVersion<LineRiskInputs>;
+  private readonly runner = new LineRiskRunner();
+  /** Counts planning versions seen; part of every key, so a result of an older one is never served. */
+  private generation = 0;
 
   constructor(
     private readonly db: Database,
@@ -52,45 +50,44 @@ export class LineRiskService {
     this.inputs = new PerPlanningVersion(
       db,
       async (manager) => loadLineRiskInputs(manager, await loops.listLoops()),
-      () => this.results.clear(),
+      () => this.forget(),
     );
   }
 
   /** The report for the screen (defaults: next working day, 20 working days). */
   async report(horizon: Horizon = {}): Promise<LineRiskReport> {
-    const { result, inputs } = await this.compute(horizon);
-    return {
-      from: result.from,
-      to: result.to,
-      today: result.today,
-      days: result.days,
-      frozenWindowDays: result.frozenWindowDays,
-      frozenUntil: result.frozenUntil,
-      unitsInHorizon: result.unitsInHorizon,
-      unitsBuilt: result.unitsBuilt,
-      unitsAtRisk: result.unitsAtRisk.slice(0, UNITS_PER_REPORT),
-      unitsAtRiskCount: result.unitsAtRisk.length,
-      shortages: result.shortages.map((shortage) => toShortage(shortage, inputs)),
-    };
+    return (await this.compute(horizon)).report;
   }
 
-  /** GET /api/shortages: the short parts alone. */
+  /** The report serialised once per result, for GET /api/line-risk. */
+  async reportBody(horizon: Horizon = {}): Promise<SerialisedBody> {
+    const computed = await this.compute(horizon);
+    computed.reportBody ??= new SerialisedBody(computed.report);
+    return computed.reportBody;
+  }
+
+  /** GET /api/shortages: the short parts alone, serialised once per result. */
+  async shortagesBody(horizon: Horizon = {}): Promise<SerialisedBody> {
+    const computed = await this.compute(horizon);
+    computed.shortagesBody ??= new SerialisedBody(computed.report.shortages);
+    return computed.shortagesBody;
+  }
+
+  /** The short parts alone. */
   async shortages(horizon: Horizon = {}): Promise<ShortageDto[]> {
     return (await this.report(horizon)).shortages;
   }
 
   /** Units at risk beyond the first page. */
   async units(horizon: Horizon, offset: number, limit: number) {
-    const { result } = await this.compute(horizon);
-    return { total: result.unitsAtRisk.length, units: result.unitsAtRisk.slice(offset, offset + limit) };
+    return this.page(horizon, (key) => this.runner.units(key, offset, limit));
   }
 
   /** Every unit that lacks one part, beyond the first ones the report lists. */
   async slots(partNumber: string, horizon: Horizon, offset: number, limit: number) {
-    const { result } = await this.compute(horizon);
-    const shortage = result.shortages.find((candidate) => candidate.partNumber === partNumber);
-    if (!shortage) throw new NotFoundError(`${partNumber} is not short in this horizon.`);
-    return { total: shortage.slotsAtRisk.length, slots: shortage.slotsAtRisk.slice(offset, offset + limit) };
+    const page = await this.page(horizon, (key) => this.runner.slots(key, partNumber, offset, limit));
+    if (!page) throw new NotFoundError(`${partNumber} is not short in this horizon.`);
+    return page;
   }
 
   /** What the browser needs to run the same engine for a what-if before a change is saved. */
@@ -99,17 +96,57 @@ export class LineRiskService {
     return { ...this.engineInputOf(inputs, await this.resolve(inputs, horizon)) };
   }
 
+  /** Stops the worker thread (server shutdown, tests). */
+  close(): Promise<void> {
+    return this.runner.close();
+  }
+
+  /** A page from the worker's full result; computed again if the worker lost it (it restarted). */
+  private async page<T>(horizon: Horizon, read: (key: string) => Promise<T | undefined>): Promise<T> {
+    for (let attempt = 0; ; attempt += 1) {
+      const { key } = await this.compute(horizon);
+      const page = await read(key);
+      if (page !== undefined || attempt > 0) return page as T;
+      this.results.delete(key);
+    }
+  }
+
   private async compute(horizon: Horizon): Promise<Computed> {
     const inputs = await this.inputs.get();
     const options = await this.resolve(inputs, horizon);
-    const key = `${options.from}|${options.to}|${options.today}|${options.frozenWindowDays}`;
+    const input = this.engineInputOf(inputs, options);
+    if (this.db.inWriteUnit) {
+      // Inputs read inside a write unit may be uncommitted: computed here, for this unit alone.
+      try {
+        return { key: '', report: toReport(summarise(computeLineRisk(input)), inputs) };
+      } catch (error) {
+        throw asHttpError(error);
+      }
+    }
+    const key = `${this.generation}|${options.from}|${options.to}|${options.today}|${options.frozenWindowDays}`;
     let computed = this.results.get(key);
     if (!computed) {
-      computed = { result: this.run(this.engineInputOf(inputs, options)), inputs };
-      if (this.results.size >= MAX_CACHED_RESULTS) this.results.delete(this.results.keys().next().value!);
+      computed = this.runner
+        .compute(key, input)
+        .then((summary) => ({ key, report: toReport(summary, inputs) }))
+        .catch((error: unknown) => {
+          throw asHttpError(error);
+        });
+      computed.catch(() => this.results.delete(key));
+      if (this.results.size >= MAX_CACHED_RESULTS) {
+        const oldest = this.results.keys().next().value!;
+        this.results.delete(oldest);
+        this.runner.drop(oldest);
+      }
       this.results.set(key, computed);
     }
     return computed;
+  }
+
+  private forget(): void {
+    for (const key of this.results.keys()) this.runner.drop(key);
+    this.results.clear();
+    this.generation += 1;
   }
 
   private async resolve(inputs: LineRiskInputs, horizon: Horizon) {
@@ -137,28 +174,55 @@ export class LineRiskService {
       ...options,
     };
   }
+}
 
-  private run(input: LineRiskInput): LineRiskResult {
-    try {
-      return computeLineRisk(input);
-    } catch (error) {
-      if (error instanceof BomCycleError) throw new ConflictError(`The BOM cannot be exploded: ${error.message}.`);
-      if (error instanceof PlanInputError) throw new BadRequestError(error.message);
-      throw error;
-    }
-  }
+/** An engine error (raised here or in the worker) as the HTTP answer it deserves; others as they are. */
+function asHttpError(error: unknown): unknown {
+  const kind =
+    error instanceof BomCycleError
+      ? 'cycle'
+      : error instanceof PlanInputError
+        ? 'input'
+        : error instanceof LineRiskWorkerError
+          ? error.kind
+          : 'other';
+  const message = error instanceof Error ? error.message : String(error);
+  if (kind === 'cycle') return new ConflictError(`The BOM cannot be exploded: ${message}.`);
+  if (kind === 'input') return new BadRequestError(message);
+  return error;
+}
+
+/** The report as published, built once per result. */
+function toReport(summary: LineRiskSummary, inputs: LineRiskInputs): LineRiskReport {
+  const partByNumber = new Map(inputs.parts.map((part) => [part.partNumber, part]));
+  return {
+    from: summary.from,
+    to: summary.to,
+    today: summary.today,
+    days: summary.days,
+    frozenWindowDays: summary.frozenWindowDays,
+    frozenUntil: summary.frozenUntil,
+    unitsInHorizon: summary.unitsInHorizon,
+    unitsBuilt: summary.unitsBuilt,
+    unitsAtRisk: summary.unitsAtRisk,
+    unitsAtRiskCount: summary.unitsAtRiskCount,
+    shortages: summary.shortages.map((shortage) => toShortage(shortage, partByNumber.get(shortage.partNumber), inputs)),
+  };
 }
 
 /** A short part as published, with what the screen shows beside the figures. */
-function toShortage(shortage: LineRiskResult['shortages'][number], inputs: LineRiskInputs): ShortageDto {
-  const part = inputs.parts.find((candidate) => candidate.partNumber === shortage.partNumber);
+function toShortage(
+  shortage: ShortageSummary,
+  part: LineRiskInputs['parts'][number] | undefined,
+  inputs: LineRiskInputs,
+): ShortageDto {
   const details = inputs.details.get(shortage.partNumber);
   return {
     partNumber: shortage.partNumber,
     firstShortDate: shortage.firstShortDate,
     shortQty: shortage.shortQty,
-    slotsAtRisk: shortage.slotsAtRisk.slice(0, SLOTS_PER_SHORTAGE),
-    slotsAtRiskCount: shortage.slotsAtRisk.length,
+    slotsAtRisk: shortage.slotsAtRisk,
+    slotsAtRiskCount: shortage.slotsAtRiskCount,
     action: shortage.action,
     needBy: shortage.needBy,
     releaseBy: shortage.releaseBy,

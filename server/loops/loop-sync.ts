@@ -1,12 +1,12 @@
 import { In, type EntityManager } from 'typeorm';
 import type { LoopKind } from '../../shared/schemas/loops';
 import { recordAudit } from '../audit/audit.service';
+import { chunks } from '../db/upsert';
 import { PartEntity } from '../master-data/part.entity';
 import { KanbanLoopEntity } from './kanban-loop.entity';
 
 export const DEFAULT_SAFETY_FACTOR = 0.1;
 export const DEFAULT_SIZING_WINDOW_DAYS = 20;
-const INSERT_CHUNK = 200;
 
 /** Bought parts circulate cards to their supplier; made parts to the in-house supermarket. */
 export function loopKindOf(source: string): LoopKind {
@@ -30,13 +30,13 @@ export async function syncLoops(manager: EntityManager): Promise<{ created: stri
   const missing = parts.filter((part) => !loopByPart.has(part.partNumber));
   // In chunks, and without reading generated ids back: thousands of new kanban parts at once would
   // otherwise exceed SQLite's limits on variables and expression depth.
-  for (let start = 0; start < missing.length; start += INSERT_CHUNK) {
+  for (const chunk of chunks(missing)) {
     await manager
       .createQueryBuilder()
       .insert()
       .into(KanbanLoopEntity)
       .values(
-        missing.slice(start, start + INSERT_CHUNK).map((part) => ({
+        chunk.map((part) => ({
           partNumber: part.partNumber,
           kind: loopKindOf(part.source),
           containerQty: part.packQty,
@@ -66,9 +66,7 @@ export async function syncLoops(manager: EntityManager): Promise<{ created: stri
       .map((part) => loopByPart.get(part.partNumber))
       .filter((loop) => loop !== undefined && loop.kind !== kind)
       .map((loop) => loop!.id);
-    for (let start = 0; start < ids.length; start += INSERT_CHUNK) {
-      await manager.update(KanbanLoopEntity, { id: In(ids.slice(start, start + INSERT_CHUNK)) }, { kind });
-    }
+    for (const chunk of chunks(ids)) await manager.update(KanbanLoopEntity, { id: In(chunk) }, { kind });
   }
   return { created: missing.map((part) => part.partNumber) };
 }

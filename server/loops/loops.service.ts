@@ -38,6 +38,7 @@ import { effectiveCycle, partTerms } from '../../shared/domain/supplier-timing';
 import { supplierTerms } from '../../shared/schemas/master-data';
 import type { PlantCalendar } from '../../shared/domain/types';
 import type { Database } from '../db/database';
+import { chunks } from '../db/upsert';
 import { assertCurrent, versionOf } from '../http/versions';
 
 /** Scans shown beside each card in a loop's card list; the card's own page has them all. */
@@ -323,7 +324,7 @@ export class LoopsService {
       retiredAt: null,
       releaseLineId: null,
     }));
-    await manager.insert(KanbanCardEntity, rows);
+    for (const chunk of chunks(rows)) await manager.insert(KanbanCardEntity, chunk);
     return rows.map((row) => row.cardNumber);
   }
 

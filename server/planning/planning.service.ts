@@ -7,6 +7,7 @@ import { PerPlanningVersion } from './per-version';
 import { loadPlanInputs, type PlanInputs } from './plan-inputs';
 import { resolveHorizon } from './plan-dates';
 import type { Database } from '../db/database';
+import { SerialisedBody } from '../http/serialised-body';
 
 interface CachedPlan {
   inputs: PlanInputs;
@@ -14,6 +15,8 @@ interface CachedPlan {
 }
 
 const MAX_CACHED_HORIZONS = 8;
+/** Demand bodies per horizon and supplier filter. */
+const MAX_CACHED_BODIES = 32;
 
 /**
  * Serves plans from a cache keyed by the planning data version: inputs are read and the engine
@@ -21,10 +24,17 @@ const MAX_CACHED_HORIZONS = 8;
  */
 export class PlanningService {
   private readonly plans = new Map<string, CachedPlan>();
+  private readonly demandBodies = new Map<string, SerialisedBody>();
+  /** Counts planning versions seen, so a body built from an older one is not kept. */
+  private generation = 0;
   private readonly inputs: PerPlanningVersion<PlanInputs>;
 
   constructor(private readonly db: Database) {
-    this.inputs = new PerPlanningVersion(db, loadPlanInputs, () => this.plans.clear());
+    this.inputs = new PerPlanningVersion(db, loadPlanInputs, () => {
+      this.plans.clear();
+      this.demandBodies.clear();
+      this.generation += 1;
+    });
   }
 
   /** The plan over a horizon (defaults: next working day, 20 working days). */
@@ -73,6 +83,25 @@ export class PlanningService {
       throw new NotFoundError(`No supplier ${options.supplierCode}.`);
     }
     return grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode });
+  }
+
+  /**
+   * The demand report serialised, kept until the planning version changes: a repeated request
+   * sends the same bytes instead of rebuilding and re-serialising the report.
+   */
+  async demandBody(options: { from?: string; to?: string; supplierCode?: string }): Promise<SerialisedBody> {
+    const generation = this.generation;
+    const { from, to } = await this.plan(options.from, options.to);
+    const key = `${from}|${to}|${options.supplierCode ?? ''}`;
+    const cached = this.demandBodies.get(key);
+    if (cached && !this.db.inWriteUnit) return cached;
+    const body = new SerialisedBody(await this.demand(options));
+    // Kept only if no newer planning version arrived while it was built.
+    if (!this.db.inWriteUnit && generation === this.generation) {
+      if (this.demandBodies.size >= MAX_CACHED_BODIES) this.demandBodies.delete(this.demandBodies.keys().next().value!);
+      this.demandBodies.set(key, body);
+    }
+    return body;
   }
 
   private run(inputs: PlanInputs, from: string, to: string): PlanResult {

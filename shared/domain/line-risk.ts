@@ -375,8 +375,17 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   const probe = new StockLedger(days, cumulativeSupply);
   const requiredByDay = new Float64Array(parts.length * days);
   // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
+  // The probe ledger changes only when a unit takes made stock: until then, a unit of the same
+  // model, quantity and day explodes exactly as the one before it.
+  const probed = new Map<string, Evaluation>();
   const evaluations = ordered.map((entry) => {
-    const evaluation = evaluate(probe, entry.model, entry.slot.qty, entry.bucket);
+    const key = `${entry.model}:${entry.slot.qty}:${entry.bucket}`;
+    let evaluation = probed.get(key);
+    if (evaluation === undefined) {
+      evaluation = evaluate(probe, entry.model, entry.slot.qty, entry.bucket);
+      probed.set(key, evaluation);
+    }
+    if (evaluation.takes.length > 0) probed.clear();
     for (const take of evaluation.takes) probe.commit(take.part, take.bucket, take.qty);
     for (const need of evaluation.needs) requiredByDay[need.part * days + need.bucket] += need.qty;
     return evaluation;
@@ -403,6 +412,19 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   const unitsAtRisk: UnitAtRisk[] = [];
   let unitsBuilt = 0;
 
+  // A unit's evaluation against the build ledger depends only on its model, quantity and day and
+  // on the ledger, which changes only when a unit is built: evaluations are kept until then.
+  const againstBuild = new Map<string, Evaluation>();
+  function evaluateForBuild(model: number, qty: number, bucket: number): Evaluation {
+    const key = `${model}:${qty}:${bucket}`;
+    let evaluation = againstBuild.get(key);
+    if (evaluation === undefined) {
+      evaluation = evaluate(build, model, qty, bucket);
+      againstBuild.set(key, evaluation);
+    }
+    return evaluation;
+  }
+
   /** The first later unit, same or next working day, of another model whose parts are all free now. */
   function findResequence(position: number): ResequenceOption | null {
     const atRisk = ordered[position];
@@ -413,7 +435,7 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
       const key = `${candidate.model}:${candidate.slot.qty}`;
       if (candidate.model === atRisk.model || tried.has(key)) continue;
       tried.add(key);
-      if (evaluate(build, candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
+      if (evaluateForBuild(candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
         return { slot: unitRef(atRisk.slot), candidate: unitRef(candidate.slot) };
       }
     }
@@ -424,12 +446,20 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   function queueLacks(needs: Need[]): Map<number, number> {
     const lacks = new Map<number, number>();
     const byPart = new Map<number, Need[]>();
-    for (const need of needs) byPart.set(need.part, [...(byPart.get(need.part) ?? []), need]);
+    for (const need of needs) {
+      const list = byPart.get(need.part);
+      if (list) list.push(need);
+      else byPart.set(need.part, [need]);
+    }
     for (const [part, partNeeds] of byPart) {
       let lack = 0;
-      partNeeds.forEach((need, index) => {
-        lack += Math.max(0, need.qty - Math.max(0, queue.free(part, need.bucket, partNeeds.slice(0, index))));
-      });
+      if (partNeeds.length === 1) {
+        lack = Math.max(0, partNeeds[0].qty - Math.max(0, queue.free(part, partNeeds[0].bucket, undefined)));
+      } else {
+        partNeeds.forEach((need, index) => {
+          lack += Math.max(0, need.qty - Math.max(0, queue.free(part, need.bucket, partNeeds.slice(0, index))));
+        });
+      }
       if (lack > epsilon) lacks.set(part, roundQty(lack));
       else for (const need of partNeeds) queue.commit(part, need.bucket, need.qty);
     }
@@ -449,7 +479,9 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
       risk = { slots: [], resequence: resequence() };
       risks.set(part, risk);
     }
-    risk.slots.push({ ...unitRef(entry.slot), lackQty: qty, via });
+    // One object per slot, built in one go: a large plant has hundreds of thousands of them.
+    const { date, sequence, serial, model } = entry.slot;
+    risk.slots.push({ date, sequence, serial, model, lackQty: qty, via });
   }
 
   ordered.forEach((entry, position) => {
@@ -457,14 +489,22 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     // because a unit ahead of it, short of something else, is not taking its share.
     const behind = queueLacks(evaluations[position].needs);
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
-    const evaluation = evaluate(build, entry.model, entry.slot.qty, entry.bucket);
+    const evaluation = evaluateForBuild(entry.model, entry.slot.qty, entry.bucket);
+    // The first need of each part, looked up only for parts short behind other units.
+    let firstNeeds: Map<number, Need> | null = null;
     const viaOf = (part: number, need: Need | undefined) => {
-      const found = need ?? evaluations[position].needs.find((candidate) => candidate.part === part)!;
+      if (!need && !firstNeeds) {
+        firstNeeds = new Map();
+        for (const candidate of evaluations[position].needs)
+          if (!firstNeeds.has(candidate.part)) firstNeeds.set(candidate.part, candidate);
+      }
+      const found = need ?? firstNeeds!.get(part)!;
       return { via: found.via === NO_VIA ? null : parts[found.via].partNumber, bucket: found.bucket };
     };
     if (evaluation.lacks.size === 0) {
       for (const need of evaluation.needs) build.commit(need.part, need.bucket, need.qty);
       for (const take of evaluation.takes) build.commit(take.part, take.bucket, take.qty);
+      againstBuild.clear();
       unitsBuilt += 1;
       for (const [part, lack] of behind)
         addSlot(part, entry, wholeIfCountable(part, lack), viaOf(part, undefined).via, () => null);

@@ -110,3 +110,40 @@ export function planSeries(plan: PlanResponse, bucket: BucketSize): PlanSeries {
 export function horizonRange(today: string, weeks: number): { from: string; to: string } {
   return { from: today, to: addCalendarDays(today, weeks * 7 - 1) };
 }
+
+/** Rows of the demand table shown at once; the rest are a page away, so a large plant opens fast. */
+export const HORIZON_PAGE_SIZE = 50;
+
+/** A sort the buyer asked for by clicking a column head; null order keeps the server's order. */
+export interface DemandSort {
+  prop: 'partNumber' | 'supplierCode' | 'total' | null;
+  order: 'ascending' | 'descending' | null;
+}
+
+/** The rows in the asked order (parts without a supplier last either way), stable for ties. */
+export function sortDemandRows(rows: readonly DemandTableRow[], sort: DemandSort): readonly DemandTableRow[] {
+  const { prop, order } = sort;
+  if (!prop || !order) return rows;
+  const sign = order === 'ascending' ? 1 : -1;
+  return [...rows].sort((a, b) => {
+    if (prop === 'total') return sign * (a.total - b.total);
+    const left = a[prop];
+    const right = b[prop];
+    if (left === right) return 0;
+    if (left === null) return 1;
+    if (right === null) return -1;
+    return sign * left.localeCompare(right);
+  });
+}
+
+/** Column sums of rows (the footer totals of everything the filters let through, not one page). */
+export function demandTotals(rows: readonly DemandTableRow[]): { byBucket: Record<string, number>; total: number } {
+  const byBucket: Record<string, number> = {};
+  let total = 0;
+  for (const row of rows) {
+    total += row.total;
+    for (const key in row.byBucket) byBucket[key] = (byBucket[key] ?? 0) + row.byBucket[key]!;
+  }
+  for (const key in byBucket) byBucket[key] = roundQty(byBucket[key]!);
+  return { byBucket, total: roundQty(total) };
+}

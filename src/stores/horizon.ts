@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia';
-import { ref } from 'vue';
+import { ref, shallowRef } from 'vue';
 import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
 import * as horizonApi from '@/api/horizon';
 import type { DemandQuery } from '@/api/horizon';
@@ -11,7 +11,8 @@ interface FetchOptions {
 }
 
 export const useHorizonStore = defineStore('horizon', () => {
-  const demand = ref<DemandResponse | null>(null);
+  // Replaced whole on every answer, never changed in place: no deep reactivity over thousands of rows.
+  const demand = shallowRef<DemandResponse | null>(null);
   const demandQuery = ref<DemandQuery | null>(null);
   // Filters change faster than the server answers; only the latest request may land.
   const { loading, error, run: runDemand } = useLatestRequest();

@@ -12,7 +12,7 @@ import { generatePlanFixture } from './plan-fixture';
 import { writeFixture } from './plan-fixture-db';
 
 /** A token of a live session for the user, without going through the password. */
-async function signInAs(db: Database, userId: number, secret: string): Promise<string> {
+export async function signInAs(db: Database, userId: number, secret: string): Promise<string> {
   const expiresAt = sessionExpiry('1h');
   const session = await db.write((manager) => openSession(manager, userId, expiresAt));
   return signSessionToken({ userId, sessionId: session.id }, secret, expiresAt);
@@ -29,7 +29,7 @@ const API_RUNS = 30;
 
 // Explosion only (no netting, no lead-time offsets): components at their parent's build date,
 // effectivity checked at that date, scrap applied. Less work than the engine does.
-const RECURSIVE_EXPLOSION = `
+export const RECURSIVE_EXPLOSION = `
 WITH RECURSIVE demand(part, date, qty) AS (
   SELECT model, date, SUM(qty) FROM sequence_entry WHERE date BETWEEN ? AND ? GROUP BY model, date
   UNION ALL

@@ -1,24 +1,39 @@
+import { parseArgs } from 'node:util';
 import { printCloseDayBench, runCloseDayBench } from './close-day.bench';
 import { printDatabaseBench, runDatabaseBench } from './database.bench';
 import { runPlanBench } from './plan.bench';
+import { runScaleBench } from './scale.bench';
 import { printWhatIfBench, runWhatIfBench } from './what-if.bench';
 
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
-const ms = (value: number) => `${value.toFixed(2)} ms`;
-const plan = await runPlanBench();
-console.log(
-  `Synthetic plant: ${plan.parts} parts, ${plan.bomLines} BOM lines, ${plan.sequenceSlots} sequence slots, ${plan.workingDays} working days`,
-);
-console.log(
-  `computePlan (explosion + netting)  median ${ms(plan.medianMs)}  p90 ${ms(plan.p90Ms)}  (target < 25 ms; ${plan.runs} runs)`,
-);
-console.log(`  + every bucket object           median ${ms(plan.allBucketsMedianMs)}  p90 ${ms(plan.allBucketsP90Ms)}`);
-console.log(`  + demand report                 median ${ms(plan.demandMedianMs)}  p90 ${ms(plan.demandP90Ms)}`);
-console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}  p90 ${ms(plan.floorP90Ms)}`);
-console.log(`engine / floor                     ${(plan.medianMs / plan.floorMedianMs).toFixed(1)}×`);
-console.log('');
-printDatabaseBench(await runDatabaseBench());
-console.log('');
-printCloseDayBench(await runCloseDayBench());
-console.log('');
-printWhatIfBench(await runWhatIfBench());
+// `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size;
+// add `--browser` for the time the Horizon screen takes to open in Chromium.
+const { values } = parseArgs({ options: { scale: { type: 'string' }, browser: { type: 'boolean' } } });
+const scales = values.scale ? values.scale.split(',').map(Number) : null;
+if (scales?.some((scale) => !Number.isInteger(scale) || scale < 1)) {
+  throw new Error('--scale takes whole numbers from 1, separated by commas (e.g. --scale 1,4,16)');
+}
+
+if (!scales) {
+  const ms = (value: number) => `${value.toFixed(2)} ms`;
+  const plan = await runPlanBench();
+  console.log(
+    `Synthetic plant: ${plan.parts} parts, ${plan.bomLines} BOM lines, ${plan.sequenceSlots} sequence slots, ${plan.workingDays} working days`,
+  );
+  console.log(
+    `computePlan (explosion + netting)  median ${ms(plan.medianMs)}  p90 ${ms(plan.p90Ms)}  (target < 25 ms; ${plan.runs} runs)`,
+  );
+  console.log(
+    `  + every bucket object           median ${ms(plan.allBucketsMedianMs)}  p90 ${ms(plan.allBucketsP90Ms)}`,
+  );
+  console.log(`  + demand report                 median ${ms(plan.demandMedianMs)}  p90 ${ms(plan.demandP90Ms)}`);
+  console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}  p90 ${ms(plan.floorP90Ms)}`);
+  console.log(`engine / floor                     ${(plan.medianMs / plan.floorMedianMs).toFixed(1)}×`);
+  console.log('');
+  printDatabaseBench(await runDatabaseBench());
+  console.log('');
+  printCloseDayBench(await runCloseDayBench());
+  console.log('');
+  printWhatIfBench(await runWhatIfBench());
+}
+for (const scale of scales ?? [1]) await runScaleBench(scale, { browser: values.browser });

@@ -26,6 +26,8 @@ export interface PlanFixtureOptions {
   models?: number;
   workingDays?: number;
   unitsPerDay?: number;
+  /** First day of the sequence; the default keeps every run on the same dates. */
+  from?: string;
 }
 
 /** mulberry32: a small, well-mixed 32-bit generator; returns floats in [0, 1). */
@@ -68,7 +70,7 @@ export function generatePlanFixture(options: PlanFixtureOptions = {}): PlanInput
     workingWeekdays: [1, 2, 3, 4, 5],
     holidays: ['2026-04-03', '2026-04-06', '2026-05-01', '2026-05-14', '2026-05-25'],
   };
-  const from = '2026-03-02';
+  const from = options.from ?? '2026-03-02';
   const to = addWorkingDays(from, workingDays - 1, calendar);
 
   const parts: PlanningPart[] = [];

@@ -162,4 +162,39 @@ describe('HorizonView', () => {
     expect(wrapper.find('[role="alert"]').exists()).toBe(false);
     expect(wrapper.text()).toContain('BAT-06-312');
   });
+
+  it('shows a large plant a page of rows at a time, sorted and totalled over every row', async () => {
+    // 250 parts; part n needs n on the first day, so the largest totals are at the end of the list.
+    const many: DemandResponse = {
+      days: ['2026-12-01'],
+      rows: Array.from({ length: 250 }, (_, index) => ({
+        partNumber: `P-${String(index + 1).padStart(3, '0')}`,
+        supplierCode: 'FBS',
+        total: index + 1,
+        byDay: { '2026-12-01': index + 1 },
+      })),
+    };
+    stubApi({ '/api/demand': () => jsonResponse(200, many), '/api/suppliers': () => jsonResponse(200, []) });
+    const { wrapper } = await openHorizon('/horizon');
+    const bodyRows = () => wrapper.findAll('.horizon-table .el-table__body-wrapper tbody tr');
+    const firstPart = () => bodyRows()[0]!.find('button').text();
+
+    expect(bodyRows()).toHaveLength(50);
+    expect(wrapper.get('.horizon-view__pager').text()).toContain('Total 250');
+    // 1 + 2 + … + 250 = 250 × 251 / 2 = 31,375, whichever page is shown.
+    expect(wrapper.get('.horizon-table .el-table__footer-wrapper').text()).toContain('31,375');
+
+    await wrapper.get('.horizon-table th.is-sortable:last-child .cell').trigger('click');
+    await flushPromises();
+    const ascending = firstPart();
+    await wrapper.get('.horizon-table th.is-sortable:last-child .cell').trigger('click');
+    await flushPromises();
+
+    expect(ascending).toBe('P-001');
+    expect(firstPart()).toBe('P-250');
+    await wrapper.get('.horizon-view__pager .btn-next').trigger('click');
+    await flushPromises();
+    expect(firstPart()).toBe('P-200');
+    expect(bodyRows()).toHaveLength(50);
+  });
 });

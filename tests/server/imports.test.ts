@@ -391,7 +391,7 @@ describe('POST /api/imports/parts', () => {
     ]);
   });
 
-  it('imports a 5,000-row parts file whole', async () => {
+  it('imports a 5,000-row file of kanban parts whole, and the loops list still answers', async () => {
     const rows = Array.from(
       { length: 5000 },
       (_, index) => `BULK-${index},Bulk part ${index},H87,buy,SUP-A,,10,,kanban,,L1-01,`,
@@ -405,6 +405,10 @@ describe('POST /api/imports/parts', () => {
       "SELECT COUNT(*) AS count FROM part WHERE part_number LIKE 'BULK-%'",
     );
     expect(count).toBe(5000);
+    const loops = await request(context.app).get('/api/kanban/loops').set(bearer(context.tokens.buyer));
+    expect(loops.status).toBe(200);
+    const bulkLoops = (loops.body as { partNumber: string }[]).filter((loop) => loop.partNumber.startsWith('BULK-'));
+    expect(bulkLoops).toHaveLength(5000);
   });
 });
 

@@ -1,0 +1,119 @@
+import { extname } from 'node:path';
+import { createRequire } from 'node:module';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import type { LineRiskInput, SlotAtRisk, UnitAtRisk } from '../../shared/domain/line-risk';
+import type { LineRiskSummary } from './line-risk-summary';
+
+export type WorkerRequest = { id: number } & (
+  | { kind: 'compute'; key: string; input: LineRiskInput }
+  | { kind: 'units'; key: string; offset: number; limit: number }
+  | { kind: 'slots'; key: string; partNumber: string; offset: number; limit: number }
+  | { kind: 'drop'; key: string }
+);
+
+type Request = WorkerRequest extends infer R ? (R extends unknown ? Omit<R, 'id'> : never) : never;
+
+export type WorkerReply =
+  | { id: number; ok: true; value: unknown }
+  | { id: number; ok: false; error: { kind: 'cycle' | 'input' | 'other'; message: string } };
+
+/** An error the engine raised in the worker, with the kind the service maps to an HTTP answer. */
+export class LineRiskWorkerError extends Error {
+  constructor(
+    readonly kind: 'cycle' | 'input' | 'other',
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+/**
+ * The line-risk engine in a worker thread: a large plant takes seconds to walk, and on the main
+ * thread every other request would wait that long. The worker keeps the full results by key; only
+ * summaries and pages are copied back. It is started on first use and restarted after a crash
+ * (results held by the dead one are simply missing, and the caller computes again).
+ */
+export class LineRiskRunner {
+  private worker: Worker | null = null;
+  private nextId = 1;
+  private readonly pending = new Map<number, { resolve: (value: unknown) => void; reject: (error: Error) => void }>();
+
+  compute(key: string, input: LineRiskInput): Promise<LineRiskSummary> {
+    return this.send({ kind: 'compute', key, input }) as Promise<LineRiskSummary>;
+  }
+
+  /** Undefined when the worker no longer holds the result. */
+  units(key: string, offset: number, limit: number) {
+    return this.send({ kind: 'units', key, offset, limit }) as Promise<
+      { total: number; units: UnitAtRisk[] } | undefined
+    >;
+  }
+
+  /** Undefined when the worker no longer holds the result; null when the part is not short. */
+  slots(key: string, partNumber: string, offset: number, limit: number) {
+    return this.send({ kind: 'slots', key, partNumber, offset, limit }) as Promise<
+      { total: number; slots: SlotAtRisk[] } | null | undefined
+    >;
+  }
+
+  drop(key: string): void {
+    if (this.worker) void this.send({ kind: 'drop', key }).catch(() => undefined);
+  }
+
+  async close(): Promise<void> {
+    const worker = this.worker;
+    this.worker = null;
+    if (worker) await worker.terminate();
+  }
+
+  private send(request: Request): Promise<unknown> {
+    const worker = this.start();
+    const id = this.nextId++;
+    return new Promise((resolve, reject) => {
+      this.pending.set(id, { resolve, reject });
+      worker.postMessage({ ...request, id });
+    });
+  }
+
+  private start(): Worker {
+    if (this.worker) return this.worker;
+    const worker = startWorker(
+      new URL(`./line-risk.worker${extname(fileURLToPath(import.meta.url))}`, import.meta.url),
+    );
+    // Idle, it must not keep the process alive; the server's own socket does that.
+    worker.unref();
+    worker.on('message', (reply: WorkerReply) => {
+      const waiting = this.pending.get(reply.id);
+      if (!waiting) return;
+      this.pending.delete(reply.id);
+      if (reply.ok) waiting.resolve(reply.value);
+      else waiting.reject(new LineRiskWorkerError(reply.error.kind, reply.error.message));
+    });
+    const fail = (error: Error) => {
+      if (this.worker === worker) this.worker = null;
+      for (const waiting of this.pending.values()) waiting.reject(error);
+      this.pending.clear();
+    };
+    worker.on('error', fail);
+    worker.on('exit', (code) => fail(new Error(`The line-risk worker stopped (exit code ${code}).`)));
+    this.worker = worker;
+    return worker;
+  }
+}
+
+/**
+ * Run from TypeScript sources (tsx, vitest), a worker does not inherit the TypeScript loader: a
+ * small bootstrap registers tsx's ESM hooks in the worker, then loads the worker file.
+ */
+function startWorker(file: URL): Worker {
+  if (!file.pathname.endsWith('.ts')) return new Worker(file);
+  // The ESM entry of tsx's API (require.resolve finds its CommonJS twin beside it).
+  const tsxApi = pathToFileURL(
+    createRequire(import.meta.url)
+      .resolve('tsx/esm/api')
+      .replace(/\.cjs$/, '.mjs'),
+  );
+  const bootstrap = `import(${JSON.stringify(tsxApi.href)}).then(({ register }) => { register(); return import(${JSON.stringify(file.href)}); });`;
+  return new Worker(bootstrap, { eval: true });
+}

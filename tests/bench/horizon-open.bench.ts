@@ -1,0 +1,94 @@
+import { chromium } from '@playwright/test';
+import type { AddressInfo } from 'node:net';
+import { performance } from 'node:perf_hooks';
+import { createApp } from '../../server/app';
+import { ensureClientBuilt } from '../../server/client-build';
+import type { Database } from '../../server/db/database';
+import { createServices } from '../../server/services';
+import { bumpPlanningVersion } from '../../server/settings/versions';
+import { hashPassword } from '../../server/users/passwords';
+import { UserEntity } from '../../server/users/user.entity';
+
+const SECRET = 'bench-secret-bench-secret-bench-secret-bench';
+const PASSWORD = 'bench-password-long-enough';
+const OPEN_TIMEOUT_MS = 180_000;
+
+/**
+ * Opens the Horizon screen of a plant already written to `db` in Chromium and prints how long it
+ * took until the first row showed, the page's DOM size, and the main-thread work (long tasks) a
+ * planning change caused. A printout for a person to read, never a pass/fail.
+ */
+export async function printHorizonOpen(db: Database): Promise<void> {
+  await db.dataSource.getRepository(UserEntity).save({
+    email: 'bench-buyer@example.com',
+    name: 'Bench buyer',
+    role: 'buyer',
+    passwordHash: await hashPassword(PASSWORD),
+    supplierCode: null,
+  });
+  const clientDir = await ensureClientBuilt(process.cwd());
+  const services = createServices(db, { jwtSecret: SECRET });
+  const server = createApp(db, { jwtSecret: SECRET, clientDir }, services).listen(0);
+  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium' });
+  try {
+    const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
+    await page.goto(`${base}/login`);
+    await page.getByLabel('E-mail').fill('bench-buyer@example.com');
+    await page.getByLabel('Password').fill(PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(`${base}/`);
+
+    // First with the server's plan cache cold (the first visit after a change), then again warm.
+    const firstRow = page.locator('.horizon-table .el-table__body-wrapper button').first();
+    const openMs = async (): Promise<number | null> => {
+      await page.goto(`${base}/`);
+      await page.getByRole('navigation').waitFor();
+      const start = performance.now();
+      await page.getByRole('navigation').getByRole('link', { name: 'Horizon' }).click();
+      return firstRow
+        .waitFor({ timeout: OPEN_TIMEOUT_MS })
+        .then(() => performance.now() - start)
+        .catch(() => null);
+    };
+    const cold = await openMs();
+    const warm = await openMs();
+    if (cold === null || warm === null) {
+      console.log(`Horizon open (Chromium): no row within ${OPEN_TIMEOUT_MS / 1000} s`);
+      return;
+    }
+    const nodes = await page.evaluate(() => document.getElementsByTagName('*').length);
+    const count = await page.locator('.horizon-view__count').textContent();
+    console.log(
+      `Horizon open (Chromium, 1440 px), click to first rows: ${cold.toFixed(0)} ms with the server's plan cache cold, ` +
+        `${warm.toFixed(0)} ms warm; ${nodes} DOM nodes; ${count?.trim()}`,
+    );
+
+    // Main-thread work of one planning change: long tasks (> 50 ms) from the notice until the
+    // refreshed figures are in.
+    await page.evaluate(() => {
+      const win = window as unknown as { benchLongTasks: number };
+      win.benchLongTasks = 0;
+      new PerformanceObserver((list) => {
+        for (const entry of list.getEntries()) win.benchLongTasks += entry.duration;
+      }).observe({ type: 'longtask' });
+    });
+    const refreshed = page.waitForResponse((response) => response.url().includes('/api/demand?'), {
+      timeout: OPEN_TIMEOUT_MS,
+    });
+    const changed = performance.now();
+    await db.write((manager) => bumpPlanningVersion(manager));
+    await refreshed;
+    await page.waitForTimeout(1500);
+    const longTasks = await page.evaluate(() => (window as unknown as { benchLongTasks: number }).benchLongTasks);
+    console.log(
+      `  a planning change: new demand fetched after ${(performance.now() - changed - 1500).toFixed(0)} ms or less, ` +
+        `${longTasks.toFixed(0)} ms of long tasks on the main thread`,
+    );
+  } finally {
+    await browser.close();
+    server.closeAllConnections();
+    server.close();
+    await services.lineRisk.close();
+  }
+}

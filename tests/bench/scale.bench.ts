@@ -1,0 +1,225 @@
+import autocannon from 'autocannon';
+import type { AddressInfo } from 'node:net';
+import { performance } from 'node:perf_hooks';
+import { gzipSync } from 'node:zlib';
+import { createApp } from '../../server/app';
+import { openDatabase, type Database } from '../../server/db/database';
+import { createServices } from '../../server/services';
+import { UserEntity } from '../../server/users/user.entity';
+import { seedDemoScenario } from '../../seed/seed-demo';
+import { addWorkingDays } from '../../shared/domain/calendar';
+import { computeLineRisk, type LineRiskInput } from '../../shared/domain/line-risk';
+import { computePlan } from '../../shared/domain/plan';
+import { plantToday } from '../../server/planning/plan-dates';
+import { RECURSIVE_EXPLOSION, signInAs } from './database.bench';
+import { printHorizonOpen } from './horizon-open.bench';
+import { generatePlanFixture } from './plan-fixture';
+import { writeFixture } from './plan-fixture-db';
+
+/*
+ * The figures of a plant `scale` times the benchmark plant, each beside a peer measured in the same
+ * run on the same machine: the engine beside a recursive-SQL explosion, line risk beside the plan
+ * of the same weeks, every API call beside GET /api/health. Wall-clock times; on a shared machine
+ * they move with the load of everything else running.
+ */
+
+const SECRET = 'bench-secret-bench-secret-bench-secret-bench';
+const WEEKS_4 = 20;
+
+const median = (samples: number[]) => [...samples].sort((a, b) => a - b)[Math.floor(samples.length / 2)];
+const p90 = (samples: number[]) => [...samples].sort((a, b) => a - b)[Math.ceil(samples.length * 0.9) - 1];
+const ms = (value: number) => `${value < 10 ? value.toFixed(1) : value.toFixed(0)} ms`;
+const mb = (bytes: number) => `${(bytes / 1e6).toFixed(2)} MB`;
+
+function timed<T>(run: () => T): { value: T; ms: number } {
+  const start = performance.now();
+  const value = run();
+  return { value, ms: performance.now() - start };
+}
+
+async function timedAsync<T>(run: () => Promise<T>): Promise<{ value: T; ms: number }> {
+  const start = performance.now();
+  const value = await run();
+  return { value, ms: performance.now() - start };
+}
+
+async function benchUser(db: Database): Promise<string> {
+  const admin = await db.dataSource.getRepository(UserEntity).save({
+    email: 'bench@example.com',
+    name: 'Bench',
+    role: 'admin',
+    passwordHash: 'not-used',
+    supplierCode: null,
+  });
+  return signInAs(db, admin.id, SECRET);
+}
+
+function listen(db: Database) {
+  const services = createServices(db, { jwtSecret: SECRET });
+  const server = createApp(db, { jwtSecret: SECRET }, services).listen(0);
+  const { port } = server.address() as AddressInfo;
+  return {
+    base: `http://127.0.0.1:${port}`,
+    async close() {
+      server.closeAllConnections();
+      server.close();
+      await services.lineRisk.close();
+    },
+  };
+}
+
+/** One GET taking gzip, timed to the last byte unzipped (as a browser does); `bytes` is the JSON's size. */
+async function get(url: string, token: string): Promise<{ ms: number; bytes: number; body: Buffer }> {
+  const start = performance.now();
+  const response = await fetch(url, { headers: { Authorization: `Bearer ${token}`, 'Accept-Encoding': 'gzip' } });
+  const body = Buffer.from(await response.arrayBuffer());
+  if (!response.ok) throw new Error(`GET ${url} answered ${response.status}`);
+  return { ms: performance.now() - start, bytes: body.length, body };
+}
+
+/** Prints every figure of one plant size. */
+export async function runScaleBench(scale: number, options: { browser?: boolean } = {}): Promise<void> {
+  // From today, so the Horizon screen (which always looks ahead from today) shows the plant's demand.
+  const fixture = generatePlanFixture({ scale, from: plantToday() });
+  const to4 = addWorkingDays(fixture.from, WEEKS_4 - 1, fixture.calendar);
+  const units4 = fixture.sequence.filter((slot) => slot.date <= to4);
+  const modelLines = new Map<string, number>();
+  for (const line of fixture.bom) modelLines.set(line.parent, (modelLines.get(line.parent) ?? 0) + 1);
+  const structure = (part: string): number =>
+    fixture.bom
+      .filter((line) => line.parent === part)
+      .reduce((sum, line) => sum + 1 + (modelLines.has(line.component) ? structure(line.component) : 0), 0);
+  const linesPerModel = structure(fixture.parts.find((part) => part.source === 'end_item')!.partNumber);
+  console.log(
+    `\n=== ${scale}× plant: ${fixture.parts.length} parts, ${fixture.bom.length} BOM lines (${linesPerModel} below a model), ` +
+      `${units4.length} units in 4 weeks ===`,
+  );
+
+  const db = await openDatabase(':memory:');
+  const write = await timedAsync(() => writeFixture(db, fixture));
+  console.log(`plant written to SQLite                 ${ms(write.ms)}`);
+
+  // --- Engine beside recursive SQL, 4 weeks ---
+  const sql: number[] = [];
+  for (let run = 0; run < 4; run += 1) {
+    sql.push((await timedAsync(() => db.manager.query(RECURSIVE_EXPLOSION, [fixture.from, to4]))).ms);
+  }
+  const planInput = { ...fixture, to: to4 };
+  computePlan(planInput);
+  const plan = Array.from({ length: 5 }, () => timed(() => computePlan(planInput)).ms);
+  console.log(
+    `computePlan, 4 weeks                    median ${ms(median(plan))}   | recursive SQL explosion ${ms(median(sql.slice(1)))} ` +
+      `(${(median(sql.slice(1)) / median(plan)).toFixed(1)}× the engine)`,
+  );
+
+  // --- Line risk, 4 weeks, in place: every run is a run after a change (nothing is reused) ---
+  const lineRiskInput: LineRiskInput = {
+    parts: fixture.parts,
+    bom: fixture.bom,
+    sequence: units4,
+    firmReceipts: fixture.scheduledReceipts,
+    calendar: fixture.calendar,
+    from: fixture.from,
+    to: to4,
+  };
+  // Only the figures are kept: a 16× result is a million objects, and holding it here would
+  // slow the server below (same process) with garbage collection.
+  const lineRiskSamples: number[] = [];
+  let lineRisk = { unitsAtRisk: 0, shortages: 0, slots: 0, jsonBytes: 0, gzipBytes: 0 };
+  for (let run = 0; run < 3; run += 1) {
+    const { value, ms: runMs } = timed(() => computeLineRisk(lineRiskInput));
+    lineRiskSamples.push(runMs);
+    if (run > 0) continue;
+    const json = Buffer.from(JSON.stringify(value));
+    lineRisk = {
+      unitsAtRisk: value.unitsAtRisk.length,
+      shortages: value.shortages.length,
+      slots: value.shortages.reduce((sum, shortage) => sum + shortage.slotsAtRisk.length, 0),
+      jsonBytes: json.length,
+      gzipBytes: gzipSync(json).length,
+    };
+  }
+  const lineRiskMs = median(lineRiskSamples);
+  console.log(
+    `line risk, 4 weeks                      median ${ms(lineRiskMs)}   | computePlan same weeks ${ms(median(plan))} ` +
+      `(${(lineRiskMs / median(plan)).toFixed(1)}×)   target < 500 ms at 16×`,
+  );
+  console.log(
+    `  ${units4.length} units × ${linesPerModel} lines = ${units4.length * linesPerModel} unit-lines, ` +
+      `${((lineRiskMs * 1000) / (units4.length * linesPerModel)).toFixed(2)} µs each; ` +
+      `${lineRisk.unitsAtRisk} units at risk, ${lineRisk.shortages} short parts, ${lineRisk.slots} slots at risk`,
+  );
+
+  // --- Through HTTP ---
+  const token = await benchUser(db);
+  const app = listen(db);
+  try {
+    const demandUrl = `${app.base}/api/demand?from=${fixture.from}&to=${to4}`;
+    const healthUrl = `${app.base}/api/health`;
+    const first = await get(demandUrl, token);
+    const cached: number[] = [];
+    const health: number[] = [];
+    for (let run = 0; run < 20; run += 1) {
+      cached.push((await get(demandUrl, token)).ms);
+      health.push((await get(healthUrl, token)).ms);
+    }
+    console.log(
+      `GET /api/demand 4 weeks: first ${ms(first.ms)}, cached median ${ms(median(cached))} p90 ${ms(p90(cached))} ` +
+        `| /api/health median ${ms(median(health))}   target < 200 ms cached at 16×`,
+    );
+    console.log(`  body ${mb(first.bytes)} JSON, ${mb(gzipSync(first.body).length)} gzipped`);
+
+    // Line risk through the API: computed in the worker while /api/health keeps answering.
+    const lineRiskUrl = `${app.base}/api/line-risk?from=${fixture.from}&to=${to4}`;
+    const during: number[] = [];
+    let done = false;
+    const report = get(lineRiskUrl, token).finally(() => (done = true));
+    while (!done) during.push((await get(healthUrl, token)).ms);
+    const firstReport = await report;
+    const again = await get(lineRiskUrl, token);
+    console.log(
+      `GET /api/line-risk 4 weeks: first ${ms(firstReport.ms)}, cached ${ms(again.ms)}, report ${mb(firstReport.bytes)} JSON ` +
+        `| full result ${mb(lineRisk.jsonBytes)} JSON, ${mb(lineRisk.gzipBytes)} gzipped`,
+    );
+    console.log(
+      `  /api/health meanwhile: ${during.length} calls, median ${ms(median(during))}, max ${ms(Math.max(...during))}`,
+    );
+    if (scale === 1) await throughput(app.base, token, demandUrl);
+  } finally {
+    await app.close();
+  }
+  try {
+    if (options.browser) await printHorizonOpen(db);
+  } finally {
+    await db.close();
+  }
+}
+
+async function load(url: string, token: string) {
+  const result = await autocannon({
+    url,
+    connections: 50,
+    duration: 10,
+    headers: { Authorization: `Bearer ${token}` },
+  });
+  const problems = result.errors + result.non2xx;
+  return `${result.requests.average.toFixed(0)} req/s, p50 ${ms(result.latency.p50)}, p99 ${ms(result.latency.p99)}${problems ? `, ${problems} failed` : ''}`;
+}
+
+/** 50 connections for 10 s each: the 1× plant's demand, the demo plant's dock board, and /api/health. */
+async function throughput(base: string, token: string, demandUrl: string): Promise<void> {
+  console.log('throughput, 50 connections, 10 s each (autocannon on the same machine):');
+  console.log(`  GET /api/demand 4 weeks  ${await load(demandUrl, token)}`);
+  console.log(`  GET /api/health          ${await load(`${base}/api/health`, token)}`);
+  const demo = await openDatabase(':memory:');
+  await seedDemoScenario(demo, plantToday());
+  const demoToken = await benchUser(demo);
+  const demoApp = listen(demo);
+  try {
+    console.log(`  GET /api/dock (demo)     ${await load(`${demoApp.base}/api/dock`, demoToken)}`);
+    console.log(`  GET /api/health (demo)   ${await load(`${demoApp.base}/api/health`, demoToken)}`);
+  } finally {
+    await demoApp.close();
+    await demo.close();
+  }
+}
