@@ -10,6 +10,8 @@ import { ForecastMailService } from './horizon/forecast-mail.service';
 import { ImportsService } from './imports/imports.service';
 import { LineRiskService } from './line-risk/line-risk.service';
 import { LoopsService } from './loops/loops.service';
+import { BomService } from './master-data/bom.service';
+import { MasterDataEditService } from './master-data/master-data-edit.service';
 import { MasterDataService } from './master-data/master-data.service';
 import { OutboxService } from './outbox/outbox.service';
 import { PlanningService } from './planning/planning.service';
@@ -59,6 +61,8 @@ export function createServices(db: Database, options: ServiceOptions) {
     users: new UsersService(db),
     calendar: new CalendarService(db),
     masterData: new MasterDataService(db),
+    masterDataEdit: new MasterDataEditService(db),
+    bom: new BomService(db),
     imports: new ImportsService(db),
     sequence: new SequenceService(db),
     planning,
