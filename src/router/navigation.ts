@@ -1,6 +1,7 @@
 import { markRaw, type Component } from 'vue';
 import {
   Aim,
+  Box,
   Calendar,
   Finished,
   Goods,
@@ -8,6 +9,7 @@ import {
   Medal,
   Message,
   Refresh,
+  Shop,
   Sort,
   Tickets,
   TrendCharts,
@@ -17,11 +19,11 @@ import {
   Warning,
 } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
-import type { RouteName } from './route-map';
-import { LINE_END_ROLES, STOCK_ROLES } from './routes';
+import type { PlainRouteName } from './route-map';
+import { LINE_END_ROLES, MASTER_DATA_READ_ROLES, STOCK_ROLES } from './routes';
 
 export interface NavigationEntry {
-  routeName: RouteName;
+  routeName: PlainRouteName;
   label: string;
   icon: Component;
   roles: readonly Role[];
@@ -111,6 +113,20 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Van),
     roles: ['admin', 'receiving', 'buyer', 'planner', 'viewer'],
     summary: 'Deliveries on their way in: move them across the dock, count them in, attach the packing slip.',
+  },
+  {
+    routeName: 'parts',
+    label: 'Parts',
+    icon: markRaw(Box),
+    roles: MASTER_DATA_READ_ROLES,
+    summary: 'Each part’s master data, stock, loop, supplier and where it is used; BOMs with engineering changes.',
+  },
+  {
+    routeName: 'suppliers',
+    label: 'Suppliers',
+    icon: markRaw(Shop),
+    roles: MASTER_DATA_READ_ROLES,
+    summary: 'Who the plant buys from: order e-mail, lead time and delivery cycle.',
   },
   {
     routeName: 'imports',

@@ -23,6 +23,8 @@ describe('navigationFor', () => {
       'supplier-performance',
       'card-scan',
       'dock',
+      'parts',
+      'suppliers',
       'imports',
       'calendar',
       'admin-users',
@@ -46,10 +48,10 @@ describe('navigationFor', () => {
 
   // Role rules from PRODUCT.md, "Second round": the line reports units built; stock is read by
   // everyone but suppliers.
-  it('offers the line its end of the line, the sequence to read and stock', () => {
+  it('offers the line its end of the line, the sequence, stock and master data to read', () => {
     const names = navigationFor('line').map((entry) => entry.routeName);
 
-    expect(names).toEqual(['home', 'sequence', 'line-end', 'stock']);
+    expect(names).toEqual(['home', 'sequence', 'line-end', 'stock', 'parts', 'suppliers']);
   });
 
   it('offers the Line end only to the roles that may report units built', () => {
@@ -96,6 +98,8 @@ describe('AppShellNav', () => {
       'Supplier performance',
       'Scan cards',
       'Dock',
+      'Parts',
+      'Suppliers',
       'Imports',
       'Calendar',
     ]);
@@ -119,6 +123,8 @@ describe('AppShellNav', () => {
       'Supplier performance',
       'Scan cards',
       'Dock',
+      'Parts',
+      'Suppliers',
       'Imports',
       'Calendar',
       'Users',
