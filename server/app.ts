@@ -4,6 +4,7 @@ import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
+import { createAuditRouter } from './audit/audit.router';
 import { createAuthRouter } from './auth/auth.router';
 import { authenticate } from './auth/authenticate';
 import { createBuildsRouter } from './builds/builds.router';
@@ -102,6 +103,7 @@ export function createApp(
   api.use(createDockRouter(services, deps));
   api.use(createStockRouter(services, deps));
   api.use(createBuildsRouter(services, deps));
+  api.use(createAuditRouter(services, deps));
 
   const openApiDocument = generateOpenApiDocument(deps.registry);
   api.get('/openapi.json', (_req, res) => {

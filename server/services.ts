@@ -1,5 +1,6 @@
 import { dirname, join } from 'node:path';
 import type { Database } from './db/database';
+import { AuditTrailService } from './audit/audit-trail.service';
 import { AuthService } from './auth/auth.service';
 import { BuildsService } from './builds/builds.service';
 import { CalendarService } from './calendar/calendar.service';
@@ -78,5 +79,6 @@ export function createServices(db: Database, options: ServiceOptions) {
     outbox: new OutboxService(db),
     stock: new StockService(db),
     builds: new BuildsService(db),
+    auditTrail: new AuditTrailService(db),
   };
 }

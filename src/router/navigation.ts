@@ -3,6 +3,7 @@ import {
   Aim,
   Box,
   Calendar,
+  Document,
   Finished,
   Goods,
   House,
@@ -142,6 +143,13 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Calendar),
     roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'],
     summary: 'Working weekdays and plant holidays, which every lead-time offset counts in.',
+  },
+  {
+    routeName: 'audit',
+    label: 'Audit trail',
+    icon: markRaw(Document),
+    roles: ['admin', 'planner'],
+    summary: 'Who changed what and when, from what to what; filter and export as CSV.',
   },
   {
     routeName: 'admin-users',

@@ -34,6 +34,7 @@ export interface RouteNamedMap {
   suppliers: RouteRecordInfo<'suppliers', '/suppliers', NoParams, NoParams>;
   supplier: RouteRecordInfo<'supplier', '/suppliers/:code', { code: string }, { code: string }>;
   bom: RouteRecordInfo<'bom', '/bom/:parent', { parent: string }, { parent: string }>;
+  audit: RouteRecordInfo<'audit', '/admin/audit', NoParams, NoParams>;
   forbidden: RouteRecordInfo<'forbidden', '/forbidden', NoParams, NoParams>;
   'not-found': RouteRecordInfo<
     'not-found',

@@ -167,6 +167,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'BOM', roles: MASTER_DATA_READ_ROLES },
   },
   {
+    path: '/admin/audit',
+    name: 'audit',
+    component: () => import('@/views/AuditView.vue'),
+    meta: { title: 'Audit trail', roles: ['admin', 'planner'] },
+  },
+  {
     path: '/forbidden',
     name: 'forbidden',
     component: () => import('@/views/ForbiddenView.vue'),

@@ -27,6 +27,7 @@ describe('navigationFor', () => {
       'suppliers',
       'imports',
       'calendar',
+      'audit',
       'admin-users',
       'admin-outbox',
     ]);
@@ -127,6 +128,7 @@ describe('AppShellNav', () => {
       'Suppliers',
       'Imports',
       'Calendar',
+      'Audit trail',
       'Users',
       'Outbox',
     ]);
