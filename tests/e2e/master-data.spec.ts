@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
 import { settleForScreenshot } from './pages/loops-page';
 import { LoginPage } from './pages/login-page';
-import { BomPage, PartPage, PartsPage } from './pages/master-data-page';
+import { AuditPage, BomPage, PartPage, PartsPage } from './pages/master-data-page';
 
 const DEMO_PASSWORD = 'cardloop-demo';
 
@@ -52,5 +52,16 @@ test.describe('Master data', () => {
     await page.goto('/parts/BLT-M8-25');
     await expect(part.fact('Lead time (working days)')).toHaveText('9 working days');
     await page.screenshot({ path: 'test-results/master-data-part-390.png', fullPage: true });
+
+    // The planner reads who changed the lead time, from what to what.
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await login.signIn('planner@example.com', DEMO_PASSWORD);
+    const audit = new AuditPage(page);
+    await audit.openFromRail();
+    await audit.filterSubject('BLT-M8-25');
+    await expect(audit.rows().filter({ hasText: 'buyer@example.com' }).filter({ hasText: '→ 9' })).toHaveCount(1);
+    await settleForScreenshot(page);
+    await page.screenshot({ path: 'test-results/master-data-audit-1440.png' });
   });
 });

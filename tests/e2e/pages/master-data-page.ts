@@ -75,3 +75,21 @@ export class BomPage {
     await expect(dialog).toBeHidden();
   }
 }
+
+/** The audit trail with its filters. */
+export class AuditPage {
+  constructor(private readonly page: Page) {}
+
+  async openFromRail(): Promise<void> {
+    await this.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Audit trail' }).click();
+    await expect(this.page.getByRole('heading', { name: 'Audit trail', level: 1 })).toBeVisible();
+  }
+
+  async filterSubject(subject: string): Promise<void> {
+    await this.page.getByLabel('Subject').fill(subject);
+  }
+
+  rows(): Locator {
+    return this.page.locator('.el-table__body tr');
+  }
+}
