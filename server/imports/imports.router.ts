@@ -24,6 +24,7 @@ const IMPORT_ROLES: Record<ImportKind, readonly Role[]> = {
   bom: MASTER_DATA_ROLES,
   schedule: SEQUENCE_ROLES,
   'on-hand': MASTER_DATA_ROLES,
+  'open-orders': MASTER_DATA_ROLES,
 };
 
 const NOTES: Record<ImportKind, string> = {
@@ -32,6 +33,8 @@ const NOTES: Record<ImportKind, string> = {
   bom: 'replaces every line of each parent named in the file; other parents keep their lines',
   schedule: 'upsert by serial; dates must be working days',
   'on-hand': 'sets the on-hand count of existing parts',
+  'open-orders':
+    'orders already open with suppliers: one confirmed release per supplier and reference, lines matched by part and due_date; they count as scheduled receipts and can be received at the dock',
 };
 
 /** CSV import routes and their templates. */

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { bomLineSchema, isoDateSchema, partSchema, sequenceEntrySchema, supplierSchema } from './master-data';
 
-export const IMPORT_KINDS = ['suppliers', 'parts', 'bom', 'schedule', 'on-hand'] as const;
+export const IMPORT_KINDS = ['suppliers', 'parts', 'bom', 'schedule', 'on-hand', 'open-orders'] as const;
 export type ImportKind = (typeof IMPORT_KINDS)[number];
 export const importKindSchema = z.enum(IMPORT_KINDS);
 
@@ -47,6 +47,10 @@ export const IMPORT_LAYOUTS = {
     columns: ['part_number', 'on_hand'],
     required: ['part_number', 'on_hand'],
   },
+  'open-orders': {
+    columns: ['supplier_code', 'part_number', 'qty', 'due_date', 'reference'],
+    required: ['supplier_code', 'part_number', 'qty', 'due_date', 'reference'],
+  },
 } as const satisfies Record<ImportKind, { columns: readonly string[]; required: readonly string[] }>;
 
 export type ImportLayout = { columns: readonly string[]; required: readonly string[] };
@@ -71,6 +75,7 @@ export const IMPORT_DEFAULTS = {
   bom: { scrap_pct: 0, effective_from: null, effective_to: null },
   schedule: { qty: 1 },
   'on-hand': {},
+  'open-orders': {},
 } as const;
 
 /** One problem of an import: `row` is the file's line number (header = 1), `column` its CSV header. */
@@ -229,6 +234,25 @@ export const scheduleRowSchema = z.object({
 export const onHandRowSchema = z.object({
   part_number: requiredCell(text(part.partNumber)),
   on_hand: requiredCell(numberIn(part.onHand)),
+});
+
+/** An order reference as suppliers write it on paperwork: a purchase order number and the like. */
+export const orderReferenceSchema = z
+  .string()
+  .trim()
+  .min(1)
+  .max(40)
+  .regex(/^[A-Za-z0-9._/-]+$/, 'letters, digits, . _ / - only');
+
+/** Most an open order line may ask for; more is a typo. */
+export const MAX_OPEN_ORDER_QTY = 1_000_000_000;
+
+export const openOrderRowSchema = z.object({
+  supplier_code: requiredCell(text(supplier.code)),
+  part_number: requiredCell(text(part.partNumber)),
+  qty: requiredCell(numberIn(z.number().positive().max(MAX_OPEN_ORDER_QTY))),
+  due_date: requiredCell(isoDate),
+  reference: requiredCell(text(orderReferenceSchema)),
 });
 
 /** CSV column of a camelCase domain field (`leadTimeDays` → `lead_time_days`). */
