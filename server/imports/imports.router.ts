@@ -29,7 +29,8 @@ const IMPORT_ROLES: Record<ImportKind, readonly Role[]> = {
 
 const NOTES: Record<ImportKind, string> = {
   suppliers: 'upsert by code',
-  parts: 'upsert by part_number; optional extra column hazardous (true/false, yes/no, 1/0)',
+  parts:
+    'upsert by part_number; optional extra columns hazardous and heavy_lift (true/false, yes/no, 1/0), un_number, hazard_class, sds_url, unit_weight_kg',
   bom: 'replaces every line of each parent named in the file; other parents keep their lines',
   schedule: 'upsert by serial; dates must be working days',
   'on-hand': 'sets the on-hand count of existing parts',

@@ -9,7 +9,7 @@ export const importKindSchema = z.enum(IMPORT_KINDS);
 export const IMPORT_MAX_BYTES = 5 * 1024 * 1024;
 
 /**
- * Header of each CSV kind: `columns` in published order (parts adds the optional `hazardous`),
+ * Header of each CSV kind: `columns` in published order (parts adds the optional `hazardous` and safety data),
  * `required` the columns that must be in the header and filled on every row. Other columns may be
  * left out of the header: existing records then keep their value and new ones take the default.
  */
@@ -32,6 +32,11 @@ export const IMPORT_LAYOUTS = {
       'safety_stock',
       'point_of_use',
       'hazardous',
+      'un_number',
+      'hazard_class',
+      'sds_url',
+      'unit_weight_kg',
+      'heavy_lift',
     ],
     required: ['part_number', 'description', 'source'],
   },
@@ -71,6 +76,11 @@ export const IMPORT_DEFAULTS = {
     safety_stock: 0,
     point_of_use: null,
     hazardous: false,
+    un_number: null,
+    hazard_class: null,
+    sds_url: null,
+    unit_weight_kg: null,
+    heavy_lift: false,
   },
   bom: { scrap_pct: 0, effective_from: null, effective_to: null },
   schedule: { qty: 1 },
@@ -212,6 +222,11 @@ export const partRowSchema = z.object({
   safety_stock: optionalCell(numberIn(part.safetyStock)),
   point_of_use: optionalCell(text(part.pointOfUse)),
   hazardous: optionalCell(flag),
+  un_number: optionalCell(text(part.unNumber.unwrap())),
+  hazard_class: optionalCell(text(part.hazardClass.unwrap())),
+  sds_url: optionalCell(text(part.sdsUrl.unwrap())),
+  unit_weight_kg: optionalCell(numberIn(part.unitWeightKg.unwrap().unwrap())),
+  heavy_lift: optionalCell(flag),
 });
 
 export const bomRowSchema = z.object({

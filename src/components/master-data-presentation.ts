@@ -36,7 +36,15 @@ export const PART_FIELD_WORDS = {
   pointOfUse: { label: 'Point of use', help: 'Where on the line the part is used; kit sheets group by it.' },
   hazardous: {
     label: 'Hazardous material',
-    help: 'Shows a handling caution at the dock. Follow local codes and the plant’s own safety practice.',
+    help: 'Shows a handling caution at the dock, on kit sheets and in releases, once per part. Follow local codes and the plant’s own safety practice.',
+  },
+  unNumber: { label: 'UN number', help: 'Four-digit dangerous-goods number from the safety data sheet, e.g. 2800.' },
+  hazardClass: { label: 'Hazard class', help: 'Dangerous-goods class or division, e.g. 8 or 2.1.' },
+  sdsUrl: { label: 'Safety data sheet', help: 'Link to the supplier’s safety data sheet (http or https).' },
+  unitWeightKg: { label: 'Unit weight (kg)', help: 'Weight of one piece, shown with the heavy-lift caution.' },
+  heavyLift: {
+    label: 'Heavy lift',
+    help: 'One piece is too heavy to lift by hand alone (batteries weigh tens of kilograms): the caution asks for the lifting aid the plant prescribes.',
   },
 } satisfies Record<string, FieldWords>;
 

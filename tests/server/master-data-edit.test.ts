@@ -111,6 +111,25 @@ describe('PUT /api/parts/:partNumber', () => {
     expect(nut.body.part.leadTimeDays).toBe(7);
   });
 
+  it('keeps safety data, and refuses a UN number or data-sheet link the parts import would refuse', async () => {
+    const saved = await api()
+      .put('/api/parts/NUT')
+      .set(bearer(context.tokens.buyer))
+      .send({ hazardous: true, unNumber: 'UN2800', hazardClass: '8', unitWeightKg: 31, heavyLift: true });
+    const bad = await api()
+      .put('/api/parts/NUT')
+      .set(bearer(context.tokens.buyer))
+      .send({ unNumber: '28', sdsUrl: 'file:///sheet.pdf' });
+
+    expect(saved.status).toBe(200);
+    expect(saved.body.part).toMatchObject({ unNumber: '2800', hazardClass: '8', unitWeightKg: 31, heavyLift: true });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.details).toEqual([
+      { path: ['unNumber'], message: "'28': four digits, e.g. 2794" },
+      { path: ['sdsUrl'], message: "'file:///sheet.pdf': a web link (http or https)" },
+    ]);
+  });
+
   it('refuses an unknown supplier and a bought part without one', async () => {
     const unknown = await api().put('/api/parts/NUT').set(bearer(context.tokens.buyer)).send({ supplierCode: 'SUP-Z' });
     const none = await api().put('/api/parts/NUT').set(bearer(context.tokens.buyer)).send({ supplierCode: null });

@@ -4,6 +4,7 @@ import { OutboxDelivery1764800000000 } from './1764800000000-outbox-delivery';
 import { Sessions1764810000000 } from './1764810000000-sessions';
 import { StockLedger1764900000000 } from './1764900000000-stock-ledger';
 import { OpenOrders1765000000000 } from './1765000000000-open-orders';
+import { PartSafety1765100000000 } from './1765100000000-part-safety';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -13,4 +14,5 @@ export const migrations = [
   Sessions1764810000000,
   StockLedger1764900000000,
   OpenOrders1765000000000,
+  PartSafety1765100000000,
 ];
