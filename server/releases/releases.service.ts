@@ -307,6 +307,10 @@ export class ReleasesService {
             uom: part?.uom ?? 'H87',
             needDate: line.needDate,
             hazardous: part?.hazardous ?? false,
+            unNumber: part?.unNumber ?? null,
+            hazardClass: part?.hazardClass ?? null,
+            unitWeightKg: part?.unitWeightKg ?? null,
+            heavyLift: part?.heavyLift ?? false,
           };
         }),
       }),
