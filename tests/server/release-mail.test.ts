@@ -37,7 +37,7 @@ describe('composeReleaseMail', () => {
     expect(mail.text).toContain(`${HAZARDOUS_NOTE} (dangerous goods UN 2800, class 8)`);
     expect(mail.text).toContain('Heavy (31 kg each): pack for lifting equipment.');
     expect(mail.text).toContain('the plant’s own safety practice');
-    expect(mail.html.split(HAZARDOUS_NOTE)).toHaveLength(2);
+    expect((mail.html ?? '').split(HAZARDOUS_NOTE)).toHaveLength(2);
   });
 
   it('adds no caution to a release without hazardous or heavy parts', () => {
