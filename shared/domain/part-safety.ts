@@ -58,11 +58,3 @@ export function safetyNotes(parts: readonly PartSafety[]): SafetyNote[] {
   }
   return notes;
 }
-
-/** One line of text for a note, for mail and plain text: "BAT-12: dangerous goods UN 2800, class 8; heavy: 31 kg each". */
-export function safetyNoteText(note: SafetyNote): string {
-  const what = [note.hazard, note.lift].filter(Boolean).join('; ');
-  const advice = [note.hazard ? HAZARD_ADVICE : null, note.lift ? LIFT_ADVICE : null].filter(Boolean).join('; ');
-  const sheet = note.sdsUrl ? ` Safety data sheet: ${note.sdsUrl}` : '';
-  return `${note.partNumber}: ${what} — ${advice}.${sheet}`;
-}
