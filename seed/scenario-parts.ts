@@ -152,6 +152,8 @@ export interface BoughtEntry {
   scrapPct?: number;
   safetyStock?: number;
   hazardous?: boolean;
+  /** Dangerous-goods and handling data of the demo's batteries (invented demo values). */
+  safety?: { unNumber: string; hazardClass: string; unitWeightKg: number; heavyLift: boolean; sdsUrl: string };
 }
 
 const DECKS = ['DCK-20', 'DCK-26', 'DCK-32', 'DCK-40'];
@@ -507,6 +509,13 @@ export const BOUGHT: BoughtEntry[] = [
     replenishment: 'scheduled',
     pointOfUse: 'L1-ST08',
     hazardous: true,
+    safety: {
+      unNumber: '2800',
+      hazardClass: '8',
+      unitWeightKg: 31,
+      heavyLift: true,
+      sdsUrl: 'https://sds.example.com/BAT-12-105.pdf',
+    },
     safetyStock: 4,
     usedOn: { [FS20W]: 2 },
   },
@@ -518,6 +527,13 @@ export const BOUGHT: BoughtEntry[] = [
     replenishment: 'scheduled',
     pointOfUse: 'L1-ST08',
     hazardous: true,
+    safety: {
+      unNumber: '2794',
+      hazardClass: '8',
+      unitWeightKg: 30,
+      heavyLift: true,
+      sdsUrl: 'https://sds.example.com/BAT-06-225.pdf',
+    },
     safetyStock: 8,
     usedOn: { [FS26W]: 4 },
   },
@@ -529,6 +545,13 @@ export const BOUGHT: BoughtEntry[] = [
     replenishment: 'scheduled',
     pointOfUse: 'L1-ST08',
     hazardous: true,
+    safety: {
+      unNumber: '2794',
+      hazardClass: '8',
+      unitWeightKg: 45,
+      heavyLift: true,
+      sdsUrl: 'https://sds.example.com/BAT-06-312.pdf',
+    },
     safetyStock: 12,
     usedOn: each(RIDE, 6),
   },

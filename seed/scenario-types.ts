@@ -21,6 +21,11 @@ export interface DemoPart {
   safetyStock: number;
   pointOfUse: string | null;
   hazardous: boolean;
+  unNumber?: string | null;
+  hazardClass?: string | null;
+  sdsUrl?: string | null;
+  unitWeightKg?: number | null;
+  heavyLift?: boolean;
 }
 
 export interface DemoBomLine {

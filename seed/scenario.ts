@@ -123,6 +123,7 @@ function demoParts(demand: Map<string, number[]>, supplierLeadTimes: Map<string,
       safetyStock: entry.safetyStock ?? 0,
       pointOfUse: entry.pointOfUse,
       hazardous: entry.hazardous ?? false,
+      ...entry.safety,
     };
   });
   return [...endItems, ...made, ...bought];

@@ -5,6 +5,7 @@ import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
+import { createAuditRouter } from './audit/audit.router';
 import { createAuthRouter } from './auth/auth.router';
 import { authenticate } from './auth/authenticate';
 import { createBuildsRouter } from './builds/builds.router';
@@ -112,6 +113,7 @@ export function createApp(
   api.use(createStockRouter(services, deps));
   api.use(createBuildsRouter(services, deps));
   api.use(createOverviewRouter(services, deps));
+  api.use(createAuditRouter(services, deps));
 
   const openApiDocument = generateOpenApiDocument(deps.registry);
   api.get('/openapi.json', (_req, res) => {

@@ -1,5 +1,6 @@
 import { dirname, join } from 'node:path';
 import type { Database } from './db/database';
+import { AuditTrailService } from './audit/audit-trail.service';
 import { AuthService } from './auth/auth.service';
 import { BuildsService } from './builds/builds.service';
 import { CalendarService } from './calendar/calendar.service';
@@ -10,6 +11,8 @@ import { ForecastMailService } from './horizon/forecast-mail.service';
 import { ImportsService } from './imports/imports.service';
 import { LineRiskService } from './line-risk/line-risk.service';
 import { LoopsService } from './loops/loops.service';
+import { BomService } from './master-data/bom.service';
+import { MasterDataEditService } from './master-data/master-data-edit.service';
 import { MasterDataService } from './master-data/master-data.service';
 import { OutboxService } from './outbox/outbox.service';
 import { OverviewService } from './overview/overview.service';
@@ -62,6 +65,8 @@ export function createServices(db: Database, options: ServiceOptions) {
     users: new UsersService(db),
     calendar: new CalendarService(db),
     masterData: new MasterDataService(db),
+    masterDataEdit: new MasterDataEditService(db),
+    bom: new BomService(db),
     imports: new ImportsService(db),
     sequence: new SequenceService(db),
     planning,
@@ -78,5 +83,6 @@ export function createServices(db: Database, options: ServiceOptions) {
     overview: new OverviewService(db, { lineRisk, loops, dock, outbox }),
     stock: new StockService(db),
     builds: new BuildsService(db),
+    auditTrail: new AuditTrailService(db),
   };
 }

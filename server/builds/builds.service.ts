@@ -302,6 +302,11 @@ export class BuildsService {
           qty: roundQty(line.qtyPer * entry.qty),
           source: part?.source ?? 'buy',
           hazardous: Boolean(part?.hazardous),
+          unNumber: part?.unNumber ?? null,
+          hazardClass: part?.hazardClass ?? null,
+          sdsUrl: part?.sdsUrl ?? null,
+          unitWeightKg: part?.unitWeightKg ?? null,
+          heavyLift: Boolean(part?.heavyLift),
         });
         groups.set(pointOfUse, group);
       }

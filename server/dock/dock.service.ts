@@ -160,6 +160,11 @@ export class DockService {
             ...(card !== undefined && { cardNumber: card }),
             needDate: line.needDate,
             hazardous: part?.hazardous ?? false,
+            unNumber: part?.unNumber ?? null,
+            hazardClass: part?.hazardClass ?? null,
+            sdsUrl: part?.sdsUrl ?? null,
+            unitWeightKg: part?.unitWeightKg ?? null,
+            heavyLift: part?.heavyLift ?? false,
           };
         });
       const openLines = ownLines.filter((line) => line.open);

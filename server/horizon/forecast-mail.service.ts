@@ -1,3 +1,4 @@
+import { UNIT_WORDS } from '../../shared/schemas/master-data';
 import type { ForecastMailRequest, ForecastMailResponse } from '../../shared/schemas/horizon';
 import { recordAudit } from '../audit/audit.service';
 import { NotFoundError } from '../errors';
@@ -22,7 +23,9 @@ export class ForecastMailService {
     const from = demand.days[0] ?? request.from ?? '';
     const until = demand.days.at(-1) ?? request.to ?? '';
     const subject = `Demand forecast ${from} to ${until} for ${supplier.name}`;
-    const lines = demand.rows.map((row) => `  ${row.partNumber.padEnd(16)} ${String(row.total).padStart(10)}`);
+    const lines = demand.rows.map(
+      (row) => `  ${row.partNumber.padEnd(16)} ${String(row.total).padStart(10)} ${UNIT_WORDS[row.uom] ?? row.uom}`,
+    );
     const text = [
       `Hello ${supplier.name},`,
       '',

@@ -24,14 +24,18 @@ const IMPORT_ROLES: Record<ImportKind, readonly Role[]> = {
   bom: MASTER_DATA_ROLES,
   schedule: SEQUENCE_ROLES,
   'on-hand': MASTER_DATA_ROLES,
+  'open-orders': MASTER_DATA_ROLES,
 };
 
 const NOTES: Record<ImportKind, string> = {
   suppliers: 'upsert by code',
-  parts: 'upsert by part_number; optional extra column hazardous (true/false, yes/no, 1/0)',
+  parts:
+    'upsert by part_number; optional extra columns hazardous and heavy_lift (true/false, yes/no, 1/0), un_number, hazard_class, sds_url, unit_weight_kg',
   bom: 'replaces every line of each parent named in the file; other parents keep their lines',
   schedule: 'upsert by serial; dates must be working days',
   'on-hand': 'sets the on-hand count of existing parts',
+  'open-orders':
+    'orders already open with suppliers: one confirmed release per supplier and reference, lines matched by part and due_date; they count as scheduled receipts and can be received at the dock',
 };
 
 /** CSV import routes and their templates. */

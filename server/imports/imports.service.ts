@@ -18,6 +18,8 @@ import { checkBomRows } from './bom-rows';
 import { readCsvTable, type CsvTable } from './csv';
 import type { RowProblems } from './import-rows';
 import { checkOnHandRows } from './on-hand-rows';
+import { checkOpenOrderRows } from './open-order-rows';
+import { receivedOnOpenOrders, upsertOpenOrders } from '../releases/open-orders.writer';
 import { checkPartRows } from './part-rows';
 import { checkScheduleRows } from './schedule-rows';
 import { checkSupplierRows } from './supplier-rows';
@@ -95,6 +97,23 @@ const IMPORTERS: Record<ImportKind, Importer> = {
       'On-hand import',
     );
     return counts.length;
+  },
+  'open-orders': async (manager, table, today) => {
+    const parts = await manager.find(PartEntity, { select: { partNumber: true, source: true, supplierCode: true } });
+    const suppliers = await manager.find(SupplierEntity, { select: { code: true } });
+    const { lines, problems } = checkOpenOrderRows(table, {
+      suppliers: new Set(suppliers.map((supplier) => supplier.code)),
+      parts: new Map(
+        parts.map((part) => [
+          part.partNumber,
+          { source: part.source as Part['source'], supplierCode: part.supplierCode },
+        ]),
+      ),
+      received: await receivedOnOpenOrders(manager),
+    });
+    rejectOnProblems(problems);
+    await upsertOpenOrders(manager, lines, today);
+    return lines.length;
   },
 };
 

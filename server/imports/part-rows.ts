@@ -63,6 +63,23 @@ export function checkPartRows(
         DEFAULTS.point_of_use,
       ),
       hazardous: cellOrKept<boolean>(row, 'hazardous', cells.hazardous, kept?.hazardous, DEFAULTS.hazardous),
+      unNumber: cellOrKept<string | null>(row, 'un_number', cells.un_number, kept?.unNumber, DEFAULTS.un_number),
+      hazardClass: cellOrKept<string | null>(
+        row,
+        'hazard_class',
+        cells.hazard_class,
+        kept?.hazardClass,
+        DEFAULTS.hazard_class,
+      ),
+      sdsUrl: cellOrKept<string | null>(row, 'sds_url', cells.sds_url, kept?.sdsUrl, DEFAULTS.sds_url),
+      unitWeightKg: cellOrKept<number | null>(
+        row,
+        'unit_weight_kg',
+        cells.unit_weight_kg,
+        kept?.unitWeightKg,
+        DEFAULTS.unit_weight_kg,
+      ),
+      heavyLift: cellOrKept<boolean>(row, 'heavy_lift', cells.heavy_lift, kept?.heavyLift, DEFAULTS.heavy_lift),
     };
     const checked = partSchema.safeParse(record);
     if (checked.success) parts.push(checked.data);

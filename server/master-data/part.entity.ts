@@ -45,6 +45,25 @@ export class PartEntity {
   @Column({ type: 'boolean', default: false })
   hazardous: boolean;
 
+  /** UN number of a dangerous good (four digits, e.g. 2794), null when it has none. */
+  @Column({ name: 'un_number', type: 'varchar', length: 6, nullable: true })
+  unNumber: string | null;
+
+  /** Dangerous-goods hazard class or division (e.g. 8, 2.1). */
+  @Column({ name: 'hazard_class', type: 'varchar', length: 10, nullable: true })
+  hazardClass: string | null;
+
+  /** Link to the part's safety data sheet. */
+  @Column({ name: 'sds_url', type: 'varchar', length: 500, nullable: true })
+  sdsUrl: string | null;
+
+  @Column({ name: 'unit_weight_kg', type: 'double precision', nullable: true })
+  unitWeightKg: number | null;
+
+  /** One piece is too heavy to lift by hand alone: use the lifting aid the plant prescribes. */
+  @Column({ name: 'heavy_lift', type: 'boolean', default: false })
+  heavyLift: boolean;
+
   /** When stock of this part was last counted (a count or an on-hand import); null when never. */
   @Column({ name: 'last_counted_at', type: 'varchar', length: 30, nullable: true })
   lastCountedAt: string | null;

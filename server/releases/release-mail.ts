@@ -1,3 +1,4 @@
+import { safetyNotes, SAFETY_DEFERRAL } from '../../shared/domain/part-safety';
 import { UNIT_WORDS } from '../../shared/schemas/master-data';
 import type { OutgoingMail } from '../outbox/outbox.service';
 
@@ -14,6 +15,10 @@ export interface ReleaseMailLine {
   hazardous: boolean;
   /** Needed sooner than the supplier's lead time: said on the line, in words. */
   expedite: boolean;
+  unNumber?: string | null;
+  hazardClass?: string | null;
+  unitWeightKg?: number | null;
+  heavyLift?: boolean;
 }
 
 export interface ReleaseMailContent {
@@ -42,6 +47,29 @@ function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (char) => `&#${char.charCodeAt(0)};`);
 }
 
+/**
+ * The handling notes of each part, said once: on the first line that names the part (a part due on
+ * several days has several lines).
+ */
+function notesByLine(lines: ReleaseMailLine[]): Map<number, string[]> {
+  const notes = new Map(safetyNotes(lines).map((note) => [note.partNumber, note]));
+  const byLine = new Map<number, string[]>();
+  lines.forEach((line, index) => {
+    const note = notes.get(line.partNumber);
+    if (!note) return;
+    notes.delete(line.partNumber);
+    const said: string[] = [];
+    if (note.hazard)
+      said.push(note.hazard === 'hazardous material' ? HAZARDOUS_NOTE : `${HAZARDOUS_NOTE} (${note.hazard})`);
+    if (note.lift)
+      said.push(
+        `Heavy (${note.lift.replace(/^heavy:? ?/, '') || 'over a one-person lift'}): pack for lifting equipment.`,
+      );
+    byLine.set(index, said);
+  });
+  return byLine;
+}
+
 function textTable(lines: ReleaseMailLine[]): string[] {
   const rows = lines.map((line) => [
     line.partNumber,
@@ -58,22 +86,27 @@ function textTable(lines: ReleaseMailLine[]): string[] {
       .join('  ')
       .trimEnd();
   const out = [format(header), widths.map((width) => '-'.repeat(width)).join('  ')];
-  lines.forEach((line, index) => {
+  const notes = notesByLine(lines);
+  lines.forEach((_line, index) => {
     out.push(format(rows[index]));
-    if (line.expedite) out.push(`  ! ${EXPEDITE_NOTE}`);
-    if (line.hazardous) out.push(`  ! ${HAZARDOUS_NOTE}`);
+    if (lines[index]!.expedite) out.push(`  ! ${EXPEDITE_NOTE}`);
+    for (const note of notes.get(index) ?? []) out.push(`  ! ${note}`);
   });
+  if (notes.size > 0) out.push('', SAFETY_DEFERRAL);
   return out;
 }
 
 function htmlTable(lines: ReleaseMailLine[]): string {
   const cell = 'padding:4px 10px;border-bottom:1px solid #e4ddd3;text-align:left';
+  const notes = notesByLine(lines);
   const rows = lines
-    .map((line) => {
+    .map((line, index) => {
       const expedite = line.expedite ? `<br><strong style="color:#8a3a00">${escapeHtml(EXPEDITE_NOTE)}</strong>` : '';
       const hazard =
         expedite +
-        (line.hazardous ? `<br><strong style="color:#a3300b">&#9888; ${escapeHtml(HAZARDOUS_NOTE)}</strong>` : '');
+        (notes.get(index) ?? [])
+          .map((note) => `<br><strong style="color:#a3300b">&#9888; ${escapeHtml(note)}</strong>`)
+          .join('');
       return (
         `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
         `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitOf(line.uom))}</td>` +

@@ -1,8 +1,10 @@
 import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
 
-/** One release per supplier per day; states draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
+/**
+ * One release per supplier per day (reference empty), plus one per supplier and order reference for
+ * orders already open when the plant started with Cardloop; states draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
 @Entity('release')
-@Index(['supplierCode', 'releaseDate'], { unique: true })
+@Index('IDX_release_supplier_date_reference', ['supplierCode', 'releaseDate', 'reference'], { unique: true })
 export class ReleaseEntity {
   @PrimaryGeneratedColumn()
   id: number;
@@ -16,6 +18,10 @@ export class ReleaseEntity {
 
   @Column({ name: 'release_date', type: 'varchar', length: 10 })
   releaseDate: string;
+
+  /** The order reference of an open order loaded at go-live; empty for the daily release. */
+  @Column({ type: 'varchar', length: 40, default: '' })
+  reference: string;
 
   @Column({ type: 'varchar', length: 12, default: 'draft' })
   status: string;

@@ -122,7 +122,10 @@ export class ReleasesService {
     const planned = await this.duePlannedLines(date);
     const created = await this.db.write(async (manager) => {
       const calendar = toWorkingCalendar(await readCalendar(manager));
-      const existing = await manager.find(ReleaseEntity, { where: { releaseDate: date }, order: { number: 'ASC' } });
+      const existing = await manager.find(ReleaseEntity, {
+        where: { releaseDate: date, reference: '' },
+        order: { number: 'ASC' },
+      });
       const releasedSuppliers = new Set(existing.map((release) => release.supplierCode));
       const lines = [...kanbanLines(await readEmptyCardSignals(manager), date, calendar), ...planned].filter(
         (line) => !releasedSuppliers.has(line.supplierCode),
@@ -317,6 +320,10 @@ export class ReleasesService {
             needDate: line.needDate,
             hazardous: part?.hazardous ?? false,
             expedite: Boolean(line.expedite),
+            unNumber: part?.unNumber ?? null,
+            hazardClass: part?.hazardClass ?? null,
+            unitWeightKg: part?.unitWeightKg ?? null,
+            heavyLift: part?.heavyLift ?? false,
           };
         }),
       }),

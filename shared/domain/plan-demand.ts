@@ -7,6 +7,8 @@ import type { IsoDate, PlanResult, PlanningPart } from './types';
 export interface DemandRow {
   partNumber: string;
   supplierCode: string | null;
+  /** Unit of measure of every quantity in the row (UN/ECE Recommendation 20 code). */
+  uom: string;
   total: number;
   /** Every horizon day as a key, zero where nothing is needed. */
   byDay: Record<IsoDate, number>;
@@ -36,7 +38,7 @@ function compareText(a: string | null, b: string | null): number {
 /** Gross requirements of bought parts per day from a computed plan, ordered by supplier then part. */
 export function grossDemandByDay(
   result: PlanResult,
-  parts: readonly PlanningPart[],
+  parts: readonly (PlanningPart & { uom?: string })[],
   options: DemandOptions = {},
 ): DemandReport {
   const rows: DemandRow[] = [];
@@ -54,7 +56,7 @@ export function grossDemandByDay(
     });
     total = roundQty(total);
     if (total === 0 && !options.includeZero) continue;
-    rows.push({ partNumber: part.partNumber, supplierCode, total, byDay });
+    rows.push({ partNumber: part.partNumber, supplierCode, uom: part.uom ?? 'H87', total, byDay });
   }
   rows.sort((a, b) => compareText(a.supplierCode, b.supplierCode) || compareText(a.partNumber, b.partNumber));
   return { days: result.days, rows };

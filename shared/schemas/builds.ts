@@ -45,6 +45,11 @@ export const kitLineSchema = z.object({
   qty: z.number(),
   source: z.string(),
   hazardous: z.boolean(),
+  unNumber: z.string().nullable().optional(),
+  hazardClass: z.string().nullable().optional(),
+  sdsUrl: z.string().nullable().optional(),
+  unitWeightKg: z.number().nullable().optional(),
+  heavyLift: z.boolean().optional(),
 });
 
 export const kitSchema = z.object({

@@ -28,6 +28,11 @@ export const dockLineSchema = z.object({
   cardNumber: z.string().optional().meta({ description: 'The kanban card that asked for this line.' }),
   needDate: z.string(),
   hazardous: z.boolean(),
+  unNumber: z.string().nullable().optional(),
+  hazardClass: z.string().nullable().optional(),
+  sdsUrl: z.string().nullable().optional(),
+  unitWeightKg: z.number().nullable().optional(),
+  heavyLift: z.boolean().optional(),
 });
 export type DockLine = z.infer<typeof dockLineSchema>;
 

@@ -52,6 +52,8 @@ export const demandResponseSchema = z.object({
     z.object({
       partNumber: z.string(),
       supplierCode: z.string().nullable(),
+      /** Unit of measure of the row's quantities; totals across parts are per unit. */
+      uom: z.string(),
       total: z.number(),
       byDay: z.record(z.string(), z.number()),
     }),

@@ -8,7 +8,7 @@ import {
   supplierSchema,
 } from './master-data';
 
-export const IMPORT_KINDS = ['suppliers', 'parts', 'bom', 'schedule', 'on-hand'] as const;
+export const IMPORT_KINDS = ['suppliers', 'parts', 'bom', 'schedule', 'on-hand', 'open-orders'] as const;
 export type ImportKind = (typeof IMPORT_KINDS)[number];
 export const importKindSchema = z.enum(IMPORT_KINDS);
 
@@ -16,7 +16,7 @@ export const importKindSchema = z.enum(IMPORT_KINDS);
 export const IMPORT_MAX_BYTES = 5 * 1024 * 1024;
 
 /**
- * Header of each CSV kind: `columns` in published order (parts adds the optional `hazardous`),
+ * Header of each CSV kind: `columns` in published order (parts adds the optional `hazardous` and safety data),
  * `required` the columns that must be in the header and filled on every row. Other columns may be
  * left out of the header: existing records then keep their value and new ones take the default.
  */
@@ -52,6 +52,11 @@ export const IMPORT_LAYOUTS = {
       'safety_stock',
       'point_of_use',
       'hazardous',
+      'un_number',
+      'hazard_class',
+      'sds_url',
+      'unit_weight_kg',
+      'heavy_lift',
     ],
     required: ['part_number', 'description', 'source'],
   },
@@ -66,6 +71,10 @@ export const IMPORT_LAYOUTS = {
   'on-hand': {
     columns: ['part_number', 'on_hand'],
     required: ['part_number', 'on_hand'],
+  },
+  'open-orders': {
+    columns: ['supplier_code', 'part_number', 'qty', 'due_date', 'reference'],
+    required: ['supplier_code', 'part_number', 'qty', 'due_date', 'reference'],
   },
 } as const satisfies Record<ImportKind, { columns: readonly string[]; required: readonly string[] }>;
 
@@ -97,10 +106,16 @@ export const IMPORT_DEFAULTS = {
     safety_stock: 0,
     point_of_use: null,
     hazardous: false,
+    un_number: null,
+    hazard_class: null,
+    sds_url: null,
+    unit_weight_kg: null,
+    heavy_lift: false,
   },
   bom: { scrap_pct: 0, effective_from: null, effective_to: null },
   schedule: { qty: 1 },
   'on-hand': {},
+  'open-orders': {},
 } as const;
 
 /** One problem of an import: `row` is the file's line number (header = 1), `column` its CSV header. */
@@ -256,6 +271,11 @@ export const partRowSchema = z.object({
   safety_stock: optionalCell(numberIn(part.safetyStock)),
   point_of_use: optionalCell(text(part.pointOfUse)),
   hazardous: optionalCell(flag),
+  un_number: optionalCell(text(part.unNumber.unwrap())),
+  hazard_class: optionalCell(text(part.hazardClass.unwrap())),
+  sds_url: optionalCell(text(part.sdsUrl.unwrap())),
+  unit_weight_kg: optionalCell(numberIn(part.unitWeightKg.unwrap().unwrap())),
+  heavy_lift: optionalCell(flag),
 });
 
 export const bomRowSchema = z.object({
@@ -278,6 +298,25 @@ export const scheduleRowSchema = z.object({
 export const onHandRowSchema = z.object({
   part_number: requiredCell(text(part.partNumber)),
   on_hand: requiredCell(numberIn(part.onHand)),
+});
+
+/** An order reference as suppliers write it on paperwork: a purchase order number and the like. */
+export const orderReferenceSchema = z
+  .string()
+  .trim()
+  .min(1)
+  .max(40)
+  .regex(/^[A-Za-z0-9._/-]+$/, 'letters, digits, . _ / - only');
+
+/** Most an open order line may ask for; more is a typo. */
+export const MAX_OPEN_ORDER_QTY = 1_000_000_000;
+
+export const openOrderRowSchema = z.object({
+  supplier_code: requiredCell(text(supplier.code)),
+  part_number: requiredCell(text(part.partNumber)),
+  qty: requiredCell(numberIn(z.number().positive().max(MAX_OPEN_ORDER_QTY))),
+  due_date: requiredCell(isoDate),
+  reference: requiredCell(text(orderReferenceSchema)),
 });
 
 /** CSV column of a camelCase domain field (`leadTimeDays` → `lead_time_days`). */

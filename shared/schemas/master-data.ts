@@ -133,6 +133,27 @@ export const partSchema = z
     safetyStock: z.number().min(0),
     pointOfUse: z.string().trim().max(40).nullable(),
     hazardous: z.boolean(),
+    // Safety data: optional, so files and forms written before it existed still load.
+    unNumber: z
+      .string()
+      .trim()
+      .regex(/^(UN)?\d{4}$/i, 'four digits, e.g. 2794')
+      .transform((value) => value.replace(/^UN/i, ''))
+      .nullable()
+      .optional(),
+    hazardClass: z
+      .string()
+      .trim()
+      .regex(/^[1-9](\.[1-6])?[A-Z]?$/, 'a class or division such as 8 or 2.1')
+      .nullable()
+      .optional(),
+    sdsUrl: z
+      .url({ protocol: /^https?$/, message: 'a web link (http or https)' })
+      .max(500)
+      .nullable()
+      .optional(),
+    unitWeightKg: z.number().positive().max(100_000).nullable().optional(),
+    heavyLift: z.boolean().optional(),
   })
   .refine((part) => part.source !== 'buy' || !!part.supplierCode, {
     path: ['supplierCode'],

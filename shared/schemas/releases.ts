@@ -17,8 +17,11 @@ export const RELEASE_STATUSES = [
 export const releaseStatusSchema = z.enum(RELEASE_STATUSES);
 export type ReleaseStatus = z.infer<typeof releaseStatusSchema>;
 
-/** `kanban`: an empty card asked for the line; `plan`: a planned release of a scheduled part did. */
-export const RELEASE_LINE_ORIGINS = ['kanban', 'plan'] as const;
+/**
+ * `kanban`: an empty card asked for the line; `plan`: a planned release of a scheduled part did;
+ * `open_order`: the order was already open with the supplier when the plant started with Cardloop.
+ */
+export const RELEASE_LINE_ORIGINS = ['kanban', 'plan', 'open_order'] as const;
 export const releaseLineOriginSchema = z.enum(RELEASE_LINE_ORIGINS);
 export type ReleaseLineOrigin = z.infer<typeof releaseLineOriginSchema>;
 

@@ -13,6 +13,7 @@ export const IMPORT_KIND_ROLES: Record<ImportKind, readonly Role[]> = {
   bom: ['admin', 'buyer'],
   schedule: ['admin', 'planner'],
   'on-hand': ['admin', 'buyer'],
+  'open-orders': ['admin', 'buyer'],
 };
 
 /** Sends a CSV file to `POST /api/imports/<kind>`; a file with any bad row rejects with a 422 ApiError. */

@@ -1,7 +1,7 @@
 import { isoWeekKey } from '@shared/domain/calendar';
 import { addCalendarDays } from '@shared/domain/date';
 import { weeklyTotals } from '@shared/domain/plan-demand';
-import { roundQty } from '@shared/domain/quantity';
+import { totalsByUnit, type UnitTotal } from '@shared/domain/unit-totals';
 import type { DemandResponse, PlanResponse } from '@shared/schemas/horizon';
 import { formatDayMonth, formatDayRange, formatWeekday } from '@/format';
 
@@ -25,6 +25,7 @@ export interface DemandColumn {
 export interface DemandTableRow {
   partNumber: string;
   supplierCode: string | null;
+  uom: string;
   total: number;
   byBucket: Record<string, number>;
 }
@@ -33,8 +34,9 @@ export interface DemandTableRow {
 export interface DemandTable {
   columns: DemandColumn[];
   rows: DemandTableRow[];
-  totals: Record<string, number>;
-  grandTotal: number;
+  /** Per column, one sum per unit of measure: quantities in different units are never added. */
+  totals: Record<string, UnitTotal[]>;
+  grandTotal: UnitTotal[];
 }
 
 /** The columns for a list of working days, day by day or grouped into ISO weeks in date order. */
@@ -61,14 +63,23 @@ export function demandTable(demand: DemandResponse, bucket: BucketSize): DemandT
   const rows = demand.rows.map((row) => ({
     partNumber: row.partNumber,
     supplierCode: row.supplierCode,
+    uom: row.uom,
     total: row.total,
     byBucket: bucket === 'day' ? row.byDay : weeklyTotals(row.byDay),
   }));
-  const totals: Record<string, number> = {};
+  const totals: Record<string, UnitTotal[]> = {};
   for (const column of columns) {
-    totals[column.key] = roundQty(rows.reduce((sum, row) => sum + (row.byBucket[column.key] ?? 0), 0));
+    totals[column.key] = totalsByUnit(
+      rows,
+      (row) => row.byBucket[column.key] ?? 0,
+      (row) => row.uom,
+    );
   }
-  const grandTotal = roundQty(rows.reduce((sum, row) => sum + row.total, 0));
+  const grandTotal = totalsByUnit(
+    rows,
+    (row) => row.total,
+    (row) => row.uom,
+  );
   return { columns, rows, totals, grandTotal };
 }
 
@@ -134,16 +145,4 @@ export function sortDemandRows(rows: readonly DemandTableRow[], sort: DemandSort
     if (right === null) return -1;
     return sign * left.localeCompare(right);
   });
-}
-
-/** Column sums of rows (the footer totals of everything the filters let through, not one page). */
-export function demandTotals(rows: readonly DemandTableRow[]): { byBucket: Record<string, number>; total: number } {
-  const byBucket: Record<string, number> = {};
-  let total = 0;
-  for (const row of rows) {
-    total += row.total;
-    for (const key in row.byBucket) byBucket[key] = (byBucket[key] ?? 0) + row.byBucket[key]!;
-  }
-  for (const key in byBucket) byBucket[key] = roundQty(byBucket[key]!);
-  return { byBucket, total: roundQty(total) };
 }

@@ -1,4 +1,5 @@
 import { roundQty } from '@shared/domain/quantity';
+import type { UnitTotal } from '@shared/domain/unit-totals';
 import { UNIT_WORDS } from '@shared/schemas/master-data';
 
 /*
@@ -38,4 +39,10 @@ export function formatTotal(value: number): string {
 /** A quantity with its unit in words: `12 pcs`, `1 pc`, `4 sets`, `1,250.5 kg`. */
 export function formatQuantity(qty: number, uom: string): string {
   return `${formatQty(qty)} ${unitWord(uom, qty)}`;
+}
+
+/** Sums in several units, one per unit and never added together: `1,250 pcs · 56.5 kg`; `0` when none. */
+export function formatUnitTotals(totals: readonly UnitTotal[]): string {
+  if (totals.length === 0) return '0';
+  return totals.map((total) => `${formatTotal(total.qty)} ${unitWord(total.uom, total.qty)}`).join(' · ');
 }

@@ -1,13 +1,16 @@
 import { markRaw, type Component } from 'vue';
 import {
   Aim,
+  Box,
   Calendar,
+  Document,
   Finished,
   Goods,
   House,
   Medal,
   Message,
   Refresh,
+  Shop,
   Sort,
   Tickets,
   TrendCharts,
@@ -17,11 +20,11 @@ import {
   Warning,
 } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
-import type { RouteName } from './route-map';
-import { LINE_END_ROLES, STOCK_ROLES } from './routes';
+import type { PlainRouteName } from './route-map';
+import { LINE_END_ROLES, MASTER_DATA_READ_ROLES, STOCK_ROLES } from './routes';
 
 export interface NavigationEntry {
-  routeName: RouteName;
+  routeName: PlainRouteName;
   label: string;
   icon: Component;
   roles: readonly Role[];
@@ -113,6 +116,20 @@ export const navigation: readonly NavigationEntry[] = [
     summary: 'Deliveries on their way in: move them across the dock, count them in, attach the packing slip.',
   },
   {
+    routeName: 'parts',
+    label: 'Parts',
+    icon: markRaw(Box),
+    roles: MASTER_DATA_READ_ROLES,
+    summary: 'Each part’s master data, stock, loop, supplier and where it is used; BOMs with engineering changes.',
+  },
+  {
+    routeName: 'suppliers',
+    label: 'Suppliers',
+    icon: markRaw(Shop),
+    roles: MASTER_DATA_READ_ROLES,
+    summary: 'Who the plant buys from: order e-mail, lead time and delivery cycle.',
+  },
+  {
     routeName: 'imports',
     label: 'Imports',
     icon: markRaw(Upload),
@@ -126,6 +143,13 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Calendar),
     roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'],
     summary: 'Working weekdays and plant holidays, which every lead-time offset counts in.',
+  },
+  {
+    routeName: 'audit',
+    label: 'Audit trail',
+    icon: markRaw(Document),
+    roles: ['admin', 'planner'],
+    summary: 'Who changed what and when, from what to what; filter and export as CSV.',
   },
   {
     routeName: 'admin-users',

@@ -29,6 +29,12 @@ export interface RouteNamedMap {
   imports: RouteRecordInfo<'imports', '/imports', NoParams, NoParams>;
   calendar: RouteRecordInfo<'calendar', '/calendar', NoParams, NoParams>;
   'admin-outbox': RouteRecordInfo<'admin-outbox', '/admin/outbox', NoParams, NoParams>;
+  parts: RouteRecordInfo<'parts', '/parts', NoParams, NoParams>;
+  part: RouteRecordInfo<'part', '/parts/:partNumber', { partNumber: string }, { partNumber: string }>;
+  suppliers: RouteRecordInfo<'suppliers', '/suppliers', NoParams, NoParams>;
+  supplier: RouteRecordInfo<'supplier', '/suppliers/:code', { code: string }, { code: string }>;
+  bom: RouteRecordInfo<'bom', '/bom/:parent', { parent: string }, { parent: string }>;
+  audit: RouteRecordInfo<'audit', '/admin/audit', NoParams, NoParams>;
   forbidden: RouteRecordInfo<'forbidden', '/forbidden', NoParams, NoParams>;
   'not-found': RouteRecordInfo<
     'not-found',
@@ -39,6 +45,11 @@ export interface RouteNamedMap {
 }
 
 export type RouteName = keyof RouteNamedMap;
+
+/** Routes that take no params: the only ones a menu can link to by name alone. */
+export type PlainRouteName = {
+  [Name in RouteName]: keyof RouteNamedMap[Name]['paramsRaw'] extends never ? Name : never;
+}[RouteName];
 
 declare module 'vue-router' {
   interface TypesConfig {

@@ -6,6 +6,9 @@ export const LINE_END_ROLES: readonly Role[] = ['admin', 'planner', 'line'];
 /** Stock and kits are read by everyone signed in except suppliers. */
 export const STOCK_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
 
+/** Parts, suppliers and BOMs are read by everyone signed in except suppliers; buyers and admins change them. */
+export const MASTER_DATA_READ_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
+
 export const routes: RouteRecordRaw[] = [
   {
     path: '/login',
@@ -132,6 +135,42 @@ export const routes: RouteRecordRaw[] = [
     name: 'admin-outbox',
     component: () => import('@/views/OutboxView.vue'),
     meta: { title: 'Outbox', roles: ['admin'] },
+  },
+  {
+    path: '/parts',
+    name: 'parts',
+    component: () => import('@/views/PartsView.vue'),
+    meta: { title: 'Parts', roles: MASTER_DATA_READ_ROLES },
+  },
+  {
+    path: '/parts/:partNumber',
+    name: 'part',
+    component: () => import('@/views/PartView.vue'),
+    meta: { title: 'Part', roles: MASTER_DATA_READ_ROLES },
+  },
+  {
+    path: '/suppliers',
+    name: 'suppliers',
+    component: () => import('@/views/SuppliersView.vue'),
+    meta: { title: 'Suppliers', roles: MASTER_DATA_READ_ROLES },
+  },
+  {
+    path: '/suppliers/:code',
+    name: 'supplier',
+    component: () => import('@/views/SupplierView.vue'),
+    meta: { title: 'Supplier', roles: MASTER_DATA_READ_ROLES },
+  },
+  {
+    path: '/bom/:parent',
+    name: 'bom',
+    component: () => import('@/views/BomView.vue'),
+    meta: { title: 'BOM', roles: MASTER_DATA_READ_ROLES },
+  },
+  {
+    path: '/admin/audit',
+    name: 'audit',
+    component: () => import('@/views/AuditView.vue'),
+    meta: { title: 'Audit trail', roles: ['admin', 'planner'] },
   },
   {
     path: '/forbidden',

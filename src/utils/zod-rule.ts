@@ -1,5 +1,6 @@
 import type { FormItemRule } from 'element-plus';
 import type { z } from 'zod';
+import { describeCellIssue } from '@shared/schemas/imports';
 
 /**
  * An Element Plus form rule that checks a field with the same zod schema the server applies,
@@ -13,6 +14,22 @@ export function zodRule(schema: z.ZodType, trigger: 'blur' | 'change' = 'blur'):
       const result = schema.safeParse(value);
       if (result.success) return callback();
       callback(new Error(sentenceCase(result.error.issues[0]?.message ?? 'Invalid value')));
+    },
+  };
+}
+
+/**
+ * Like `zodRule`, but says what is wrong in the words the CSV import uses for the same cell, so a
+ * form and a file are refused alike.
+ */
+export function importWordsRule(schema: z.ZodType, trigger: 'blur' | 'change' = 'blur'): FormItemRule {
+  return {
+    trigger,
+    validator: (_rule, value: unknown, callback: (error?: Error) => void) => {
+      if (value === '' || value === null || value === undefined) return callback();
+      const result = schema.safeParse(value);
+      if (result.success) return callback();
+      callback(new Error(sentenceCase(describeCellIssue(result.error.issues[0], value))));
     },
   };
 }

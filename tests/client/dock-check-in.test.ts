@@ -266,6 +266,26 @@ describe('DockCheckInDialog', () => {
     expect(lineElement('BRUSH-20').textContent).toContain('A count of 0 needs a discrepancy');
   });
 
+  it('says the caution once per part, with its UN number, class, weight and data sheet', async () => {
+    vi.stubGlobal('fetch', vi.fn());
+    const battery = {
+      hazardous: true,
+      unNumber: '2800',
+      hazardClass: '8',
+      unitWeightKg: 31,
+      heavyLift: true,
+      sdsUrl: 'https://sds.example.com/bat-12.pdf',
+    };
+
+    await openDialog(itemWith([line(1, 'BAT-12', 4, battery), line(2, 'BAT-12', 8, battery), line(3, 'BRUSH-20', 40)]));
+
+    const notes = [...document.querySelectorAll('[data-test="safety-note"]')].map((note) => note.textContent?.trim());
+    expect(notes).toEqual(['BAT-12: dangerous goods UN 2800, class 8; heavy: 31 kg each safety data sheet']);
+    const caution = document.querySelector('[data-test="hazard-caution"]')?.textContent ?? '';
+    expect(caution).toContain('use the lifting aid the plant prescribes');
+    expect(caution).toContain('the plant’s own safety practice');
+  });
+
   it('shows the handling caution when a line carries a hazardous part, and puts a scanned card’s line first', async () => {
     vi.stubGlobal('fetch', vi.fn());
 

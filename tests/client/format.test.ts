@@ -23,6 +23,7 @@ import {
   formatRate,
   formatTime,
   formatTotal,
+  formatUnitTotals,
   formatWeekday,
   isoDateOf,
   localToday,
@@ -165,6 +166,17 @@ describe('quantities on screen', () => {
     expect(formatQtyCell(0)).toBe('');
     expect(formatQtyCell(12000)).toBe('12,000');
     expect(formatTotal(1234.56)).toBe('1,234.6');
+  });
+
+  it('writes sums in several units side by side, never as one number', () => {
+    expect(
+      formatUnitTotals([
+        { uom: 'H87', qty: 1250 },
+        { uom: 'KGM', qty: 56.54 },
+        { uom: 'PR', qty: 1 },
+      ]),
+    ).toBe('1,250 pcs · 56.5 kg · 1 pair');
+    expect(formatUnitTotals([])).toBe('0');
   });
 });
 

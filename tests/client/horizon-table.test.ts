@@ -16,12 +16,14 @@ const demand: DemandResponse = {
     {
       partNumber: 'TNK-R60',
       supplierCode: 'SRM',
+      uom: 'H87',
       total: 44,
       byDay: { '2009-12-28': 8, '2009-12-29': 7, '2009-12-30': 0, '2009-12-31': 9, '2010-01-04': 12, '2010-01-05': 8 },
     },
     {
       partNumber: 'WIR-25-BK',
       supplierCode: 'BHC',
+      uom: 'MTR',
       total: 151.75,
       byDay: {
         '2009-12-28': 37.5,
@@ -91,25 +93,40 @@ describe('HorizonTable', () => {
     }
   });
 
-  it('conserves quantity: week cells add up to each row total and the footer to the day sums', async () => {
+  it('conserves quantity per unit: week cells add up to each row total and the footer to the day sums of each unit', async () => {
     const { table, wrapper } = await mountTable('week');
-    const dayTotal = (week: string[]) =>
-      demand.rows.reduce((sum, row) => sum + week.reduce((inner, day) => inner + row.byDay[day]!, 0), 0);
+    const dayTotal = (week: string[], uom: string) =>
+      demand.rows
+        .filter((row) => row.uom === uom)
+        .reduce((sum, row) => sum + week.reduce((inner, day) => inner + row.byDay[day]!, 0), 0);
 
     for (const row of table.rows) {
       const weekSum = Object.values(row.byBucket).reduce((sum, qty) => sum + qty, 0);
       expect(weekSum).toBeCloseTo(row.total, 9);
     }
-    expect(table.totals['2009-W53']).toBeCloseTo(dayTotal(days.slice(0, 4)), 9);
-    expect(table.totals['2010-W01']).toBeCloseTo(dayTotal(days.slice(4)), 9);
-    expect(table.grandTotal).toBeCloseTo(dayTotal(days), 9);
-    // The footer shows one decimal, so it may differ from the exact sum by half a tenth.
-    const footer = cellTexts(wrapper.get('.el-table__footer-wrapper tr').element);
-    const shown = (text: string) => Number(text.replace(/,/g, ''));
-    expect(footer[0]).toBe('Total');
-    expect(Math.abs(shown(footer[2]!) - dayTotal(days.slice(0, 4)))).toBeLessThanOrEqual(0.05 + 1e-9);
-    expect(Math.abs(shown(footer[3]!) - dayTotal(days.slice(4)))).toBeLessThanOrEqual(0.05 + 1e-9);
-    expect(Math.abs(shown(footer[4]!) - dayTotal(days))).toBeLessThanOrEqual(0.05 + 1e-9);
+    // Pieces and metres are summed apart, never into one number.
+    expect(table.totals['2009-W53']!.map((total) => total.uom)).toEqual(['H87', 'MTR']);
+    expect(table.totals['2009-W53']![0]!.qty).toBeCloseTo(dayTotal(days.slice(0, 4), 'H87'), 9);
+    expect(table.totals['2009-W53']![1]!.qty).toBeCloseTo(dayTotal(days.slice(0, 4), 'MTR'), 9);
+    expect(table.totals['2010-W01']![1]!.qty).toBeCloseTo(dayTotal(days.slice(4), 'MTR'), 9);
+    expect(table.grandTotal.map((total) => total.qty)).toEqual([dayTotal(days, 'H87'), dayTotal(days, 'MTR')]);
+    // The footer shows one decimal per unit, so it may differ from the exact sum by half a tenth.
+    const footer = wrapper.get('.el-table__footer-wrapper tr');
+    const lines = (cell: number) =>
+      [...footer.element.querySelectorAll('.cell')][cell]!.querySelectorAll('.horizon-table__unit-totals > span');
+    const shown = (text: string | null) => Number((text ?? '').replace(/,/g, '').split(' ')[0]);
+    expect(cellTexts(footer.element)[0]).toBe('Total');
+    for (const [cell, week] of [
+      [2, days.slice(0, 4)],
+      [3, days.slice(4)],
+      [4, days],
+    ] as const) {
+      const [pieces, metres] = [...lines(cell)].map((line) => line.textContent);
+      expect(pieces).toMatch(/ pcs$/);
+      expect(metres).toMatch(/ m$/);
+      expect(Math.abs(shown(pieces!) - dayTotal([...week], 'H87'))).toBeLessThanOrEqual(0.05 + 1e-9);
+      expect(Math.abs(shown(metres!) - dayTotal([...week], 'MTR'))).toBeLessThanOrEqual(0.05 + 1e-9);
+    }
   });
 
   it('leaves a day without demand blank rather than writing 0', async () => {

@@ -9,8 +9,20 @@ import { localToday } from '@/format';
 const demand: DemandResponse = {
   days: ['2026-12-01', '2026-12-02'],
   rows: [
-    { partNumber: 'BAT-06-225', supplierCode: 'FBS', total: 60, byDay: { '2026-12-01': 32, '2026-12-02': 28 } },
-    { partNumber: 'BAT-06-312', supplierCode: 'FBS', total: 96, byDay: { '2026-12-01': 48, '2026-12-02': 48 } },
+    {
+      partNumber: 'BAT-06-225',
+      supplierCode: 'FBS',
+      uom: 'H87',
+      total: 60,
+      byDay: { '2026-12-01': 32, '2026-12-02': 28 },
+    },
+    {
+      partNumber: 'BAT-06-312',
+      supplierCode: 'FBS',
+      uom: 'H87',
+      total: 96,
+      byDay: { '2026-12-01': 48, '2026-12-02': 48 },
+    },
   ],
 };
 
@@ -86,6 +98,30 @@ describe('HorizonView', () => {
     document.body.innerHTML = '';
     localStorage.clear();
     vi.unstubAllGlobals();
+  });
+
+  it('sums pieces and kilograms apart in the count line and charts one unit at a time', async () => {
+    stubApi({
+      '/api/demand': () =>
+        jsonResponse(200, {
+          ...demand,
+          rows: [
+            ...demand.rows,
+            { partNumber: 'STL-SHT-30', supplierCode: 'HSS', uom: 'KGM', total: 37.5, byDay: { '2026-12-01': 37.5 } },
+          ],
+        }),
+      '/api/suppliers': () => jsonResponse(200, []),
+    });
+
+    const { wrapper } = await openHorizon('/horizon');
+
+    expect(wrapper.text()).toContain('3 parts · 156 pcs · 37.5 kg in total');
+    const chart = wrapper.findComponent({ name: 'HorizonDemandChart' });
+    expect(chart.props('rows').map((row: { partNumber: string }) => row.partNumber)).toEqual([
+      'BAT-06-225',
+      'BAT-06-312',
+    ]);
+    expect(wrapper.get('[aria-label="Unit charted"]').text()).toContain('kg');
   });
 
   it('asks for the horizon and supplier written in the link', async () => {
@@ -170,6 +206,7 @@ describe('HorizonView', () => {
       rows: Array.from({ length: 250 }, (_, index) => ({
         partNumber: `P-${String(index + 1).padStart(3, '0')}`,
         supplierCode: 'FBS',
+        uom: 'H87',
         total: index + 1,
         byDay: { '2026-12-01': index + 1 },
       })),

@@ -95,10 +95,10 @@ describe('ImportsView', () => {
   });
 
   // Role rules from PRODUCT.md, "Published API": master data — admin, buyer; sequence — admin, planner.
-  it('offers a buyer the master-data and stock files but not the build sequence', async () => {
+  it('offers a buyer the master-data, stock and open-order files but not the build sequence', async () => {
     const wrapper = await openImports(demoUsers.buyer);
 
-    expect(kindLabels(wrapper)).toEqual(['Suppliers', 'Parts', 'Bills of materials', 'On-hand counts']);
+    expect(kindLabels(wrapper)).toEqual(['Suppliers', 'Parts', 'Bills of materials', 'On-hand counts', 'Open orders']);
   });
 
   it('offers a planner only the build sequence', async () => {

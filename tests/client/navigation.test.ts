@@ -23,8 +23,11 @@ describe('navigationFor', () => {
       'supplier-performance',
       'card-scan',
       'dock',
+      'parts',
+      'suppliers',
       'imports',
       'calendar',
+      'audit',
       'admin-users',
       'admin-outbox',
     ]);
@@ -46,10 +49,10 @@ describe('navigationFor', () => {
 
   // Role rules from PRODUCT.md, "Second round": the line reports units built; stock is read by
   // everyone but suppliers.
-  it('offers the line its end of the line, the sequence to read and stock', () => {
+  it('offers the line its end of the line, the sequence, stock and master data to read', () => {
     const names = navigationFor('line').map((entry) => entry.routeName);
 
-    expect(names).toEqual(['home', 'sequence', 'line-end', 'stock']);
+    expect(names).toEqual(['home', 'sequence', 'line-end', 'stock', 'parts', 'suppliers']);
   });
 
   it('offers the Line end only to the roles that may report units built', () => {
@@ -96,6 +99,8 @@ describe('AppShellNav', () => {
       'Supplier performance',
       'Scan cards',
       'Dock',
+      'Parts',
+      'Suppliers',
       'Imports',
       'Calendar',
     ]);
@@ -119,8 +124,11 @@ describe('AppShellNav', () => {
       'Supplier performance',
       'Scan cards',
       'Dock',
+      'Parts',
+      'Suppliers',
       'Imports',
       'Calendar',
+      'Audit trail',
       'Users',
       'Outbox',
     ]);

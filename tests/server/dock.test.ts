@@ -101,7 +101,15 @@ beforeAll(async () => {
   await context.dataSource.transaction((manager) =>
     savePartsWithStock(manager, [
       testPart('BRUSH-20', { description: 'Disc brush 20 in', replenishment: 'scheduled' }),
-      testPart('BATT-24V', { description: 'Traction battery 24 V', hazardous: true, replenishment: 'scheduled' }),
+      testPart('BATT-24V', {
+        description: 'Traction battery 24 V',
+        hazardous: true,
+        replenishment: 'scheduled',
+        unNumber: '2794',
+        hazardClass: '8',
+        unitWeightKg: 28,
+        heavyLift: true,
+      }),
       testPart('CASTER-75', { description: 'Caster 75 mm', uom: 'PR' }),
     ]),
   );
@@ -175,6 +183,11 @@ describe('GET /api/dock', () => {
         open: true,
         needDate: today,
         hazardous: true,
+        unNumber: '2794',
+        hazardClass: '8',
+        sdsUrl: null,
+        unitWeightKg: 28,
+        heavyLift: true,
       },
       {
         id: dueToday.lines[1].id,
@@ -188,6 +201,11 @@ describe('GET /api/dock', () => {
         cardNumber: card.cardNumber,
         needDate: addCalendarDays(today, 1),
         hazardous: false,
+        unNumber: null,
+        hazardClass: null,
+        sdsUrl: null,
+        unitWeightKg: null,
+        heavyLift: false,
       },
     ]);
     expect(items[1]).toMatchObject({

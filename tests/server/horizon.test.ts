@@ -154,6 +154,7 @@ describe('GET /api/demand', () => {
       {
         partNumber: 'D',
         supplierCode: 'SUP-B',
+        uom: 'H87',
         total: 6,
         byDay: { '2026-12-21': 2, '2026-12-22': 1, '2026-12-23': 0, '2026-12-24': 0, '2026-12-28': 3 },
       },

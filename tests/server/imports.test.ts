@@ -835,7 +835,7 @@ describe('GET /api/imports/templates/:kind', () => {
   });
   afterAll(() => context.close());
 
-  it.each(['suppliers', 'parts', 'bom', 'schedule', 'on-hand'] as const)(
+  it.each(['suppliers', 'parts', 'bom', 'schedule', 'on-hand', 'open-orders'] as const)(
     'serves the %s template as a CSV attachment with the published header',
     async (kind) => {
       const response = await request(context.app)

@@ -1,0 +1,33 @@
+/*
+ * An audit event's `changes` as one line a person reads: "field: from → to" for each changed
+ * field when the event holds before and after, the recorded facts otherwise.
+ */
+
+const MAX_VALUE_LENGTH = 120;
+
+function isRecord(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function shown(value: unknown): string {
+  if (value === undefined || value === null || value === '') return '—';
+  const text = typeof value === 'string' ? value : JSON.stringify(value);
+  return text.length > MAX_VALUE_LENGTH ? `${text.slice(0, MAX_VALUE_LENGTH - 1)}…` : text;
+}
+
+/** One line describing what an audit event changed, from → to where both are recorded. */
+export function describeAuditChanges(changes: Record<string, unknown> | null): string {
+  if (!changes) return '';
+  const { before, after, ...rest } = changes;
+  const parts: string[] = [];
+  if (isRecord(after) || isRecord(before)) {
+    const from = isRecord(before) ? before : {};
+    const to = isRecord(after) ? after : {};
+    const fields = [...new Set([...Object.keys(from), ...Object.keys(to)])];
+    for (const field of fields) parts.push(`${field}: ${shown(from[field])} → ${shown(to[field])}`);
+  } else if (before !== undefined || after !== undefined) {
+    parts.push(`${shown(before)} → ${shown(after)}`);
+  }
+  for (const [field, value] of Object.entries(rest)) parts.push(`${field}: ${shown(value)}`);
+  return parts.join('; ');
+}
