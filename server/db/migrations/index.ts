@@ -4,6 +4,7 @@ import { OutboxDelivery1764800000000 } from './1764800000000-outbox-delivery';
 import { Sessions1764810000000 } from './1764810000000-sessions';
 import { StockLedger1764900000000 } from './1764900000000-stock-ledger';
 import { SupplierTiming1765000000000 } from './1765000000000-supplier-timing';
+import { ShipNotices1765100000000 } from './1765100000000-ship-notices';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -13,4 +14,5 @@ export const migrations = [
   Sessions1764810000000,
   StockLedger1764900000000,
   SupplierTiming1765000000000,
+  ShipNotices1765100000000,
 ];
