@@ -27,6 +27,7 @@ import type { FakeSmtp } from './outbox/fake-smtp';
 import { createOutboxRouter } from './outbox/outbox.router';
 import { createOverviewRouter } from './overview/overview.router';
 import { createConfirmRouter } from './releases/confirm.router';
+import { createShipNoticesRouter } from './ship-notices/ship-notices.router';
 import { createReleasesRouter } from './releases/releases.router';
 import { createSequenceRouter } from './sequence/sequence.router';
 import { createServices, type ServiceOptions, type Services } from './services';
@@ -108,6 +109,7 @@ export function createApp(
   api.use(createLineRiskRouter(services, deps));
   api.use(createReleasesRouter(services, deps));
   api.use(createConfirmRouter(services, deps));
+  api.use(createShipNoticesRouter(services, deps));
   api.use(createReceiptsRouter(services, deps));
   api.use(createDockRouter(services, deps));
   api.use(createStockRouter(services, deps));

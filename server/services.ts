@@ -20,6 +20,7 @@ import { PlanningService } from './planning/planning.service';
 import { ConfirmService } from './releases/confirm.service';
 import { ReleasesService } from './releases/releases.service';
 import { SequenceService } from './sequence/sequence.service';
+import { ShipNoticesService } from './ship-notices/ship-notices.service';
 import { StockService } from './stock/stock.service';
 import { SupplierPerformanceService } from './supplier-performance/supplier-performance.service';
 import { UsersService } from './users/users.service';
@@ -75,6 +76,7 @@ export function createServices(db: Database, options: ServiceOptions) {
     lineRisk,
     releases: new ReleasesService(db, planning, { appUrl }),
     confirm: new ConfirmService(db),
+    shipNotices: new ShipNoticesService(db),
     dock,
     receipts: new ReceiptsService(db),
     attachments: new AttachmentsService(db, options.attachmentsDir ?? defaultAttachmentsDir(db)),

@@ -20,6 +20,9 @@ import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
 import { SettingEntity } from '../settings/setting.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { UserEntity } from '../users/user.entity';
+import { ShipNoticeEntity } from '../ship-notices/ship-notice.entity';
+import { ShipNoticeLineEntity } from '../ship-notices/ship-notice-line.entity';
+import { ShippingLinkEntity } from '../ship-notices/shipping-link.entity';
 
 export const entities = [
   AttachmentEntity,
@@ -41,6 +44,9 @@ export const entities = [
   SequenceEntryEntity,
   SessionEntity,
   SettingEntity,
+  ShipNoticeEntity,
+  ShipNoticeLineEntity,
+  ShippingLinkEntity,
   StockMovementEntity,
   SupplierEntity,
   UserEntity,

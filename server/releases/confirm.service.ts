@@ -12,6 +12,7 @@ import { hashConfirmationToken } from './confirmation-tokens';
 import { ConfirmationTokenEntity } from './confirmation-token.entity';
 import { releasesChanged } from './release-events';
 import { readLineTiming } from './line-timing';
+import { issueShippingLink } from '../ship-notices/shipping-links';
 import { plantToday } from '../planning/plan-dates';
 import type { Database } from '../db/database';
 
@@ -176,7 +177,8 @@ export class ConfirmService {
       });
       // Confirmed lines become firm receipts for the line risk.
       await releasesChanged(manager);
-      return { status, number: release.number, changedLines };
+      const shippingToken = await issueShippingLink(manager, release.id);
+      return { status, number: release.number, changedLines, shippingToken };
     });
   }
 

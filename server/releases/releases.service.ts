@@ -41,6 +41,7 @@ import { composeReleaseMail } from './release-mail';
 import { ReleaseLineEntity } from './release-line.entity';
 import { ReleaseEntity } from './release.entity';
 import { releasesChanged } from './release-events';
+import { readShipNotices } from '../ship-notices/ship-notices.service';
 import { readLineTiming } from './line-timing';
 import type { Database } from '../db/database';
 
@@ -563,6 +564,7 @@ export class ReleasesService {
       order: { id: 'ASC' },
     });
     const noticeOf = new Map(notices.map((notice) => [notice.ref, toOutboxMessage(notice)]));
+    const shipNotices = await readShipNotices(manager, releases);
     const supplierOf = new Map(releases.map((release) => [release.id, release.supplierCode]));
     const timing = await readLineTiming(manager, [...supplierOf.values()]);
     const linesByRelease = new Map<number, ReleaseLine[]>();
@@ -605,6 +607,7 @@ export class ReleasesService {
       trackingNumber: release.trackingNumber,
       supplierNote: release.supplierNote,
       notice: noticeOf.get(releaseNoticeRef(release.number)) ?? null,
+      shipNotices: shipNotices.get(release.id) ?? [],
     }));
   }
 }

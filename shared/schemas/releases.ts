@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { isoDateSchema } from './master-data';
 import { outboxMessageSchema } from './outbox';
+import { shipNoticeSchema } from './ship-notices';
 import { versionField } from './version';
 
 /** Life of a release: draft → sent → confirmed | exception → shipped → partial → received, or cancelled. */
@@ -69,6 +70,8 @@ export const releaseSchema = z.object({
   supplierNote: z.string().nullable(),
   /** The latest e-mail of this release and whether the mail server took it; null before any. */
   notice: outboxMessageSchema.nullable(),
+  /** The shipments the supplier announced, oldest first. */
+  shipNotices: z.array(shipNoticeSchema),
 });
 export type Release = z.infer<typeof releaseSchema>;
 
@@ -171,5 +174,7 @@ export const confirmResultSchema = z.object({
   number: z.string(),
   /** Lines whose answer differs from the request. */
   changedLines: z.number().int().nonnegative(),
+  /** Opens the ship-notice form of this release (GET/POST /api/shipping/:token); reusable until it expires. */
+  shippingToken: z.string(),
 });
 export type ConfirmResult = z.infer<typeof confirmResultSchema>;

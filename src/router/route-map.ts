@@ -21,6 +21,13 @@ export interface RouteNamedMap {
   releases: RouteRecordInfo<'releases', '/releases', NoParams, NoParams>;
   'supplier-performance': RouteRecordInfo<'supplier-performance', '/suppliers/performance', NoParams, NoParams>;
   confirm: RouteRecordInfo<'confirm', '/confirm/:token', { token: string }, { token: string }>;
+  'ship-notice-link': RouteRecordInfo<'ship-notice-link', '/ship/:token', { token: string }, { token: string }>;
+  'ship-notice': RouteRecordInfo<
+    'ship-notice',
+    '/releases/:number/ship-notice',
+    { number: string },
+    { number: string }
+  >;
   'reset-password': RouteRecordInfo<'reset-password', '/reset-password/:token', { token: string }, { token: string }>;
   'loop-print': RouteRecordInfo<'loop-print', '/loops/:id/print', { id: string | number }, { id: string }>;
   'card-scan': RouteRecordInfo<'card-scan', '/scan', NoParams, NoParams>;

@@ -23,6 +23,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Confirm release', public: true, bare: true },
   },
   {
+    path: '/ship/:token',
+    name: 'ship-notice-link',
+    component: () => import('@/views/ShipNoticeView.vue'),
+    meta: { title: 'Ship notice', public: true, bare: true },
+  },
+  {
     path: '/reset-password/:token',
     name: 'reset-password',
     component: () => import('@/views/PasswordResetView.vue'),
@@ -87,6 +93,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'releases',
     component: () => import('@/views/ReleasesView.vue'),
     meta: { title: 'Releases', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
+  },
+  {
+    path: '/releases/:number/ship-notice',
+    name: 'ship-notice',
+    component: () => import('@/views/ShipNoticeView.vue'),
+    meta: { title: 'Ship notice', roles: ['supplier'] },
   },
   {
     path: '/suppliers/performance',

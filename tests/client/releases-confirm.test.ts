@@ -6,6 +6,7 @@ import App from '@/App.vue';
 import ConfirmView from '@/views/ConfirmView.vue';
 
 const TOKEN = 'k3vY0m3pQmU5s2Lr9xW1aZ7bC4dE6fG8hJ0kL2nP4qS';
+const SHIP_TOKEN = 'Zs8mQ2vL0pK4rT6wY1xC3bN5dF7gH9jA2eU4iO6aS8u';
 
 const confirmation: Confirmation = {
   release: {
@@ -49,7 +50,7 @@ const confirmation: Confirmation = {
 function stubConfirm(
   view: () => Response,
   answer: (body: unknown) => Response = () =>
-    jsonResponse(200, { status: 'confirmed', number: 'R261201-SRM', changedLines: 0 }),
+    jsonResponse(200, { status: 'confirmed', number: 'R261201-SRM', changedLines: 0, shippingToken: SHIP_TOKEN }),
 ) {
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
     const url = new URL(String(input), 'http://localhost');
@@ -123,12 +124,15 @@ describe('ConfirmView', () => {
       },
     ]);
     expect(wrapper.get('[role="status"]').text()).toContain('Thank you — release confirmed');
+    // The receipt carries the reusable link of the ship-notice form.
+    expect(wrapper.get('.confirm-outcome__ship a').attributes('href')).toBe(`/ship/${SHIP_TOKEN}`);
   });
 
   it('sends a changed quantity with the shipment details as a proposal for the buyer', async () => {
     const fetchMock = stubConfirm(
       () => jsonResponse(200, confirmation),
-      () => jsonResponse(200, { status: 'exception', number: 'R261201-SRM', changedLines: 1 }),
+      () =>
+        jsonResponse(200, { status: 'exception', number: 'R261201-SRM', changedLines: 1, shippingToken: SHIP_TOKEN }),
     );
     const wrapper = await openConfirm();
     const qty = qtyInput(wrapper, 11);

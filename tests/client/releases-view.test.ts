@@ -58,6 +58,7 @@ const release = (overrides: Partial<Release>): Release => ({
   trackingNumber: null,
   supplierNote: null,
   notice: null,
+  shipNotices: [],
   ...overrides,
 });
 

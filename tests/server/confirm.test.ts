@@ -185,7 +185,12 @@ describe('POST /api/confirm/:token', () => {
     });
 
     expect(response.status).toBe(200);
-    expect(response.body).toEqual({ status: 'confirmed', number: release.number, changedLines: 0 });
+    expect(response.body).toEqual({
+      status: 'confirmed',
+      number: release.number,
+      changedLines: 0,
+      shippingToken: expect.stringMatching(/^[A-Za-z0-9_-]{43}$/),
+    });
     const stored = await request(context.app).get(`/api/releases/${release.number}`).set(bearer(context.tokens.buyer));
     expect(stored.body).toMatchObject({
       status: 'confirmed',
@@ -223,7 +228,12 @@ describe('POST /api/confirm/:token', () => {
 
     const response = await answer(token, { lines, note: 'Only 8 in stock' });
 
-    expect(response.body).toEqual({ status: 'exception', number: release.number, changedLines: 1 });
+    expect(response.body).toEqual({
+      status: 'exception',
+      number: release.number,
+      changedLines: 1,
+      shippingToken: expect.any(String),
+    });
     expect((await releaseRow(release.number)).status).toBe('exception');
     const viewer = await request(context.app)
       .post(`/api/releases/${release.number}/accept-exception`)

@@ -6,6 +6,7 @@ import { StockLedger1764900000000 } from './1764900000000-stock-ledger';
 import { SupplierTiming1765000000000 } from './1765000000000-supplier-timing';
 import { OpenOrders1765050000000 } from './1765050000000-open-orders';
 import { PartSafety1765100000000 } from './1765100000000-part-safety';
+import { ShipNotices1765150000000 } from './1765150000000-ship-notices';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -17,4 +18,5 @@ export const migrations = [
   SupplierTiming1765000000000,
   OpenOrders1765050000000,
   PartSafety1765100000000,
+  ShipNotices1765150000000,
 ];
