@@ -33,8 +33,8 @@ export interface DraftLine {
 
 // The loop must be a supplier loop of a bought part still on kanban: a card of a part that moved to
 // scheduled replenishment is left for the buyer to pull, since the plan now orders that part.
-const EMPTY_CARDS_SQL = `SELECT c.id AS cardId, c.card_number AS cardNumber, l.part_number AS partNumber,
-  l.container_qty AS containerQty, p.supplier_code AS supplierCode, s.cycle_days AS cycleDays,
+const EMPTY_CARDS_SQL = `SELECT c.id AS "cardId", c.card_number AS "cardNumber", l.part_number AS "partNumber",
+  l.container_qty AS "containerQty", p.supplier_code AS "supplierCode", s.cycle_days AS "cycleDays",
   s.deliveries_per_cycle AS deliveries, s.delivery_delay AS delay
   FROM kanban_card c JOIN kanban_loop l ON l.id = c.loop_id
   JOIN part p ON p.part_number = l.part_number JOIN supplier s ON s.code = p.supplier_code
