@@ -7,7 +7,15 @@ import { DataSource, type EntityManager } from 'typeorm';
 import { ChangeFeed, PostgresChangeListener } from './change-feed';
 import { entities } from './entities';
 import { migrations } from './migrations';
-import { isPostgresUrl, isRetryableConflict, migratePostgres, postgresSource, scratchPostgres } from './postgres';
+import {
+  isPostgresUrl,
+  isRetryableConflict,
+  LOCK_KEYS,
+  migratePostgres,
+  postgresSource,
+  scratchPostgres,
+  type ExclusiveJob,
+} from './postgres';
 
 /*
  * Every request sees only committed data and writes only in its own unit of work.
@@ -45,7 +53,9 @@ const units = new AsyncLocalStorage<Unit>();
 const SNAPSHOT_READERS = 4;
 const BUSY_TIMEOUT_MS = 10_000;
 /** Times a PostgreSQL write unit is tried before its serialization failure is the caller's. */
-const WRITE_ATTEMPTS = 12;
+const WRITE_ATTEMPTS = 30;
+/** Cap of the random back-off between attempts, in ms. */
+const MAX_BACKOFF_MS = 250;
 /** The NOTIFY channel of change notices. */
 export const CHANGES_CHANNEL = 'cardloop_changes';
 
@@ -153,6 +163,31 @@ export class Database {
     return run;
   }
 
+  /**
+   * Runs `work` unless another node is running `job` right now, and returns null then. On
+   * PostgreSQL a session advisory lock decides, held for the whole run; on SQLite one process
+   * serves the database, and the job itself keeps its runs apart. Work run under it re-reads
+   * whether it is still due, so a node that takes the lock just after another released it finds
+   * the work done.
+   */
+  async runAlone<T>(job: ExclusiveJob, work: () => Promise<T>): Promise<T | null> {
+    if (this.engine === 'sqlite') return work();
+    const runner = this.dataSource.createQueryRunner();
+    try {
+      const [{ locked }] = (await runner.query('SELECT pg_try_advisory_lock($1) AS locked', [LOCK_KEYS[job]])) as {
+        locked: boolean;
+      }[];
+      if (!locked) return null;
+      try {
+        return await work();
+      } finally {
+        await runner.query('SELECT pg_advisory_unlock($1)', [LOCK_KEYS[job]]);
+      }
+    } finally {
+      await runner.release();
+    }
+  }
+
   /** Runs `effect` once the current write unit has committed; at once when no write unit is open. */
   afterCommit(effect: () => void): void {
     const open = this.currentUnit();
@@ -212,8 +247,9 @@ export class Database {
         return result;
       } catch (error) {
         if (attempt >= WRITE_ATTEMPTS || !isRetryableConflict(error)) throw error;
-        // Back off a little, randomly, so the transactions that collided do not collide again.
-        await new Promise((resolve) => setTimeout(resolve, Math.random() * 10 * attempt));
+        // Back off randomly, longer each time, so the transactions that collided do not collide again.
+        const backoff = Math.random() * Math.min(MAX_BACKOFF_MS, 4 * 2 ** attempt);
+        await new Promise((resolve) => setTimeout(resolve, backoff));
       }
     }
   }

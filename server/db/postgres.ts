@@ -20,10 +20,13 @@ const RETRYABLE = new Set(['40001', '40P01']);
 /** Advisory lock keys; any 64-bit number unlikely to clash with another application's. */
 export const LOCK_KEYS = {
   migrations: 7_264_001,
-  releaseJob: 7_264_002,
-  endOfShift: 7_264_003,
-  frozenWindowCheck: 7_264_004,
+  'release-job': 7_264_002,
+  'end-of-shift': 7_264_003,
+  'frozen-window-check': 7_264_004,
 } as const;
+
+/** A job that must run on one node at a time. */
+export type ExclusiveJob = Exclude<keyof typeof LOCK_KEYS, 'migrations'>;
 
 export function isPostgresUrl(target: string): boolean {
   return /^postgres(ql)?:\/\//i.test(target);
