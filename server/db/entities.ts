@@ -13,6 +13,7 @@ import { KanbanLoopEntity } from '../loops/kanban-loop.entity';
 import { OutboxMessageEntity } from '../outbox/outbox-message.entity';
 import { PartEntity } from '../master-data/part.entity';
 import { AttachmentEntity } from '../dock/attachment.entity';
+import { AttachmentContentEntity } from '../dock/attachment-content.entity';
 import { ReceiptEntity } from '../dock/receipt.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
@@ -22,6 +23,7 @@ import { SupplierEntity } from '../master-data/supplier.entity';
 import { UserEntity } from '../users/user.entity';
 
 export const entities = [
+  AttachmentContentEntity,
   AttachmentEntity,
   AuditEventEntity,
   BomLineEntity,

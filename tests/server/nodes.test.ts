@@ -181,6 +181,34 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     });
   });
 
+  it('serves a packing slip uploaded on node A from node B', async () => {
+    const lineId = await openLine(1);
+    const { releaseId } = await nodeA.dataSource.getRepository(ReleaseLineEntity).findOneByOrFail({ id: lineId });
+    // A PDF opens with "%PDF-" and its version (ISO 32000-1:2008, 7.5.2 "File Header"; from memory).
+    const pdf = Buffer.from(
+      '%PDF-1.7\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n',
+      'latin1',
+    );
+
+    const uploaded = await request(nodeA.app)
+      .post(`/api/dock/items/${releaseId}/attachments`)
+      .set(bearer(nodeA.tokens.receiving))
+      .attach('file', pdf, 'slip.pdf');
+    const fromB = await request(nodeB.app)
+      .get(`/api/dock/attachments/${uploaded.body.id}`)
+      .set(bearer(nodeB.tokens.viewer))
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (chunk: Buffer) => chunks.push(chunk));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+
+    expect(uploaded.status).toBe(201);
+    expect(fromB.status).toBe(200);
+    expect(Buffer.compare(fromB.body as Buffer, pdf)).toBe(0);
+  });
+
   it('runs the release job once when both nodes reach its time in the same minute', async () => {
     await writeSetting(nodeA.dataSource.manager, RELEASE_JOB_TIME, '06:00');
     await writeSetting(nodeA.dataSource.manager, RELEASE_JOB_LAST_RUN, '2027-03-02');

@@ -3,6 +3,7 @@ import { ReceiptFinal1764720000000 } from './1764720000000-receipt-final';
 import { OutboxDelivery1764800000000 } from './1764800000000-outbox-delivery';
 import { Sessions1764810000000 } from './1764810000000-sessions';
 import { StockLedger1764900000000 } from './1764900000000-stock-ledger';
+import { AttachmentContent1764950000000 } from './1764950000000-attachment-content';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -11,4 +12,5 @@ export const migrations = [
   OutboxDelivery1764800000000,
   Sessions1764810000000,
   StockLedger1764900000000,
+  AttachmentContent1764950000000,
 ];
