@@ -53,9 +53,9 @@ const units = new AsyncLocalStorage<Unit>();
 const SNAPSHOT_READERS = 4;
 const BUSY_TIMEOUT_MS = 10_000;
 /** Times a PostgreSQL write unit is tried before its serialization failure is the caller's. */
-const WRITE_ATTEMPTS = 30;
+const WRITE_ATTEMPTS = 60;
 /** Cap of the random back-off between attempts, in ms. */
-const MAX_BACKOFF_MS = 250;
+const MAX_BACKOFF_MS = 1_000;
 /** The NOTIFY channel of change notices. */
 export const CHANGES_CHANNEL = 'cardloop_changes';
 

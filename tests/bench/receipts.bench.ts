@@ -105,7 +105,14 @@ export async function runReceiptsBench(nodeCount: number): Promise<ReceiptsBench
   const nodes = [first];
   for (let index = 1; index < nodeCount; index += 1) nodes.push(await openDatabase(url!));
   const { token, lineIds } = await arrange(first);
-  const servers: Server[] = nodes.map((db) => createApp(db, { jwtSecret: SECRET }).listen(0, '127.0.0.1'));
+  const servers: Server[] = await Promise.all(
+    nodes.map(
+      (db) =>
+        new Promise<Server>((resolve) => {
+          const server = createApp(db, { jwtSecret: SECRET }).listen(0, '127.0.0.1', () => resolve(server));
+        }),
+    ),
+  );
   const ports = servers.map((server) => (server.address() as AddressInfo).port);
   let accepted = 0;
   try {
