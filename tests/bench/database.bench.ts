@@ -32,7 +32,7 @@ const API_RUNS = 30;
 // effectivity checked at that date, scrap applied. Less work than the engine does.
 const RECURSIVE_EXPLOSION = `
 WITH RECURSIVE demand(part, date, qty) AS (
-  SELECT model, date, SUM(qty) FROM sequence_entry WHERE date BETWEEN ? AND ? GROUP BY model, date
+  SELECT model, date, CAST(SUM(qty) AS double precision) FROM sequence_entry WHERE date BETWEEN ? AND ? GROUP BY model, date
   UNION ALL
   SELECT b.component, d.date, d.qty * b.qty_per * (1 + b.scrap_pct / 100.0)
   FROM demand d JOIN bom_line b ON b.parent = d.part
