@@ -7,6 +7,34 @@ import { ElementPlusResolver } from 'unplugin-vue-components/resolvers';
 
 const serverPort = Number(process.env.PORT ?? 3000);
 
+/*
+ * The server suite runs a second time on PostgreSQL when TEST_DATABASE_URL names a server the tests
+ * may create and drop databases on (`.ci/run` starts a throw-away one). Without it that run is
+ * skipped, and said so loudly, so a green run on a laptop is not mistaken for both engines.
+ */
+const postgresTestServer = process.env.TEST_DATABASE_URL;
+if (process.env.VITEST && !postgresTestServer && !process.env.CARDLOOP_POSTGRES_SKIP_TOLD) {
+  process.env.CARDLOOP_POSTGRES_SKIP_TOLD = '1';
+  console.warn(
+    [
+      '',
+      '!!! The server tests on PostgreSQL are SKIPPED: TEST_DATABASE_URL is not set.',
+      '!!! Set it to a PostgreSQL 15 server the tests may create databases on, e.g.',
+      '!!!   TEST_DATABASE_URL=postgres://postgres@127.0.0.1:5432/postgres npm run test:unit',
+      '!!! (.ci/run starts a throw-away cluster and always runs them.)',
+      '',
+    ].join('\n'),
+  );
+}
+const serverTest = {
+  include: ['tests/server/**/*.test.ts'],
+  environment: 'node' as const,
+  // Password hashing at 1 MiB instead of 64 MiB: the tests sign in hundreds of times.
+  env: { ARGON2_MEMORY_KIB: '1024' },
+  testTimeout: 20000,
+  hookTimeout: 30000,
+};
+
 export default defineConfig({
   plugins: [vue(), Components({ resolvers: [ElementPlusResolver()], dts: false })],
   resolve: {
@@ -28,18 +56,20 @@ export default defineConfig({
         extends: true,
         test: { name: 'shared', include: ['tests/shared/**/*.test.ts'], environment: 'node' },
       },
-      {
-        extends: true,
-        test: {
-          name: 'server',
-          include: ['tests/server/**/*.test.ts'],
-          environment: 'node',
-          // Password hashing at 1 MiB instead of 64 MiB: the tests sign in hundreds of times.
-          env: { ARGON2_MEMORY_KIB: '1024' },
-          testTimeout: 20000,
-          hookTimeout: 30000,
-        },
-      },
+      { extends: true, test: { name: 'server', ...serverTest } },
+      ...(postgresTestServer
+        ? [
+            {
+              extends: true as const,
+              test: {
+                name: 'server-postgres',
+                ...serverTest,
+                // Every throw-away database (`openDatabase(':memory:')`) is made on this server.
+                env: { ...serverTest.env, SCRATCH_DATABASE_URL: postgresTestServer },
+              },
+            },
+          ]
+        : []),
       {
         extends: true,
         test: {

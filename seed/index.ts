@@ -1,17 +1,16 @@
-import { resolve } from 'node:path';
-import { loadConfig } from '../server/config';
+import { databaseLabel, databaseTarget, loadConfig } from '../server/config';
 import { openDatabase } from '../server/db/database';
 import { plantToday } from '../server/planning/plan-dates';
 import { isDatabaseEmpty } from '../server/users/bootstrap';
 import { seedDemoScenario } from './seed-demo';
 
-// `npm run seed`: migrates and seeds the demo into DATABASE_PATH when it is empty; never overwrites.
+// `npm run seed`: migrates and seeds the demo into the database (DATABASE_URL or DATABASE_PATH) when it is empty; never overwrites.
 const config = loadConfig();
-const db = await openDatabase(resolve(config.DATABASE_PATH));
+const db = await openDatabase(databaseTarget(config, process.cwd()));
 if (await isDatabaseEmpty(db)) {
   await seedDemoScenario(db, plantToday());
-  console.log(`Seeded the demo scenario into ${config.DATABASE_PATH}.`);
+  console.log(`Seeded the demo scenario into ${databaseLabel(config)}.`);
 } else {
-  console.log(`${config.DATABASE_PATH} already holds data; nothing seeded.`);
+  console.log(`${databaseLabel(config)} already holds data; nothing seeded.`);
 }
 await db.close();

@@ -1,9 +1,16 @@
 import { randomBytes } from 'node:crypto';
+import { resolve } from 'node:path';
 import { z } from 'zod';
 
 const configSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   DATABASE_PATH: z.string().min(1).default('data/cardloop.sqlite'),
+  /** A `postgres://` URL selects PostgreSQL (several nodes over one database); unset, SQLite at DATABASE_PATH. */
+  DATABASE_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, 'DATABASE_URL must be a postgres:// or postgresql:// URL')
+    .optional(),
+  DATABASE_POOL_SIZE: z.coerce.number().int().min(2).max(200).default(10),
   JWT_SECRET: z.string().min(32, 'JWT_SECRET must be at least 32 characters').optional(),
   JWT_TTL: z
     .string()
@@ -19,6 +26,19 @@ const configSchema = z.object({
   LOGIN_ADDRESS_LIMIT: z.coerce.number().int().positive().default(100),
   NODE_ENV: z.string().default('development'),
 });
+
+/** Where the data lives: the PostgreSQL URL, or the SQLite file under `root`. */
+export function databaseTarget(config: Pick<AppConfig, 'DATABASE_URL' | 'DATABASE_PATH'>, root: string): string {
+  return config.DATABASE_URL ?? resolve(root, config.DATABASE_PATH);
+}
+
+/** The database named for people: a PostgreSQL URL without its password, or the SQLite path. */
+export function databaseLabel(config: Pick<AppConfig, 'DATABASE_URL' | 'DATABASE_PATH'>): string {
+  if (!config.DATABASE_URL) return `SQLite ${config.DATABASE_PATH}`;
+  const url = new URL(config.DATABASE_URL);
+  url.password = '';
+  return `PostgreSQL ${url.toString()}`;
+}
 
 export type AppConfig = Omit<z.infer<typeof configSchema>, 'SEED_DEMO'> & {
   SEED_DEMO: '0' | '1';

@@ -2,7 +2,7 @@ import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
 import { ensureClientBuilt } from './client-build';
-import { loadConfig } from './config';
+import { databaseLabel, databaseTarget, loadConfig } from './config';
 import { openDatabase, type Database } from './db/database';
 import { plantToday } from './planning/plan-dates';
 import { createServices } from './services';
@@ -21,7 +21,7 @@ const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 async function main(): Promise<void> {
   const config = loadConfig();
   const clientDir = await ensureClientBuilt(root);
-  const db = await openDatabase(resolve(root, config.DATABASE_PATH));
+  const db = await openDatabase(databaseTarget(config, root));
 
   const fakeSmtp = config.SMTP_URL ? null : await startFakeSmtp();
   const smtpUrl = config.SMTP_URL ?? fakeSmtp!.url;
@@ -88,7 +88,7 @@ async function main(): Promise<void> {
   const server = app.listen(config.PORT, () => {
     console.log(`Cardloop is running on http://localhost:${config.PORT}`);
     console.log(
-      `Database: ${config.DATABASE_PATH}; mail: ${fakeSmtp ? `embedded fake SMTP at ${fakeSmtp.url}` : 'SMTP_URL'}`,
+      `Database: ${databaseLabel(config)}; mail: ${fakeSmtp ? `embedded fake SMTP at ${fakeSmtp.url}` : 'SMTP_URL'}`,
     );
     if (config.jwtSecretGenerated) console.log('JWT_SECRET is not set: sessions end when the server restarts.');
     if (demoSignIns.length > 0) {
@@ -119,7 +119,7 @@ async function main(): Promise<void> {
 async function listDemoSignIns(db: Database): Promise<string[]> {
   const demoAccounts = new Set(await readSetting<string[]>(db.manager, DEMO_ACCOUNTS, []));
   const all: { email: string; role: string; supplier_code: string | null }[] = await db.manager.query(
-    'SELECT email, role, supplier_code FROM "user" WHERE active = 1 ORDER BY CASE role WHEN \'supplier\' THEN 1 ELSE 0 END, id',
+    'SELECT email, role, supplier_code FROM "user" WHERE active = TRUE ORDER BY CASE role WHEN \'supplier\' THEN 1 ELSE 0 END, id',
   );
   const rows = all.filter((row) => demoAccounts.has(row.email));
   return rows.map((row) => `${row.role.padEnd(10)} ${row.email}${row.supplier_code ? `  (${row.supplier_code})` : ''}`);

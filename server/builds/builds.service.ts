@@ -35,11 +35,11 @@ interface BackflushContext {
 // cost more than the backflush itself.
 async function backflushContext(manager: EntityManager): Promise<BackflushContext> {
   const lines: PlanningBomLine[] = await manager.query(
-    `SELECT parent, component, qty_per AS qtyPer, scrap_pct AS scrapPct, effective_from AS effectiveFrom,
-     effective_to AS effectiveTo FROM bom_line`,
+    `SELECT parent, component, qty_per AS "qtyPer", scrap_pct AS "scrapPct", effective_from AS "effectiveFrom",
+     effective_to AS "effectiveTo" FROM bom_line`,
   );
   const parts: { partNumber: string; source: string; onHand: number }[] = await manager.query(
-    'SELECT part_number AS partNumber, source, on_hand AS onHand FROM part',
+    'SELECT part_number AS "partNumber", source, on_hand AS "onHand" FROM part',
   );
   return {
     bom: bomByParent(lines),

@@ -24,17 +24,21 @@ export class CloseDayJob {
     if (this.busy) return null;
     this.busy = true;
     try {
-      const manager = this.db.manager;
-      const time = await readSetting<string | null>(manager, CLOSE_DAY_TIME, null);
-      const today = plantToday(now);
-      const last = await readSetting<string | null>(manager, CLOSE_DAY_LAST, null);
-      if (!time || plantClock(now) < time || (last !== null && last >= today)) return null;
-      if (!isWorkingDay(today, await readCalendar(manager))) return null;
-      const result = await this.builds.closeDay(today, null);
-      await this.db.write((work) => writeSetting(work, CLOSE_DAY_LAST, today));
-      return result;
+      return await this.db.runAlone('end-of-shift', () => this.closeIfDue(now));
     } finally {
       this.busy = false;
     }
+  }
+
+  private async closeIfDue(now: Date): Promise<CloseDayResponse | null> {
+    const manager = this.db.manager;
+    const time = await readSetting<string | null>(manager, CLOSE_DAY_TIME, null);
+    const today = plantToday(now);
+    const last = await readSetting<string | null>(manager, CLOSE_DAY_LAST, null);
+    if (!time || plantClock(now) < time || (last !== null && last >= today)) return null;
+    if (!isWorkingDay(today, await readCalendar(manager))) return null;
+    const result = await this.builds.closeDay(today, null);
+    await this.db.write((work) => writeSetting(work, CLOSE_DAY_LAST, today));
+    return result;
   }
 }

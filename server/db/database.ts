@@ -4,9 +4,18 @@ import { copyFileSync, existsSync, mkdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { DataSource, type EntityManager } from 'typeorm';
-import { ChangeFeed } from './change-feed';
+import { ChangeFeed, PostgresChangeListener } from './change-feed';
 import { entities } from './entities';
 import { migrations } from './migrations';
+import {
+  isPostgresUrl,
+  isRetryableConflict,
+  LOCK_KEYS,
+  migratePostgres,
+  postgresSource,
+  scratchPostgres,
+  type ExclusiveJob,
+} from './postgres';
 
 /*
  * Every request sees only committed data and writes only in its own unit of work.
@@ -17,9 +26,16 @@ import { migrations } from './migrations';
  * read-only readers (`PRAGMA query_only`, so a stray write outside a unit fails loudly instead of
  * joining someone else's transaction). A read unit leases a reader for a snapshot transaction;
  * plain reads outside any unit go to a reader that never holds a transaction open.
+ *
+ * PostgreSQL has its own isolation, so nothing is serialised in the process: a write unit is a
+ * SERIALIZABLE transaction on a pooled connection, run again when the server reports a
+ * serialization failure or deadlock (it then re-reads, and a replayed request finds its first
+ * answer); a read unit is a REPEATABLE READ, READ ONLY transaction. Change notices are sent with
+ * NOTIFY inside the write unit, so PostgreSQL delivers them to every node exactly when it commits.
  */
 
 type UnitKind = 'read' | 'write';
+export type Engine = 'sqlite' | 'postgres';
 
 interface Unit {
   database: Database;
@@ -27,6 +43,8 @@ interface Unit {
   manager: EntityManager;
   /** Effects to run once the write unit has committed (notices to open screens). */
   afterCommit: (() => void)[];
+  /** Change notices to send with the write unit's commit (PostgreSQL). */
+  notices: { channel: string; payload: unknown }[];
 }
 
 const units = new AsyncLocalStorage<Unit>();
@@ -34,6 +52,12 @@ const units = new AsyncLocalStorage<Unit>();
 /** Snapshot readers a read unit can lease; more units than this wait their turn. */
 const SNAPSHOT_READERS = 4;
 const BUSY_TIMEOUT_MS = 10_000;
+/** Times a PostgreSQL write unit is tried before its serialization failure is the caller's. */
+const WRITE_ATTEMPTS = 60;
+/** Cap of the random back-off between attempts, in ms. */
+const MAX_BACKOFF_MS = 1_000;
+/** The NOTIFY channel of change notices. */
+export const CHANGES_CHANNEL = 'cardloop_changes';
 
 /** Thrown when code tries to write inside a read unit: the route or job must use a write unit. */
 export class ReadOnlyUnitError extends Error {
@@ -71,13 +95,14 @@ export class Database {
   private writeTail: Promise<unknown> = Promise.resolve();
 
   constructor(
+    readonly engine: Engine,
     /** The writer connection; migrations, seeding and tests arranging data use it directly. */
     readonly dataSource: DataSource,
     private readonly reader: DataSource,
     private readonly snapshotReaders: DataSource[],
     /** Change notices (planning, dock…) for open screens; published after commit. */
     readonly changes: ChangeFeed,
-    private readonly onClose: () => void = () => undefined,
+    private readonly onClose: () => void | Promise<void> = () => undefined,
   ) {
     this.pool = new ReaderPool(snapshotReaders);
   }
@@ -98,13 +123,15 @@ export class Database {
   async read<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
     const open = this.currentUnit();
     if (open) return work(open.manager);
+    if (this.engine === 'postgres') return this.readPostgres(work);
     const reader = await this.pool.acquire();
     const runner = reader.createQueryRunner();
     try {
       await runner.startTransaction();
       try {
-        return await units.run({ database: this, kind: 'read', manager: runner.manager, afterCommit: [] }, () =>
-          work(runner.manager),
+        return await units.run(
+          { database: this, kind: 'read', manager: runner.manager, afterCommit: [], notices: [] },
+          () => work(runner.manager),
         );
       } finally {
         await runner.commitTransaction();
@@ -123,16 +150,42 @@ export class Database {
     const open = this.currentUnit();
     if (open?.kind === 'write') return work(open.manager);
     if (open?.kind === 'read') return Promise.reject(new ReadOnlyUnitError());
+    if (this.engine === 'postgres') return this.writePostgres(work);
     const run = this.writeTail.then(async () => {
       const afterCommit: (() => void)[] = [];
       const result = await this.dataSource.transaction((manager) =>
-        units.run({ database: this, kind: 'write', manager, afterCommit }, () => work(manager)),
+        units.run({ database: this, kind: 'write', manager, afterCommit, notices: [] }, () => work(manager)),
       );
       for (const effect of afterCommit) effect();
       return result;
     });
     this.writeTail = run.catch(() => undefined);
     return run;
+  }
+
+  /**
+   * Runs `work` unless another node is running `job` right now, and returns null then. On
+   * PostgreSQL a session advisory lock decides, held for the whole run; on SQLite one process
+   * serves the database, and the job itself keeps its runs apart. Work run under it re-reads
+   * whether it is still due, so a node that takes the lock just after another released it finds
+   * the work done.
+   */
+  async runAlone<T>(job: ExclusiveJob, work: () => Promise<T>): Promise<T | null> {
+    if (this.engine === 'sqlite') return work();
+    const runner = this.dataSource.createQueryRunner();
+    try {
+      const [{ locked }] = (await runner.query('SELECT pg_try_advisory_lock($1) AS locked', [LOCK_KEYS[job]])) as {
+        locked: boolean;
+      }[];
+      if (!locked) return null;
+      try {
+        return await work();
+      } finally {
+        await runner.query('SELECT pg_advisory_unlock($1)', [LOCK_KEYS[job]]);
+      }
+    } finally {
+      await runner.release();
+    }
   }
 
   /** Runs `effect` once the current write unit has committed; at once when no write unit is open. */
@@ -142,17 +195,71 @@ export class Database {
     else effect();
   }
 
-  /** Tells open screens that `channel` changed, once the current unit has committed. */
+  /** Tells open screens (of every node, on PostgreSQL) that `channel` changed, once the current unit has committed. */
   notify(channel: string, payload: unknown): void {
-    this.afterCommit(() => this.changes.publish(channel, payload));
+    const open = this.currentUnit();
+    if (this.engine === 'postgres' && open?.kind === 'write') open.notices.push({ channel, payload });
+    else if (this.engine === 'postgres') {
+      void this.dataSource
+        .query('SELECT pg_notify($1, $2)', [CHANGES_CHANNEL, JSON.stringify({ channel, payload })])
+        .catch((error: unknown) => console.error('Change notice lost:', error));
+    } else this.afterCommit(() => this.changes.publish(channel, payload));
+  }
+
+  private async readPostgres<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
+    // The reader pool's sessions are read-only: the snapshot refuses writes like SQLite's readers.
+    const runner = this.reader.createQueryRunner();
+    try {
+      await runner.startTransaction('REPEATABLE READ');
+      try {
+        return await units.run(
+          { database: this, kind: 'read', manager: runner.manager, afterCommit: [], notices: [] },
+          () => work(runner.manager),
+        );
+      } finally {
+        await runner.commitTransaction().catch(() => runner.rollbackTransaction());
+      }
+    } finally {
+      await runner.release();
+    }
+  }
+
+  private async writePostgres<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
+    for (let attempt = 1; ; attempt += 1) {
+      const unit: Unit = {
+        database: this,
+        kind: 'write',
+        manager: this.dataSource.manager,
+        afterCommit: [],
+        notices: [],
+      };
+      try {
+        const result = await this.dataSource.transaction('SERIALIZABLE', (manager) =>
+          units.run({ ...unit, manager }, async () => {
+            const answer = await work(manager);
+            for (const notice of unit.notices) {
+              await manager.query('SELECT pg_notify($1, $2)', [CHANGES_CHANNEL, JSON.stringify(notice)]);
+            }
+            return answer;
+          }),
+        );
+        for (const effect of unit.afterCommit) effect();
+        return result;
+      } catch (error) {
+        if (attempt >= WRITE_ATTEMPTS || !isRetryableConflict(error)) throw error;
+        // Back off randomly, longer each time, so the transactions that collided do not collide again.
+        const backoff = Math.random() * Math.min(MAX_BACKOFF_MS, 4 * 2 ** attempt);
+        await new Promise((resolve) => setTimeout(resolve, backoff));
+      }
+    }
   }
 
   async close(): Promise<void> {
     await Promise.allSettled([this.writeTail]);
-    for (const source of [this.reader, ...this.snapshotReaders, this.dataSource]) {
+    for (const source of new Set([this.reader, ...this.snapshotReaders, this.dataSource])) {
       if (source.isInitialized) await source.destroy();
     }
-    this.onClose();
+    await this.onClose();
   }
 
   private currentUnit(): Unit | undefined {
@@ -211,10 +318,38 @@ function removeDatabaseFiles(path: string): void {
 }
 
 /**
- * Opens the SQLite database at `databasePath` (`:memory:` for a throw-away file that is deleted
- * on close), applies pending migrations and opens the readers.
+ * Opens the database `target` names and applies pending migrations: a `postgres://` URL, a SQLite
+ * file path, or `:memory:` for a throw-away database deleted on close — a SQLite file, or a
+ * PostgreSQL database on the server `SCRATCH_DATABASE_URL` names when that is set (the server
+ * test suite's PostgreSQL run).
  */
-export async function openDatabase(databasePath: string): Promise<Database> {
+export async function openDatabase(target: string): Promise<Database> {
+  if (isPostgresUrl(target)) return openPostgres(target);
+  const scratchServer = process.env.SCRATCH_DATABASE_URL;
+  if (target === ':memory:' && scratchServer) {
+    const scratch = await scratchPostgres(scratchServer);
+    return openPostgres(scratch.url, scratch.drop);
+  }
+  return openSqlite(target);
+}
+
+async function openPostgres(url: string, onClose: () => Promise<void> = async () => undefined): Promise<Database> {
+  const source = postgresSource(url);
+  await source.initialize();
+  await migratePostgres(source);
+  const reader = postgresSource(url, {
+    readOnly: true,
+    poolSize: Math.max(2, Math.ceil((source.options.extra as { max: number }).max / 2)),
+  });
+  await reader.initialize();
+  const listener = await PostgresChangeListener.start(url, CHANGES_CHANNEL);
+  return new Database('postgres', source, reader, [], listener.feed, async () => {
+    await listener.stop();
+    await onClose();
+  });
+}
+
+async function openSqlite(databasePath: string): Promise<Database> {
   const scratch = databasePath === ':memory:';
   const path = scratch ? await scratchDatabasePath() : databasePath;
   if (!scratch) mkdirSync(dirname(path), { recursive: true });
@@ -227,7 +362,7 @@ export async function openDatabase(databasePath: string): Promise<Database> {
     await reader.query('PRAGMA query_only = ON');
   }
   const [reader, ...snapshotReaders] = readers;
-  return new Database(writer, reader, snapshotReaders, new ChangeFeed(), () => {
+  return new Database('sqlite', writer, reader, snapshotReaders, new ChangeFeed(), () => {
     if (scratch) removeDatabaseFiles(path);
   });
 }

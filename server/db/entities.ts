@@ -13,6 +13,7 @@ import { KanbanLoopEntity } from '../loops/kanban-loop.entity';
 import { OutboxMessageEntity } from '../outbox/outbox-message.entity';
 import { PartEntity } from '../master-data/part.entity';
 import { AttachmentEntity } from '../dock/attachment.entity';
+import { AttachmentContentEntity } from '../dock/attachment-content.entity';
 import { ReceiptEntity } from '../dock/receipt.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
@@ -25,6 +26,7 @@ import { ShipNoticeLineEntity } from '../ship-notices/ship-notice-line.entity';
 import { ShippingLinkEntity } from '../ship-notices/shipping-link.entity';
 
 export const entities = [
+  AttachmentContentEntity,
   AttachmentEntity,
   AuditEventEntity,
   BomLineEntity,

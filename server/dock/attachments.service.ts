@@ -1,6 +1,5 @@
-import { randomBytes } from 'node:crypto';
-import { mkdir, rm, stat, writeFile } from 'node:fs/promises';
-import { basename, join, resolve, sep } from 'node:path';
+import { readFile } from 'node:fs/promises';
+import { basename, resolve, sep } from 'node:path';
 import {
   RECEIVABLE_STATUSES,
   type AttachmentType,
@@ -14,6 +13,7 @@ import { ConflictError, NotFoundError, UnsupportedTypeError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';
 import { ReleaseEntity } from '../releases/release.entity';
 import { AttachmentEntity } from './attachment.entity';
+import { AttachmentContentEntity } from './attachment-content.entity';
 import type { Database } from '../db/database';
 
 const EXTENSIONS: Record<AttachmentType, string> = {
@@ -62,13 +62,20 @@ function assertReceivable(release: ReleaseEntity): void {
   }
 }
 
-/** A packing slip and where its bytes are, for streaming it back. */
+/** A packing slip and its bytes, for sending it back. */
 export interface StoredAttachment {
   attachment: DockAttachment;
-  absolutePath: string;
+  content: Buffer;
 }
 
-/** Packing-slip photos and PDFs kept with a release, on disk under one folder per release. */
+/** What `storage_path` says of a slip whose bytes are in the database. */
+const IN_DATABASE = 'database';
+
+/**
+ * Packing-slip photos and PDFs kept with a release, in the database (so every app node serves
+ * them and a backup holds them). Slips stored before that, on disk under one folder per release
+ * in `attachmentsDir`, are still served from there.
+ */
 export class AttachmentsService {
   private readonly root: string;
 
@@ -93,56 +100,55 @@ export class AttachmentsService {
     const release = await this.db.manager.findOneBy(ReleaseEntity, { id: releaseId });
     if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
     assertReceivable(release);
-    const storagePath = `${release.id}/${randomBytes(16).toString('hex')}.${EXTENSIONS[type]}`;
-    const absolutePath = this.locate(storagePath);
-    await mkdir(join(this.root, String(release.id)), { recursive: true });
-    await writeFile(absolutePath, file.buffer, { flag: 'wx' });
-    try {
-      return await this.db.write(async (manager) => {
-        // Checked again inside the unit: the release may have been received in full meanwhile.
-        assertReceivable(await manager.findOneByOrFail(ReleaseEntity, { id: release.id }));
-        const attachment = await manager.save(
-          manager.create(AttachmentEntity, {
-            releaseId: release.id,
-            receiptId: null,
-            fileName: cleanFileName(file.fileName, type),
-            mimeType: type,
-            sizeBytes: file.buffer.length,
-            storagePath,
-            uploadedBy: actor.email,
-            uploadedAt: new Date().toISOString(),
-          }),
-        );
-        await recordAudit(manager, {
-          actorEmail: actor.email,
-          action: 'attach',
-          entity: 'release',
-          entityKey: release.number,
-          changes: {
-            attachmentId: attachment.id,
-            fileName: attachment.fileName,
-            mimeType: type,
-            sizeBytes: attachment.sizeBytes,
-          },
-        });
-        await bumpDockVersion(manager);
-        return toDockAttachment(attachment);
+    return this.db.write(async (manager) => {
+      // Checked again inside the unit: the release may have been received in full meanwhile.
+      assertReceivable(await manager.findOneByOrFail(ReleaseEntity, { id: release.id }));
+      const attachment = await manager.save(
+        manager.create(AttachmentEntity, {
+          releaseId: release.id,
+          receiptId: null,
+          fileName: cleanFileName(file.fileName, type),
+          mimeType: type,
+          sizeBytes: file.buffer.length,
+          storagePath: IN_DATABASE,
+          uploadedBy: actor.email,
+          uploadedAt: new Date().toISOString(),
+        }),
+      );
+      await manager.insert(AttachmentContentEntity, {
+        attachmentId: attachment.id,
+        contentBase64: file.buffer.toString('base64'),
       });
-    } catch (error) {
-      // No row, no file: a failed save must not leave an orphan on disk.
-      await rm(absolutePath, { force: true });
-      throw error;
-    }
+      await recordAudit(manager, {
+        actorEmail: actor.email,
+        action: 'attach',
+        entity: 'release',
+        entityKey: release.number,
+        changes: {
+          attachmentId: attachment.id,
+          fileName: attachment.fileName,
+          mimeType: type,
+          sizeBytes: attachment.sizeBytes,
+        },
+      });
+      await bumpDockVersion(manager);
+      return toDockAttachment(attachment);
+    });
   }
 
-  /** The attachment and its file on disk; 404 when either is gone. */
+  /** The attachment and its bytes; 404 when either is gone. */
   async find(id: number): Promise<StoredAttachment> {
     const attachment = await this.db.manager.findOneBy(AttachmentEntity, { id });
     if (!attachment) throw new NotFoundError(`No attachment with id ${id}.`);
-    const absolutePath = this.locate(attachment.storagePath);
-    const onDisk = await stat(absolutePath).catch(() => null);
-    if (!onDisk?.isFile()) throw new NotFoundError(`The file of attachment ${id} is missing from storage.`);
-    return { attachment: toDockAttachment(attachment), absolutePath };
+    const content =
+      attachment.storagePath === IN_DATABASE
+        ? await this.db.manager.findOneBy(AttachmentContentEntity, { attachmentId: id })
+        : null;
+    const bytes = content
+      ? Buffer.from(content.contentBase64, 'base64')
+      : await readFile(this.locate(attachment.storagePath)).catch(() => null);
+    if (!bytes) throw new NotFoundError(`The file of attachment ${id} is missing from storage.`);
+    return { attachment: toDockAttachment(attachment), content: bytes };
   }
 
   // Stored paths are ours, but a path read back from the database still must not leave the folder.

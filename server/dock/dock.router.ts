@@ -1,5 +1,3 @@
-import { createReadStream } from 'node:fs';
-import { pipeline } from 'node:stream/promises';
 import { Router } from 'express';
 import { z } from 'zod';
 import {
@@ -22,7 +20,7 @@ function inlineDisposition(fileName: string): string {
   return `inline; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(fileName)}`;
 }
 
-/** The receiving board and its packing slips; `attachmentsDir` is where the files are kept. */
+/** The receiving board and its packing slips. */
 export function createDockRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
   const { dock, attachments } = services;
@@ -73,13 +71,13 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
     params: dockAttachmentParamsSchema,
     produces: [...ATTACHMENT_TYPES],
     handler: async ({ params, res }) => {
-      const { attachment, absolutePath } = await attachments.find(params.id);
+      const { attachment, content } = await attachments.find(params.id);
       res.status(200);
       res.setHeader('Content-Type', attachment.mimeType);
       res.setHeader('Content-Length', String(attachment.sizeBytes));
       res.setHeader('Content-Disposition', inlineDisposition(attachment.fileName));
       res.setHeader('Cache-Control', 'private, max-age=3600');
-      await pipeline(createReadStream(absolutePath), res);
+      res.end(content);
       return undefined;
     },
   });

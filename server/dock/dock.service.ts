@@ -20,6 +20,7 @@ import { ReleaseEntity } from '../releases/release.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { bumpDockVersion } from '../settings/versions';
 import type { Database } from '../db/database';
+import { runSql } from '../db/sql';
 
 /** Release states on the board whatever the day: everything still awaited at the dock. */
 const OPEN_STATUSES = DOCK_STATUSES.filter((status) => status !== 'received');
@@ -61,8 +62,9 @@ export class DockService {
   async list(): Promise<DockItem[]> {
     const manager = this.db.manager;
     const now = this.now();
-    const receivedToday: { releaseId: number }[] = await manager.query(
-      `SELECT DISTINCT l.release_id AS releaseId FROM receipt r JOIN release_line l ON l.id = r.release_line_id
+    const receivedToday: { releaseId: number }[] = await runSql(
+      manager,
+      `SELECT DISTINCT l.release_id AS "releaseId" FROM receipt r JOIN release_line l ON l.id = r.release_line_id
        WHERE r.received_at >= ?`,
       [startOfDay(now)],
     );

@@ -61,6 +61,11 @@ export async function alertFrozenWindowShortages(
   lineRisk: LineRiskService,
   appUrl: string,
 ): Promise<string[]> {
+  // One node checks at a time; the others skip this round (the next one is minutes away).
+  return (await db.runAlone('frozen-window-check', () => alertOnce(db, lineRisk, appUrl))) ?? [];
+}
+
+async function alertOnce(db: Database, lineRisk: LineRiskService, appUrl: string): Promise<string[]> {
   // A shortage the normal release covers is no alarm, whatever its date.
   const inWindow = (await lineRisk.shortages()).filter(
     (shortage) => shortage.inFrozenWindow && shortage.action !== 'release',

@@ -25,13 +25,13 @@ export interface LineRiskInputs extends Omit<PlanInputs, 'parts'> {
 }
 
 // The same expected arrival as the plan's; only the firm (confirmed or shipped) lines count here.
-const FIRM_LINES_SQL = `SELECT l.part_number AS partNumber, ${EXPECTED_ARRIVAL} AS date,
+const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL} AS date,
   COALESCE(l.confirmed_qty, l.qty) - l.received_qty AS qty
   FROM release_line l JOIN release r ON r.id = l.release_id
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-const DETAILS_SQL = `SELECT p.part_number AS partNumber, p.hazardous AS hazardous, s.name AS supplierName
+const DETAILS_SQL = `SELECT p.part_number AS "partNumber", p.hazardous AS hazardous, s.name AS "supplierName"
   FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code`;
 
 interface DetailRow {

@@ -115,9 +115,9 @@ export class OutboxService {
 }
 
 /**
- * Hands due notices to the mail server. Each message is first claimed (a conditional update that
- * only one dispatcher can win), so two dispatchers never send the same one; a claim that outlives
- * a crashed dispatcher expires and the message is tried again.
+ * Hands due notices to the mail server. Messages are first claimed, in a unit of work only one
+ * dispatcher can win for each message, so two dispatchers (two nodes) never send the same one; a
+ * claim that outlives a crashed dispatcher expires and the message is tried again.
  */
 export class OutboxDispatcher {
   private readonly transport: Transporter;
@@ -136,18 +136,9 @@ export class OutboxDispatcher {
     if (this.running) return 0;
     this.running = true;
     try {
-      const due = await this.db.manager.find(OutboxMessageEntity, {
-        where: {
-          status: In(['pending', 'failing']),
-          nextAttemptAt: LessThanOrEqual(now.toISOString()),
-          claimedUntil: Or(IsNull(), LessThan(now.toISOString())),
-        },
-        order: { id: 'ASC' },
-        take: BATCH,
-      });
+      const due = await this.claimDue(now);
       let sent = 0;
       for (const message of due) {
-        if (!(await this.claim(message.id, now))) continue;
         if (await this.deliver(message)) sent += 1;
       }
       return sent;
@@ -160,16 +151,33 @@ export class OutboxDispatcher {
     this.transport.close();
   }
 
-  private async claim(id: number, now: Date): Promise<boolean> {
+  /**
+   * Claims a batch of due messages in one unit of work. On PostgreSQL the rows are locked as they
+   * are read, and rows another node is claiming at that moment are skipped (FOR UPDATE SKIP
+   * LOCKED), so two nodes take different messages instead of waiting for each other.
+   */
+  private claimDue(now: Date): Promise<OutboxMessageEntity[]> {
     const until = new Date(now.getTime() + CLAIM_MS).toISOString();
-    const result = await this.db.write((manager) =>
-      manager.update(
-        OutboxMessageEntity,
-        { id, status: Not('sent'), claimedUntil: Or(IsNull(), LessThan(now.toISOString())) },
-        { claimedUntil: until },
-      ),
-    );
-    return result.affected === 1;
+    return this.db.write(async (manager) => {
+      const due = await manager.find(OutboxMessageEntity, {
+        where: {
+          status: In(['pending', 'failing']),
+          nextAttemptAt: LessThanOrEqual(now.toISOString()),
+          claimedUntil: Or(IsNull(), LessThan(now.toISOString())),
+        },
+        order: { id: 'ASC' },
+        take: BATCH,
+        ...(this.db.engine === 'postgres' ? { lock: { mode: 'pessimistic_write', onLocked: 'skip_locked' } } : {}),
+      });
+      if (due.length > 0) {
+        await manager.update(
+          OutboxMessageEntity,
+          { id: In(due.map((message) => message.id)) },
+          { claimedUntil: until },
+        );
+      }
+      return due;
+    });
   }
 
   private async deliver(message: OutboxMessageEntity): Promise<boolean> {

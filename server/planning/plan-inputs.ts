@@ -29,11 +29,11 @@ interface PartRow {
 
 // Raw selects rather than entity hydration: the plan reads every part, line and slot, and this
 // halves the time of a cold plan.
-const PARTS_SQL = `SELECT part_number AS partNumber, description, uom, source, supplier_code AS supplierCode,
-  replenishment, lead_time_days AS leadTimeDays, pack_qty AS packQty, on_hand AS onHand, safety_stock AS safetyStock
+const PARTS_SQL = `SELECT part_number AS "partNumber", description, uom, source, supplier_code AS "supplierCode",
+  replenishment, lead_time_days AS "leadTimeDays", pack_qty AS "packQty", on_hand AS "onHand", safety_stock AS "safetyStock"
   FROM part ORDER BY part_number`;
-const BOM_SQL = `SELECT parent, component, qty_per AS qtyPer, scrap_pct AS scrapPct, effective_from AS effectiveFrom,
-  effective_to AS effectiveTo FROM bom_line`;
+const BOM_SQL = `SELECT parent, component, qty_per AS "qtyPer", scrap_pct AS "scrapPct", effective_from AS "effectiveFrom",
+  effective_to AS "effectiveTo" FROM bom_line`;
 // Built units consumed their parts already (the backflush); only the rest is demand.
 const SEQUENCE_SQL = `SELECT date, sequence, model, serial, qty FROM sequence_entry WHERE status <> 'built'
   ORDER BY date, sequence`;
@@ -47,9 +47,9 @@ const EXPECTED_QTY = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') 
  */
 export const EXPECTED_ARRIVAL = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.arrival_date IS NOT NULL
   THEN l.arrival_date ELSE l.need_date END`;
-const OPEN_LINES_SQL = `SELECT l.part_number AS partNumber, ${EXPECTED_ARRIVAL} AS date, ${EXPECTED_QTY} - l.received_qty AS qty
+const OPEN_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL} AS date, ${EXPECTED_QTY} - l.received_qty AS qty
   FROM release_line l JOIN release r ON r.id = l.release_id
-  WHERE l.closed = 0 AND ${EXPECTED_QTY} > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
+  WHERE NOT l.closed AND ${EXPECTED_QTY} > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
 /** Reads everything the engine needs; the caller runs it in one snapshot (a unit of work). */
 export async function loadPlanInputs(manager: EntityManager): Promise<PlanInputs> {

@@ -43,8 +43,8 @@ export interface DraftLine {
 
 // The loop must be a supplier loop of a bought part still on kanban: a card of a part that moved to
 // scheduled replenishment is left for the buyer to pull, since the plan now orders that part.
-const EMPTY_CARDS_SQL = `SELECT c.id AS cardId, c.card_number AS cardNumber, l.part_number AS partNumber,
-  l.container_qty AS containerQty, p.supplier_code AS supplierCode, p.lead_time_days AS leadTimeDays
+const EMPTY_CARDS_SQL = `SELECT c.id AS "cardId", c.card_number AS "cardNumber", l.part_number AS "partNumber",
+  l.container_qty AS "containerQty", p.supplier_code AS "supplierCode", p.lead_time_days AS "leadTimeDays"
   FROM kanban_card c JOIN kanban_loop l ON l.id = c.loop_id
   JOIN part p ON p.part_number = l.part_number JOIN supplier s ON s.code = p.supplier_code
   WHERE c.state = 'empty' AND c.retired_at IS NULL AND l.kind = 'supplier' AND p.source = 'buy' AND p.replenishment = 'kanban'

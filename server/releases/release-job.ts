@@ -41,25 +41,29 @@ export class ReleaseJob {
     if (this.busy || now.getTime() - this.failedAt < RETRY_AFTER_MS) return null;
     this.busy = true;
     try {
-      const manager = this.db.manager;
-      const today = plantToday(now);
-      const markRun = () => this.db.write((work) => writeSetting(work, RELEASE_JOB_LAST_RUN, today));
-      const jobTime = await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME);
-      const lastRun = await readSetting<string | null>(manager, RELEASE_JOB_LAST_RUN, null);
-      if (plantClock(now) < jobTime || (lastRun !== null && lastRun >= today)) return null;
-      if (lastRun === null) {
-        await markRun();
-        return null;
-      }
-      if (!isWorkingDay(today, await readCalendar(manager))) return null;
-      const result = await this.releases.run(today, null);
-      await markRun();
-      return result;
+      return await this.db.runAlone('release-job', () => this.runIfDue(now));
     } catch (error) {
       this.failedAt = now.getTime();
       throw error;
     } finally {
       this.busy = false;
     }
+  }
+
+  private async runIfDue(now: Date): Promise<RunReleasesResponse | null> {
+    const manager = this.db.manager;
+    const today = plantToday(now);
+    const markRun = () => this.db.write((work) => writeSetting(work, RELEASE_JOB_LAST_RUN, today));
+    const jobTime = await readSetting<string>(manager, RELEASE_JOB_TIME, DEFAULT_RELEASE_JOB_TIME);
+    const lastRun = await readSetting<string | null>(manager, RELEASE_JOB_LAST_RUN, null);
+    if (plantClock(now) < jobTime || (lastRun !== null && lastRun >= today)) return null;
+    if (lastRun === null) {
+      await markRun();
+      return null;
+    }
+    if (!isWorkingDay(today, await readCalendar(manager))) return null;
+    const result = await this.releases.run(today, null);
+    await markRun();
+    return result;
   }
 }

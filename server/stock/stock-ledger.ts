@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { QTY_EPSILON, roundQty } from '../../shared/domain/quantity';
 import type { StockMovementKind } from '../../shared/schemas/stock';
 import { chunks } from '../db/upsert';
+import { forUpdate, runSql } from '../db/sql';
 import { ConflictError } from '../errors';
 import { bumpPlanningVersion } from '../settings/versions';
 
@@ -38,8 +39,10 @@ async function readOnHand(
 ): Promise<Map<string, { id: number; onHand: number }>> {
   const found = new Map<string, { id: number; onHand: number }>();
   for (const chunk of chunks(partNumbers)) {
-    const rows: { id: number; partNumber: string; onHand: number }[] = await manager.query(
-      `SELECT id, part_number AS "partNumber", on_hand AS "onHand" FROM "part" WHERE part_number IN (${chunk.map(() => '?').join(', ')})`,
+    // Locked until the unit commits: a concurrent movement of the same part waits, then reads the new balance.
+    const rows: { id: number; partNumber: string; onHand: number }[] = await runSql(
+      manager,
+      `SELECT id, part_number AS "partNumber", on_hand AS "onHand" FROM "part" WHERE part_number IN (${chunk.map(() => '?').join(', ')}) ORDER BY id${forUpdate(manager)}`,
       chunk,
     );
     for (const row of rows) found.set(row.partNumber, { id: Number(row.id), onHand: Number(row.onHand) });
@@ -84,7 +87,8 @@ export async function postMovements(
   });
 
   for (const chunk of chunks(posted, ROWS_PER_INSERT)) {
-    await manager.query(
+    await runSql(
+      manager,
       `INSERT INTO "stock_movement" ("part_number", "qty", "kind", "at", "user_email", "reason", "ref_type", "ref", "balance_after")
        VALUES ${chunk.map(() => '(?, ?, ?, ?, ?, ?, ?, ?, ?)').join(', ')}`,
       chunk.flatMap((row) => [
@@ -102,8 +106,9 @@ export async function postMovements(
   }
   const changed = [...parts].filter(([partNumber, part]) => balance.get(partNumber) !== part.onHand);
   for (const chunk of chunks(changed, ROWS_PER_INSERT)) {
-    await manager.query(
-      `UPDATE "part" SET "on_hand" = CASE "id" ${chunk.map(() => 'WHEN ? THEN ?').join(' ')} END
+    await runSql(
+      manager,
+      `UPDATE "part" SET "on_hand" = CASE "id" ${chunk.map(() => 'WHEN ? THEN CAST(? AS double precision)').join(' ')} END
        WHERE "id" IN (${chunk.map(() => '?').join(', ')})`,
       [
         ...chunk.flatMap(([partNumber, part]) => [part.id, balance.get(partNumber)!]),
@@ -115,7 +120,8 @@ export async function postMovements(
     ...new Set(wanted.filter((movement) => movement.kind === 'count').map((movement) => movement.partNumber)),
   ];
   for (const chunk of chunks(counted)) {
-    await manager.query(
+    await runSql(
+      manager,
       `UPDATE "part" SET "last_counted_at" = ? WHERE part_number IN (${chunk.map(() => '?').join(', ')})`,
       [at, ...chunk],
     );

@@ -26,8 +26,8 @@ export const DEFAULT_COUNT_INTERVAL_DAYS = 90;
 export const COUNT_INTERVAL = 'stock.countIntervalDays';
 
 // A part never counted is judged from its first movement: opening stock counts as its first count.
-const COUNTED_SQL = `SELECT p.part_number AS partNumber, p.source AS source,
-  COALESCE(p.last_counted_at, (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number)) AS countedAt
+const COUNTED_SQL = `SELECT p.part_number AS "partNumber", p.source AS source,
+  COALESCE(p.last_counted_at, (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number)) AS "countedAt"
   FROM part p`;
 
 /**

@@ -63,13 +63,11 @@ export class SupplierPerformanceService {
     const lineQuery = manager
       .createQueryBuilder(ReleaseLineEntity, 'line')
       .innerJoin(ReleaseEntity, 'release', 'release.id = line.releaseId')
-      .select([
-        'line.id AS id',
-        'line.releaseId AS releaseId',
-        'line.qty AS qty',
-        'line.confirmedQty AS confirmedQty',
-        'line.needDate AS needDate',
-      ])
+      .select('line.id', 'id')
+      .addSelect('line.releaseId', 'releaseId')
+      .addSelect('line.qty', 'qty')
+      .addSelect('line.confirmedQty', 'confirmedQty')
+      .addSelect('line.needDate', 'needDate')
       .addSelect('release.supplierCode', 'supplierCode')
       .where('release.status != :cancelled', { cancelled: 'cancelled' })
       .andWhere('line.needDate BETWEEN :first AND :last', { first: firstDayOf(from), last: lastDayOf(to) })
@@ -127,11 +125,9 @@ export class SupplierPerformanceService {
       const found = await this.db.manager
         .createQueryBuilder(ReleaseEntity, 'release')
         .innerJoin(ReleaseLineEntity, 'line', 'line.releaseId = release.id')
-        .select([
-          'release.supplierCode AS supplierCode',
-          'release.sentAt AS sentAt',
-          'release.confirmedAt AS confirmedAt',
-        ])
+        .select('release.supplierCode', 'supplierCode')
+        .addSelect('release.sentAt', 'sentAt')
+        .addSelect('release.confirmedAt', 'confirmedAt')
         .addSelect('MIN(line.needDate)', 'firstNeedDate')
         .where('release.id IN (:...ids)', { ids: chunk })
         .groupBy('release.id')

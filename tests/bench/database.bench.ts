@@ -4,6 +4,7 @@ import { pathToFileURL } from 'node:url';
 import { createApp } from '../../server/app';
 import { sessionExpiry, signSessionToken } from '../../server/auth/tokens';
 import { openDatabase, type Database } from '../../server/db/database';
+import { runSql } from '../../server/db/sql';
 import { loadPlanInputs } from '../../server/planning/plan-inputs';
 import { openSession } from '../../server/users/sessions';
 import { UserEntity } from '../../server/users/user.entity';
@@ -31,7 +32,7 @@ const API_RUNS = 30;
 // effectivity checked at that date, scrap applied. Less work than the engine does.
 export const RECURSIVE_EXPLOSION = `
 WITH RECURSIVE demand(part, date, qty) AS (
-  SELECT model, date, SUM(qty) FROM sequence_entry WHERE date BETWEEN ? AND ? GROUP BY model, date
+  SELECT model, date, CAST(SUM(qty) AS double precision) FROM sequence_entry WHERE date BETWEEN ? AND ? GROUP BY model, date
   UNION ALL
   SELECT b.component, d.date, d.qty * b.qty_per * (1 + b.scrap_pct / 100.0)
   FROM demand d JOIN bom_line b ON b.parent = d.part
@@ -41,6 +42,7 @@ WITH RECURSIVE demand(part, date, qty) AS (
 SELECT part, date, SUM(qty) AS qty FROM demand GROUP BY part, date`;
 
 export interface DatabaseBenchFigures {
+  engine: string;
   sqlExplosionMedianMs: number;
   sqlRows: number;
   enginePlanMedianMs: number;
@@ -71,7 +73,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   let sqlRows = 0;
   for (let run = 0; run < RUNS + 1; run += 1) {
     const start = performance.now();
-    const rows = await db.manager.query(RECURSIVE_EXPLOSION, [fixture.from, fixture.to]);
+    const rows = await runSql<unknown[]>(db.manager, RECURSIVE_EXPLOSION, [fixture.from, fixture.to]);
     if (run > 0) sqlSamples.push(performance.now() - start);
     sqlRows = rows.length;
   }
@@ -112,6 +114,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
   const sqlMedian = median(sqlSamples);
   const engineMedian = median(engineSamples);
   return {
+    engine: db.engine === 'postgres' ? 'PostgreSQL' : 'SQLite',
     sqlExplosionMedianMs: sqlMedian,
     sqlRows,
     enginePlanMedianMs: engineMedian,
@@ -127,7 +130,7 @@ export async function runDatabaseBench(): Promise<DatabaseBenchFigures> {
 export function printDatabaseBench(figures: DatabaseBenchFigures): void {
   const ms = (value: number) => `${value.toFixed(2)} ms`;
   console.log(
-    `recursive SQL explosion (SQLite)  median ${ms(figures.sqlExplosionMedianMs)}  (${figures.sqlRows} part-days, explosion only)`,
+    `recursive SQL explosion (${figures.engine})  median ${ms(figures.sqlExplosionMedianMs)}  (${figures.sqlRows} part-days, explosion only)`,
   );
   console.log(
     `computePlan on the same rows      median ${ms(figures.enginePlanMedianMs)}  (explosion + offsets + netting)`,

@@ -4,6 +4,7 @@ import { printDatabaseBench, runDatabaseBench } from './database.bench';
 import { runPlanBench } from './plan.bench';
 import { runScaleBench } from './scale.bench';
 import { printWhatIfBench, runWhatIfBench } from './what-if.bench';
+import { printReceiptsBench, runReceiptsBench } from './receipts.bench';
 
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
 // `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size;
@@ -30,9 +31,23 @@ if (!scales) {
   console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}  p90 ${ms(plan.floorP90Ms)}`);
   console.log(`engine / floor                     ${(plan.medianMs / plan.floorMedianMs).toFixed(1)}×`);
   console.log('');
-  printDatabaseBench(await runDatabaseBench());
-  console.log('');
-  printCloseDayBench(await runCloseDayBench());
+  // The database figures on SQLite, then on PostgreSQL when BENCH_DATABASE_URL (or TEST_DATABASE_URL)
+  // names a server the bench may create throw-away databases on.
+  const postgresServer = process.env.BENCH_DATABASE_URL ?? process.env.TEST_DATABASE_URL;
+  for (const engine of ['SQLite', 'PostgreSQL']) {
+    if (engine === 'PostgreSQL') {
+      if (!postgresServer) {
+        console.log('\nPostgreSQL figures skipped: set BENCH_DATABASE_URL to a PostgreSQL server.');
+        break;
+      }
+      process.env.SCRATCH_DATABASE_URL = postgresServer;
+    }
+    console.log(`\n— ${engine} —`);
+    printDatabaseBench(await runDatabaseBench());
+    printCloseDayBench(await runCloseDayBench());
+    printReceiptsBench(await runReceiptsBench(1));
+    if (engine === 'PostgreSQL') printReceiptsBench(await runReceiptsBench(2));
+  }
   console.log('');
   printWhatIfBench(await runWhatIfBench());
 }

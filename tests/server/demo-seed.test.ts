@@ -3,6 +3,7 @@ import { openDatabase, type Database } from '../../server/db/database';
 import { plantToday } from '../../server/planning/plan-dates';
 import { HISTORY_DAYS } from '../../seed/scenario';
 import { seedDemoScenario } from '../../seed/seed-demo';
+import { runSql } from '../../server/db/sql';
 
 let db: Database;
 beforeAll(async () => {
@@ -30,11 +31,13 @@ describe('the seeded demo plant', () => {
   });
 
   it('leaves every unit from today on planned', async () => {
-    const early: { n: number }[] = await db.manager.query(
+    const early: { n: number }[] = await runSql(
+      db.manager,
       "SELECT COUNT(*) AS n FROM sequence_entry WHERE status <> 'built' AND date < ?",
       [plantToday()],
     );
-    const late: { n: number }[] = await db.manager.query(
+    const late: { n: number }[] = await runSql(
+      db.manager,
       "SELECT COUNT(*) AS n FROM sequence_entry WHERE status = 'built' AND date >= ?",
       [plantToday()],
     );

@@ -1,4 +1,4 @@
-import { mkdtemp, readdir, rm } from 'node:fs/promises';
+import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { get, type IncomingMessage } from 'node:http';
 import type { AddressInfo, Server } from 'node:net';
 import { tmpdir } from 'node:os';
@@ -6,6 +6,8 @@ import { join } from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
+import { AttachmentEntity } from '../../server/dock/attachment.entity';
+import { AttachmentContentEntity } from '../../server/dock/attachment-content.entity';
 import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
@@ -339,12 +341,43 @@ describe('packing-slip attachments', () => {
       uploadedBy: 'receiving@example.com',
     });
     expect(item?.attachments.map((attachment) => attachment.fileName)).toEqual(['slip photo.png']);
-    expect(await readdir(join(attachmentsDir, String(release.id)))).toEqual([
-      expect.stringMatching(/^[0-9a-f]{32}\.png$/),
-    ]);
+    // Kept in the database, so every app node serves it: the stored bytes are the uploaded ones.
+    const stored = await context.dataSource
+      .getRepository(AttachmentContentEntity)
+      .findOneByOrFail({ attachmentId: uploaded.body.id });
+    expect(Buffer.compare(Buffer.from(stored.contentBase64, 'base64'), PNG)).toBe(0);
     expect(downloaded.status).toBe(200);
     expect(downloaded.headers['content-type']).toBe('image/png');
     expect(downloaded.headers['content-disposition']).toMatch(/^inline; filename="slip photo.png"/);
+    expect(Buffer.compare(downloaded.body as Buffer, PNG)).toBe(0);
+  });
+
+  it('still serves a slip stored on disk before slips moved into the database', async () => {
+    const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
+    await mkdir(join(attachmentsDir, String(release.id)), { recursive: true });
+    await writeFile(join(attachmentsDir, String(release.id), 'old-slip.png'), PNG);
+    const legacy = await context.dataSource.getRepository(AttachmentEntity).save({
+      releaseId: release.id,
+      receiptId: null,
+      fileName: 'old slip.png',
+      mimeType: 'image/png',
+      sizeBytes: PNG.length,
+      storagePath: `${release.id}/old-slip.png`,
+      uploadedBy: 'receiving@example.com',
+      uploadedAt: new Date().toISOString(),
+    });
+
+    const downloaded = await request(context.app)
+      .get(`/api/dock/attachments/${legacy.id}`)
+      .set(bearer(context.tokens.viewer))
+      .buffer(true)
+      .parse((response, done) => {
+        const chunks: Buffer[] = [];
+        response.on('data', (chunk: Buffer) => chunks.push(chunk));
+        response.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+
+    expect(downloaded.status).toBe(200);
     expect(Buffer.compare(downloaded.body as Buffer, PNG)).toBe(0);
   });
 
@@ -377,12 +410,14 @@ describe('packing-slip attachments', () => {
     'refuses a packing slip on a %s release (409) and stores nothing',
     async (status) => {
       const { release } = await makeRelease(status, [{ partNumber: 'BRUSH-20', qty: 1, closed: true }]);
+      const contentsBefore = await context.dataSource.getRepository(AttachmentContentEntity).count();
 
       const response = await upload(release.id, PNG, 'late slip.png');
 
       expect(response.status).toBe(409);
       expect(response.body.error.code).toBe('not_receivable');
-      expect(await readdir(join(attachmentsDir, String(release.id))).catch(() => [])).toEqual([]);
+      expect(await context.dataSource.getRepository(AttachmentEntity).countBy({ releaseId: release.id })).toBe(0);
+      expect(await context.dataSource.getRepository(AttachmentContentEntity).count()).toBe(contentsBefore);
     },
   );
 

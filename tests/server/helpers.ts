@@ -72,6 +72,23 @@ export async function createTestContext(options: Partial<AppOptions> = {}): Prom
   return { app, db, services, dataSource, tokens, close: () => db.close() };
 }
 
+/** True when this run's throw-away databases are PostgreSQL (the `server-postgres` project). */
+export const onPostgres = Boolean(process.env.SCRATCH_DATABASE_URL);
+
+/**
+ * A second app node over the database of `first` (PostgreSQL only: one SQLite file is served by
+ * one process): its own connections, change listener, services and app; the same users and tokens.
+ */
+export async function secondNode(first: TestContext, options: Partial<AppOptions> = {}): Promise<TestContext> {
+  const url = (first.db.dataSource.options as { url?: string }).url;
+  if (first.db.engine !== 'postgres' || !url) throw new Error('a second node needs a PostgreSQL database');
+  const db = await openDatabase(url);
+  const appOptions = { jwtSecret: TEST_SECRET, loginAccountLimit: 5, ...options };
+  const services = createServices(db, appOptions);
+  const app = createApp(db, appOptions, services);
+  return { app, db, services, dataSource: db.dataSource, tokens: first.tokens, close: () => db.close() };
+}
+
 export async function signIn(app: Express, email: string, password: string): Promise<string> {
   const response = await request(app).post('/api/auth/login').send({ email, password });
   if (response.status !== 200) throw new Error(`sign-in of ${email} failed: ${response.status}`);

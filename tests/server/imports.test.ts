@@ -418,7 +418,7 @@ describe('POST /api/imports/bom', () => {
   const linesOf = (parent: string) =>
     context.dataSource
       .getRepository(BomLineEntity)
-      .find({ where: { parent }, order: { component: 'ASC', effectiveFrom: 'ASC' } });
+      .find({ where: { parent }, order: { component: 'ASC', effectiveFrom: { direction: 'ASC', nulls: 'FIRST' } } });
 
   beforeAll(async () => {
     context = await createTestContext();

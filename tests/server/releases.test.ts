@@ -21,6 +21,7 @@ import { releaseNumber } from '../../shared/domain/release-rules';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { runSql } from '../../server/db/sql';
 
 const APP_URL = 'https://cardloop.example.com';
 
@@ -365,7 +366,7 @@ describe('POST /api/releases/:number/cancel', () => {
 
   it('refuses once anything was received', async () => {
     const release = firstRun.releases[0];
-    await context.dataSource.manager.query('UPDATE release_line SET received_qty = 5 WHERE id = ?', [
+    await runSql(context.dataSource.manager, 'UPDATE release_line SET received_qty = 5 WHERE id = ?', [
       release.lines[0].id,
     ]);
 
@@ -374,7 +375,7 @@ describe('POST /api/releases/:number/cancel', () => {
       .set(bearer(context.tokens.admin));
 
     expect(response.status).toBe(409);
-    await context.dataSource.manager.query('UPDATE release_line SET received_qty = 0 WHERE id = ?', [
+    await runSql(context.dataSource.manager, 'UPDATE release_line SET received_qty = 0 WHERE id = ?', [
       release.lines[0].id,
     ]);
   });
@@ -449,7 +450,7 @@ describe('ReleaseJob', () => {
       context.db,
       new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL }),
     );
-    await context.dataSource.manager.query('DELETE FROM setting WHERE key = ?', [RELEASE_JOB_LAST_RUN]);
+    await runSql(context.dataSource.manager, 'DELETE FROM setting WHERE key = ?', [RELEASE_JOB_LAST_RUN]);
 
     const first = await job.tick(at('2027-03-04', '10:00'));
 

@@ -7,6 +7,7 @@ import { plantToday } from '../../server/planning/plan-dates';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { runSql } from '../../server/db/sql';
 
 let context: TestContext;
 const today = plantToday();
@@ -116,7 +117,7 @@ describe('the stock ledger', () => {
     // Counted 91 days ago: one day past the default 90-day interval.
     const longAgo = new Date(Date.now() - 91 * 86_400_000).toISOString();
     await context.db.write((manager) =>
-      manager.query('UPDATE part SET last_counted_at = ? WHERE part_number = ?', [longAgo, 'GLUE']),
+      runSql(manager, 'UPDATE part SET last_counted_at = ? WHERE part_number = ?', [longAgo, 'GLUE']),
     );
 
     const list = await request(context.app).get('/api/stock').set(bearer(context.tokens.viewer));

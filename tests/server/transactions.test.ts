@@ -11,7 +11,7 @@ afterAll(() => db.close());
 
 const pause = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
-describe('units of work on the SQLite database', () => {
+describe('units of work', () => {
   it('runs write units begun at the same moment one after another, losing no update', async () => {
     const before = await readPlanningVersion(db.manager);
 
@@ -80,9 +80,9 @@ describe('units of work on the SQLite database', () => {
 
   it('refuses a write inside a read unit, and a write outside any unit', async () => {
     const inRead = db.read(() => db.write((manager) => manager.save(SettingEntity, { key: 'x', value: 1 })));
-    const stray = db.manager.save(SettingEntity, { key: 'stray', value: 1 });
-
     await expect(inRead).rejects.toBeInstanceOf(ReadOnlyUnitError);
+
+    const stray = db.manager.save(SettingEntity, { key: 'stray', value: 1 });
     await expect(stray).rejects.toThrow(/readonly|read-only|query_only/i);
   });
 });

@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { bearer, createTestContext, signIn, type TestContext } from './helpers';
+import { runSql } from '../../server/db/sql';
 
 let context: TestContext;
 beforeAll(async () => {
@@ -17,9 +18,11 @@ describe('/api/users', () => {
 
     expect(created.status).toBe(201);
     expect(created.body).toMatchObject({ email: 'new.planner@example.org', role: 'planner', active: true });
-    const [row] = await context.dataSource.query('SELECT password_hash FROM "user" WHERE email = ?', [
-      'new.planner@example.org',
-    ]);
+    const [row] = await runSql<{ password_hash: string }[]>(
+      context.dataSource.manager,
+      'SELECT password_hash FROM "user" WHERE email = ?',
+      ['new.planner@example.org'],
+    );
     expect(row.password_hash).toMatch(/^\$argon2id\$/);
     await expect(signIn(context.app, 'new.planner@example.org', 'planner-password-1')).resolves.toEqual(
       expect.any(String),

@@ -1,134 +1,344 @@
-import type { MigrationInterface, QueryRunner } from 'typeorm';
+import { Table, TableIndex, type MigrationInterface, type QueryRunner } from 'typeorm';
 
-/** The whole first schema: master data, sequence, calendar, kanban, releases, receiving, mail, audit. */
+/**
+ * The whole first schema: master data, sequence, calendar, kanban, releases, receiving, mail, audit.
+ * Written with the Table API so each engine gets its own DDL (SQLite's AUTOINCREMENT, PostgreSQL's
+ * sequences) from this one description; on SQLite it makes the same tables and indexes as the raw
+ * SQL it replaced, so databases migrated before are unaffected.
+ */
 export class InitialSchema1764626400000 implements MigrationInterface {
   name = 'InitialSchema1764626400000';
 
   async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(
-      'CREATE TABLE "audit_event" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "at" varchar(30) NOT NULL, "actor_email" varchar(254), "action" varchar(30) NOT NULL, "entity" varchar(40) NOT NULL, "entity_key" varchar(80) NOT NULL, "changes" text)',
+    // The type and default the engine gives a creation timestamp (SQLite: datetime('now'), PostgreSQL: now()).
+    const createDateType = queryRunner.connection.driver.mappedDataTypes.createDate as string;
+    const createDateDefault = queryRunner.connection.driver.mappedDataTypes.createDateDefault;
+    await queryRunner.createTable(
+      new Table({
+        name: 'audit_event',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'at', type: 'varchar', length: '30' },
+          { name: 'actor_email', type: 'varchar', length: '254', isNullable: true },
+          { name: 'action', type: 'varchar', length: '30' },
+          { name: 'entity', type: 'varchar', length: '40' },
+          { name: 'entity_key', type: 'varchar', length: '80' },
+          { name: 'changes', type: 'text', isNullable: true },
+        ],
+        indices: [new TableIndex({ name: 'IDX_4cf52b7d3b370111cfe3ab0efe', columnNames: ['entity', 'entity_key'] })],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_4cf52b7d3b370111cfe3ab0efe" ON "audit_event" ("entity", "entity_key") ');
-    await queryRunner.query(
-      'CREATE TABLE "bom_line" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "parent" varchar(40) NOT NULL, "component" varchar(40) NOT NULL, "qty_per" double precision NOT NULL, "scrap_pct" double precision NOT NULL DEFAULT (0), "effective_from" varchar(10), "effective_to" varchar(10))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'bom_line',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'parent', type: 'varchar', length: '40' },
+          { name: 'component', type: 'varchar', length: '40' },
+          { name: 'qty_per', type: 'double precision' },
+          { name: 'scrap_pct', type: 'double precision', default: 0 },
+          { name: 'effective_from', type: 'varchar', length: '10', isNullable: true },
+          { name: 'effective_to', type: 'varchar', length: '10', isNullable: true },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_bbb5c56a8048760cf098b878e4', columnNames: ['parent'] }),
+          new TableIndex({
+            name: 'IDX_feae85fe2d4a2103c9ab395f56',
+            columnNames: ['parent', 'component', 'effective_from'],
+            isUnique: true,
+          }),
+        ],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_bbb5c56a8048760cf098b878e4" ON "bom_line" ("parent") ');
-    await queryRunner.query(
-      'CREATE UNIQUE INDEX "IDX_feae85fe2d4a2103c9ab395f56" ON "bom_line" ("parent", "component", "effective_from") ',
+    await queryRunner.createTable(
+      new Table({
+        name: 'plant_holiday',
+        columns: [
+          { name: 'date', type: 'varchar', length: '10', isPrimary: true },
+          { name: 'name', type: 'varchar', length: '80', default: "''" },
+        ],
+      }),
     );
-    await queryRunner.query(
-      'CREATE TABLE "plant_holiday" ("date" varchar(10) PRIMARY KEY NOT NULL, "name" varchar(80) NOT NULL DEFAULT (\'\'))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'confirmation_token',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'release_id', type: 'integer' },
+          { name: 'token_hash', type: 'varchar', length: '64' },
+          { name: 'expires_at', type: 'varchar', length: '30' },
+          { name: 'used_at', type: 'varchar', length: '30', isNullable: true },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_731b377c510eb07390927e3977', columnNames: ['release_id'] }),
+          new TableIndex({ name: 'IDX_9d0bd0030fcbb63f0cb008c22c', columnNames: ['token_hash'], isUnique: true }),
+        ],
+      }),
     );
-    await queryRunner.query(
-      'CREATE TABLE "confirmation_token" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "release_id" integer NOT NULL, "token_hash" varchar(64) NOT NULL, "expires_at" varchar(30) NOT NULL, "used_at" varchar(30))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'card_scan',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'card_id', type: 'integer' },
+          { name: 'event', type: 'varchar', length: '10' },
+          { name: 'from_state', type: 'varchar', length: '10' },
+          { name: 'to_state', type: 'varchar', length: '10' },
+          { name: 'user_email', type: 'varchar', length: '254', isNullable: true },
+          { name: 'scanned_at', type: 'varchar', length: '30' },
+        ],
+        indices: [new TableIndex({ name: 'IDX_968af45fcf22487d7252fac9e0', columnNames: ['card_id'] })],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_731b377c510eb07390927e3977" ON "confirmation_token" ("release_id") ');
-    await queryRunner.query(
-      'CREATE UNIQUE INDEX "IDX_9d0bd0030fcbb63f0cb008c22c" ON "confirmation_token" ("token_hash") ',
+    await queryRunner.createTable(
+      new Table({
+        name: 'kanban_card',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'loop_id', type: 'integer' },
+          { name: 'card_index', type: 'integer' },
+          { name: 'card_number', type: 'varchar', length: '20' },
+          { name: 'state', type: 'varchar', length: '10', default: "'full'" },
+          { name: 'state_changed_at', type: 'varchar', length: '30' },
+          { name: 'retired_at', type: 'varchar', length: '30', isNullable: true },
+          { name: 'release_line_id', type: 'integer', isNullable: true },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_a2b5a55fcd5f3feb5e4cf3768b', columnNames: ['card_number'], isUnique: true }),
+          new TableIndex({
+            name: 'IDX_4f11cd6bbf653c6a3c7d630745',
+            columnNames: ['loop_id', 'card_index'],
+            isUnique: true,
+          }),
+        ],
+      }),
     );
-    await queryRunner.query(
-      'CREATE TABLE "card_scan" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "card_id" integer NOT NULL, "event" varchar(10) NOT NULL, "from_state" varchar(10) NOT NULL, "to_state" varchar(10) NOT NULL, "user_email" varchar(254), "scanned_at" varchar(30) NOT NULL)',
+    await queryRunner.createTable(
+      new Table({
+        name: 'kanban_loop',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'part_number', type: 'varchar', length: '40' },
+          { name: 'kind', type: 'varchar', length: '12', default: "'supplier'" },
+          { name: 'container_qty', type: 'double precision' },
+          { name: 'safety_factor', type: 'double precision', default: 0 },
+          { name: 'safety_days', type: 'double precision', default: 0 },
+          { name: 'safety_units', type: 'double precision', default: 0 },
+          { name: 'sizing_window_days', type: 'integer', default: 20 },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_ce4f4970e46db3c9ffdaca0326', columnNames: ['part_number'], isUnique: true }),
+        ],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_968af45fcf22487d7252fac9e0" ON "card_scan" ("card_id") ');
-    await queryRunner.query(
-      'CREATE TABLE "kanban_card" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "loop_id" integer NOT NULL, "card_index" integer NOT NULL, "card_number" varchar(20) NOT NULL, "state" varchar(10) NOT NULL DEFAULT (\'full\'), "state_changed_at" varchar(30) NOT NULL, "retired_at" varchar(30), "release_line_id" integer)',
+    await queryRunner.createTable(
+      new Table({
+        name: 'outbox_message',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'to_address', type: 'varchar', length: '254' },
+          { name: 'subject', type: 'varchar', length: '250' },
+          { name: 'text', type: 'text' },
+          { name: 'html', type: 'text', isNullable: true },
+          { name: 'attachments', type: 'text', isNullable: true },
+          { name: 'status', type: 'varchar', length: '10', default: "'pending'" },
+          { name: 'attempts', type: 'integer', default: 0 },
+          { name: 'next_attempt_at', type: 'varchar', length: '30' },
+          { name: 'last_error', type: 'text', isNullable: true },
+          { name: 'created_at', type: 'varchar', length: '30' },
+          { name: 'sent_at', type: 'varchar', length: '30', isNullable: true },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_3e1d188faf16b1e79c1c4ef3e1', columnNames: ['status', 'next_attempt_at'] }),
+        ],
+      }),
     );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_a2b5a55fcd5f3feb5e4cf3768b" ON "kanban_card" ("card_number") ');
-    await queryRunner.query(
-      'CREATE UNIQUE INDEX "IDX_4f11cd6bbf653c6a3c7d630745" ON "kanban_card" ("loop_id", "card_index") ',
+    await queryRunner.createTable(
+      new Table({
+        name: 'part',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'part_number', type: 'varchar', length: '40' },
+          { name: 'description', type: 'varchar', length: '200' },
+          { name: 'uom', type: 'varchar', length: '3', default: "'H87'" },
+          { name: 'source', type: 'varchar', length: '10' },
+          { name: 'supplier_code', type: 'varchar', length: '20', isNullable: true },
+          { name: 'lead_time_days', type: 'integer', default: 0 },
+          { name: 'pack_qty', type: 'double precision', default: 1 },
+          { name: 'on_hand', type: 'double precision', default: 0 },
+          { name: 'replenishment', type: 'varchar', length: '10', isNullable: true },
+          { name: 'safety_stock', type: 'double precision', default: 0 },
+          { name: 'point_of_use', type: 'varchar', length: '40', isNullable: true },
+          { name: 'hazardous', type: 'boolean', default: false },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_db89cbe876fb4aebe0f563683b', columnNames: ['part_number'], isUnique: true }),
+          new TableIndex({ name: 'IDX_e05f219539ad60724813a96ea1', columnNames: ['supplier_code'] }),
+        ],
+      }),
     );
-    await queryRunner.query(
-      'CREATE TABLE "kanban_loop" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "part_number" varchar(40) NOT NULL, "kind" varchar(12) NOT NULL DEFAULT (\'supplier\'), "container_qty" double precision NOT NULL, "safety_factor" double precision NOT NULL DEFAULT (0), "safety_days" double precision NOT NULL DEFAULT (0), "safety_units" double precision NOT NULL DEFAULT (0), "sizing_window_days" integer NOT NULL DEFAULT (20))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'attachment',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'release_id', type: 'integer' },
+          { name: 'receipt_id', type: 'integer', isNullable: true },
+          { name: 'file_name', type: 'varchar', length: '200' },
+          { name: 'mime_type', type: 'varchar', length: '100' },
+          { name: 'size_bytes', type: 'integer' },
+          { name: 'storage_path', type: 'varchar', length: '300' },
+          { name: 'uploaded_by', type: 'varchar', length: '254' },
+          { name: 'uploaded_at', type: 'varchar', length: '30' },
+        ],
+        indices: [new TableIndex({ name: 'IDX_60ed56abac5617c65762442ec9', columnNames: ['release_id'] })],
+      }),
     );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_ce4f4970e46db3c9ffdaca0326" ON "kanban_loop" ("part_number") ');
-    await queryRunner.query(
-      'CREATE TABLE "outbox_message" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "to_address" varchar(254) NOT NULL, "subject" varchar(250) NOT NULL, "text" text NOT NULL, "html" text, "attachments" text, "status" varchar(10) NOT NULL DEFAULT (\'pending\'), "attempts" integer NOT NULL DEFAULT (0), "next_attempt_at" varchar(30) NOT NULL, "last_error" text, "created_at" varchar(30) NOT NULL, "sent_at" varchar(30))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'receipt',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'release_line_id', type: 'integer' },
+          { name: 'qty', type: 'double precision' },
+          { name: 'discrepancy', type: 'varchar', length: '12', isNullable: true },
+          { name: 'note', type: 'text', isNullable: true },
+          { name: 'idempotency_key', type: 'varchar', length: '100' },
+          { name: 'on_hand_after', type: 'double precision' },
+          { name: 'user_email', type: 'varchar', length: '254' },
+          { name: 'received_at', type: 'varchar', length: '30' },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_3475bdc1138b1755bb88399c75', columnNames: ['release_line_id'] }),
+          new TableIndex({ name: 'IDX_bb0c03014ad0373feeaa268770', columnNames: ['idempotency_key'], isUnique: true }),
+        ],
+      }),
     );
-    await queryRunner.query(
-      'CREATE INDEX "IDX_3e1d188faf16b1e79c1c4ef3e1" ON "outbox_message" ("status", "next_attempt_at") ',
+    await queryRunner.createTable(
+      new Table({
+        name: 'release_line',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'release_id', type: 'integer' },
+          { name: 'part_number', type: 'varchar', length: '40' },
+          { name: 'qty', type: 'double precision' },
+          { name: 'need_date', type: 'varchar', length: '10' },
+          { name: 'origin', type: 'varchar', length: '10' },
+          { name: 'card_id', type: 'integer', isNullable: true },
+          { name: 'confirmed_qty', type: 'double precision', isNullable: true },
+          { name: 'ship_date', type: 'varchar', length: '10', isNullable: true },
+          { name: 'received_qty', type: 'double precision', default: 0 },
+          { name: 'closed', type: 'boolean', default: false },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_f042f1a9c0e300eca953c6dcfd', columnNames: ['release_id'] }),
+          new TableIndex({ name: 'IDX_6634ee8a6522847e989b69fc87', columnNames: ['part_number'] }),
+        ],
+      }),
     );
-    await queryRunner.query(
-      'CREATE TABLE "part" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "part_number" varchar(40) NOT NULL, "description" varchar(200) NOT NULL, "uom" varchar(3) NOT NULL DEFAULT (\'H87\'), "source" varchar(10) NOT NULL, "supplier_code" varchar(20), "lead_time_days" integer NOT NULL DEFAULT (0), "pack_qty" double precision NOT NULL DEFAULT (1), "on_hand" double precision NOT NULL DEFAULT (0), "replenishment" varchar(10), "safety_stock" double precision NOT NULL DEFAULT (0), "point_of_use" varchar(40), "hazardous" boolean NOT NULL DEFAULT (0))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'release',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'number', type: 'varchar', length: '30' },
+          { name: 'supplier_code', type: 'varchar', length: '20' },
+          { name: 'release_date', type: 'varchar', length: '10' },
+          { name: 'status', type: 'varchar', length: '12', default: "'draft'" },
+          { name: 'sent_at', type: 'varchar', length: '30', isNullable: true },
+          { name: 'confirmed_at', type: 'varchar', length: '30', isNullable: true },
+          { name: 'carrier', type: 'varchar', length: '60', isNullable: true },
+          { name: 'tracking_number', type: 'varchar', length: '60', isNullable: true },
+          { name: 'supplier_note', type: 'text', isNullable: true },
+          { name: 'dock_column', type: 'varchar', length: '12', default: "'expected'" },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_f19642ecab2a425967958e4392', columnNames: ['number'], isUnique: true }),
+          new TableIndex({
+            name: 'IDX_3e6ee55bd44b50ffe533bac085',
+            columnNames: ['supplier_code', 'release_date'],
+            isUnique: true,
+          }),
+        ],
+      }),
     );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_db89cbe876fb4aebe0f563683b" ON "part" ("part_number") ');
-    await queryRunner.query('CREATE INDEX "IDX_e05f219539ad60724813a96ea1" ON "part" ("supplier_code") ');
-    await queryRunner.query(
-      'CREATE TABLE "attachment" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "release_id" integer NOT NULL, "receipt_id" integer, "file_name" varchar(200) NOT NULL, "mime_type" varchar(100) NOT NULL, "size_bytes" integer NOT NULL, "storage_path" varchar(300) NOT NULL, "uploaded_by" varchar(254) NOT NULL, "uploaded_at" varchar(30) NOT NULL)',
+    await queryRunner.createTable(
+      new Table({
+        name: 'sequence_entry',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'date', type: 'varchar', length: '10' },
+          { name: 'sequence', type: 'integer' },
+          { name: 'model', type: 'varchar', length: '40' },
+          { name: 'serial', type: 'varchar', length: '40' },
+          { name: 'qty', type: 'integer', default: 1 },
+        ],
+        indices: [
+          new TableIndex({ name: 'IDX_90277ae1cd6dc2bd36e11fb82c', columnNames: ['serial'], isUnique: true }),
+          new TableIndex({ name: 'IDX_2d11d24aa72677db332813889b', columnNames: ['date', 'sequence'] }),
+        ],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_60ed56abac5617c65762442ec9" ON "attachment" ("release_id") ');
-    await queryRunner.query(
-      'CREATE TABLE "receipt" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "release_line_id" integer NOT NULL, "qty" double precision NOT NULL, "discrepancy" varchar(12), "note" text, "idempotency_key" varchar(100) NOT NULL, "on_hand_after" double precision NOT NULL, "user_email" varchar(254) NOT NULL, "received_at" varchar(30) NOT NULL)',
+    await queryRunner.createTable(
+      new Table({
+        name: 'setting',
+        columns: [
+          { name: 'key', type: 'varchar', length: '60', isPrimary: true },
+          { name: 'value', type: 'text' },
+        ],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_3475bdc1138b1755bb88399c75" ON "receipt" ("release_line_id") ');
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_bb0c03014ad0373feeaa268770" ON "receipt" ("idempotency_key") ');
-    await queryRunner.query(
-      'CREATE TABLE "release_line" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "release_id" integer NOT NULL, "part_number" varchar(40) NOT NULL, "qty" double precision NOT NULL, "need_date" varchar(10) NOT NULL, "origin" varchar(10) NOT NULL, "card_id" integer, "confirmed_qty" double precision, "ship_date" varchar(10), "received_qty" double precision NOT NULL DEFAULT (0), "closed" boolean NOT NULL DEFAULT (0))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'supplier',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'code', type: 'varchar', length: '20' },
+          { name: 'name', type: 'varchar', length: '120' },
+          { name: 'email', type: 'varchar', length: '254' },
+          { name: 'lead_time_days', type: 'integer', default: 0 },
+          { name: 'cycle_days', type: 'integer', default: 1 },
+          { name: 'deliveries_per_cycle', type: 'integer', default: 1 },
+          { name: 'delivery_delay', type: 'integer', default: 1 },
+        ],
+        indices: [new TableIndex({ name: 'IDX_e1183babf2fed1bb440905b1e5', columnNames: ['code'], isUnique: true })],
+      }),
     );
-    await queryRunner.query('CREATE INDEX "IDX_f042f1a9c0e300eca953c6dcfd" ON "release_line" ("release_id") ');
-    await queryRunner.query('CREATE INDEX "IDX_6634ee8a6522847e989b69fc87" ON "release_line" ("part_number") ');
-    await queryRunner.query(
-      'CREATE TABLE "release" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "number" varchar(30) NOT NULL, "supplier_code" varchar(20) NOT NULL, "release_date" varchar(10) NOT NULL, "status" varchar(12) NOT NULL DEFAULT (\'draft\'), "sent_at" varchar(30), "confirmed_at" varchar(30), "carrier" varchar(60), "tracking_number" varchar(60), "supplier_note" text, "dock_column" varchar(12) NOT NULL DEFAULT (\'expected\'))',
+    await queryRunner.createTable(
+      new Table({
+        name: 'user',
+        columns: [
+          { name: 'id', type: 'integer', isPrimary: true, isGenerated: true, generationStrategy: 'increment' },
+          { name: 'email', type: 'varchar', length: '254' },
+          { name: 'name', type: 'varchar', length: '120' },
+          { name: 'role', type: 'varchar', length: '20' },
+          { name: 'password_hash', type: 'varchar', length: '255' },
+          { name: 'supplier_code', type: 'varchar', length: '20', isNullable: true },
+          { name: 'active', type: 'boolean', default: true },
+          { name: 'created_at', type: createDateType, default: createDateDefault },
+        ],
+        indices: [new TableIndex({ name: 'IDX_e12875dfb3b1d92d7d7c5377e2', columnNames: ['email'], isUnique: true })],
+      }),
     );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_f19642ecab2a425967958e4392" ON "release" ("number") ');
-    await queryRunner.query(
-      'CREATE UNIQUE INDEX "IDX_3e6ee55bd44b50ffe533bac085" ON "release" ("supplier_code", "release_date") ',
-    );
-    await queryRunner.query(
-      'CREATE TABLE "sequence_entry" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "date" varchar(10) NOT NULL, "sequence" integer NOT NULL, "model" varchar(40) NOT NULL, "serial" varchar(40) NOT NULL, "qty" integer NOT NULL DEFAULT (1))',
-    );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_90277ae1cd6dc2bd36e11fb82c" ON "sequence_entry" ("serial") ');
-    await queryRunner.query('CREATE INDEX "IDX_2d11d24aa72677db332813889b" ON "sequence_entry" ("date", "sequence") ');
-    await queryRunner.query('CREATE TABLE "setting" ("key" varchar(60) PRIMARY KEY NOT NULL, "value" text NOT NULL)');
-    await queryRunner.query(
-      'CREATE TABLE "supplier" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "code" varchar(20) NOT NULL, "name" varchar(120) NOT NULL, "email" varchar(254) NOT NULL, "lead_time_days" integer NOT NULL DEFAULT (0), "cycle_days" integer NOT NULL DEFAULT (1), "deliveries_per_cycle" integer NOT NULL DEFAULT (1), "delivery_delay" integer NOT NULL DEFAULT (1))',
-    );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_e1183babf2fed1bb440905b1e5" ON "supplier" ("code") ');
-    await queryRunner.query(
-      'CREATE TABLE "user" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "email" varchar(254) NOT NULL, "name" varchar(120) NOT NULL, "role" varchar(20) NOT NULL, "password_hash" varchar(255) NOT NULL, "supplier_code" varchar(20), "active" boolean NOT NULL DEFAULT (1), "created_at" datetime NOT NULL DEFAULT (datetime(\'now\')))',
-    );
-    await queryRunner.query('CREATE UNIQUE INDEX "IDX_e12875dfb3b1d92d7d7c5377e2" ON "user" ("email") ');
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query('DROP INDEX "IDX_e12875dfb3b1d92d7d7c5377e2"');
-    await queryRunner.query('DROP TABLE "user"');
-    await queryRunner.query('DROP INDEX "IDX_e1183babf2fed1bb440905b1e5"');
-    await queryRunner.query('DROP TABLE "supplier"');
-    await queryRunner.query('DROP TABLE "setting"');
-    await queryRunner.query('DROP INDEX "IDX_2d11d24aa72677db332813889b"');
-    await queryRunner.query('DROP INDEX "IDX_90277ae1cd6dc2bd36e11fb82c"');
-    await queryRunner.query('DROP TABLE "sequence_entry"');
-    await queryRunner.query('DROP INDEX "IDX_3e6ee55bd44b50ffe533bac085"');
-    await queryRunner.query('DROP INDEX "IDX_f19642ecab2a425967958e4392"');
-    await queryRunner.query('DROP TABLE "release"');
-    await queryRunner.query('DROP INDEX "IDX_6634ee8a6522847e989b69fc87"');
-    await queryRunner.query('DROP INDEX "IDX_f042f1a9c0e300eca953c6dcfd"');
-    await queryRunner.query('DROP TABLE "release_line"');
-    await queryRunner.query('DROP INDEX "IDX_bb0c03014ad0373feeaa268770"');
-    await queryRunner.query('DROP INDEX "IDX_3475bdc1138b1755bb88399c75"');
-    await queryRunner.query('DROP TABLE "receipt"');
-    await queryRunner.query('DROP INDEX "IDX_60ed56abac5617c65762442ec9"');
-    await queryRunner.query('DROP TABLE "attachment"');
-    await queryRunner.query('DROP INDEX "IDX_e05f219539ad60724813a96ea1"');
-    await queryRunner.query('DROP INDEX "IDX_db89cbe876fb4aebe0f563683b"');
-    await queryRunner.query('DROP TABLE "part"');
-    await queryRunner.query('DROP INDEX "IDX_3e1d188faf16b1e79c1c4ef3e1"');
-    await queryRunner.query('DROP TABLE "outbox_message"');
-    await queryRunner.query('DROP INDEX "IDX_ce4f4970e46db3c9ffdaca0326"');
-    await queryRunner.query('DROP TABLE "kanban_loop"');
-    await queryRunner.query('DROP INDEX "IDX_4f11cd6bbf653c6a3c7d630745"');
-    await queryRunner.query('DROP INDEX "IDX_a2b5a55fcd5f3feb5e4cf3768b"');
-    await queryRunner.query('DROP TABLE "kanban_card"');
-    await queryRunner.query('DROP INDEX "IDX_968af45fcf22487d7252fac9e0"');
-    await queryRunner.query('DROP TABLE "card_scan"');
-    await queryRunner.query('DROP INDEX "IDX_9d0bd0030fcbb63f0cb008c22c"');
-    await queryRunner.query('DROP INDEX "IDX_731b377c510eb07390927e3977"');
-    await queryRunner.query('DROP TABLE "confirmation_token"');
-    await queryRunner.query('DROP TABLE "plant_holiday"');
-    await queryRunner.query('DROP INDEX "IDX_feae85fe2d4a2103c9ab395f56"');
-    await queryRunner.query('DROP INDEX "IDX_bbb5c56a8048760cf098b878e4"');
-    await queryRunner.query('DROP TABLE "bom_line"');
-    await queryRunner.query('DROP INDEX "IDX_4cf52b7d3b370111cfe3ab0efe"');
-    await queryRunner.query('DROP TABLE "audit_event"');
+    await queryRunner.dropTable('user');
+    await queryRunner.dropTable('supplier');
+    await queryRunner.dropTable('setting');
+    await queryRunner.dropTable('sequence_entry');
+    await queryRunner.dropTable('release');
+    await queryRunner.dropTable('release_line');
+    await queryRunner.dropTable('receipt');
+    await queryRunner.dropTable('attachment');
+    await queryRunner.dropTable('part');
+    await queryRunner.dropTable('outbox_message');
+    await queryRunner.dropTable('kanban_loop');
+    await queryRunner.dropTable('kanban_card');
+    await queryRunner.dropTable('card_scan');
+    await queryRunner.dropTable('confirmation_token');
+    await queryRunner.dropTable('plant_holiday');
+    await queryRunner.dropTable('bom_line');
+    await queryRunner.dropTable('audit_event');
   }
 }

@@ -3,6 +3,7 @@ import { ReceiptFinal1764720000000 } from './1764720000000-receipt-final';
 import { OutboxDelivery1764800000000 } from './1764800000000-outbox-delivery';
 import { Sessions1764810000000 } from './1764810000000-sessions';
 import { StockLedger1764900000000 } from './1764900000000-stock-ledger';
+import { AttachmentContent1764950000000 } from './1764950000000-attachment-content';
 import { SupplierTiming1765000000000 } from './1765000000000-supplier-timing';
 import { OpenOrders1765050000000 } from './1765050000000-open-orders';
 import { PartSafety1765100000000 } from './1765100000000-part-safety';
@@ -15,6 +16,7 @@ export const migrations = [
   OutboxDelivery1764800000000,
   Sessions1764810000000,
   StockLedger1764900000000,
+  AttachmentContent1764950000000,
   SupplierTiming1765000000000,
   OpenOrders1765050000000,
   PartSafety1765100000000,
