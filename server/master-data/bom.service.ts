@@ -140,8 +140,10 @@ export class BomService {
       .select(['line.parent', 'line.component'])
       .where('line.parent <> :parent', { parent })
       .getMany();
-    const cycle = findBomCycle([...others, ...lines]);
-    if (cycle) {
+    const found = findBomCycle([...others, ...lines]);
+    if (found) {
+      // Told from the parent being edited, whatever order the database returned the other lines in.
+      const cycle = startingAt(found, parent);
       throw new ConflictError(
         `The BOM of ${parent} was not changed: it would make a cycle ${cycle.join(' → ')} (a part cannot contain itself).`,
         [{ path: ['lines'], message: `closes a BOM cycle: ${cycle.join(' → ')}`, cycle }],
@@ -164,4 +166,13 @@ export class BomService {
 
 function reject(parent: string, issues: FieldIssue[]): never {
   throw new InvalidInputError(`The BOM of ${parent} was not changed: ${issues[0].message}.`, issues);
+}
+
+/** A cycle written `A → B → C → A` read from `start` when it passes through it: `B → C → A → B`. */
+function startingAt(cycle: string[], start: string): string[] {
+  const ring = cycle.slice(0, -1);
+  const at = ring.indexOf(start);
+  if (at <= 0) return cycle;
+  const rotated = [...ring.slice(at), ...ring.slice(0, at)];
+  return [...rotated, rotated[0]!];
 }

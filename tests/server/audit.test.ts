@@ -10,7 +10,7 @@ beforeAll(async () => {
   context = await createTestContext();
   await context.db.write((manager) => savePartsWithStock(manager, [testPart('GEAR'), testPart('SHAFT')]));
   await request(context.app).put('/api/parts/GEAR').set(bearer(context.tokens.buyer)).send({ leadTimeDays: 4 });
-  await request(context.app).put('/api/suppliers/SUP-B').set(bearer(context.tokens.admin)).send({ leadTimeDays: 9 });
+  await request(context.app).put('/api/suppliers/SUP-B').set(bearer(context.tokens.admin)).send({ leadTimeDays: 4 });
 });
 afterAll(() => context.close());
 
@@ -52,7 +52,7 @@ describe('GET /api/audit', () => {
     expect(response.headers['content-type']).toContain('text/csv');
     const lines = response.text.trim().split('\r\n');
     expect(lines[0]).toBe('at,user,action,kind,subject,changes');
-    expect(lines[1]).toContain('admin@example.com,update,supplier,SUP-B,leadTimeDays: 5 → 9');
+    expect(lines[1]).toContain('admin@example.com,update,supplier,SUP-B,leadTimeDays: 5 → 4');
   });
 
   it('names the field of a bad filter and refuses other roles', async () => {
