@@ -96,7 +96,7 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Medal),
     roles: ['admin', 'buyer', 'planner', 'viewer'],
     summary:
-      'Each supplier month by month: lines delivered in full by the need date, quantity filled, and how fast releases are answered.',
+      'Each supplier month by month: on time and filled against what was first asked, promises kept, and how fast releases are answered.',
   },
   {
     routeName: 'card-scan',
