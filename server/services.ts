@@ -13,6 +13,7 @@ import { LoopsService } from './loops/loops.service';
 import { MasterDataService } from './master-data/master-data.service';
 import { OutboxService } from './outbox/outbox.service';
 import { PlanningService } from './planning/planning.service';
+import { SupplierViewService } from './supplier-view/supplier-view.service';
 import { ConfirmService } from './releases/confirm.service';
 import { ReleasesService } from './releases/releases.service';
 import { SequenceService } from './sequence/sequence.service';
@@ -71,6 +72,7 @@ export function createServices(db: Database, options: ServiceOptions) {
     receipts: new ReceiptsService(db),
     attachments: new AttachmentsService(db, options.attachmentsDir ?? defaultAttachmentsDir(db)),
     supplierPerformance: new SupplierPerformanceService(db),
+    supplierView: new SupplierViewService(db, planning),
     outbox: new OutboxService(db),
     stock: new StockService(db),
     builds: new BuildsService(db),

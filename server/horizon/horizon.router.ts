@@ -11,6 +11,7 @@ import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 import { demandToCsv, planToCsv } from './horizon-csv';
+import { scopeToSupplier } from '../http/supplier-scope';
 
 export function createHorizonRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
@@ -38,12 +39,14 @@ export function createHorizonRouter(services: Services, deps: RouteDeps): Router
   defineRoute(router, deps, {
     method: 'get',
     path: '/demand',
-    summary: 'Gross demand of bought parts per working day (JSON, or CSV with format=csv)',
-    access: READ_ROLES,
+    summary:
+      'Gross demand of bought parts per working day (JSON, or CSV with format=csv); a supplier account gets its own parts only',
+    access: [...READ_ROLES, 'supplier'],
     query: demandQuerySchema,
     response: demandResponseSchema,
     produces: ['text/csv'],
-    handler: async ({ query, res }) => {
+    handler: async ({ query: asked, user, res }) => {
+      const query = scopeToSupplier(asked, user);
       const demand = await planning.demand({ from: query.from, to: query.to, supplierCode: query.supplier });
       if (query.format !== 'csv') return demand;
       const name = `demand-${demand.days[0] ?? 'empty'}${query.supplier ? `-${query.supplier}` : ''}.csv`;
