@@ -12,6 +12,7 @@ import { sendSerialised } from '../http/serialised-body';
 import type { Services } from '../services';
 import { MASTER_DATA_ROLES, READ_ROLES } from '../http/roles';
 import { demandToCsv, planToCsv } from './horizon-csv';
+import { scopeToSupplier } from '../http/supplier-scope';
 
 export function createHorizonRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
@@ -39,15 +40,17 @@ export function createHorizonRouter(services: Services, deps: RouteDeps): Router
   defineRoute(router, deps, {
     method: 'get',
     path: '/demand',
-    summary: 'Gross demand of bought parts per working day (JSON, or CSV with format=csv)',
-    access: READ_ROLES,
+    summary:
+      'Gross demand of bought parts per working day (JSON, or CSV with format=csv); a supplier account gets its own parts only',
+    access: [...READ_ROLES, 'supplier'],
     // The plan reads its inputs in a snapshot of its own when they changed; a cached answer needs
     // none, and holding one of the few snapshot readers per request would queue busy clients.
     unit: 'none',
     query: demandQuerySchema,
     response: demandResponseSchema,
     produces: ['text/csv'],
-    handler: async ({ query, req, res }) => {
+    handler: async ({ query: asked, user, req, res }) => {
+      const query = scopeToSupplier(asked, user);
       const options = { from: query.from, to: query.to, supplierCode: query.supplier };
       if (query.format !== 'csv') {
         await sendSerialised(req, res, await planning.demandBody(options));

@@ -23,6 +23,7 @@ import { ReceiptEntity } from '../dock/receipt.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
+import { readCalendar } from '../calendar/calendar.service';
 import type { Database } from '../db/database';
 
 /** Fills in and checks the month range: defaults to the last six months through the current one. */
@@ -42,6 +43,18 @@ export function resolveMonths(
   return { from, to };
 }
 
+interface LineRow {
+  id: number;
+  releaseId: number;
+  qty: number;
+  needDate: string;
+  requestedQty: number | null;
+  requestedDate: string | null;
+  confirmedQty: number | null;
+  arrivalDate: string | null;
+  supplierCode: string;
+}
+
 /** Reads releases, lines and receipts of a range and measures each supplier's months. */
 export class SupplierPerformanceService {
   constructor(
@@ -59,28 +72,25 @@ export class SupplierPerformanceService {
     if (query.supplier && suppliers.length === 0) throw new NotFoundError(`No supplier ${query.supplier}.`);
     const names = new Map(suppliers.map((supplier) => [supplier.code, supplier.name]));
 
-    // Only what can land in the range: need dates of the range's months, up to the day before today.
+    // Only what can land in the range: requested dates of the range's months, up to the day before today.
+    const requestedDate = 'COALESCE(line.requestedDate, line.needDate)';
     const lineQuery = manager
       .createQueryBuilder(ReleaseLineEntity, 'line')
       .innerJoin(ReleaseEntity, 'release', 'release.id = line.releaseId')
       .select('line.id', 'id')
       .addSelect('line.releaseId', 'releaseId')
       .addSelect('line.qty', 'qty')
-      .addSelect('line.confirmedQty', 'confirmedQty')
       .addSelect('line.needDate', 'needDate')
+      .addSelect('line.requestedQty', 'requestedQty')
+      .addSelect('line.requestedDate', 'requestedDate')
+      .addSelect('line.confirmedQty', 'confirmedQty')
+      .addSelect('line.arrivalDate', 'arrivalDate')
       .addSelect('release.supplierCode', 'supplierCode')
       .where('release.status != :cancelled', { cancelled: 'cancelled' })
-      .andWhere('line.needDate BETWEEN :first AND :last', { first: firstDayOf(from), last: lastDayOf(to) })
-      .andWhere('line.needDate < :today', { today });
+      .andWhere(`${requestedDate} BETWEEN :first AND :last`, { first: firstDayOf(from), last: lastDayOf(to) })
+      .andWhere(`${requestedDate} < :today`, { today });
     if (query.supplier) lineQuery.andWhere('release.supplierCode = :supplier', { supplier: query.supplier });
-    const rows = await lineQuery.getRawMany<{
-      id: number;
-      releaseId: number;
-      qty: number;
-      confirmedQty: number | null;
-      needDate: string;
-      supplierCode: string;
-    }>();
+    const rows = await lineQuery.getRawMany<LineRow>();
 
     const receiptsByLine = new Map<number, PerformanceLine['receipts'][number][]>();
     const lineIds = rows.map((row) => row.id);
@@ -102,18 +112,30 @@ export class SupplierPerformanceService {
 
     const lines: PerformanceLine[] = rows.map((row) => ({
       supplierCode: row.supplierCode,
-      needDate: row.needDate,
-      orderedQty: row.confirmedQty ?? row.qty,
+      requestedQty: row.requestedQty ?? row.qty,
+      requestedDate: row.requestedDate ?? row.needDate,
+      // An answered line's promise: the confirmed quantity, arriving on the answered arrival (or the need date it accepted).
+      promise:
+        row.confirmedQty === null ? null : { qty: row.confirmedQty, arrivalDate: row.arrivalDate ?? row.needDate },
       receipts: receiptsByLine.get(row.id) ?? [],
     }));
+    const tolerances = new Map(
+      suppliers.map((supplier) => [
+        supplier.code,
+        { earlyToleranceDays: supplier.earlyToleranceDays, lateToleranceDays: supplier.lateToleranceDays },
+      ]),
+    );
+    const calendar = await readCalendar(manager);
 
     const releases = await this.releasesOf(rows);
 
-    return supplierPerformance({ from, to, today, lines, releases }).map(({ supplierCode, ...figures }) => ({
-      supplierCode,
-      supplierName: names.get(supplierCode) ?? supplierCode,
-      ...figures,
-    }));
+    return supplierPerformance({ from, to, today, calendar, tolerances, lines, releases }).map(
+      ({ supplierCode, ...figures }) => ({
+        supplierCode,
+        supplierName: names.get(supplierCode) ?? supplierCode,
+        ...figures,
+      }),
+    );
   }
 
   /** Sent releases with their earliest need date, for the releases whose lines fell in the range. */
@@ -128,7 +150,7 @@ export class SupplierPerformanceService {
         .select('release.supplierCode', 'supplierCode')
         .addSelect('release.sentAt', 'sentAt')
         .addSelect('release.confirmedAt', 'confirmedAt')
-        .addSelect('MIN(line.needDate)', 'firstNeedDate')
+        .addSelect('MIN(COALESCE(line.requestedDate, line.needDate))', 'firstNeedDate')
         .where('release.id IN (:...ids)', { ids: chunk })
         .groupBy('release.id')
         .getRawMany<PerformanceRelease>();

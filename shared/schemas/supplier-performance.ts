@@ -17,29 +17,39 @@ export const performanceQuerySchema = z.object({
 });
 export type PerformanceQuery = z.infer<typeof performanceQuerySchema>;
 
-/** One supplier in one month of need date. Rates are fractions 0–1, null when there is nothing to measure. */
+/** One supplier in one month of requested date. Rates are fractions 0–1, null when there is nothing to measure. */
 export const supplierMonthPerformanceSchema = z.object({
   supplierCode: z.string(),
   supplierName: z.string(),
-  month: z.string().meta({ description: 'YYYY-MM of the lines’ need date.' }),
-  lines: z
+  month: z.string().meta({ description: 'YYYY-MM of the arrival date first asked for.' }),
+  lines: z.number().int().meta({
+    description:
+      'Release lines of releases not cancelled whose on-time window (requested date − early, + late tolerance) has closed.',
+  }),
+  onTimeLines: z.number().int().meta({
+    description: 'Lines whose usable receipts all came inside the on-time window around the date first asked for.',
+  }),
+  earlyLines: z.number().int().meta({ description: 'Lines with usable goods received before the window.' }),
+  lateLines: z
     .number()
     .int()
-    .meta({ description: 'Release lines due in the month (need date passed), of releases not cancelled.' }),
-  onTimeLines: z
-    .number()
-    .int()
-    .meta({ description: 'Lines whose usable received quantity reached the ordered quantity by the need date.' }),
+    .meta({ description: 'Lines with usable goods received after the window, or none at all.' }),
   onTimeRate: z.number().nullable(),
-  orderedQty: z.number().meta({ description: 'Σ confirmed quantity, else requested quantity.' }),
-  filledQty: z
-    .number()
-    .meta({ description: 'Σ usable quantity received by the need date, capped at each line’s ordered quantity.' }),
+  requestedQty: z.number().meta({ description: 'Σ quantity first asked for (never the confirmed one).' }),
+  filledQty: z.number().meta({ description: 'Σ usable quantity received, capped at each line’s requested quantity.' }),
   fillRate: z.number().nullable(),
+  promisedLines: z
+    .number()
+    .int()
+    .meta({ description: 'Lines the supplier answered whose promised window has closed.' }),
+  promiseKeptLines: z.number().int().meta({
+    description: 'Of those, lines received in the confirmed quantity inside the window around the confirmed arrival.',
+  }),
+  promiseKeptRate: z.number().nullable(),
   releases: z
     .number()
     .int()
-    .meta({ description: 'Releases sent whose earliest need date is in the month and has passed.' }),
+    .meta({ description: 'Releases sent whose earliest requested date is in the month and has passed.' }),
   confirmedReleases: z
     .number()
     .int()

@@ -26,6 +26,7 @@ export const ROLE_DUTIES: Record<Role, string> = {
   buyer: 'You keep parts, suppliers and bills of materials, read demand ahead, size kanban loops and send releases.',
   receiving: 'You check deliveries in at the dock, record counts and discrepancies, and move stock to the line.',
   line: 'You report each unit built as it leaves the line, so its parts come off stock; you open and print each unit’s kit, and record parts scrapped at the line.',
-  supplier: 'You see your own releases and forecast and confirm what you will ship and when.',
+  supplier:
+    'You see the demand for your parts, your releases, your scorecard and the dock’s claims; you answer each release from the link in its e-mail.',
   viewer: 'You can read plans, loops and deliveries; changes are made by the people who own them.',
 };

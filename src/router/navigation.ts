@@ -94,12 +94,20 @@ export const navigation: readonly NavigationEntry[] = [
     summary: 'What each supplier was asked to ship and when, their answers, and the exceptions waiting for a decision.',
   },
   {
+    routeName: 'supplier-account',
+    label: 'Your business',
+    icon: markRaw(TrendCharts),
+    roles: ['supplier'],
+    summary:
+      'Demand for your parts by day (firm, planned, forecast; CSV too), releases to ship, and the dock’s claims.',
+  },
+  {
     routeName: 'supplier-performance',
     label: 'Supplier performance',
     icon: markRaw(Medal),
-    roles: ['admin', 'buyer', 'planner', 'viewer'],
+    roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
     summary:
-      'Each supplier month by month: lines delivered in full by the need date, quantity filled, and how fast releases are answered.',
+      'Each supplier month by month: on time and filled against what was first asked, promises kept, and how fast releases are answered.',
   },
   {
     routeName: 'card-scan',

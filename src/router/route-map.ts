@@ -19,6 +19,7 @@ export interface RouteNamedMap {
   horizon: RouteRecordInfo<'horizon', '/horizon', NoParams, NoParams>;
   loops: RouteRecordInfo<'loops', '/loops', NoParams, NoParams>;
   releases: RouteRecordInfo<'releases', '/releases', NoParams, NoParams>;
+  'supplier-account': RouteRecordInfo<'supplier-account', '/supplier', NoParams, NoParams>;
   'supplier-performance': RouteRecordInfo<'supplier-performance', '/suppliers/performance', NoParams, NoParams>;
   confirm: RouteRecordInfo<'confirm', '/confirm/:token', { token: string }, { token: string }>;
   'ship-notice-link': RouteRecordInfo<'ship-notice-link', '/ship/:token', { token: string }, { token: string }>;

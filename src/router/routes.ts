@@ -104,7 +104,13 @@ export const routes: RouteRecordRaw[] = [
     path: '/suppliers/performance',
     name: 'supplier-performance',
     component: () => import('@/views/SupplierPerformanceView.vue'),
-    meta: { title: 'Supplier performance', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+    meta: { title: 'Supplier performance', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
+  },
+  {
+    path: '/supplier',
+    name: 'supplier-account',
+    component: () => import('@/views/SupplierAccountView.vue'),
+    meta: { title: 'Your business', roles: ['supplier'] },
   },
   {
     path: '/loops/:id/print',

@@ -41,10 +41,10 @@ describe('navigationFor', () => {
     expect(names).toContain('home');
   });
 
-  it('offers a supplier only the overview and its own releases', () => {
+  it('offers a supplier only the overview and its own releases, business and scorecard', () => {
     const names = navigationFor('supplier').map((entry) => entry.routeName);
 
-    expect(names).toEqual(['home', 'releases']);
+    expect(names).toEqual(['home', 'releases', 'supplier-account', 'supplier-performance']);
   });
 
   // Role rules from PRODUCT.md, "Second round": the line reports units built; stock is read by

@@ -15,10 +15,15 @@ const month = (overrides: Partial<SupplierMonthPerformanceDto>): SupplierMonthPe
   month: '2026-01',
   lines: 0,
   onTimeLines: 0,
+  earlyLines: 0,
+  lateLines: 0,
   onTimeRate: null,
-  orderedQty: 0,
+  requestedQty: 0,
   filledQty: 0,
   fillRate: null,
+  promisedLines: 0,
+  promiseKeptLines: 0,
+  promiseKeptRate: null,
   releases: 0,
   confirmedReleases: 0,
   unansweredReleases: 0,
@@ -34,9 +39,13 @@ const rows: SupplierMonthPerformanceDto[] = [
     lines: 20,
     onTimeLines: 19,
     onTimeRate: 0.95,
-    orderedQty: 1000,
+    lateLines: 1,
+    requestedQty: 1000,
     filledQty: 900,
     fillRate: 0.9,
+    promisedLines: 20,
+    promiseKeptLines: 20,
+    promiseKeptRate: 1,
     releases: 4,
     confirmedReleases: 4,
     confirmationHoursMedian: 3,
@@ -48,7 +57,9 @@ const rows: SupplierMonthPerformanceDto[] = [
     lines: 5,
     onTimeLines: 0,
     onTimeRate: 0,
-    orderedQty: 250,
+    earlyLines: 2,
+    lateLines: 3,
+    requestedQty: 250,
     filledQty: 100,
     fillRate: 0.4,
     releases: 1,
@@ -68,8 +79,8 @@ function stubApi(answer: () => Response) {
   return fetchMock;
 }
 
-async function openView() {
-  const context = await createAppContext({ user: buyer, path: '/suppliers/performance' });
+async function openView(user: SessionUser = buyer) {
+  const context = await createAppContext({ user, path: '/suppliers/performance' });
   const wrapper = await mountInApp(SupplierPerformanceView, context);
   await flushPromises();
   return wrapper;
@@ -107,6 +118,25 @@ describe('SupplierPerformanceView', () => {
     expect(period.text()).toContain('76.0 %');
     expect(period.text()).toContain('80.0 %');
     expect(period.text()).not.toContain('47.5 %');
+    // Early / late over the period: 0 + 2 early, 1 + 3 late.
+    expect(period.text()).toContain('2 / 4');
+    expect(wrapper.findAll('[data-test="performance-chart"]')).toHaveLength(1);
+  });
+
+  it('gives a supplier account its own figures without a supplier picker', async () => {
+    const fetchMock = stubApi(() => jsonResponse(200, rows));
+    const supplier: SessionUser = {
+      email: 'orders@example.com',
+      name: 'Sam Seller',
+      role: 'supplier',
+      supplierCode: 'SUP-A',
+    };
+
+    const wrapper = await openView(supplier);
+
+    expect(wrapper.find('[aria-label="Supplier"]').exists()).toBe(false);
+    expect(fetchMock.mock.calls.some(([input]) => String(input).endsWith('/api/suppliers'))).toBe(false);
+    expect(wrapper.findAll('[data-test="performance-months"] tr.el-table__row')).toHaveLength(2);
   });
 
   it('says so when no release lines were due in the period', async () => {

@@ -15,6 +15,10 @@ interface LineSpec {
   qty: number;
   confirmedQty?: number;
   needDate: string;
+  /** What was first asked, when an accepted answer has since changed qty and need date. */
+  requestedQty?: number;
+  requestedDate?: string;
+  arrivalDate?: string;
   /** [qty, local plant time "YYYY-MM-DD HH:MM", discrepancy] */
   receipts?: [number, string, Discrepancy | null][];
 }
@@ -56,6 +60,9 @@ async function makeRelease(
       origin: 'plan',
       cardId: null,
       confirmedQty: spec.confirmedQty ?? null,
+      requestedQty: spec.requestedQty ?? spec.qty,
+      requestedDate: spec.requestedDate ?? spec.needDate,
+      arrivalDate: spec.arrivalDate ?? null,
       receivedQty: 0,
       closed: false,
     });
@@ -83,9 +90,9 @@ beforeAll(async () => {
   context = await createTestContext();
   // SUP-A, January: answered in 3 h (06:00 → 09:00 UTC).
   await makeRelease('SUP-A', 'received', '2025-01-06T06:00:00.000Z', '2025-01-06T09:00:00.000Z', [
-    // Confirmed 80 of 100; 80 usable late on the need day → on time, fills 80.
+    // Confirmed 80 of 100; 80 usable late on the need day → on time, fills 80 of the 100 asked, promise kept.
     { qty: 100, confirmedQty: 80, needDate: '2025-01-10', receipts: [[80, '2025-01-10 23:30', null]] },
-    // 50 damaged and 20 good the day before → 20 usable of 50: late, fills 20.
+    // 50 damaged and 20 good the day before (inside the one-day early window) → on time, fills 20 of 50.
     {
       qty: 50,
       needDate: '2025-01-10',
@@ -95,7 +102,7 @@ beforeAll(async () => {
       ],
     },
   ]);
-  // SUP-A, January: answered in 30 h; all 60 arrive the day after the need date → late, fills 0.
+  // SUP-A, January: answered in 30 h; all 60 arrive the day after the need date → late, still fills 60.
   await makeRelease('SUP-A', 'received', '2025-01-13T06:00:00.000Z', '2025-01-14T12:00:00.000Z', [
     { qty: 60, needDate: '2025-01-17', receipts: [[60, '2025-01-18 08:00', null]] },
   ]);
@@ -122,13 +129,18 @@ describe('GET /api/suppliers/performance', () => {
         supplierCode: 'SUP-A',
         supplierName: 'Supplier A',
         month: '2025-01',
-        // On time: 1 of 3 lines. Fill: (80 + 20 + 0) / (80 + 50 + 60) = 100 / 190.
+        // On time: 2 of 3 lines. Fill: (80 + 20 + 60) / (100 + 50 + 60) = 160 / 210. Promise: 1 answered line, kept.
         lines: 3,
-        onTimeLines: 1,
-        onTimeRate: 1 / 3,
-        orderedQty: 190,
-        filledQty: 100,
-        fillRate: 100 / 190,
+        onTimeLines: 2,
+        earlyLines: 0,
+        lateLines: 1,
+        onTimeRate: 2 / 3,
+        requestedQty: 210,
+        filledQty: 160,
+        fillRate: 160 / 210,
+        promisedLines: 1,
+        promiseKeptLines: 1,
+        promiseKeptRate: 1,
         // Latency 3 h and 30 h: median (3 + 30) / 2 = 16.5, mean 16.5.
         releases: 2,
         confirmedReleases: 2,
@@ -142,10 +154,15 @@ describe('GET /api/suppliers/performance', () => {
         month: '2025-02',
         lines: 1,
         onTimeLines: 0,
+        earlyLines: 0,
+        lateLines: 1,
         onTimeRate: 0,
-        orderedQty: 40,
+        requestedQty: 40,
         filledQty: 0,
         fillRate: 0,
+        promisedLines: 0,
+        promiseKeptLines: 0,
+        promiseKeptRate: null,
         releases: 1,
         confirmedReleases: 0,
         unansweredReleases: 1,
@@ -158,10 +175,15 @@ describe('GET /api/suppliers/performance', () => {
         month: '2025-01',
         lines: 1,
         onTimeLines: 1,
+        earlyLines: 0,
+        lateLines: 0,
         onTimeRate: 1,
-        orderedQty: 10,
+        requestedQty: 10,
         filledQty: 10,
         fillRate: 1,
+        promisedLines: 0,
+        promiseKeptLines: 0,
+        promiseKeptRate: null,
         releases: 1,
         confirmedReleases: 1,
         unansweredReleases: 0,
@@ -194,7 +216,7 @@ describe('GET /api/suppliers/performance', () => {
     // Only the line five months back falls in the default range; the one six months back does not.
     expect(response.status).toBe(200);
     expect(response.body).toEqual([
-      expect.objectContaining({ supplierCode: 'SUP-B', month: addMonths(current, -5), lines: 1, orderedQty: 7 }),
+      expect.objectContaining({ supplierCode: 'SUP-B', month: addMonths(current, -5), lines: 1, requestedQty: 7 }),
     ]);
   });
 
@@ -207,9 +229,54 @@ describe('GET /api/suppliers/performance', () => {
     expect((await get('?from=2023-02&to=2025-01')).status).toBe(200);
   });
 
-  it('is open to reading roles and closed to supplier accounts', async () => {
+  it('measures against what was first asked, not the accepted answer', async () => {
+    // SUP-B, March 2025 (Monday–Friday plant). Asked 48 for Friday 03-14; the supplier confirmed 36
+    // and the buyer accepted, so the line now reads 36; 36 came on the 14th.
+    await makeRelease('SUP-B', 'received', '2025-03-03T06:00:00.000Z', '2025-03-03T08:00:00.000Z', [
+      {
+        qty: 36,
+        confirmedQty: 36,
+        needDate: '2025-03-14',
+        requestedQty: 48,
+        requestedDate: '2025-03-14',
+        arrivalDate: '2025-03-14',
+        receipts: [[36, '2025-03-14 10:00', null]],
+      },
+      // Asked for Thursday 03-27, came on Friday 03-14: nine working days early.
+      { qty: 10, needDate: '2025-03-27', receipts: [[10, '2025-03-14 10:00', null]] },
+    ]);
+
+    const response = await get('?from=2025-03&to=2025-03&supplier=SUP-B');
+
+    // Fill (36 + 10) / (48 + 10) = 46 / 58: the 48 line alone fills 75 %. Promise kept 1 of 1.
+    expect(response.status).toBe(200);
+    expect(response.body).toEqual([
+      expect.objectContaining({
+        lines: 2,
+        onTimeLines: 1,
+        earlyLines: 1,
+        requestedQty: 58,
+        filledQty: 46,
+        promisedLines: 1,
+        promiseKeptLines: 1,
+      }),
+    ]);
+  });
+
+  it('gives a supplier account its own figures only', async () => {
+    const own = await get('?from=2025-01&to=2025-02', 'supplier');
+    const named = await get('?from=2025-01&to=2025-02&supplier=SUP-A', 'supplier');
+    const another = await get('?from=2025-01&to=2025-02&supplier=SUP-B', 'supplier');
+
+    // The supplier user belongs to SUP-A (tests/server/helpers.ts).
+    expect(own.status).toBe(200);
+    expect(new Set(own.body.map((row: { supplierCode: string }) => row.supplierCode))).toEqual(new Set(['SUP-A']));
+    expect(named.body).toEqual(own.body);
+    expect(another.status).toBe(404);
+  });
+
+  it('is open to reading roles and asks for a sign-in', async () => {
     expect((await get('?from=2025-01&to=2025-01', 'viewer')).status).toBe(200);
-    expect((await get('?from=2025-01&to=2025-01', 'supplier')).status).toBe(403);
     expect((await request(context.app).get('/api/suppliers/performance')).status).toBe(401);
   });
 });

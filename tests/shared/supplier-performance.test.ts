@@ -2,89 +2,164 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
   addMonths,
+  arrivalTiming,
   isYearMonth,
   lastDayOf,
   median,
   monthSpan,
+  onTimeWindow,
   summarisePerformance,
   supplierPerformance,
   type PerformanceInput,
   type PerformanceLine,
+  type PerformancePromise,
 } from '../../shared/domain/supplier-performance';
 
 // Definitions checked here (see the module's comment):
-// - on-time delivery: share of deliveries received on or before the date required
-//   (APICS Dictionary, "on-time delivery", from memory), counted per release line, in full;
-// - fill rate: share of the ordered quantity delivered (APICS Dictionary, "fill rate", from memory),
-//   quantity based, usable goods only, by the need date.
+// - on-time against the date first asked for, and apart from it the promise kept against the
+//   supplier's committed date: SCOR model, Reliability attribute, "delivery performance to customer
+//   request date" beside "to customer commit date", and "% of orders delivered in full" (from memory);
+// - fill rate: share of the quantity asked for that was delivered (Chopra & Meindl, Supply Chain
+//   Management: Strategy, Planning, and Operation, 6th ed., ch. 3, inventory-related metrics —
+//   from memory), usable goods only, capped per line.
+// Dates: March 2026 on a Monday–Friday calendar (2026-03-02 is a Monday).
 
-const base = { from: '2026-03', to: '2026-04', today: '2026-05-10', releases: [] } satisfies Partial<PerformanceInput>;
+const calendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] };
+const base = {
+  from: '2026-03',
+  to: '2026-04',
+  today: '2026-05-10',
+  calendar,
+  tolerances: new Map(),
+  releases: [],
+} satisfies Partial<PerformanceInput>;
 const line = (
-  needDate: string,
-  orderedQty: number,
+  requestedDate: string,
+  requestedQty: number,
   receipts: PerformanceLine['receipts'],
   supplierCode = 'SUP-A',
-): PerformanceLine => ({
-  supplierCode,
-  needDate,
-  orderedQty,
-  receipts,
-});
+  promise: PerformancePromise | null = null,
+): PerformanceLine => ({ supplierCode, requestedDate, requestedQty, promise, receipts });
+const good = (qty: number, receivedOn: string) => ({ qty, receivedOn, usable: true });
 
-describe('supplierPerformance — hand-worked months', () => {
-  it('counts a line on time only when the usable quantity by the need date reaches the ordered quantity', () => {
+describe('supplierPerformance — hand-worked lines', () => {
+  it('fills against what was first asked and keeps the promise apart: asked 48, confirmed 36, delivered 36', () => {
+    const input: PerformanceInput = {
+      ...base,
+      lines: [line('2026-03-10', 48, [good(36, '2026-03-10')], 'SUP-A', { qty: 36, arrivalDate: '2026-03-10' })],
+    };
+
+    const [march] = supplierPerformance(input);
+
+    // Fill 36 ÷ 48 = 0.75; the promise (36 on 03-10) was kept in full and on the day: 1 of 1.
+    expect(march).toMatchObject({ requestedQty: 48, filledQty: 36, fillRate: 0.75 });
+    expect(march).toMatchObject({ promisedLines: 1, promiseKeptLines: 1, promiseKeptRate: 1 });
+    expect(march).toMatchObject({ lines: 1, onTimeLines: 1, onTimeRate: 1 });
+  });
+
+  it('counts goods nine working days early as early, not on time', () => {
+    // Asked for Friday 03-20; received Monday 03-09: 10, 11, 12, 13, 16, 17, 18, 19, 20 = nine working days early.
+    const input: PerformanceInput = { ...base, lines: [line('2026-03-20', 20, [good(20, '2026-03-09')])] };
+
+    const [march] = supplierPerformance(input);
+
+    expect(march).toMatchObject({ lines: 1, onTimeLines: 0, earlyLines: 1, lateLines: 0, onTimeRate: 0 });
+    // Early goods still fill: timing is the on-time figure's business.
+    expect(march.fillRate).toBe(1);
+  });
+
+  it('measures on-time inside [requested − early, requested + late] working days', () => {
+    const input: PerformanceInput = {
+      ...base,
+      tolerances: new Map([['SUP-B', { earlyToleranceDays: 0, lateToleranceDays: 2 }]]),
+      lines: [
+        // Default window (1 early, 0 late): Monday 03-16 opens on Friday 03-13 across the weekend.
+        line('2026-03-16', 10, [good(10, '2026-03-13')]), // on time
+        line('2026-03-24', 10, [good(10, '2026-03-25')]), // a day late
+        line('2026-03-26', 10, [good(4, '2026-03-26'), good(6, '2026-03-27')]), // the rest a day late → late
+        line('2026-03-30', 10, []), // nothing came → late
+        // SUP-B: 0 early, 2 late. Thursday 03-12 + 2 working days = Monday 03-16.
+        line('2026-03-12', 10, [good(10, '2026-03-16')], 'SUP-B'), // on time
+        line('2026-03-12', 10, [good(10, '2026-03-11')], 'SUP-B'), // a day early
+      ],
+    };
+
+    const [supA, supB] = supplierPerformance(input);
+
+    expect(supA).toMatchObject({ lines: 4, onTimeLines: 1, earlyLines: 0, lateLines: 3, onTimeRate: 0.25 });
+    // Fill: (10 + 10 + 10 + 0) / 40.
+    expect(supA).toMatchObject({ requestedQty: 40, filledQty: 30, fillRate: 0.75 });
+    expect(supB).toMatchObject({ lines: 2, onTimeLines: 1, earlyLines: 1, lateLines: 0 });
+  });
+
+  it('caps fill per line, leaves out damaged goods and breaks a promise delivered short', () => {
     const input: PerformanceInput = {
       ...base,
       lines: [
-        // L1: 100 ordered, 100 usable on the need date → on time, fills 100.
-        line('2026-03-10', 100, [{ qty: 100, receivedOn: '2026-03-10', usable: true }]),
-        // L2: 50 ordered, 30 by the need date, 20 a day late → late, fills 30.
-        line('2026-03-12', 50, [
-          { qty: 30, receivedOn: '2026-03-11', usable: true },
-          { qty: 20, receivedOn: '2026-03-13', usable: true },
-        ]),
-        // L3: 40 ordered, 40 arrived early but 10 damaged → 30 usable, late, fills 30.
-        line('2026-03-20', 40, [
-          { qty: 30, receivedOn: '2026-03-18', usable: true },
-          { qty: 10, receivedOn: '2026-03-18', usable: false },
-        ]),
-        // L4: 10 ordered, 25 arrived on time (over) → on time, fills only 10 (capped).
-        line('2026-03-25', 10, [{ qty: 25, receivedOn: '2026-03-24', usable: true }]),
+        // Over: 25 against 10 fills 10 only.
+        line('2026-03-25', 10, [good(25, '2026-03-25')]),
+        // 30 good and 10 damaged against 40 confirmed for 03-20: short of the promise → not kept.
+        line(
+          '2026-03-20',
+          40,
+          [good(30, '2026-03-20'), { qty: 10, receivedOn: '2026-03-20', usable: false }],
+          'SUP-A',
+          {
+            qty: 40,
+            arrivalDate: '2026-03-20',
+          },
+        ),
+        // Asked for 03-10, answered 03-17 and came on 03-17: late to the request, promise kept.
+        line('2026-03-10', 5, [good(5, '2026-03-17')], 'SUP-A', { qty: 5, arrivalDate: '2026-03-17' }),
       ],
     };
 
     const [march] = supplierPerformance(input);
 
-    // On-time: 2 of 4 lines (L1, L4) → 2 / 4 = 0.5.
-    // Fill: (100 + 30 + 30 + 10) / (100 + 50 + 40 + 10) = 170 / 200 = 0.85.
-    expect(march).toMatchObject({ supplierCode: 'SUP-A', month: '2026-03', lines: 4, onTimeLines: 2, onTimeRate: 0.5 });
-    expect(march).toMatchObject({ orderedQty: 200, filledQty: 170, fillRate: 0.85 });
+    // Fill (10 + 30 + 5) / (10 + 40 + 5) = 45 / 55; on time 2 of 3; promise kept 1 of 2.
+    expect(march).toMatchObject({ requestedQty: 55, filledQty: 45, onTimeLines: 2, lateLines: 1 });
+    expect(march).toMatchObject({ promisedLines: 2, promiseKeptLines: 1, promiseKeptRate: 0.5 });
   });
+});
 
-  it('leaves out need dates outside the months and those not yet passed', () => {
+describe('onTimeWindow and arrivalTiming', () => {
+  it('opens the window on working days and calls nothing received late', () => {
+    const window = onTimeWindow('2026-03-16', { earlyToleranceDays: 1, lateToleranceDays: 1 }, calendar);
+
+    expect(window).toEqual({ from: '2026-03-13', to: '2026-03-17' });
+    expect(arrivalTiming([], window)).toBe('late');
+    expect(arrivalTiming([{ qty: 1, receivedOn: '2026-03-16', usable: false }], window)).toBe('late');
+    expect(arrivalTiming([good(1, '2026-03-12')], window)).toBe('early');
+    expect(arrivalTiming([good(1, '2026-03-13'), good(1, '2026-03-17')], window)).toBe('on-time');
+  });
+});
+
+describe('supplierPerformance — rows', () => {
+  it('leaves out requested dates outside the months and windows not yet closed', () => {
     const input: PerformanceInput = {
+      ...base,
       from: '2026-05',
       to: '2026-05',
-      today: '2026-05-10',
-      releases: [],
+      tolerances: new Map([['SUP-B', { earlyToleranceDays: 1, lateToleranceDays: 1 }]]),
       lines: [
         line('2026-04-30', 10, []), // month before the range
-        line('2026-05-09', 10, [{ qty: 10, receivedOn: '2026-05-09', usable: true }]), // yesterday: measured
+        line('2026-05-08', 10, [good(10, '2026-05-08')]), // Friday, window closed: measured
         line('2026-05-10', 10, []), // today: not yet decided
+        line('2026-05-09', 10, [], 'SUP-B'), // SUP-B's window runs to 05-11: not yet decided
         line('2026-05-20', 10, []), // future
       ],
     };
 
     const rows = supplierPerformance(input);
 
-    // Only the 2026-05-09 line counts: 1 line, on time, 10 / 10 filled.
+    // Only the 2026-05-08 line counts: 1 line, on time, 10 / 10 filled.
     expect(rows).toEqual([
       expect.objectContaining({
         month: '2026-05',
         lines: 1,
         onTimeLines: 1,
         onTimeRate: 1,
-        orderedQty: 10,
+        requestedQty: 10,
         filledQty: 10,
         fillRate: 1,
       }),
@@ -161,7 +236,7 @@ describe('summarisePerformance', () => {
       ...base,
       lines: [
         // March: 1 line of 100, fully on time → rate 1.
-        line('2026-03-05', 100, [{ qty: 100, receivedOn: '2026-03-05', usable: true }]),
+        line('2026-03-05', 100, [good(100, '2026-03-05')]),
         // April: 3 lines of 10, none received → rate 0.
         line('2026-04-01', 10, []),
         line('2026-04-02', 10, []),
@@ -179,7 +254,7 @@ describe('summarisePerformance', () => {
       lines: 4,
       onTimeLines: 1,
       onTimeRate: 0.25,
-      orderedQty: 130,
+      requestedQty: 130,
       filledQty: 100,
     });
     expect(summary.fillRate).toBeCloseTo(100 / 130, 12);
@@ -213,8 +288,9 @@ const dayArb = fc.integer({ min: 1, max: 28 }).map((day) => `2026-03-${String(da
 const receiptArb = fc.record({ qty: fc.integer({ min: 0, max: 500 }), receivedOn: dayArb, usable: fc.boolean() });
 const lineArb = fc.record({
   supplierCode: fc.constantFrom('SUP-A', 'SUP-B'),
-  needDate: dayArb,
-  orderedQty: fc.integer({ min: 1, max: 500 }),
+  requestedDate: dayArb,
+  requestedQty: fc.integer({ min: 1, max: 500 }),
+  promise: fc.option(fc.record({ qty: fc.integer({ min: 1, max: 500 }), arrivalDate: dayArb })),
   receipts: fc.array(receiptArb, { maxLength: 4 }),
 });
 const instantArb = fc.integer({ min: Date.UTC(2026, 0, 1), max: Date.UTC(2026, 5, 1) });
@@ -237,6 +313,8 @@ const inputArb = fc
     from: '2026-03',
     to: '2026-03',
     today: '2026-04-01',
+    calendar,
+    tolerances: new Map(),
     ...parts,
   }));
 
@@ -247,7 +325,8 @@ describe('supplierPerformance — properties', () => {
         for (const row of [...supplierPerformance(input), ...summarisePerformance(supplierPerformance(input))]) {
           for (const [rate, base] of [
             [row.onTimeRate, row.lines],
-            [row.fillRate, row.orderedQty],
+            [row.fillRate, row.requestedQty],
+            [row.promiseKeptRate, row.promisedLines],
           ] as const) {
             if (base === 0) {
               expect(rate).toBeNull();
@@ -266,13 +345,15 @@ describe('supplierPerformance — properties', () => {
       fc.property(fc.array(lineArb, { minLength: 1, maxLength: 30 }), (lines) => {
         const full = lines.map((l) => ({
           ...l,
-          receipts: [{ qty: l.orderedQty, receivedOn: l.needDate, usable: true }],
+          receipts: [good(l.requestedQty, l.requestedDate)],
         }));
 
         const rows = supplierPerformance({
           from: '2026-03',
           to: '2026-03',
           today: '2026-04-01',
+          calendar,
+          tolerances: new Map(),
           lines: full,
           releases: [],
         });
@@ -286,7 +367,15 @@ describe('supplierPerformance — properties', () => {
   it('reports the latency median a plain sort would give', () => {
     fc.assert(
       fc.property(fc.array(releaseArb, { maxLength: 15 }), (releases) => {
-        const rows = supplierPerformance({ from: '2026-03', to: '2026-03', today: '2026-04-01', lines: [], releases });
+        const rows = supplierPerformance({
+          from: '2026-03',
+          to: '2026-03',
+          today: '2026-04-01',
+          calendar,
+          tolerances: new Map(),
+          lines: [],
+          releases,
+        });
         for (const row of rows) {
           const hours = releases
             .filter((r) => r.supplierCode === row.supplierCode && r.confirmedAt)

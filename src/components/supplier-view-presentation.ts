@@ -1,0 +1,26 @@
+import type { ForecastZone } from '@shared/domain/supplier-forecast';
+import type { Discrepancy } from '@shared/schemas/receipts';
+import type { ReleaseStatus } from '@shared/schemas/releases';
+
+export const ZONE_WORDS: Record<ForecastZone, string> = { firm: 'Firm', planned: 'Planned', forecast: 'Forecast' };
+
+export const ZONE_MEANINGS: Record<ForecastZone, string> = {
+  firm: 'inside the plant’s frozen window: the build sequence no longer changes',
+  planned: 'inside the part’s lead time: orders for these days go out now',
+  forecast: 'beyond the lead time: nothing ordered yet, the figures may move',
+};
+
+export const CLAIM_WORDS: Record<Discrepancy, string> = {
+  short: 'Short',
+  over: 'Over',
+  damaged: 'Damaged',
+  wrong_part: 'Wrong part',
+};
+
+/** Releases a supplier still has to ship against. */
+export const SHIPPABLE_STATUSES: readonly ReleaseStatus[] = ['sent', 'confirmed', 'exception', 'partial'];
+
+/** Where a supplier tells the plant what it shipped for a release. */
+export function shipNoticePath(releaseNumber: string): string {
+  return `/releases/${encodeURIComponent(releaseNumber)}/ship-notice`;
+}
