@@ -62,16 +62,15 @@ export class SupplierViewService {
       .createQueryBuilder(ReceiptEntity, 'receipt')
       .innerJoin(ReleaseLineEntity, 'line', 'line.id = receipt.releaseLineId')
       .innerJoin(ReleaseEntity, 'release', 'release.id = line.releaseId')
-      .select([
-        'receipt.id AS receiptId',
-        'receipt.qty AS qty',
-        'receipt.discrepancy AS discrepancy',
-        'receipt.note AS note',
-        'receipt.receivedAt AS receivedAt',
-        'line.partNumber AS partNumber',
-        'line.qty AS lineQty',
-        'release.number AS releaseNumber',
-      ])
+      // Aliases given apart so TypeORM quotes them: PostgreSQL folds bare ones to lower case.
+      .select('receipt.id', 'receiptId')
+      .addSelect('receipt.qty', 'qty')
+      .addSelect('receipt.discrepancy', 'discrepancy')
+      .addSelect('receipt.note', 'note')
+      .addSelect('receipt.receivedAt', 'receivedAt')
+      .addSelect('line.partNumber', 'partNumber')
+      .addSelect('line.qty', 'lineQty')
+      .addSelect('release.number', 'releaseNumber')
       .where('release.supplierCode = :supplierCode', { supplierCode })
       .andWhere('receipt.discrepancy IS NOT NULL')
       .orderBy('receipt.receivedAt', 'DESC')
