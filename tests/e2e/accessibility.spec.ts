@@ -184,3 +184,25 @@ test('the sign-in page has no serious WCAG A/AA problem and fits a phone', async
   expect(await seriousViolations(page)).toEqual([]);
   expect(await sidewaysOverflow(page)).toBeLessThanOrEqual(1);
 });
+
+test('at a phone’s width the rail folds into a menu that opens, goes to a screen and closes', async ({
+  page,
+  request,
+}) => {
+  await signInAs(page, await tokenOf(request, 'planner@example.com'));
+  await page.setViewportSize(PHONE);
+  await page.goto('/');
+  await settle(page);
+  await expect(page.getByRole('navigation', { name: 'Main' })).toBeHidden();
+
+  await page.getByRole('button', { name: 'Menu' }).click();
+  const menu = page.getByRole('navigation', { name: 'Menu' });
+  await expect(menu.getByRole('link', { name: 'Stock' })).toBeVisible();
+  await page.screenshot({ path: 'test-results/a11y-shell-menu-390.png', animations: 'disabled' });
+  expect(await seriousViolations(page)).toEqual([]);
+  await menu.getByRole('link', { name: 'Stock' }).click();
+
+  await expect(page).toHaveURL(/\/stock$/);
+  await expect(menu).toBeHidden();
+  await expect(page.getByRole('heading', { level: 1, name: 'Stock' })).toBeVisible();
+});
