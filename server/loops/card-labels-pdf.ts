@@ -18,7 +18,7 @@ const MUTED = '#5c5c5c';
 
 function quantityText(label: CardLabelContent): string {
   const unit = UNIT_WORDS[label.uom];
-  return unit ? `${label.containerQty} ${unit} (${label.uom})` : `${label.containerQty} ${label.uom}`;
+  return `${label.containerQty} ${unit ?? label.uom}`;
 }
 
 function sourceText(label: CardLabelContent): string {

@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import {
+  capturedAttachmentParamsSchema,
   capturedMailSchema,
   outboxHealthSchema,
   outboxMessageParamsSchema,
@@ -23,6 +24,31 @@ export function createOutboxRouter(services: Services, deps: RouteDeps, fakeSmtp
     handler: () => {
       if (!fakeSmtp) throw new NotFoundError('The embedded mail server is not running; SMTP_URL points elsewhere.');
       return fakeSmtp.messages;
+    },
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/dev/mail/:id/attachments/:index',
+    summary: 'One file attached to a captured message, as a download',
+    access: ['admin'],
+    params: capturedAttachmentParamsSchema,
+    produces: ['application/octet-stream'],
+    handler: ({ params, res }) => {
+      if (!fakeSmtp) throw new NotFoundError('The embedded mail server is not running; SMTP_URL points elsewhere.');
+      const file = fakeSmtp.attachment(params.id, params.index);
+      if (!file) throw new NotFoundError('No such attachment among the captured mail.');
+      const fallback = file.fileName.replace(/[^\x20-\x7e]/g, '_').replace(/[\\"]/g, '_');
+      res.status(200);
+      // Always a download: a captured file is untrusted and must not render on the app's origin.
+      res.setHeader('Content-Type', 'application/octet-stream');
+      res.setHeader(
+        'Content-Disposition',
+        `attachment; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(file.fileName)}`,
+      );
+      res.setHeader('X-Content-Type-Options', 'nosniff');
+      res.send(file.content);
+      return undefined;
     },
   });
 

@@ -1,11 +1,21 @@
 import { z } from 'zod';
 
+export const capturedAttachmentSchema = z.object({
+  fileName: z.string(),
+  contentType: z.string(),
+  sizeBytes: z.number().int(),
+});
+export type CapturedAttachment = z.infer<typeof capturedAttachmentSchema>;
+
 export const capturedMailSchema = z.object({
+  id: z.number().int(),
   to: z.string(),
   subject: z.string(),
   text: z.string(),
   html: z.string(),
   date: z.string(),
+  /** Files sent with the message (inline images left out), in the order they came. */
+  attachments: z.array(capturedAttachmentSchema),
 });
 export type CapturedMail = z.infer<typeof capturedMailSchema>;
 
@@ -38,3 +48,8 @@ export const outboxHealthSchema = z.object({
 export type OutboxHealth = z.infer<typeof outboxHealthSchema>;
 
 export const outboxMessageParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+
+export const capturedAttachmentParamsSchema = z.object({
+  id: z.coerce.number().int().positive(),
+  index: z.coerce.number().int().min(0),
+});

@@ -1,4 +1,5 @@
 import type { CapturedMail, OutboxHealth, OutboxMessage } from '@shared/schemas/outbox';
+import { download } from './download';
 import { http } from './http';
 
 /** The newest outgoing notices and their delivery state (admin). */
@@ -22,4 +23,9 @@ export function sendOutboxMessageAgain(id: number): Promise<OutboxMessage> {
  */
 export function listCapturedMail(signal?: AbortSignal): Promise<CapturedMail[]> {
   return http.get<CapturedMail[]>('/dev/mail', { signal });
+}
+
+/** Saves one file attached to a captured message under its own name (admin). */
+export function downloadCapturedAttachment(mailId: number, index: number, fileName: string): Promise<string> {
+  return download(`/dev/mail/${mailId}/attachments/${index}`, fileName);
 }

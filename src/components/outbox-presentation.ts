@@ -55,3 +55,28 @@ export function releaseNoticeLook(notice: OutboxMessage | null, now = new Date()
   }
   return { word: 'E-mail waiting', icon: markRaw(Clock), tone: 'is-waiting' };
 }
+
+/** A run of mail text: plain words, or a web address to show as a link. */
+export interface TextSegment {
+  text: string;
+  href: string | null;
+}
+
+// http(s) addresses up to the next space or angle bracket; trailing sentence punctuation is not part of them.
+const WEB_ADDRESS = /https?:\/\/[^\s<>"]+/g;
+const TRAILING_PUNCTUATION = /[.,;:!?)\]'’”]+$/;
+
+/** Splits plain mail text into words and web addresses, so the addresses can be made links. */
+export function linkSegments(text: string): TextSegment[] {
+  const segments: TextSegment[] = [];
+  let last = 0;
+  for (const match of text.matchAll(WEB_ADDRESS)) {
+    const address = match[0].replace(TRAILING_PUNCTUATION, '');
+    const start = match.index;
+    if (start > last) segments.push({ text: text.slice(last, start), href: null });
+    segments.push({ text: address, href: address });
+    last = start + address.length;
+  }
+  if (last < text.length) segments.push({ text: text.slice(last), href: null });
+  return segments;
+}

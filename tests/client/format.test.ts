@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { addDays, format as formatWithDateFns } from 'date-fns';
 import dayjs from 'dayjs';
 import { UNIT_CODES } from '@shared/schemas/master-data';
+import { elementLocale, sentenceCase } from '@/format/element-locale';
 import {
   DATE_PICKER_FORMAT,
   countOf,
@@ -199,5 +200,13 @@ describe('rates, counts and sizes on screen', () => {
     expect(formatFileSize(820)).toBe('820 B');
     expect(formatFileSize(14.2 * 1024)).toBe('14.2 KB');
     expect(formatFileSize(5 * 1024 * 1024)).toBe('5 MB');
+  });
+});
+
+describe('sentenceCase', () => {
+  it('writes Element Plus labels in sentence case and keeps abbreviations', () => {
+    expect(sentenceCase('Previous Month')).toBe('Previous month');
+    expect(sentenceCase('OTP Input')).toBe('OTP input');
+    expect(elementLocale.el.datepicker.prevMonth).toBe('Previous month');
   });
 });

@@ -121,7 +121,7 @@ describe('LoopsScanView', () => {
     expect(document.activeElement).toBe(input);
   });
 
-  it('names the card’s current state when the move is not allowed', async () => {
+  it('names the card’s current state once when the move is not allowed', async () => {
     const message = `Card ${CARD} is ordered; a scan without an event only empties a full card. Say which event (release, ship or receive).`;
     stubScans(
       jsonResponse(409, {
@@ -133,7 +133,9 @@ describe('LoopsScanView', () => {
     await wedgeScan(input, CARD);
 
     expect(feedback()).toContain('Not allowed in this state');
-    expect(feedback()).toContain('The card is ordered.');
+    expect(feedback()).toContain(message);
+    // Said once, in the server's sentence, not repeated above it.
+    expect(feedback().match(/is ordered/g)).toHaveLength(1);
   });
 
   it('ignores Enter on an empty box', async () => {

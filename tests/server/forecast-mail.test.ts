@@ -62,6 +62,29 @@ describe('POST /api/demand/forecast-mail', () => {
     const captured = await request(context.app).get('/api/dev/mail').set(bearer(context.tokens.admin));
     expect(captured.body[0]).toMatchObject({ to: 'orders@supplier-b.example.net', subject: response.body.subject });
     expect(captured.body[0].text).toContain('D');
+    expect(captured.body[0].attachments).toEqual([
+      expect.objectContaining({ fileName: expect.stringMatching(/\.csv$/), contentType: 'text/csv' }),
+    ]);
+    const file = await request(context.app)
+      .get(`/api/dev/mail/${captured.body[0].id}/attachments/0`)
+      .set(bearer(context.tokens.admin))
+      .buffer(true)
+      .parse((res, done) => {
+        let body = '';
+        res.on('data', (chunk: Buffer) => (body += chunk.toString()));
+        res.on('end', () => done(null, body));
+      });
+    expect(file.status).toBe(200);
+    expect(file.headers['content-disposition']).toMatch(/^attachment; filename=".+\.csv"/);
+    expect(String(file.body).split('\r\n')).toEqual(queued.attachments?.[0].content.split('\r\n'));
+    const byBuyer = await request(context.app)
+      .get(`/api/dev/mail/${captured.body[0].id}/attachments/0`)
+      .set(bearer(context.tokens.buyer));
+    const missing = await request(context.app)
+      .get(`/api/dev/mail/${captured.body[0].id}/attachments/5`)
+      .set(bearer(context.tokens.admin));
+    expect(byBuyer.status).toBe(403);
+    expect(missing.status).toBe(404);
     const delivered = await context.dataSource.getRepository(OutboxMessageEntity).findOneByOrFail({ id: queued.id });
     expect(delivered.status).toBe('sent');
   });
