@@ -7,7 +7,6 @@ export const shipNoticeLineSchema = z.object({
   partNumber: z.string(),
   qty: z.number(),
 });
-export type ShipNoticeLine = z.infer<typeof shipNoticeLineSchema>;
 
 /** A ship notice (ASN): one shipment of a release, with its carrier, tracking and arrival. */
 export const shipNoticeSchema = z.object({
