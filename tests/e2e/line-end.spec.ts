@@ -175,6 +175,8 @@ test.describe('Line end', () => {
       'Build sequence',
       'Line end',
       'Stock',
+      'Parts',
+      'Suppliers',
     ]);
     await screenshots(page, 'home-line');
     const lineEnd = new LineEndPage(page);
