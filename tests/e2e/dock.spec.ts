@@ -43,9 +43,11 @@ test.describe('Dock', () => {
     await dock.open();
     const expected = dock.column('expected');
     await expect(dock.cards(expected).first()).toBeVisible();
-    // A hazardous delivery when there is one, so the check-in shows its handling caution.
-    const hazardous = dock.cards(expected).filter({ hasText: 'Hazardous' });
-    const card = (await hazardous.count()) > 0 ? hazardous.first() : dock.cards(expected).first();
+    // Not the battery supplier's delivery: its expedite line is the demo's planted shortage, which the
+    // line-risk journey reads later. A hazardous delivery when there is one, so the check-in shows its caution.
+    const others = dock.cards(expected).filter({ hasNotText: 'Ferncombe' });
+    const hazardous = others.filter({ hasText: 'Hazardous' });
+    const card = (await hazardous.count()) > 0 ? hazardous.first() : others.first();
     const releaseNumber = (await card.getAttribute('data-release'))!;
 
     await dock.dragCard(card, dock.column('at_dock'));

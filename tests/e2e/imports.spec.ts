@@ -6,9 +6,9 @@ const DEMO_PASSWORD = 'cardloop-demo';
 
 // Part numbers of the demo scenario (seed/scenario-parts.ts); the on-hand layout is PRODUCT.md's
 // `part_number,on_hand`.
-// The counts leave the battery well above its demand, so later journeys still see the demo's planted shortages.
+// The counts leave both parts well above their demand, so later journeys still see the demo's planted shortages.
 const COUNTS_WITH_A_BAD_ROW = 'part_number,on_hand\nBAT-12-105,600\nNO-SUCH-PART,3\n';
-const COUNTS_CORRECTED = 'part_number,on_hand\nBAT-12-105,600\nFK-FIN,75\n';
+const COUNTS_CORRECTED = 'part_number,on_hand\nBAT-12-105,600\nFK-FIN,5000\n';
 
 async function signIn(page: Page, email: string): Promise<void> {
   const login = new LoginPage(page);
