@@ -27,6 +27,17 @@ export class ApiError extends Error {
     return byField;
   }
 
+  /**
+   * Puts the messages for `fields` beside those fields in `target` (a form's server errors); false
+   * when none of them was named, so the caller shows the message above the form instead.
+   */
+  placeFieldErrors(fields: readonly string[], target: Record<string, string | undefined>): boolean {
+    const byField = this.fieldErrors();
+    const placed = fields.filter((field) => byField[field]);
+    for (const field of placed) target[field] = byField[field];
+    return placed.length > 0;
+  }
+
   /** True when the change was made on a copy someone else changed first (409 `stale`). */
   get isStale(): boolean {
     return this.status === 409 && this.code === 'stale';

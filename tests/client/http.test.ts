@@ -72,6 +72,10 @@ describe('src/api/http', () => {
       email: 'Invalid email address',
       'lines.0.qty': 'Too small',
     });
+    const besideFields: Record<string, string | undefined> = {};
+    expect(failure.placeFieldErrors(['email', 'name'], besideFields)).toBe(true);
+    expect(besideFields).toEqual({ email: 'Invalid email address' });
+    expect(failure.placeFieldErrors(['name'], {})).toBe(false);
   });
 
   it('still gives a readable ApiError when the body is not the error format', async () => {
