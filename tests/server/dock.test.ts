@@ -1,6 +1,5 @@
 import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
-import { get, type IncomingMessage } from 'node:http';
-import type { AddressInfo, Server } from 'node:net';
+import type { Server } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
@@ -19,6 +18,7 @@ import { addCalendarDays } from '../../shared/domain/date';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { DockItem } from '../../shared/schemas/dock';
 import type { Role } from '../../shared/schemas/user';
+import { openEventStream } from './event-stream';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;
@@ -456,37 +456,15 @@ describe('dock events', () => {
     server.close();
   });
 
-  function openStream(token: string): Promise<IncomingMessage> {
-    const { port } = server.address() as AddressInfo;
-    return new Promise((resolve) => {
-      get({ port, path: '/api/events', headers: { Authorization: `Bearer ${token}` } }, resolve);
-    });
-  }
-
-  function nextDockEvent(stream: IncomingMessage): Promise<{ version: number }> {
-    return new Promise((resolve) => {
-      let buffer = '';
-      const onData = (chunk: Buffer) => {
-        buffer += chunk.toString('utf8');
-        const match = buffer.match(/event: dock\ndata: (.*)\n\n/);
-        if (match) {
-          stream.off('data', onData);
-          resolve(JSON.parse(match[1]) as { version: number });
-        }
-      };
-      stream.on('data', onData);
-    });
-  }
-
   it('sends a dock event with a higher version after a card moves', async () => {
     const { release } = await makeRelease('sent', [{ partNumber: 'BRUSH-20', qty: 1 }]);
-    const stream = await openStream(context.tokens.viewer);
-    const first = await nextDockEvent(stream);
+    const events = await openEventStream(server, bearer(context.tokens.viewer));
+    const first = await events.next<{ version: number }>('dock');
 
     await move(release.id, 'at_dock');
-    const second = await nextDockEvent(stream);
+    const second = await events.next<{ version: number }>('dock');
 
     expect(second.version).toBeGreaterThan(first.version);
-    stream.destroy();
+    events.close();
   });
 });

@@ -1,5 +1,4 @@
-import { get, type IncomingMessage } from 'node:http';
-import type { AddressInfo, Server } from 'node:net';
+import type { Server } from 'node:net';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
@@ -16,6 +15,7 @@ import { writeSetting } from '../../server/settings/settings';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { StockMovementEntity } from '../../server/stock/stock-movement.entity';
 import { cardNumber } from '../../shared/domain/gs1';
+import { openEventStream } from './event-stream';
 import { bearer, createTestContext, onPostgres, secondNode, testPart, type TestContext } from './helpers';
 
 /*
@@ -97,44 +97,19 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
       .set('Idempotency-Key', key)
       .send({ releaseLineId, qty });
 
-  function dockEventOn(server: Server): Promise<{ stream: IncomingMessage; next: () => Promise<unknown> }> {
-    const { port } = server.address() as AddressInfo;
-    return new Promise((resolve) => {
-      get({ port, path: '/api/events', headers: bearer(nodeB.tokens.viewer) }, (stream) => {
-        let buffer = '';
-        const arrived: unknown[] = [];
-        const waiting: ((payload: unknown) => void)[] = [];
-        stream.on('data', (chunk: Buffer) => {
-          buffer += chunk.toString('utf8');
-          let match: RegExpMatchArray | null;
-          while ((match = buffer.match(/event: dock\ndata: (.*)\n\n/))) {
-            buffer = buffer.slice((match.index ?? 0) + match[0].length);
-            const payload: unknown = JSON.parse(match[1]);
-            const waiter = waiting.shift();
-            if (waiter) waiter(payload);
-            else arrived.push(payload);
-          }
-        });
-        const next = () =>
-          arrived.length > 0 ? Promise.resolve(arrived.shift()) : new Promise((done) => waiting.push(done));
-        resolve({ stream, next });
-      });
-    });
-  }
-
   it('announces a delivery checked in on node A on the event stream of node B', async () => {
-    const { stream, next } = await dockEventOn(serverB);
-    const connected = (await next()) as { version: number };
+    const events = await openEventStream(serverB, bearer(nodeB.tokens.viewer));
+    const connected = await events.next<{ version: number }>('dock');
     const lineId = await openLine(12);
 
-    const announced = next();
+    const announced = events.next<{ version: number }>('dock');
     const response = await receive(nodeA, lineId, 12, 'nodes-announce');
     // Generous: PostgreSQL delivers the notice when node A commits; no timing is asserted beyond this.
     const notice = (await Promise.race([
       announced,
       new Promise((_, reject) => setTimeout(() => reject(new Error('node B heard nothing within 5 s')), 5_000)),
     ])) as { version: number };
-    stream.destroy();
+    events.close();
 
     expect(response.status).toBe(201);
     expect(notice.version).toBeGreaterThan(connected.version);
