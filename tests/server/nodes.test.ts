@@ -71,7 +71,6 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
       sentAt: new Date().toISOString(),
       carrier: null,
       trackingNumber: null,
-      dockColumn: 'expected',
     });
     const line = await nodeA.dataSource.getRepository(ReleaseLineEntity).save({
       releaseId: release.id,
