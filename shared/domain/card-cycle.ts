@@ -66,6 +66,7 @@ export const SCAN_EVENTS: readonly CardEvent[] = ['consume'];
 
 /** Why a scan cannot record this event, and where it happens instead; null when a scan may. */
 export function scanRefusal(event: CardEvent): string | null {
+  if (SCAN_EVENTS.includes(event)) return null;
   switch (event) {
     case 'release':
       return 'a card is ordered only by a release line: an empty card goes on the next release to its supplier (Releases)';
