@@ -165,7 +165,7 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     );
 
     const uploaded = await request(nodeA.app)
-      .post(`/api/dock/items/${releaseId}/attachments`)
+      .post(`/api/dock/releases/${releaseId}/attachments`)
       .set(bearer(nodeA.tokens.receiving))
       .attach('file', pdf, 'slip.pdf');
     const fromB = await request(nodeB.app)
