@@ -76,7 +76,9 @@ function sameRequest(entity: ReceiptEntity, request: ReceiptRequest): boolean {
     entity.qty === wanted.qty &&
     entity.discrepancy === wanted.discrepancy &&
     entity.note === wanted.note &&
-    entity.final === wanted.final
+    entity.final === wanted.final &&
+    // A count that named no shipment was given one; a replay naming another is a different count.
+    (request.shipNoticeId === undefined || request.shipNoticeId === entity.shipNoticeId)
   );
 }
 

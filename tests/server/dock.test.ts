@@ -519,6 +519,33 @@ describe('shipments on the dock', () => {
     expect(await context.dataSource.getRepository(ReceiptEntity).count()).toBe(receiptsBefore);
   });
 
+  it('answers a replayed count once, and refuses the same key naming another shipment (409)', async () => {
+    const { release, lines } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 4, needDate: addCalendarDays(today, 24) },
+    ]);
+    const send = (qty: number) =>
+      sendNotice(release.number, {
+        carrier: 'Road Freight Example',
+        trackingNumber: `TRK-DOCK-R${qty}`,
+        shipDate: addCalendarDays(today, 1),
+        lines: [{ lineId: lines[0].id, qty }],
+      });
+    const [first, second] = [(await send(2)).body.notice.id as number, (await send(2)).body.notice.id as number];
+    const count = (shipNoticeId: number) =>
+      request(context.app)
+        .post('/api/receipts')
+        .set(bearer(context.tokens.receiving))
+        .set('Idempotency-Key', `dock-replay-${release.id}`)
+        .send({ releaseLineId: lines[0].id, qty: 2, shipNoticeId });
+
+    const counted = await count(first);
+    const replayed = await count(first);
+    const otherShipment = await count(second);
+
+    expect([counted.status, replayed.status, otherShipment.status]).toEqual([201, 200, 409]);
+    expect(await context.dataSource.getRepository(ReceiptEntity).countBy({ releaseLineId: lines[0].id })).toBe(1);
+  });
+
   it('moves a shipment card on its own', async () => {
     const dueLater = addCalendarDays(today, 23);
     const { release, lines } = await makeRelease('confirmed', [{ partNumber: 'BRUSH-20', qty: 4, needDate: dueLater }]);

@@ -3,7 +3,9 @@ import { TableColumn, type MigrationInterface, type QueryRunner } from 'typeorm'
 /**
  * The dock board shows one card per shipment: each ship notice keeps its own column, the
  * unshipped rest of a release line keeps its own, and a receipt remembers which shipment it
- * counted. The lines take the column their release had, so no card jumps on upgrade.
+ * counted. The lines and notices take the column their release had, so no card jumps on upgrade;
+ * the release's own column is no longer read (left in place: dropping a column is a table rebuild
+ * on SQLite).
  */
 export class DockShipments1765200000000 implements MigrationInterface {
   name = 'DockShipments1765200000000';
