@@ -173,7 +173,7 @@ export class ReceiptsService {
     ]);
     const onHandAfter = movement?.balanceAfter ?? onHandBefore;
     await manager.update(ReleaseLineEntity, { id: line.id }, { receivedQty, closed: closes });
-    if (closes && line.cardId !== null) await this.returnCard(manager, line.cardId, actor.email);
+    if (closes && line.cardId !== null) await this.returnCard(manager, line.cardId, receivedQty > 0, actor.email);
 
     const previousStatus = release.status;
     const status = await this.releaseStatusAfter(manager, release);
@@ -282,12 +282,22 @@ export class ReceiptsService {
   }
 
   /**
-   * The card that asked for a closed line is full again. A card already received by a scan, or
-   * pulled from circulation, is left as it is: the count at the dock must not fail over it.
+   * The card that asked for a closed line is full again, when stock came in on it. A line closed
+   * with nothing usable (all short, damaged or the wrong part) sends its card back to empty, so the
+   * next release orders it again rather than leaving a full card with no stock behind it. A card
+   * already back, or pulled from circulation, is left as it is: the count must not fail over it.
    */
-  private async returnCard(manager: EntityManager, cardId: number, userEmail: string): Promise<void> {
+  private async returnCard(manager: EntityManager, cardId: number, stocked: boolean, userEmail: string): Promise<void> {
     const card = await manager.findOneBy(KanbanCardEntity, { id: cardId });
     if (!card || card.retiredAt || !isCardState(card.state) || !canTransition(card.state, 'receive')) return;
-    await applyCardEvent(manager, card, 'receive', userEmail);
+    if (stocked) {
+      await applyCardEvent(manager, card, 'receive', userEmail);
+      return;
+    }
+    await manager.update(
+      KanbanCardEntity,
+      { id: card.id },
+      { state: 'empty', stateChangedAt: new Date().toISOString(), releaseLineId: null },
+    );
   }
 }

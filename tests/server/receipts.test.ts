@@ -272,6 +272,32 @@ describe('POST /api/receipts', () => {
     ]);
   });
 
+  it('sends the card of a line closed with nothing usable back to empty, not full', async () => {
+    // The caster's loop from the test before.
+    const loop = await context.dataSource.getRepository(KanbanLoopEntity).findOneByOrFail({ partNumber: 'CASTER-75' });
+    const card = await context.dataSource.getRepository(KanbanCardEntity).save({
+      loopId: loop.id,
+      cardIndex: 2,
+      cardNumber: cardNumber(loop.id, 2),
+      state: 'ordered',
+      stateChangedAt: '2026-11-30T08:00:00.000Z',
+      retiredAt: null,
+      releaseLineId: null,
+    });
+    const { lines } = await makeRelease('confirmed', [{ partNumber: 'CASTER-75', qty: 6, cardId: card.id }]);
+    const before = await onHandOf('CASTER-75');
+
+    const response = await receive({ releaseLineId: lines[0].id, qty: 6, discrepancy: 'damaged', close: true });
+
+    expect(response.status).toBe(201);
+    expect(await onHandOf('CASTER-75')).toBe(before);
+    expect(await lineOf(lines[0].id)).toMatchObject({ closed: true, receivedQty: 0 });
+    expect(await context.dataSource.getRepository(KanbanCardEntity).findOneByOrFail({ id: card.id })).toMatchObject({
+      state: 'empty',
+      releaseLineId: null,
+    });
+  });
+
   it('refuses a closed line with 409 and counts nothing', async () => {
     const { lines } = await makeRelease('sent', [
       { partNumber: 'BRUSH-20', qty: 5 },
