@@ -360,9 +360,9 @@ export class ReceiptsService {
     const previousStatus = release.status;
     const status = await this.releaseStatusAfter(manager, release);
     await manager.update(ReleaseEntity, { id: release.id }, { status, dockColumn: 'counted' });
-    for (const releaseId of new Set(
-      others.filter((other) => kept.shares.some((share) => share.lineId === other.id)).map((other) => other.releaseId),
-    )) {
+    // Releases whose lines took kept excess are partly or wholly received too (their dock column stays).
+    const filled = new Set(kept.shares.map((share) => others.find((other) => other.id === share.lineId)!.releaseId));
+    for (const releaseId of filled) {
       const other = await manager.findOneByOrFail(ReleaseEntity, { id: releaseId });
       await manager.update(ReleaseEntity, { id: releaseId }, { status: await this.releaseStatusAfter(manager, other) });
     }

@@ -57,7 +57,7 @@ export interface OpenSupplyLine {
   remainingQty: number;
 }
 
-export interface ExcessShare {
+export interface LineShare {
   lineId: number;
   qty: number;
   /** The share covers everything still to come on the line, which then closes. */
@@ -65,7 +65,7 @@ export interface ExcessShare {
 }
 
 export interface ExcessAllocation {
-  shares: ExcessShare[];
+  shares: LineShare[];
   /** What no open line took: it stays on the received line as more than ordered. */
   unallocatedQty: number;
 }
@@ -73,7 +73,7 @@ export interface ExcessAllocation {
 /** Spreads kept excess over the other open lines, first due first (ties by line id, the older first). */
 export function allocateExcess(excessQty: number, lines: readonly OpenSupplyLine[]): ExcessAllocation {
   const ordered = [...lines].sort((a, b) => a.due.localeCompare(b.due) || a.id - b.id);
-  const shares: ExcessShare[] = [];
+  const shares: LineShare[] = [];
   let left = excessQty;
   for (const line of ordered) {
     if (left <= QTY_EPSILON) break;
