@@ -3,6 +3,7 @@ import { DockPage } from './pages/dock-page';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
 import { OverChoice } from './pages/over-choice';
+import { SupplierAccountPage } from './pages/supplier-account-page';
 
 const DEMO_PASSWORD = 'cardloop-demo';
 const EXTRA = 3;
@@ -31,6 +32,7 @@ test.describe('Dock, more than ordered', () => {
   test('receiving counts more than a line ordered, sees what keeping or sending back would do, sends the extra back', async ({
     page,
     request,
+    browser,
   }) => {
     const buyer = await tokenOf(request, 'buyer@example.com');
     const run = await request.post('/api/releases/run', {
@@ -118,5 +120,29 @@ test.describe('Dock, more than ordered', () => {
     }
     await settleForScreenshot(page);
     await dialog.screenshot({ path: 'test-results/dock-over-done.png' });
+
+    // The supplier sees the claim among its own, with what the dock did with the extra.
+    const admin = await tokenOf(request, 'admin@example.com');
+    const users = (await (
+      await request.get('/api/users', { headers: { Authorization: `Bearer ${admin}` } })
+    ).json()) as { email: string; role: string; supplierCode: string | null }[];
+    const contact = users.find((user) => user.role === 'supplier' && user.supplierCode === supplierCode)!;
+    const supplierPage = await browser.newPage({ viewport: { width: 1440, height: 900 } });
+    const supplierLogin = new LoginPage(supplierPage);
+    await supplierLogin.open();
+    await supplierLogin.signIn(contact.email, DEMO_PASSWORD);
+    const account = new SupplierAccountPage(supplierPage);
+    await account.openFromRail();
+    const claim = account.claimsTable().getByRole('row').filter({ hasText: releaseNumber });
+    await expect(claim).toContainText(`Over: ${EXTRA} sent back`);
+    await expect(claim).toContainText(`${ordered + EXTRA} / ${ordered}`);
+    await account.claimsTable().scrollIntoViewIfNeeded();
+    await settleForScreenshot(supplierPage);
+    await supplierPage.screenshot({ path: 'test-results/dock-over-claim.png' });
+    await supplierPage.setViewportSize({ width: 390, height: 844 });
+    await account.claimsTable().scrollIntoViewIfNeeded();
+    await settleForScreenshot(supplierPage);
+    await supplierPage.screenshot({ path: 'test-results/dock-over-claim-phone.png' });
+    await supplierPage.close();
   });
 });
