@@ -301,8 +301,9 @@ export class ReceiptsService {
 
     const stored = normalise(request);
     const usable = addsToOnHand(stored.discrepancy) ? stored.qty : 0;
-    const checked = this.checkCount(line, usable, await this.toleranceOf(manager, release.supplierCode));
-    this.refuseUnfitChoice(checked, stored, line);
+    const tolerancePct = await this.toleranceOf(manager, release.supplierCode);
+    const checked = this.checkCount(line, usable, tolerancePct);
+    this.refuseUnfitChoice(checked, stored, line, tolerancePct);
     const overAction = checked.over ? stored.overAction : null;
     const discrepancy = checked.over ? 'over' : stored.discrepancy;
 
@@ -400,11 +401,17 @@ export class ReceiptsService {
   }
 
   /** An over count needs the clerk's choice and is `over`; a count within the tolerance takes neither. */
-  private refuseUnfitChoice(checked: OverCheck, stored: ReturnType<typeof normalise>, line: ReleaseLineEntity): void {
-    const limit = `${checked.limitQty} (ordered ${orderedOf(line)}, received so far ${line.receivedQty})`;
+  private refuseUnfitChoice(
+    checked: OverCheck,
+    stored: ReturnType<typeof normalise>,
+    line: ReleaseLineEntity,
+    tolerancePct: number,
+  ): void {
+    const allowed = `the ${checked.limitQty} the supplier may send in all (ordered ${orderedOf(line)}, ${tolerancePct} % over allowed, received so far ${line.receivedQty})`;
+    const what = `line ${line.id} (${line.partNumber})`;
     if (checked.over && !stored.overAction) {
       throw new RefusedInputError(
-        `The count takes line ${line.id} (${line.partNumber}) over the supplier's tolerance of ${limit}: choose keep or return for the ${checked.excessQty} extra.`,
+        `The count takes ${what} above ${allowed}: choose keep or return for the ${checked.excessQty} extra — keep counts them against later open orders, return sends them back to the supplier.`,
         [
           {
             path: ['overAction'],
@@ -415,22 +422,23 @@ export class ReceiptsService {
       );
     }
     if (checked.over && stored.discrepancy && stored.discrepancy !== 'over') {
-      throw new RefusedInputError(
-        `A count above the supplier's tolerance of ${limit} is over, not ${stored.discrepancy}.`,
-        [{ path: ['discrepancy'], message: `must be over or empty for a count above ${checked.limitQty}` }],
-      );
+      throw new RefusedInputError(`The count takes ${what} above ${allowed}: it is over, not ${stored.discrepancy}.`, [
+        { path: ['discrepancy'], message: `must be over or empty for a count above ${checked.limitQty} in all` },
+      ]);
     }
     if (!checked.over && stored.overAction) {
       throw new RefusedInputError(
-        `The count is within the supplier's tolerance of ${limit}: it is received as it is, with nothing to keep or return.`,
-        [{ path: ['overAction'], message: `only for a count that takes the line above ${checked.limitQty}` }],
+        `The count keeps ${what} within ${allowed}: it is received as it is, with nothing to keep or return.`,
+        [{ path: ['overAction'], message: `only for a count that takes the line above ${checked.limitQty} in all` }],
       );
     }
     if (!checked.over && stored.discrepancy === 'over') {
-      throw new RefusedInputError(
-        `The count is within the supplier's tolerance of ${limit}; over is recorded only above it.`,
-        [{ path: ['discrepancy'], message: `over only for a count that takes the line above ${checked.limitQty}` }],
-      );
+      throw new RefusedInputError(`The count keeps ${what} within ${allowed}; over is recorded only above it.`, [
+        {
+          path: ['discrepancy'],
+          message: `over only for a count that takes the line above ${checked.limitQty} in all`,
+        },
+      ]);
     }
   }
 
