@@ -15,6 +15,7 @@ import { PartEntity } from '../master-data/part.entity';
 import { AttachmentEntity } from '../dock/attachment.entity';
 import { AttachmentContentEntity } from '../dock/attachment-content.entity';
 import { ReceiptEntity } from '../dock/receipt.entity';
+import { ReceiptShareEntity } from '../dock/receipt-share.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
@@ -41,6 +42,7 @@ export const entities = [
   PartEntity,
   PasswordResetEntity,
   ReceiptEntity,
+  ReceiptShareEntity,
   ReleaseEntity,
   ReleaseLineEntity,
   SequenceEntryEntity,

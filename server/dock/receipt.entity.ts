@@ -27,6 +27,14 @@ export class ReceiptEntity {
   @Column({ type: 'boolean', default: false })
   final: boolean;
 
+  /** keep or return: the clerk's choice for a count over the supplier's tolerance; null otherwise. */
+  @Column({ name: 'over_action', type: 'varchar', length: 8, nullable: true })
+  overAction: string | null;
+
+  /** Of qty, what lay above the line's ordered quantity when the count was over; 0 otherwise. */
+  @Column({ name: 'excess_qty', type: 'double precision', default: 0 })
+  excessQty: number;
+
   /** Replaying a request with the same key returns the first result and counts nothing twice. */
   @Index({ unique: true })
   @Column({ name: 'idempotency_key', type: 'varchar', length: 100 })

@@ -1,6 +1,11 @@
 import { Router } from 'express';
 import { IDEMPOTENCY_HEADER } from '../../shared/schemas/idempotency';
-import { receiptRequestSchema, receiptResponseSchema } from '../../shared/schemas/receipts';
+import {
+  overCheckQuerySchema,
+  overCheckResponseSchema,
+  receiptRequestSchema,
+  receiptResponseSchema,
+} from '../../shared/schemas/receipts';
 import { readIdempotencyKey } from '../http/idempotency';
 import { defineRoute, Reply, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
@@ -25,6 +30,18 @@ export function createReceiptsRouter(services: Services, deps: RouteDeps): Route
       const outcome = await service.receive(body, readIdempotencyKey(req, 'count'), user);
       return new Reply(outcome.created ? 201 : 200, outcome.body);
     },
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/receipts/over-check',
+    summary:
+      'What a count of `qty` on a release line would do, before it is recorded: whether it passes the supplier’s over ' +
+      'tolerance, and which open lines kept excess would go to (first due first). Changes nothing.',
+    access: RECEIVING_ROLES,
+    query: overCheckQuerySchema,
+    response: overCheckResponseSchema,
+    handler: ({ query }) => service.check(query),
   });
 
   return router;

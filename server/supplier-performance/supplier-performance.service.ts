@@ -19,6 +19,7 @@ import {
 } from '../../shared/schemas/supplier-performance';
 import { BadRequestError, NotFoundError } from '../errors';
 import { plantToday } from '../planning/plan-dates';
+import { ReceiptShareEntity } from '../dock/receipt-share.entity';
 import { ReceiptEntity } from '../dock/receipt.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
@@ -93,20 +94,41 @@ export class SupplierPerformanceService {
     const rows = await lineQuery.getRawMany<LineRow>();
 
     const receiptsByLine = new Map<number, PerformanceLine['receipts'][number][]>();
+    const add = (lineId: number, receipt: PerformanceLine['receipts'][number]) => {
+      const list = receiptsByLine.get(lineId) ?? [];
+      list.push(receipt);
+      receiptsByLine.set(lineId, list);
+    };
     const lineIds = rows.map((row) => row.id);
     // SQLite allows a limited number of bound parameters per statement.
     for (let start = 0; start < lineIds.length; start += 500) {
-      const receipts = await manager.find(ReceiptEntity, {
-        where: { releaseLineId: In(lineIds.slice(start, start + 500)) },
-      });
+      const slice = lineIds.slice(start, start + 500);
+      const [receipts, sharesIn] = await Promise.all([
+        manager.find(ReceiptEntity, { where: { releaseLineId: In(slice) } }),
+        manager.find(ReceiptShareEntity, { where: { releaseLineId: In(slice) } }),
+      ]);
+      const fromIds = [...new Set(sharesIn.map((share) => share.receiptId))];
+      const keptIds = receipts.filter((receipt) => receipt.overAction === 'keep').map((receipt) => receipt.id);
+      const sharedFrom = fromIds.length > 0 ? await manager.findBy(ReceiptEntity, { id: In(fromIds) }) : [];
+      const sharesOut = keptIds.length > 0 ? await manager.findBy(ReceiptShareEntity, { receiptId: In(keptIds) }) : [];
       for (const receipt of receipts) {
-        const list = receiptsByLine.get(receipt.releaseLineId) ?? [];
-        list.push({
-          qty: receipt.qty,
+        // An over receipt delivers on its own line only what stayed there: excess returned or
+        // applied to other lines is not this line's.
+        const returned = receipt.overAction === 'return' ? receipt.excessQty : 0;
+        const applied = sharesOut
+          .filter((share) => share.receiptId === receipt.id)
+          .reduce((sum, share) => sum + share.qty, 0);
+        add(receipt.releaseLineId, {
+          qty: receipt.qty - returned - applied,
           receivedOn: plantToday(new Date(receipt.receivedAt)),
           usable: addsToOnHand(receipt.discrepancy as Discrepancy | null),
         });
-        receiptsByLine.set(receipt.releaseLineId, list);
+      }
+      // Kept excess delivered a later line on the day it arrived (early, most likely).
+      for (const share of sharesIn) {
+        const from = sharedFrom.find((receipt) => receipt.id === share.receiptId);
+        if (from)
+          add(share.releaseLineId, { qty: share.qty, receivedOn: plantToday(new Date(from.receivedAt)), usable: true });
       }
     }
 

@@ -1,4 +1,5 @@
 import { forecastZone, plannedUntil } from '../../shared/domain/supplier-forecast';
+import type { OverAction } from '../../shared/domain/over-receipt';
 import type { Discrepancy } from '../../shared/schemas/receipts';
 import type { ReceivingClaim, SupplierForecast } from '../../shared/schemas/supplier-view';
 import { readCalendar } from '../calendar/calendar.service';
@@ -66,6 +67,8 @@ export class SupplierViewService {
       .select('receipt.id', 'receiptId')
       .addSelect('receipt.qty', 'qty')
       .addSelect('receipt.discrepancy', 'discrepancy')
+      .addSelect('receipt.overAction', 'overAction')
+      .addSelect('receipt.excessQty', 'excessQty')
       .addSelect('receipt.note', 'note')
       .addSelect('receipt.receivedAt', 'receivedAt')
       .addSelect('line.partNumber', 'partNumber')
@@ -76,8 +79,10 @@ export class SupplierViewService {
       .orderBy('receipt.receivedAt', 'DESC')
       .addOrderBy('receipt.id', 'DESC')
       .limit(500)
-      .getRawMany<Omit<ReceivingClaim, 'discrepancy'> & { discrepancy: Discrepancy }>();
-    return rows.map((row) => ({ ...row, receiptId: Number(row.receiptId) }));
+      .getRawMany<
+        Omit<ReceivingClaim, 'discrepancy' | 'overAction'> & { discrepancy: Discrepancy; overAction: OverAction | null }
+      >();
+    return rows.map((row) => ({ ...row, receiptId: Number(row.receiptId), excessQty: Number(row.excessQty) }));
   }
 
   private async supplier(code: string): Promise<SupplierEntity> {

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isoDateSchema } from './master-data';
+import { OVER_ACTIONS } from '../domain/over-receipt';
 import { DISCREPANCIES } from './receipts';
 
 export const supplierCodeParamsSchema = z.object({ code: z.string().trim().min(1).max(20) });
@@ -40,6 +41,11 @@ export const receivingClaimSchema = z.object({
   lineQty: z.number(),
   qty: z.number(),
   discrepancy: z.enum(DISCREPANCIES),
+  overAction: z
+    .enum(OVER_ACTIONS)
+    .nullable()
+    .meta({ description: 'For `over`: the dock kept the excess against later open lines, or returned it.' }),
+  excessQty: z.number().meta({ description: 'For `over`: the quantity above the line’s ordered quantity.' }),
   note: z.string().nullable(),
   receivedAt: z.string(),
 });

@@ -1,5 +1,6 @@
 import type { DockColumn, DockItem, DockLine } from '@shared/schemas/dock';
-import type { Discrepancy } from '@shared/schemas/receipts';
+import type { Discrepancy, OverCheckResponse, Receipt } from '@shared/schemas/receipts';
+import { formatDay, formatQuantity } from '@/format';
 
 /** Our words for the board's columns, with what each means on the floor. */
 export const COLUMN_WORDS: Record<DockColumn, { title: string; hint: string }> = {
@@ -26,11 +27,43 @@ export function cardQtyWord(kind: DockItem['kind']): string {
   return kind === 'shipment' ? 'On this shipment' : 'Not yet shipped';
 }
 
-/** The discrepancy a count suggests against what is still to come; null when it matches. */
+/**
+ * The discrepancy a count suggests against what is still to come: short below it, else none.
+ * Over is not the count's to suggest: only a count above the supplier's tolerance is over, and
+ * the server's over-check says so.
+ */
 export function suggestDiscrepancy(counted: number, remaining: number): Discrepancy | null {
-  if (counted < remaining) return 'short';
-  if (counted > remaining) return 'over';
-  return null;
+  return counted < remaining ? 'short' : null;
+}
+
+/** What keeping an over count's excess does, in the clerk's words. */
+export function keepWords(check: OverCheckResponse, uom: string): string {
+  const shares = check.keep.appliedTo.map(
+    (share) =>
+      `${formatQuantity(share.qty, uom)} go to ${share.releaseNumber}, line due ${formatDay(share.due)}${share.closes ? ' (it closes)' : ''}`,
+  );
+  const stays = check.keep.unallocatedQty;
+  if (shares.length === 0)
+    return `No later order of this part is open: all ${formatQuantity(stays, uom)} stay in stock on this line.`;
+  const rest = stays > 0 ? `; ${formatQuantity(stays, uom)} no order needs stay in stock on this line` : '';
+  return `Into stock, counted against later orders: ${shares.join('; ')}${rest}.`;
+}
+
+/** What returning an over count's excess does. */
+export function returnWords(check: OverCheckResponse, uom: string): string {
+  return `${formatQuantity(check.excessQty, uom)} go back to the supplier; this line closes at ${formatQuantity(check.orderedQty, uom)}.`;
+}
+
+/** What a recorded over receipt did with its excess; empty for any other receipt. */
+export function overOutcomeWords(receipt: Receipt, uom: string): string {
+  if (receipt.overAction === 'return') return `${formatQuantity(receipt.returnedQty, uom)} back to the supplier.`;
+  if (receipt.overAction !== 'keep') return '';
+  if (receipt.appliedTo.length === 0)
+    return `${formatQuantity(receipt.excessQty, uom)} more than ordered kept on this line.`;
+  const shares = receipt.appliedTo.map(
+    (share) => `${formatQuantity(share.qty, uom)} to ${share.releaseNumber} (due ${formatDay(share.due)})`,
+  );
+  return `Kept against later orders: ${shares.join(', ')}.`;
 }
 
 /**

@@ -54,12 +54,13 @@ export function stockFlags(item: Pick<StockItem, 'negative' | 'countDue'>): Stoc
   return [...(item.negative ? [NEGATIVE] : []), ...(item.countDue ? [COUNT_DUE] : [])];
 }
 
-/** What a movement belongs to, in words: the unit, the release or the count. */
+/** What a movement belongs to, in words: the unit, the release, the count or the receipt. */
 export function movementReference(movement: Pick<StockMovement, 'refType' | 'ref'>): string {
   if (!movement.ref) return '';
   if (movement.refType === 'serial') return `Unit ${movement.ref}`;
   if (movement.refType === 'release') return `Release ${movement.ref}`;
   if (movement.refType === 'count') return `Counted ${movement.ref}`;
+  if (movement.refType === 'receipt') return `Receipt ${movement.ref}`;
   return movement.ref;
 }
 

@@ -1,6 +1,8 @@
 import type { ForecastZone } from '@shared/domain/supplier-forecast';
 import type { Discrepancy } from '@shared/schemas/receipts';
 import type { ReleaseStatus } from '@shared/schemas/releases';
+import type { ReceivingClaim } from '@shared/schemas/supplier-view';
+import { formatQty } from '@/format';
 
 export const ZONE_WORDS: Record<ForecastZone, string> = { firm: 'Firm', planned: 'Planned', forecast: 'Forecast' };
 
@@ -10,12 +12,19 @@ export const ZONE_MEANINGS: Record<ForecastZone, string> = {
   forecast: 'beyond the lead time: nothing ordered yet, the figures may move',
 };
 
-export const CLAIM_WORDS: Record<Discrepancy, string> = {
+const CLAIM_WORDS: Record<Discrepancy, string> = {
   short: 'Short',
   over: 'Over',
   damaged: 'Damaged',
   wrong_part: 'Wrong part',
 };
+
+/** A claim's kind in words; an over one says what the dock did with the extra. */
+export function claimWords(claim: Pick<ReceivingClaim, 'discrepancy' | 'overAction' | 'excessQty'>): string {
+  if (claim.discrepancy !== 'over' || !claim.overAction) return CLAIM_WORDS[claim.discrepancy];
+  const extra = formatQty(claim.excessQty);
+  return claim.overAction === 'keep' ? `Over: ${extra} kept for later orders` : `Over: ${extra} sent back`;
+}
 
 /** Releases a supplier still has to ship against. */
 export const SHIPPABLE_STATUSES: readonly ReleaseStatus[] = ['sent', 'confirmed', 'exception', 'partial'];

@@ -2,7 +2,7 @@ import { createAppContext, getButton, jsonResponse, mountInApp } from './helpers
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { DockItem, DockLine } from '@shared/schemas/dock';
-import type { ReceiptRequest, ReceiptResponse } from '@shared/schemas/receipts';
+import type { OverCheckResponse, ReceiptRequest, ReceiptResponse } from '@shared/schemas/receipts';
 import type { SessionUser } from '@shared/schemas/user';
 import DockCheckInDialog from '@/components/DockCheckInDialog.vue';
 import { newIdempotencyKey } from '@/api/idempotency-key';
@@ -69,12 +69,42 @@ function receiptAnswer(request: ReceiptRequest, partNumber: string, onHand: numb
       note: request.note ?? null,
       final: request.close ?? false,
       addedToOnHand: request.qty,
+      overAction: request.overAction ?? null,
+      excessQty: 0,
+      returnedQty: 0,
+      appliedTo: [],
       onHandAfter: onHand,
       userEmail: receiving.email,
       receivedAt: '2026-12-01T09:00:00.000Z',
     },
     onHand,
   };
+}
+
+/** The server's over-check answer for a count above what is still to come. */
+function overCheck(overrides: Partial<OverCheckResponse> & { releaseLineId: number }): OverCheckResponse {
+  return {
+    orderedQty: 10,
+    receivedQty: 0,
+    overTolerancePct: 0,
+    limitQty: 10,
+    over: true,
+    excessQty: 0,
+    keep: { appliedTo: [], unallocatedQty: 0 },
+    ...overrides,
+  };
+}
+
+/** Answers GET /api/receipts/over-check from the given answers by line, and receipts with their echo. */
+function overCheckFetch(answers: Record<number, OverCheckResponse>, onHand = 0) {
+  return vi.fn<typeof fetch>((input, init) => {
+    const url = new URL(String(input), 'http://localhost');
+    if (url.pathname === '/api/receipts/over-check') {
+      return Promise.resolve(jsonResponse(200, answers[Number(url.searchParams.get('releaseLineId'))]));
+    }
+    const body = JSON.parse(String(init?.body)) as ReceiptRequest;
+    return Promise.resolve(jsonResponse(201, receiptAnswer(body, 'PAD-26', onHand)));
+  });
 }
 
 interface SentReceipt {
@@ -147,11 +177,12 @@ describe('check-in helpers', () => {
     ]).toEqual([24, 12.5, 12.5, null, null, null]);
   });
 
-  it('suggests short below what is still to come, over above it, nothing when it matches', () => {
-    // Common practice, no source: a count below the remaining quantity is a short delivery.
+  it('suggests short below what is still to come, and nothing from the count alone above it', () => {
+    // Common practice, no source: a count below the remaining quantity is a short delivery. Above
+    // it, only the supplier's tolerance makes a count over, and the server's over-check says so.
     expect([suggestDiscrepancy(8, 10), suggestDiscrepancy(12, 10), suggestDiscrepancy(10, 10)]).toEqual([
       'short',
-      'over',
+      null,
       null,
     ]);
   });
@@ -211,7 +242,7 @@ describe('DockCheckInDialog', () => {
   });
 
   it('suggests Short or Over from the count, and keeps a discrepancy chosen by hand', async () => {
-    vi.stubGlobal('fetch', vi.fn());
+    vi.stubGlobal('fetch', overCheckFetch({ 2: overCheck({ releaseLineId: 2, orderedQty: 10, excessQty: 2 }) }));
     const wrapper = await openDialog(itemWith([line(1, 'BRUSH-20', 40), line(2, 'PAD-26', 10)]));
 
     await type(countBox('BRUSH-20'), '35');
@@ -295,6 +326,76 @@ describe('DockCheckInDialog', () => {
 
     expect(fetchMock).not.toHaveBeenCalled();
     expect(lineElement('BRUSH-20').textContent).toContain('A count of 0 needs a discrepancy');
+  });
+
+  it('asks keep or send back for a count over the tolerance, says what each does, and sends the choice', async () => {
+    const answer = overCheck({
+      releaseLineId: 2,
+      orderedQty: 12,
+      limitQty: 12,
+      excessQty: 18,
+      keep: {
+        appliedTo: [
+          { releaseLineId: 8, releaseNumber: 'R261209-FBS', due: '2026-12-09', qty: 10, closes: true },
+          { releaseLineId: 9, releaseNumber: 'R261214-FBS', due: '2026-12-14', qty: 8, closes: false },
+        ],
+        unallocatedQty: 0,
+      },
+    });
+    const fetchMock = overCheckFetch({ 2: answer }, 30);
+    vi.stubGlobal('fetch', fetchMock);
+    await openDialog(itemWith([line(2, 'PAD-26', 12)]));
+    await type(countBox('PAD-26'), '30');
+
+    const choice = lineElement('PAD-26').querySelector('[data-test="over-choice"]');
+    const keep = choice?.querySelector('[data-test="keep-words"]')?.textContent ?? '';
+    const back = choice?.querySelector('[data-test="return-words"]')?.textContent ?? '';
+    const shownAs = discrepancyShown('PAD-26');
+    await record();
+    const refused = lineElement('PAD-26').querySelector('[role="alert"]')?.textContent ?? '';
+    const sentBeforeChoice = receiptCalls(fetchMock).length;
+    choice!.querySelector<HTMLInputElement>('input[value="return"]')!.click();
+    await flushPromises();
+    await record();
+
+    expect(keep).toContain('10 pcs go to R261209-FBS, line due Wed 9 Dec (it closes)');
+    expect(keep).toContain('8 pcs go to R261214-FBS, line due Mon 14 Dec');
+    expect(back).toBe('18 pcs go back to the supplier; this line closes at 12 pcs.');
+    expect(shownAs).toBe('Over');
+    expect(refused).toContain('Choose Keep them or Send them back for the 18 extra');
+    expect(sentBeforeChoice).toBe(0);
+    expect(receiptCalls(fetchMock).map((call) => call.body)).toEqual([
+      {
+        releaseLineId: 2,
+        shipNoticeId: 9,
+        qty: 30,
+        discrepancy: 'over',
+        note: null,
+        close: false,
+        overAction: 'return',
+      },
+    ]);
+  });
+
+  it('asks nothing for a count within the tolerance, and says a short line stays open or closes short', async () => {
+    vi.stubGlobal(
+      'fetch',
+      overCheckFetch({ 1: overCheck({ releaseLineId: 1, orderedQty: 20, limitQty: 22, over: false }) }),
+    );
+    await openDialog(itemWith([line(1, 'BRUSH-20', 20), line(2, 'PAD-26', 10)]));
+
+    await type(countBox('BRUSH-20'), '22');
+    await type(countBox('PAD-26'), '7');
+    const open = lineElement('PAD-26').querySelector('[data-test="short-words"]')?.textContent?.trim();
+    lineElement('PAD-26').querySelector<HTMLInputElement>('.el-checkbox input')!.click();
+    await flushPromises();
+
+    expect(lineElement('BRUSH-20').querySelector('[data-test="over-choice"]')).toBeNull();
+    expect(discrepancyShown('BRUSH-20')).toBe('None');
+    expect(open).toBe('The line stays open for the other 3 pcs; tick Final to close it short.');
+    expect(lineElement('PAD-26').querySelector('[data-test="short-words"]')?.textContent?.trim()).toBe(
+      'Closes short: the other 3 pcs will not come.',
+    );
   });
 
   it('says the caution once per part, with its UN number, class, weight and data sheet', async () => {

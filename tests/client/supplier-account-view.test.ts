@@ -43,6 +43,8 @@ const claims: ReceivingClaim[] = [
     lineQty: 12,
     qty: 10,
     discrepancy: 'short',
+    overAction: null,
+    excessQty: 0,
     note: 'two short',
     receivedAt: '2026-11-27T08:00:00.000Z',
   },

@@ -7,6 +7,7 @@ import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { syncLoops } from '../../server/loops/loop-sync';
 import { PartEntity } from '../../server/master-data/part.entity';
 import { ReceiptEntity } from '../../server/dock/receipt.entity';
+import { ReceiptShareEntity } from '../../server/dock/receipt-share.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseJob } from '../../server/releases/release-job';
@@ -38,6 +39,7 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
         testPart('ROLLER-A', { onHand: 0, replenishment: 'scheduled' }),
         testPart('CASTER-K', { packQty: 10 }),
         testPart('BELT-K', { packQty: 4, supplierCode: 'SUP-B' }),
+        testPart('SPOOL-N', { onHand: 0, replenishment: 'scheduled' }),
       ]);
       await syncLoops(manager);
       const loops = await manager.find(KanbanLoopEntity);
@@ -153,6 +155,61 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     expect(await nodeA.dataSource.getRepository(ReleaseLineEntity).findOneByOrFail({ id: lineId })).toMatchObject({
       receivedQty: 80,
     });
+  });
+
+  it('spreads the excess of over receipts posted on both nodes at once over later lines only once', async () => {
+    const release = await nodeA.dataSource.getRepository(ReleaseEntity).save({
+      number: 'R-NODES-OVER',
+      supplierCode: 'SUP-A',
+      releaseDate: '2026-11-20',
+      reference: 'nodes-over',
+      status: 'confirmed',
+      sentAt: new Date().toISOString(),
+      carrier: null,
+      trackingNumber: null,
+      dockColumn: 'expected',
+    });
+    const [one, two, later] = await nodeA.dataSource.getRepository(ReleaseLineEntity).save(
+      ['2026-11-30', '2026-11-30', '2026-12-10'].map((needDate) => ({
+        releaseId: release.id,
+        partNumber: 'SPOOL-N',
+        qty: 10,
+        needDate,
+        origin: 'plan',
+        cardId: null,
+        confirmedQty: null,
+        receivedQty: 0,
+        closed: false,
+      })),
+    );
+    const over = (node: TestContext, releaseLineId: number, key: string) =>
+      request(node.app)
+        .post('/api/receipts')
+        .set(bearer(node.tokens.receiving))
+        .set('Idempotency-Key', key)
+        .send({ releaseLineId, qty: 16, overAction: 'keep' });
+
+    // Each count twice, once on each node with the same key, and the two counts racing each other.
+    const answers = await Promise.all([
+      over(nodeA, one.id, 'nodes-over-1'),
+      over(nodeB, two.id, 'nodes-over-2'),
+      over(nodeB, one.id, 'nodes-over-1'),
+      over(nodeA, two.id, 'nodes-over-2'),
+    ]);
+
+    expect(answers.map((answer) => answer.status).sort()).toEqual([200, 200, 201, 201]);
+    const lines = await nodeA.dataSource.getRepository(ReleaseLineEntity).findBy({ partNumber: 'SPOOL-N' });
+    const receivedOn = (id: number) => lines.find((line) => line.id === id)!.receivedQty;
+    // Conservation: the 32 counted are on hand once, and spread over the lines once; the later
+    // line holds exactly what the receipts say they applied to it, never more than its 10.
+    expect(lines.reduce((sum, line) => sum + line.receivedQty, 0)).toBe(32);
+    const shares = await nodeA.dataSource.getRepository(ReceiptShareEntity).findBy({ releaseLineId: later.id });
+    expect(shares.reduce((sum, share) => sum + share.qty, 0)).toBe(receivedOn(later.id));
+    expect(receivedOn(later.id)).toBeLessThanOrEqual(10);
+    expect((await nodeA.dataSource.getRepository(PartEntity).findOneByOrFail({ partNumber: 'SPOOL-N' })).onHand).toBe(
+      32,
+    );
+    expect(await nodeA.dataSource.getRepository(ReceiptEntity).countBy({ releaseLineId: one.id })).toBe(1);
   });
 
   it('serves a packing slip uploaded on node A from node B', async () => {

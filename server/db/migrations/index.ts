@@ -9,6 +9,7 @@ import { OpenOrders1765050000000 } from './1765050000000-open-orders';
 import { PartSafety1765100000000 } from './1765100000000-part-safety';
 import { ShipNotices1765150000000 } from './1765150000000-ship-notices';
 import { DockShipments1765200000000 } from './1765200000000-dock-shipments';
+import { OverReceipts1765210000000 } from './1765210000000-over-receipts';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -23,4 +24,5 @@ export const migrations = [
   PartSafety1765100000000,
   ShipNotices1765150000000,
   DockShipments1765200000000,
+  OverReceipts1765210000000,
 ];

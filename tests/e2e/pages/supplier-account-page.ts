@@ -20,6 +20,10 @@ export class SupplierAccountPage {
     return this.page.getByRole('button', { name: 'Download CSV' });
   }
 
+  claimsTable() {
+    return this.page.locator('[data-test="receiving-claims"]');
+  }
+
   async openScorecard(): Promise<void> {
     await this.page.getByRole('link', { name: 'Your scorecard' }).click();
   }
