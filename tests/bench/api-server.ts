@@ -32,7 +32,8 @@ export interface ServerReady {
   receiptLineIds: number[];
 }
 
-export type ServerQuestion = { id: number; kind: 'memory' | 'stock' } | { id: number; kind: 'snapshot'; path: string };
+export type Question = { kind: 'memory' | 'stock' } | { kind: 'snapshot'; path: string };
+export type ServerQuestion = Question & { id: number };
 
 export interface StockTotals {
   onHand: number;

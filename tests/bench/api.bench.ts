@@ -4,7 +4,7 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { parseArgs } from 'node:util';
-import type { Plant, ServerQuestion, ServerReady, StockTotals } from './api-server';
+import type { Plant, Question, ServerQuestion, ServerReady, StockTotals } from './api-server';
 import { formatLoad, load, type LoadFigures } from './http-load';
 
 /*
@@ -61,7 +61,7 @@ class BenchServer {
 
   static start(plant: Plant): Promise<BenchServer> {
     const child = fork(join(import.meta.dirname, 'api-server.ts'), [plant], {
-      execArgv: ['--import', 'tsx', '--expose-gc'],
+      execArgv: ['--import', 'tsx', '--expose-gc', ...(process.env.BENCH_SERVER_ARGS?.split(' ') ?? [])],
       stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
     });
     return new Promise((resolve, reject) => {
@@ -70,13 +70,13 @@ class BenchServer {
     });
   }
 
-  ask<T>(question: Omit<ServerQuestion, 'id'>): Promise<T> {
+  ask<T>(question: Question): Promise<T> {
     const id = this.nextId++;
     return new Promise((resolve, reject) => {
       this.waiting.set(id, (message) =>
         message.error ? reject(new Error(message.error)) : resolve(message.value as T),
       );
-      this.child.send({ ...question, id });
+      this.child.send({ ...question, id } satisfies ServerQuestion);
     });
   }
 
