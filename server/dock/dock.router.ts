@@ -13,6 +13,7 @@ import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { READ_ROLES, RECEIVING_ROLES } from '../http/roles';
 import { FILE_FIELD, receiveFile } from '../http/upload';
+import { sendSerialised } from '../http/serialised-body';
 
 /** RFC 6266 inline disposition with an ASCII fallback name and the real one in RFC 8187 form. */
 function inlineDisposition(fileName: string): string {
@@ -32,7 +33,10 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
       'The receiving board: every sent, confirmed, exception, shipped or partly received release, and those received today',
     access: READ_ROLES,
     response: z.array(dockItemSchema),
-    handler: () => dock.list(),
+    handler: async ({ req, res }) => {
+      await sendSerialised(req, res, await dock.listBody());
+      return undefined;
+    },
   });
 
   defineRoute(router, deps, {
