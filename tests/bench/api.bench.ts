@@ -92,20 +92,47 @@ class BenchServer {
 /**
  * Receipts under fresh keys, with every REPEAT_EVERY-th request repeating a key sent a little
  * earlier (maybe still in flight): it must be answered 200 with the first receipt and count nothing.
- * A key always carries the same body, so a repeat is a true retry.
+ * A key always carries the same body, so a repeat is a true retry. A key the server answered 201 or
+ * 200 is stored; one still in flight when a run stops is sent again afterwards, as a client whose
+ * answer was lost would, and its answer says whether the first attempt had landed.
  */
 class ReceiptTraffic {
   private sent = 0;
   private keys = 0;
-  accepted = 0;
-  acceptedQty = 0;
+  private readonly unanswered = new Set<number>();
+  private readonly stored = new Set<number>();
+  created = 0;
   replayed = 0;
+  settled = 0;
   readonly other: Record<string, number> = {};
 
   constructor(private readonly lineIds: number[]) {}
 
+  private static qtyOf(key: number): number {
+    return 1 + (key % 3);
+  }
+
   private bodyOf(key: number): string {
-    return JSON.stringify({ releaseLineId: this.lineIds[key % this.lineIds.length], qty: 1 + (key % 3) });
+    return JSON.stringify({ releaseLineId: this.lineIds[key % this.lineIds.length], qty: ReceiptTraffic.qtyOf(key) });
+  }
+
+  private headersOf(key: number): Record<string, string> {
+    return { 'Content-Type': 'application/json', 'Idempotency-Key': `bench-api-${key}` };
+  }
+
+  private answered(key: number, status: number): void {
+    this.unanswered.delete(key);
+    if (status === 201) this.created += 1;
+    else if (status === 200) this.replayed += 1;
+    else this.other[status] = (this.other[status] ?? 0) + 1;
+    if (status === 201 || status === 200) this.stored.add(key);
+  }
+
+  /** Distinct keys the server holds a receipt for, and their quantity. */
+  get accepted(): { receipts: number; qty: number } {
+    let qty = 0;
+    for (const key of this.stored) qty += ReceiptTraffic.qtyOf(key);
+    return { receipts: this.stored.size, qty };
   }
 
   requests(): LoadRequest[] {
@@ -118,42 +145,42 @@ class ReceiptTraffic {
           const repeat = this.sent % REPEAT_EVERY === 0 && this.keys > 3;
           const key = repeat ? this.keys - 3 : this.keys++;
           context.key = key;
-          return {
-            ...request,
-            headers: {
-              ...request.headers,
-              'Content-Type': 'application/json',
-              'Idempotency-Key': `bench-api-${key}`,
-            },
-            body: this.bodyOf(key),
-          };
+          this.unanswered.add(key);
+          return { ...request, headers: { ...request.headers, ...this.headersOf(key) }, body: this.bodyOf(key) };
         },
-        onResponse: (status, _body, context) => {
-          if (status === 201) {
-            this.accepted += 1;
-            this.acceptedQty += 1 + ((context.key as number) % 3);
-          } else if (status === 200) {
-            this.replayed += 1;
-          } else {
-            this.other[status] = (this.other[status] ?? 0) + 1;
-          }
-        },
+        onResponse: (status, _body, context) => this.answered(context.key as number, status),
       },
     ];
+  }
+
+  /** Sends every key left in flight when the run stopped once more, one after another. */
+  async settle(base: string, token: string): Promise<void> {
+    for (const key of [...this.unanswered]) {
+      const response = await fetch(`${base}/api/receipts`, {
+        method: 'POST',
+        headers: { Authorization: `Bearer ${token}`, ...this.headersOf(key) },
+        body: this.bodyOf(key),
+      });
+      await response.arrayBuffer();
+      this.settled += 1;
+      this.answered(key, response.status);
+    }
   }
 }
 
 const mb = (bytes: number) => `${(bytes / 1048576).toFixed(0)} MB`;
 
 function stockCheck(before: StockTotals, after: StockTotals, traffic: ReceiptTraffic): string {
-  const expected = before.onHand + traffic.acceptedQty;
+  const accepted = traffic.accepted;
+  const expected = before.onHand + accepted.qty;
   const stockOk = Math.abs(after.onHand - expected) < 1e-6;
-  const rowsOk = after.receipts - before.receipts === traffic.accepted;
+  const rowsOk = after.receipts - before.receipts === accepted.receipts;
   const others = Object.entries(traffic.other).map(([status, count]) => `${count} × ${status}`);
   return (
-    `${stockOk && rowsOk ? 'OK' : 'MISMATCH'}: on-hand ${before.onHand} + ${traffic.acceptedQty} accepted = ${expected}, ` +
-    `server holds ${after.onHand}; ${traffic.accepted} receipts answered 201, ${after.receipts - before.receipts} stored, ` +
-    `${traffic.replayed} repeats answered 200${others.length ? `, ${others.join(', ')}` : ''}`
+    `${stockOk && rowsOk ? 'OK' : 'MISMATCH'}: on-hand ${before.onHand} + ${accepted.qty} accepted = ${expected}, ` +
+    `server holds ${after.onHand}; ${accepted.receipts} keys accepted, ${after.receipts - before.receipts} receipts stored ` +
+    `(${traffic.created} answers 201, ${traffic.replayed} repeats answered 200, ${traffic.settled} in flight at a stop sent again` +
+    `${others.length ? `, ${others.join(', ')}` : ''})`
   );
 }
 
@@ -272,10 +299,12 @@ try {
   });
   console.log(`${RECEIPT_CONNECTIONS} connections, ${duration} s, a repeated key every ${REPEAT_EVERY}th request:`);
   console.log(`  POST /api/receipts         ${formatLoad(receipts)}`);
+  await traffic.settle(base, token);
   console.log(`  stock ${stockCheck(before, await server.ask<StockTotals>({ kind: 'stock' }), traffic)}`);
 
   if (soakSeconds > 0) {
     await soak(server, traffic, urls);
+    await traffic.settle(base, token);
     console.log(
       `  stock after the soak ${stockCheck(before, await server.ask<StockTotals>({ kind: 'stock' }), traffic)}`,
     );
