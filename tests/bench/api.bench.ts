@@ -17,6 +17,7 @@ import { formatLoad, load, type LoadFigures } from './http-load';
  *   --duration 10        seconds of each load run
  *   --soak 120           seconds of the soak (0: none)
  *   --snapshots <dir>    heap snapshots after the soak's first minute and at its end, to compare
+ *                        (writing one raises the server's RSS by itself: read the memory series without)
  *
  * Figures only, nothing passes or fails but the stock check; a shared machine moves them.
  */
@@ -195,6 +196,7 @@ async function warm(url: string, token: string): Promise<number> {
 interface MemorySample {
   seconds: number;
   rss: number;
+  heapTotal: number;
   heapUsed: number;
   external: number;
 }
@@ -210,9 +212,15 @@ async function soak(server: BenchServer, traffic: ReceiptTraffic, urls: Record<s
   const sample = async () => {
     const memory = await server.ask<NodeJS.MemoryUsage>({ kind: 'memory' });
     const seconds = Math.round((performance.now() - start) / 1000);
-    samples.push({ seconds, rss: memory.rss, heapUsed: memory.heapUsed, external: memory.external });
+    samples.push({
+      seconds,
+      rss: memory.rss,
+      heapTotal: memory.heapTotal,
+      heapUsed: memory.heapUsed,
+      external: memory.external,
+    });
     console.log(
-      `  ${String(seconds).padStart(4)} s  rss ${mb(memory.rss).padStart(7)}  heapUsed ${mb(memory.heapUsed).padStart(7)}  ` +
+      `  ${String(seconds).padStart(4)} s  rss ${mb(memory.rss).padStart(7)}  heapTotal ${mb(memory.heapTotal).padStart(7)}  heapUsed ${mb(memory.heapUsed).padStart(7)}  ` +
         `external ${mb(memory.external).padStart(6)}`,
     );
   };
@@ -256,9 +264,13 @@ async function soak(server: BenchServer, traffic: ReceiptTraffic, urls: Record<s
   console.log(`  ${requests} requests, ${failed} outside 2xx or failed (receipts: 409/422 would show in the check)`);
   if (atMinute && atMinute !== last) {
     const minutes = (last.seconds - atMinute.seconds) / 60;
+    const rest = samples.filter((entry) => entry.seconds >= atMinute.seconds);
+    const range = (pick: (entry: MemorySample) => number) =>
+      `${mb(Math.min(...rest.map(pick)))}–${mb(Math.max(...rest.map(pick)))}`;
     console.log(
       `  growth after the first minute (${atMinute.seconds} s → ${last.seconds} s): rss ${signed(last.rss - atMinute.rss)}, ` +
-        `heapUsed ${signed(last.heapUsed - atMinute.heapUsed)} (${signed((last.heapUsed - atMinute.heapUsed) / minutes)} a minute)`,
+        `heapUsed ${signed(last.heapUsed - atMinute.heapUsed)} (${signed((last.heapUsed - atMinute.heapUsed) / minutes)} a minute); ` +
+        `over that time rss ${range((entry) => entry.rss)}, heapUsed ${range((entry) => entry.heapUsed)}`,
     );
   } else {
     console.log('  the soak was too short to compare against its first minute (give --soak 90 or more)');
