@@ -8,17 +8,18 @@ import type {
   PasswordResetRequest,
 } from '../../shared/schemas/user';
 import { recordAudit } from '../audit/audit.service';
-import type { Database } from '../db/database';
+import { notifyAfterCommit, type Database } from '../db/database';
 import { ConflictError, GoneError, InvalidInputError, NotFoundError, UnauthorizedError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';
 import { enqueueMail } from '../outbox/outbox.service';
 import { hashPassword, verifyPassword } from '../users/passwords';
 import { SessionEntity } from '../users/session.entity';
-import { openSession, revokeSessions } from '../users/sessions';
+import { openSession, revokeSessions, SESSIONS_CHANNEL, type SessionsRevoked } from '../users/sessions';
 import { UserEntity } from '../users/user.entity';
 import { toSessionUser } from '../users/users.service';
 import { LoginThrottle, type ThrottleLimits } from './login-throttle';
 import { PasswordResetEntity } from './password-reset.entity';
+import { SessionCache } from './session-cache';
 import { sessionExpiry, signSessionToken, verifySessionToken } from './tokens';
 
 /** A password-reset link works this long after the admin sent it. */
@@ -38,12 +39,14 @@ export class AuthService {
   // Compared against when the e-mail is unknown, so both failures take the same time.
   private readonly decoyHash = hashPassword('not-a-real-password-decoy');
   private readonly throttle: LoginThrottle;
+  private readonly sessions: SessionCache;
 
   constructor(
     private readonly db: Database,
     private readonly options: AuthOptions,
   ) {
     this.throttle = new LoginThrottle(db, options.throttle);
+    this.sessions = new SessionCache([db.changes, db.committedHere]);
   }
 
   /** Signs in and opens a session; 401 on a wrong e-mail or password, 429 while throttled. */
@@ -65,12 +68,18 @@ export class AuthService {
   async resolve(token: string): Promise<AuthenticatedUser | null> {
     const claims = verifySessionToken(token, this.options.jwtSecret);
     if (!claims) return null;
+    const cached = this.sessions.get(claims.sessionId, claims.userId);
+    if (cached) return cached;
+    const mark = this.sessions.mark();
     const manager = this.db.manager;
     const session = await manager.findOneBy(SessionEntity, { id: claims.sessionId, userId: claims.userId });
     if (!session || session.revokedAt !== null || session.expiresAt <= new Date().toISOString()) return null;
     const user = await manager.findOneBy(UserEntity, { id: claims.userId, active: true });
     if (!user) return null;
-    return { ...toSessionUser(user), id: user.id, sessionId: session.id };
+    const resolved = { ...toSessionUser(user), id: user.id, sessionId: session.id };
+    // Read in a write unit, the session may not be committed yet: not to be believed by others.
+    if (!this.db.inWriteUnit) this.sessions.set(resolved, session.expiresAt, mark);
+    return resolved;
   }
 
   /** Ends this session only; other devices stay signed in. */
@@ -81,6 +90,7 @@ export class AuthService {
         { id: user.sessionId, revokedAt: IsNull() },
         { revokedAt: new Date().toISOString(), revokedReason: 'sign-out' },
       );
+      notifyAfterCommit(SESSIONS_CHANNEL, { userId: user.id, sessionIds: [user.sessionId] } satisfies SessionsRevoked);
       await recordAudit(manager, { actorEmail: user.email, action: 'sign-out', entity: 'user', entityKey: user.email });
     });
   }

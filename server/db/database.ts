@@ -3,6 +3,7 @@ import { AsyncLocalStorage } from 'node:async_hooks';
 import { copyFileSync, existsSync, mkdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
+import sqlite3 from 'sqlite3';
 import { DataSource, type EntityManager } from 'typeorm';
 import { ChangeFeed, PostgresChangeListener } from './change-feed';
 import { entities } from './entities';
@@ -105,7 +106,15 @@ export class Database {
     private readonly onClose: () => void | Promise<void> = () => undefined,
   ) {
     this.pool = new ReaderPool(snapshotReaders);
+    this.committedHere = engine === 'sqlite' ? changes : new ChangeFeed();
   }
+
+  /**
+   * The notices of changes this process committed, published the moment each commits. On SQLite
+   * this is `changes`; on PostgreSQL `changes` hears them from the server a little later, too late
+   * for what must not outlive the commit by a single request here (a revoked session).
+   */
+  readonly committedHere: ChangeFeed;
 
   private readonly pool: ReaderPool;
 
@@ -197,13 +206,18 @@ export class Database {
 
   /** Tells open screens (of every node, on PostgreSQL) that `channel` changed, once the current unit has committed. */
   notify(channel: string, payload: unknown): void {
+    if (this.engine === 'sqlite') {
+      this.afterCommit(() => this.changes.publish(channel, payload));
+      return;
+    }
+    this.afterCommit(() => this.committedHere.publish(channel, payload));
     const open = this.currentUnit();
-    if (this.engine === 'postgres' && open?.kind === 'write') open.notices.push({ channel, payload });
-    else if (this.engine === 'postgres') {
+    if (open?.kind === 'write') open.notices.push({ channel, payload });
+    else {
       void this.dataSource
         .query('SELECT pg_notify($1, $2)', [CHANGES_CHANNEL, JSON.stringify({ channel, payload })])
         .catch((error: unknown) => console.error('Change notice lost:', error));
-    } else this.afterCommit(() => this.changes.publish(channel, payload));
+    }
   }
 
   private async readPostgres<T>(work: (manager: EntityManager) => Promise<T>): Promise<T> {
@@ -273,9 +287,17 @@ export function notifyAfterCommit(channel: string, payload: unknown): void {
   units.getStore()?.database.notify(channel, payload);
 }
 
+/**
+ * The sqlite3 driver as TypeORM gets it, minus `verbose()`: TypeORM calls it, and it wraps every
+ * query of the process to capture a stack trace and inspect every argument (SQL and parameters)
+ * in case the query fails, a cost paid by every request for the sake of longer error traces.
+ */
+const quietSqlite = Object.assign(Object.create(sqlite3) as typeof sqlite3, { verbose: () => sqlite3 });
+
 function sqliteSource(databasePath: string, role: 'writer' | 'reader'): DataSource {
   return new DataSource({
     type: 'sqlite',
+    driver: quietSqlite,
     database: databasePath,
     entities,
     migrations: role === 'writer' ? migrations : [],

@@ -14,6 +14,7 @@ import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { READ_ROLES, RECEIVING_ROLES } from '../http/roles';
 import { FILE_FIELD, receiveFile } from '../http/upload';
+import { sendSerialised } from '../http/serialised-body';
 
 /** RFC 6266 inline disposition with an ASCII fallback name and the real one in RFC 8187 form. */
 function inlineDisposition(fileName: string): string {
@@ -33,7 +34,10 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
       'The receiving board: one card per shipment (ship notice) and one per day on which lines not yet shipped are expected, of every open release; cards counted in today stay',
     access: READ_ROLES,
     response: z.array(dockItemSchema),
-    handler: () => dock.list(),
+    handler: async ({ req, res }) => {
+      await sendSerialised(req, res, await dock.listBody());
+      return undefined;
+    },
   });
 
   defineRoute(router, deps, {

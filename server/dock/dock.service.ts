@@ -23,7 +23,8 @@ import { AttachmentEntity } from './attachment.entity';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
-import { bumpDockVersion } from '../settings/versions';
+import { bumpDockVersion, readDockVersion, readPlanningVersion } from '../settings/versions';
+import { SerialisedBody } from '../http/serialised-body';
 import type { Database } from '../db/database';
 import { runSql } from '../db/sql';
 
@@ -58,19 +59,39 @@ export function toDockAttachment(attachment: AttachmentEntity): DockAttachment {
 
 /** The receiving board: one card per shipment and per day unshipped lines are expected, and the moves between columns. */
 export class DockService {
+  /** The last board sent and the versions and day it was built for; one board, so bounded. */
+  private board: { key: string; body: SerialisedBody } | null = null;
+
   constructor(
     private readonly db: Database,
     private readonly now: () => Date = () => new Date(),
   ) {}
 
+  /**
+   * The board serialised, kept while nothing on it can have changed: releases, lines, receipts,
+   * moves and slips bump the dock version, parts and suppliers the planning version, and the day
+   * decides what is overdue or received today. Read in the request's snapshot with the versions,
+   * so the body kept is the board of exactly those versions.
+   */
+  async listBody(): Promise<SerialisedBody> {
+    const manager = this.db.manager;
+    const now = this.now();
+    const [dockVersion, planningVersion] = await Promise.all([readDockVersion(manager), readPlanningVersion(manager)]);
+    const key = `${dockVersion}|${planningVersion}|${plantToday(now)}|${startOfDay(now)}`;
+    if (this.board?.key === key) return this.board.body;
+    const body = new SerialisedBody(await this.list(now));
+    if (!this.db.inWriteUnit) this.board = { key, body };
+    return body;
+  }
+
   /** The cards of every open release, and those counted in today, ordered by column then expected day. */
-  async list(): Promise<DockItem[]> {
+  async list(now = this.now()): Promise<DockItem[]> {
     const manager = this.db.manager;
     const receivedToday: { releaseId: number }[] = await runSql(
       manager,
       `SELECT DISTINCT l.release_id AS "releaseId" FROM receipt r JOIN release_line l ON l.id = r.release_line_id
        WHERE r.received_at >= ?`,
-      [startOfDay(this.now())],
+      [startOfDay(now)],
     );
     const receivedIds = receivedToday.map((row) => row.releaseId);
     const releases = await manager.find(ReleaseEntity, {

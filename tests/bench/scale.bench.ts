@@ -1,18 +1,14 @@
-import autocannon from 'autocannon';
-import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
 import { gzipSync } from 'node:zlib';
-import { createApp } from '../../server/app';
-import { openDatabase, type Database } from '../../server/db/database';
-import { createServices } from '../../server/services';
-import { UserEntity } from '../../server/users/user.entity';
+import { openDatabase } from '../../server/db/database';
 import { seedDemoScenario } from '../../seed/seed-demo';
 import { addWorkingDays } from '../../shared/domain/calendar';
 import { computeLineRisk, type LineRiskInput } from '../../shared/domain/line-risk';
 import { computePlan } from '../../shared/domain/plan';
 import { plantToday } from '../../server/planning/plan-dates';
-import { RECURSIVE_EXPLOSION, signInAs } from './database.bench';
+import { RECURSIVE_EXPLOSION } from './database.bench';
 import { printHorizonOpen } from './horizon-open.bench';
+import { benchUser, formatLoad, listen, load, ms } from './http-load';
 import { generatePlanFixture } from './plan-fixture';
 import { writeFixture } from './plan-fixture-db';
 
@@ -23,12 +19,10 @@ import { writeFixture } from './plan-fixture-db';
  * they move with the load of everything else running.
  */
 
-const SECRET = 'bench-secret-bench-secret-bench-secret-bench';
 const WEEKS_4 = 20;
 
 const median = (samples: number[]) => [...samples].sort((a, b) => a - b)[Math.floor(samples.length / 2)];
 const p90 = (samples: number[]) => [...samples].sort((a, b) => a - b)[Math.ceil(samples.length * 0.9) - 1];
-const ms = (value: number) => `${value < 10 ? value.toFixed(1) : value.toFixed(0)} ms`;
 const mb = (bytes: number) => `${(bytes / 1e6).toFixed(2)} MB`;
 
 function timed<T>(run: () => T): { value: T; ms: number } {
@@ -41,31 +35,6 @@ async function timedAsync<T>(run: () => Promise<T>): Promise<{ value: T; ms: num
   const start = performance.now();
   const value = await run();
   return { value, ms: performance.now() - start };
-}
-
-async function benchUser(db: Database): Promise<string> {
-  const admin = await db.dataSource.getRepository(UserEntity).save({
-    email: 'bench@example.com',
-    name: 'Bench',
-    role: 'admin',
-    passwordHash: 'not-used',
-    supplierCode: null,
-  });
-  return signInAs(db, admin.id, SECRET);
-}
-
-function listen(db: Database) {
-  const services = createServices(db, { jwtSecret: SECRET });
-  const server = createApp(db, { jwtSecret: SECRET }, services).listen(0);
-  const { port } = server.address() as AddressInfo;
-  return {
-    base: `http://127.0.0.1:${port}`,
-    async close() {
-      server.closeAllConnections();
-      server.close();
-      await services.lineRisk.close();
-    },
-  };
 }
 
 /** One GET taking gzip, timed to the last byte unzipped (as a browser does); `bytes` is the JSON's size. */
@@ -152,7 +121,7 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
 
   // --- Through HTTP ---
   const token = await benchUser(db);
-  const app = listen(db);
+  const app = await listen(db);
   try {
     const demandUrl = `${app.base}/api/demand?from=${fixture.from}&to=${to4}`;
     const healthUrl = `${app.base}/api/health`;
@@ -195,29 +164,21 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
   }
 }
 
-async function load(url: string, token: string) {
-  const result = await autocannon({
-    url,
-    connections: 50,
-    duration: 10,
-    headers: { Authorization: `Bearer ${token}` },
-  });
-  const problems = result.errors + result.non2xx;
-  return `${result.requests.average.toFixed(0)} req/s, p50 ${ms(result.latency.p50)}, p99 ${ms(result.latency.p99)}${problems ? `, ${problems} failed` : ''}`;
-}
+const fiftyFor10s = async (url: string, token: string) =>
+  formatLoad(await load(url, token, { connections: 50, duration: 10 }));
 
 /** 50 connections for 10 s each: the 1× plant's demand, the demo plant's dock board, and /api/health. */
 async function throughput(base: string, token: string, demandUrl: string): Promise<void> {
   console.log('throughput, 50 connections, 10 s each (autocannon on the same machine):');
-  console.log(`  GET /api/demand 4 weeks  ${await load(demandUrl, token)}`);
-  console.log(`  GET /api/health          ${await load(`${base}/api/health`, token)}`);
+  console.log(`  GET /api/demand 4 weeks  ${await fiftyFor10s(demandUrl, token)}`);
+  console.log(`  GET /api/health          ${await fiftyFor10s(`${base}/api/health`, token)}`);
   const demo = await openDatabase(':memory:');
   await seedDemoScenario(demo, plantToday());
   const demoToken = await benchUser(demo);
-  const demoApp = listen(demo);
+  const demoApp = await listen(demo);
   try {
-    console.log(`  GET /api/dock (demo)     ${await load(`${demoApp.base}/api/dock`, demoToken)}`);
-    console.log(`  GET /api/health (demo)   ${await load(`${demoApp.base}/api/health`, demoToken)}`);
+    console.log(`  GET /api/dock (demo)     ${await fiftyFor10s(`${demoApp.base}/api/dock`, demoToken)}`);
+    console.log(`  GET /api/health (demo)   ${await fiftyFor10s(`${demoApp.base}/api/health`, demoToken)}`);
   } finally {
     await demoApp.close();
     await demo.close();

@@ -3,6 +3,8 @@ import type { Server } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import request from 'supertest';
+import { releasesChanged } from '../../server/releases/release-events';
+import { bumpDockVersion } from '../../server/settings/versions';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEventEntity } from '../../server/audit/audit-event.entity';
 import { AttachmentEntity } from '../../server/dock/attachment.entity';
@@ -71,6 +73,8 @@ async function makeRelease(
       dockColumn,
     })),
   );
+  // As every writer of releases does, so the board served is rebuilt.
+  await context.db.write((manager) => releasesChanged(manager));
   return { release, lines: saved };
 }
 
@@ -283,11 +287,38 @@ describe('GET /api/dock', () => {
       idempotencyKey: 'dock-earlier',
       receivedAt: '2026-10-01T09:00:00.000Z',
     });
+    await context.db.write((manager) => bumpDockVersion(manager));
 
     const ids = (await listDock()).map((item) => item.releaseId);
 
     expect(ids).toContain(receivedNow.release.id);
     expect(ids).not.toContain(earlier.release.id);
+  });
+
+  it('shows a part or supplier edited since the last read, and answers 304 to the board the client holds', async () => {
+    const { release } = await makeRelease('confirmed', [{ partNumber: 'CASTER-75', qty: 8 }]);
+    const first = await request(context.app).get('/api/dock').set(bearer(context.tokens.receiving));
+    const admin = bearer(context.tokens.admin);
+
+    const unchanged = await request(context.app)
+      .get('/api/dock')
+      .set(bearer(context.tokens.receiving))
+      .set('If-None-Match', first.headers.etag);
+    const part = await request(context.app)
+      .put('/api/parts/CASTER-75')
+      .set(admin)
+      .send({ description: 'Caster 75 mm, braked' });
+    const supplier = await request(context.app)
+      .put('/api/suppliers/SUP-A')
+      .set(admin)
+      .send({ name: 'Supplier A West' });
+    const item = (await listDock()).find((candidate) => candidate.releaseId === release.id)!;
+
+    expect(first.status).toBe(200);
+    expect(unchanged.status).toBe(304);
+    expect([part.status, supplier.status]).toEqual([200, 200]);
+    expect(item.lines[0].description).toBe('Caster 75 mm, braked');
+    expect(item.supplierName).toBe('Supplier A West');
   });
 
   it('is readable by every signed-in role but a supplier', async () => {

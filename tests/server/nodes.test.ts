@@ -15,9 +15,19 @@ import { RELEASE_JOB_LAST_RUN, RELEASE_JOB_TIME } from '../../server/releases/re
 import { writeSetting } from '../../server/settings/settings';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { StockMovementEntity } from '../../server/stock/stock-movement.entity';
+import { SESSIONS_CHANNEL } from '../../server/users/sessions';
 import { cardNumber } from '../../shared/domain/gs1';
 import { openEventStream } from './event-stream';
-import { bearer, createTestContext, onPostgres, secondNode, testPart, type TestContext } from './helpers';
+import {
+  bearer,
+  createTestContext,
+  onPostgres,
+  secondNode,
+  signIn,
+  TEST_PASSWORD,
+  testPart,
+  type TestContext,
+} from './helpers';
 
 /*
  * Two app nodes over one PostgreSQL database, as behind a load balancer: each has its own
@@ -114,6 +124,31 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
 
     expect(response.status).toBe(201);
     expect(notice.version).toBeGreaterThan(connected.version);
+  });
+
+  it('refuses on node B a token just used there, once node B hears it was signed out on node A', async () => {
+    const token = await signIn(nodeA.app, 'buyer@example.com', TEST_PASSWORD);
+    const me = (node: TestContext) => request(node.app).get('/api/auth/me').set(bearer(token));
+    const before = await me(nodeB);
+    const heard = new Promise<void>((resolve) => {
+      const stop = nodeB.db.changes.subscribe((notice) => {
+        if (notice.channel !== SESSIONS_CHANNEL) return;
+        stop();
+        resolve();
+      });
+    });
+
+    const out = await request(nodeA.app).post('/api/auth/logout').set(bearer(token));
+    // Generous: PostgreSQL delivers the notice when node A commits; no timing is asserted beyond this.
+    await Promise.race([
+      heard,
+      new Promise((_, reject) => setTimeout(() => reject(new Error('node B heard nothing within 5 s')), 5_000)),
+    ]);
+
+    expect(before.status).toBe(200);
+    expect(out.status).toBe(204);
+    expect((await me(nodeB)).status).toBe(401);
+    expect((await me(nodeA)).status).toBe(401);
   });
 
   it('counts a delivery posted to both nodes at once with the same key exactly once', async () => {

@@ -51,6 +51,25 @@ describe('sessions the server can end', () => {
     expect((await me(context.tokens.admin)).status).toBe(200);
   });
 
+  it('refuses a token on the request right after its session ended, though it was used a moment before', async () => {
+    const [buyerId, viewerId, lineId] = await Promise.all(
+      ['buyer@example.com', 'viewer@example.com', 'line@example.com'].map(idOf),
+    );
+    const usedBefore = [];
+    for (const token of [context.tokens.buyer, context.tokens.viewer, context.tokens.line])
+      usedBefore.push((await me(token)).status);
+
+    const admin = bearer(context.tokens.admin);
+    await request(context.app).patch(`/api/users/${buyerId}`).set(admin).send({ password: 'a-brand-new-password' });
+    await request(context.app).patch(`/api/users/${viewerId}`).set(admin).send({ active: false });
+    await request(context.app).patch(`/api/users/${lineId}`).set(admin).send({ role: 'viewer' });
+
+    expect(usedBefore).toEqual([200, 200, 200]);
+    expect((await me(context.tokens.buyer)).status).toBe(401);
+    expect((await me(context.tokens.viewer)).status).toBe(401);
+    expect((await me(context.tokens.line)).status).toBe(401);
+  });
+
   it('lets a user change their own password, ending their other sessions but not this one', async () => {
     const other = await signIn(context.app, 'planner@example.com', TEST_PASSWORD);
 
