@@ -742,7 +742,7 @@ describe('dock events', () => {
     const first = await events.next<{ version: number }>('dock');
 
     await move(`expected-${release.id}-${today}`, 'at_dock');
-    const second = await events.next<{ version: number }>('dock');
+    const second = await events.nextPast('dock', first.version);
 
     expect(second.version).toBeGreaterThan(first.version);
     events.close();

@@ -5,6 +5,11 @@ export interface EventStream {
   stream: IncomingMessage;
   /** The next event of that name, whether it arrived before the call or arrives after. */
   next: <T = unknown>(event: string) => Promise<T>;
+  /**
+   * The first event of that name carrying a version above the one given: a notice of a write made
+   * before the stream opened may still arrive after it (PostgreSQL delivers on commit).
+   */
+  nextPast: (event: string, version: number) => Promise<{ version: number }>;
   close: () => void;
 }
 
@@ -37,7 +42,12 @@ export function openEventStream(server: Server, headers: Record<string, string>)
         if (index >= 0) return Promise.resolve(arrived.splice(index, 1)[0].payload as T);
         return new Promise<T>((done) => waiting.push({ event, done: done as (payload: unknown) => void }));
       };
-      resolve({ stream, next, close: () => stream.destroy() });
+      const nextPast = async (event: string, version: number): Promise<{ version: number }> => {
+        let payload = await next<{ version: number }>(event);
+        while (payload.version <= version) payload = await next<{ version: number }>(event);
+        return payload;
+      };
+      resolve({ stream, next, nextPast, close: () => stream.destroy() });
     });
     req.on('error', reject);
   });

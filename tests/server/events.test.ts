@@ -22,7 +22,7 @@ describe('GET /api/events', () => {
     const first = await events.next<{ version: number }>('planning');
 
     const nextVersion = await context.db.write((manager) => bumpPlanningVersion(manager));
-    const second = await events.next<{ version: number }>('planning');
+    const second = await events.nextPast('planning', first.version);
 
     expect(events.stream.headers['content-type']).toBe('text/event-stream');
     expect(second.version).toBe(nextVersion);

@@ -16,6 +16,7 @@ import { writeSetting } from '../../server/settings/settings';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { StockMovementEntity } from '../../server/stock/stock-movement.entity';
 import { SESSIONS_CHANNEL } from '../../server/users/sessions';
+import { addCalendarDays } from '../../shared/domain/date';
 import { cardNumber } from '../../shared/domain/gs1';
 import { openEventStream } from './event-stream';
 import {
@@ -74,11 +75,15 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     await nodeA?.close();
   });
 
+  // One release per supplier and day (a unique key): every line opened here gets a day of its own.
+  let releasesOpened = 0;
+
   async function openLine(qty: number): Promise<number> {
+    releasesOpened += 1;
     const release = await nodeA.dataSource.getRepository(ReleaseEntity).save({
-      number: `R-NODES-${Math.random().toString(36).slice(2, 8)}`,
+      number: `R-NODES-${releasesOpened}`,
       supplierCode: 'SUP-A',
-      releaseDate: `2026-11-${String(Math.floor(Math.random() * 28) + 1).padStart(2, '0')}`,
+      releaseDate: addCalendarDays('2026-10-01', releasesOpened),
       status: 'confirmed',
       sentAt: new Date().toISOString(),
       carrier: null,
@@ -113,7 +118,7 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     const connected = await events.next<{ version: number }>('dock');
     const lineId = await openLine(12);
 
-    const announced = events.next<{ version: number }>('dock');
+    const announced = events.nextPast('dock', connected.version);
     const response = await receive(nodeA, lineId, 12, 'nodes-announce');
     // Generous: PostgreSQL delivers the notice when node A commits; no timing is asserted beyond this.
     const notice = (await Promise.race([
