@@ -11,6 +11,7 @@ import { ReleaseEntity } from '../../server/releases/release.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { addCalendarDays } from '../../shared/domain/date';
 
 let context: TestContext;
 let server: Server;
@@ -36,11 +37,15 @@ async function emptyTwin(): Promise<Database> {
   return openDatabase(':memory:');
 }
 
+// One release per supplier and day (a unique key): every line opened here gets a day of its own.
+let releasesOpened = 0;
+
 async function openLine(qty: number): Promise<number> {
+  releasesOpened += 1;
   const release = await context.dataSource.getRepository(ReleaseEntity).save({
-    number: `R-BACKUP-${Math.random().toString(36).slice(2, 8)}`,
+    number: `R-BACKUP-${releasesOpened}`,
     supplierCode: 'SUP-A',
-    releaseDate: `2026-09-${String(Math.floor(Math.random() * 28) + 1).padStart(2, '0')}`,
+    releaseDate: addCalendarDays('2026-08-01', releasesOpened),
     status: 'confirmed',
     sentAt: new Date().toISOString(),
     carrier: null,
