@@ -1,6 +1,6 @@
 import { BOUGHT, MADE, type PlanModel } from './plan-model';
 import { QTY_EPSILON, roundQty } from './quantity';
-import { floatColumn, intColumn } from './typed-column';
+import { floatColumn, intColumn, TypedArena } from './typed-column';
 
 /*
  * The two tools of the line-risk walk: a ledger of uncommitted stock per part and working day, and
@@ -53,8 +53,12 @@ export class StockLedger {
   commit(part: number, bucket: number, qty: number): void {
     this.version += 1;
     this.changedAt[part] = this.version;
+    this.commitRow(this.rowBase[part], bucket, qty);
+  }
+
+  /** Commits to the row starting at `base`, without counting it in `version` (for a ledger no explosion reads). */
+  commitRow(base: number, bucket: number, qty: number): void {
     const { cells, least: leastOf, days } = this;
-    const base = this.rowBase[part];
     let least = Infinity;
     for (let t = days - 1; t >= bucket; t -= 1) {
       const cell = roundQty(cells[base + t] - qty);
@@ -111,6 +115,10 @@ export interface NeedGroups {
   part: Int32Array;
   start: Int32Array;
   needs: Int32Array;
+  /** Each part's row start in the ledgers, and the bucket and quantity of its first need. */
+  base: Int32Array;
+  firstBucket: Int32Array;
+  firstQty: Float64Array;
 }
 
 /** True while no row the explosion read has been committed to since it was made. */
@@ -158,6 +166,9 @@ export class Exploder {
   private readonly lackIndex: Int32Array;
   private readonly groupStamp: Int32Array;
   private readonly groupIndex: Int32Array;
+  /** Explosions are many and small: their arrays are views into shared blocks. */
+  private readonly ints = new TypedArena((size) => new Int32Array(size));
+  private readonly floats = new TypedArena((size) => new Float64Array(size));
   private stamp = 0;
   private groupRun = 0;
   private ledger!: StockLedger;
@@ -207,48 +218,70 @@ export class Exploder {
     this.visit(part, qty, bucket, NO_VIA);
     return {
       needCount: this.needPart.length,
-      needPart: this.needPart.copy(),
-      needBucket: this.needBucket.copy(),
-      needQty: this.needQty.copy(),
-      needVia: this.needVia.copy(),
+      needPart: this.ints.copyOf(this.needPart),
+      needBucket: this.ints.copyOf(this.needBucket),
+      needQty: this.floats.copyOf(this.needQty),
+      needVia: this.ints.copyOf(this.needVia),
       takeCount: this.takePart.length,
-      takePart: this.takePart.copy(),
-      takeBucket: this.takeBucket.copy(),
-      takeQty: this.takeQty.copy(),
+      takePart: this.ints.copyOf(this.takePart),
+      takeBucket: this.ints.copyOf(this.takeBucket),
+      takeQty: this.floats.copyOf(this.takeQty),
       lackCount: this.lackPart.length,
-      lackPart: this.lackPart.copy(),
-      lackBucket: this.lackBucket.copy(),
-      lackQty: this.lackQty.copy(),
-      lackVia: this.lackVia.copy(),
-      reads: this.reads.copy(),
+      lackPart: this.ints.copyOf(this.lackPart),
+      lackBucket: this.ints.copyOf(this.lackBucket),
+      lackQty: this.floats.copyOf(this.lackQty),
+      lackVia: this.ints.copyOf(this.lackVia),
+      reads: this.ints.copyOf(this.reads),
       version: ledger.version,
       groups: null,
     };
   }
 
-  /** The explosion's needs grouped by part, worked out once. */
-  needGroups(explosion: Explosion): NeedGroups {
+  /** The explosion's needs grouped by part, worked out once; `rowBase` places the parts' rows in the ledgers. */
+  needGroups(explosion: Explosion, rowBase: Int32Array): NeedGroups {
     if (explosion.groups) return explosion.groups;
-    this.groupRun += 1;
-    const { needCount, needPart } = explosion;
-    const part: number[] = [];
-    const sizes: number[] = [];
+    const run = (this.groupRun += 1);
+    const { needCount, needPart, needBucket, needQty } = explosion;
+    const { groupStamp, groupIndex } = this;
+    // Group of each need, parts in order of first need, and how many needs each part has.
+    const groupOf = this.ints.take(needCount);
+    const partOf = this.ints.take(needCount);
+    const sizes = this.ints.take(needCount + 1);
+    let count = 0;
     for (let index = 0; index < needCount; index += 1) {
-      const p = needPart[index];
-      if (this.groupStamp[p] !== this.groupRun) {
-        this.groupStamp[p] = this.groupRun;
-        this.groupIndex[p] = part.length;
-        part.push(p);
-        sizes.push(0);
+      const part = needPart[index];
+      if (groupStamp[part] !== run) {
+        groupStamp[part] = run;
+        groupIndex[part] = count;
+        partOf[count] = part;
+        count += 1;
       }
-      sizes[this.groupIndex[p]] += 1;
+      const group = groupIndex[part];
+      groupOf[index] = group;
+      sizes[group + 1] += 1;
     }
-    const start = new Int32Array(part.length + 1);
-    for (let group = 0; group < part.length; group += 1) start[group + 1] = start[group] + sizes[group];
-    const fill = start.slice(0, part.length);
-    const needs = new Int32Array(needCount);
-    for (let index = 0; index < needCount; index += 1) needs[fill[this.groupIndex[needPart[index]]]++] = index;
-    explosion.groups = { count: part.length, part: Int32Array.from(part), start, needs };
+    const start = this.ints.take(count + 1);
+    for (let group = 0; group < count; group += 1) start[group + 1] = start[group] + sizes[group + 1];
+    const fill = sizes;
+    fill.set(start.subarray(0, count));
+    const needs = this.ints.take(needCount);
+    for (let index = 0; index < needCount; index += 1) needs[fill[groupOf[index]]++] = index;
+    const groups: NeedGroups = {
+      count,
+      part: partOf.subarray(0, count),
+      start,
+      needs,
+      base: this.ints.take(count),
+      firstBucket: this.ints.take(count),
+      firstQty: this.floats.take(count),
+    };
+    for (let group = 0; group < count; group += 1) {
+      const first = needs[start[group]];
+      groups.base[group] = rowBase[partOf[group]];
+      groups.firstBucket[group] = needBucket[first];
+      groups.firstQty[group] = needQty[first];
+    }
+    explosion.groups = groups;
     return explosion.groups;
   }
 

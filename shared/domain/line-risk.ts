@@ -1,7 +1,7 @@
 import { Exploder, StockLedger, stillHolds, type Explosion } from './line-risk-explosion';
 import { LineRiskRun, type ShortPartFigures } from './line-risk-run';
 import { byteColumn, floatColumn, intColumn } from './typed-column';
-import { buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
+import { BOUGHT, buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
 import type { IsoDate, PlanningBomLine, PlanningPart, PlantCalendar, ScheduledReceipt, SequenceSlot } from './types';
@@ -247,8 +247,8 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   const countable = parts.map((part) => COUNTABLE_UNITS.has(part.uom ?? 'H87'));
   const wholeIfCountable = (part: number, qty: number) => (countable[part] ? Math.ceil(qty - epsilon) : roundQty(qty));
   // Parts by part number, and each part's place in that order.
-  const partAtRank = Int32Array.from(parts, (_, index) => index).sort((a, b) =>
-    compareText(parts[a].partNumber, parts[b].partNumber),
+  const partAtRank = Int32Array.from(
+    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
   );
   const rankOf = new Int32Array(parts.length);
   partAtRank.forEach((part, rank) => (rankOf[part] = rank));
@@ -263,7 +263,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
   // Only made stock is committed here, so a unit reuses the explosion of an earlier unit of the
   // same model, quantity and day until a made part that explosion read is taken.
-  const probe = new StockLedger(days, cumulativeSupply, rowBase);
+  const probe = madeStockLedger(model, cumulativeSupply, rowBase);
   const probed = new ExplosionCache(exploder, probe, false);
   const requiredByDay = new Float64Array(parts.length * days);
   const explosions = ordered.map((entry) => {
@@ -357,19 +357,25 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
    * that can are committed. Returns how many parts cannot (in behindGroup / behindQty).
    */
   function queueLacks(explosion: Explosion, stamp: number): number {
-    const groups = exploder.needGroups(explosion);
+    const groups = exploder.needGroups(explosion, rowBase);
     const { needBucket, needQty } = explosion;
     const { cells, least: leastOf } = queue;
+    const { start, base: baseOf, firstBucket, firstQty } = groups;
     let count = 0;
     for (let group = 0; group < groups.count; group += 1) {
-      const part = groups.part[group];
-      const first = groups.start[group];
-      const end = groups.start[group + 1];
-      const base = rowBase[part];
+      const first = start[group];
+      const end = start[group + 1];
+      const base = baseOf[group];
       let lack = 0;
       if (end - first === 1) {
-        const need = groups.needs[first];
-        lack = Math.max(0, needQty[need] - Math.max(0, leastOf[base + needBucket[need]]));
+        // Most parts are needed once per unit.
+        const qty = firstQty[group];
+        const bucket = firstBucket[group];
+        lack = Math.max(0, qty - Math.max(0, leastOf[base + bucket]));
+        if (lack <= epsilon) {
+          queue.commitRow(base, bucket, qty);
+          continue;
+        }
       } else {
         // Each need of the part after the first finds the unit's earlier needs of it already held.
         let heldSum = 0;
@@ -396,6 +402,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
         }
       }
       if (lack > epsilon) {
+        const part = groups.part[group];
         behindGroup[count] = group;
         behindQty[count] = roundQty(lack);
         behindStamp[part] = stamp;
@@ -404,7 +411,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       } else {
         for (let index = first; index < end; index += 1) {
           const need = groups.needs[index];
-          queue.commit(part, needBucket[need], needQty[need]);
+          queue.commitRow(base, needBucket[need], needQty[need]);
         }
       }
     }
@@ -559,7 +566,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       inFrozenWindow: frozenEnd !== null && firstShortDay <= frozenEnd,
       loop: loop ? { activeCards: loop.activeCards, recommendedCards: loop.recommendedCards } : null,
       rescue: { expedite: { qty: needBy[0].qty, needBy: needBy[0].date }, resequence: risk.resequence },
-      requiredByDay: Array.from(requiredByDay.subarray(rowBase[part], rowBase[part] + days), (qty) => roundQty(qty)),
+      requiredByDay: Array.from(requiredByDay.subarray(rowBase[part], rowBase[part] + days)).map(roundQty),
     };
     shortages.push({ figures, part });
   }
@@ -585,19 +592,19 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
     partNumbers: parts.map((part) => part.partNumber),
     records: {
       count: records.unit.length,
-      unit: records.unit.copy(),
-      part: records.part.copy(),
-      qty: records.qty.copy(),
-      now: records.now.copy(),
-      via: records.via.copy(),
-      bucket: records.bucket.copy(),
+      unit: records.unit.done(),
+      part: records.part.done(),
+      qty: records.qty.done(),
+      now: records.now.done(),
+      via: records.via.done(),
+      bucket: records.bucket.done(),
     },
-    atRiskUnit: atRiskUnit.copy(),
-    atRiskFirst: atRiskFirst.copy(),
-    atRiskCount: atRiskCount.copy(),
+    atRiskUnit: atRiskUnit.done(),
+    atRiskFirst: atRiskFirst.done(),
+    atRiskCount: atRiskCount.done(),
     resequence: unitResequence,
     shortages: shortages.map((shortage) => shortage.figures),
-    shortParts: Int32Array.from(shortages, (shortage) => shortage.part),
+    shortParts: Int32Array.from(shortages.map((shortage) => shortage.part)),
   });
 }
 
@@ -646,6 +653,23 @@ function rowsByUse(model: PlanModel, ordered: readonly OrderedSlot[]): Int32Arra
     visit(unitModel);
   }
   return row.map((index) => (index === -1 ? next++ : index) * days);
+}
+
+/** A ledger of the rows of made parts (and models) alone: all the probe walk reads and commits. */
+function madeStockLedger(model: PlanModel, cumulativeSupply: Float64Array, rowBase: Int32Array): StockLedger {
+  const days = model.days.length;
+  const madeRowBase = new Int32Array(rowBase.length);
+  let rows = 0;
+  for (let part = 0; part < rowBase.length; part += 1) if (model.source[part] !== BOUGHT) rows += 1;
+  const supply = new Float64Array(rows * days);
+  let row = 0;
+  for (let part = 0; part < rowBase.length; part += 1) {
+    if (model.source[part] === BOUGHT) continue;
+    madeRowBase[part] = row * days;
+    supply.set(cumulativeSupply.subarray(rowBase[part], rowBase[part] + days), row * days);
+    row += 1;
+  }
+  return new StockLedger(days, supply, madeRowBase);
 }
 
 /** On-hand plus firm receipts by day, cumulated per part (late receipts count on the first day). */
