@@ -50,11 +50,28 @@ async function backflushContext(manager: EntityManager): Promise<BackflushContex
   };
 }
 
-function summarise(movements: readonly { partNumber: string; qty: number }[]): { partNumber: string; qty: number }[] {
+/**
+ * Net quantity per part, in part-number order. `rank` (from partNumberRanks) saves collating the
+ * same part numbers again for every unit of a day.
+ */
+function summarise(
+  movements: readonly { partNumber: string; qty: number }[],
+  rank?: ReadonlyMap<string, number>,
+): { partNumber: string; qty: number }[] {
   const byPart = new Map<string, number>();
   for (const movement of movements)
     byPart.set(movement.partNumber, roundQty((byPart.get(movement.partNumber) ?? 0) + movement.qty));
-  return [...byPart].sort(([a], [b]) => a.localeCompare(b)).map(([partNumber, qty]) => ({ partNumber, qty }));
+  const sorted = rank
+    ? [...byPart].sort(([a], [b]) => rank.get(a)! - rank.get(b)!)
+    : [...byPart].sort(([a], [b]) => a.localeCompare(b));
+  return sorted.map(([partNumber, qty]) => ({ partNumber, qty }));
+}
+
+/** Each part number's place in part-number order, collated once. */
+function partNumberRanks(partNumbers: Iterable<string>): Map<string, number> {
+  return new Map(
+    [...new Set(partNumbers)].sort((a, b) => a.localeCompare(b)).map((partNumber, index) => [partNumber, index]),
+  );
 }
 
 /**
@@ -241,7 +258,8 @@ export class BuildsService {
         context.parts,
         context.subassemblyStock,
       );
-      for (const [partNumber, qty] of [...consumed].sort(([a], [b]) => a.localeCompare(b))) {
+      // In the order the BOM is walked: each part once per unit, so the order changes no balance.
+      for (const [partNumber, qty] of consumed) {
         movements.push({
           partNumber,
           qty: -qty,
@@ -267,6 +285,7 @@ export class BuildsService {
     }
     if (affected !== entries.length)
       throw new ConflictError('A unit changed while it was being reported built; look again.');
+    const rank = partNumberRanks(posted.map((movement) => movement.partNumber));
     const bySerial = new Map<string, PostedMovement[]>();
     for (const movement of posted) {
       const list = bySerial.get(movement.ref!);
@@ -277,7 +296,7 @@ export class BuildsService {
       serial: entry.serial,
       status: 'built',
       builtAt,
-      movements: summarise(bySerial.get(entry.serial) ?? []),
+      movements: summarise(bySerial.get(entry.serial) ?? [], rank),
     }));
   }
 
