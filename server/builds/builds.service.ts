@@ -248,17 +248,14 @@ export class BuildsService {
       );
     }
     const buildDate = this.today();
+    const consumption = entries.map((entry) =>
+      backflush(entry.model, entry.qty, buildDate, context.bom, context.parts, context.subassemblyStock),
+    );
+    // Each unit's movements in part-number order, the part numbers collated once for the whole day.
+    const rank = partNumberRanks(consumption.flatMap((consumed) => [...consumed.keys()]));
     const movements: NewMovement[] = [];
-    for (const entry of entries) {
-      const consumed = backflush(
-        entry.model,
-        entry.qty,
-        buildDate,
-        context.bom,
-        context.parts,
-        context.subassemblyStock,
-      );
-      // In the order the BOM is walked: each part once per unit, so the order changes no balance.
+    entries.forEach((entry, index) => {
+      const consumed = [...consumption[index]].sort(([a], [b]) => rank.get(a)! - rank.get(b)!);
       for (const [partNumber, qty] of consumed) {
         movements.push({
           partNumber,
@@ -270,7 +267,7 @@ export class BuildsService {
           ref: entry.serial,
         });
       }
-    }
+    });
     const posted = await postMovements(manager, movements);
     const builtAt = new Date().toISOString();
     // Conditional on the status read, so two requests racing for one unit consume it once.
@@ -285,7 +282,6 @@ export class BuildsService {
     }
     if (affected !== entries.length)
       throw new ConflictError('A unit changed while it was being reported built; look again.');
-    const rank = partNumberRanks(posted.map((movement) => movement.partNumber));
     const bySerial = new Map<string, PostedMovement[]>();
     for (const movement of posted) {
       const list = bySerial.get(movement.ref!);
