@@ -308,12 +308,12 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   const unitResequence = new Map<number, ResequenceOption | null>();
   let unitsBuilt = 0;
 
-  /** The first later unit, same or next working day, of another model whose parts are all free now. */
   // Each model and quantity is tried once per search: the model's first quantity is kept by search
   // number, any other in a set (units of one model rarely differ in quantity).
   const triedIn = new Int32Array(parts.length);
   const triedQty = new Float64Array(parts.length);
   let search = 0;
+  /** The first later unit, same or next working day, of another model whose parts are all free now. */
   function findResequence(position: number): ResequenceOption | null {
     const atRisk = ordered[position];
     search += 1;
@@ -344,8 +344,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   // The parts a unit lacks behind the units ahead of it (queue view), as group indices and quantities.
   const behindGroup = new Int32Array(parts.length);
   const behindQty = new Float64Array(parts.length);
-  /** Per part: the unit (position + 1) it is short for in the queue view, and at which entry. */
-  const behindStamp = new Int32Array(parts.length);
+  /** Per part: its entry in behindGroup / behindQty for the unit at hand. */
   const behindIndex = new Int32Array(parts.length);
   /** Per part: the unit (position + 1) it lacks now for, and which lack of the unit's explosion. */
   const nowStamp = new Int32Array(parts.length);
@@ -356,7 +355,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
    * Queue view: each part serves this unit if it can, whatever the unit's other parts do; parts
    * that can are committed. Returns how many parts cannot (in behindGroup / behindQty).
    */
-  function queueLacks(explosion: Explosion, stamp: number): number {
+  function queueLacks(explosion: Explosion): number {
     const groups = exploder.needGroups(explosion, rowBase);
     const { needBucket, needQty } = explosion;
     const { cells, least: leastOf } = queue;
@@ -405,7 +404,6 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
         const part = groups.part[group];
         behindGroup[count] = group;
         behindQty[count] = roundQty(lack);
-        behindStamp[part] = stamp;
         behindIndex[part] = count;
         count += 1;
       } else {
@@ -446,7 +444,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
     const mine = explosions[position];
     // The queue view runs for every unit: a part can stop a unit that is buildable now only
     // because a unit ahead of it, short of something else, is not taking its share.
-    const behindCount = queueLacks(mine, stamp);
+    const behindCount = queueLacks(mine);
     const groups = mine.groups!;
     /** The unit's first need of a part short behind others gives its via and day. */
     const firstNeedOf = (index: number) => groups.needs[groups.start[behindGroup[index]]];
