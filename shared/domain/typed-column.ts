@@ -18,11 +18,6 @@ export class TypedColumn<T extends Int32Array | Float64Array | Uint8Array> {
     return this.length++;
   }
 
-  /** The values pushed, in an array of their own (the column may go on and be reused). */
-  copy(): T {
-    return this.values.slice(0, this.length) as T;
-  }
-
   /** The values pushed, without copying: for a column that is done with. */
   done(): T {
     return this.values.subarray(0, this.length) as T;
