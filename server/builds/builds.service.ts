@@ -50,11 +50,28 @@ async function backflushContext(manager: EntityManager): Promise<BackflushContex
   };
 }
 
-function summarise(movements: readonly { partNumber: string; qty: number }[]): { partNumber: string; qty: number }[] {
+/**
+ * Net quantity per part, in part-number order. `rank` (from partNumberRanks) saves collating the
+ * same part numbers again for every unit of a day.
+ */
+function summarise(
+  movements: readonly { partNumber: string; qty: number }[],
+  rank?: ReadonlyMap<string, number>,
+): { partNumber: string; qty: number }[] {
   const byPart = new Map<string, number>();
   for (const movement of movements)
     byPart.set(movement.partNumber, roundQty((byPart.get(movement.partNumber) ?? 0) + movement.qty));
-  return [...byPart].sort(([a], [b]) => a.localeCompare(b)).map(([partNumber, qty]) => ({ partNumber, qty }));
+  const sorted = rank
+    ? [...byPart].sort(([a], [b]) => rank.get(a)! - rank.get(b)!)
+    : [...byPart].sort(([a], [b]) => a.localeCompare(b));
+  return sorted.map(([partNumber, qty]) => ({ partNumber, qty }));
+}
+
+/** Each part number's place in part-number order, collated once. */
+function partNumberRanks(partNumbers: Iterable<string>): Map<string, number> {
+  return new Map(
+    [...new Set(partNumbers)].sort((a, b) => a.localeCompare(b)).map((partNumber, index) => [partNumber, index]),
+  );
 }
 
 /**
@@ -231,17 +248,15 @@ export class BuildsService {
       );
     }
     const buildDate = this.today();
+    const consumption = entries.map((entry) =>
+      backflush(entry.model, entry.qty, buildDate, context.bom, context.parts, context.subassemblyStock),
+    );
+    // Each unit's movements in part-number order, the part numbers collated once for the whole day.
+    const rank = partNumberRanks(consumption.flatMap((consumed) => [...consumed.keys()]));
     const movements: NewMovement[] = [];
-    for (const entry of entries) {
-      const consumed = backflush(
-        entry.model,
-        entry.qty,
-        buildDate,
-        context.bom,
-        context.parts,
-        context.subassemblyStock,
-      );
-      for (const [partNumber, qty] of [...consumed].sort(([a], [b]) => a.localeCompare(b))) {
+    entries.forEach((entry, index) => {
+      const consumed = [...consumption[index]].sort(([a], [b]) => rank.get(a)! - rank.get(b)!);
+      for (const [partNumber, qty] of consumed) {
         movements.push({
           partNumber,
           qty: -qty,
@@ -252,7 +267,7 @@ export class BuildsService {
           ref: entry.serial,
         });
       }
-    }
+    });
     const posted = await postMovements(manager, movements);
     const builtAt = new Date().toISOString();
     // Conditional on the status read, so two requests racing for one unit consume it once.
@@ -277,7 +292,7 @@ export class BuildsService {
       serial: entry.serial,
       status: 'built',
       builtAt,
-      movements: summarise(bySerial.get(entry.serial) ?? []),
+      movements: summarise(bySerial.get(entry.serial) ?? [], rank),
     }));
   }
 

@@ -1,4 +1,5 @@
 import type { LineRiskResult, PartShortage, SlotAtRisk, UnitAtRisk } from '../../shared/domain/line-risk';
+import { LineRiskRun } from '../../shared/domain/line-risk-run';
 import { SLOTS_PER_SHORTAGE, UNITS_PER_REPORT } from '../../shared/schemas/line-risk';
 
 /** A short part with its first slots at risk and how many there are in all. */
@@ -15,7 +16,19 @@ export interface LineRiskSummary extends Omit<LineRiskResult, 'unitsAtRisk' | 's
   shortages: ShortageSummary[];
 }
 
-export function summarise(result: LineRiskResult): LineRiskSummary {
+/** The summary of a run (as the worker keeps it), or of a whole answer. */
+export function summarise(result: LineRiskRun | LineRiskResult): LineRiskSummary {
+  if (result instanceof LineRiskRun) {
+    return {
+      ...result.header,
+      unitsAtRisk: result.unitsAtRisk(0, UNITS_PER_REPORT),
+      unitsAtRiskCount: result.unitsAtRiskCount,
+      shortages: result.shortages.map((_, index) => ({
+        ...result.shortageWith(index, result.slotsAtRisk(index, 0, SLOTS_PER_SHORTAGE)),
+        slotsAtRiskCount: result.slotsAtRiskCount(index),
+      })),
+    };
+  }
   return {
     ...result,
     unitsAtRisk: result.unitsAtRisk.slice(0, UNITS_PER_REPORT),
@@ -28,18 +41,18 @@ export function summarise(result: LineRiskResult): LineRiskSummary {
   };
 }
 
-export function unitsPage(result: LineRiskResult, offset: number, limit: number) {
-  return { total: result.unitsAtRisk.length, units: result.unitsAtRisk.slice(offset, offset + limit) };
+export function unitsPage(run: LineRiskRun, offset: number, limit: number) {
+  return { total: run.unitsAtRiskCount, units: run.unitsAtRisk(offset, limit) };
 }
 
 /** Null when the part is not short over this horizon. */
 export function slotsPage(
-  result: LineRiskResult,
+  run: LineRiskRun,
   partNumber: string,
   offset: number,
   limit: number,
 ): { total: number; slots: SlotAtRisk[] } | null {
-  const shortage = result.shortages.find((candidate) => candidate.partNumber === partNumber);
-  if (!shortage) return null;
-  return { total: shortage.slotsAtRisk.length, slots: shortage.slotsAtRisk.slice(offset, offset + limit) };
+  const index = run.shortageIndex(partNumber);
+  if (index === undefined) return null;
+  return { total: run.slotsAtRiskCount(index), slots: run.slotsAtRisk(index, offset, limit) };
 }

@@ -1,7 +1,7 @@
 import { BomCycleError } from '../../shared/domain/bom';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
-import { computeLineRisk, MAX_LINE_RISK_CALENDAR_DAYS, type LineRiskInput } from '../../shared/domain/line-risk';
+import { MAX_LINE_RISK_CALENDAR_DAYS, walkLineRisk, type LineRiskInput } from '../../shared/domain/line-risk';
 import { PlanInputError } from '../../shared/domain/plan-model';
 import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import type { Database } from '../db/database';
@@ -118,7 +118,7 @@ export class LineRiskService {
     if (this.db.inWriteUnit) {
       // Inputs read inside a write unit may be uncommitted: computed here, for this unit alone.
       try {
-        return { key: '', report: toReport(summarise(computeLineRisk(input)), inputs) };
+        return { key: '', report: toReport(summarise(walkLineRisk(input)), inputs) };
       } catch (error) {
         throw asHttpError(error);
       }

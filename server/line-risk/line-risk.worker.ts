@@ -1,20 +1,21 @@
 import { parentPort } from 'node:worker_threads';
 import { BomCycleError } from '../../shared/domain/bom';
-import { computeLineRisk, type LineRiskResult } from '../../shared/domain/line-risk';
+import { walkLineRisk } from '../../shared/domain/line-risk';
+import type { LineRiskRun } from '../../shared/domain/line-risk-run';
 import { PlanInputError } from '../../shared/domain/plan-model';
 import type { WorkerReply, WorkerRequest } from './line-risk-runner';
 import { slotsPage, summarise, unitsPage } from './line-risk-summary';
 
 /*
- * Runs the line-risk engine off the server's event loop and keeps each full result here, so only
- * the summary and the pages asked for cross back to the main thread.
+ * Runs the line-risk engine off the server's event loop and keeps each run here, so only the
+ * summary and the pages asked for are made into objects and cross back to the main thread.
  */
-const results = new Map<string, LineRiskResult>();
+const results = new Map<string, LineRiskRun>();
 
 function answer(request: WorkerRequest): unknown {
   switch (request.kind) {
     case 'compute': {
-      const result = computeLineRisk(request.input);
+      const result = walkLineRisk(request.input);
       results.set(request.key, result);
       return summarise(result);
     }

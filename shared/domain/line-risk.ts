@@ -1,4 +1,7 @@
-import { BOUGHT, MADE, buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
+import { Exploder, StockLedger, stillHolds, type Explosion } from './line-risk-explosion';
+import { LineRiskRun, type ShortPartFigures } from './line-risk-run';
+import { byteColumn, floatColumn, intColumn } from './typed-column';
+import { BOUGHT, buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
 import type { IsoDate, PlanningBomLine, PlanningPart, PlantCalendar, ScheduledReceipt, SequenceSlot } from './types';
@@ -178,98 +181,45 @@ export interface LineRiskResult {
   shortages: PartShortage[];
 }
 
-/** A quantity of a part needed on a bucket, and through which made part. */
-interface Need {
-  part: number;
-  bucket: number;
-  qty: number;
-  via: number;
-}
-
-interface Evaluation {
-  /** Made parts taken from their stock; committed only when the unit is built. */
-  takes: Need[];
-  /** Needs of bought parts. */
-  needs: Need[];
-  /** Bought part → quantity lacking now (first need that lacks gives `via` and bucket). */
-  lacks: Map<number, Need>;
-}
-
 interface OrderedSlot {
   slot: SequenceSlot;
   model: number;
   bucket: number;
 }
 
+/** A short part's first slot (a record of the run), and the rescue worked out for the first unit at risk of it. */
+interface PartRisk {
+  firstRecord: number;
+  resequence: ResequenceOption | null;
+}
+
 const epsilon = QTY_EPSILON;
-const NO_VIA = -1;
 
 function compareText(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
 /**
- * Uncommitted quantity per part and working day, as a flat table: row p, column t holds supply up
- * to day t less what was committed for days up to t. A commitment on day b lowers every column
- * from b on; the free quantity for a need on day b is the row's least value from b on (cumulative
- * available-to-promise with look-ahead), kept ready in `least`.
+ * Explosions against one ledger, kept by model, quantity and day: a unit reuses the one made for
+ * an earlier unit as long as it still holds (no row it read has been committed to since).
  */
-class StockLedger {
-  private readonly cells: Float64Array;
-  private readonly least: Float64Array;
+class ExplosionCache {
+  private readonly kept = new Map<string, Explosion>();
 
   constructor(
-    private readonly days: number,
-    cumulativeSupply: Float64Array,
-  ) {
-    this.cells = cumulativeSupply.slice();
-    this.least = new Float64Array(cumulativeSupply.length);
-    const parts = days === 0 ? 0 : cumulativeSupply.length / days;
-    for (let part = 0; part < parts; part += 1) this.refreshLeast(part);
-  }
+    private readonly exploder: Exploder,
+    private readonly ledger: StockLedger,
+    private readonly withLacks: boolean,
+  ) {}
 
-  /** Least free quantity of `part` from `bucket` on, less what this unit already holds of it (and when). */
-  free(part: number, bucket: number, held: readonly Need[] | undefined): number {
-    const base = part * this.days;
-    if (held === undefined || held.length === 0) return this.least[base + bucket];
-    // Held quantities only lower the days from their own need on.
-    if (held.every((need) => need.bucket <= bucket)) {
-      return roundQty(this.least[base + bucket] - held.reduce((sum, need) => sum + need.qty, 0));
+  get(model: number, qty: number, bucket: number): Explosion {
+    const key = `${model}:${qty}:${bucket}`;
+    let explosion = this.kept.get(key);
+    if (explosion === undefined || !stillHolds(explosion, this.ledger)) {
+      explosion = this.exploder.explode(this.ledger, model, qty, bucket, this.withLacks);
+      this.kept.set(key, explosion);
     }
-    let least = Infinity;
-    for (let t = bucket; t < this.days; t += 1) {
-      let value = this.cells[base + t];
-      for (const need of held) if (need.bucket <= t) value -= need.qty;
-      if (value < least) least = value;
-    }
-    return roundQty(least);
-  }
-
-  commit(part: number, bucket: number, qty: number): void {
-    const base = part * this.days;
-    let least = Infinity;
-    for (let t = this.days - 1; t >= bucket; t -= 1) {
-      const cell = roundQty(this.cells[base + t] - qty);
-      this.cells[base + t] = cell;
-      if (cell < least) least = cell;
-      this.least[base + t] = least;
-    }
-    // Before the need's day a minimum only changes while the lowered one still reaches back.
-    for (let t = bucket - 1; t >= 0; t -= 1) {
-      const value = Math.min(this.cells[base + t], least);
-      if (value === this.least[base + t]) break;
-      this.least[base + t] = value;
-      least = value;
-    }
-  }
-
-  private refreshLeast(part: number): void {
-    const base = part * this.days;
-    let least = Infinity;
-    for (let t = this.days - 1; t >= 0; t -= 1) {
-      if (this.cells[base + t] < least) least = this.cells[base + t];
-      this.least[base + t] = least;
-    }
+    return explosion;
   }
 }
 
@@ -279,6 +229,14 @@ class StockLedger {
  * a rescue per part. Throws PlanInputError for unusable input and BomCycleError for a cyclic BOM.
  */
 export function computeLineRisk(input: LineRiskInput): LineRiskResult {
+  return walkLineRisk(input).result();
+}
+
+/**
+ * The same walk, its units and slots at risk kept as records: what the server keeps, summarises
+ * and pages (a large plant's full answer runs to hundreds of thousands of slots).
+ */
+export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
   const { calendar, dayNumbers, indexOf } = model;
   const days = model.days.length;
@@ -288,107 +246,35 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
   }
   const countable = parts.map((part) => COUNTABLE_UNITS.has(part.uom ?? 'H87'));
   const wholeIfCountable = (part: number, qty: number) => (countable[part] ? Math.ceil(qty - epsilon) : roundQty(qty));
+  // Parts by part number, and each part's place in that order.
+  const partAtRank = Int32Array.from(
+    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
+  );
   const rankOf = new Int32Array(parts.length);
-  parts
-    .map((_, index) => index)
-    .sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber))
-    .forEach((index, rank) => (rankOf[index] = rank));
+  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
 
   const ordered = orderSlots(input.sequence, model);
-  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, parts.length);
-
-  // --- Explosion with pegging ---
-
-  const toBucket = (offset: number) => Math.max(0, offset);
-  /** Day number of bucket offset b, which may lie before the horizon (a subassembly started earlier). */
-  const dayOfOffset = (offset: number) =>
-    offset >= 0 ? dayNumbers[Math.min(offset, days - 1)] : model.workingDayBeforeStart(-offset);
-
-  function explode(
-    ledger: StockLedger,
-    parent: number,
-    qty: number,
-    offset: number,
-    via: number,
-    evaluation: Evaluation,
-    held: Map<number, Need[]>,
-  ): void {
-    const day = dayOfOffset(offset);
-    const bucket = toBucket(offset);
-    for (let line = model.lineStart[parent]; line < model.lineStart[parent + 1]; line += 1) {
-      if (day < model.lineFrom[line] || day > model.lineTo[line]) continue;
-      const need = roundQty(qty * model.lineQtyPer[line]);
-      if (need <= epsilon) continue;
-      const component = model.lineComponent[line];
-      if (model.source[component] === BOUGHT) {
-        const entry = { part: component, bucket, qty: need, via };
-        evaluation.needs.push(entry);
-        const free = Math.max(0, ledger.free(component, bucket, held.get(component)));
-        hold(held, entry);
-        const lack = need - free;
-        if (lack > epsilon && !evaluation.lacks.has(component)) {
-          evaluation.lacks.set(component, { part: component, bucket, qty: lack, via });
-        } else if (lack > epsilon) {
-          const known = evaluation.lacks.get(component)!;
-          known.qty = roundQty(known.qty + Math.min(need, lack));
-        }
-        continue;
-      }
-      // A made part (or a model used as a component): from its stock first, the rest made for the unit.
-      const inStock = Math.max(0, ledger.free(component, bucket, held.get(component)));
-      const taken = Math.min(need, inStock);
-      if (taken > epsilon) {
-        const take = { part: component, bucket, qty: taken, via };
-        evaluation.takes.push(take);
-        hold(held, take);
-      }
-      const made = roundQty(need - taken);
-      if (made > epsilon) {
-        const start = offset - model.leadTimeDays[component];
-        explode(
-          ledger,
-          component,
-          made,
-          start,
-          via === NO_VIA && model.source[component] === MADE ? component : via,
-          evaluation,
-          held,
-        );
-      }
-    }
-  }
-
-  function hold(held: Map<number, Need[]>, need: Need): void {
-    const list = held.get(need.part);
-    if (list) list.push(need);
-    else held.set(need.part, [need]);
-  }
-
-  function evaluate(ledger: StockLedger, part: number, qty: number, bucket: number): Evaluation {
-    const evaluation: Evaluation = { takes: [], needs: [], lacks: new Map() };
-    explode(ledger, part, qty, bucket, NO_VIA, evaluation, new Map());
-    return evaluation;
-  }
+  const rowBase = rowsByUse(model, ordered);
+  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, rowBase);
+  const exploder = new Exploder(model);
 
   // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
 
-  const probe = new StockLedger(days, cumulativeSupply);
-  const requiredByDay = new Float64Array(parts.length * days);
   // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
-  // The probe ledger changes only when a unit takes made stock: until then, a unit of the same
-  // model, quantity and day explodes exactly as the one before it.
-  const probed = new Map<string, Evaluation>();
-  const evaluations = ordered.map((entry) => {
-    const key = `${entry.model}:${entry.slot.qty}:${entry.bucket}`;
-    let evaluation = probed.get(key);
-    if (evaluation === undefined) {
-      evaluation = evaluate(probe, entry.model, entry.slot.qty, entry.bucket);
-      probed.set(key, evaluation);
+  // Only made stock is committed here, so a unit reuses the explosion of an earlier unit of the
+  // same model, quantity and day until a made part that explosion read is taken.
+  const probe = madeStockLedger(model, cumulativeSupply, rowBase);
+  const probed = new ExplosionCache(exploder, probe, false);
+  const requiredByDay = new Float64Array(parts.length * days);
+  const explosions = ordered.map((entry) => {
+    const explosion = probed.get(entry.model, entry.slot.qty, entry.bucket);
+    const { needPart, needBucket, needQty, takePart, takeBucket, takeQty } = explosion;
+    for (let take = 0; take < explosion.takeCount; take += 1)
+      probe.commit(takePart[take], takeBucket[take], takeQty[take]);
+    for (let need = 0; need < explosion.needCount; need += 1) {
+      requiredByDay[rowBase[needPart[need]] + needBucket[need]] += needQty[need];
     }
-    if (evaluation.takes.length > 0) probed.clear();
-    for (const take of evaluation.takes) probe.commit(take.part, take.bucket, take.qty);
-    for (const need of evaluation.needs) requiredByDay[need.part * days + need.bucket] += need.qty;
-    return evaluation;
+    return explosion;
   });
   const loopByPart = new Map<number, LoopSupply>();
   for (const loop of input.loops ?? []) {
@@ -396,144 +282,230 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     if (part !== undefined && parts[part].replenishment === 'kanban') loopByPart.set(part, loop);
   }
   for (const [part, loop] of loopByPart) {
-    pullSupply(part, loop, model, parts[part].onHand, receiptsByDay, requiredByDay, cumulativeSupply);
+    pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, requiredByDay, cumulativeSupply);
   }
   // Made parts only supply their own stock; nothing is ordered for them here.
 
   // --- The walk ---
 
-  const build = new StockLedger(days, cumulativeSupply);
-  const queue = new StockLedger(days, cumulativeSupply);
-  interface PartRisk {
-    slots: SlotAtRisk[];
-    resequence: ResequenceOption | null;
-  }
-  const risks = new Map<number, PartRisk>();
-  const unitsAtRisk: UnitAtRisk[] = [];
+  // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
+  const build = new StockLedger(days, cumulativeSupply, rowBase);
+  const againstBuild = new ExplosionCache(exploder, build, true);
+  const queue = new StockLedger(days, cumulativeSupply, rowBase);
+  const risks: (PartRisk | undefined)[] = new Array(parts.length);
+  const riskOrder: number[] = [];
+  const records = {
+    unit: intColumn(1024),
+    part: intColumn(1024),
+    qty: floatColumn(1024),
+    now: byteColumn(1024),
+    via: intColumn(1024),
+    bucket: intColumn(1024),
+  };
+  const atRiskUnit = intColumn();
+  const atRiskFirst = intColumn();
+  const atRiskCount = intColumn();
+  const unitResequence = new Map<number, ResequenceOption | null>();
   let unitsBuilt = 0;
 
-  // A unit's evaluation against the build ledger depends only on its model, quantity and day and
-  // on the ledger, which changes only when a unit is built: evaluations are kept until then.
-  const againstBuild = new Map<string, Evaluation>();
-  function evaluateForBuild(model: number, qty: number, bucket: number): Evaluation {
-    const key = `${model}:${qty}:${bucket}`;
-    let evaluation = againstBuild.get(key);
-    if (evaluation === undefined) {
-      evaluation = evaluate(build, model, qty, bucket);
-      againstBuild.set(key, evaluation);
-    }
-    return evaluation;
-  }
-
+  // Each model and quantity is tried once per search: the model's first quantity is kept by search
+  // number, any other in a set (units of one model rarely differ in quantity).
+  const triedIn = new Int32Array(parts.length);
+  const triedQty = new Float64Array(parts.length);
+  let search = 0;
   /** The first later unit, same or next working day, of another model whose parts are all free now. */
   function findResequence(position: number): ResequenceOption | null {
     const atRisk = ordered[position];
-    const tried = new Set<string>();
+    search += 1;
+    let triedOther: Set<string> | null = null;
     for (let next = position + 1; next < ordered.length; next += 1) {
       const candidate = ordered[next];
       if (candidate.bucket > atRisk.bucket + 1) break;
-      const key = `${candidate.model}:${candidate.slot.qty}`;
-      if (candidate.model === atRisk.model || tried.has(key)) continue;
-      tried.add(key);
-      if (evaluateForBuild(candidate.model, candidate.slot.qty, atRisk.bucket).lacks.size === 0) {
+      const { model: candidateModel } = candidate;
+      const { qty } = candidate.slot;
+      if (candidateModel === atRisk.model) continue;
+      if (triedIn[candidateModel] !== search) {
+        triedIn[candidateModel] = search;
+        triedQty[candidateModel] = qty;
+      } else if (triedQty[candidateModel] === qty) continue;
+      else {
+        const key = `${candidateModel}:${qty}`;
+        triedOther ??= new Set();
+        if (triedOther.has(key)) continue;
+        triedOther.add(key);
+      }
+      if (againstBuild.get(candidateModel, qty, atRisk.bucket).lackCount === 0) {
         return { slot: unitRef(atRisk.slot), candidate: unitRef(candidate.slot) };
       }
     }
     return null;
   }
 
-  /** Queue view: each part serves this unit if it can, whatever the unit's other parts do. */
-  function queueLacks(needs: Need[]): Map<number, number> {
-    const lacks = new Map<number, number>();
-    const byPart = new Map<number, Need[]>();
-    for (const need of needs) {
-      const list = byPart.get(need.part);
-      if (list) list.push(need);
-      else byPart.set(need.part, [need]);
-    }
-    for (const [part, partNeeds] of byPart) {
+  // The parts a unit lacks behind the units ahead of it (queue view), as group indices and quantities.
+  const behindGroup = new Int32Array(parts.length);
+  const behindQty = new Float64Array(parts.length);
+  /** Per part: its entry in behindGroup / behindQty for the unit at hand. */
+  const behindIndex = new Int32Array(parts.length);
+  /** Per part: the unit (position + 1) it lacks now for, and which lack of the unit's explosion. */
+  const nowStamp = new Int32Array(parts.length);
+  const nowIndex = new Int32Array(parts.length);
+  const rankScratch = new Int32Array(parts.length);
+
+  /**
+   * Queue view: each part serves this unit if it can, whatever the unit's other parts do; parts
+   * that can are committed. Returns how many parts cannot (in behindGroup / behindQty).
+   */
+  function queueLacks(explosion: Explosion): number {
+    const groups = exploder.needGroups(explosion, rowBase);
+    const { needBucket, needQty } = explosion;
+    const { cells, least: leastOf } = queue;
+    const { start, base: baseOf, firstBucket, firstQty } = groups;
+    let count = 0;
+    for (let group = 0; group < groups.count; group += 1) {
+      const first = start[group];
+      const end = start[group + 1];
+      const base = baseOf[group];
       let lack = 0;
-      if (partNeeds.length === 1) {
-        lack = Math.max(0, partNeeds[0].qty - Math.max(0, queue.free(part, partNeeds[0].bucket, undefined)));
+      if (end - first === 1) {
+        // Most parts are needed once per unit.
+        const qty = firstQty[group];
+        const bucket = firstBucket[group];
+        lack = Math.max(0, qty - Math.max(0, leastOf[base + bucket]));
+        if (lack <= epsilon) {
+          queue.commitRow(base, bucket, qty);
+          continue;
+        }
       } else {
-        partNeeds.forEach((need, index) => {
-          lack += Math.max(0, need.qty - Math.max(0, queue.free(part, need.bucket, partNeeds.slice(0, index))));
-        });
+        // Each need of the part after the first finds the unit's earlier needs of it already held.
+        let heldSum = 0;
+        let heldLatest = -1;
+        for (let index = first; index < end; index += 1) {
+          const need = groups.needs[index];
+          const bucket = needBucket[need];
+          let free: number;
+          if (index === first) free = leastOf[base + bucket];
+          else if (heldLatest <= bucket) free = roundQty(leastOf[base + bucket] - heldSum);
+          else {
+            let least = Infinity;
+            for (let t = bucket; t < days; t += 1) {
+              let value = cells[base + t];
+              for (let held = first; held < index; held += 1)
+                if (needBucket[groups.needs[held]] <= t) value -= needQty[groups.needs[held]];
+              if (value < least) least = value;
+            }
+            free = roundQty(least);
+          }
+          lack += Math.max(0, needQty[need] - Math.max(0, free));
+          heldSum += needQty[need];
+          if (bucket > heldLatest) heldLatest = bucket;
+        }
       }
-      if (lack > epsilon) lacks.set(part, roundQty(lack));
-      else for (const need of partNeeds) queue.commit(part, need.bucket, need.qty);
+      if (lack > epsilon) {
+        const part = groups.part[group];
+        behindGroup[count] = group;
+        behindQty[count] = roundQty(lack);
+        behindIndex[part] = count;
+        count += 1;
+      } else {
+        for (let index = first; index < end; index += 1) {
+          const need = groups.needs[index];
+          queue.commitRow(base, needBucket[need], needQty[need]);
+        }
+      }
     }
-    return lacks;
+    return count;
   }
 
-  /** A slot of `part` for this unit; the first unit at risk of a part works out its resequence rescue. */
+  /** A slot of `part` for the unit at `position`; the first unit at risk of a part works out its resequence rescue. */
   function addSlot(
     part: number,
-    entry: OrderedSlot,
+    position: number,
     qty: number,
-    via: string | null,
+    now: boolean,
+    via: number,
+    bucket: number,
     resequence: () => ResequenceOption | null,
   ) {
-    let risk = risks.get(part);
-    if (!risk) {
-      risk = { slots: [], resequence: resequence() };
-      risks.set(part, risk);
+    const record = records.unit.push(position);
+    records.part.push(part);
+    records.qty.push(qty);
+    records.now.push(now ? 1 : 0);
+    records.via.push(via);
+    records.bucket.push(bucket);
+    if (!risks[part]) {
+      risks[part] = { firstRecord: record, resequence: resequence() };
+      riskOrder.push(part);
     }
-    // One object per slot, built in one go: a large plant has hundreds of thousands of them.
-    const { date, sequence, serial, model } = entry.slot;
-    risk.slots.push({ date, sequence, serial, model, lackQty: qty, via });
   }
 
+  const noResequence = () => null;
   ordered.forEach((entry, position) => {
+    const stamp = position + 1;
+    const mine = explosions[position];
     // The queue view runs for every unit: a part can stop a unit that is buildable now only
     // because a unit ahead of it, short of something else, is not taking its share.
-    const behind = queueLacks(evaluations[position].needs);
+    const behindCount = queueLacks(mine);
+    const groups = mine.groups!;
+    /** The unit's first need of a part short behind others gives its via and day. */
+    const firstNeedOf = (index: number) => groups.needs[groups.start[behindGroup[index]]];
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
-    const evaluation = evaluateForBuild(entry.model, entry.slot.qty, entry.bucket);
-    // The first need of each part, looked up only for parts short behind other units.
-    let firstNeeds: Map<number, Need> | null = null;
-    const viaOf = (part: number, need: Need | undefined) => {
-      if (!need && !firstNeeds) {
-        firstNeeds = new Map();
-        for (const candidate of evaluations[position].needs)
-          if (!firstNeeds.has(candidate.part)) firstNeeds.set(candidate.part, candidate);
+    const explosion = againstBuild.get(entry.model, entry.slot.qty, entry.bucket);
+    if (explosion.lackCount === 0) {
+      for (let need = 0; need < explosion.needCount; need += 1) {
+        build.commit(explosion.needPart[need], explosion.needBucket[need], explosion.needQty[need]);
       }
-      const found = need ?? firstNeeds!.get(part)!;
-      return { via: found.via === NO_VIA ? null : parts[found.via].partNumber, bucket: found.bucket };
-    };
-    if (evaluation.lacks.size === 0) {
-      for (const need of evaluation.needs) build.commit(need.part, need.bucket, need.qty);
-      for (const take of evaluation.takes) build.commit(take.part, take.bucket, take.qty);
-      againstBuild.clear();
+      for (let take = 0; take < explosion.takeCount; take += 1) {
+        build.commit(explosion.takePart[take], explosion.takeBucket[take], explosion.takeQty[take]);
+      }
       unitsBuilt += 1;
-      for (const [part, lack] of behind)
-        addSlot(part, entry, wholeIfCountable(part, lack), viaOf(part, undefined).via, () => null);
+      for (let index = 0; index < behindCount; index += 1) {
+        const part = groups.part[behindGroup[index]];
+        const need = firstNeedOf(index);
+        const qty = wholeIfCountable(part, behindQty[index]);
+        addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], noResequence);
+      }
       return;
     }
-    const unit: UnitAtRisk = { ...unitRef(entry.slot), lacks: [] };
+    const unitIndex = atRiskUnit.push(position);
+    atRiskFirst.push(records.unit.length);
     // The unit took nothing, so the stock stands exactly as it did at its turn.
     const resequence = () => {
-      if (unit.resequence === undefined) unit.resequence = findResequence(position);
-      return unit.resequence;
+      let option = unitResequence.get(unitIndex);
+      if (option === undefined) {
+        option = findResequence(position);
+        unitResequence.set(unitIndex, option);
+      }
+      return option;
     };
-    const lacking = [...evaluation.lacks.keys()].sort((a, b) => rankOf[a] - rankOf[b]);
-    const behindOnly = [...behind.keys()]
-      .filter((part) => !evaluation.lacks.has(part))
-      .sort((a, b) => rankOf[a] - rankOf[b]);
-    for (const part of lacking.concat(behindOnly)) {
-      const now = evaluation.lacks.get(part);
-      const qty = wholeIfCountable(part, now?.qty ?? behind.get(part)!);
-      const { via, bucket } = viaOf(part, now);
-      unit.lacks.push({
-        partNumber: parts[part].partNumber,
-        qty,
-        now: now !== undefined,
-        via,
-        neededOn: model.days[bucket],
-      });
-      addSlot(part, entry, qty, via, resequence);
+    // What it lacks now first, then what it lacks only behind the units ahead; each by part number.
+    let ranks = 0;
+    for (let lack = 0; lack < explosion.lackCount; lack += 1) {
+      const part = explosion.lackPart[lack];
+      nowStamp[part] = stamp;
+      nowIndex[part] = lack;
+      rankScratch[ranks++] = rankOf[part];
     }
-    unitsAtRisk.push(unit);
+    const nowCount = ranks;
+    for (let index = 0; index < behindCount; index += 1) {
+      const part = groups.part[behindGroup[index]];
+      if (nowStamp[part] !== stamp) rankScratch[ranks++] = rankOf[part];
+    }
+    rankScratch.subarray(0, nowCount).sort();
+    rankScratch.subarray(nowCount, ranks).sort();
+    for (let index = 0; index < ranks; index += 1) {
+      const part = partAtRank[rankScratch[index]];
+      if (index < nowCount) {
+        const lack = nowIndex[part];
+        const qty = wholeIfCountable(part, explosion.lackQty[lack]);
+        addSlot(part, position, qty, true, explosion.lackVia[lack], explosion.lackBucket[lack], resequence);
+      } else {
+        const behind = behindIndex[part];
+        const need = firstNeedOf(behind);
+        const qty = wholeIfCountable(part, behindQty[behind]);
+        addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], resequence);
+      }
+    }
+    atRiskCount.push(ranks);
   });
 
   // --- Figures per short part ---
@@ -551,19 +523,21 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
     return count;
   };
 
-  const shortages: PartShortage[] = [];
-  for (const [part, risk] of risks) {
-    const projection = needSchedule(part, model.days, requiredByDay, cumulativeSupply, (qty) =>
+  const shortages: { figures: ShortPartFigures; part: number }[] = [];
+  for (const part of riskOrder) {
+    const risk = risks[part]!;
+    const firstSlot = ordered[records.unit.values[risk.firstRecord]].slot;
+    const firstLackQty = records.qty.values[risk.firstRecord];
+    const projection = needSchedule(rowBase[part], model.days, requiredByDay, cumulativeSupply, (qty) =>
       wholeIfCountable(part, qty),
     );
     const first =
       projection.firstShort >= 0
         ? projection.firstShort
-        : Math.max(0, model.bucketOf(requireDate(model.dayNumberOf(risk.slots[0].date), risk.slots[0].date, 'Slot')));
+        : Math.max(0, model.bucketOf(requireDate(model.dayNumberOf(firstSlot.date), firstSlot.date, 'Slot')));
     const shortPart = parts[part];
     const firstShortDay = dayNumbers[first];
-    const needBy =
-      projection.needBy.length > 0 ? projection.needBy : [{ date: model.days[first], qty: risk.slots[0].lackQty }];
+    const needBy = projection.needBy.length > 0 ? projection.needBy : [{ date: model.days[first], qty: firstLackQty }];
     const shortQty = roundQty(needBy.reduce((sum, entry) => sum + entry.qty, 0));
     const leadTimeDays = shortPart.leadTimeDays;
     const lastArrivalInLeadTime = calendar.addWorking(calendar.nextWorking(todayDay), leadTimeDays);
@@ -575,7 +549,7 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
         : firstShortDay <= lastArrivalInLeadTime
           ? 'expedite'
           : 'release';
-    shortages.push({
+    const figures: ShortPartFigures = {
       partNumber: shortPart.partNumber,
       supplierCode: shortPart.supplierCode ?? null,
       action,
@@ -584,35 +558,52 @@ export function computeLineRisk(input: LineRiskInput): LineRiskResult {
       needBy,
       releaseBy: action === 'release' ? fromDayNumber(calendar.addWorking(firstShortDay, -leadTimeDays)) : null,
       leadTimeDays,
-      slotsAtRisk: risk.slots,
       onHand: shortPart.onHand,
       firmReceiptQty: roundQty(firmReceiptQty[part]),
       daysUntilImpact: workingDaysAfterToday(firstShortDay),
       inFrozenWindow: frozenEnd !== null && firstShortDay <= frozenEnd,
       loop: loop ? { activeCards: loop.activeCards, recommendedCards: loop.recommendedCards } : null,
       rescue: { expedite: { qty: needBy[0].qty, needBy: needBy[0].date }, resequence: risk.resequence },
-      requiredByDay: Array.from(requiredByDay.subarray(part * days, (part + 1) * days), (qty) => roundQty(qty)),
-    });
+      requiredByDay: Array.from(requiredByDay.subarray(rowBase[part], rowBase[part] + days)).map(roundQty),
+    };
+    shortages.push({ figures, part });
   }
   shortages.sort(
-    (a, b) =>
+    ({ figures: a }, { figures: b }) =>
       SHORTAGE_ACTIONS.indexOf(a.action) - SHORTAGE_ACTIONS.indexOf(b.action) ||
       compareText(a.firstShortDate, b.firstShortDate) ||
       compareText(a.partNumber, b.partNumber),
   );
 
-  return {
-    from: input.from,
-    to: input.to,
-    days: model.days,
-    today,
-    frozenWindowDays,
-    frozenUntil: frozenEnd === null ? null : fromDayNumber(frozenEnd),
-    unitsInHorizon: ordered.length,
-    unitsBuilt,
-    unitsAtRisk,
-    shortages,
-  };
+  return new LineRiskRun({
+    header: {
+      from: input.from,
+      to: input.to,
+      days: model.days,
+      today,
+      frozenWindowDays,
+      frozenUntil: frozenEnd === null ? null : fromDayNumber(frozenEnd),
+      unitsInHorizon: ordered.length,
+      unitsBuilt,
+    },
+    units: ordered.map((entry) => entry.slot),
+    partNumbers: parts.map((part) => part.partNumber),
+    records: {
+      count: records.unit.length,
+      unit: records.unit.done(),
+      part: records.part.done(),
+      qty: records.qty.done(),
+      now: records.now.done(),
+      via: records.via.done(),
+      bucket: records.bucket.done(),
+    },
+    atRiskUnit: atRiskUnit.done(),
+    atRiskFirst: atRiskFirst.done(),
+    atRiskCount: atRiskCount.done(),
+    resequence: unitResequence,
+    shortages: shortages.map((shortage) => shortage.figures),
+    shortParts: Int32Array.from(shortages.map((shortage) => shortage.part)),
+  });
 }
 
 function unitRef(slot: SequenceSlot): UnitRef {
@@ -636,9 +627,53 @@ function orderSlots(sequence: readonly SequenceSlot[], model: PlanModel): Ordere
   return ordered.sort((a, b) => compareText(a.slot.date, b.slot.date) || a.slot.sequence - b.slot.sequence);
 }
 
-/** On-hand plus firm receipts by day, cumulated per part (late receipts count on the first day). */
-function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, partCount: number) {
+/**
+ * Where each part's row starts in the tables by part and working day (supply, need, ledgers):
+ * parts in the order a walk through the sequence's models and their BOMs first meets them, so the
+ * rows one unit touches lie together in memory rather than scattered over the whole part list.
+ */
+function rowsByUse(model: PlanModel, ordered: readonly OrderedSlot[]): Int32Array {
+  const { lineStart, lineComponent } = model;
   const days = model.days.length;
+  const row = new Int32Array(model.source.length).fill(-1);
+  let next = 0;
+  const visit = (parent: number): void => {
+    for (let line = lineStart[parent]; line < lineStart[parent + 1]; line += 1) {
+      const component = lineComponent[line];
+      if (row[component] !== -1) continue;
+      row[component] = next++;
+      visit(component);
+    }
+  };
+  for (const { model: unitModel } of ordered) {
+    if (row[unitModel] !== -1) continue;
+    row[unitModel] = next++;
+    visit(unitModel);
+  }
+  return row.map((index) => (index === -1 ? next++ : index) * days);
+}
+
+/** A ledger of the rows of made parts (and models) alone: all the probe walk reads and commits. */
+function madeStockLedger(model: PlanModel, cumulativeSupply: Float64Array, rowBase: Int32Array): StockLedger {
+  const days = model.days.length;
+  const madeRowBase = new Int32Array(rowBase.length);
+  let rows = 0;
+  for (let part = 0; part < rowBase.length; part += 1) if (model.source[part] !== BOUGHT) rows += 1;
+  const supply = new Float64Array(rows * days);
+  let row = 0;
+  for (let part = 0; part < rowBase.length; part += 1) {
+    if (model.source[part] === BOUGHT) continue;
+    madeRowBase[part] = row * days;
+    supply.set(cumulativeSupply.subarray(rowBase[part], rowBase[part] + days), row * days);
+    row += 1;
+  }
+  return new StockLedger(days, supply, madeRowBase);
+}
+
+/** On-hand plus firm receipts by day, cumulated per part (late receipts count on the first day). */
+function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, rowBase: Int32Array) {
+  const days = model.days.length;
+  const partCount = rowBase.length;
   const receiptsByDay = new Float64Array(partCount * days);
   const firmReceiptQty = new Float64Array(partCount);
   receipts.forEach((receipt, row) => {
@@ -650,15 +685,16 @@ function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, par
     let bucket = model.bucketOf(requireDate(model.dayNumberOf(receipt.date), receipt.date, where));
     if (bucket === -1 && days > 0) bucket = 0;
     if (bucket < 0) return;
-    receiptsByDay[part * days + bucket] += receipt.qty;
+    receiptsByDay[rowBase[part] + bucket] += receipt.qty;
     firmReceiptQty[part] += receipt.qty;
   });
   const cumulativeSupply = new Float64Array(partCount * days);
   for (let part = 0; part < partCount; part += 1) {
+    const base = rowBase[part];
     let cumulative = model.source[part] === 2 ? 0 : model.onHand[part];
     for (let t = 0; t < days; t += 1) {
-      cumulative += receiptsByDay[part * days + t];
-      cumulativeSupply[part * days + t] = roundQty(cumulative);
+      cumulative += receiptsByDay[base + t];
+      cumulativeSupply[base + t] = roundQty(cumulative);
     }
   }
   return { cumulativeSupply, firmReceiptQty, receiptsByDay };
@@ -671,7 +707,7 @@ function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, par
  * enough cards this always keeps up; an undersized loop starves, and that is its shortage.
  */
 function pullSupply(
-  part: number,
+  base: number,
   loop: LoopSupply,
   model: PlanModel,
   onHand: number,
@@ -680,7 +716,6 @@ function pullSupply(
   cumulativeSupply: Float64Array,
 ): void {
   const days = model.days.length;
-  const base = part * days;
   const arrivals = new Float64Array(days);
   for (let t = 0; t < days; t += 1) arrivals[t] = receiptsByDay[base + t];
   const container = loop.containerQty > 0 ? loop.containerQty : 1;
@@ -708,14 +743,13 @@ function pullSupply(
  * arrived by each day to keep every unit building (the running worst shortfall, as increments).
  */
 function needSchedule(
-  part: number,
+  base: number,
   dates: readonly IsoDate[],
   requiredByDay: Float64Array,
   cumulativeSupply: Float64Array,
   round: (qty: number) => number,
 ): { firstShort: number; needBy: NeedBy[] } {
   const days = dates.length;
-  const base = part * days;
   let required = 0;
   let covered = 0;
   let firstShort = -1;

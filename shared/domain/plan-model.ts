@@ -1,4 +1,4 @@
-import { lowLevelCodes } from './bom';
+import { BomCycleError, findBomCycle, lowLevelCodes } from './bom';
 import { WorkingCalendar } from './calendar';
 import { fromDayNumber, isIsoDate, toDayNumber } from './date';
 import type { IsoDate, PlanInput, PlanningBomLine, PlanningPart } from './types';
@@ -107,6 +107,41 @@ function indexParts(parts: readonly PlanningPart[]): Map<string, number> {
   return indexOf;
 }
 
+/**
+ * Low-level code of every part, from the lines grouped by parent: 0 for a part that is nobody's
+ * component, otherwise the deepest level at which it appears in any structure (Kahn's topological
+ * order: a part is coded once all of its parents are). Null when the structure has a cycle.
+ */
+function levelsOf(lineStart: Int32Array, lineComponent: Int32Array): Int32Array | null {
+  const partCount = lineStart.length - 1;
+  const parentsLeft = new Int32Array(partCount);
+  for (const component of lineComponent) parentsLeft[component] += 1;
+  const codes = new Int32Array(partCount);
+  const ready: number[] = [];
+  for (let part = 0; part < partCount; part += 1) if (parentsLeft[part] === 0) ready.push(part);
+  let coded = 0;
+  while (ready.length > 0) {
+    const part = ready.pop()!;
+    coded += 1;
+    for (let line = lineStart[part]; line < lineStart[part + 1]; line += 1) {
+      const component = lineComponent[line];
+      if (codes[part] + 1 > codes[component]) codes[component] = codes[part] + 1;
+      parentsLeft[component] -= 1;
+      if (parentsLeft[component] === 0) ready.push(component);
+    }
+  }
+  return coded === partCount ? codes : null;
+}
+
+/** Raises the BomCycleError that names the cycle (found by the structure functions). */
+function throwBomCycle(parts: readonly PlanningPart[], bom: readonly PlanningBomLine[]): never {
+  lowLevelCodes(
+    parts.map((part) => part.partNumber),
+    bom,
+  );
+  throw new BomCycleError(findBomCycle(bom) ?? []);
+}
+
 /** Part indices by ascending low-level code (a counting sort; input order within a level). */
 function levelOrderOf(codes: Int32Array): Int32Array {
   let deepest = 0;
@@ -190,23 +225,23 @@ export function buildPlanModel(input: PlanInput): PlanModel {
     lineCount[parent + 1] += 1;
   });
 
-  const codesByName = lowLevelCodes(
-    parts.map((part) => part.partNumber),
-    bom,
-  );
-  const lowLevelCode = Int32Array.from(parts, (part) => codesByName.get(part.partNumber) ?? 0);
-
   const lineStart = new Int32Array(partCount + 1);
   for (let p = 0; p < partCount; p += 1) lineStart[p + 1] = lineStart[p] + lineCount[p + 1];
   const fill = lineStart.slice(0, partCount);
+  const slotOf = new Int32Array(bom.length);
   const lineComponent = new Int32Array(bom.length);
+  for (let row = 0; row < bom.length; row += 1) {
+    const slot = fill[parentOf[row]]++;
+    slotOf[row] = slot;
+    lineComponent[slot] = componentOf[row];
+  }
+  const lowLevelCode = levelsOf(lineStart, lineComponent) ?? throwBomCycle(parts, bom);
   const lineFactor = new Float64Array(bom.length);
   const lineQtyPer = new Float64Array(bom.length);
   const lineFrom = new Float64Array(bom.length);
   const lineTo = new Float64Array(bom.length);
   bom.forEach((line, row) => {
-    const slot = fill[parentOf[row]]++;
-    lineComponent[slot] = componentOf[row];
+    const slot = slotOf[row];
     lineFactor[slot] = line.qtyPer * (1 + line.scrapPct / 100);
     lineQtyPer[slot] = line.qtyPer;
     lineFrom[slot] =
@@ -232,11 +267,12 @@ export function buildPlanModel(input: PlanInput): PlanModel {
     days: workingDays.map(fromDayNumber),
     dayNumbers: Int32Array.from(workingDays),
     lowLevelCode,
-    source: Uint8Array.from(parts, (part) => PART_SOURCE_CODES[part.source] ?? 0),
-    onHand: Float64Array.from(parts, (part) => (part.source === 'end_item' ? 0 : part.onHand)),
-    safetyStock: Float64Array.from(parts, (part) => (part.source === 'end_item' ? 0 : part.safetyStock)),
-    packQty: Float64Array.from(parts, (part) => part.packQty),
-    leadTimeDays: Int32Array.from(parts, (part) => part.leadTimeDays),
+    // Mapped as arrays first: a typed array's `from` with a mapping function is slow.
+    source: Uint8Array.from(parts.map((part) => PART_SOURCE_CODES[part.source] ?? 0)),
+    onHand: Float64Array.from(parts.map((part) => (part.source === 'end_item' ? 0 : part.onHand))),
+    safetyStock: Float64Array.from(parts.map((part) => (part.source === 'end_item' ? 0 : part.safetyStock))),
+    packQty: Float64Array.from(parts.map((part) => part.packQty)),
+    leadTimeDays: Int32Array.from(parts.map((part) => part.leadTimeDays)),
     levelOrder: levelOrderOf(lowLevelCode),
     lineStart,
     lineComponent,

@@ -1,0 +1,167 @@
+import type { LineRiskResult, PartShortage, ResequenceOption, SlotAtRisk, UnitAtRisk } from './line-risk';
+import type { IsoDate, SequenceSlot } from './types';
+
+/** A short part's figures; its slots at risk stay in the run (see LineRiskRun.slotsAtRisk). */
+export type ShortPartFigures = Omit<PartShortage, 'slotsAtRisk'>;
+
+/**
+ * What the walk found a part lacking for a unit, one record each in walk order, as flat arrays:
+ * a large plant has hundreds of thousands of them, and most are only ever counted.
+ */
+export interface LackRecords {
+  count: number;
+  /** The unit's position in build order. */
+  unit: Int32Array;
+  part: Int32Array;
+  qty: Float64Array;
+  /** 1: lacking with what is free now; 0: only once the units ahead are served. */
+  now: Uint8Array;
+  /** Part index of the made part the need comes through, or -1. */
+  via: Int32Array;
+  bucket: Int32Array;
+}
+
+export interface LineRiskRunParts {
+  header: Omit<LineRiskResult, 'unitsAtRisk' | 'shortages'>;
+  /** The units of the horizon in build order. */
+  units: readonly SequenceSlot[];
+  partNumbers: readonly string[];
+  records: LackRecords;
+  /** Unit at risk i is units[atRiskUnit[i]]; its records are atRiskFirst[i] … atRiskFirst[i] + atRiskCount[i] - 1. */
+  atRiskUnit: Int32Array;
+  atRiskFirst: Int32Array;
+  atRiskCount: Int32Array;
+  /** The resequence rescue worked out for a unit at risk (by its index), where one was. */
+  resequence: ReadonlyMap<number, ResequenceOption | null>;
+  /** In display order, with the part index of each. */
+  shortages: readonly ShortPartFigures[];
+  shortParts: Int32Array;
+}
+
+/**
+ * One run of the line risk, its units and slots at risk kept as records and made into objects only
+ * for the pages asked for: the summary a report shows (the first units and slots, and counts) is
+ * then as quick as the walk, whatever the plant's size. `result()` gives the whole answer.
+ */
+export class LineRiskRun {
+  readonly header: LineRiskRunParts['header'];
+  readonly shortages: readonly ShortPartFigures[];
+  private readonly slotsByPart: Int32Array;
+  /** Slots of short part p are slotsByPart[slotStart[p]] … slotsByPart[slotStart[p + 1] - 1]. */
+  private readonly slotStart: Int32Array;
+  private readonly shortageOf = new Map<string, number>();
+
+  constructor(private readonly parts: LineRiskRunParts) {
+    this.header = parts.header;
+    this.shortages = parts.shortages;
+    // Records by part, in walk order within each (a counting sort).
+    const { records, partNumbers } = parts;
+    this.slotStart = new Int32Array(partNumbers.length + 1);
+    for (let record = 0; record < records.count; record += 1) this.slotStart[records.part[record] + 1] += 1;
+    for (let part = 0; part < partNumbers.length; part += 1) this.slotStart[part + 1] += this.slotStart[part];
+    const fill = this.slotStart.slice(0, partNumbers.length);
+    this.slotsByPart = new Int32Array(records.count);
+    for (let record = 0; record < records.count; record += 1) this.slotsByPart[fill[records.part[record]]++] = record;
+    parts.shortages.forEach((shortage, index) => this.shortageOf.set(shortage.partNumber, index));
+  }
+
+  get unitsAtRiskCount(): number {
+    return this.parts.atRiskUnit.length;
+  }
+
+  /** Units at risk offset … offset + limit - 1, in build order. */
+  unitsAtRisk(offset = 0, limit = Infinity): UnitAtRisk[] {
+    const end = Math.min(this.unitsAtRiskCount, offset + limit);
+    const units: UnitAtRisk[] = [];
+    for (let index = Math.max(0, offset); index < end; index += 1) units.push(this.unitAtRisk(index));
+    return units;
+  }
+
+  /** How many units lack the short part at `index` of `shortages`. */
+  slotsAtRiskCount(index: number): number {
+    const part = this.parts.shortParts[index];
+    return this.slotStart[part + 1] - this.slotStart[part];
+  }
+
+  /** Slots offset … offset + limit - 1 of the short part at `index` of `shortages`, in build order. */
+  slotsAtRisk(index: number, offset = 0, limit = Infinity): SlotAtRisk[] {
+    const { records, units } = this.parts;
+    const part = this.parts.shortParts[index];
+    const end = Math.min(this.slotStart[part + 1], this.slotStart[part] + offset + limit);
+    const slots: SlotAtRisk[] = [];
+    for (let at = this.slotStart[part] + Math.max(0, offset); at < end; at += 1) {
+      const record = this.slotsByPart[at];
+      const { date, sequence, serial, model } = units[records.unit[record]];
+      slots.push({
+        date,
+        sequence,
+        serial,
+        model,
+        lackQty: records.qty[record],
+        via: this.viaName(records.via[record]),
+      });
+    }
+    return slots;
+  }
+
+  /** Index in `shortages` of a short part; undefined when the part is not short. */
+  shortageIndex(partNumber: string): number | undefined {
+    return this.shortageOf.get(partNumber);
+  }
+
+  /** A short part with the slots given. */
+  shortageWith(index: number, slotsAtRisk: SlotAtRisk[]): PartShortage {
+    const figures = this.shortages[index];
+    return {
+      partNumber: figures.partNumber,
+      supplierCode: figures.supplierCode,
+      action: figures.action,
+      firstShortDate: figures.firstShortDate,
+      shortQty: figures.shortQty,
+      needBy: figures.needBy,
+      releaseBy: figures.releaseBy,
+      leadTimeDays: figures.leadTimeDays,
+      slotsAtRisk,
+      onHand: figures.onHand,
+      firmReceiptQty: figures.firmReceiptQty,
+      daysUntilImpact: figures.daysUntilImpact,
+      inFrozenWindow: figures.inFrozenWindow,
+      loop: figures.loop,
+      rescue: figures.rescue,
+      requiredByDay: figures.requiredByDay,
+    };
+  }
+
+  /** The whole answer, every unit and slot at risk as an object. */
+  result(): LineRiskResult {
+    return {
+      ...this.header,
+      unitsAtRisk: this.unitsAtRisk(),
+      shortages: this.shortages.map((_, index) => this.shortageWith(index, this.slotsAtRisk(index))),
+    };
+  }
+
+  private unitAtRisk(index: number): UnitAtRisk {
+    const { records, units, partNumbers, header } = this.parts;
+    const days: readonly IsoDate[] = header.days;
+    const { date, sequence, serial, model } = units[this.parts.atRiskUnit[index]];
+    const unit: UnitAtRisk = { date, sequence, serial, model, lacks: [] };
+    const first = this.parts.atRiskFirst[index];
+    for (let record = first; record < first + this.parts.atRiskCount[index]; record += 1) {
+      unit.lacks.push({
+        partNumber: partNumbers[records.part[record]],
+        qty: records.qty[record],
+        now: records.now[record] === 1,
+        via: this.viaName(records.via[record]),
+        neededOn: days[records.bucket[record]],
+      });
+    }
+    const resequence = this.parts.resequence.get(index);
+    if (resequence !== undefined) unit.resequence = resequence;
+    return unit;
+  }
+
+  private viaName(via: number): string | null {
+    return via < 0 ? null : this.parts.partNumbers[via];
+  }
+}

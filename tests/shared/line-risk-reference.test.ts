@@ -1,0 +1,218 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { addCalendarDays } from '../../shared/domain/calendar';
+import {
+  computeLineRisk,
+  walkLineRisk,
+  type LineRiskInput,
+  type LineRiskPart,
+  type LoopSupply,
+} from '../../shared/domain/line-risk';
+import type { PlanningBomLine, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
+import { referenceLineRisk } from './line-risk-reference';
+
+/*
+ * The engine keeps explosions between units, walks flat arrays and keeps its slots as records; the
+ * reference (line-risk-reference.ts) explodes every unit afresh with plain objects. On any plant
+ * they must give exactly the same answer — the rules themselves are checked in line-risk.test.ts
+ * against worked cases and published definitions; this only checks that the fast path changes
+ * nothing. No outside source: the reference is the plain form of the same walk.
+ */
+
+const FROM = '2026-03-02';
+const TO = '2026-03-20';
+const CALENDAR: PlantCalendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: ['2026-03-10'] };
+/** Quantities per: whole, binary fractions and one (0.3) that is not exact in binary. */
+const QTY_PER = [1, 2, 3, 0.5, 0.25, 1.5, 0.3];
+const UOMS = ['H87', 'KGM', 'SET'];
+
+/**
+ * A small plant: models M…, made parts F… (with stock, so units take them in turn), bought parts
+ * B…; a line may point from any part to one later in the order models, made, bought — so models
+ * can be components of models, made parts of made parts, and a part can be reached along several
+ * paths and at several levels of one unit, and the structure stays acyclic.
+ */
+const plantArbitrary = fc
+  .record({
+    models: fc.integer({ min: 1, max: 3 }),
+    made: fc.array(fc.record({ lead: fc.integer({ min: 0, max: 3 }), stock: fc.integer({ min: 0, max: 4 }) }), {
+      maxLength: 4,
+    }),
+    bought: fc.array(
+      fc.record({
+        lead: fc.integer({ min: 0, max: 6 }),
+        stock: fc.integer({ min: -2, max: 12 }),
+        uom: fc.constantFrom(...UOMS),
+        countDue: fc.boolean(),
+        loop: fc.option(
+          fc.record({
+            cards: fc.integer({ min: 1, max: 4 }),
+            container: fc.integer({ min: 1, max: 6 }),
+            days: fc.integer({ min: 1, max: 4 }),
+            empty: fc.integer({ min: 0, max: 2 }),
+          }),
+          { freq: 4 },
+        ),
+      }),
+      { minLength: 1, maxLength: 6 },
+    ),
+    lines: fc.array(
+      fc.record({
+        from: fc.nat(),
+        to: fc.nat(),
+        qtyPer: fc.constantFrom(...QTY_PER),
+        effective: fc.option(fc.record({ day: fc.integer({ min: -3, max: 20 }), until: fc.boolean() }), {
+          freq: 5,
+        }),
+      }),
+      { minLength: 1, maxLength: 24 },
+    ),
+    slots: fc.array(
+      fc.record({
+        // Mostly the first two weeks, so several units of a model often share a day.
+        day: fc.oneof(fc.integer({ min: -3, max: 9 }), fc.integer({ min: 10, max: 18 })),
+        model: fc.nat(),
+        qty: fc.constantFrom(1, 1, 1, 2, 0.5),
+      }),
+      { maxLength: 40 },
+    ),
+    receipts: fc.array(
+      fc.record({ part: fc.nat(), day: fc.integer({ min: -3, max: 20 }), qty: fc.integer({ min: 1, max: 8 }) }),
+      { maxLength: 8 },
+    ),
+    today: fc.integer({ min: -2, max: 4 }),
+    frozenWindowDays: fc.integer({ min: 0, max: 4 }),
+  })
+  .map((raw): LineRiskInput => {
+    const models = Array.from({ length: raw.models }, (_, index) => `M${index}`);
+    const made = raw.made.map((_, index) => `F${index}`);
+    const bought = raw.bought.map((_, index) => `B${index}`);
+    const names = [...models, ...made, ...bought];
+    const parents = models.length + made.length;
+    const bom: PlanningBomLine[] = [];
+    for (const line of raw.lines) {
+      const parent = line.from % parents;
+      const component = parent + 1 + (line.to % (names.length - parent - 1));
+      const date = line.effective ? addCalendarDays(FROM, line.effective.day) : null;
+      bom.push({
+        parent: names[parent]!,
+        component: names[component]!,
+        qtyPer: line.qtyPer,
+        scrapPct: 0,
+        effectiveFrom: line.effective && !line.effective.until ? date : null,
+        effectiveTo: line.effective?.until ? date : null,
+      });
+    }
+    const parts: LineRiskPart[] = [
+      ...models.map((partNumber) => ({
+        partNumber,
+        source: 'end_item' as const,
+        leadTimeDays: 0,
+        packQty: 1,
+        onHand: 0,
+        safetyStock: 0,
+      })),
+      ...raw.made.map((fields, index) => ({
+        partNumber: made[index]!,
+        source: 'make' as const,
+        leadTimeDays: fields.lead,
+        packQty: 1,
+        onHand: fields.stock,
+        safetyStock: 0,
+      })),
+      ...raw.bought.map((fields, index) => ({
+        partNumber: bought[index]!,
+        source: 'buy' as const,
+        supplierCode: 'SUP',
+        leadTimeDays: fields.lead,
+        packQty: 1,
+        onHand: fields.stock,
+        safetyStock: 0,
+        uom: fields.uom,
+        countDue: fields.countDue,
+        replenishment: fields.loop ? ('kanban' as const) : ('scheduled' as const),
+      })),
+    ];
+    const loops: LoopSupply[] = raw.bought.flatMap((fields, index) =>
+      fields.loop
+        ? [
+            {
+              partNumber: bought[index]!,
+              activeCards: fields.loop.cards,
+              recommendedCards: fields.loop.cards + 1,
+              containerQty: fields.loop.container,
+              replenishmentDays: fields.loop.days,
+              emptyCards: fields.loop.empty,
+            },
+          ]
+        : [],
+    );
+    const sequence: SequenceSlot[] = raw.slots.map((slot, index) => ({
+      date: addCalendarDays(FROM, slot.day),
+      sequence: index + 1,
+      model: models[slot.model % models.length]!,
+      serial: `SN${index}`,
+      qty: slot.qty,
+    }));
+    const firmReceipts = raw.receipts.map((receipt) => ({
+      partNumber: bought[receipt.part % bought.length]!,
+      date: addCalendarDays(FROM, receipt.day),
+      qty: receipt.qty,
+    }));
+    return {
+      parts,
+      bom,
+      sequence,
+      firmReceipts,
+      loops,
+      calendar: CALENDAR,
+      from: FROM,
+      to: TO,
+      today: addCalendarDays(FROM, raw.today),
+      frozenWindowDays: raw.frozenWindowDays,
+    };
+  });
+
+describe('computeLineRisk against the plain walk', () => {
+  it('gives exactly the answer of exploding every unit afresh, on any small plant', () => {
+    fc.assert(
+      fc.property(plantArbitrary, (input) => {
+        expect(computeLineRisk(input)).toEqual(referenceLineRisk(input));
+      }),
+      { numRuns: 400 },
+    );
+  }, 60_000);
+
+  it('pages units and slots at risk exactly as the whole answer lists them', () => {
+    fc.assert(
+      fc.property(plantArbitrary, fc.nat({ max: 6 }), fc.integer({ min: 1, max: 5 }), (input, offset, limit) => {
+        const run = walkLineRisk(input);
+        const whole = referenceLineRisk(input);
+
+        expect(run.unitsAtRiskCount).toBe(whole.unitsAtRisk.length);
+        expect(run.unitsAtRisk(offset, limit)).toEqual(whole.unitsAtRisk.slice(offset, offset + limit));
+        whole.shortages.forEach((shortage, index) => {
+          expect(run.shortageIndex(shortage.partNumber)).toBe(index);
+          expect(run.slotsAtRiskCount(index)).toBe(shortage.slotsAtRisk.length);
+          expect(run.slotsAtRisk(index, offset, limit)).toEqual(shortage.slotsAtRisk.slice(offset, offset + limit));
+        });
+      }),
+      { numRuns: 200 },
+    );
+  }, 60_000);
+
+  it('finds the generated plants at risk often enough to compare something', () => {
+    // Guards the generator: were no unit ever short, the comparisons above would prove little.
+    const samples = fc.sample(plantArbitrary, { numRuns: 200, seed: 7 });
+    const atRisk = samples.filter((input) => referenceLineRisk(input).unitsAtRisk.length > 0).length;
+    const taking = samples.filter((input) =>
+      input.parts.some(
+        (part) =>
+          part.source === 'make' && part.onHand > 0 && input.bom.some((line) => line.component === part.partNumber),
+      ),
+    ).length;
+
+    expect(atRisk).toBeGreaterThan(50);
+    expect(taking).toBeGreaterThan(50);
+  });
+});
