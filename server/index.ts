@@ -30,7 +30,7 @@ async function main(): Promise<void> {
   if (config.SEED_DEMO === '1') {
     if (await isDatabaseEmpty(db)) {
       console.log('Empty database: seeding the demo scenario…');
-      await seedDemoScenario(db, plantToday());
+      await seedDemoScenario(db, plantToday(), { appUrl: config.APP_URL });
     }
     demoSignIns = await listDemoSignIns(db);
   } else {

@@ -17,15 +17,23 @@ export async function readCalendar(manager: EntityManager): Promise<Calendar> {
   return { workingWeekdays, holidays: holidays.map((holiday) => holiday.date) };
 }
 
-/** Replaces the calendar whole; every lead-time offset moves with it. */
-export async function writeCalendar(manager: EntityManager, calendar: Calendar): Promise<Calendar> {
+/**
+ * Replaces the calendar whole; every lead-time offset moves with it. A holiday that stays keeps its
+ * name; `names` names new ones (the demo's shutdown days).
+ */
+export async function writeCalendar(
+  manager: EntityManager,
+  calendar: Calendar,
+  names: ReadonlyMap<string, string> = new Map(),
+): Promise<Calendar> {
   const workingWeekdays = [...calendar.workingWeekdays].sort((a, b) => a - b);
   await writeSetting(manager, WORKING_WEEKDAYS, workingWeekdays);
+  const kept = new Map((await manager.find(HolidayEntity)).map((holiday) => [holiday.date, holiday.name]));
   await manager.clear(HolidayEntity);
   if (calendar.holidays.length > 0) {
     await manager.insert(
       HolidayEntity,
-      calendar.holidays.map((date) => ({ date, name: '' })),
+      calendar.holidays.map((date) => ({ date, name: names.get(date) ?? kept.get(date) ?? '' })),
     );
   }
   await bumpPlanningVersion(manager);
