@@ -1,6 +1,7 @@
 import type { Database } from '../server/db/database';
 import { recordAudit } from '../server/audit/audit.service';
 import { hashPassword } from '../server/users/passwords';
+import { DEMO_ACCOUNTS } from '../server/users/bootstrap';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
@@ -34,8 +35,6 @@ const DEFAULT_APP_URL = 'http://localhost:3000';
 
 /** Every demo account shares this password; it exists only in the demo database. */
 export const DEMO_PASSWORD = 'cardloop-demo';
-/** Setting holding the e-mail addresses of the accounts the demo seed created. */
-export const DEMO_ACCOUNTS = 'demo.accounts';
 
 /**
  * The weeks before the sequence: every unit was built and backflushed, one every 18 minutes from
