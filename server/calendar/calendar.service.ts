@@ -40,11 +40,18 @@ export async function writeCalendar(
   return readCalendar(manager);
 }
 
+/** The names of the holidays that have one, by date. */
+async function readHolidayNames(manager: EntityManager): Promise<Record<string, string>> {
+  const holidays = await manager.find(HolidayEntity);
+  return Object.fromEntries(holidays.filter((holiday) => holiday.name).map((holiday) => [holiday.date, holiday.name]));
+}
+
 export class CalendarService {
   constructor(private readonly db: Database) {}
 
   async get(): Promise<VersionedCalendar> {
-    return withVersion(await readCalendar(this.db.manager));
+    const manager = this.db.manager;
+    return { ...withVersion(await readCalendar(manager)), holidayNames: await readHolidayNames(manager) };
   }
 
   update(calendar: Calendar, actorEmail: string, basedOn?: string): Promise<VersionedCalendar> {
@@ -59,7 +66,7 @@ export class CalendarService {
         entityKey: 'plant',
         changes: { before, after },
       });
-      return withVersion(after);
+      return { ...withVersion(after), holidayNames: await readHolidayNames(manager) };
     });
   }
 }
