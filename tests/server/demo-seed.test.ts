@@ -102,7 +102,8 @@ describe('the demo plant’s story', () => {
     expect(total(LATE_SUPPLIER, 'lateLines') / total(LATE_SUPPLIER, 'lines')).toBeGreaterThan(0.5);
     expect(total(SHORT_SUPPLIER, 'filledQty')).toBeLessThan(total(SHORT_SUPPLIER, 'requestedQty'));
     expect(total(EARLY_SUPPLIER, 'earlyLines')).toBeGreaterThan(0);
-    const shortReceipts: { n: number }[] = await db.manager.query(
+    const shortReceipts: { n: number }[] = await runSql(
+      db.manager,
       "SELECT COUNT(*) AS n FROM receipt WHERE discrepancy = 'short' AND final = ?",
       [true],
     );
