@@ -216,7 +216,8 @@ export function openKanbanDeliveries(
       releaseDate: yesterday,
       needDate: exceptionNeed,
       status: 'exception',
-      answeredOn: firstDay,
+      // Answered the day it was sent, so the answer is never later than the demo's start.
+      answeredOn: yesterday,
       shipDate: proposedShip,
       arrivalDate: arrivalOf(proposedShip, exceptionTerms, calendar),
       supplierNote: 'Pump housings are on back order; we can ship two working days later than asked.',
