@@ -7,6 +7,7 @@ import {
   dockAttachmentSchema,
   dockItemParamsSchema,
   dockItemSchema,
+  dockReleaseParamsSchema,
   moveDockItemRequestSchema,
 } from '../../shared/schemas/dock';
 import { defineRoute, type RouteDeps } from '../http/route';
@@ -29,7 +30,7 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
     method: 'get',
     path: '/dock',
     summary:
-      'The receiving board: every sent, confirmed, exception, shipped or partly received release, and those received today',
+      'The receiving board: one card per shipment (ship notice) and one per day on which lines not yet shipped are expected, of every open release; cards counted in today stay',
     access: READ_ROLES,
     response: z.array(dockItemSchema),
     handler: () => dock.list(),
@@ -39,7 +40,7 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
     method: 'patch',
     path: '/dock/items/:id',
     summary:
-      'Move a release to another column of the board (expected, at_dock, counted, to_line); a fully received release at the line stays there (409)',
+      'Move a card (by its key, e.g. shipment-12) to another column of the board (expected, at_dock, counted, to_line); a fully received card at the line stays there (409)',
     access: RECEIVING_ROLES,
     params: dockItemParamsSchema,
     body: moveDockItemRequestSchema,
@@ -49,12 +50,12 @@ export function createDockRouter(services: Services, deps: RouteDeps): Router {
 
   defineRoute(router, deps, {
     method: 'post',
-    path: '/dock/items/:id/attachments',
+    path: '/dock/releases/:id/attachments',
     summary:
       `Attach a packing slip to a release: multipart/form-data field '${FILE_FIELD}', ${ATTACHMENT_TYPES.join(', ')} ` +
       `recognised by content (other files 415), at most ${ATTACHMENT_MAX_BYTES / 1024 / 1024} MB (413)`,
     access: RECEIVING_ROLES,
-    params: dockItemParamsSchema,
+    params: dockReleaseParamsSchema,
     response: dockAttachmentSchema,
     status: 201,
     handler: async ({ params, req, res, user }) => {

@@ -10,6 +10,11 @@ import {
 } from '../../shared/schemas/dock';
 import { recordAudit } from '../audit/audit.service';
 import { ConflictError, NotFoundError } from '../errors';
+import { releaseCards, parseCardKey, type BoardCard } from '../../shared/domain/dock-cards';
+import { addsToOnHand, type Discrepancy } from '../../shared/schemas/receipts';
+import { ReceiptEntity } from './receipt.entity';
+import { ShipNoticeEntity } from '../ship-notices/ship-notice.entity';
+import { ShipNoticeLineEntity } from '../ship-notices/ship-notice-line.entity';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
 import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
@@ -51,22 +56,21 @@ export function toDockAttachment(attachment: AttachmentEntity): DockAttachment {
   };
 }
 
-/** The receiving board: releases on their way in, one card each, and the moves between columns. */
+/** The receiving board: one card per shipment and per day unshipped lines are expected, and the moves between columns. */
 export class DockService {
   constructor(
     private readonly db: Database,
     private readonly now: () => Date = () => new Date(),
   ) {}
 
-  /** Every open release, and those received today, ordered by column then need date. */
+  /** The cards of every open release, and those counted in today, ordered by column then expected day. */
   async list(): Promise<DockItem[]> {
     const manager = this.db.manager;
-    const now = this.now();
     const receivedToday: { releaseId: number }[] = await runSql(
       manager,
       `SELECT DISTINCT l.release_id AS "releaseId" FROM receipt r JOIN release_line l ON l.id = r.release_line_id
        WHERE r.received_at >= ?`,
-      [startOfDay(now)],
+      [startOfDay(this.now())],
     );
     const receivedIds = receivedToday.map((row) => row.releaseId);
     const releases = await manager.find(ReleaseEntity, {
@@ -75,91 +79,150 @@ export class DockService {
         ...(receivedIds.length > 0 ? [{ status: 'received', id: In(receivedIds) }] : []),
       ],
     });
-    const items = await this.toItems(manager, releases, plantToday(now));
+    const items = await this.toItems(manager, releases);
     return items.sort(
       (a, b) =>
         DOCK_COLUMNS.indexOf(a.column) - DOCK_COLUMNS.indexOf(b.column) ||
-        a.needDate.localeCompare(b.needDate) ||
-        a.number.localeCompare(b.number),
+        a.arrivalDate.localeCompare(b.arrivalDate) ||
+        a.number.localeCompare(b.number) ||
+        a.id.localeCompare(b.id),
     );
   }
 
-  /** One card of the board by release id; 404 when there is no such release or it is not on the dock. */
-  async item(releaseId: number, manager: EntityManager = this.db.manager): Promise<DockItem> {
-    const release = await manager.findOneBy(ReleaseEntity, { id: releaseId });
-    if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
-    if (!isDockStatus(release.status))
-      throw new NotFoundError(`Release ${release.number} is ${release.status}; it is not on the dock.`);
-    const [item] = await this.toItems(manager, [release], plantToday(this.now()));
+  /** One card of the board by its key; 404 when there is no such card on the dock. */
+  async item(key: string, manager: EntityManager = this.db.manager): Promise<DockItem> {
+    const release = await this.releaseOfCard(manager, key);
+    const item = (await this.toItems(manager, [release])).find((candidate) => candidate.id === key);
+    if (!item) throw new NotFoundError(`Card ${key} is not on the dock board.`);
     return item;
   }
 
   /**
    * Moves a card to another column. Backwards is allowed (a count to redo, goods put back on
-   * the dock), except out of `to_line` once everything is received: those goods are at the line.
+   * the dock), except out of `to_line` once the card is fully counted in: those goods are at the line.
    */
-  move(releaseId: number, column: DockColumn, actor: AuthenticatedUser): Promise<DockItem> {
+  move(key: string, column: DockColumn, actor: AuthenticatedUser): Promise<DockItem> {
     return this.db.write(async (manager) => {
-      const release = await manager.findOneBy(ReleaseEntity, { id: releaseId });
-      if (!release) throw new NotFoundError(`No release with id ${releaseId}.`);
+      const release = await this.releaseOfCard(manager, key);
       if (!isDockStatus(release.status)) {
         throw new ConflictError(
           `Release ${release.number} is ${release.status}; only releases on their way in are on the dock.`,
         );
       }
-      const from = release.dockColumn;
-      if (from === column) return this.item(releaseId, manager);
-      if (from === 'to_line' && release.status === 'received') {
+      const card = (await this.toItems(manager, [release])).find((candidate) => candidate.id === key);
+      if (!card) throw new NotFoundError(`Card ${key} is not on the dock board.`);
+      const from = card.column;
+      if (from === column) return card;
+      if (from === 'to_line' && card.lines.every((line) => !line.open)) {
         throw new ConflictError(
-          `Release ${release.number} is fully received and at the line; it cannot go back on the dock.`,
+          `This ${card.kind === 'shipment' ? 'shipment' : 'delivery'} of release ${release.number} is fully received and at the line; it cannot go back on the dock.`,
           [{ column: from, status: release.status }],
         );
       }
-      await manager.update(ReleaseEntity, { id: release.id }, { dockColumn: column });
+      if (card.shipNoticeId !== null) {
+        await manager.update(ShipNoticeEntity, { id: card.shipNoticeId }, { dockColumn: column });
+      } else {
+        await manager.update(ReleaseLineEntity, { id: In(card.lines.map((line) => line.id)) }, { dockColumn: column });
+      }
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'dock-move',
         entity: 'release',
         entityKey: release.number,
-        changes: { dockColumn: { from, to: column } },
+        changes: { card: key, dockColumn: { from, to: column } },
       });
       await bumpDockVersion(manager);
-      return this.item(releaseId, manager);
+      return this.item(key, manager);
     });
   }
 
-  private async toItems(manager: EntityManager, releases: ReleaseEntity[], today: string): Promise<DockItem[]> {
+  private async releaseOfCard(manager: EntityManager, key: string): Promise<ReleaseEntity> {
+    const parsed = parseCardKey(key);
+    if (!parsed) throw new NotFoundError(`No card ${key} on the dock board.`);
+    const releaseId =
+      parsed.kind === 'expected'
+        ? parsed.releaseId
+        : (await manager.findOneBy(ShipNoticeEntity, { id: parsed.shipNoticeId }))?.releaseId;
+    const release = releaseId === undefined ? null : await manager.findOneBy(ReleaseEntity, { id: releaseId });
+    if (!release) throw new NotFoundError(`No card ${key} on the dock board.`);
+    return release;
+  }
+
+  private async toItems(manager: EntityManager, releases: ReleaseEntity[]): Promise<DockItem[]> {
     if (releases.length === 0) return [];
+    const today = plantToday(this.now());
+    const todayStart = startOfDay(this.now());
     const releaseIds = releases.map((release) => release.id);
     const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: In(releaseIds) }, order: { id: 'ASC' } });
+    const lineIds = lines.map((line) => line.id);
+    const notices = await manager.find(ShipNoticeEntity, {
+      where: { releaseId: In(releaseIds) },
+      order: { id: 'ASC' },
+    });
     const partNumbers = [...new Set(lines.map((line) => line.partNumber))];
     const cardIds = lines.flatMap((line) => (line.cardId === null ? [] : [line.cardId]));
-    const [parts, suppliers, cards, attachments] = await Promise.all([
+    const [parts, suppliers, cards, attachments, noticeLines, receipts] = await Promise.all([
       manager.findBy(PartEntity, { partNumber: In(partNumbers) }),
       manager.findBy(SupplierEntity, { code: In([...new Set(releases.map((release) => release.supplierCode))]) }),
       cardIds.length > 0 ? manager.findBy(KanbanCardEntity, { id: In(cardIds) }) : Promise.resolve([]),
       manager.find(AttachmentEntity, { where: { releaseId: In(releaseIds) }, order: { id: 'ASC' } }),
+      notices.length > 0
+        ? manager.findBy(ShipNoticeLineEntity, { shipNoticeId: In(notices.map((notice) => notice.id)) })
+        : Promise.resolve([]),
+      lineIds.length > 0 ? manager.findBy(ReceiptEntity, { releaseLineId: In(lineIds) }) : Promise.resolve([]),
     ]);
     const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
     const supplierName = new Map(suppliers.map((supplier) => [supplier.code, supplier.name]));
     const cardNumber = new Map(cards.map((card) => [card.id, card.cardNumber]));
+    const lineById = new Map(lines.map((line) => [line.id, line]));
 
-    return releases.map((release) => {
-      const ownLines: DockLine[] = lines
-        .filter((line) => line.releaseId === release.id)
-        .map((line) => {
+    return releases.flatMap((release) => {
+      const ownLines = lines.filter((line) => line.releaseId === release.id);
+      const ownNotices = notices.filter((notice) => notice.releaseId === release.id);
+      const boardCards = releaseCards(
+        release.id,
+        ownLines.map((line) => ({
+          id: line.id,
+          orderedQty: line.confirmedQty ?? line.qty,
+          closed: line.closed,
+          needDate: line.needDate,
+          arrivalDate: line.arrivalDate,
+          dockColumn: line.dockColumn,
+        })),
+        ownNotices.map((notice) => ({
+          id: notice.id,
+          shipDate: notice.shipDate,
+          arrivalDate: notice.arrivalDate,
+          dockColumn: notice.dockColumn,
+          lines: noticeLines
+            .filter((line) => line.shipNoticeId === notice.id)
+            .map((line) => ({ lineId: line.releaseLineId, qty: line.qty })),
+        })),
+        receipts
+          .filter((receipt) => lineById.get(receipt.releaseLineId)?.releaseId === release.id)
+          .map((receipt) => ({
+            lineId: receipt.releaseLineId,
+            shipNoticeId: receipt.shipNoticeId,
+            usableQty: addsToOnHand(receipt.discrepancy as Discrepancy | null) ? receipt.qty : 0,
+            today: receipt.receivedAt >= todayStart,
+          })),
+        DOCK_COLUMNS,
+      );
+      const noticeById = new Map(ownNotices.map((notice) => [notice.id, notice]));
+      return boardCards.map((card: BoardCard): DockItem => {
+        const cardLines: DockLine[] = card.lines.map((cardLine) => {
+          const line = lineById.get(cardLine.lineId)!;
           const part = partByNumber.get(line.partNumber);
-          const card = line.cardId === null ? undefined : cardNumber.get(line.cardId);
+          const kanbanCard = line.cardId === null ? undefined : cardNumber.get(line.cardId);
           return {
             id: line.id,
             partNumber: line.partNumber,
             description: part?.description ?? '',
             uom: part?.uom ?? 'H87',
-            qty: line.qty,
-            confirmedQty: line.confirmedQty,
-            receivedQty: line.receivedQty,
-            open: !line.closed,
-            ...(card !== undefined && { cardNumber: card }),
+            qty: cardLine.qty,
+            receivedQty: cardLine.receivedQty,
+            open: cardLine.open,
+            ...(kanbanCard !== undefined && { cardNumber: kanbanCard }),
             needDate: line.needDate,
             hazardous: part?.hazardous ?? false,
             unNumber: part?.unNumber ?? null,
@@ -169,25 +232,29 @@ export class DockService {
             heavyLift: part?.heavyLift ?? false,
           };
         });
-      const openLines = ownLines.filter((line) => line.open);
-      const needDates = (openLines.length > 0 ? openLines : ownLines).map((line) => line.needDate).sort();
-      const needDate = needDates[0] ?? release.releaseDate;
-      return {
-        id: release.id,
-        number: release.number,
-        supplierCode: release.supplierCode,
-        supplierName: supplierName.get(release.supplierCode) ?? release.supplierCode,
-        column: isDockColumn(release.dockColumn) ? release.dockColumn : 'expected',
-        status: release.status as DockStatus,
-        needDate,
-        expectedToday: needDate === today,
-        overdue: openLines.length > 0 && needDate < today,
-        carrier: release.carrier,
-        trackingNumber: release.trackingNumber,
-        hazardous: ownLines.some((line) => line.hazardous),
-        lines: ownLines,
-        attachments: attachments.filter((attachment) => attachment.releaseId === release.id).map(toDockAttachment),
-      };
+        const notice = card.shipNoticeId === null ? undefined : noticeById.get(card.shipNoticeId);
+        const anyOpen = cardLines.some((line) => line.open);
+        return {
+          id: card.key,
+          kind: card.kind,
+          releaseId: release.id,
+          shipNoticeId: card.shipNoticeId,
+          number: release.number,
+          supplierCode: release.supplierCode,
+          supplierName: supplierName.get(release.supplierCode) ?? release.supplierCode,
+          column: isDockColumn(card.column) ? card.column : 'expected',
+          status: release.status as DockStatus,
+          shipDate: card.shipDate,
+          arrivalDate: card.arrivalDate,
+          expectedToday: card.arrivalDate === today,
+          overdue: anyOpen && card.arrivalDate < today,
+          carrier: notice ? notice.carrier : release.carrier,
+          trackingNumber: notice ? notice.trackingNumber : release.trackingNumber,
+          hazardous: cardLines.some((line) => line.hazardous),
+          lines: cardLines,
+          attachments: attachments.filter((attachment) => attachment.releaseId === release.id).map(toDockAttachment),
+        };
+      });
     });
   }
 }

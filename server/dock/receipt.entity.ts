@@ -12,6 +12,10 @@ export class ReceiptEntity {
   @Column({ type: 'double precision' })
   qty: number;
 
+  /** The shipment this count belongs to; null for goods that came without a ship notice. */
+  @Column({ name: 'ship_notice_id', type: 'integer', nullable: true })
+  shipNoticeId: number | null;
+
   /** short, over, damaged or wrong_part; null when the count matched. */
   @Column({ type: 'varchar', length: 12, nullable: true })
   discrepancy: string | null;

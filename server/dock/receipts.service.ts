@@ -1,4 +1,4 @@
-import { QueryFailedError, type EntityManager } from 'typeorm';
+import { In, QueryFailedError, type EntityManager } from 'typeorm';
 import { canTransition, isCardState } from '../../shared/domain/card-cycle';
 import { QTY_EPSILON, roundQty } from '../../shared/domain/quantity';
 import { RECEIVABLE_STATUSES, type DockStatus } from '../../shared/schemas/dock';
@@ -11,7 +11,10 @@ import {
 } from '../../shared/schemas/receipts';
 import { recordAudit } from '../audit/audit.service';
 import { bumpDockVersion } from '../settings/versions';
-import { ConflictError, NotFoundError } from '../errors';
+import { ConflictError, NotFoundError, RefusedInputError } from '../errors';
+import { expectedArrival } from '../../shared/domain/dock-cards';
+import { ShipNoticeEntity } from '../ship-notices/ship-notice.entity';
+import { ShipNoticeLineEntity } from '../ship-notices/ship-notice-line.entity';
 import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
 import type { AuthenticatedUser } from '../http/request-user';
@@ -44,6 +47,7 @@ function toReceipt(entity: ReceiptEntity, line: ReleaseLineEntity, release: Rele
     releaseNumber: release.number,
     partNumber: line.partNumber,
     qty: entity.qty,
+    shipNoticeId: entity.shipNoticeId,
     discrepancy,
     note: entity.note,
     final: entity.final,
@@ -72,7 +76,9 @@ function sameRequest(entity: ReceiptEntity, request: ReceiptRequest): boolean {
     entity.qty === wanted.qty &&
     entity.discrepancy === wanted.discrepancy &&
     entity.note === wanted.note &&
-    entity.final === wanted.final
+    entity.final === wanted.final &&
+    // A count that named no shipment was given one; a replay naming another is a different count.
+    (request.shipNoticeId === undefined || request.shipNoticeId === entity.shipNoticeId)
   );
 }
 
@@ -146,6 +152,7 @@ export class ReceiptsService {
     if (!part)
       throw new ConflictError(`Part ${line.partNumber} is no longer in the master data; add it back before receiving.`);
 
+    const shipNoticeId = await this.shipmentOf(manager, line, release, request.shipNoticeId);
     const stored = normalise(request);
     const usable = addsToOnHand(stored.discrepancy) ? stored.qty : 0;
     const onHandBefore = part.onHand;
@@ -166,15 +173,17 @@ export class ReceiptsService {
     ]);
     const onHandAfter = movement?.balanceAfter ?? onHandBefore;
     await manager.update(ReleaseLineEntity, { id: line.id }, { receivedQty, closed: closes });
-    if (closes && line.cardId !== null) await this.returnCard(manager, line.cardId, actor.email);
+    if (closes && line.cardId !== null) await this.returnCard(manager, line.cardId, receivedQty > 0, actor.email);
 
     const previousStatus = release.status;
     const status = await this.releaseStatusAfter(manager, release);
-    await manager.update(ReleaseEntity, { id: release.id }, { status, dockColumn: 'counted' });
+    await manager.update(ReleaseEntity, { id: release.id }, { status });
+    await this.moveCardToCounted(manager, line, shipNoticeId);
 
     const receipt = await manager.save(
       manager.create(ReceiptEntity, {
         ...stored,
+        shipNoticeId,
         idempotencyKey,
         onHandAfter,
         userEmail: actor.email,
@@ -191,6 +200,7 @@ export class ReceiptsService {
         releaseLineId: line.id,
         partNumber: line.partNumber,
         qty: stored.qty,
+        shipNoticeId,
         discrepancy: stored.discrepancy,
         final: stored.final,
         onHand: { from: onHandBefore, to: onHandAfter },
@@ -204,6 +214,65 @@ export class ReceiptsService {
     return { receipt: toReceipt(receipt, line, release), onHand: onHandAfter };
   }
 
+  /**
+   * The shipment a count belongs to: the one named (422 when it does not carry this line); when
+   * none is named, the oldest notice of the line with something still to count; null when the
+   * goods came without a notice.
+   */
+  private async shipmentOf(
+    manager: EntityManager,
+    line: ReleaseLineEntity,
+    release: ReleaseEntity,
+    named: number | null | undefined,
+  ): Promise<number | null> {
+    if (named === null) return null;
+    const carried = await manager.findBy(ShipNoticeLineEntity, { releaseLineId: line.id });
+    if (named !== undefined) {
+      const notice = await manager.findOneBy(ShipNoticeEntity, { id: named });
+      if (!notice || notice.releaseId !== release.id || !carried.some((row) => row.shipNoticeId === named)) {
+        throw new RefusedInputError(`Shipment ${named} does not carry line ${line.id} (${line.partNumber}).`, [
+          {
+            path: ['shipNoticeId'],
+            message: `ship notice ${named} has no line ${line.id} of release ${release.number}`,
+          },
+        ]);
+      }
+      return named;
+    }
+    if (carried.length === 0) return null;
+    const counted = await manager.findBy(ReceiptEntity, { releaseLineId: line.id });
+    const oldestFirst = [...carried].sort((a, b) => a.shipNoticeId - b.shipNoticeId);
+    const waiting = oldestFirst.find((row) => {
+      const receivedOnIt = counted
+        .filter(
+          (receipt) =>
+            receipt.shipNoticeId === row.shipNoticeId && addsToOnHand(receipt.discrepancy as Discrepancy | null),
+        )
+        .reduce((total, receipt) => total + receipt.qty, 0);
+      return receivedOnIt < row.qty - QTY_EPSILON;
+    });
+    return waiting?.shipNoticeId ?? null;
+  }
+
+  /** The counted card goes to Counted: the shipment's, or the unshipped lines expected on the same day. */
+  private async moveCardToCounted(
+    manager: EntityManager,
+    line: ReleaseLineEntity,
+    shipNoticeId: number | null,
+  ): Promise<void> {
+    if (shipNoticeId !== null) {
+      await manager.update(ShipNoticeEntity, { id: shipNoticeId }, { dockColumn: 'counted' });
+      return;
+    }
+    const siblings = await manager.findBy(ReleaseLineEntity, { releaseId: line.releaseId });
+    const sameCard = siblings.filter((sibling) => expectedArrival(sibling) === expectedArrival(line));
+    await manager.update(
+      ReleaseLineEntity,
+      { id: In(sameCard.map((sibling) => sibling.id)) },
+      { dockColumn: 'counted' },
+    );
+  }
+
   /** `received` once every line is closed; `partial` once anything usable arrived or a line closed. */
   private async releaseStatusAfter(manager: EntityManager, release: ReleaseEntity): Promise<string> {
     const lines = await manager.findBy(ReleaseLineEntity, { releaseId: release.id });
@@ -213,12 +282,22 @@ export class ReceiptsService {
   }
 
   /**
-   * The card that asked for a closed line is full again. A card already received by a scan, or
-   * pulled from circulation, is left as it is: the count at the dock must not fail over it.
+   * The card that asked for a closed line is full again, when stock came in on it. A line closed
+   * with nothing usable (all short, damaged or the wrong part) sends its card back to empty, so the
+   * next release orders it again rather than leaving a full card with no stock behind it. A card
+   * already back, or pulled from circulation, is left as it is: the count must not fail over it.
    */
-  private async returnCard(manager: EntityManager, cardId: number, userEmail: string): Promise<void> {
+  private async returnCard(manager: EntityManager, cardId: number, stocked: boolean, userEmail: string): Promise<void> {
     const card = await manager.findOneBy(KanbanCardEntity, { id: cardId });
     if (!card || card.retiredAt || !isCardState(card.state) || !canTransition(card.state, 'receive')) return;
-    await applyCardEvent(manager, card, 'receive', userEmail);
+    if (stocked) {
+      await applyCardEvent(manager, card, 'receive', userEmail);
+      return;
+    }
+    await manager.update(
+      KanbanCardEntity,
+      { id: card.id },
+      { state: 'empty', stateChangedAt: new Date().toISOString(), releaseLineId: null },
+    );
   }
 }

@@ -62,8 +62,10 @@ function statesTaking(event: CardEvent): CardState[] {
 export function defaultEvent(card: KanbanCardEntity): CardEvent {
   if (card.state === 'full') return 'consume';
   throw new ConflictError(
-    `Card ${card.cardNumber} is ${card.state}; a scan without an event only empties a full card. ` +
-      'Say which event (release, ship or receive).',
+    `Card ${card.cardNumber} is ${card.state}; a scan only empties a full card. ` +
+      (card.state === 'empty'
+        ? 'It goes on the next release to its supplier.'
+        : 'Count its delivery in at the dock to make it full again.'),
     [{ currentState: card.state, event: null }],
   );
 }

@@ -131,7 +131,8 @@ export function createLoopsRouter(services: Services, deps: RouteDeps): Router {
   defineRoute(router, deps, {
     method: 'post',
     path: '/kanban/scans',
-    summary: 'Record a card scan: the card moves one step of full → empty → ordered → shipped → full',
+    summary:
+      'Record a card scan: a full card is emptied at the line. release, ship and receive are refused (409): a release line orders a card, a ship notice ships it and a receipt at the dock fills it',
     access: SCAN_ROLES,
     body: cardScanRequestSchema,
     response: cardScanResponseSchema,

@@ -2,7 +2,7 @@ import { In, type EntityManager } from 'typeorm';
 import { addWorkingDays } from '../../shared/domain/calendar';
 import { MAX_CARD_INDEX, cardNumber } from '../../shared/domain/gs1';
 import { KanbanInputError, sizeKanban, type KanbanSizing } from '../../shared/domain/kanban-sizing';
-import type { CardState } from '../../shared/domain/card-cycle';
+import { scanRefusal, type CardState } from '../../shared/domain/card-cycle';
 import type { KanbanSizeRequest } from '../../shared/schemas/loops-sizing';
 import type {
   AcceptKanbanLoopRequest,
@@ -254,6 +254,12 @@ export class LoopsService {
       const card = await findCard(manager, number);
       assertInCirculation(card);
       const event = request.event ?? defaultEvent(card);
+      const refusal = scanRefusal(event);
+      if (refusal) {
+        throw new ConflictError(`Card ${card.cardNumber} cannot be scanned "${event}": ${refusal}.`, [
+          { currentState: card.state, event },
+        ]);
+      }
       const loop = await this.findLoop(manager, card.loopId);
       const moved = await applyCardEvent(manager, card, event, actor.email);
       // Cards in circulation are the loop's supply, which the line risk counts.

@@ -183,7 +183,8 @@ export class OverviewService {
 
   private async receiving(): Promise<OverviewFigure[]> {
     const items = await this.deps.dock.list();
-    const open = items.filter((item) => item.status !== 'received');
+    // Cards with something still to count: a counted shipment of a release still under way is done.
+    const open = items.filter((item) => item.lines.some((line) => line.open));
     const dueToday = open.filter((item) => item.expectedToday).length;
     const late = open.filter((item) => item.overdue).length;
     const atDock = open.filter((item) => item.column === 'at_dock').length;
@@ -193,7 +194,7 @@ export class OverviewService {
         label: 'Deliveries due today',
         value: dueToday,
         unit: 'count',
-        hint: 'Releases expected at the dock today.',
+        hint: 'Shipments and deliveries not yet shipped that are expected at the dock today.',
         to: '/dock',
         attention: false,
       },

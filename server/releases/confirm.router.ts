@@ -5,6 +5,7 @@ import {
   confirmationSchema,
   confirmResultSchema,
   confirmTokenParamsSchema,
+  releaseNumberParamsSchema,
 } from '../../shared/schemas/releases';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
@@ -12,7 +13,10 @@ import type { Services } from '../services';
 /** Requests per client address per minute on the public confirmation routes. */
 export const CONFIRM_RATE_LIMIT = 30;
 
-/** The supplier's public routes behind the e-mailed link: no sign-in, rate-limited per address. */
+/**
+ * The supplier's answer to a release: through the e-mailed link (no sign-in, rate-limited per
+ * address), or signed in to its own account.
+ */
 export function createConfirmRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
   const service = services.confirm;
@@ -56,6 +60,27 @@ export function createConfirmRouter(services: Services, deps: RouteDeps): Router
     body: confirmAnswerSchema,
     response: confirmResultSchema,
     handler: ({ params, body }) => service.answer(params.token, body),
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/releases/:number/confirmation',
+    summary: 'A signed-in supplier’s own release, to answer as from the e-mailed link; another’s is 404',
+    access: ['supplier'],
+    params: releaseNumberParamsSchema,
+    response: confirmationSchema,
+    handler: ({ params, user }) => service.viewOwn(params.number, user),
+  });
+
+  defineRoute(router, deps, {
+    method: 'post',
+    path: '/releases/:number/confirmation',
+    summary: 'A signed-in supplier’s answer; the e-mailed link is spent with it (409 once answered either way)',
+    access: ['supplier'],
+    params: releaseNumberParamsSchema,
+    body: confirmAnswerSchema,
+    response: confirmResultSchema,
+    handler: ({ params, body, user }) => service.answerOwn(params.number, user, body),
   });
 
   return router;

@@ -50,7 +50,6 @@ export async function upsertOpenOrders(manager: EntityManager, lines: readonly O
           carrier: null,
           trackingNumber: null,
           supplierNote: null,
-          dockColumn: 'expected',
         }),
       );
     }

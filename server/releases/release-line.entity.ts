@@ -52,4 +52,8 @@ export class ReleaseLineEntity {
 
   @Column({ type: 'boolean', default: false })
   closed: boolean;
+
+  /** Where the line's unshipped rest stands on the dock board (each shipment has its own column). */
+  @Column({ name: 'dock_column', type: 'varchar', length: 12, default: 'expected' })
+  dockColumn: string;
 }

@@ -40,8 +40,4 @@ export class ReleaseEntity {
 
   @Column({ name: 'supplier_note', type: 'text', nullable: true })
   supplierNote: string | null;
-
-  /** Column of the receiving board: expected, at_dock, counted, to_line. */
-  @Column({ name: 'dock_column', type: 'varchar', length: 12, default: 'expected' })
-  dockColumn: string;
 }

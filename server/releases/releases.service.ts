@@ -230,7 +230,6 @@ export class ReleasesService {
         carrier: null,
         trackingNumber: null,
         supplierNote: null,
-        dockColumn: 'expected',
       }),
     );
     const cardNumbers: string[] = [];

@@ -26,6 +26,10 @@ export class ShipNoticeEntity {
   @Column({ name: 'created_at', type: 'varchar', length: 30 })
   createdAt: string;
 
+  /** Where this shipment's card stands on the dock board. */
+  @Column({ name: 'dock_column', type: 'varchar', length: 12, default: 'expected' })
+  dockColumn: string;
+
   /** `supplier:<code>` for a link, otherwise the signed-in account's e-mail. */
   @Column({ name: 'created_by', type: 'varchar', length: 200 })
   createdBy: string;

@@ -55,3 +55,26 @@ export function nextCardState(current: CardState, event: CardEvent): CardState {
   if (next === undefined) throw new IllegalCardTransitionError(current, event);
   return next;
 }
+
+/**
+ * Events a scan may record by itself. The others are tied to what really happens and come only
+ * from it: `release` from a release line, `ship` from a ship notice carrying the line, `receive`
+ * from the receipt that adds the stock and closes the line. A scan saying them would leave a card
+ * ordered with nothing asked of a supplier, or full with no stock behind it.
+ */
+export const SCAN_EVENTS: readonly CardEvent[] = ['consume'];
+
+/** Why a scan cannot record this event, and where it happens instead; null when a scan may. */
+export function scanRefusal(event: CardEvent): string | null {
+  if (SCAN_EVENTS.includes(event)) return null;
+  switch (event) {
+    case 'release':
+      return 'a card is ordered only by a release line: an empty card goes on the next release to its supplier (Releases)';
+    case 'ship':
+      return 'a card goes shipped when its supplier’s ship notice carries its release line';
+    case 'receive':
+      return 'a card is full again only when its delivery is counted in at the dock (Dock: scan the card there), which adds the stock and closes its release line';
+    default:
+      return null;
+  }
+}

@@ -14,16 +14,14 @@ export type DockStatus = z.infer<typeof dockStatusSchema>;
 export const RECEIVABLE_STATUSES: readonly DockStatus[] = ['sent', 'confirmed', 'exception', 'shipped', 'partial'];
 
 export const dockLineSchema = z.object({
-  id: z.number().int(),
+  id: z.number().int().meta({ description: 'The release line id (receipts are posted against it).' }),
   partNumber: z.string(),
   description: z.string(),
   uom: z.string(),
-  qty: z.number().meta({ description: 'Quantity requested.' }),
-  confirmedQty: z
-    .number()
-    .nullable()
-    .meta({ description: 'Quantity the supplier confirmed; the line is ordered for this when set.' }),
-  receivedQty: z.number(),
+  qty: z.number().meta({
+    description: 'What this card brings of the line: the quantity on the ship notice, or the part not yet shipped.',
+  }),
+  receivedQty: z.number().meta({ description: 'What was counted in against this card.' }),
   open: z.boolean(),
   cardNumber: z.string().optional().meta({ description: 'The kanban card that asked for this line.' }),
   needDate: z.string(),
@@ -46,17 +44,30 @@ export const dockAttachmentSchema = z.object({
 });
 export type DockAttachment = z.infer<typeof dockAttachmentSchema>;
 
-/** One card of the board: a release with its lines. `id` is the release id. */
+export const DOCK_CARD_KINDS = ['shipment', 'expected'] as const;
+
+/**
+ * One card of the board: a shipment (one ship notice of a release), or the lines of a release not
+ * yet shipped that are expected on one day. `id` is the card's key (`shipment-12`,
+ * `expected-5-2026-12-04`).
+ */
 export const dockItemSchema = z.object({
-  id: z.number().int(),
-  number: z.string(),
+  id: z.string(),
+  kind: z.enum(DOCK_CARD_KINDS),
+  releaseId: z.number().int(),
+  shipNoticeId: z.number().int().nullable(),
+  number: z.string().meta({ description: 'The release number.' }),
   supplierCode: z.string(),
   supplierName: z.string(),
   column: dockColumnSchema,
-  status: dockStatusSchema,
-  needDate: z.string().meta({ description: 'Earliest need date of the open lines (of all lines once none is open).' }),
-  expectedToday: z.boolean().meta({ description: 'The need date is today.' }),
-  overdue: z.boolean().meta({ description: 'The need date has passed and lines are still open.' }),
+  status: dockStatusSchema.meta({ description: 'The status of the release the card belongs to.' }),
+  shipDate: z.string().nullable(),
+  arrivalDate: z.string().meta({
+    description:
+      'When the dock expects the goods: ship date plus transit working days for a shipment, the answered arrival or need date otherwise.',
+  }),
+  expectedToday: z.boolean().meta({ description: 'The goods are expected today.' }),
+  overdue: z.boolean().meta({ description: 'The expected day has passed and lines are still open.' }),
   carrier: z.string().nullable(),
   trackingNumber: z.string().nullable(),
   hazardous: z.boolean().meta({ description: 'Any line’s part is hazardous.' }),
@@ -65,7 +76,8 @@ export const dockItemSchema = z.object({
 });
 export type DockItem = z.infer<typeof dockItemSchema>;
 
-export const dockItemParamsSchema = z.object({ id: z.coerce.number().int().positive() });
+export const dockItemParamsSchema = z.object({ id: z.string().max(40) });
+export const dockReleaseParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 export const dockAttachmentParamsSchema = z.object({ id: z.coerce.number().int().positive() });
 
 /** Body of PATCH /api/dock/items/:id. */

@@ -139,7 +139,8 @@ export const cardNumberParamsSchema = z.object({ cardNumber: z.string().max(40) 
 export const cardScanRequestSchema = z.object({
   cardNumber: z.string().max(40),
   event: cardEventSchema.optional().meta({
-    description: 'Omitted: `consume` for a full card (the signal at the line); any other state needs an event.',
+    description:
+      'Omitted: `consume` for a full card (the signal at the line). Only `consume` is recorded by a scan; `release`, `ship` and `receive` are refused with 409 (they come from release lines, ship notices and receipts).',
   }),
 });
 export type CardScanRequest = z.infer<typeof cardScanRequestSchema>;

@@ -34,6 +34,10 @@ export const receiptRequestSchema = z
         '`damaged` and `wrong_part` are recorded but not added to usable on-hand (nor to the line’s received quantity).',
     }),
     note: z.string().trim().max(1000).nullable().optional(),
+    shipNoticeId: z.number().int().positive().nullable().optional().meta({
+      description:
+        'The shipment (ship notice) being counted; null for goods that came without one. Omitted: the oldest notice of the line with something still to count, else none.',
+    }),
     close: z.boolean().optional().meta({
       description: 'The clerk marks this receipt final: the line closes even if less than ordered arrived.',
     }),
@@ -56,6 +60,7 @@ export const receiptSchema = z.object({
   releaseNumber: z.string(),
   partNumber: z.string(),
   qty: z.number(),
+  shipNoticeId: z.number().int().nullable().meta({ description: 'The shipment this count belongs to.' }),
   discrepancy: discrepancySchema.nullable(),
   note: z.string().nullable(),
   final: z.boolean().meta({ description: 'The clerk marked the receipt final (close: true).' }),

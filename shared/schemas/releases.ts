@@ -127,7 +127,7 @@ export const confirmationLineSchema = z.object({
 });
 export type ConfirmationLine = z.infer<typeof confirmationLineSchema>;
 
-/** Body of GET /api/confirm/:token. */
+/** Body of GET /api/confirm/:token, and of GET /api/releases/{number}/confirmation for a signed-in supplier. */
 export const confirmationSchema = z.object({
   release: z.object({
     number: z.string(),
@@ -141,7 +141,8 @@ export const confirmationSchema = z.object({
   }),
   /** The plant's today: the earliest ship date an answer may give. */
   today: z.string(),
-  expiresAt: z.string(),
+  /** When the e-mailed link stops working; null for a signed-in supplier, who needs no link. */
+  expiresAt: z.string().nullable(),
 });
 export type Confirmation = z.infer<typeof confirmationSchema>;
 

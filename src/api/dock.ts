@@ -5,14 +5,14 @@ import { fetchFile, type DownloadedFile } from './download';
 import { http } from './http';
 import { uploadFile, type UploadOptions } from './upload';
 
-/** The receiving board: open releases, and those received today, ordered by column then need date. */
+/** The receiving board: a card per shipment and per day unshipped lines are expected, ordered by column then day. */
 export function listDock(signal?: AbortSignal): Promise<DockItem[]> {
   return http.get<DockItem[]>('/dock', { signal });
 }
 
-/** Moves a release to another column; 409 when a fully received release would leave the line. */
-export function moveDockItem(id: number, column: DockColumn): Promise<DockItem> {
-  return http.patch<DockItem>(`/dock/items/${id}`, { column });
+/** Moves a card (by its key) to another column; 409 when a fully received card would leave the line. */
+export function moveDockItem(id: string, column: DockColumn): Promise<DockItem> {
+  return http.patch<DockItem>(`/dock/items/${encodeURIComponent(id)}`, { column });
 }
 
 /**
@@ -24,8 +24,8 @@ export function postReceipt(receipt: ReceiptRequest, idempotencyKey: string): Pr
 }
 
 /** Attaches a packing-slip photo or PDF to a release. */
-export function uploadPackingSlip(id: number, file: File, options: UploadOptions = {}): Promise<DockAttachment> {
-  return uploadFile<DockAttachment>(`/dock/items/${id}/attachments`, file, file.name, options);
+export function uploadPackingSlip(releaseId: number, file: File, options: UploadOptions = {}): Promise<DockAttachment> {
+  return uploadFile<DockAttachment>(`/dock/releases/${releaseId}/attachments`, file, file.name, options);
 }
 
 /** Fetches a packing slip with the session token, for showing it in a new tab. */

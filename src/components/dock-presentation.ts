@@ -1,4 +1,4 @@
-import type { DockColumn, DockLine } from '@shared/schemas/dock';
+import type { DockColumn, DockItem, DockLine } from '@shared/schemas/dock';
 import type { Discrepancy } from '@shared/schemas/receipts';
 
 /** Our words for the board's columns, with what each means on the floor. */
@@ -16,14 +16,14 @@ export const DISCREPANCY_WORDS: Record<Discrepancy, string> = {
   wrong_part: 'Wrong part',
 };
 
-/** What a line is ordered for: the supplier's confirmed quantity once given, else the request. */
-export function orderedQty(line: DockLine): number {
-  return line.confirmedQty ?? line.qty;
+/** What is still to come of a line on its card (never negative). */
+export function remainingQty(line: DockLine): number {
+  return Math.max(0, line.qty - line.receivedQty);
 }
 
-/** What is still to come on a line (never negative). */
-export function remainingQty(line: DockLine): number {
-  return Math.max(0, orderedQty(line) - line.receivedQty);
+/** The words for what a card's line brings: a shipment carries it, the rest is still to be shipped. */
+export function cardQtyWord(kind: DockItem['kind']): string {
+  return kind === 'shipment' ? 'On this shipment' : 'Not yet shipped';
 }
 
 /** The discrepancy a count suggests against what is still to come; null when it matches. */

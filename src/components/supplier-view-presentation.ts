@@ -20,6 +20,14 @@ export const CLAIM_WORDS: Record<Discrepancy, string> = {
 /** Releases a supplier still has to ship against. */
 export const SHIPPABLE_STATUSES: readonly ReleaseStatus[] = ['sent', 'confirmed', 'exception', 'partial'];
 
+/** Releases waiting for the supplier's answer (quantities and ship dates). */
+export const ANSWERABLE_STATUSES: readonly ReleaseStatus[] = ['draft', 'sent'];
+
+/** Where a signed-in supplier answers a release. */
+export function confirmPath(releaseNumber: string): string {
+  return `/releases/${encodeURIComponent(releaseNumber)}/confirm`;
+}
+
 /** Where a supplier tells the plant what it shipped for a release. */
 export function shipNoticePath(releaseNumber: string): string {
   return `/releases/${encodeURIComponent(releaseNumber)}/ship-notice`;

@@ -22,6 +22,12 @@ export interface RouteNamedMap {
   'supplier-account': RouteRecordInfo<'supplier-account', '/supplier', NoParams, NoParams>;
   'supplier-performance': RouteRecordInfo<'supplier-performance', '/suppliers/performance', NoParams, NoParams>;
   confirm: RouteRecordInfo<'confirm', '/confirm/:token', { token: string }, { token: string }>;
+  'release-confirm': RouteRecordInfo<
+    'release-confirm',
+    '/releases/:number/confirm',
+    { number: string },
+    { number: string }
+  >;
   'ship-notice-link': RouteRecordInfo<'ship-notice-link', '/ship/:token', { token: string }, { token: string }>;
   'ship-notice': RouteRecordInfo<
     'ship-notice',

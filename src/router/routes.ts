@@ -95,6 +95,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Releases', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
   },
   {
+    path: '/releases/:number/confirm',
+    name: 'release-confirm',
+    component: () => import('@/views/ConfirmView.vue'),
+    meta: { title: 'Answer release', roles: ['supplier'] },
+  },
+  {
     path: '/releases/:number/ship-notice',
     name: 'ship-notice',
     component: () => import('@/views/ShipNoticeView.vue'),

@@ -11,12 +11,12 @@ import {
 import * as dockApi from '@/api/dock';
 import { useLatestRequest } from './latest-request';
 
-/** Whether a release still takes receipts: open lines on a sent, confirmed, exception, shipped or partial release. */
+/** Whether a card still takes receipts: open lines of a sent, confirmed, exception, shipped or partial release. */
 export function isReceivable(item: DockItem): boolean {
   return RECEIVABLE_STATUSES.includes(item.status) && item.lines.some((line) => line.open);
 }
 
-/** What a scan found: a release, and the line when a kanban card was scanned. */
+/** What a scan found: a card, and the line when a kanban card was scanned. */
 export interface ScanMatch {
   item: DockItem;
   line: DockLine | null;
@@ -33,7 +33,7 @@ export const useDockStore = defineStore('dock', () => {
       column,
       items: items.value
         .filter((item) => item.column === column)
-        .sort((a, b) => a.needDate.localeCompare(b.needDate) || a.number.localeCompare(b.number)),
+        .sort((a, b) => a.arrivalDate.localeCompare(b.arrivalDate) || a.number.localeCompare(b.number)),
     })),
   );
   const expectedTodayCount = computed(
@@ -56,7 +56,7 @@ export const useDockStore = defineStore('dock', () => {
    * Moves a card at once and tells the server; on refusal the card goes back where it was and
    * the ApiError is rethrown for the view to explain.
    */
-  async function move(id: number, column: DockColumn): Promise<void> {
+  async function move(id: string, column: DockColumn): Promise<void> {
     const current = items.value.find((item) => item.id === id);
     if (!current || current.column === column) return;
     const from = current.column;
@@ -70,31 +70,41 @@ export const useDockStore = defineStore('dock', () => {
     }
   }
 
-  /** Adds an uploaded packing slip to its card without waiting for the next load. */
-  function addAttachment(id: number, attachment: DockAttachment): void {
-    const current = items.value.find((item) => item.id === id);
-    if (current && !current.attachments.some((known) => known.id === attachment.id)) {
-      replace({ ...current, attachments: [...current.attachments, attachment] });
+  /** Adds an uploaded packing slip to every card of its release without waiting for the next load. */
+  function addAttachment(releaseId: number, attachment: DockAttachment): void {
+    for (const current of items.value.filter((item) => item.releaseId === releaseId)) {
+      if (!current.attachments.some((known) => known.id === attachment.id)) {
+        replace({ ...current, attachments: [...current.attachments, attachment] });
+      }
     }
   }
 
   /**
-   * A scanned release number opens that release; a scanned kanban card number opens the release
-   * whose open line carries the card. Release numbers compare without regard to case.
+   * A scanned release number opens a card of that release; a scanned kanban card number opens the
+   * card whose open line carries the kanban card. A release may have several cards: the one
+   * already off the truck comes first, then shipments, then the earliest expected.
+   * Release numbers compare without regard to case.
    */
   function findByScan(scanned: string): ScanMatch | null {
     const code = scanned.trim();
     if (!code) return null;
-    const release = items.value.find((item) => item.number.toLowerCase() === code.toLowerCase());
+    const candidates = [...items.value].sort(
+      (a, b) =>
+        Number(a.column === 'expected') - Number(b.column === 'expected') ||
+        Number(a.kind !== 'shipment') - Number(b.kind !== 'shipment') ||
+        a.arrivalDate.localeCompare(b.arrivalDate),
+    );
+    const releaseCards = candidates.filter((item) => item.number.toLowerCase() === code.toLowerCase());
+    const release = releaseCards.find(isReceivable) ?? releaseCards[0];
     if (release) return { item: release, line: null };
-    for (const item of items.value) {
+    for (const item of candidates) {
       const line = item.lines.find((candidate) => candidate.open && candidate.cardNumber === code);
       if (line) return { item, line };
     }
     return null;
   }
 
-  function byId(id: number): DockItem | undefined {
+  function byId(id: string): DockItem | undefined {
     return items.value.find((item) => item.id === id);
   }
 

@@ -10,6 +10,7 @@ import type {
   RunReleasesResponse,
 } from '@shared/schemas/releases';
 import * as confirmApi from '@/api/confirm';
+import type { ConfirmSource } from '@/api/confirm';
 import * as releasesApi from '@/api/releases';
 import { ApiError } from '@/api/http';
 import { useLatestRequest } from './latest-request';
@@ -165,7 +166,7 @@ function phaseOf(error: ApiError): ConfirmPhase {
   return 'failed';
 }
 
-/** The public confirmation page: one release behind one link, answered once. */
+/** The confirmation page: one release, answered once, through its link or by the signed-in supplier. */
 export const useConfirmationStore = defineStore('release-confirmation', () => {
   const confirmation = ref<Confirmation | null>(null);
   const phase = ref<ConfirmPhase>('loading');
@@ -174,11 +175,11 @@ export const useConfirmationStore = defineStore('release-confirmation', () => {
   const result = ref<ConfirmResult | null>(null);
   const sending = ref(false);
 
-  async function open(token: string): Promise<void> {
+  async function open(source: ConfirmSource): Promise<void> {
     phase.value = 'loading';
     problem.value = null;
     try {
-      confirmation.value = await confirmApi.getConfirmation(token);
+      confirmation.value = await confirmApi.getConfirmation(source);
       phase.value = 'ready';
     } catch (cause) {
       if (!(cause instanceof ApiError)) throw cause;
@@ -192,11 +193,11 @@ export const useConfirmationStore = defineStore('release-confirmation', () => {
    * (network, 429, 5xx) are rethrown for the page to show beside the form; a spent, expired or
    * unknown link ends the form.
    */
-  async function send(token: string, answer: ConfirmAnswer): Promise<ConfirmResult> {
+  async function send(source: ConfirmSource, answer: ConfirmAnswer): Promise<ConfirmResult> {
     sending.value = true;
     problem.value = null;
     try {
-      result.value = await confirmApi.sendConfirmation(token, answer);
+      result.value = await confirmApi.sendConfirmation(source, answer);
       phase.value = 'done';
       return result.value;
     } catch (cause) {

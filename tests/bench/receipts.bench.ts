@@ -75,7 +75,6 @@ async function arrange(db: Database): Promise<{ token: string; lineIds: number[]
       sentAt: new Date().toISOString(),
       carrier: null,
       trackingNumber: null,
-      dockColumn: 'expected',
     });
     const line = await source.getRepository(ReleaseLineEntity).save({
       releaseId: release.id,

@@ -22,7 +22,6 @@ function line(id: number, partNumber: string, qty: number, overrides: Partial<Do
     description: `Part ${partNumber}`,
     uom: 'H87',
     qty,
-    confirmedQty: null,
     receivedQty: 0,
     open: true,
     needDate: '2026-12-07',
@@ -31,15 +30,20 @@ function line(id: number, partNumber: string, qty: number, overrides: Partial<Do
   };
 }
 
-function itemWith(lines: DockLine[]): DockItem {
+/** A shipment (ship notice 9) of release 3, unless the test says otherwise. */
+function itemWith(lines: DockLine[], overrides: Partial<DockItem> = {}): DockItem {
   return {
-    id: 3,
+    id: 'shipment-9',
+    kind: 'shipment',
+    releaseId: 3,
+    shipNoticeId: 9,
     number: 'R261201-FBS',
     supplierCode: 'FBS',
     supplierName: 'Supplier F',
     column: 'at_dock',
     status: 'shipped',
-    needDate: '2026-12-07',
+    shipDate: '2026-12-03',
+    arrivalDate: '2026-12-07',
     expectedToday: false,
     overdue: false,
     carrier: null,
@@ -47,6 +51,7 @@ function itemWith(lines: DockLine[]): DockItem {
     hazardous: lines.some((candidate) => candidate.hazardous),
     lines,
     attachments: [],
+    ...overrides,
   };
 }
 
@@ -59,6 +64,7 @@ function receiptAnswer(request: ReceiptRequest, partNumber: string, onHand: numb
       releaseNumber: 'R261201-FBS',
       partNumber,
       qty: request.qty,
+      shipNoticeId: request.shipNoticeId ?? null,
       discrepancy: request.discrepancy ?? null,
       note: request.note ?? null,
       final: request.close ?? false,
@@ -177,6 +183,31 @@ describe('DockCheckInDialog', () => {
     expect(countBox('BRUSH-20').value).toBe('');
     expect(countBox('PAD-26').value).toBe('');
     expect(lineElement('BRUSH-20').querySelector('[data-test="ordered-qty"]')?.textContent).toBe('40 pcs');
+    expect(lineElement('BRUSH-20').textContent).toContain('On this shipment 40 pcs');
+  });
+
+  it('counts the lines of a card not yet shipped against no shipment', async () => {
+    const fetchMock = vi.fn<typeof fetch>((_input, init) =>
+      Promise.resolve(
+        jsonResponse(201, receiptAnswer(JSON.parse(String(init?.body)) as ReceiptRequest, 'BRUSH-20', 12)),
+      ),
+    );
+    vi.stubGlobal('fetch', fetchMock);
+    await openDialog(
+      itemWith([line(1, 'BRUSH-20', 12)], {
+        id: 'expected-3-2026-12-07',
+        kind: 'expected',
+        shipNoticeId: null,
+        shipDate: null,
+      }),
+    );
+    const shown = lineElement('BRUSH-20').textContent;
+    await type(countBox('BRUSH-20'), '12');
+
+    await record();
+
+    expect(shown).toContain('Not yet shipped 12 pcs');
+    expect(receiptCalls(fetchMock).map((call) => call.body.shipNoticeId)).toEqual([null]);
   });
 
   it('suggests Short or Over from the count, and keeps a discrepancy chosen by hand', async () => {
@@ -217,8 +248,8 @@ describe('DockCheckInDialog', () => {
 
     const sent = receiptCalls(fetchMock);
     expect(sent.map((call) => call.body)).toEqual([
-      { releaseLineId: 1, qty: 40, discrepancy: null, note: null, close: false },
-      { releaseLineId: 2, qty: 7, discrepancy: 'short', note: null, close: false },
+      { releaseLineId: 1, shipNoticeId: 9, qty: 40, discrepancy: null, note: null, close: false },
+      { releaseLineId: 2, shipNoticeId: 9, qty: 7, discrepancy: 'short', note: null, close: false },
     ]);
     expect(sent[0]!.key).toEqual(expect.any(String));
     expect(sent[0]!.key).not.toBe(sent[1]!.key);

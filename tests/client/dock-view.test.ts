@@ -16,13 +16,17 @@ const viewer: SessionUser = { email: 'viewer@example.com', name: 'Vi Viewer', ro
 
 function item(id: number, number: string, column: DockColumn, overrides: Partial<DockItem> = {}): DockItem {
   return {
-    id,
+    id: `expected-${id}-2026-12-02`,
+    kind: 'expected',
+    releaseId: id,
+    shipNoticeId: null,
     number,
     supplierCode: 'SUP-A',
     supplierName: 'Supplier A',
     column,
     status: 'confirmed',
-    needDate: '2026-12-02',
+    shipDate: null,
+    arrivalDate: '2026-12-02',
     expectedToday: false,
     overdue: false,
     carrier: null,
@@ -35,7 +39,6 @@ function item(id: number, number: string, column: DockColumn, overrides: Partial
         description: `Part ${id}`,
         uom: 'H87',
         qty: 10,
-        confirmedQty: null,
         receivedQty: 0,
         open: true,
         needDate: '2026-12-02',
@@ -61,7 +64,6 @@ function board(): DockItem[] {
           description: 'Traction battery',
           uom: 'H87',
           qty: 4,
-          confirmedQty: 4,
           receivedQty: 0,
           open: true,
           cardNumber: '000004500018',
@@ -74,7 +76,6 @@ function board(): DockItem[] {
           description: 'Disc brush',
           uom: 'H87',
           qty: 6,
-          confirmedQty: null,
           receivedQty: 0,
           open: true,
           needDate: '2026-12-03',
@@ -82,7 +83,17 @@ function board(): DockItem[] {
         },
       ],
     }),
-    item(2, 'R261130-SUP-B', 'at_dock', { status: 'shipped', overdue: true, needDate: '2026-11-30' }),
+    item(2, 'R261130-SUP-B', 'at_dock', {
+      id: 'shipment-7',
+      kind: 'shipment',
+      shipNoticeId: 7,
+      status: 'shipped',
+      overdue: true,
+      shipDate: '2026-11-27',
+      arrivalDate: '2026-11-30',
+      carrier: 'Parcel Example',
+      trackingNumber: 'TRK-0007',
+    }),
     item(3, 'R261129-SUP-C', 'to_line', { status: 'received', lines: [] }),
   ];
 }
@@ -92,7 +103,7 @@ type Answer = (init: RequestInit | undefined) => Response;
 function stubApi(answers: Record<string, Answer> = {}) {
   const defaults: Record<string, Answer> = {
     'GET /api/dock': () => jsonResponse(200, board()),
-    'PATCH /api/dock/items/1': (init) =>
+    'PATCH /api/dock/items/expected-1-2026-12-02': (init) =>
       jsonResponse(200, { ...board()[0]!, column: JSON.parse(String(init?.body)).column }),
   };
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
@@ -159,6 +170,11 @@ describe('DockView', () => {
     expect(first).toContain('2 lines');
     expect(first).toContain('Road freight · TRK-0001');
     expect(first).toContain('Confirmed');
+    expect(first).toContain('Not yet shipped');
+    const shipment = document.querySelector('[data-card="shipment-7"]')!.textContent!;
+    expect(shipment).toContain('Shipment, sent Fri 27 Nov');
+    expect(shipment).toContain('Arrives Mon 30 Nov');
+    expect(shipment).toContain('Parcel Example · TRK-0007');
     expect(document.querySelector('[data-release="R261130-SUP-B"] [data-test="overdue"]')?.textContent?.trim()).toBe(
       'Overdue',
     );
@@ -173,26 +189,28 @@ describe('DockView', () => {
     await flushPromises();
 
     const patch = fetchMock.mock.calls.find(([, init]) => init?.method === 'PATCH');
-    expect(String(patch?.[0])).toBe('/api/dock/items/1');
+    expect(String(patch?.[0])).toBe('/api/dock/items/expected-1-2026-12-02');
     expect(JSON.parse(String(patch?.[1]?.body))).toEqual({ column: 'at_dock' });
-    // Inside a column the cards keep need-date order: the overdue one stays on top.
+    // Inside a column the cards keep arrival-day order: the overdue one stays on top.
     expect(numbersIn('at_dock')).toEqual(['R261130-SUP-B', 'R261201-SUP-A']);
     expect(numbersIn('expected')).toEqual([]);
-    expect(document.querySelector('.dock-view__status')?.textContent).toBe('R261201-SUP-A moved to At dock.');
+    expect(document.querySelector('.dock-view__status')?.textContent).toBe(
+      'R261201-SUP-A (not yet shipped) moved to At dock.',
+    );
   });
 
   it('puts the card back and says why when the server refuses the move', async () => {
     stubApi({
-      'PATCH /api/dock/items/1': () =>
+      'PATCH /api/dock/items/expected-1-2026-12-02': () =>
         jsonResponse(409, { error: { code: 'conflict', message: 'Release R261201-SUP-A cannot move.' } }),
     });
     const wrapper = await openDock();
 
-    wrapper.findAllComponents(draggable)[3]!.vm.$emit('change', { added: { element: board()[0], newIndex: 0 } });
+    wrapper.findAllComponents(draggable)[1]!.vm.$emit('change', { added: { element: board()[0], newIndex: 0 } });
     await flushPromises();
 
     expect(numbersIn('expected')).toEqual(['R261201-SUP-A']);
-    expect(numbersIn('to_line')).toEqual(['R261129-SUP-C']);
+    expect(numbersIn('at_dock')).toEqual(['R261130-SUP-B']);
     expect(document.querySelector('.el-message')?.textContent).toContain(
       'The move was not saved: Release R261201-SUP-A cannot move.',
     );
@@ -208,8 +226,8 @@ describe('DockView', () => {
     await flushPromises();
     await scan('000004500018');
 
-    expect(byRelease).toBe('Check in R261130-SUP-B');
-    expect(dialogTitle()).toBe('Check in R261201-SUP-A');
+    expect(byRelease).toBe('Check in shipment of R261130-SUP-B');
+    expect(dialogTitle()).toBe('Check in R261201-SUP-A (not yet shipped)');
     expect(document.querySelector('[data-test="check-in-line"]')?.getAttribute('data-part')).toBe('BATT-24V');
   });
 
@@ -228,6 +246,73 @@ describe('DockView', () => {
     const patch = fetchMock.mock.calls.find(([, init]) => init?.method === 'PATCH');
     expect(JSON.parse(String(patch?.[1]?.body))).toEqual({ column: 'at_dock' });
     expect(numbersIn('at_dock')).toContain('R261201-SUP-A');
+  });
+
+  it('shows the handling caution once per part before a hazardous card goes to the line, and moves it only when told', async () => {
+    const fetchMock = stubApi({
+      'PATCH /api/dock/items/expected-1-2026-12-02': (init) =>
+        jsonResponse(200, { ...board()[0]!, column: JSON.parse(String(init?.body)).column }),
+    });
+    const hazardous = board()[0]!;
+    hazardous.lines.push({ ...hazardous.lines[0]!, id: 13, needDate: '2026-12-02' });
+    const wrapper = await openDock();
+    const toLine = () => wrapper.findAllComponents(draggable)[3]!;
+
+    toLine().vm.$emit('change', { added: { element: hazardous, newIndex: 0 } });
+    await flushPromises();
+    const caution = document.querySelector('[data-test="to-line-caution"]');
+    const notes = [...document.querySelectorAll('[data-test="to-line-caution"] [data-test="safety-note"]')];
+    const patchesBeforeAnswer = fetchMock.mock.calls.filter(([, init]) => init?.method === 'PATCH').length;
+    document.querySelector<HTMLElement>('[data-test="to-line-confirm"]')!.click();
+    await flushPromises();
+
+    expect(caution?.textContent).toContain('Hazardous goods: BATT-24V');
+    expect(caution?.textContent).toContain('Follow local regulations and the plant’s own safety practice');
+    // Two lines of the battery, one caution for it.
+    expect(notes).toHaveLength(1);
+    expect(patchesBeforeAnswer).toBe(0);
+    const patch = fetchMock.mock.calls.find(([, init]) => init?.method === 'PATCH');
+    expect(JSON.parse(String(patch?.[1]?.body))).toEqual({ column: 'to_line' });
+    expect(numbersIn('to_line')).toContain('R261201-SUP-A');
+  });
+
+  it('leaves a hazardous card where it was when the clerk does not confirm the move to the line', async () => {
+    const fetchMock = stubApi();
+    const wrapper = await openDock();
+
+    wrapper.findAllComponents(draggable)[3]!.vm.$emit('change', { added: { element: board()[0], newIndex: 0 } });
+    await flushPromises();
+    [...document.querySelectorAll<HTMLElement>('[data-test="to-line-caution"] button')]
+      .find((button) => button.textContent?.trim() === 'Not now')!
+      .click();
+    await flushPromises();
+
+    expect(fetchMock.mock.calls.some(([, init]) => init?.method === 'PATCH')).toBe(false);
+    expect(numbersIn('expected')).toEqual(['R261201-SUP-A']);
+  });
+
+  it('moves a card without safety data to the line without asking', async () => {
+    const fetchMock = stubApi({
+      'PATCH /api/dock/items/shipment-7': (init) =>
+        jsonResponse(200, { ...board()[1]!, column: JSON.parse(String(init?.body)).column }),
+    });
+    const wrapper = await openDock();
+
+    wrapper.findAllComponents(draggable)[3]!.vm.$emit('change', { added: { element: board()[1], newIndex: 0 } });
+    await flushPromises();
+
+    expect(document.querySelector('[data-test="to-line-caution"]')).toBeNull();
+    expect(fetchMock.mock.calls.some(([, init]) => init?.method === 'PATCH')).toBe(true);
+  });
+
+  it('opens the check-in of a card sent from Scan cards', async () => {
+    stubApi();
+    const context = await createAppContext({ user: receiving, path: '/dock?card=000004500018' });
+    await mountInApp(DockView, context);
+    await flushPromises();
+
+    expect(dialogTitle()).toBe('Check in R261201-SUP-A (not yet shipped)');
+    expect(document.querySelector('[data-test="check-in-line"]')?.getAttribute('data-part')).toBe('BATT-24V');
   });
 
   it('says so when a scan matches nothing on the dock', async () => {

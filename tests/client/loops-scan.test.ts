@@ -11,11 +11,7 @@ import LoopsScanView from '@/views/LoopsScanView.vue';
  */
 const CARD = '000004500018';
 
-function scanned(
-  fromState: 'full' | 'ordered',
-  toState: 'empty' | 'full',
-  event: 'consume' | 'receive',
-): CardScanResponse {
+function scanned(fromState: 'full', toState: 'empty', event: 'consume'): CardScanResponse {
   return {
     card: {
       id: 2,
@@ -91,16 +87,34 @@ describe('LoopsScanView', () => {
     expect(document.querySelector('[data-test="scan-history"]')?.textContent).toContain('ACT-DK36: Full → Empty');
   });
 
-  it('sends the chosen event with the number', async () => {
-    const fetchMock = stubScans(jsonResponse(201, scanned('ordered', 'full', 'receive')));
+  it('sends the chosen “Signal empty” with the number', async () => {
+    const fetchMock = stubScans(jsonResponse(201, scanned('full', 'empty', 'consume')));
     const { wrapper, input } = await openScan();
-    wrapper.findComponent({ name: 'ElRadioGroup' }).vm.$emit('update:modelValue', 'receive');
+    wrapper.findComponent({ name: 'ElRadioGroup' }).vm.$emit('update:modelValue', 'consume');
     await flushPromises();
 
     await wedgeScan(input, CARD);
 
-    expect(JSON.parse(String(fetchMock.mock.calls[0]![1]?.body))).toEqual({ cardNumber: CARD, event: 'receive' });
-    expect(feedback()).toContain('Ordered → Full');
+    expect(JSON.parse(String(fetchMock.mock.calls[0]![1]?.body))).toEqual({ cardNumber: CARD, event: 'consume' });
+    expect(feedback()).toContain('Full → Empty');
+  });
+
+  it('offers no scan that orders or ships a card, and sends a card to be received to its dock check-in', async () => {
+    const fetchMock = stubScans();
+    const context = await createAppContext({ user: demoUsers.buyer, path: '/scan' });
+    const wrapper = await mountInApp(LoopsScanView, context);
+    const input = document.getElementById('card-scan-input') as HTMLInputElement;
+    const choices = [...document.querySelectorAll('.el-radio-button')].map((choice) => choice.textContent?.trim());
+    wrapper.findComponent({ name: 'ElRadioGroup' }).vm.$emit('update:modelValue', 'receive');
+    await flushPromises();
+
+    await wedgeScan(input, CARD);
+    // The dock screen is loaded on demand before the route changes.
+    await vi.waitFor(() => expect(context.router.currentRoute.value.name).toBe('dock'), { timeout: 10_000 });
+
+    expect(choices).toEqual(['By card state', 'Signal empty', 'Count in at the dock']);
+    expect(fetchMock.mock.calls.some(([url]) => String(url) === '/api/kanban/scans')).toBe(false);
+    expect(context.router.currentRoute.value.query).toEqual({ card: CARD });
   });
 
   it('explains a wrong check digit in words and stays ready for the next card', async () => {
@@ -122,7 +136,7 @@ describe('LoopsScanView', () => {
   });
 
   it('names the card’s current state once when the move is not allowed', async () => {
-    const message = `Card ${CARD} is ordered; a scan without an event only empties a full card. Say which event (release, ship or receive).`;
+    const message = `Card ${CARD} is ordered; a scan only empties a full card. Count its delivery in at the dock to make it full again.`;
     stubScans(
       jsonResponse(409, {
         error: { code: 'conflict', message, details: [{ currentState: 'ordered', event: null }] },

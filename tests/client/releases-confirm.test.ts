@@ -2,10 +2,17 @@ import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { Confirmation } from '@shared/schemas/releases';
+import type { SessionUser } from '@shared/schemas/user';
 import App from '@/App.vue';
 import ConfirmView from '@/views/ConfirmView.vue';
 
 const TOKEN = 'k3vY0m3pQmU5s2Lr9xW1aZ7bC4dE6fG8hJ0kL2nP4qS';
+const supplier: SessionUser = {
+  email: 'orders@rotomould.example.com',
+  name: 'Sam Seller',
+  role: 'supplier',
+  supplierCode: 'SRM',
+};
 const SHIP_TOKEN = 'Zs8mQ2vL0pK4rT6wY1xC3bN5dF7gH9jA2eU4iO6aS8u';
 
 const confirmation: Confirmation = {
@@ -54,7 +61,7 @@ function stubConfirm(
 ) {
   const fetchMock = vi.fn<typeof fetch>((input, init) => {
     const url = new URL(String(input), 'http://localhost');
-    if (url.pathname !== `/api/confirm/${TOKEN}`)
+    if (url.pathname !== `/api/confirm/${TOKEN}` && url.pathname !== '/api/releases/R261201-SRM/confirmation')
       return Promise.resolve(jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
     return Promise.resolve(init?.method === 'POST' ? answer(JSON.parse(String(init.body))) : view());
   });
@@ -210,5 +217,25 @@ describe('ConfirmView', () => {
     await flushPromises();
 
     expect(wrapper.get('[role="status"] h1').text()).toBe('This link was already used');
+  });
+
+  it('lets a signed-in supplier answer its own release inside the app, with its session', async () => {
+    const fetchMock = stubConfirm(() => jsonResponse(200, { ...confirmation, expiresAt: null }));
+    const context = await createAppContext({ path: '/releases/R261201-SRM/confirm', user: supplier });
+    const wrapper = await mountInApp(ConfirmView, context);
+    await flushPromises();
+
+    const [input, init] = fetchMock.mock.calls[0]!;
+    expect(new URL(String(input), 'http://localhost').pathname).toBe('/api/releases/R261201-SRM/confirmation');
+    expect(init!.headers).toHaveProperty('Authorization');
+    expect(wrapper.find('.confirm-view__band').exists()).toBe(false);
+    expect(wrapper.text()).toContain('You answer once; the link in the release e-mail then stops working.');
+
+    getButton(wrapper.element, 'Confirm all as requested').click();
+    await flushPromises();
+
+    expect(posted(fetchMock)).toHaveLength(1);
+    expect(wrapper.get('[role="status"]').text()).toContain('Thank you — release confirmed');
+    expect(wrapper.get('.confirm-outcome__ship a').attributes('href')).toBe('/releases/R261201-SRM/ship-notice');
   });
 });

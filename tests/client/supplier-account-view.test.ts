@@ -71,7 +71,13 @@ function stubApi() {
     if (url.pathname === '/api/suppliers/SUP-A/forecast') return Promise.resolve(jsonResponse(200, forecast));
     if (url.pathname === '/api/suppliers/SUP-A/claims') return Promise.resolve(jsonResponse(200, claims));
     if (url.pathname === '/api/releases')
-      return Promise.resolve(jsonResponse(200, [release('R1-OPEN', 'confirmed'), release('R0-DONE', 'received')]));
+      return Promise.resolve(
+        jsonResponse(200, [
+          release('R2-ASKED', 'sent'),
+          release('R1-OPEN', 'confirmed'),
+          release('R0-DONE', 'received'),
+        ]),
+      );
     return Promise.resolve(jsonResponse(404, { error: { code: 'not_found', message: 'Not found.' } }));
   });
   vi.stubGlobal('fetch', fetchMock);
@@ -104,9 +110,17 @@ describe('SupplierAccountView', () => {
       /^The plant’s build sequence is planned to .*3 Dec 2026; demand after that day is not known yet\.$/,
     );
     const releases = wrapper.get('[data-test="own-releases"]').findAll('tr.el-table__row');
-    expect(releases).toHaveLength(1);
-    expect(releases[0]!.text()).toContain('R1-OPEN');
-    expect(releases[0]!.get('a').attributes('href')).toBe('/releases/R1-OPEN/ship-notice');
+    expect(releases).toHaveLength(2);
+    const linksOf = (row: (typeof releases)[number]) =>
+      row.findAll('a').map((link) => `${link.text()} ${link.attributes('href')}`);
+    // A release still waiting for its answer can be answered here, signed in, as well as from the e-mail.
+    expect(releases[0]!.text()).toContain('R2-ASKED');
+    expect(linksOf(releases[0]!)).toEqual([
+      'Answer /releases/R2-ASKED/confirm',
+      'Send ship notice /releases/R2-ASKED/ship-notice',
+    ]);
+    expect(releases[1]!.text()).toContain('R1-OPEN');
+    expect(linksOf(releases[1]!)).toEqual(['Send ship notice /releases/R1-OPEN/ship-notice']);
     const claim = wrapper.get('[data-test="receiving-claims"]').get('tr.el-table__row');
     expect(claim.text()).toContain('Short');
     expect(claim.text()).toContain('10 / 12');

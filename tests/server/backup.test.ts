@@ -45,7 +45,6 @@ async function openLine(qty: number): Promise<number> {
     sentAt: new Date().toISOString(),
     carrier: null,
     trackingNumber: null,
-    dockColumn: 'expected',
   });
   const line = await context.dataSource.getRepository(ReleaseLineEntity).save({
     releaseId: release.id,

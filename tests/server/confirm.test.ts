@@ -367,6 +367,91 @@ describe('POST /api/confirm/:token', () => {
   });
 });
 
+describe('a signed-in supplier answers its own release', () => {
+  const ownPath = (number: string) => `/api/releases/${encodeURIComponent(number)}/confirmation`;
+  const answerOwn = (number: string, body: object, token = context.tokens.supplier) =>
+    request(context.app).post(ownPath(number)).set(bearer(token)).send(body);
+
+  it('shows the same release as the link does, with no link expiry', async () => {
+    const { release, token } = await freshRelease();
+
+    const own = await request(context.app).get(ownPath(release.number)).set(bearer(context.tokens.supplier));
+    const byLink = await request(context.app).get(`/api/confirm/${token}`);
+
+    expect(own.status).toBe(200);
+    expect(own.body.release).toEqual(byLink.body.release);
+    expect(own.body.expiresAt).toBeNull();
+  });
+
+  it('lets only the release’s own supplier in: staff 403, another supplier’s release 404', async () => {
+    const { release } = await freshRelease();
+    await context.dataSource.getRepository(ReleaseEntity).update({ number: release.number }, { supplierCode: 'SUP-B' });
+
+    const asOther = await request(context.app).get(ownPath(release.number)).set(bearer(context.tokens.supplier));
+    const answerAsOther = await answerOwn(release.number, { lines: asRequested(release) });
+    const asBuyer = await request(context.app).get(ownPath(release.number)).set(bearer(context.tokens.buyer));
+    await context.dataSource.getRepository(ReleaseEntity).update({ number: release.number }, { supplierCode: 'SUP-A' });
+
+    expect(asOther.status).toBe(404);
+    expect(answerAsOther.status).toBe(404);
+    expect(asBuyer.status).toBe(403);
+    expect((await releaseRow(release.number)).status).toBe('sent');
+  });
+
+  it('confirms as the link would, records who answered, and spends the e-mailed link', async () => {
+    const { release, token } = await freshRelease();
+
+    const response = await answerOwn(release.number, { lines: asRequested(release), carrier: 'Road Freight Co' });
+    const linkAfter = await request(context.app).get(`/api/confirm/${token}`);
+    const again = await answerOwn(release.number, { lines: asRequested(release) });
+
+    expect(response.status).toBe(200);
+    expect(response.body).toMatchObject({ status: 'confirmed', number: release.number, changedLines: 0 });
+    expect(await releaseRow(release.number)).toMatchObject({ status: 'confirmed', carrier: 'Road Freight Co' });
+    expect(linkAfter.status).toBe(409);
+    expect(again.status).toBe(409);
+    const audit = await context.dataSource
+      .getRepository(AuditEventEntity)
+      .findBy({ entity: 'release', entityKey: release.number, action: 'confirm' });
+    expect(audit).toEqual([expect.objectContaining({ actorEmail: 'supplier@example.com' })]);
+  });
+
+  it('counts one answer when the link and the signed-in page answer at the same moment', async () => {
+    const { release, token } = await freshRelease();
+    const lessOfFirst = asRequested(release).map((line, index) =>
+      index === 0 ? { ...line, confirmedQty: line.confirmedQty - 1 } : line,
+    );
+
+    const answers = await Promise.all([
+      answer(token, { lines: asRequested(release) }),
+      answerOwn(release.number, { lines: lessOfFirst }),
+    ]);
+
+    expect(answers.map((response) => response.status).sort()).toEqual([200, 409]);
+    const winner = answers.find((response) => response.status === 200)!;
+    const lines = await context.dataSource
+      .getRepository(ReleaseLineEntity)
+      .find({ where: { releaseId: release.id }, order: { id: 'ASC' } });
+    const expectedQty = winner.body.status === 'confirmed' ? release.lines[0].qty : release.lines[0].qty - 1;
+    expect(lines.find((line) => line.id === release.lines[0].id)?.confirmedQty).toBe(expectedQty);
+    const audit = await context.dataSource
+      .getRepository(AuditEventEntity)
+      .findBy({ entity: 'release', entityKey: release.number });
+    expect(audit.filter((event) => event.action === 'confirm' || event.action === 'propose')).toHaveLength(1);
+  });
+
+  it('refuses a ship date before today with 422 naming the line, and the release still waits', async () => {
+    const { release } = await freshRelease();
+    const lines = asRequested(release).map((line, index) => (index === 1 ? { ...line, shipDate: '2020-01-06' } : line));
+
+    const response = await answerOwn(release.number, { lines });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.details).toEqual([expect.objectContaining({ path: ['lines', 1, 'shipDate'] })]);
+    expect((await releaseRow(release.number)).status).toBe('sent');
+  });
+});
+
 describe('rate limit on the public confirmation routes', () => {
   it(`answers 429 in the error shape after ${CONFIRM_RATE_LIMIT} requests a minute from one address`, async () => {
     const limited = await createTestContext();

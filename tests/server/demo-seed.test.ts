@@ -84,7 +84,7 @@ describe('the demo plant’s story', () => {
 
     const dock = await new DockService(db).list();
 
-    const dueFirstDay = dock.filter((item) => item.needDate === firstDay).flatMap((item) => item.lines);
+    const dueFirstDay = dock.filter((item) => item.arrivalDate === firstDay).flatMap((item) => item.lines);
     expect(dueFirstDay.map((line) => line.partNumber).sort()).toEqual([...OPEN_KANBAN.dueToday].sort());
     const late = dock.filter((item) => item.overdue);
     expect(late.map((item) => item.supplierCode)).toEqual([LATE_SUPPLIER]);

@@ -12,6 +12,7 @@ import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { plantToday } from '../../server/planning/plan-dates';
 import { ReceiptEntity } from '../../server/dock/receipt.entity';
+import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { addCalendarDays } from '../../shared/domain/date';
@@ -35,10 +36,15 @@ interface LineSpec {
   cardId?: number | null;
 }
 
+interface ReleaseExtra extends Partial<ReleaseEntity> {
+  /** The column the release's lines stand in. */
+  dockColumn?: string;
+}
+
 async function makeRelease(
   status: string,
   lines: LineSpec[],
-  extra: Partial<ReleaseEntity> = {},
+  { dockColumn = 'expected', ...extra }: ReleaseExtra = {},
 ): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
   releaseDay += 1;
   const releaseDate = `2026-10-${String(releaseDay).padStart(2, '0')}`;
@@ -49,7 +55,6 @@ async function makeRelease(
     status,
     carrier: null,
     trackingNumber: null,
-    dockColumn: 'expected',
     ...extra,
   });
   const saved = await context.dataSource.getRepository(ReleaseLineEntity).save(
@@ -63,6 +68,7 @@ async function makeRelease(
       confirmedQty: null,
       receivedQty: line.receivedQty ?? 0,
       closed: line.closed ?? false,
+      dockColumn,
     })),
   );
   return { release, lines: saved };
@@ -74,13 +80,13 @@ async function listDock(role: Role = 'receiving'): Promise<DockItem[]> {
   return response.body as DockItem[];
 }
 
-function move(id: number, column: string, role: Role = 'receiving') {
+function move(id: string, column: string, role: Role = 'receiving') {
   return request(context.app).patch(`/api/dock/items/${id}`).set(bearer(context.tokens[role])).send({ column });
 }
 
 function upload(id: number, content: Buffer, fileName: string, role: Role = 'receiving') {
   return request(context.app)
-    .post(`/api/dock/items/${id}/attachments`)
+    .post(`/api/dock/releases/${id}/attachments`)
     .set(bearer(context.tokens[role]))
     .attach('file', content, fileName);
 }
@@ -122,7 +128,7 @@ afterAll(async () => {
 });
 
 describe('GET /api/dock', () => {
-  it('lists open releases with their lines, card numbers and hazard flag, ordered by column then need date', async () => {
+  it('lists a card per day of open lines, with card numbers and hazard flag, ordered by column then expected day', async () => {
     const loop = await context.dataSource
       .getRepository(KanbanLoopEntity)
       .save({ partNumber: 'CASTER-75', kind: 'supplier', containerQty: 4 });
@@ -155,17 +161,29 @@ describe('GET /api/dock', () => {
     await makeRelease('draft', [{ partNumber: 'BRUSH-20', qty: 6 }]);
     await makeRelease('cancelled', [{ partNumber: 'BRUSH-20', qty: 6 }]);
 
-    const items = await listDock();
+    const items = (await listDock()).filter((item) =>
+      [dueToday.release.id, later.release.id, atDock.release.id].includes(item.releaseId),
+    );
 
-    expect(items.map((item) => item.id)).toEqual([dueToday.release.id, later.release.id, atDock.release.id]);
-    const first = items[0];
+    // The release due today has lines due on two days: each day is its own card.
+    expect(items.map((item) => item.id)).toEqual([
+      `expected-${dueToday.release.id}-${today}`,
+      `expected-${dueToday.release.id}-${addCalendarDays(today, 1)}`,
+      `expected-${later.release.id}-${addCalendarDays(today, 2)}`,
+      `expected-${atDock.release.id}-${addCalendarDays(today, -1)}`,
+    ]);
+    const [first, second] = items;
     expect(first).toMatchObject({
+      kind: 'expected',
+      releaseId: dueToday.release.id,
+      shipNoticeId: null,
       number: dueToday.release.number,
       supplierCode: 'SUP-A',
       supplierName: 'Supplier A',
       column: 'expected',
       status: 'sent',
-      needDate: today,
+      shipDate: null,
+      arrivalDate: today,
       expectedToday: true,
       overdue: false,
       carrier: null,
@@ -173,14 +191,13 @@ describe('GET /api/dock', () => {
       hazardous: true,
       attachments: [],
     });
-    expect(first.lines).toEqual([
+    expect(first!.lines).toEqual([
       {
         id: dueToday.lines[0].id,
         partNumber: 'BATT-24V',
         description: 'Traction battery 24 V',
         uom: 'H87',
         qty: 4,
-        confirmedQty: null,
         receivedQty: 0,
         open: true,
         needDate: today,
@@ -191,13 +208,15 @@ describe('GET /api/dock', () => {
         unitWeightKg: 28,
         heavyLift: true,
       },
+    ]);
+    expect(second).toMatchObject({ arrivalDate: addCalendarDays(today, 1), expectedToday: false, hazardous: false });
+    expect(second!.lines).toEqual([
       {
         id: dueToday.lines[1].id,
         partNumber: 'CASTER-75',
         description: 'Caster 75 mm',
         uom: 'PR',
         qty: 4,
-        confirmedQty: null,
         receivedQty: 0,
         open: true,
         cardNumber: card.cardNumber,
@@ -210,13 +229,30 @@ describe('GET /api/dock', () => {
         heavyLift: false,
       },
     ]);
-    expect(items[1]).toMatchObject({
+    expect(items[2]).toMatchObject({
       carrier: 'Road freight',
       trackingNumber: 'TRK-0001',
       hazardous: false,
       expectedToday: false,
     });
-    expect(items[2]).toMatchObject({ column: 'at_dock', overdue: true, expectedToday: false });
+    expect(items[3]).toMatchObject({ column: 'at_dock', overdue: true, expectedToday: false });
+  });
+
+  it('dates an answered line by its arrival, not its need date', async () => {
+    const { release, lines } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 5, needDate: addCalendarDays(today, 3) },
+    ]);
+    await context.dataSource
+      .getRepository(ReleaseLineEntity)
+      .update({ id: lines[0].id }, { arrivalDate: addCalendarDays(today, 5) });
+
+    const item = (await listDock()).find((candidate) => candidate.releaseId === release.id);
+
+    expect(item).toMatchObject({
+      id: `expected-${release.id}-${addCalendarDays(today, 5)}`,
+      arrivalDate: addCalendarDays(today, 5),
+    });
+    expect(item!.lines[0]).toMatchObject({ needDate: addCalendarDays(today, 3) });
   });
 
   it('keeps a release received today on the board, and drops one received on an earlier day', async () => {
@@ -248,7 +284,7 @@ describe('GET /api/dock', () => {
       receivedAt: '2026-10-01T09:00:00.000Z',
     });
 
-    const ids = (await listDock()).map((item) => item.id);
+    const ids = (await listDock()).map((item) => item.releaseId);
 
     expect(ids).toContain(receivedNow.release.id);
     expect(ids).not.toContain(earlier.release.id);
@@ -266,14 +302,16 @@ describe('GET /api/dock', () => {
 });
 
 describe('PATCH /api/dock/items/:id', () => {
+  const keyOf = (release: ReleaseEntity, date = today) => `expected-${release.id}-${date}`;
+
   it('moves a card forward and back, audits each move and bumps the dock version', async () => {
     const { release } = await makeRelease('confirmed', [{ partNumber: 'BRUSH-20', qty: 3 }]);
 
-    const forward = await move(release.id, 'at_dock');
-    const back = await move(release.id, 'expected');
+    const forward = await move(keyOf(release), 'at_dock');
+    const back = await move(keyOf(release), 'expected');
 
     expect(forward.status).toBe(200);
-    expect(forward.body).toMatchObject({ id: release.id, column: 'at_dock' });
+    expect(forward.body).toMatchObject({ id: keyOf(release), releaseId: release.id, column: 'at_dock' });
     expect(back.status).toBe(200);
     expect(back.body.column).toBe('expected');
     const audit = await context.dataSource.getRepository(AuditEventEntity).find({
@@ -281,39 +319,250 @@ describe('PATCH /api/dock/items/:id', () => {
       order: { id: 'ASC' },
     });
     expect(audit.map((event) => event.changes)).toEqual([
-      { dockColumn: { from: 'expected', to: 'at_dock' } },
-      { dockColumn: { from: 'at_dock', to: 'expected' } },
+      { card: keyOf(release), dockColumn: { from: 'expected', to: 'at_dock' } },
+      { card: keyOf(release), dockColumn: { from: 'at_dock', to: 'expected' } },
     ]);
   });
 
-  it('keeps a fully received release at the line (409) but lets a partly received one go back', async () => {
+  it('moves only the lines expected that day; a later day of the same release stays Expected', async () => {
+    const tomorrow = addCalendarDays(today, 1);
+    const { release } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 3, needDate: today },
+      { partNumber: 'CASTER-75', qty: 2, needDate: tomorrow },
+    ]);
+
+    const moved = await move(keyOf(release), 'at_dock');
+
+    expect(moved.status).toBe(200);
+    const cards = (await listDock()).filter((item) => item.releaseId === release.id);
+    expect(cards.map((item) => [item.id, item.column])).toEqual([
+      [keyOf(release, tomorrow), 'expected'],
+      [keyOf(release), 'at_dock'],
+    ]);
+  });
+
+  it('keeps a fully received card at the line (409) but lets a partly received one go back', async () => {
     const received = await makeRelease('received', [{ partNumber: 'BRUSH-20', qty: 2, receivedQty: 2, closed: true }], {
       dockColumn: 'to_line',
+    });
+    await context.dataSource.getRepository(ReceiptEntity).save({
+      releaseLineId: received.lines[0].id,
+      shipNoticeId: null,
+      qty: 2,
+      discrepancy: null,
+      note: null,
+      final: false,
+      onHandAfter: 2,
+      userEmail: 'receiving@example.com',
+      idempotencyKey: 'dock-at-line',
+      receivedAt: new Date().toISOString(),
     });
     const partial = await makeRelease('partial', [{ partNumber: 'BRUSH-20', qty: 4, receivedQty: 2 }], {
       dockColumn: 'to_line',
     });
 
-    const refused = await move(received.release.id, 'counted');
-    const allowed = await move(partial.release.id, 'at_dock');
+    const refused = await move(keyOf(received.release), 'counted');
+    const allowed = await move(keyOf(partial.release), 'at_dock');
 
     expect(refused.status).toBe(409);
     expect(refused.body.error.code).toBe('conflict');
+    expect(refused.body.error.message).toMatch(/fully received and at the line/);
     expect(allowed.status).toBe(200);
   });
 
-  it('answers 404 for an unknown release, 400 for an unknown column, 403 for a role that may not move', async () => {
+  it('answers 404 for an unknown card, 400 for an unknown column, 403 for a role that may not move', async () => {
     const { release } = await makeRelease('sent', [{ partNumber: 'BRUSH-20', qty: 1 }]);
 
-    const unknown = await move(987_654, 'at_dock');
-    const badColumn = await move(release.id, 'on_truck');
-    const asBuyer = await move(release.id, 'at_dock', 'buyer');
-    const asAdmin = await move(release.id, 'at_dock', 'admin');
+    const unknown = await move('expected-987654-2026-12-01', 'at_dock');
+    const notAKey = await move('987654', 'at_dock');
+    const noNotice = await move('shipment-987654', 'at_dock');
+    const badColumn = await move(keyOf(release), 'on_truck');
+    const asBuyer = await move(keyOf(release), 'at_dock', 'buyer');
+    const asAdmin = await move(keyOf(release), 'at_dock', 'admin');
 
     expect(unknown.status).toBe(404);
+    expect(notAKey.status).toBe(404);
+    expect(noNotice.status).toBe(404);
     expect(badColumn.status).toBe(400);
     expect(asBuyer.status).toBe(403);
     expect(asAdmin.status).toBe(200);
+  });
+});
+
+describe('shipments on the dock', () => {
+  let key = 0;
+
+  function sendNotice(number: string, body: object) {
+    key += 1;
+    return request(context.app)
+      .post(`/api/releases/${number}/ship-notices`)
+      .set(bearer(context.tokens.supplier))
+      .set('Idempotency-Key', `dock-notice-${key}`)
+      .send(body);
+  }
+
+  function receive(body: object) {
+    key += 1;
+    return request(context.app)
+      .post('/api/receipts')
+      .set(bearer(context.tokens.receiving))
+      .set('Idempotency-Key', `dock-receipt-${key}`)
+      .send(body);
+  }
+
+  const cardsOf = async (releaseId: number) => (await listDock()).filter((item) => item.releaseId === releaseId);
+
+  it('shows each ship notice as its own card arriving ship date + transit, and the unshipped rest as Expected', async () => {
+    const dueLater = addCalendarDays(today, 20);
+    const { release, lines } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 12, needDate: dueLater },
+      { partNumber: 'CASTER-75', qty: 8, needDate: dueLater },
+    ]);
+    // SUP-A takes two working days on the road: shipped Friday 5 Mar 2027, the goods arrive
+    // Tuesday 9 Mar (5 Mar 2027 is a Friday by the Gregorian calendar; Fri + 2 working days, the
+    // weekend skipped, is Tue).
+    await context.dataSource.getRepository(SupplierEntity).update({ code: 'SUP-A' }, { transitDays: 2 });
+    const notice = await sendNotice(release.number, {
+      carrier: 'Road Freight Example',
+      trackingNumber: 'TRK-DOCK-1',
+      shipDate: '2027-03-05',
+      lines: [{ lineId: lines[0].id, qty: 5 }],
+    });
+    await context.dataSource.getRepository(SupplierEntity).update({ code: 'SUP-A' }, { transitDays: 0 });
+    expect(notice.status).toBe(201);
+    const noticeId = notice.body.notice.id as number;
+
+    const cards = await cardsOf(release.id);
+
+    expect(cards.map((item) => item.id)).toEqual([`expected-${release.id}-${dueLater}`, `shipment-${noticeId}`]);
+    const [rest, shipment] = cards;
+    expect(shipment).toMatchObject({
+      kind: 'shipment',
+      shipNoticeId: noticeId,
+      status: 'partial',
+      column: 'expected',
+      shipDate: '2027-03-05',
+      arrivalDate: '2027-03-09',
+      carrier: 'Road Freight Example',
+      trackingNumber: 'TRK-DOCK-1',
+    });
+    expect(shipment!.lines.map((line) => [line.partNumber, line.qty, line.receivedQty, line.open])).toEqual([
+      ['BRUSH-20', 5, 0, true],
+    ]);
+    // 12 − 5 of the brushes and all 8 casters are not shipped yet.
+    expect(rest!.lines.map((line) => [line.partNumber, line.qty, line.open])).toEqual([
+      ['BRUSH-20', 7, true],
+      ['CASTER-75', 8, true],
+    ]);
+  });
+
+  it('checks a shipment in against its own lines, moves only that card to Counted, and leaves the rest Expected', async () => {
+    const dueLater = addCalendarDays(today, 21);
+    const { release, lines } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 12, needDate: dueLater },
+      { partNumber: 'CASTER-75', qty: 8, needDate: dueLater },
+    ]);
+    const first = await sendNotice(release.number, {
+      carrier: 'Road Freight Example',
+      trackingNumber: 'TRK-DOCK-2',
+      shipDate: addCalendarDays(today, 1),
+      lines: [{ lineId: lines[0].id, qty: 6 }],
+    });
+    const second = await sendNotice(release.number, {
+      carrier: 'Road Freight Example',
+      trackingNumber: 'TRK-DOCK-3',
+      shipDate: addCalendarDays(today, 2),
+      lines: [{ lineId: lines[0].id, qty: 6 }],
+    });
+    const [firstId, secondId] = [first.body.notice.id as number, second.body.notice.id as number];
+
+    // The second truck comes first: its count is booked against it, not against the older notice.
+    const counted = await receive({ releaseLineId: lines[0].id, qty: 6, shipNoticeId: secondId });
+
+    expect(counted.status).toBe(201);
+    expect(counted.body.receipt.shipNoticeId).toBe(secondId);
+    const cards = await cardsOf(release.id);
+    const byId = new Map(cards.map((item) => [item.id, item]));
+    expect(byId.get(`shipment-${secondId}`)).toMatchObject({ column: 'counted' });
+    expect(byId.get(`shipment-${secondId}`)!.lines[0]).toMatchObject({ qty: 6, receivedQty: 6, open: false });
+    expect(byId.get(`shipment-${firstId}`)).toMatchObject({ column: 'expected' });
+    expect(byId.get(`shipment-${firstId}`)!.lines[0]).toMatchObject({ qty: 6, receivedQty: 0, open: true });
+    expect(byId.get(`expected-${release.id}-${dueLater}`)).toMatchObject({ column: 'expected' });
+    expect(byId.get(`expected-${release.id}-${dueLater}`)!.lines.map((line) => line.partNumber)).toEqual(['CASTER-75']);
+
+    // A count that names no shipment goes to the oldest one still waiting.
+    const unnamed = await receive({ releaseLineId: lines[0].id, qty: 6 });
+
+    expect(unnamed.body.receipt.shipNoticeId).toBe(firstId);
+    expect((await cardsOf(release.id)).find((item) => item.id === `shipment-${firstId}`)).toMatchObject({
+      column: 'counted',
+    });
+  });
+
+  it('refuses a count naming a shipment that does not carry the line (422) and records nothing', async () => {
+    const { release, lines } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 4, needDate: addCalendarDays(today, 22) },
+      { partNumber: 'CASTER-75', qty: 4, needDate: addCalendarDays(today, 22) },
+    ]);
+    const notice = await sendNotice(release.number, {
+      carrier: 'Road Freight Example',
+      trackingNumber: 'TRK-DOCK-4',
+      shipDate: addCalendarDays(today, 1),
+      lines: [{ lineId: lines[0].id, qty: 4 }],
+    });
+    const receiptsBefore = await context.dataSource.getRepository(ReceiptEntity).count();
+
+    const response = await receive({ releaseLineId: lines[1].id, qty: 4, shipNoticeId: notice.body.notice.id });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.details[0].path).toEqual(['shipNoticeId']);
+    expect(await context.dataSource.getRepository(ReceiptEntity).count()).toBe(receiptsBefore);
+  });
+
+  it('answers a replayed count once, and refuses the same key naming another shipment (409)', async () => {
+    const { release, lines } = await makeRelease('confirmed', [
+      { partNumber: 'BRUSH-20', qty: 4, needDate: addCalendarDays(today, 24) },
+    ]);
+    const send = (qty: number) =>
+      sendNotice(release.number, {
+        carrier: 'Road Freight Example',
+        trackingNumber: `TRK-DOCK-R${qty}`,
+        shipDate: addCalendarDays(today, 1),
+        lines: [{ lineId: lines[0].id, qty }],
+      });
+    const [first, second] = [(await send(2)).body.notice.id as number, (await send(2)).body.notice.id as number];
+    const count = (shipNoticeId: number) =>
+      request(context.app)
+        .post('/api/receipts')
+        .set(bearer(context.tokens.receiving))
+        .set('Idempotency-Key', `dock-replay-${release.id}`)
+        .send({ releaseLineId: lines[0].id, qty: 2, shipNoticeId });
+
+    const counted = await count(first);
+    const replayed = await count(first);
+    const otherShipment = await count(second);
+
+    expect([counted.status, replayed.status, otherShipment.status]).toEqual([201, 200, 409]);
+    expect(await context.dataSource.getRepository(ReceiptEntity).countBy({ releaseLineId: lines[0].id })).toBe(1);
+  });
+
+  it('moves a shipment card on its own', async () => {
+    const dueLater = addCalendarDays(today, 23);
+    const { release, lines } = await makeRelease('confirmed', [{ partNumber: 'BRUSH-20', qty: 4, needDate: dueLater }]);
+    const notice = await sendNotice(release.number, {
+      carrier: 'Road Freight Example',
+      trackingNumber: 'TRK-DOCK-5',
+      shipDate: addCalendarDays(today, 1),
+      lines: [{ lineId: lines[0].id, qty: 1 }],
+    });
+
+    const moved = await move(`shipment-${notice.body.notice.id}`, 'at_dock');
+
+    expect(moved.status).toBe(200);
+    expect((await cardsOf(release.id)).map((item) => [item.kind, item.column])).toEqual([
+      ['expected', 'expected'],
+      ['shipment', 'at_dock'],
+    ]);
   });
 });
 
@@ -322,7 +571,7 @@ describe('packing-slip attachments', () => {
     const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
 
     const uploaded = await upload(release.id, PNG, 'slip photo.png');
-    const item = (await listDock()).find((candidate) => candidate.id === release.id);
+    const item = (await listDock()).find((candidate) => candidate.releaseId === release.id);
     const downloaded = await request(context.app)
       .get(`/api/dock/attachments/${uploaded.body.id}`)
       .set(bearer(context.tokens.viewer))
@@ -385,7 +634,7 @@ describe('packing-slip attachments', () => {
     const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
 
     const response = await request(context.app)
-      .post(`/api/dock/items/${release.id}/attachments`)
+      .post(`/api/dock/releases/${release.id}/attachments`)
       .set(bearer(context.tokens.receiving))
       .attach('file', PDF, { filename: 'slip.pdf', contentType: 'application/octet-stream' });
 
@@ -397,13 +646,13 @@ describe('packing-slip attachments', () => {
     const { release } = await makeRelease('shipped', [{ partNumber: 'BRUSH-20', qty: 1 }]);
 
     const response = await request(context.app)
-      .post(`/api/dock/items/${release.id}/attachments`)
+      .post(`/api/dock/releases/${release.id}/attachments`)
       .set(bearer(context.tokens.receiving))
       .attach('file', EXE, { filename: 'slip.png', contentType: 'image/png' });
 
     expect(response.status).toBe(415);
     expect(response.body.error.code).toBe('unsupported_file_type');
-    expect((await listDock()).find((item) => item.id === release.id)?.attachments).toEqual([]);
+    expect((await listDock()).find((item) => item.releaseId === release.id)?.attachments).toEqual([]);
   });
 
   it.each(['received', 'cancelled'])(
@@ -461,7 +710,7 @@ describe('dock events', () => {
     const events = await openEventStream(server, bearer(context.tokens.viewer));
     const first = await events.next<{ version: number }>('dock');
 
-    await move(release.id, 'at_dock');
+    await move(`expected-${release.id}-${today}`, 'at_dock');
     const second = await events.next<{ version: number }>('dock');
 
     expect(second.version).toBeGreaterThan(first.version);

@@ -12,7 +12,7 @@ afterAll(() => context.close());
 describe('malformed multipart bodies', () => {
   it.each([
     ['an import', '/api/imports/parts', 'buyer'],
-    ['a packing slip', '/api/dock/items/1/attachments', 'receiving'],
+    ['a packing slip', '/api/dock/releases/1/attachments', 'receiving'],
   ] as const)('answer 400, not 500, on %s without a boundary or cut short', async (_what, path, role) => {
     const noBoundary = await request(context.app)
       .post(path)

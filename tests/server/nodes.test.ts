@@ -71,7 +71,6 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
       sentAt: new Date().toISOString(),
       carrier: null,
       trackingNumber: null,
-      dockColumn: 'expected',
     });
     const line = await nodeA.dataSource.getRepository(ReleaseLineEntity).save({
       releaseId: release.id,
@@ -166,7 +165,7 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     );
 
     const uploaded = await request(nodeA.app)
-      .post(`/api/dock/items/${releaseId}/attachments`)
+      .post(`/api/dock/releases/${releaseId}/attachments`)
       .set(bearer(nodeA.tokens.receiving))
       .attach('file', pdf, 'slip.pdf');
     const fromB = await request(nodeB.app)

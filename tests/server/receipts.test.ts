@@ -41,7 +41,6 @@ async function makeRelease(
     sentAt: `${releaseDate}T06:00:00.000Z`,
     carrier: null,
     trackingNumber: null,
-    dockColumn: 'expected',
   });
   const saved = await context.dataSource.getRepository(ReleaseLineEntity).save(
     lines.map((line) => ({
@@ -119,8 +118,8 @@ describe('POST /api/receipts', () => {
       ref: release.number,
       userEmail: 'receiving@example.com',
     });
-    expect(await lineOf(lines[0].id)).toMatchObject({ receivedQty: 40, closed: true });
-    expect(await releaseOf(release.id)).toMatchObject({ status: 'received', dockColumn: 'counted' });
+    expect(await lineOf(lines[0].id)).toMatchObject({ receivedQty: 40, closed: true, dockColumn: 'counted' });
+    expect(await releaseOf(release.id)).toMatchObject({ status: 'received' });
     expect(await readPlanningVersion(context.dataSource.manager)).toBeGreaterThan(planningBefore);
     expect(await readDockVersion(context.dataSource.manager)).toBeGreaterThan(dockBefore);
     const audit = await context.dataSource
@@ -271,6 +270,32 @@ describe('POST /api/receipts', () => {
     expect(scans.map((scan) => [scan.event, scan.fromState, scan.toState, scan.userEmail])).toEqual([
       ['receive', 'shipped', 'full', 'receiving@example.com'],
     ]);
+  });
+
+  it('sends the card of a line closed with nothing usable back to empty, not full', async () => {
+    // The caster's loop from the test before.
+    const loop = await context.dataSource.getRepository(KanbanLoopEntity).findOneByOrFail({ partNumber: 'CASTER-75' });
+    const card = await context.dataSource.getRepository(KanbanCardEntity).save({
+      loopId: loop.id,
+      cardIndex: 2,
+      cardNumber: cardNumber(loop.id, 2),
+      state: 'ordered',
+      stateChangedAt: '2026-11-30T08:00:00.000Z',
+      retiredAt: null,
+      releaseLineId: null,
+    });
+    const { lines } = await makeRelease('confirmed', [{ partNumber: 'CASTER-75', qty: 6, cardId: card.id }]);
+    const before = await onHandOf('CASTER-75');
+
+    const response = await receive({ releaseLineId: lines[0].id, qty: 6, discrepancy: 'damaged', close: true });
+
+    expect(response.status).toBe(201);
+    expect(await onHandOf('CASTER-75')).toBe(before);
+    expect(await lineOf(lines[0].id)).toMatchObject({ closed: true, receivedQty: 0 });
+    expect(await context.dataSource.getRepository(KanbanCardEntity).findOneByOrFail({ id: card.id })).toMatchObject({
+      state: 'empty',
+      releaseLineId: null,
+    });
   });
 
   it('refuses a closed line with 409 and counts nothing', async () => {

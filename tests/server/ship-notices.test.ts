@@ -10,6 +10,7 @@ import { ReleaseEntity } from '../../server/releases/release.entity';
 import { ShipNoticeEntity } from '../../server/ship-notices/ship-notice.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { cardNumber } from '../../shared/domain/gs1';
+import type { DockItem } from '../../shared/schemas/dock';
 import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';
 import type { ShippingView } from '../../shared/schemas/ship-notices';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
@@ -211,6 +212,31 @@ describe('POST /api/shipping/:token (the link in the confirmation receipt)', () 
       .findOneBy({ action: 'ship-notice', entityKey: release.number });
     expect(audit).not.toBeNull();
     expect(unknown.status).toBe(404);
+  });
+});
+
+describe('ship notices on the dock board', () => {
+  it('shows a notice sent by link as its own card arriving ship date + transit, and the rest as Expected', async () => {
+    // Two working days on the road: shipped Monday 1 Mar 2027 arrives Wednesday 3 Mar (1 Mar 2027
+    // is a Monday by the Gregorian calendar; Mon + 2 working days = Wed).
+    await context.dataSource.getRepository(SupplierEntity).update({ code: 'SUP-A' }, { transitDays: 2 });
+    const { release, shippingToken } = await confirmedRelease();
+    const [k, w] = [lineOf(release, 'K'), lineOf(release, 'W')];
+
+    await sendByLink(shippingToken, { ...shipment, lines: [{ lineId: k.id, qty: 10 }] });
+    const board = await request(context.app).get('/api/dock').set(bearer(context.tokens.receiving));
+    const answered = await readRelease(release.number);
+
+    await context.dataSource.getRepository(SupplierEntity).update({ code: 'SUP-A' }, { transitDays: 0 });
+    const cards = (board.body as DockItem[]).filter((card) => card.number === release.number);
+    const byKind = (kind: string) => cards.find((card) => card.kind === kind)!;
+    expect(cards).toHaveLength(2);
+    expect(byKind('shipment')).toMatchObject({ arrivalDate: '2027-03-03', carrier: 'Road Freight Example' });
+    expect(byKind('shipment').lines.map((line) => [line.id, line.qty])).toEqual([[k.id, 10]]);
+    // W is not on the truck: it waits on the day its answered ship date brings it.
+    const wAnswered = (answered.body as Release).lines.find((line) => line.id === w.id)!;
+    expect(byKind('expected').arrivalDate).toBe(wAnswered.arrivalDate);
+    expect(byKind('expected').lines.map((line) => [line.id, line.qty])).toEqual([[w.id, 25]]);
   });
 });
 

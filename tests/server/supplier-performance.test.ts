@@ -49,7 +49,6 @@ async function makeRelease(
     confirmedAt,
     carrier: null,
     trackingNumber: null,
-    dockColumn: 'expected',
   });
   for (const spec of lines) {
     const saved = await context.dataSource.getRepository(ReleaseLineEntity).save({

@@ -6,6 +6,8 @@ import {
   IllegalCardTransitionError,
   isCardState,
   nextCardState,
+  SCAN_EVENTS,
+  scanRefusal,
   type CardEvent,
   type CardState,
 } from '../../shared/domain/card-cycle';
@@ -84,5 +86,15 @@ describe('card cycle', () => {
     expect(CARD_STATES.every(isCardState)).toBe(true);
     expect(isCardState('signalled')).toBe(false);
     expect(isCardState(3)).toBe(false);
+  });
+});
+
+describe('scanRefusal', () => {
+  it('lets a scan empty a full card and refuses the steps that come from releases, ship notices and receipts', () => {
+    expect(SCAN_EVENTS).toEqual(['consume']);
+    expect(scanRefusal('consume')).toBeNull();
+    expect(scanRefusal('release')).toMatch(/release line/);
+    expect(scanRefusal('ship')).toMatch(/ship notice/);
+    expect(scanRefusal('receive')).toMatch(/counted in at the dock/);
   });
 });

@@ -8,6 +8,7 @@ import { SupplierTiming1765000000000 } from './1765000000000-supplier-timing';
 import { OpenOrders1765050000000 } from './1765050000000-open-orders';
 import { PartSafety1765100000000 } from './1765100000000-part-safety';
 import { ShipNotices1765150000000 } from './1765150000000-ship-notices';
+import { DockShipments1765200000000 } from './1765200000000-dock-shipments';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -21,4 +22,5 @@ export const migrations = [
   OpenOrders1765050000000,
   PartSafety1765100000000,
   ShipNotices1765150000000,
+  DockShipments1765200000000,
 ];

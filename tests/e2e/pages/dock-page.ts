@@ -1,6 +1,6 @@
 import { expect, type Locator, type Page } from '@playwright/test';
 
-/** The Dock board: four columns of release cards, a scan box, and the check-in dialog. */
+/** The Dock board: four columns of cards (a shipment, or a day not yet shipped), a scan box, and the check-in dialog. */
 export class DockPage {
   constructor(private readonly page: Page) {}
 
@@ -23,7 +23,13 @@ export class DockPage {
     return column.locator('[data-test="dock-card"]');
   }
 
-  card(releaseNumber: string): Locator {
+  /** A card by its key: `shipment-<notice id>` or `expected-<release id>-<day>`. */
+  card(key: string): Locator {
+    return this.page.locator(`[data-test="dock-card"][data-card="${key}"]`);
+  }
+
+  /** Every card of a release: its shipments and its days not yet shipped. */
+  cardsOf(releaseNumber: string): Locator {
     return this.page.locator(`[data-test="dock-card"][data-release="${releaseNumber}"]`);
   }
 
@@ -41,7 +47,10 @@ export class DockPage {
     await this.page.mouse.move(startX, startY);
     await this.page.mouse.down();
     await this.page.mouse.move(startX + 6, startY + 6, { steps: 3 });
-    await this.page.mouse.move(target.x + target.width / 2, target.y + 40, { steps: 15 });
+    // Level with the card (the columns run as long as the longest), so a card far down a long
+    // column is dropped on the part of the target column that is on screen.
+    const dropY = Math.min(Math.max(startY, target.y + 40), target.y + target.height - 20);
+    await this.page.mouse.move(target.x + target.width / 2, dropY, { steps: 15 });
     await this.page.mouse.up();
   }
 
@@ -61,7 +70,7 @@ export class DockPage {
     return this.checkInDialog().locator('[data-test="check-in-line"]');
   }
 
-  /** What the line says was ordered, e.g. 36 of "36 pcs". */
+  /** What the line brings on its card, e.g. 36 of "36 pcs". */
   async orderedQty(line: Locator): Promise<number> {
     return Number((await line.locator('[data-test="ordered-qty"]').innerText()).split(' ')[0]);
   }
