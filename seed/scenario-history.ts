@@ -165,12 +165,17 @@ export interface OpenKanbanDelivery {
   supplierNote: string | null;
 }
 
-/** Open kanban orders: two due at the dock on `firstDay`, one of the late supplier overdue, one answered with a later date. */
+/**
+ * Open kanban orders: two due at the dock on `firstDay`, one of the late supplier overdue, one
+ * answered with a later date; and a card emptied at the line the day before, which the first
+ * day's release run orders.
+ */
 export const OPEN_KANBAN = {
   dueToday: ['WHL-250', 'FK-FRM'],
   overdue: 'BRM-04',
   later: 'BRU-16',
   exception: 'PMP-S24',
+  emptied: 'HNS-M20',
 } as const;
 
 /** The kanban orders still open when the demo starts; every one a container of a right-sized loop. */

@@ -21,11 +21,13 @@ import { PlanningService } from '../server/planning/planning.service';
 import { bumpPlanningVersion } from '../server/settings/versions';
 import { cardNumber } from '../shared/domain/gs1';
 import { buildDemoScenario, type DemoScenario } from './scenario';
-import { openKanbanDeliveries, pastReleases } from './scenario-history';
+import { OPEN_KANBAN, openKanbanDeliveries, pastReleases } from './scenario-history';
+import { addWorkingDays } from '../shared/domain/calendar';
 import { COUNT_TO_CHECK, OVERSIZED_LOOP, UNDERSIZED_LOOP } from './scenario-stock';
 import {
   instantOn,
   receiptMovements,
+  writeEmptiedCard,
   writeOpenKanbanDeliveries,
   writePastReleases,
   writeSentReleaseMail,
@@ -203,5 +205,6 @@ export async function seedDemoScenario(db: Database, seedDay: string, options: S
     db,
     openKanbanDeliveries(scenario.parts, scenario.suppliers, scenario.calendar, scenario.sequence[0].date),
   );
+  await writeEmptiedCard(db, OPEN_KANBAN.emptied, addWorkingDays(scenario.sequence[0].date, -1, scenario.calendar));
   await writeSentReleaseMail(db, options.appUrl ?? DEFAULT_APP_URL);
 }

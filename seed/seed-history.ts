@@ -185,6 +185,19 @@ export async function writeOpenKanbanDeliveries(
   });
 }
 
+/** A card the line emptied the day before the demo starts: its container waits for the next release run. */
+export async function writeEmptiedCard(db: Database, partNumber: string, emptiedOn: string): Promise<void> {
+  await db.write(async (manager) => {
+    const loop = await manager.findOneByOrFail(KanbanLoopEntity, { partNumber, kind: 'supplier' });
+    await manager.update(
+      KanbanCardEntity,
+      { loopId: loop.id, cardIndex: 1 },
+      { state: 'empty', stateChangedAt: instantOn(emptiedOn, 14 * 60) },
+    );
+    await bumpPlanningVersion(manager);
+  });
+}
+
 /**
  * The release e-mails as the mail server took them: the same message the release run composes,
  * its single-use link already removed as the Outbox does once a message is sent.

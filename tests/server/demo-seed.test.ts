@@ -94,6 +94,15 @@ describe('the demo plant’s story', () => {
     expect(Number(waiting[0].n)).toBe(1);
   });
 
+  it('has one card emptied at the line the day before, waiting for the first release run', async () => {
+    const empty: { partNumber: string }[] = await db.manager.query(
+      `SELECT l.part_number AS "partNumber" FROM kanban_card c JOIN kanban_loop l ON l.id = c.loop_id
+       WHERE c.state = 'empty'`,
+    );
+
+    expect(empty.map((card) => card.partNumber)).toEqual([OPEN_KANBAN.emptied]);
+  });
+
   it('scores a late supplier, a short delivery and an early one from the weeks before', async () => {
     const performance = await new SupplierPerformanceService(db).performance({});
     const total = (code: string, key: 'lines' | 'lateLines' | 'earlyLines' | 'requestedQty' | 'filledQty') =>
