@@ -8,7 +8,7 @@ import { seedDemoScenario } from './seed-demo';
 const config = loadConfig();
 const db = await openDatabase(databaseTarget(config, process.cwd()));
 if (await isDatabaseEmpty(db)) {
-  await seedDemoScenario(db, plantToday());
+  await seedDemoScenario(db, plantToday(), { appUrl: config.APP_URL });
   console.log(`Seeded the demo scenario into ${databaseLabel(config)}.`);
 } else {
   console.log(`${databaseLabel(config)} already holds data; nothing seeded.`);

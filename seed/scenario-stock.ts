@@ -20,6 +20,8 @@ export const SHORT_COVER_DAYS: Record<string, number> = {
  */
 export const UNDERSIZED_LOOP = { partNumber: 'GRP-W', lostCards: 2, coverDays: 10 };
 export const COUNT_TO_CHECK = 'DRM-R15';
+/** A kanban loop with more cards than its demand needs: the buyer may take two out. */
+export const OVERSIZED_LOOP = { partNumber: 'SQB-F20', extraCards: 2 };
 
 const MIN_COVER_DAYS = 12;
 const COVER_SPREAD_DAYS = 9;

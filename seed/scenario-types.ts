@@ -55,6 +55,8 @@ export interface DemoUser {
 /** The whole invented demo data set, plain data ready to persist. */
 export interface DemoScenario {
   calendar: PlantCalendar;
+  /** The calendar's holidays with their names. */
+  shutdowns: { date: IsoDate; name: string }[];
   suppliers: DemoSupplier[];
   parts: DemoPart[];
   bom: DemoBomLine[];

@@ -1,5 +1,6 @@
 import { addCalendarDays, addWorkingDays, nextWorkingDay } from '../shared/domain/calendar';
 import type { IsoDate, PlantCalendar } from '../shared/domain/types';
+import { demoShutdowns, type PlantShutdown } from './scenario-calendar';
 import { dailyGrossDemand } from './scenario-demand';
 import { BOUGHT, ENGINEERING_CHANGE, MADE, MODELS, FS20W, FS26W, FS32R, FS40R } from './scenario-parts';
 import { buildSequence, type ModelQuota } from './scenario-sequence';
@@ -13,9 +14,6 @@ export type * from './scenario-types';
 export const SEQUENCE_DAYS = 30;
 /** Working days before the sequence whose units are already built, so the stock ledger has history. */
 export const HISTORY_DAYS = 15;
-
-/** The working day (counted from the first, which is 1) that the demo turns into a holiday. */
-const HOLIDAY_WORKING_DAY = 12;
 
 const WORKING_WEEKDAYS = [1, 2, 3, 4, 5];
 
@@ -37,14 +35,16 @@ function quotasForDay(dayIndex: number): ModelQuota[] {
   return [FS20W, FS26W, FS32R, FS40R].map((model, index) => ({ model, qty: mix[index] }));
 }
 
-/** First build day, the holiday inside the window, and the working days of the sequence. */
-function demoCalendar(seedDay: IsoDate): { calendar: PlantCalendar; days: IsoDate[] } {
-  const weekdaysOnly: PlantCalendar = { workingWeekdays: WORKING_WEEKDAYS, holidays: [] };
-  const start = nextWorkingDay(seedDay, weekdaysOnly);
-  const holiday = addWorkingDays(start, HOLIDAY_WORKING_DAY - 1, weekdaysOnly);
-  const calendar: PlantCalendar = { workingWeekdays: [...WORKING_WEEKDAYS], holidays: [holiday] };
+/** The plant calendar with its shutdown days, and the working days of the sequence from the first build day. */
+function demoCalendar(seedDay: IsoDate): { calendar: PlantCalendar; shutdowns: PlantShutdown[]; days: IsoDate[] } {
+  const shutdowns = demoShutdowns(seedDay);
+  const calendar: PlantCalendar = {
+    workingWeekdays: [...WORKING_WEEKDAYS],
+    holidays: shutdowns.map((shutdown) => shutdown.date),
+  };
+  const start = nextWorkingDay(seedDay, calendar);
   const days = Array.from({ length: SEQUENCE_DAYS }, (_, index) => addWorkingDays(start, index, calendar));
-  return { calendar, days };
+  return { calendar, shutdowns, days };
 }
 
 /** BOM lines read off the catalogue, with the engineering change's effectivity on its two lines. */
@@ -135,7 +135,7 @@ function demoParts(demand: Map<string, number[]>, supplierLeadTimes: Map<string,
  * the same `seedDay` always yields the same data.
  */
 export function buildDemoScenario(seedDay: IsoDate): DemoScenario {
-  const { calendar, days } = demoCalendar(seedDay);
+  const { calendar, shutdowns, days } = demoCalendar(seedDay);
   const bom = demoBom(days[ENGINEERING_CHANGE.workingDaysFromStart]);
   const sequence = buildSequence(days, quotasForDay);
   // The history continues the same level mix backwards, so past days look like the days ahead.
@@ -146,5 +146,5 @@ export function buildDemoScenario(seedDay: IsoDate): DemoScenario {
   const suppliers = demoSuppliers();
   const supplierLeadTimes = new Map(suppliers.map((supplier) => [supplier.code, supplier.leadTimeDays]));
   const parts = demoParts(dailyGrossDemand(bom, sequence, days), supplierLeadTimes);
-  return { calendar, suppliers, parts, bom, sequence, history, users: demoUsers() };
+  return { calendar, shutdowns, suppliers, parts, bom, sequence, history, users: demoUsers() };
 }

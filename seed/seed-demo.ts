@@ -1,6 +1,7 @@
 import type { Database } from '../server/db/database';
 import { recordAudit } from '../server/audit/audit.service';
 import { hashPassword } from '../server/users/passwords';
+import { DEMO_ACCOUNTS } from '../server/users/bootstrap';
 import { writeCalendar } from '../server/calendar/calendar.service';
 import { syncLoops } from '../server/loops/loop-sync';
 import { writeSequenceSettings } from '../server/sequence/sequence-settings';
@@ -20,24 +21,29 @@ import { PlanningService } from '../server/planning/planning.service';
 import { bumpPlanningVersion } from '../server/settings/versions';
 import { cardNumber } from '../shared/domain/gs1';
 import { buildDemoScenario, type DemoScenario } from './scenario';
-import { COUNT_TO_CHECK, UNDERSIZED_LOOP } from './scenario-stock';
+import { OPEN_KANBAN, openKanbanDeliveries, pastReleases } from './scenario-history';
+import { addWorkingDays } from '../shared/domain/calendar';
+import { COUNT_TO_CHECK, OVERSIZED_LOOP, UNDERSIZED_LOOP } from './scenario-stock';
+import {
+  instantOn,
+  receiptMovements,
+  writeEmptiedCard,
+  writeOpenKanbanDeliveries,
+  writePastReleases,
+  writeSentReleaseMail,
+} from './seed-history';
+
+const DEFAULT_APP_URL = 'http://localhost:3000';
 
 /** Every demo account shares this password; it exists only in the demo database. */
 export const DEMO_PASSWORD = 'cardloop-demo';
-/** Setting holding the e-mail addresses of the accounts the demo seed created. */
-export const DEMO_ACCOUNTS = 'demo.accounts';
-
-/** An instant on a plant day: `minutes` after local midnight. */
-function instantOn(date: string, minutes: number): string {
-  const midnight = new Date(`${date}T00:00:00`);
-  return new Date(midnight.getTime() + minutes * 60_000).toISOString();
-}
 
 /**
  * The weeks before the sequence: every unit was built and backflushed, one every 18 minutes from
- * 07:00. Stock opened on the first of those days with what the plant holds now plus what those
- * units consumed, so the ledger has history and on-hand is exactly what its movements say. Made
- * subassemblies were made for those units just in time: their stock is the opening one.
+ * 07:00, and the past releases were received at the dock. Stock opened on the first of those days
+ * with what the plant holds now plus what those units consumed less what came in, so the ledger has
+ * history and on-hand is exactly what its movements say. Made subassemblies were made for those
+ * units just in time: their stock is the opening one.
  */
 async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario): Promise<void> {
   await upsertSequenceEntries(manager, scenario.history);
@@ -63,16 +69,35 @@ async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario):
       });
     }
   }
-  const opened = instantOn(scenario.history[0]?.date ?? scenario.sequence[0].date, 6 * 60);
+  const historyStart = scenario.history[0]?.date ?? scenario.sequence[0].date;
+  const opened = instantOn(historyStart, 6 * 60);
+  const past = pastReleases(
+    scenario.parts,
+    scenario.suppliers,
+    scenario.calendar,
+    historyStart,
+    scenario.sequence[0].date,
+    consumedInTotal,
+  );
+  const receipts = receiptMovements(past);
+  const receivedInTotal = new Map<string, number>();
+  for (const receipt of receipts) {
+    receivedInTotal.set(receipt.partNumber, roundQty((receivedInTotal.get(receipt.partNumber) ?? 0) + receipt.qty));
+  }
   const opening: NewMovement[] = scenario.parts.map((part) => ({
     partNumber: part.partNumber,
-    qty: roundQty(part.onHand + (consumedInTotal.get(part.partNumber) ?? 0)),
+    qty: roundQty(
+      part.onHand + (consumedInTotal.get(part.partNumber) ?? 0) - (receivedInTotal.get(part.partNumber) ?? 0),
+    ),
     kind: 'opening',
     userEmail: null,
     reason: 'On-hand when the plant started with Cardloop',
     at: opened,
   }));
-  await postMovements(manager, [...opening, ...unitMovements]);
+  // In time order, so each movement's balance is the part's on-hand at that moment.
+  const movements = [...opening, ...unitMovements, ...receipts].sort((a, b) => a.at!.localeCompare(b.at!));
+  const posted = await postMovements(manager, movements);
+  await writePastReleases(manager, past, posted);
   for (const [serial, at] of builtAt) {
     await manager.update(SequenceEntryEntity, { serial }, { status: 'built', builtAt: at });
   }
@@ -99,14 +124,15 @@ const CARD_INSERT_CHUNK = 200;
 /**
  * The buyer printed every kanban loop's recommended cards when the plant started, all full, so
  * each loop supplies its part; the one planted loop lost two cards on the floor that were never
- * replaced, and runs short.
+ * replaced, and runs short. Another kept two cards from before its demand fell: a loop to shrink.
  */
 async function seedLoopCards(db: Database): Promise<void> {
   const loops = await new LoopsService(db, new PlanningService(db)).listLoops();
   const now = new Date().toISOString();
   const rows = loops.flatMap((loop) => {
     const lost = loop.partNumber === UNDERSIZED_LOOP.partNumber ? UNDERSIZED_LOOP.lostCards : 0;
-    const count = Math.max(0, loop.recommendedCards - lost);
+    const extra = loop.partNumber === OVERSIZED_LOOP.partNumber ? OVERSIZED_LOOP.extraCards : 0;
+    const count = Math.max(0, loop.recommendedCards - lost + extra);
     return Array.from({ length: count }, (_, offset) => ({
       loopId: loop.id,
       cardIndex: offset + 1,
@@ -125,12 +151,24 @@ async function seedLoopCards(db: Database): Promise<void> {
   });
 }
 
-/** Writes the invented demo plant into an empty database in one transaction, then issues its kanban cards. */
-export async function seedDemoScenario(db: Database, seedDay: string): Promise<void> {
+/** Where e-mailed links of the demo's past releases pointed. */
+interface SeedOptions {
+  appUrl?: string;
+}
+
+/**
+ * Writes the invented demo plant into an empty database in one transaction, then issues its kanban
+ * cards, the containers still on their way and the release mail already sent.
+ */
+export async function seedDemoScenario(db: Database, seedDay: string, options: SeedOptions = {}): Promise<void> {
   const scenario = buildDemoScenario(seedDay);
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   await db.write(async (manager) => {
-    await writeCalendar(manager, scenario.calendar);
+    await writeCalendar(
+      manager,
+      scenario.calendar,
+      new Map(scenario.shutdowns.map((shutdown) => [shutdown.date, shutdown.name])),
+    );
     await upsertSuppliers(manager, scenario.suppliers);
     await upsertParts(manager, scenario.parts);
     await replaceBomLines(manager, scenario.bom);
@@ -163,4 +201,10 @@ export async function seedDemoScenario(db: Database, seedDay: string): Promise<v
     });
   });
   await seedLoopCards(db);
+  await writeOpenKanbanDeliveries(
+    db,
+    openKanbanDeliveries(scenario.parts, scenario.suppliers, scenario.calendar, scenario.sequence[0].date),
+  );
+  await writeEmptiedCard(db, OPEN_KANBAN.emptied, addWorkingDays(scenario.sequence[0].date, -1, scenario.calendar));
+  await writeSentReleaseMail(db, options.appUrl ?? DEFAULT_APP_URL);
 }

@@ -12,8 +12,8 @@ import { startJobs } from './jobs/scheduler';
 import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
 import { startFakeSmtp } from './outbox/fake-smtp';
 import { OutboxDispatcher } from './outbox/outbox.service';
-import { ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
+import { DEMO_ACCOUNTS, ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
+import { DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
 import { readSetting } from './settings/settings';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
@@ -30,7 +30,7 @@ async function main(): Promise<void> {
   if (config.SEED_DEMO === '1') {
     if (await isDatabaseEmpty(db)) {
       console.log('Empty database: seeding the demo scenario…');
-      await seedDemoScenario(db, plantToday());
+      await seedDemoScenario(db, plantToday(), { appUrl: config.APP_URL });
     }
     demoSignIns = await listDemoSignIns(db);
   } else {

@@ -17,26 +17,41 @@ export async function readCalendar(manager: EntityManager): Promise<Calendar> {
   return { workingWeekdays, holidays: holidays.map((holiday) => holiday.date) };
 }
 
-/** Replaces the calendar whole; every lead-time offset moves with it. */
-export async function writeCalendar(manager: EntityManager, calendar: Calendar): Promise<Calendar> {
+/**
+ * Replaces the calendar whole; every lead-time offset moves with it. A holiday that stays keeps its
+ * name; `names` names new ones (the demo's shutdown days).
+ */
+export async function writeCalendar(
+  manager: EntityManager,
+  calendar: Calendar,
+  names: ReadonlyMap<string, string> = new Map(),
+): Promise<Calendar> {
   const workingWeekdays = [...calendar.workingWeekdays].sort((a, b) => a - b);
   await writeSetting(manager, WORKING_WEEKDAYS, workingWeekdays);
+  const kept = new Map((await manager.find(HolidayEntity)).map((holiday) => [holiday.date, holiday.name]));
   await manager.clear(HolidayEntity);
   if (calendar.holidays.length > 0) {
     await manager.insert(
       HolidayEntity,
-      calendar.holidays.map((date) => ({ date, name: '' })),
+      calendar.holidays.map((date) => ({ date, name: names.get(date) ?? kept.get(date) ?? '' })),
     );
   }
   await bumpPlanningVersion(manager);
   return readCalendar(manager);
 }
 
+/** The names of the holidays that have one, by date. */
+async function readHolidayNames(manager: EntityManager): Promise<Record<string, string>> {
+  const holidays = await manager.find(HolidayEntity);
+  return Object.fromEntries(holidays.filter((holiday) => holiday.name).map((holiday) => [holiday.date, holiday.name]));
+}
+
 export class CalendarService {
   constructor(private readonly db: Database) {}
 
   async get(): Promise<VersionedCalendar> {
-    return withVersion(await readCalendar(this.db.manager));
+    const manager = this.db.manager;
+    return { ...withVersion(await readCalendar(manager)), holidayNames: await readHolidayNames(manager) };
   }
 
   update(calendar: Calendar, actorEmail: string, basedOn?: string): Promise<VersionedCalendar> {
@@ -51,7 +66,7 @@ export class CalendarService {
         entityKey: 'plant',
         changes: { before, after },
       });
-      return withVersion(after);
+      return { ...withVersion(after), holidayNames: await readHolidayNames(manager) };
     });
   }
 }

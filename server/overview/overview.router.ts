@@ -17,5 +17,17 @@ export function createOverviewRouter(services: Services, deps: RouteDeps): Route
     handler: ({ user }) => services.overview.overview(user),
   });
 
+  defineRoute(router, deps, {
+    method: 'post',
+    path: '/overview/first-run-guide/dismiss',
+    summary: 'Put the first-run guide away for the signed-in user',
+    access: ROLES,
+    status: 204,
+    handler: async ({ user, res }) => {
+      await services.overview.dismissGuide(user);
+      res.status(204).end();
+    },
+  });
+
   return router;
 }

@@ -14,6 +14,13 @@ import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
 import { readSequenceSettings } from '../sequence/sequence-settings';
+import { readSetting, writeSetting } from '../settings/settings';
+import { DEMO_ACCOUNTS } from '../users/bootstrap';
+
+/** Setting that remembers one user put the first-run guide away. */
+function guideDismissedKey(user: AuthenticatedUser): string {
+  return `overview.guideDismissed.${user.id}`;
+}
 
 /** Working days ahead the planner's capacity figure covers when the frozen window is shorter. */
 const CAPACITY_DAYS = 5;
@@ -37,7 +44,26 @@ export class OverviewService {
   ) {}
 
   async overview(user: AuthenticatedUser): Promise<Overview> {
-    return { role: user.role, today: this.today(), figures: await this.figuresFor(user.role, user) };
+    return {
+      role: user.role,
+      today: this.today(),
+      figures: await this.figuresFor(user.role, user),
+      firstRunGuide: await this.showsGuide(user),
+    };
+  }
+
+  /** The first-run guide is for the demo's own accounts, until each person puts it away. */
+  private async showsGuide(user: AuthenticatedUser): Promise<boolean> {
+    const demoAccounts = await readSetting<string[]>(this.db.manager, DEMO_ACCOUNTS, []);
+    if (!demoAccounts.includes(user.email)) return false;
+    return !(await readSetting<boolean>(this.db.manager, guideDismissedKey(user), false));
+  }
+
+  /** Puts the first-run guide away for this user, on every device; doing it twice changes nothing. */
+  dismissGuide(user: AuthenticatedUser): Promise<void> {
+    return this.db.write(async (manager) => {
+      await writeSetting(manager, guideDismissedKey(user), true);
+    });
   }
 
   private figuresFor(role: Role, user: AuthenticatedUser): Promise<OverviewFigure[]> {

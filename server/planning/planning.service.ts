@@ -82,7 +82,10 @@ export class PlanningService {
     ) {
       throw new NotFoundError(`No supplier ${options.supplierCode}.`);
     }
-    return grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode });
+    return {
+      ...grossDemandByDay(result, inputs.parts, { supplierCode: options.supplierCode }),
+      sequenceEnds: inputs.sequence.at(-1)?.date ?? null,
+    };
   }
 
   /**

@@ -39,6 +39,7 @@ export class SupplierViewService {
       today,
       frozenUntil: frozen,
       days: demand.days,
+      sequenceEnds: demand.sequenceEnds,
       parts: demand.rows.map((row) => {
         const part = partsByNumber.get(row.partNumber);
         const leadTimeDays = part?.leadTimeDays ?? 0;

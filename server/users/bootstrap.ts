@@ -2,6 +2,9 @@ import type { Database } from '../db/database';
 import { hashPassword } from './passwords';
 import { UserEntity } from './user.entity';
 
+/** Setting holding the e-mail addresses of the accounts the demo seed created. */
+export const DEMO_ACCOUNTS = 'demo.accounts';
+
 export async function isDatabaseEmpty(db: Database): Promise<boolean> {
   return (await db.manager.count(UserEntity)) === 0;
 }

@@ -58,6 +58,8 @@ export const demandResponseSchema = z.object({
       byDay: z.record(z.string(), z.number()),
     }),
   ),
+  /** The last day of the build sequence still to build: no demand is known after it; null with no sequence. */
+  sequenceEnds: z.string().nullable(),
 });
 export type DemandResponse = z.infer<typeof demandResponseSchema>;
 

@@ -194,5 +194,8 @@ export const calendarSchema = z.object({
   holidays: z.array(isoDateSchema).refine((days) => new Set(days).size === days.length, 'each holiday once'),
 });
 export type Calendar = z.infer<typeof calendarSchema>;
-export const versionedCalendarSchema = calendarSchema.extend(versionField);
+export const versionedCalendarSchema = calendarSchema.extend(versionField).extend({
+  /** Names of the holidays that have one (the demo's plant shutdown days), by date; kept when a holiday stays. */
+  holidayNames: z.record(isoDateSchema, z.string()).optional(),
+});
 export type VersionedCalendar = z.infer<typeof versionedCalendarSchema>;

@@ -23,5 +23,7 @@ export const overviewSchema = z.object({
   role: roleSchema,
   today: z.string(),
   figures: z.array(overviewFigureSchema),
+  /** Show the "start here" guide: a demo account that has not put it away yet. */
+  firstRunGuide: z.boolean(),
 });
 export type Overview = z.infer<typeof overviewSchema>;

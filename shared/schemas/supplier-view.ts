@@ -20,6 +20,10 @@ export const supplierForecastSchema = z.object({
   today: z.string(),
   frozenUntil: z.string().nullable().meta({ description: 'Last day of the plant’s frozen window; null when none.' }),
   days: z.array(z.string()),
+  sequenceEnds: z
+    .string()
+    .nullable()
+    .meta({ description: 'Last day of the build sequence: no demand is known after it; null with no sequence.' }),
   parts: z.array(
     z.object({
       partNumber: z.string(),

@@ -15,5 +15,22 @@ export const useOverviewStore = defineStore('overview', () => {
     });
   }
 
-  return { overview, loading, error, fetchOverview };
+  const dismissing = ref(false);
+  const guideError = ref<Error | null>(null);
+
+  /** Puts the first-run guide away for good for this user; on failure it stays, with the reason. */
+  async function dismissGuide(): Promise<void> {
+    dismissing.value = true;
+    guideError.value = null;
+    try {
+      await overviewApi.dismissGuide();
+      if (overview.value) overview.value = { ...overview.value, firstRunGuide: false };
+    } catch (failure) {
+      guideError.value = failure instanceof Error ? failure : new Error(String(failure));
+    } finally {
+      dismissing.value = false;
+    }
+  }
+
+  return { overview, loading, error, fetchOverview, dismissing, guideError, dismissGuide };
 });

@@ -179,6 +179,23 @@ describe('CalendarHolidayList', () => {
     expect(wrapper.text()).toContain('Show past holidays (1)');
   });
 
+  it('shows a holiday’s name beside its date, and nothing for one without', async () => {
+    const context = await createAppContext({ user: planner, path: '/' });
+    const wrapper = await mountInApp(CalendarHolidayList, context, {
+      props: {
+        holidays: ['2030-12-25', '2030-12-27'],
+        names: { '2030-12-25': 'Plant shutdown: year end' },
+        workingWeekdays: [1, 2, 3, 4, 5],
+        today: '2030-12-01',
+        editable: false,
+      },
+    });
+
+    const items = wrapper.findAll('.calendar-holiday-list__item');
+    expect(items[0]!.get('.calendar-holiday-list__name').text()).toBe('Plant shutdown: year end');
+    expect(items[1]!.find('.calendar-holiday-list__name').exists()).toBe(false);
+  });
+
   it('refuses a date that is already a holiday', async () => {
     const context = await createAppContext({ user: planner, path: '/' });
     const wrapper = await mountInApp(CalendarHolidayList, context, {

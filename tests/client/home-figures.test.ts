@@ -6,6 +6,7 @@ import HomeFigures from '@/components/HomeFigures.vue';
 const buyerOverview: Overview = {
   role: 'buyer',
   today: '2026-12-02',
+  firstRunGuide: false,
   figures: [
     {
       key: 'exceptionsWaiting',

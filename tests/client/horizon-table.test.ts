@@ -12,6 +12,7 @@ import { demandColumns, demandTable } from '@/components/horizon-presentation';
 const days = ['2009-12-28', '2009-12-29', '2009-12-30', '2009-12-31', '2010-01-04', '2010-01-05'];
 const demand: DemandResponse = {
   days,
+  sequenceEnds: null,
   rows: [
     {
       partNumber: 'TNK-R60',

@@ -8,6 +8,7 @@ import { localToday } from '@/format';
 
 const demand: DemandResponse = {
   days: ['2026-12-01', '2026-12-02'],
+  sequenceEnds: '2026-12-02',
   rows: [
     {
       partNumber: 'BAT-06-225',
@@ -124,6 +125,17 @@ describe('HorizonView', () => {
     expect(wrapper.get('[aria-label="Unit charted"]').text()).toContain('kg');
   });
 
+  it('says where the build sequence ends when the horizon reaches past it', async () => {
+    stubApi({ '/api/demand': () => jsonResponse(200, demand), '/api/suppliers': () => jsonResponse(200, []) });
+
+    const { wrapper } = await openHorizon('/horizon');
+
+    // The fixture's sequence ends on 2 Dec 2026, inside any horizon that starts on or before it.
+    expect(wrapper.get('[data-test="sequence-end"]').text()).toMatch(
+      /^The build sequence ends on .*2 Dec 2026: no demand is known after that day until more units are planned\.$/,
+    );
+  });
+
   it('asks for the horizon and supplier written in the link', async () => {
     const fetchMock = stubApi({
       '/api/demand': () => jsonResponse(200, demand),
@@ -203,6 +215,7 @@ describe('HorizonView', () => {
     // 250 parts; part n needs n on the first day, so the largest totals are at the end of the list.
     const many: DemandResponse = {
       days: ['2026-12-01'],
+      sequenceEnds: '2026-12-01',
       rows: Array.from({ length: 250 }, (_, index) => ({
         partNumber: `P-${String(index + 1).padStart(3, '0')}`,
         supplierCode: 'FBS',

@@ -19,6 +19,7 @@ const forecast: SupplierForecast = {
   today: '2026-11-30',
   frozenUntil: '2026-12-01',
   days: ['2026-12-01', '2026-12-02', '2026-12-03'],
+  sequenceEnds: '2026-12-03',
   parts: [
     {
       partNumber: 'P1',
@@ -107,6 +108,9 @@ describe('SupplierAccountView', () => {
       'planned 3',
       'forecast 4',
     ]);
+    expect(wrapper.get('[data-test="sequence-end"]').text()).toMatch(
+      /^The plant’s build sequence is planned to .*3 Dec 2026; demand after that day is not known yet\.$/,
+    );
     const releases = wrapper.get('[data-test="own-releases"]').findAll('tr.el-table__row');
     expect(releases).toHaveLength(2);
     const linksOf = (row: (typeof releases)[number]) =>

@@ -1,6 +1,8 @@
 import { expect, test, type Page } from '@playwright/test';
 import { ImportsPage } from './pages/imports-page';
 import { LoginPage } from './pages/login-page';
+import { localIsoDate } from '../../shared/domain/date';
+import { demoShutdowns } from '../../seed/scenario-calendar';
 
 const DEMO_PASSWORD = 'cardloop-demo';
 
@@ -17,12 +19,15 @@ async function signIn(page: Page, email: string): Promise<void> {
   await expect(page).toHaveURL(/\/$/);
 }
 
-/** A weekday about six weeks ahead, as YYYY-MM-DD, so a new holiday lands on a worked day. */
+/** A worked weekday about six weeks ahead, as YYYY-MM-DD: not a weekend, nor one of the demo's shutdown days. */
 function workingDayAhead(): string {
+  const shutdowns = new Set(demoShutdowns(localIsoDate()).map((shutdown) => shutdown.date));
   const date = new Date();
   date.setDate(date.getDate() + 42);
-  while (date.getDay() === 0 || date.getDay() === 6) date.setDate(date.getDate() + 1);
-  return `${date.getFullYear()}-${String(date.getMonth() + 1).padStart(2, '0')}-${String(date.getDate()).padStart(2, '0')}`;
+  while (date.getDay() === 0 || date.getDay() === 6 || shutdowns.has(localIsoDate(date))) {
+    date.setDate(date.getDate() + 1);
+  }
+  return localIsoDate(date);
 }
 
 test.describe('imports', () => {

@@ -1,9 +1,16 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase, type Database } from '../../server/db/database';
 import { plantToday } from '../../server/planning/plan-dates';
-import { HISTORY_DAYS } from '../../seed/scenario';
+import { HISTORY_DAYS, buildDemoScenario } from '../../seed/scenario';
+import { EARLY_SUPPLIER, LATE_SUPPLIER, OPEN_KANBAN, SHORT_SUPPLIER } from '../../seed/scenario-history';
+import { COUNT_TO_CHECK, OVERSIZED_LOOP, UNDERSIZED_LOOP } from '../../seed/scenario-stock';
 import { seedDemoScenario } from '../../seed/seed-demo';
 import { runSql } from '../../server/db/sql';
+import { DockService } from '../../server/dock/dock.service';
+import { LineRiskService } from '../../server/line-risk/line-risk.service';
+import { LoopsService } from '../../server/loops/loops.service';
+import { PlanningService } from '../../server/planning/planning.service';
+import { SupplierPerformanceService } from '../../server/supplier-performance/supplier-performance.service';
 
 let db: Database;
 beforeAll(async () => {
@@ -44,5 +51,93 @@ describe('the seeded demo plant', () => {
 
     expect(Number(early[0].n)).toBe(0);
     expect(Number(late[0].n)).toBe(0);
+  });
+});
+
+describe('the demo plant’s story', () => {
+  it('keeps exactly its three planted alarms; every other short part waits for the normal release', async () => {
+    const lineRisk = new LineRiskService(db, new LoopsService(db, new PlanningService(db)));
+
+    const shortages = await lineRisk.shortages();
+
+    const alarms = shortages.filter((shortage) => shortage.action !== 'release');
+    expect(alarms.map((shortage) => [shortage.action, shortage.partNumber])).toEqual([
+      ['expedite', 'BAT-06-312'],
+      ['loop', UNDERSIZED_LOOP.partNumber],
+      ['count', COUNT_TO_CHECK],
+    ]);
+    expect(shortages.filter((shortage) => shortage.action === 'release').length).toBeGreaterThan(0);
+  });
+
+  it('has loops at their recommendation but two: one short of cards, one with cards to take out', async () => {
+    const loops = await new LoopsService(db, new PlanningService(db)).listLoops();
+
+    const resize = loops.filter((loop) => loop.proposal.action !== 'none');
+    expect(resize.map((loop) => loop.partNumber).sort()).toEqual(
+      [UNDERSIZED_LOOP.partNumber, OVERSIZED_LOOP.partNumber].sort(),
+    );
+    expect(loops.filter((loop) => loop.activeCards > 0).length).toBe(loops.length);
+  });
+
+  it('has deliveries due at the dock on the first day, one late, and one supplier answer waiting for the buyer', async () => {
+    const firstDay = buildDemoScenario(plantToday()).sequence[0]!.date;
+
+    const dock = await new DockService(db).list();
+
+    const dueFirstDay = dock.filter((item) => item.arrivalDate === firstDay).flatMap((item) => item.lines);
+    expect(dueFirstDay.map((line) => line.partNumber).sort()).toEqual([...OPEN_KANBAN.dueToday].sort());
+    const late = dock.filter((item) => item.overdue);
+    expect(late.map((item) => item.supplierCode)).toEqual([LATE_SUPPLIER]);
+    const waiting: { n: number }[] = await db.manager.query(
+      "SELECT COUNT(*) AS n FROM release WHERE status = 'exception'",
+    );
+    expect(Number(waiting[0].n)).toBe(1);
+  });
+
+  it('has one card emptied at the line the day before, waiting for the first release run', async () => {
+    const empty: { partNumber: string }[] = await db.manager.query(
+      `SELECT l.part_number AS "partNumber" FROM kanban_card c JOIN kanban_loop l ON l.id = c.loop_id
+       WHERE c.state = 'empty'`,
+    );
+
+    expect(empty.map((card) => card.partNumber)).toEqual([OPEN_KANBAN.emptied]);
+  });
+
+  it('scores a late supplier, a short delivery and an early one from the weeks before', async () => {
+    const performance = await new SupplierPerformanceService(db).performance({});
+    const total = (code: string, key: 'lines' | 'lateLines' | 'earlyLines' | 'requestedQty' | 'filledQty') =>
+      performance.filter((month) => month.supplierCode === code).reduce((sum, month) => sum + month[key], 0);
+
+    expect(total(LATE_SUPPLIER, 'lateLines') / total(LATE_SUPPLIER, 'lines')).toBeGreaterThan(0.5);
+    expect(total(SHORT_SUPPLIER, 'filledQty')).toBeLessThan(total(SHORT_SUPPLIER, 'requestedQty'));
+    expect(total(EARLY_SUPPLIER, 'earlyLines')).toBeGreaterThan(0);
+    const shortReceipts: { n: number }[] = await runSql(
+      db.manager,
+      "SELECT COUNT(*) AS n FROM receipt WHERE discrepancy = 'short' AND final = ?",
+      [true],
+    );
+    expect(Number(shortReceipts[0].n)).toBeGreaterThan(0);
+  });
+
+  it('has sent every release by e-mail, with no live confirmation link left in the Outbox', async () => {
+    const releases: { number: string }[] = await db.manager.query('SELECT number FROM release');
+    const mail: { ref: string; status: string; text: string }[] = await db.manager.query(
+      'SELECT ref, status, text FROM outbox_message',
+    );
+
+    expect(mail.map((message) => message.ref).sort()).toEqual(
+      releases.map((release) => `release:${release.number}`).sort(),
+    );
+    for (const message of mail) {
+      expect(message.status).toBe('sent');
+      expect(message.text).toContain('/confirm/[link removed after sending]');
+    }
+  });
+
+  it('names its holidays as plant shutdown days', async () => {
+    const holidays: { date: string; name: string }[] = await db.manager.query('SELECT date, name FROM plant_holiday');
+
+    expect(holidays.length).toBeGreaterThan(0);
+    for (const holiday of holidays) expect(holiday.name).toMatch(/^Plant shutdown: /);
   });
 });

@@ -159,6 +159,8 @@ describe('GET /api/demand', () => {
         byDay: { '2026-12-21': 2, '2026-12-22': 1, '2026-12-23': 0, '2026-12-24': 0, '2026-12-28': 3 },
       },
     ]);
+    // The last unit of the test sequence is built on 28 Dec: the screen says demand is unknown after it.
+    expect(all.body.sequenceEnds).toBe('2026-12-28');
   });
 
   it('exports the same figures as CSV', async () => {

@@ -4,6 +4,8 @@ import { ReleaseEntity } from '../../server/releases/release.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import type { Overview } from '../../shared/schemas/overview';
 import { savePartsWithStock } from '../../server/stock/stock.service';
+import { writeSetting } from '../../server/settings/settings';
+import { DEMO_ACCOUNTS } from '../../server/users/bootstrap';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
 let context: TestContext;
@@ -76,5 +78,32 @@ describe('GET /api/overview', () => {
 
   it('answers 401 without a sign-in', async () => {
     expect((await request(context.app).get('/api/overview')).status).toBe(401);
+  });
+});
+
+describe('the first-run guide', () => {
+  beforeAll(async () => {
+    // The demo seed lists its own accounts; these two stand for them.
+    await context.dataSource.transaction((manager) =>
+      writeSetting(manager, DEMO_ACCOUNTS, ['buyer@example.com', 'line@example.com']),
+    );
+  });
+
+  it('shows on a demo account’s Overview and never on an account the demo did not create', async () => {
+    expect((await overviewOf('buyer')).firstRunGuide).toBe(true);
+    expect((await overviewOf('line')).firstRunGuide).toBe(true);
+    expect((await overviewOf('admin')).firstRunGuide).toBe(false);
+  });
+
+  it('stays away for the user who put it away, twice or not, and only for that user', async () => {
+    const dismiss = () =>
+      request(context.app).post('/api/overview/first-run-guide/dismiss').set(bearer(context.tokens.buyer));
+
+    expect((await dismiss()).status).toBe(204);
+    expect((await dismiss()).status).toBe(204);
+
+    expect((await overviewOf('buyer')).firstRunGuide).toBe(false);
+    expect((await overviewOf('line')).firstRunGuide).toBe(true);
+    expect((await request(context.app).post('/api/overview/first-run-guide/dismiss')).status).toBe(401);
   });
 });

@@ -85,6 +85,8 @@ describe('GET /api/suppliers/{code}/forecast', () => {
 
     expect(response.status).toBe(200);
     expect(response.body).toMatchObject({ supplierCode: 'SUP-A', today: '2026-11-30', frozenUntil: '2026-12-02' });
+    // The last unit of the test sequence is built on 8 Dec.
+    expect(response.body.sequenceEnds).toBe('2026-12-08');
     // Only SUP-A's part; P2 belongs to SUP-B.
     expect(response.body.parts.map((part: { partNumber: string }) => part.partNumber)).toEqual(['P1']);
     const [p1] = response.body.parts;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildDemoScenario, type DemoBomLine, type DemoScenario } from '../../seed/scenario';
+import { easterSunday } from '../../seed/scenario-calendar';
 import { supplierSchema } from '../../shared/schemas/master-data';
 
 /*
@@ -221,7 +222,7 @@ describe('buildDemoScenario', () => {
     expect(changeIndex).toBeLessThanOrEqual(12);
   });
 
-  it('builds on 30 distinct Monday–Friday days that skip the one holiday inside the window', () => {
+  it('builds on 30 distinct Monday–Friday days that skip the shutdown days inside the window', () => {
     // ISO 8601-1:2019 week dates number Monday 1 … Sunday 7; 2026-03-02 is 2026-W10-1
     // (cross-checked with GNU date +%G-W%V-%u), which pins the weekday helper above.
     expect(isoWeekday('2026-03-02')).toBe(1);
@@ -369,6 +370,37 @@ describe('buildDemoScenario', () => {
     const laterDays = distinctDays(later);
     expect(laterDays[0]).toBe('2026-03-16');
     expect(dayNumber(laterDays[29]) - dayNumber(days[29])).toBe(7);
-    expect(dayNumber(later.calendar.holidays[0]) - dayNumber(scenario.calendar.holidays[0])).toBe(7);
+    // Shutdown days are dates of the year, not of the seed day: both seeds share one calendar.
+    expect(later.calendar.holidays).toEqual(scenario.calendar.holidays);
+  });
+});
+
+describe('the demo plant calendar', () => {
+  it('finds Easter Sunday where a reference library does', () => {
+    // python-dateutil 2.x, dateutil.easter.easter(year) (western method), run for these years.
+    const reference: Record<number, string> = {
+      2024: '2024-03-31',
+      2025: '2025-04-20',
+      2026: '2026-04-05',
+      2027: '2027-03-28',
+      2028: '2028-04-16',
+    };
+    for (const [year, date] of Object.entries(reference)) expect(easterSunday(Number(year))).toBe(date);
+  });
+
+  it('closes for the year end, the new year, the spring holiday and 1 May, each named a plant shutdown', () => {
+    const scenario = buildDemoScenario('2026-12-02');
+    const byDate = new Map(scenario.shutdowns.map((shutdown) => [shutdown.date, shutdown.name]));
+
+    for (const date of ['2026-12-24', '2026-12-25', '2026-12-26', '2026-12-31', '2027-01-01', '2027-05-01']) {
+      expect(scenario.calendar.holidays).toContain(date);
+      expect(byDate.get(date)).toMatch(/^Plant shutdown: /);
+    }
+    // Good Friday and Easter Monday of 2027 (Easter Sunday 28 March, python-dateutil as above).
+    expect(byDate.get('2027-03-26')).toBe('Plant shutdown: spring holiday');
+    expect(byDate.get('2027-03-29')).toBe('Plant shutdown: spring holiday');
+    expect(scenario.shutdowns.map((shutdown) => shutdown.date)).toEqual(scenario.calendar.holidays);
+    // No build day falls on a shutdown day.
+    for (const slot of [...scenario.history, ...scenario.sequence]) expect(byDate.has(slot.date)).toBe(false);
   });
 });
