@@ -24,6 +24,14 @@ export class SupplierAccountPage {
     return this.page.locator('[data-test="receiving-claims"]');
   }
 
+  releaseRow(number: string) {
+    return this.page.locator('[data-test="own-releases"] tr.el-table__row').filter({ hasText: number });
+  }
+
+  async answer(number: string): Promise<void> {
+    await this.releaseRow(number).getByRole('link', { name: 'Answer' }).click();
+  }
+
   async openScorecard(): Promise<void> {
     await this.page.getByRole('link', { name: 'Your scorecard' }).click();
   }
