@@ -46,6 +46,21 @@ async function settle(page: Page): Promise<void> {
   await expect(page.locator('.el-skeleton:visible')).toHaveCount(0);
 }
 
+/**
+ * Waits until nothing on the page is still fading or sliding in: contrast read halfway through a
+ * dialog's opening animation blends its text with the page behind it.
+ */
+async function animationsFinished(page: Page): Promise<void> {
+  // Endless ones (a spinner) never finish and change no contrast worth waiting for.
+  await page.waitForFunction(() =>
+    document
+      .getAnimations()
+      .every(
+        (animation) => animation.playState !== 'running' || animation.effect?.getComputedTiming().endTime === Infinity,
+      ),
+  );
+}
+
 /** Serious and critical WCAG A/AA violations, one line each (rule, then the first offending targets). */
 async function seriousViolations(page: Page): Promise<string[]> {
   const results = await new AxeBuilder({ page }).withTags(WCAG_TAGS).analyze();
@@ -155,6 +170,7 @@ function checkEveryScreen(role: string, email: string, screens: Screen[]): void 
           await page.goto(screen.path(ids));
           await settle(page);
           if (screen.open) await screen.open(page);
+          await animationsFinished(page);
 
           if (screen.shot && role === 'admin') {
             await page.mouse.move(0, viewport.height - 1);
