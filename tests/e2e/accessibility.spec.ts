@@ -19,6 +19,8 @@ interface Screen {
 interface DemoIds {
   partNumber: string;
   loopId: string;
+  /** A made part, whose BOM the BOM screen shows. */
+  madePart: string;
 }
 
 async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
@@ -31,7 +33,15 @@ async function demoIds(request: APIRequestContext, token: string): Promise<DemoI
   const headers = { Authorization: `Bearer ${token}` };
   const stock = (await (await request.get('/api/stock', { headers })).json()) as { partNumber: string }[];
   const loops = (await (await request.get('/api/kanban/loops', { headers })).json()) as { id: string | number }[];
-  return { partNumber: stock[0]!.partNumber, loopId: String(loops[0]!.id) };
+  const parts = (await (await request.get('/api/parts', { headers })).json()) as {
+    partNumber: string;
+    source: string;
+  }[];
+  return {
+    partNumber: stock[0]!.partNumber,
+    loopId: String(loops[0]!.id),
+    madePart: parts.find((part) => part.source !== 'buy')!.partNumber,
+  };
 }
 
 /** Signs the browser in by handing it a token, as the sign-in page would leave it. */
@@ -95,6 +105,12 @@ const staffScreens: Screen[] = [
   { name: 'Supplier performance', path: () => '/suppliers/performance' },
   { name: 'Scan cards', path: () => '/scan' },
   { name: 'Dock', path: () => '/dock' },
+  { name: 'Parts', path: () => '/parts' },
+  { name: 'Part', path: (ids) => `/parts/${encodeURIComponent(ids.partNumber)}` },
+  { name: 'Suppliers', path: () => '/suppliers' },
+  { name: 'Supplier', path: () => '/suppliers/FBS' },
+  { name: 'BOM', path: (ids) => `/bom/${encodeURIComponent(ids.madePart)}` },
+  { name: 'Audit trail', path: () => '/admin/audit' },
   { name: 'Imports', path: () => '/imports' },
   { name: 'Plant calendar', path: () => '/calendar' },
   {
@@ -138,6 +154,8 @@ const staffScreens: Screen[] = [
 
 const supplierScreens: Screen[] = [
   { name: 'Overview', path: () => '/' },
+  { name: 'Your business', path: () => '/supplier' },
+  { name: 'Scorecard', path: () => '/suppliers/performance' },
   { name: 'Releases', path: () => '/releases' },
 ];
 
