@@ -46,18 +46,24 @@ async function readHolidayNames(manager: EntityManager): Promise<Record<string, 
   return Object.fromEntries(holidays.filter((holiday) => holiday.name).map((holiday) => [holiday.date, holiday.name]));
 }
 
+/** The calendar as the API gives it: its version and the holidays' names beside it. */
+async function versioned(manager: EntityManager, calendar: Calendar): Promise<VersionedCalendar> {
+  return { ...withVersion(calendar), holidayNames: await readHolidayNames(manager) };
+}
+
 export class CalendarService {
   constructor(private readonly db: Database) {}
 
   async get(): Promise<VersionedCalendar> {
     const manager = this.db.manager;
-    return { ...withVersion(await readCalendar(manager)), holidayNames: await readHolidayNames(manager) };
+    return versioned(manager, await readCalendar(manager));
   }
 
   update(calendar: Calendar, actorEmail: string, basedOn?: string): Promise<VersionedCalendar> {
     return this.db.write(async (manager) => {
       const before = await readCalendar(manager);
-      assertCurrent(basedOn, withVersion(before), 'The plant calendar');
+      // A stale copy is answered with the calendar as GET gives it, names and all.
+      assertCurrent(basedOn, await versioned(manager, before), 'The plant calendar');
       const after = await writeCalendar(manager, calendar);
       await recordAudit(manager, {
         actorEmail,
@@ -66,7 +72,7 @@ export class CalendarService {
         entityKey: 'plant',
         changes: { before, after },
       });
-      return { ...withVersion(after), holidayNames: await readHolidayNames(manager) };
+      return versioned(manager, after);
     });
   }
 }

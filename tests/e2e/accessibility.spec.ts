@@ -162,7 +162,7 @@ const supplierScreens: Screen[] = [
 function checkEveryScreen(role: string, email: string, screens: Screen[]): void {
   test.describe(`as ${role}`, () => {
     let token = '';
-    let ids: DemoIds = { partNumber: '', loopId: '' };
+    let ids: DemoIds = { partNumber: '', loopId: '', madePart: '' };
 
     test.beforeAll(async ({ request }) => {
       token = await tokenOf(request, email);
