@@ -1,11 +1,9 @@
-import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
+import { animationsFinished, seriousViolations, sidewaysOverflow } from './pages/accessibility-checks';
 
 const DEMO_PASSWORD = 'cardloop-demo';
 const PHONE = { width: 390, height: 844 };
 const DESK = { width: 1440, height: 900 };
-/** The WCAG 2.0/2.1/2.2 level A and AA rules of axe-core (axe's own tag names). */
-const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
 
 interface Screen {
   name: string;
@@ -54,40 +52,6 @@ async function settle(page: Page): Promise<void> {
   await expect(page.locator('h1').first()).toBeVisible();
   await expect(page.locator('.el-loading-mask:visible')).toHaveCount(0);
   await expect(page.locator('.el-skeleton:visible')).toHaveCount(0);
-}
-
-/**
- * Waits until nothing on the page is still fading or sliding in: contrast read halfway through a
- * dialog's opening animation blends its text with the page behind it.
- */
-async function animationsFinished(page: Page): Promise<void> {
-  // Endless ones (a spinner) never finish and change no contrast worth waiting for.
-  await page.waitForFunction(() =>
-    document
-      .getAnimations()
-      .every(
-        (animation) => animation.playState !== 'running' || animation.effect?.getComputedTiming().endTime === Infinity,
-      ),
-  );
-}
-
-/** Serious and critical WCAG A/AA violations, one line each (rule, then the first offending targets). */
-async function seriousViolations(page: Page): Promise<string[]> {
-  const results = await new AxeBuilder({ page }).withTags(WCAG_TAGS).analyze();
-  return results.violations
-    .filter((violation) => violation.impact === 'serious' || violation.impact === 'critical')
-    .map(
-      (violation) =>
-        `${violation.id} (${violation.impact}): ${violation.nodes
-          .slice(0, 3)
-          .map((node) => node.target.join(' '))
-          .join(' | ')}`,
-    );
-}
-
-/** How far the page reaches past the viewport's right edge, in CSS pixels. */
-async function sidewaysOverflow(page: Page): Promise<number> {
-  return page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
 }
 
 const staffScreens: Screen[] = [
@@ -216,6 +180,16 @@ test('the sign-in page has no serious WCAG A/AA problem and fits a phone', async
   await page.setViewportSize(PHONE);
   await page.goto('/login');
   await expect(page.getByRole('button', { name: 'Sign in' })).toBeVisible();
+
+  expect(await seriousViolations(page)).toEqual([]);
+  expect(await sidewaysOverflow(page)).toBeLessThanOrEqual(1);
+});
+
+test('a password-reset link that is not known says so readably, on a phone too', async ({ page }) => {
+  await page.setViewportSize(PHONE);
+  await page.goto('/reset-password/not-a-real-token');
+  await expect(page.locator('h1').first()).toBeVisible();
+  await animationsFinished(page);
 
   expect(await seriousViolations(page)).toEqual([]);
   expect(await sidewaysOverflow(page)).toBeLessThanOrEqual(1);

@@ -1,8 +1,23 @@
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
+import { animationsFinished, seriousViolations, sidewaysOverflow } from './pages/accessibility-checks';
 import { LoginPage } from './pages/login-page';
 import { SupplierAccountPage } from './pages/supplier-account-page';
 
 const DEMO_PASSWORD = 'cardloop-demo';
+
+/** No serious WCAG A/AA problem and nothing sideways, at a desk and at a phone's width. */
+async function readableEverywhere(page: Page, what: string): Promise<void> {
+  for (const viewport of [
+    { width: 1440, height: 900 },
+    { width: 390, height: 844 },
+  ]) {
+    await page.setViewportSize(viewport);
+    await animationsFinished(page);
+    expect.soft(await seriousViolations(page), `${what} at ${viewport.width} px`).toEqual([]);
+    expect.soft(await sidewaysOverflow(page), `${what} at ${viewport.width} px`).toBeLessThanOrEqual(1);
+  }
+  await page.setViewportSize({ width: 1366, height: 860 });
+}
 
 // The plant's calendar day on the server's clock, which runs on this machine.
 function plantToday(): string {
@@ -88,6 +103,7 @@ test('a supplier signed in answers a release from its own page, and the e-mailed
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
   await expect(page.getByText('You answer once; the link in the release e-mail then stops working.')).toBeVisible();
   await page.screenshot({ path: 'test-results/supplier-answer-1366.png', fullPage: true });
+  await readableEverywhere(page, 'the answer page');
   await page.getByRole('button', { name: 'Confirm all as requested' }).click();
 
   await expect(page.getByRole('status')).toContainText('Thank you — release confirmed');
@@ -95,9 +111,15 @@ test('a supplier signed in answers a release from its own page, and the e-mailed
     'href',
     `/releases/${release.number}/ship-notice`,
   );
+  await page.getByRole('link', { name: 'send a ship notice' }).click();
+  await expect(page).toHaveURL(new RegExp(`/releases/${release.number}/ship-notice$`));
+  await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+  await readableEverywhere(page, 'the ship-notice page');
+
   const stored = await request.get(`/api/releases/${release.number}`, { headers: admin });
   expect(((await stored.json()) as { status: string }).status).toBe('confirmed');
   // The release mail's link now says the release was answered.
+  let link = '';
   await expect(async () => {
     const mails = (await (await request.get('/api/dev/mail', { headers: admin })).json()) as {
       subject: string;
@@ -105,7 +127,11 @@ test('a supplier signed in answers a release from its own page, and the e-mailed
     }[];
     const mail = mails.find((candidate) => candidate.subject.includes(release.number));
     expect(mail, `the mail of ${release.number}`).toBeDefined();
-    const token = /\/confirm\/([A-Za-z0-9_-]+)/.exec(mail!.text)![1]!;
-    expect((await request.get(`/api/confirm/${token}`)).status()).toBe(409);
+    link = /\/confirm\/[A-Za-z0-9_-]+/.exec(mail!.text)![0];
+    expect((await request.get(`/api${link}`)).status()).toBe(409);
   }).toPass({ timeout: 40_000, intervals: [1_000] });
+  // The page behind the spent link says so, as readably as the rest.
+  await page.goto(link);
+  await expect(page.getByRole('status')).toContainText('This link was already used');
+  await readableEverywhere(page, 'the spent link');
 });
