@@ -1,7 +1,7 @@
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
 import { animationsFinished, seriousViolations, sidewaysOverflow } from './pages/accessibility-checks';
+import { tokenOf } from './pages/demo-api';
 
-const DEMO_PASSWORD = 'cardloop-demo';
 const PHONE = { width: 390, height: 844 };
 const DESK = { width: 1440, height: 900 };
 
@@ -19,12 +19,6 @@ interface DemoIds {
   loopId: string;
   /** A made part, whose BOM the BOM screen shows. */
   madePart: string;
-}
-
-async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
-  const signIn = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
-  expect(signIn.status()).toBe(200);
-  return ((await signIn.json()) as { token: string }).token;
 }
 
 async function demoIds(request: APIRequestContext, token: string): Promise<DemoIds> {

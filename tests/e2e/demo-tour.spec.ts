@@ -8,6 +8,7 @@ import { CardScanPage, LoopsPage, settleForScreenshot } from './pages/loops-page
 import { ReleasesPage } from './pages/releases-page';
 import { SequencePage } from './pages/sequence-page';
 import { SupplierAccountPage } from './pages/supplier-account-page';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 /*
  * The README's "Tour of the demo", one journey per role: sign in, follow the first-run guide on
@@ -16,7 +17,6 @@ import { SupplierAccountPage } from './pages/supplier-account-page';
  * Each step leaves a screenshot at 1440 and 390 px with the test results.
  */
 
-const DEMO_PASSWORD = 'cardloop-demo';
 const DESKTOP = { width: 1440, height: 900 };
 const PHONE = { width: 390, height: 844 };
 

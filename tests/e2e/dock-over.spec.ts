@@ -1,30 +1,12 @@
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import { DockPage } from './pages/dock-page';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
 import { OverChoice } from './pages/over-choice';
 import { SupplierAccountPage } from './pages/supplier-account-page';
+import { DEMO_PASSWORD, onHandOf, plantToday, tokenOf } from './pages/demo-api';
 
-const DEMO_PASSWORD = 'cardloop-demo';
 const EXTRA = 3;
-
-// The plant's calendar day on the server's clock, which runs on this machine.
-function plantToday(): string {
-  const now = new Date();
-  return new Date(now.getTime() - now.getTimezoneOffset() * 60_000).toISOString().slice(0, 10);
-}
-
-async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
-  const signIn = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
-  expect(signIn.status()).toBe(200);
-  return ((await signIn.json()) as { token: string }).token;
-}
-
-async function onHandOf(request: APIRequestContext, token: string, partNumber: string): Promise<number> {
-  const response = await request.get('/api/parts', { headers: { Authorization: `Bearer ${token}` } });
-  const parts = (await response.json()) as { partNumber: string; onHand: number }[];
-  return parts.find((part) => part.partNumber === partNumber)!.onHand;
-}
 
 test.use({ viewport: { width: 1440, height: 900 } });
 

@@ -2,20 +2,7 @@ import { expect, test, type APIRequestContext } from '@playwright/test';
 import { DockPage } from './pages/dock-page';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
-
-// The plant's calendar day on the server's clock, which runs on this machine.
-function plantToday(): string {
-  const now = new Date();
-  return new Date(now.getTime() - now.getTimezoneOffset() * 60_000).toISOString().slice(0, 10);
-}
-
-async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
-  const signIn = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
-  expect(signIn.status()).toBe(200);
-  return ((await signIn.json()) as { token: string }).token;
-}
+import { DEMO_PASSWORD, onHandOf, plantToday, tokenOf } from './pages/demo-api';
 
 /** The demo's scheduled parts have planned releases due, so today's run sends releases (again: nothing twice). */
 async function runTodaysReleases(request: APIRequestContext): Promise<void> {
@@ -57,12 +44,6 @@ async function confirmAsAsked(request: APIRequestContext, adminToken: string, re
   });
   expect(answer.status()).toBe(200);
   return ((await answer.json()) as { shippingToken: string }).shippingToken;
-}
-
-async function onHandOf(request: APIRequestContext, token: string, partNumber: string): Promise<number> {
-  const response = await request.get('/api/parts', { headers: { Authorization: `Bearer ${token}` } });
-  const parts = (await response.json()) as { partNumber: string; onHand: number }[];
-  return parts.find((part) => part.partNumber === partNumber)!.onHand;
 }
 
 test.use({ viewport: { width: 1024, height: 768 } });

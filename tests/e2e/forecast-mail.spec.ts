@@ -1,7 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { LoginPage } from './pages/login-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 test('a buyer e-mails a supplier its forecast and the admin sees it delivered by the demo mail server', async ({
   page,

@@ -1,8 +1,7 @@
 import { expect, test } from '@playwright/test';
 import { HorizonPage } from './pages/horizon-page';
 import { LoginPage } from './pages/login-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 /** A number as the table shows it ("1,234.5") read back. */
 function quantity(text: string | null): number {

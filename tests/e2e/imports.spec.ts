@@ -3,8 +3,7 @@ import { ImportsPage } from './pages/imports-page';
 import { LoginPage } from './pages/login-page';
 import { localIsoDate } from '../../shared/domain/date';
 import { demoShutdowns } from '../../seed/scenario-calendar';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 // Part numbers of the demo scenario (seed/scenario-parts.ts); the on-hand layout is PRODUCT.md's
 // `part_number,on_hand`.

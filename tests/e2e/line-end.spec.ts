@@ -4,14 +4,7 @@ import type { StockItem } from '../../shared/schemas/stock';
 import { KitSheetsPage, LineEndPage, StockPartPage } from './pages/line-end-page';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
-
-async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
-  const signIn = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
-  expect(signIn.status()).toBe(200);
-  return ((await signIn.json()) as { token: string }).token;
-}
+import { DEMO_PASSWORD, tokenOf } from './pages/demo-api';
 
 async function getJson<T>(request: APIRequestContext, token: string, path: string): Promise<T> {
   const response = await request.get(path, { headers: { Authorization: `Bearer ${token}` } });

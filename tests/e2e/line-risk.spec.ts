@@ -3,8 +3,8 @@ import { LineRiskPage } from './pages/line-risk-page';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
 import { SequencePage } from './pages/sequence-page';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
-const DEMO_PASSWORD = 'cardloop-demo';
 const DESKTOP = { width: 1440, height: 900 };
 const PHONE = { width: 390, height: 844 };
 

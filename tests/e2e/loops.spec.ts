@@ -3,8 +3,7 @@ import { expect, test } from '@playwright/test';
 import { isValidGs1 } from '../../shared/domain/gs1';
 import { CardScanPage, LoopPrintPage, LoopsPage, settleForScreenshot } from './pages/loops-page';
 import { LoginPage } from './pages/login-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 test.describe('Loops', () => {
   test('a buyer accepts a loop’s proposal, prints its cards and scans one from full to empty', async ({ page }) => {

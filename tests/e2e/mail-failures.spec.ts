@@ -2,8 +2,8 @@ import { expect, test, type Page } from '@playwright/test';
 import type { OutboxMessage } from '../../shared/schemas/outbox';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
-const DEMO_PASSWORD = 'cardloop-demo';
 const DESKTOP = { width: 1440, height: 900 };
 const PHONE = { width: 390, height: 844 };
 

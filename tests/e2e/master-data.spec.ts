@@ -2,8 +2,7 @@ import { expect, test } from '@playwright/test';
 import { settleForScreenshot } from './pages/loops-page';
 import { LoginPage } from './pages/login-page';
 import { AuditPage, BomPage, PartPage, PartsPage } from './pages/master-data-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 test.describe('Master data', () => {
   test('a buyer changes a part’s lead time and makes an engineering change on a model’s BOM', async ({ page }) => {

@@ -1,8 +1,7 @@
 import { expect, test, type APIRequestContext } from '@playwright/test';
 import { LoginPage } from './pages/login-page';
 import { ConfirmPage, ReleasesPage, settleReleasesScreen } from './pages/releases-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 async function apiToken(request: APIRequestContext, email: string): Promise<string> {
   const response = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });

@@ -1,14 +1,7 @@
 import { expect, test, type APIRequestContext } from '@playwright/test';
 import { DockPage } from './pages/dock-page';
 import { LoginPage } from './pages/login-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
-
-async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
-  const signIn = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
-  expect(signIn.status()).toBe(200);
-  return ((await signIn.json()) as { token: string }).token;
-}
+import { DEMO_PASSWORD, tokenOf } from './pages/demo-api';
 
 /** A kanban card of the demo that is on order: a release line asked its supplier for it. */
 async function orderedCard(

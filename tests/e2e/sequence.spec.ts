@@ -2,8 +2,7 @@ import { expect, test } from '@playwright/test';
 import { LoginPage } from './pages/login-page';
 import { settleForScreenshot } from './pages/loops-page';
 import { SequencePage } from './pages/sequence-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 test.describe('Build sequence', () => {
   test('a planner drags a unit to another day, and moves one down from the keyboard', async ({ page }) => {

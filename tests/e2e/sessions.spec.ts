@@ -5,8 +5,8 @@ import { settleForScreenshot } from './pages/loops-page';
 import { PasswordResetPage } from './pages/password-reset-page';
 import { SequencePage } from './pages/sequence-page';
 import { UsersPage } from './pages/users-page';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
-const DEMO_PASSWORD = 'cardloop-demo';
 const DESKTOP = { width: 1440, height: 900 };
 const PHONE = { width: 390, height: 844 };
 

@@ -1,7 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { LoginPage } from './pages/login-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
 test.describe('signing in', () => {
   test('a buyer signs in through the page and sees the shell with their role', async ({ page }) => {

@@ -2,8 +2,8 @@ import { readFile } from 'node:fs/promises';
 import { expect, test } from '@playwright/test';
 import { LoginPage } from './pages/login-page';
 import { SupplierAccountPage } from './pages/supplier-account-page';
+import { DEMO_PASSWORD } from './pages/demo-api';
 
-const DEMO_PASSWORD = 'cardloop-demo';
 // The demo's battery supplier (FBS) contact: lead time 7 working days, so the plan's horizon
 // holds firm, planned and forecast days.
 const SUPPLIER_CONTACT = 'ferncombe.lena@example.net';

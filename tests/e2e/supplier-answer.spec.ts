@@ -2,8 +2,7 @@ import { expect, test, type APIRequestContext, type Page } from '@playwright/tes
 import { animationsFinished, seriousViolations, sidewaysOverflow } from './pages/accessibility-checks';
 import { LoginPage } from './pages/login-page';
 import { SupplierAccountPage } from './pages/supplier-account-page';
-
-const DEMO_PASSWORD = 'cardloop-demo';
+import { DEMO_PASSWORD, plantToday, tokenOf } from './pages/demo-api';
 
 /** No serious WCAG A/AA problem and nothing sideways, at a desk and at a phone's width. */
 async function readableEverywhere(page: Page, what: string): Promise<void> {
@@ -17,18 +16,6 @@ async function readableEverywhere(page: Page, what: string): Promise<void> {
     expect.soft(await sidewaysOverflow(page), `${what} at ${viewport.width} px`).toBeLessThanOrEqual(1);
   }
   await page.setViewportSize({ width: 1366, height: 860 });
-}
-
-// The plant's calendar day on the server's clock, which runs on this machine.
-function plantToday(): string {
-  const now = new Date();
-  return new Date(now.getTime() - now.getTimezoneOffset() * 60_000).toISOString().slice(0, 10);
-}
-
-async function tokenOf(request: APIRequestContext, email: string): Promise<string> {
-  const signIn = await request.post('/api/auth/login', { data: { email, password: DEMO_PASSWORD } });
-  expect(signIn.status()).toBe(200);
-  return ((await signIn.json()) as { token: string }).token;
 }
 
 interface LoopRow {
