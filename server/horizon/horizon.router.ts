@@ -2,6 +2,8 @@ import { Router } from 'express';
 import {
   demandQuerySchema,
   demandResponseSchema,
+  demandTableQuerySchema,
+  demandTableResponseSchema,
   forecastMailRequestSchema,
   forecastMailResponseSchema,
   planQuerySchema,
@@ -61,6 +63,29 @@ export function createHorizonRouter(services: Services, deps: RouteDeps): Router
       res.type('text/csv').attachment(name).send(demandToCsv(demand));
       return undefined;
     },
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/demand/table',
+    summary:
+      'One page of the demand table: searched, sorted and summed by day or ISO week, with the totals and chart bands of every matched row',
+    access: READ_ROLES,
+    unit: 'none',
+    query: demandTableQuerySchema,
+    response: demandTableResponseSchema,
+    handler: ({ query }) =>
+      planning.demandTable(
+        { from: query.from, to: query.to, supplierCode: query.supplier },
+        {
+          bucket: query.bucket,
+          search: query.q,
+          sort: { prop: query.sort ?? null, order: query.order ?? null },
+          page: query.page,
+          pageSize: query.pageSize,
+          stackBy: query.supplier ? 'part' : 'supplier',
+        },
+      ),
   });
 
   defineRoute(router, deps, {

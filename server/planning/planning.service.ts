@@ -1,6 +1,7 @@
 import { BomCycleError, computePlan, grossDemandByDay, PlanInputError } from '../../shared/domain/plan';
 import type { PlanResult } from '../../shared/domain/types';
-import type { DemandResponse, PlanResponse } from '../../shared/schemas/horizon';
+import { demandTablePage, type DemandTableQuery } from '../../shared/domain/demand-table';
+import type { DemandResponse, DemandTableResponse, PlanResponse } from '../../shared/schemas/horizon';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { PerPlanningVersion } from './per-version';
@@ -17,6 +18,16 @@ interface CachedPlan {
 const MAX_CACHED_HORIZONS = 8;
 /** Demand bodies per horizon and supplier filter. */
 const MAX_CACHED_BODIES = 32;
+/** Demand reports kept as objects for the table pages: tens of megabytes each on a large plant. */
+const MAX_CACHED_REPORTS = 4;
+
+type DemandOptions = { from?: string; to?: string; supplierCode?: string };
+
+/** Keeps `value` under `key`, dropping the oldest entry when the cache is full. */
+function remember<T>(cache: Map<string, T>, max: number, key: string, value: T): void {
+  if (cache.size >= max) cache.delete(cache.keys().next().value!);
+  cache.set(key, value);
+}
 
 /**
  * Serves plans from a cache keyed by the planning data version: inputs are read and the engine
@@ -25,6 +36,7 @@ const MAX_CACHED_BODIES = 32;
 export class PlanningService {
   private readonly plans = new Map<string, CachedPlan>();
   private readonly demandBodies = new Map<string, SerialisedBody>();
+  private readonly demandReports = new Map<string, DemandResponse>();
   /** Counts planning versions seen, so a body built from an older one is not kept. */
   private generation = 0;
   private readonly inputs: PerPlanningVersion<PlanInputs>;
@@ -33,6 +45,7 @@ export class PlanningService {
     this.inputs = new PerPlanningVersion(db, loadPlanInputs, () => {
       this.plans.clear();
       this.demandBodies.clear();
+      this.demandReports.clear();
       this.generation += 1;
     });
   }
@@ -45,8 +58,7 @@ export class PlanningService {
     let cached = this.plans.get(key);
     if (!cached) {
       cached = { inputs, result: this.run(inputs, horizon.from, horizon.to) };
-      if (this.plans.size >= MAX_CACHED_HORIZONS) this.plans.delete(this.plans.keys().next().value!);
-      this.plans.set(key, cached);
+      remember(this.plans, MAX_CACHED_HORIZONS, key, cached);
     }
     return { ...cached, ...horizon };
   }
@@ -74,7 +86,7 @@ export class PlanningService {
     };
   }
 
-  async demand(options: { from?: string; to?: string; supplierCode?: string }): Promise<DemandResponse> {
+  async demand(options: DemandOptions): Promise<DemandResponse> {
     const { inputs, result } = await this.plan(options.from, options.to);
     if (
       options.supplierCode &&
@@ -92,19 +104,34 @@ export class PlanningService {
    * The demand report serialised, kept until the planning version changes: a repeated request
    * sends the same bytes instead of rebuilding and re-serialising the report.
    */
-  async demandBody(options: { from?: string; to?: string; supplierCode?: string }): Promise<SerialisedBody> {
+  async demandBody(options: DemandOptions): Promise<SerialisedBody> {
+    return this.cachedDemand(options, this.demandBodies, MAX_CACHED_BODIES, async () => {
+      return new SerialisedBody(await this.demand(options));
+    });
+  }
+
+  /** One page of the demand table, cut from the report kept for this horizon and supplier. */
+  async demandTable(options: DemandOptions, query: DemandTableQuery): Promise<DemandTableResponse> {
+    const report = await this.cachedDemand(options, this.demandReports, MAX_CACHED_REPORTS, () => this.demand(options));
+    return { ...demandTablePage(report, query), sequenceEnds: report.sequenceEnds };
+  }
+
+  /** What `build` makes of the demand over a horizon, kept until the planning version changes. */
+  private async cachedDemand<T>(
+    options: DemandOptions,
+    cache: Map<string, T>,
+    max: number,
+    build: () => Promise<T>,
+  ): Promise<T> {
     const generation = this.generation;
     const { from, to } = await this.plan(options.from, options.to);
     const key = `${from}|${to}|${options.supplierCode ?? ''}`;
-    const cached = this.demandBodies.get(key);
+    const cached = cache.get(key);
     if (cached && !this.db.inWriteUnit) return cached;
-    const body = new SerialisedBody(await this.demand(options));
+    const value = await build();
     // Kept only if no newer planning version arrived while it was built.
-    if (!this.db.inWriteUnit && generation === this.generation) {
-      if (this.demandBodies.size >= MAX_CACHED_BODIES) this.demandBodies.delete(this.demandBodies.keys().next().value!);
-      this.demandBodies.set(key, body);
-    }
-    return body;
+    if (!this.db.inWriteUnit && generation === this.generation) remember(cache, max, key, value);
+    return value;
   }
 
   private run(inputs: PlanInputs, from: string, to: string): PlanResult {

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isoDateSchema } from './master-data';
+import { DEMAND_SORT_PROPS, SORT_ORDERS } from '../domain/demand-table';
 
 export const planQuerySchema = z.object({
   part: z.string().trim().min(1).max(40),
@@ -62,6 +63,62 @@ export const demandResponseSchema = z.object({
   sequenceEnds: z.string().nullable(),
 });
 export type DemandResponse = z.infer<typeof demandResponseSchema>;
+
+/** Most rows one page of the demand table may ask for. */
+export const MAX_DEMAND_PAGE_SIZE = 500;
+
+export const demandTableQuerySchema = demandQuerySchema.omit({ format: true }).extend({
+  bucket: z.enum(['day', 'week']).default('day'),
+  q: z.string().trim().max(40).optional(),
+  sort: z.enum(DEMAND_SORT_PROPS).optional(),
+  order: z.enum(SORT_ORDERS).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(MAX_DEMAND_PAGE_SIZE).default(50),
+});
+
+const unitTotalSchema = z.object({ uom: z.string(), qty: z.number() });
+
+export const demandTableResponseSchema = z.object({
+  buckets: z.array(z.object({ key: z.string(), days: z.array(z.string()) })),
+  rows: z.array(
+    z.object({
+      partNumber: z.string(),
+      supplierCode: z.string().nullable(),
+      uom: z.string(),
+      total: z.number(),
+      byBucket: z.record(z.string(), z.number()),
+    }),
+  ),
+  page: z.number().int(),
+  pageSize: z.number().int(),
+  matched: z.number().int().meta({ description: 'Rows the search lets through, on every page.' }),
+  partsWithDemand: z.number().int().meta({ description: 'Rows before the search.' }),
+  exactMatch: z
+    .string()
+    .nullable()
+    .meta({ description: 'The part whose number is the search text (or the only match), else null.' }),
+  bucketTotals: z.record(z.string(), z.array(unitTotalSchema)),
+  grandTotal: z.array(unitTotalSchema),
+  units: z.array(z.string()).meta({ description: 'Units of measure among the matched rows, most used first.' }),
+  stacks: z
+    .record(
+      z.string(),
+      z.array(
+        z.object({
+          name: z.string().nullable(),
+          values: z.array(z.number()),
+          total: z.number(),
+          rest: z.number().int(),
+        }),
+      ),
+    )
+    .meta({
+      description:
+        'Chart bands per unit of measure, by supplier (or by part for one supplier), largest first; a band with rest > 0 sums that many smaller ones.',
+    }),
+  sequenceEnds: z.string().nullable(),
+});
+export type DemandTableResponse = z.infer<typeof demandTableResponseSchema>;
 
 export const forecastMailRequestSchema = z.object({
   supplier: z.string().trim().min(1).max(20),

@@ -1,4 +1,5 @@
-import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
+import type { DemandTableResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
+import type { BucketSize, DemandSort } from '@shared/domain/demand-table';
 import { download } from './download';
 import { http } from './http';
 
@@ -9,9 +10,27 @@ export interface DemandQuery {
   supplier?: string;
 }
 
-/** Gross demand of bought parts per working day over the horizon, optionally of one supplier. */
-export function getDemand(query: DemandQuery, signal?: AbortSignal): Promise<DemandResponse> {
-  return http.get<DemandResponse>('/demand', { query: { ...query }, signal });
+/** One page of the demand table: which part numbers, in what order and buckets. */
+export interface DemandTableRequest extends DemandQuery {
+  bucket: BucketSize;
+  search?: string;
+  sort: DemandSort;
+  page: number;
+  pageSize: number;
+}
+
+/** One page of gross demand, searched, sorted and bucketed by the server, with its totals and chart bands. */
+export function getDemandTable(request: DemandTableRequest, signal?: AbortSignal): Promise<DemandTableResponse> {
+  const { search, sort, ...rest } = request;
+  return http.get<DemandTableResponse>('/demand/table', {
+    query: {
+      ...rest,
+      q: search?.trim() || undefined,
+      sort: sort.order ? (sort.prop ?? undefined) : undefined,
+      order: sort.prop ? (sort.order ?? undefined) : undefined,
+    },
+    signal,
+  });
 }
 
 /** The gross-to-net buckets of one part over the horizon, with its past-due releases. */

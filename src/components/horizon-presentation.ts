@@ -1,86 +1,41 @@
-import { isoWeekKey } from '@shared/domain/calendar';
 import { addCalendarDays } from '@shared/domain/date';
+import { demandBuckets, type BucketSize, type DemandBucket, type DemandStack } from '@shared/domain/demand-table';
 import { weeklyTotals } from '@shared/domain/plan-demand';
-import { totalsByUnit, type UnitTotal } from '@shared/domain/unit-totals';
-import type { DemandResponse, PlanResponse } from '@shared/schemas/horizon';
+import type { PlanResponse } from '@shared/schemas/horizon';
 import { formatDayMonth, formatDayRange, formatWeekday } from '@/format';
 
-/** How the horizon is cut into columns: one per working day, or one per ISO 8601 week. */
-export type BucketSize = 'day' | 'week';
+export type { BucketSize, DemandSort, DemandTableRow } from '@shared/domain/demand-table';
 
 /** The horizon lengths a buyer can pick, in weeks. */
 export const HORIZON_WEEKS = [1, 2, 4, 6, 8, 12] as const;
 export const DEFAULT_HORIZON_WEEKS = 4;
 
 /** One column of the demand table: a working day or an ISO week holding working days. */
-export interface DemandColumn {
-  key: string;
+export interface DemandColumn extends DemandBucket {
   /** `Tue` for a day, `2026-W49` for a week. */
   label: string;
   /** `1 Dec` for a day, `1–4 Dec` (first to last working day shown) for a week. */
   caption: string;
-  days: string[];
 }
 
-export interface DemandTableRow {
-  partNumber: string;
-  supplierCode: string | null;
-  uom: string;
-  total: number;
-  byBucket: Record<string, number>;
-}
-
-/** The demand response reshaped into the buckets on screen, with column totals. */
-export interface DemandTable {
-  columns: DemandColumn[];
-  rows: DemandTableRow[];
-  /** Per column, one sum per unit of measure: quantities in different units are never added. */
-  totals: Record<string, UnitTotal[]>;
-  grandTotal: UnitTotal[];
+/** Names the buckets of a table or chart as their column heads show them. */
+export function labelledColumns(buckets: readonly DemandBucket[], bucket: BucketSize): DemandColumn[] {
+  return buckets.map(({ key, days }) =>
+    bucket === 'day'
+      ? { key, days, label: formatWeekday(key), caption: formatDayMonth(key) }
+      : { key, days, label: key, caption: formatDayRange(days[0]!, days[days.length - 1]!) },
+  );
 }
 
 /** The columns for a list of working days, day by day or grouped into ISO weeks in date order. */
 export function demandColumns(days: readonly string[], bucket: BucketSize): DemandColumn[] {
-  if (bucket === 'day') {
-    return days.map((day) => ({ key: day, label: formatWeekday(day), caption: formatDayMonth(day), days: [day] }));
-  }
-  const weeks = new Map<string, string[]>();
-  for (const day of days) {
-    const week = isoWeekKey(day);
-    weeks.set(week, [...(weeks.get(week) ?? []), day]);
-  }
-  return [...weeks].map(([week, weekDays]) => ({
-    key: week,
-    label: week,
-    caption: formatDayRange(weekDays[0]!, weekDays[weekDays.length - 1]!),
-    days: weekDays,
-  }));
+  return labelledColumns(demandBuckets(days, bucket), bucket);
 }
 
-/** Reshapes GET /api/demand into the chosen buckets; weeks are summed by the shared weeklyTotals. */
-export function demandTable(demand: DemandResponse, bucket: BucketSize): DemandTable {
-  const columns = demandColumns(demand.days, bucket);
-  const rows = demand.rows.map((row) => ({
-    partNumber: row.partNumber,
-    supplierCode: row.supplierCode,
-    uom: row.uom,
-    total: row.total,
-    byBucket: bucket === 'day' ? row.byDay : weeklyTotals(row.byDay),
-  }));
-  const totals: Record<string, UnitTotal[]> = {};
-  for (const column of columns) {
-    totals[column.key] = totalsByUnit(
-      rows,
-      (row) => row.byBucket[column.key] ?? 0,
-      (row) => row.uom,
-    );
-  }
-  const grandTotal = totalsByUnit(
-    rows,
-    (row) => row.total,
-    (row) => row.uom,
-  );
-  return { columns, rows, totals, grandTotal };
+/** A chart band's legend name: the supplier or part, or what the summed smaller bands are. */
+export function stackName(stack: DemandStack, stackBy: 'supplier' | 'part'): string {
+  if (stack.rest > 0) return stackBy === 'supplier' ? `Other suppliers (${stack.rest})` : `Other parts (${stack.rest})`;
+  return stack.name ?? 'No supplier';
 }
 
 /** One part's plan in the chosen buckets, as chart series. */
@@ -124,25 +79,3 @@ export function horizonRange(today: string, weeks: number): { from: string; to: 
 
 /** Rows of the demand table shown at once; the rest are a page away, so a large plant opens fast. */
 export const HORIZON_PAGE_SIZE = 50;
-
-/** A sort the buyer asked for by clicking a column head; null order keeps the server's order. */
-export interface DemandSort {
-  prop: 'partNumber' | 'supplierCode' | 'total' | null;
-  order: 'ascending' | 'descending' | null;
-}
-
-/** The rows in the asked order (parts without a supplier last either way), stable for ties. */
-export function sortDemandRows(rows: readonly DemandTableRow[], sort: DemandSort): readonly DemandTableRow[] {
-  const { prop, order } = sort;
-  if (!prop || !order) return rows;
-  const sign = order === 'ascending' ? 1 : -1;
-  return [...rows].sort((a, b) => {
-    if (prop === 'total') return sign * (a.total - b.total);
-    const left = a[prop];
-    const right = b[prop];
-    if (left === right) return 0;
-    if (left === null) return 1;
-    if (right === null) return -1;
-    return sign * left.localeCompare(right);
-  });
-}

@@ -1,8 +1,8 @@
 import { defineStore } from 'pinia';
 import { ref, shallowRef } from 'vue';
-import type { DemandResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
+import type { DemandTableResponse, ForecastMailResponse, PlanResponse } from '@shared/schemas/horizon';
 import * as horizonApi from '@/api/horizon';
-import type { DemandQuery } from '@/api/horizon';
+import type { DemandQuery, DemandTableRequest } from '@/api/horizon';
 import { useLatestRequest } from './latest-request';
 
 interface FetchOptions {
@@ -11,11 +11,11 @@ interface FetchOptions {
 }
 
 export const useHorizonStore = defineStore('horizon', () => {
-  // Replaced whole on every answer, never changed in place: no deep reactivity over thousands of rows.
-  const demand = shallowRef<DemandResponse | null>(null);
-  const demandQuery = ref<DemandQuery | null>(null);
+  // One page of the table, replaced whole on every answer: no deep reactivity over its rows.
+  const table = shallowRef<DemandTableResponse | null>(null);
+  const tableRequest = ref<DemandTableRequest | null>(null);
   // Filters change faster than the server answers; only the latest request may land.
-  const { loading, error, run: runDemand } = useLatestRequest();
+  const { loading, error, run: runTable } = useLatestRequest();
 
   const plan = ref<PlanResponse | null>(null);
   const { loading: planLoading, error: planError, run: runPlan, cancel: cancelPlan } = useLatestRequest();
@@ -24,13 +24,13 @@ export const useHorizonStore = defineStore('horizon', () => {
   /** When the figures were last replaced because the server announced a planning change. */
   const liveUpdatedAt = ref<Date | null>(null);
 
-  /** Loads the demand table for a horizon and supplier; a failure is kept in `error`. */
-  function fetchDemand(query: DemandQuery, options: FetchOptions = {}): Promise<void> {
-    return runDemand(
-      (signal) => horizonApi.getDemand(query, signal),
+  /** Loads one page of the demand table; a failure is kept in `error`. */
+  function fetchTable(request: DemandTableRequest, options: FetchOptions = {}): Promise<void> {
+    return runTable(
+      (signal) => horizonApi.getDemandTable(request, signal),
       (answer) => {
-        demand.value = answer;
-        demandQuery.value = { ...query };
+        table.value = answer;
+        tableRequest.value = { ...request };
       },
       options,
     );
@@ -62,10 +62,10 @@ export const useHorizonStore = defineStore('horizon', () => {
 
   /** Re-reads what is on screen after a planning change, without spinners or lost filters. */
   async function refreshLive(part: string | null): Promise<void> {
-    const query = demandQuery.value;
+    const request = tableRequest.value;
     const jobs: Promise<void>[] = [];
-    if (query) jobs.push(fetchDemand(query, { quiet: true }));
-    if (part && query) jobs.push(fetchPlan(part, { from: query.from, to: query.to }, { quiet: true }));
+    if (request) jobs.push(fetchTable(request, { quiet: true }));
+    if (part && request) jobs.push(fetchPlan(part, { from: request.from, to: request.to }, { quiet: true }));
     await Promise.all(jobs);
     if (!error.value) liveUpdatedAt.value = new Date();
   }
@@ -93,8 +93,8 @@ export const useHorizonStore = defineStore('horizon', () => {
   }
 
   return {
-    demand,
-    demandQuery,
+    table,
+    tableRequest,
     mailing,
     mailForecast,
     loading,
@@ -104,7 +104,7 @@ export const useHorizonStore = defineStore('horizon', () => {
     planError,
     exporting,
     liveUpdatedAt,
-    fetchDemand,
+    fetchTable,
     fetchPlan,
     clearPlan,
     refreshLive,

@@ -4,7 +4,8 @@ import { getISOWeek, getISOWeekYear } from 'date-fns';
 import { weeklyTotals } from '@shared/domain/plan-demand';
 import type { DemandResponse } from '@shared/schemas/horizon';
 import HorizonTable from '@/components/HorizonTable.vue';
-import { demandColumns, demandTable } from '@/components/horizon-presentation';
+import { demandTablePage } from '@shared/domain/demand-table';
+import { demandColumns, labelledColumns } from '@/components/horizon-presentation';
 
 // A demand response across the 2009/2010 year boundary, as GET /api/demand sends it (every
 // horizon day a key of byDay). The quantities are arbitrary: the checks below are ISO week
@@ -50,9 +51,17 @@ function cellTexts(row: Element): string[] {
 
 async function mountTable(bucket: 'day' | 'week') {
   const context = await createAppContext({ user: demoUsers.buyer, path: '/' });
-  const table = demandTable(demand, bucket);
+  const table = demandTablePage(demand, { bucket, page: 1, pageSize: 50, stackBy: 'supplier' });
   const wrapper = await mountInApp(HorizonTable, context, {
-    props: { columns: table.columns, rows: table.rows, bucket, loading: false, emptyText: 'No demand' },
+    props: {
+      columns: labelledColumns(table.buckets, bucket),
+      rows: table.rows,
+      totals: { byBucket: table.bucketTotals, grand: table.grandTotal },
+      sort: { prop: null, order: null },
+      bucket,
+      loading: false,
+      emptyText: 'No demand',
+    },
   });
   return { wrapper, table };
 }
@@ -106,10 +115,10 @@ describe('HorizonTable', () => {
       expect(weekSum).toBeCloseTo(row.total, 9);
     }
     // Pieces and metres are summed apart, never into one number.
-    expect(table.totals['2009-W53']!.map((total) => total.uom)).toEqual(['H87', 'MTR']);
-    expect(table.totals['2009-W53']![0]!.qty).toBeCloseTo(dayTotal(days.slice(0, 4), 'H87'), 9);
-    expect(table.totals['2009-W53']![1]!.qty).toBeCloseTo(dayTotal(days.slice(0, 4), 'MTR'), 9);
-    expect(table.totals['2010-W01']![1]!.qty).toBeCloseTo(dayTotal(days.slice(4), 'MTR'), 9);
+    expect(table.bucketTotals['2009-W53']!.map((total) => total.uom)).toEqual(['H87', 'MTR']);
+    expect(table.bucketTotals['2009-W53']![0]!.qty).toBeCloseTo(dayTotal(days.slice(0, 4), 'H87'), 9);
+    expect(table.bucketTotals['2009-W53']![1]!.qty).toBeCloseTo(dayTotal(days.slice(0, 4), 'MTR'), 9);
+    expect(table.bucketTotals['2010-W01']![1]!.qty).toBeCloseTo(dayTotal(days.slice(4), 'MTR'), 9);
     expect(table.grandTotal.map((total) => total.qty)).toEqual([dayTotal(days, 'H87'), dayTotal(days, 'MTR')]);
     // The footer shows one decimal per unit, so it may differ from the exact sum by half a tenth.
     const footer = wrapper.get('.el-table__footer-wrapper tr');

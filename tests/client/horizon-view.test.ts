@@ -2,6 +2,7 @@ import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import { addCalendarDays } from '@shared/domain/date';
+import { demandTablePage, type DemandSort } from '@shared/domain/demand-table';
 import type { DemandResponse, PlanResponse } from '@shared/schemas/horizon';
 import HorizonView from '@/views/HorizonView.vue';
 import { localToday } from '@/format';
@@ -65,6 +66,23 @@ const plan: PlanResponse = {
 
 type Answer = (url: URL) => Response;
 
+/** Answers GET /api/demand/table as the server does: the shared page cut from a daily report. */
+function tableOf(daily: DemandResponse): Answer {
+  return (url) => {
+    const asked = url.searchParams;
+    const sort = { prop: asked.get('sort'), order: asked.get('order') } as DemandSort;
+    const page = demandTablePage(daily, {
+      bucket: asked.get('bucket') === 'week' ? 'week' : 'day',
+      search: asked.get('q') ?? undefined,
+      sort,
+      page: Number(asked.get('page') ?? 1),
+      pageSize: Number(asked.get('pageSize') ?? 50),
+      stackBy: asked.get('supplier') ? 'part' : 'supplier',
+    });
+    return jsonResponse(200, { ...page, sequenceEnds: daily.sequenceEnds });
+  };
+}
+
 /** Answers each API path with a handler; the event stream stays silent. */
 function stubApi(answers: Record<string, Answer>) {
   const fetchMock = vi.fn<typeof fetch>((input) => {
@@ -103,14 +121,13 @@ describe('HorizonView', () => {
 
   it('sums pieces and kilograms apart in the count line and charts one unit at a time', async () => {
     stubApi({
-      '/api/demand': () =>
-        jsonResponse(200, {
-          ...demand,
-          rows: [
-            ...demand.rows,
-            { partNumber: 'STL-SHT-30', supplierCode: 'HSS', uom: 'KGM', total: 37.5, byDay: { '2026-12-01': 37.5 } },
-          ],
-        }),
+      '/api/demand/table': tableOf({
+        ...demand,
+        rows: [
+          ...demand.rows,
+          { partNumber: 'STL-SHT-30', supplierCode: 'HSS', uom: 'KGM', total: 37.5, byDay: { '2026-12-01': 37.5 } },
+        ],
+      }),
       '/api/suppliers': () => jsonResponse(200, []),
     });
 
@@ -118,15 +135,13 @@ describe('HorizonView', () => {
 
     expect(wrapper.text()).toContain('3 parts · 156 pcs · 37.5 kg in total');
     const chart = wrapper.findComponent({ name: 'HorizonDemandChart' });
-    expect(chart.props('rows').map((row: { partNumber: string }) => row.partNumber)).toEqual([
-      'BAT-06-225',
-      'BAT-06-312',
-    ]);
+    // Pieces only, stacked by supplier: both batteries come from FBS, 60 + 96 = 156 pieces.
+    expect(chart.props('stacks')).toEqual([{ name: 'FBS', values: [80, 76], total: 156, rest: 0 }]);
     expect(wrapper.get('[aria-label="Unit charted"]').text()).toContain('kg');
   });
 
   it('says where the build sequence ends when the horizon reaches past it', async () => {
-    stubApi({ '/api/demand': () => jsonResponse(200, demand), '/api/suppliers': () => jsonResponse(200, []) });
+    stubApi({ '/api/demand/table': tableOf(demand), '/api/suppliers': () => jsonResponse(200, []) });
 
     const { wrapper } = await openHorizon('/horizon');
 
@@ -138,25 +153,28 @@ describe('HorizonView', () => {
 
   it('asks for the horizon and supplier written in the link', async () => {
     const fetchMock = stubApi({
-      '/api/demand': () => jsonResponse(200, demand),
+      '/api/demand/table': tableOf(demand),
       '/api/suppliers': () => jsonResponse(200, []),
     });
 
     await openHorizon('/horizon?supplier=FBS&weeks=2&bucket=week');
 
-    const [request] = requestsTo(fetchMock, '/api/demand');
+    const [request] = requestsTo(fetchMock, '/api/demand/table');
     const today = localToday();
     // Two weeks are 14 calendar days, today included.
     expect(Object.fromEntries(request!.searchParams)).toEqual({
       from: today,
       to: addCalendarDays(today, 13),
       supplier: 'FBS',
+      bucket: 'week',
+      page: '1',
+      pageSize: '50',
     });
   });
 
   it('opens the drill-down of the part typed in the search box when Enter is pressed', async () => {
     const fetchMock = stubApi({
-      '/api/demand': () => jsonResponse(200, demand),
+      '/api/demand/table': tableOf(demand),
       '/api/suppliers': () => jsonResponse(200, []),
       '/api/plan': () => jsonResponse(200, plan),
     });
@@ -175,7 +193,7 @@ describe('HorizonView', () => {
 
   it('says in the drill-down that the scrap allowance is added when ordering, and links the part to its stock', async () => {
     stubApi({
-      '/api/demand': () => jsonResponse(200, demand),
+      '/api/demand/table': tableOf(demand),
       '/api/suppliers': () => jsonResponse(200, []),
       '/api/plan': () => jsonResponse(200, plan),
     });
@@ -195,10 +213,10 @@ describe('HorizonView', () => {
     let calls = 0;
     const fetchMock = stubApi({
       '/api/suppliers': () => jsonResponse(200, []),
-      '/api/demand': () =>
+      '/api/demand/table': (url) =>
         ++calls === 1
           ? jsonResponse(503, { error: { code: 'unavailable', message: 'The planning data is being rebuilt.' } })
-          : jsonResponse(200, demand),
+          : tableOf(demand)(url),
     });
     const { wrapper } = await openHorizon('/horizon');
 
@@ -206,7 +224,7 @@ describe('HorizonView', () => {
     getButton(wrapper.element, 'Retry').click();
     await flushPromises();
 
-    expect(requestsTo(fetchMock, '/api/demand')).toHaveLength(2);
+    expect(requestsTo(fetchMock, '/api/demand/table')).toHaveLength(2);
     expect(wrapper.find('[role="alert"]').exists()).toBe(false);
     expect(wrapper.text()).toContain('BAT-06-312');
   });
@@ -224,7 +242,7 @@ describe('HorizonView', () => {
         byDay: { '2026-12-01': index + 1 },
       })),
     };
-    stubApi({ '/api/demand': () => jsonResponse(200, many), '/api/suppliers': () => jsonResponse(200, []) });
+    const fetchMock = stubApi({ '/api/demand/table': tableOf(many), '/api/suppliers': () => jsonResponse(200, []) });
     const { wrapper } = await openHorizon('/horizon');
     const bodyRows = () => wrapper.findAll('.horizon-table .el-table__body-wrapper tbody tr');
     const firstPart = () => bodyRows()[0]!.find('button').text();
@@ -246,5 +264,39 @@ describe('HorizonView', () => {
     await flushPromises();
     expect(firstPart()).toBe('P-200');
     expect(bodyRows()).toHaveLength(50);
+    // The browser asked for one page at a time, never the whole table.
+    const last = requestsTo(fetchMock, '/api/demand/table').at(-1)!.searchParams;
+    expect([last.get('sort'), last.get('order'), last.get('page'), last.get('pageSize')]).toEqual([
+      'total',
+      'descending',
+      '2',
+      '50',
+    ]);
+  });
+
+  it('asks the server for the parts matching the search once typing settles, from the first page', async () => {
+    const many: DemandResponse = {
+      days: ['2026-12-01'],
+      sequenceEnds: '2026-12-01',
+      rows: Array.from({ length: 120 }, (_, index) => ({
+        partNumber: `P-${String(index + 1).padStart(3, '0')}`,
+        supplierCode: 'FBS',
+        uom: 'H87',
+        total: 1,
+        byDay: { '2026-12-01': 1 },
+      })),
+    };
+    const fetchMock = stubApi({ '/api/demand/table': tableOf(many), '/api/suppliers': () => jsonResponse(200, []) });
+    const { wrapper } = await openHorizon('/horizon');
+    await wrapper.get('.horizon-view__pager .btn-next').trigger('click');
+    await flushPromises();
+
+    await wrapper.get<HTMLInputElement>('input[aria-label="Part search"]').setValue('p-01');
+
+    // P-010 … P-019: ten parts, one piece each.
+    await vi.waitFor(() => expect(wrapper.text()).toContain('10 parts · 10 pcs in total'));
+    const asked = requestsTo(fetchMock, '/api/demand/table').at(-1)!.searchParams;
+    expect([asked.get('q'), asked.get('page')]).toEqual(['p-01', '1']);
+    expect(wrapper.findAll('.horizon-table .el-table__body-wrapper tbody tr')).toHaveLength(10);
   });
 });

@@ -187,3 +187,80 @@ describe('GET /api/demand', () => {
     expect(response.status).toBe(404);
   });
 });
+
+describe('GET /api/demand/table', () => {
+  // The fixture above worked by hand: C is 2 per unit of M, D 1 per unit; units on Mon 21 (2),
+  // Tue 22 (1) and Mon 28 Dec (3). 21–24 Dec fall in ISO week 2026-W52 and 28 Dec opens 2026-W53
+  // (ISO 8601-1:2019 §3.1.1.23: 2026 starts on a Thursday, so it has 53 weeks; from memory).
+  it('sums the days into ISO weeks, sorts and pages on the server, and totals every matched row', async () => {
+    const response = await request(context.app)
+      .get('/api/demand/table')
+      .query({ from: '2026-12-21', to: '2026-12-28', bucket: 'week', sort: 'total', order: 'descending', pageSize: 1 })
+      .set(bearer(context.tokens.buyer));
+
+    expect(response.status).toBe(200);
+    expect(response.body.buckets).toEqual([
+      { key: '2026-W52', days: ['2026-12-21', '2026-12-22', '2026-12-23', '2026-12-24'] },
+      { key: '2026-W53', days: ['2026-12-28'] },
+    ]);
+    expect(response.body.rows).toEqual([
+      { partNumber: 'C', supplierCode: 'SUP-A', uom: 'H87', total: 12, byBucket: { '2026-W52': 6, '2026-W53': 6 } },
+    ]);
+    expect(response.body).toMatchObject({ page: 1, pageSize: 1, matched: 2, partsWithDemand: 2, exactMatch: null });
+    expect(response.body.bucketTotals).toEqual({
+      '2026-W52': [{ uom: 'H87', qty: 9 }],
+      '2026-W53': [{ uom: 'H87', qty: 9 }],
+    });
+    expect(response.body.grandTotal).toEqual([{ uom: 'H87', qty: 18 }]);
+    expect(response.body.units).toEqual(['H87']);
+    expect(response.body.stacks.H87.map((stack: { name: string }) => stack.name)).toEqual(['SUP-A', 'SUP-B']);
+
+    const second = await request(context.app)
+      .get('/api/demand/table')
+      .query({ from: '2026-12-21', to: '2026-12-28', sort: 'total', order: 'descending', pageSize: 1, page: 2 })
+      .set(bearer(context.tokens.buyer));
+    expect(second.body.rows.map((row: { partNumber: string }) => row.partNumber)).toEqual(['D']);
+  });
+
+  it('agrees with GET /api/demand row for row, day for day', async () => {
+    const query = { from: '2026-12-21', to: '2026-12-28' };
+    const [daily, table] = await Promise.all([
+      request(context.app).get('/api/demand').query(query).set(bearer(context.tokens.buyer)),
+      request(context.app).get('/api/demand/table').query(query).set(bearer(context.tokens.buyer)),
+    ]);
+
+    expect(table.body.rows).toEqual(
+      daily.body.rows.map(({ byDay, ...row }: { byDay: Record<string, number> }) => ({ ...row, byBucket: byDay })),
+    );
+    expect(table.body.sequenceEnds).toBe(daily.body.sequenceEnds);
+  });
+
+  it('searches part numbers in any case and names the part the search stands for', async () => {
+    const response = await request(context.app)
+      .get('/api/demand/table')
+      .query({ from: '2026-12-21', to: '2026-12-28', q: 'd', supplier: 'SUP-B' })
+      .set(bearer(context.tokens.planner));
+
+    expect(response.status).toBe(200);
+    expect(response.body).toMatchObject({ matched: 1, partsWithDemand: 1, exactMatch: 'D' });
+    // Within one supplier the chart stacks by part.
+    expect(response.body.stacks.H87).toEqual([{ name: 'D', values: [2, 1, 0, 0, 3], total: 6, rest: 0 }]);
+  });
+
+  it('answers 400 naming the field for a page size past the limit, 404 for an unknown supplier, 403 to a supplier', async () => {
+    const tooLarge = await request(context.app)
+      .get('/api/demand/table')
+      .query({ pageSize: 5000 })
+      .set(bearer(context.tokens.buyer));
+    const unknown = await request(context.app)
+      .get('/api/demand/table')
+      .query({ supplier: 'NOPE' })
+      .set(bearer(context.tokens.buyer));
+    const supplier = await request(context.app).get('/api/demand/table').set(bearer(context.tokens.supplier));
+
+    expect(tooLarge.status).toBe(400);
+    expect(JSON.stringify(tooLarge.body)).toContain('pageSize');
+    expect(unknown.status).toBe(404);
+    expect(supplier.status).toBe(403);
+  });
+});
