@@ -134,16 +134,16 @@ describe('computeLineRisk — hand-worked cases', () => {
   });
 
   it('promises no more than the textbook’s available-to-promise, period by period', () => {
-    // W. J. Stevenson, Operations Management, chapter "Aggregate Planning and Master Scheduling",
-    // the industrial-pump master schedule: 64 pumps on hand; committed orders 33, 20, 10, 4, 2 in
-    // weeks 1–5; lot size 70 scheduled when projected on-hand would go negative, so MPS in weeks 3,
-    // 5, 7 and 8. Its worked ATP row (look-ahead: orders summed until the next MPS): week 1
-    // 64 − (33 + 20) = 11 (quoted at https://studymode.com/essays/Ops-571-Week-4-49373664.html),
-    // week 3 70 − (10 + 4) = 56, week 5 70 − 2 = 68, weeks 7 and 8 70 each (the same rule, worked
-    // from the quoted method; the book's table from memory). Weeks become working days here, the
-    // MPS quantities firm receipts. Walking orders first come, first served, a new order placed
-    // last before the next MPS may take exactly the cumulative ATP so far — 11, 67, 135, 205, 275 —
-    // and one more unit leaves it (and it alone) at risk, 1 short on its day.
+    // The industrial-pump master schedule of W. J. Stevenson, Operations Management, chapter
+    // "Aggregate Planning and Master Scheduling" (book and chapter from memory). The figures as
+    // quoted at https://studymode.com/essays/Ops-571-Week-4-49373664.html: 64 pumps on hand,
+    // committed orders 33 and 20 in weeks 1 and 2 (then 10, 4, 2 in weeks 3–5), lot size 70
+    // scheduled when projected on-hand would go negative, so MPS in weeks 3, 5, 7 and 8, and ATP
+    // with look-ahead (orders summed until the next MPS) of 64 − (33 + 20) = 11 in week 1. The
+    // same quoted rule gives week 3 70 − (10 + 4) = 56, week 5 70 − 2 = 68, weeks 7 and 8 70 each.
+    // Weeks become working days here, the MPS quantities firm receipts. Walking orders first come,
+    // first served, a new order placed last before the next MPS may take exactly the cumulative
+    // ATP so far — 11, 67, 135, 205, 275 — and one more leaves it (and it alone) at risk, 1 short.
     // Weeks 1–8 as the working days Mon 2 … Wed 11 March.
     const period = [MON, TUE, WED, THU, FRI, '2026-03-09', '2026-03-10', '2026-03-11'];
     const committed = [33, 20, 10, 4, 2].map((qty, week) => ({
