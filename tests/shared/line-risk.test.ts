@@ -133,6 +133,53 @@ describe('computeLineRisk — hand-worked cases', () => {
     });
   });
 
+  it('promises no more than the textbook’s available-to-promise, period by period', () => {
+    // The industrial-pump master schedule of W. J. Stevenson, Operations Management, chapter
+    // "Aggregate Planning and Master Scheduling" (book and chapter from memory). The figures as
+    // quoted at https://studymode.com/essays/Ops-571-Week-4-49373664.html: 64 pumps on hand,
+    // committed orders 33 and 20 in weeks 1 and 2 (then 10, 4, 2 in weeks 3–5), lot size 70
+    // scheduled when projected on-hand would go negative, so MPS in weeks 3, 5, 7 and 8, and ATP
+    // with look-ahead (orders summed until the next MPS) of 64 − (33 + 20) = 11 in week 1. The
+    // same quoted rule gives week 3 70 − (10 + 4) = 56, week 5 70 − 2 = 68, weeks 7 and 8 70 each.
+    // Weeks become working days here, the MPS quantities firm receipts. Walking orders first come,
+    // first served, a new order placed last before the next MPS may take exactly the cumulative
+    // ATP so far — 11, 67, 135, 205, 275 — and one more leaves it (and it alone) at risk, 1 short.
+    // Weeks 1–8 as the working days Mon 2 … Wed 11 March.
+    const period = [MON, TUE, WED, THU, FRI, '2026-03-09', '2026-03-10', '2026-03-11'];
+    const committed = [33, 20, 10, 4, 2].map((qty, week) => ({
+      ...slot(period[week]!, 1, 'PUMP', `ORDER-${week + 1}`),
+      qty,
+    }));
+    const mps = [3, 5, 7, 8].map((week) => ({ partNumber: 'P', date: period[week - 1]!, qty: 70 }));
+    const withNewOrder = (week: number, qty: number) =>
+      lineRisk({
+        parts: [model('PUMP'), part('P', { onHand: 64 })],
+        bom: [line('PUMP', 'P', 1)],
+        sequence: [...committed, { ...slot(period[week - 1]!, 9, 'PUMP', 'NEW'), qty }],
+        firmReceipts: mps,
+        to: period[7],
+      });
+    const discreteAtp = [
+      { week: 1, atp: 11, lastWeekBeforeNextMps: 2 },
+      { week: 3, atp: 56, lastWeekBeforeNextMps: 4 },
+      { week: 5, atp: 68, lastWeekBeforeNextMps: 6 },
+      { week: 7, atp: 70, lastWeekBeforeNextMps: 7 },
+      { week: 8, atp: 70, lastWeekBeforeNextMps: 8 },
+    ];
+
+    let cumulative = 0;
+    for (const { atp, lastWeekBeforeNextMps: week } of discreteAtp) {
+      cumulative += atp;
+      const promised = withNewOrder(week, cumulative);
+      const oneMore = withNewOrder(week, cumulative + 1);
+
+      expect(promised.unitsAtRisk).toEqual([]);
+      expect(serialsAtRisk(oneMore)).toEqual(['NEW']);
+      expect(oneMore.shortages[0]!.needBy).toEqual([{ date: period[week - 1], qty: 1 }]);
+    }
+    expect(cumulative).toBe(275);
+  });
+
   it('walks by date and position whatever order the slots arrive in', () => {
     // Same plant as above with the slots listed backwards: Tuesday's unit still comes last.
     const result = lineRisk({
