@@ -1,6 +1,13 @@
 import { BomCycleError, computePlan, grossDemandByDay, PlanInputError } from '../../shared/domain/plan';
 import type { PlanResult } from '../../shared/domain/types';
-import { demandTablePage, type DemandTableQuery } from '../../shared/domain/demand-table';
+import {
+  pageOfDemandTable,
+  sortDemandRows,
+  summariseDemandTable,
+  type DailyDemandRow,
+  type DemandTableQuery,
+  type DemandTableSummary,
+} from '../../shared/domain/demand-table';
 import type { DemandResponse, DemandTableResponse, PlanResponse } from '../../shared/schemas/horizon';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { SupplierEntity } from '../master-data/supplier.entity';
@@ -21,7 +28,16 @@ const MAX_CACHED_BODIES = 32;
 /** Demand reports kept as objects for the table pages: tens of megabytes each on a large plant. */
 const MAX_CACHED_REPORTS = 4;
 
+/** Searches (and their sorted rows) kept per demand report: a buyer pages and sorts one search at a time. */
+const MAX_CACHED_SEARCHES = 8;
+
 type DemandOptions = { from?: string; to?: string; supplierCode?: string };
+
+/** A search over one demand report, and its rows in each order asked for so far. */
+interface SearchedTable {
+  summary: DemandTableSummary;
+  sorted: Map<string, readonly DailyDemandRow[]>;
+}
 
 /** Keeps `value` under `key`, dropping the oldest entry when the cache is full. */
 function remember<T>(cache: Map<string, T>, max: number, key: string, value: T): void {
@@ -37,6 +53,7 @@ export class PlanningService {
   private readonly plans = new Map<string, CachedPlan>();
   private readonly demandBodies = new Map<string, SerialisedBody>();
   private readonly demandReports = new Map<string, DemandResponse>();
+  private readonly searchedTables = new WeakMap<DemandResponse, Map<string, SearchedTable>>();
   /** Counts planning versions seen, so a body built from an older one is not kept. */
   private generation = 0;
   private readonly inputs: PerPlanningVersion<PlanInputs>;
@@ -113,7 +130,18 @@ export class PlanningService {
   /** One page of the demand table, cut from the report kept for this horizon and supplier. */
   async demandTable(options: DemandOptions, query: DemandTableQuery): Promise<DemandTableResponse> {
     const report = await this.cachedDemand(options, this.demandReports, MAX_CACHED_REPORTS, () => this.demand(options));
-    return { ...demandTablePage(report, query), sequenceEnds: report.sequenceEnds };
+    let searches = this.searchedTables.get(report);
+    if (!searches) this.searchedTables.set(report, (searches = new Map()));
+    const searchKey = `${query.bucket}|${query.stackBy}|${query.search?.trim().toLowerCase() ?? ''}`;
+    let searched = searches.get(searchKey);
+    if (!searched) {
+      searched = { summary: summariseDemandTable(report, query), sorted: new Map() };
+      remember(searches, MAX_CACHED_SEARCHES, searchKey, searched);
+    }
+    const sortKey = `${query.sort?.prop ?? ''}|${query.sort?.order ?? ''}`;
+    let sorted = searched.sorted.get(sortKey);
+    if (!sorted) searched.sorted.set(sortKey, (sorted = sortDemandRows(searched.summary.matchedRows, query.sort)));
+    return { ...pageOfDemandTable(searched.summary, query, sorted), sequenceEnds: report.sequenceEnds };
   }
 
   /** What `build` makes of the demand over a horizon, kept until the planning version changes. */

@@ -152,12 +152,22 @@ function rankStacks(stacks: Iterable<DemandStack>): DemandStack[] {
   ];
 }
 
+/** What a search over the daily demand adds up to, whatever page or order is shown of it. */
+export interface DemandTableSummary extends Omit<DemandTablePage, 'rows' | 'page' | 'pageSize'> {
+  days: readonly string[];
+  /** Index into `buckets` of each of `days`. */
+  bucketOfDay: number[];
+  matchedRows: readonly DailyDemandRow[];
+}
+
 /**
- * Cuts the daily demand into one page of the table the buyer asked for: searched, sorted and
- * bucketed, with the totals and chart bands of every row the search lets through, so a plant of
- * tens of thousands of parts sends a browser only what it shows.
+ * Searches the daily demand and sums every row the search lets through into the buckets, per unit
+ * of measure (pieces and kilograms never mix): the table's totals and the chart's bands.
  */
-export function demandTablePage(demand: DailyDemand, query: DemandTableQuery): DemandTablePage {
+export function summariseDemandTable(
+  demand: DailyDemand,
+  query: Pick<DemandTableQuery, 'bucket' | 'search' | 'stackBy'>,
+): DemandTableSummary {
   const buckets = demandBuckets(demand.days, query.bucket);
   const bucketIndex = new Map(buckets.map((bucket, index) => [bucket.key, index]));
   const bucketOfDay = demand.days.map((day) => bucketIndex.get(query.bucket === 'day' ? day : isoWeekKey(day))!);
@@ -167,7 +177,6 @@ export function demandTablePage(demand: DailyDemand, query: DemandTableQuery): D
   const exact = needle ? matchedRows.find((row) => row.partNumber.toLowerCase() === needle) : undefined;
   const exactMatch = exact?.partNumber ?? (needle && matchedRows.length === 1 ? matchedRows[0]!.partNumber : null);
 
-  // Totals and chart bands over every matched row, summed by unit: pieces and kilograms never mix.
   const sums = new Map<string, number[]>();
   const rowCounts = new Map<string, number>();
   const bands = new Map<string, Map<string, DemandStack>>();
@@ -208,26 +217,11 @@ export function demandTablePage(demand: DailyDemand, query: DemandTableQuery): D
     stacks[uom] = rankStacks(unitBands.values());
   }
 
-  const sorted = sortDemandRows(matchedRows, query.sort);
-  const pageCount = Math.max(1, Math.ceil(sorted.length / query.pageSize));
-  const page = Math.min(Math.max(1, query.page), pageCount);
-  const start = (page - 1) * query.pageSize;
-  const rows = sorted.slice(start, start + query.pageSize).map((row) => {
-    const values = bucketValues(row, demand.days, bucketOfDay, buckets.length);
-    return {
-      partNumber: row.partNumber,
-      supplierCode: row.supplierCode,
-      uom: row.uom,
-      total: row.total,
-      byBucket: Object.fromEntries(buckets.map((bucket, index) => [bucket.key, values[index]!])),
-    };
-  });
-
   return {
     buckets,
-    rows,
-    page,
-    pageSize: query.pageSize,
+    days: demand.days,
+    bucketOfDay,
+    matchedRows,
     matched: matchedRows.length,
     partsWithDemand: demand.rows.length,
     exactMatch,
@@ -240,4 +234,39 @@ export function demandTablePage(demand: DailyDemand, query: DemandTableQuery): D
     units: [...rowCounts].sort((a, b) => b[1] - a[1]).map(([uom]) => uom),
     stacks,
   };
+}
+
+/**
+ * One page of a searched table, its rows summed into the buckets. `sorted` is the summary's
+ * matched rows in the asked order, when the caller kept them from an earlier page.
+ */
+export function pageOfDemandTable(
+  summary: DemandTableSummary,
+  query: Pick<DemandTableQuery, 'sort' | 'page' | 'pageSize'>,
+  sorted: readonly DailyDemandRow[] = sortDemandRows(summary.matchedRows, query.sort),
+): DemandTablePage {
+  const { days: _days, bucketOfDay, matchedRows: _matched, ...totals } = summary;
+  const pageCount = Math.max(1, Math.ceil(sorted.length / query.pageSize));
+  const page = Math.min(Math.max(1, query.page), pageCount);
+  const start = (page - 1) * query.pageSize;
+  const rows = sorted.slice(start, start + query.pageSize).map((row) => {
+    const values = bucketValues(row, summary.days, bucketOfDay, summary.buckets.length);
+    return {
+      partNumber: row.partNumber,
+      supplierCode: row.supplierCode,
+      uom: row.uom,
+      total: row.total,
+      byBucket: Object.fromEntries(summary.buckets.map((bucket, index) => [bucket.key, values[index]!])),
+    };
+  });
+  return { ...totals, rows, page, pageSize: query.pageSize };
+}
+
+/**
+ * Cuts the daily demand into one page of the table the buyer asked for: searched, sorted and
+ * bucketed, with the totals and chart bands of every row the search lets through, so a plant of
+ * tens of thousands of parts sends a browser only what it shows.
+ */
+export function demandTablePage(demand: DailyDemand, query: DemandTableQuery): DemandTablePage {
+  return pageOfDemandTable(summariseDemandTable(demand, query), query);
 }

@@ -29,7 +29,10 @@ export const useHorizonStore = defineStore('horizon', () => {
     return runTable(
       (signal) => horizonApi.getDemandTable(request, signal),
       (answer) => {
-        table.value = answer;
+        // A live refresh that found nothing changed on this page leaves the screen untouched:
+        // no table layout, no chart redraw.
+        const unchanged = options.quiet && table.value && JSON.stringify(table.value) === JSON.stringify(answer);
+        if (!unchanged) table.value = answer;
         tableRequest.value = { ...request };
       },
       options,

@@ -41,14 +41,24 @@ export async function printHorizonOpen(db: Database): Promise<void> {
 
     // First with the server's plan cache cold (the first visit after a change), then again warm.
     const firstRow = page.locator('.horizon-table .el-table__body-wrapper button').first();
-    const openMs = async (): Promise<number | null> => {
+    const isTablePage = (url: string) => url.includes('/api/demand/table?');
+    // From the Overview once its figures are in, so the Horizon is timed alone: on a large plant the
+    // Overview's first line risk is a figure of its own (printed above as GET /api/line-risk, first).
+    const openMs = async (): Promise<{ rows: number; answer: number } | null> => {
+      const overview = page.waitForResponse((response) => response.url().endsWith('/api/overview'), {
+        timeout: OPEN_TIMEOUT_MS,
+      });
       await page.goto(`${base}/`);
+      await overview;
       await page.getByRole('navigation').waitFor();
       const start = performance.now();
+      const answered = page
+        .waitForResponse((response) => isTablePage(response.url()), { timeout: OPEN_TIMEOUT_MS })
+        .then(() => performance.now() - start);
       await page.getByRole('navigation').getByRole('link', { name: 'Horizon' }).click();
       return firstRow
         .waitFor({ timeout: OPEN_TIMEOUT_MS })
-        .then(() => performance.now() - start)
+        .then(async () => ({ rows: performance.now() - start, answer: await answered }))
         .catch(() => null);
     };
     const cold = await openMs();
@@ -60,8 +70,9 @@ export async function printHorizonOpen(db: Database): Promise<void> {
     const nodes = await page.evaluate(() => document.getElementsByTagName('*').length);
     const count = await page.locator('.horizon-view__count').textContent();
     console.log(
-      `Horizon open (Chromium, 1440 px), click to first rows: ${cold.toFixed(0)} ms with the server's plan cache cold, ` +
-        `${warm.toFixed(0)} ms warm; ${nodes} DOM nodes; ${count?.trim()}`,
+      `Horizon open (Chromium, 1440 px), click to first rows: ${cold.rows.toFixed(0)} ms with the server's plan cache cold, ` +
+        `${warm.rows.toFixed(0)} ms warm (the table page answered after ${cold.answer.toFixed(0)} / ${warm.answer.toFixed(0)} ms); ` +
+        `${nodes} DOM nodes; ${count?.trim()}`,
     );
 
     // Main-thread work of one planning change: long tasks (> 50 ms) from the notice until the
@@ -73,7 +84,7 @@ export async function printHorizonOpen(db: Database): Promise<void> {
         for (const entry of list.getEntries()) win.benchLongTasks += entry.duration;
       }).observe({ type: 'longtask' });
     });
-    const refreshed = page.waitForResponse((response) => response.url().includes('/api/demand?'), {
+    const refreshed = page.waitForResponse((response) => isTablePage(response.url()), {
       timeout: OPEN_TIMEOUT_MS,
     });
     const changed = performance.now();

@@ -6,6 +6,8 @@ import { demandTablePage, type DemandSort } from '@shared/domain/demand-table';
 import type { DemandResponse, PlanResponse } from '@shared/schemas/horizon';
 import HorizonView from '@/views/HorizonView.vue';
 import { localToday } from '@/format';
+import { createPinia, setActivePinia } from 'pinia';
+import { useHorizonStore } from '@/stores/horizon';
 
 const demand: DemandResponse = {
   days: ['2026-12-01', '2026-12-02'],
@@ -298,5 +300,34 @@ describe('HorizonView', () => {
     const asked = requestsTo(fetchMock, '/api/demand/table').at(-1)!.searchParams;
     expect([asked.get('q'), asked.get('page')]).toEqual(['p-01', '1']);
     expect(wrapper.findAll('.horizon-table .el-table__body-wrapper tbody tr')).toHaveLength(10);
+  });
+});
+
+describe('horizon store', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('keeps the page on screen untouched when a live refresh finds nothing changed, and replaces it when something did', async () => {
+    setActivePinia(createPinia());
+    let answer = demand;
+    stubApi({ '/api/demand/table': (url) => tableOf(answer)(url) });
+    const horizon = useHorizonStore();
+    const request = {
+      from: '2026-12-01',
+      to: '2026-12-02',
+      bucket: 'day' as const,
+      sort: { prop: null, order: null },
+      page: 1,
+      pageSize: 50,
+    };
+
+    await horizon.fetchTable(request);
+    const shown = horizon.table;
+    await horizon.refreshLive(null);
+    expect(horizon.table).toBe(shown);
+
+    answer = { ...demand, rows: demand.rows.map((row) => ({ ...row, total: row.total + 1 })) };
+    await horizon.refreshLive(null);
+    expect(horizon.table).not.toBe(shown);
+    expect(horizon.table!.rows.map((row) => row.total)).toEqual([61, 97]);
   });
 });
