@@ -29,5 +29,13 @@ export const useSupplierViewStore = defineStore('supplier-view', () => {
     );
   }
 
-  return { forecast, claims, releases, loading, error, fetchAll };
+  return {
+    forecast,
+    claims,
+    releases,
+    loading,
+    error,
+    fetchAll,
+    downloadForecastCsv: supplierViewApi.downloadSupplierForecastCsv,
+  };
 });
