@@ -33,7 +33,7 @@ import { createSequenceRouter } from './sequence/sequence.router';
 import { createServices, type ServiceOptions, type Services } from './services';
 import { createStockRouter } from './stock/stock.router';
 import { createSupplierPerformanceRouter } from './supplier-performance/supplier-performance.router';
-import { createSupplierViewRouter } from './supplier-view/supplier-view.router';
+import { createSupplierAccountRouter } from './supplier-account/supplier-account.router';
 import { createUsersRouter } from './users/users.router';
 
 export interface AppOptions extends ServiceOptions {
@@ -100,7 +100,7 @@ export function createApp(
   api.use(createUsersRouter(services, deps));
   api.use(createCalendarRouter(services, deps));
   api.use(createSupplierPerformanceRouter(services, deps));
-  api.use(createSupplierViewRouter(services, deps));
+  api.use(createSupplierAccountRouter(services, deps));
   api.use(createMasterDataRouter(services, deps));
   api.use(createImportsRouter(services, deps));
   api.use(createSequenceRouter(services, deps));

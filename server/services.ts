@@ -17,7 +17,7 @@ import { MasterDataService } from './master-data/master-data.service';
 import { OutboxService } from './outbox/outbox.service';
 import { OverviewService } from './overview/overview.service';
 import { PlanningService } from './planning/planning.service';
-import { SupplierViewService } from './supplier-view/supplier-view.service';
+import { SupplierAccountService } from './supplier-account/supplier-account.service';
 import { ConfirmService } from './releases/confirm.service';
 import { ReleasesService } from './releases/releases.service';
 import { SequenceService } from './sequence/sequence.service';
@@ -82,7 +82,7 @@ export function createServices(db: Database, options: ServiceOptions) {
     receipts: new ReceiptsService(db),
     attachments: new AttachmentsService(db, options.attachmentsDir ?? defaultAttachmentsDir(db)),
     supplierPerformance: new SupplierPerformanceService(db),
-    supplierView: new SupplierViewService(db, planning),
+    supplierAccount: new SupplierAccountService(db, planning),
     outbox,
     overview: new OverviewService(db, { lineRisk, loops, dock, outbox }),
     stock: new StockService(db),

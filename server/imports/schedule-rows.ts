@@ -1,18 +1,14 @@
-import { isoWeekday, WorkingCalendar } from '../../shared/domain/calendar';
-import { fromDayNumber, toDayNumber } from '../../shared/domain/date';
+import { WorkingCalendar } from '../../shared/domain/calendar';
 import type { IsoDate, PlantCalendar } from '../../shared/domain/types';
 import { IMPORT_DEFAULTS, scheduleRowSchema } from '../../shared/schemas/imports';
 import { unitChangeProblem } from '../../shared/domain/sequence';
 import type { UnitStatus } from '../../shared/schemas/builds';
 import { sequenceEntrySchema, type Part, type SequenceEntry } from '../../shared/schemas/master-data';
+import { buildDateProblem } from '../sequence/sequence-window';
 import type { CsvTable } from './csv';
 import { isComplete, KeyRegister, parseRows, RowProblems } from './import-rows';
 
 const DEFAULTS = IMPORT_DEFAULTS.schedule;
-const WEEKDAY_NAMES = ['', 'Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday', 'Sunday'];
-/** How far back and ahead a build date may lie; wider is almost always a typo in the year. */
-export const SCHEDULE_YEARS_BACK = 1;
-export const SCHEDULE_YEARS_AHEAD = 2;
 
 export interface ScheduleContext {
   /** Part number → source of every part on file; a model must be an end item. */
@@ -24,28 +20,6 @@ export interface ScheduleContext {
   existing: readonly (SequenceEntry & { status: UnitStatus })[];
   calendar: PlantCalendar;
   today: IsoDate;
-}
-
-/** The same month and day `years` years away (29 February becomes 1 March in a common year). */
-function shiftYears(date: IsoDate, years: number): IsoDate {
-  const [year, month, day] = date.split('-').map(Number);
-  return fromDayNumber(Date.UTC(year + years, month - 1, day) / 86_400_000);
-}
-
-function dateProblem(
-  date: IsoDate,
-  context: ScheduleContext,
-  working: WorkingCalendar,
-  holidays: ReadonlySet<string>,
-): string | null {
-  if (date < shiftYears(context.today, -SCHEDULE_YEARS_BACK))
-    return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
-  if (date > shiftYears(context.today, SCHEDULE_YEARS_AHEAD))
-    return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
-  if (working.isWorking(toDayNumber(date))) return null;
-  return holidays.has(date)
-    ? `${date} is a plant holiday`
-    : `${date} is a ${WEEKDAY_NAMES[isoWeekday(date)]}, not a working day of the plant calendar`;
 }
 
 function modelProblem(model: string, parts: ScheduleContext['parts']): string | null {
@@ -81,7 +55,7 @@ export function checkScheduleRows(
   for (const row of parsed) {
     const { date, model, serial, sequence } = row.values;
     let sound = serial === undefined || serials.claim(serial, row.line);
-    const dateIssue = date === undefined ? null : dateProblem(date, context, working, holidays);
+    const dateIssue = date === undefined ? null : buildDateProblem(date, context.today, working, holidays);
     if (dateIssue) problems.add(row.line, 'date', dateIssue);
     const modelIssue = model === undefined ? null : modelProblem(model, context.parts);
     if (modelIssue) problems.add(row.line, 'model', modelIssue);

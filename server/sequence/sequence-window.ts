@@ -1,10 +1,31 @@
 import { addWorkingDays, isoWeekday, nextWorkingDay, WorkingCalendar } from '../../shared/domain/calendar';
-import { toDayNumber } from '../../shared/domain/date';
+import { fromDayNumber, toDayNumber } from '../../shared/domain/date';
 import type { IsoDate, PlantCalendar } from '../../shared/domain/types';
 import type { SequenceSettings } from '../../shared/schemas/sequence';
-import { SCHEDULE_YEARS_AHEAD, SCHEDULE_YEARS_BACK } from '../imports/schedule-rows';
 
 const WEEKDAY_NAMES = ['', 'Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday', 'Sunday'];
+/** How far back and ahead a build date may lie; wider is almost always a typo in the year. */
+export const SCHEDULE_YEARS_BACK = 1;
+export const SCHEDULE_YEARS_AHEAD = 2;
+
+/**
+ * Why a unit cannot be built on `date`, or null when it can: the one rule for a unit added or moved
+ * on the board and for a row of the schedule import.
+ */
+export function buildDateProblem(
+  date: IsoDate,
+  today: IsoDate,
+  working: WorkingCalendar,
+  holidays: ReadonlySet<string>,
+): string | null {
+  if (date < shiftYears(today, -SCHEDULE_YEARS_BACK))
+    return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
+  if (date > shiftYears(today, SCHEDULE_YEARS_AHEAD)) return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
+  if (working.isWorking(toDayNumber(date))) return null;
+  return holidays.has(date)
+    ? `${date} is a plant holiday`
+    : `${date} is a ${WEEKDAY_NAMES[isoWeekday(date)]}, not a working day of the plant calendar`;
+}
 
 /**
  * The last day of the frozen window: the first `frozenWindowDays` working days counted from
@@ -49,16 +70,9 @@ export class SequenceRules {
     return date < this.today;
   }
 
-  /** Why a day cannot take units, or null when it can (same wording as the schedule import). */
+  /** Why a day cannot take units, or null when it can. */
   dateProblem(date: IsoDate): string | null {
-    if (date < shiftYears(this.today, -SCHEDULE_YEARS_BACK))
-      return `${date} is more than ${SCHEDULE_YEARS_BACK} year in the past`;
-    if (date > shiftYears(this.today, SCHEDULE_YEARS_AHEAD))
-      return `${date} is more than ${SCHEDULE_YEARS_AHEAD} years ahead`;
-    if (this.isWorking(date)) return null;
-    return this.holidays.has(date)
-      ? `${date} is a plant holiday`
-      : `${date} is a ${WEEKDAY_NAMES[isoWeekday(date)]}, not a working day of the plant calendar`;
+    return buildDateProblem(date, this.today, this.working, this.holidays);
   }
 
   /** One sentence naming the frozen days a change would touch. */
@@ -83,7 +97,8 @@ export function listDates(dates: IsoDate[]): string {
   return dates.map((date) => `${WEEKDAY_NAMES[isoWeekday(date)].slice(0, 3)} ${date}`).join(', ');
 }
 
-/** The same month and day `years` years away. */
+/** The same month and day `years` years away (29 February becomes 1 March in a common year). */
 function shiftYears(date: IsoDate, years: number): IsoDate {
-  return `${String(Number(date.slice(0, 4)) + years).padStart(4, '0')}${date.slice(4)}`;
+  const [year, month, day] = date.split('-').map(Number);
+  return fromDayNumber(Date.UTC(year + years, month - 1, day) / 86_400_000);
 }

@@ -37,7 +37,7 @@ export const routes: RouteRecordRaw[] = [
   {
     path: '/',
     name: 'home',
-    component: () => import('@/views/HomeView.vue'),
+    component: () => import('@/views/OverviewView.vue'),
     meta: { title: 'Overview' },
   },
   {

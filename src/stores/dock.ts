@@ -120,5 +120,7 @@ export const useDockStore = defineStore('dock', () => {
     addAttachment,
     findByScan,
     byId,
+    uploadPackingSlip: dockApi.uploadPackingSlip,
+    openPackingSlip: dockApi.fetchPackingSlip,
   };
 });

@@ -2,6 +2,7 @@ import { defineStore } from 'pinia';
 import { computed, reactive, ref } from 'vue';
 import { isCardState, type CardEvent, type CardState } from '@shared/domain/card-cycle';
 import type { CardLabel, KanbanCardWithScans, KanbanLoop, UpdateKanbanLoopRequest } from '@shared/schemas/loops';
+import type { KanbanSizeRequest, KanbanSizeResponse } from '@shared/schemas/loops-sizing';
 import * as loopsApi from '@/api/loops';
 import { ApiError } from '@/api/http';
 import { useLatestRequest } from './latest-request';
@@ -68,6 +69,9 @@ export const useLoopsStore = defineStore('loops', () => {
   const labels = ref<CardLabel[]>([]);
   // Only the latest label request may fill the sheet: toggling active/all twice must not show the first answer.
   const { loading: labelsLoading, error: labelsError, run: runLabels } = useLatestRequest();
+  // The sizing calculator asks again on every pause in typing: only the latest answer may show.
+  const sizing = ref<KanbanSizeResponse | null>(null);
+  const { loading: sizingLoading, error: sizingError, run: runSizing, cancel: cancelSizing } = useLatestRequest();
 
   // The server's proposal is the one rule of how many cards to add or pull.
   const toAdd = computed(() => loops.value.filter((loop) => loop.proposal.action === 'add'));
@@ -171,6 +175,24 @@ export const useLoopsStore = defineStore('loops', () => {
     if (labelsError.value) labels.value = [];
   }
 
+  /** Works out the card count for free numbers; a refusal is kept in `sizingError` and clears the answer. */
+  async function size(request: KanbanSizeRequest): Promise<void> {
+    await runSizing(
+      (signal) => loopsApi.sizeLoopCards(request, signal),
+      (answer) => {
+        sizing.value = answer;
+      },
+    );
+    // An answer for other numbers than those on screen is worse than none.
+    if (sizingError.value) sizing.value = null;
+  }
+
+  /** Drops the sizing in flight and its answer, for a calculator that closes with its numbers. */
+  function clearSizing(): void {
+    cancelSizing();
+    sizing.value = null;
+  }
+
   function isBusy(id: number): boolean {
     return busyIds.value.has(id);
   }
@@ -211,6 +233,9 @@ export const useLoopsStore = defineStore('loops', () => {
     labels,
     labelsLoading,
     labelsError,
+    sizing,
+    sizingLoading,
+    sizingError,
     toAdd,
     toPull,
     rightSized,
@@ -221,7 +246,10 @@ export const useLoopsStore = defineStore('loops', () => {
     update,
     fetchCards,
     fetchLabels,
+    size,
+    clearSizing,
     isBusy,
     scan,
+    downloadLabels: loopsApi.downloadLabelsPdf,
   };
 });

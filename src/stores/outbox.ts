@@ -89,5 +89,6 @@ export const useOutboxStore = defineStore('outbox', () => {
     checkHealth,
     sendAgain,
     isSending,
+    downloadAttachment: outboxApi.downloadCapturedAttachment,
   };
 });

@@ -1,4 +1,13 @@
-import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp, stubFetch } from './helpers';
+import {
+  createAppContext,
+  demoUsers,
+  getButton,
+  getByLabel,
+  jsonResponse,
+  mountInApp,
+  stubFetch,
+  waitFor,
+} from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import LoginView from '@/views/LoginView.vue';
@@ -63,6 +72,6 @@ describe('LoginView', () => {
       password: 'correct-password',
     });
     // The target view is lazy-loaded, so the navigation settles a little later.
-    await vi.waitFor(() => expect(context.router.currentRoute.value.fullPath).toBe('/admin/users'));
+    await waitFor(() => expect(context.router.currentRoute.value.fullPath).toBe('/admin/users'));
   });
 });

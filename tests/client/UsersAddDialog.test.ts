@@ -1,4 +1,13 @@
-import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp, stubFetch } from './helpers';
+import {
+  createAppContext,
+  demoUsers,
+  getButton,
+  getByLabel,
+  jsonResponse,
+  mountInApp,
+  stubFetch,
+  waitFor,
+} from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, type VueWrapper } from '@vue/test-utils';
 import UsersAddDialog from '@/components/UsersAddDialog.vue';
@@ -56,7 +65,7 @@ describe('UsersAddDialog', () => {
     await flushPromises();
     await flushPromises();
 
-    await vi.waitFor(() => expect(errorUnder(dialog, 'Name')).toBe('Name is reserved'));
+    await waitFor(() => expect(errorUnder(dialog, 'Name')).toBe('Name is reserved'));
     expect(wrapper.emitted('created')).toBeUndefined();
   });
 
@@ -69,7 +78,7 @@ describe('UsersAddDialog', () => {
     await flushPromises();
     await flushPromises();
 
-    await vi.waitFor(() => expect(errorUnder(dialog, 'E-mail')).toBe('This e-mail already has an account'));
+    await waitFor(() => expect(errorUnder(dialog, 'E-mail')).toBe('This e-mail already has an account'));
   });
 
   it('sends the new user and reports it created', async () => {

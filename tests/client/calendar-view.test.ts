@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, stubFetch } from './helpers';
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, stubFetch, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, type VueWrapper } from '@vue/test-utils';
 import { addDays, addMonths, format, getISODay } from 'date-fns';
@@ -26,7 +26,7 @@ async function openCalendar(user: SessionUser) {
   const context = await createAppContext({ user, path: '/calendar' });
   // Through the real route, so the view's leave guard has its route record.
   const wrapper = await mountInApp(RouterView, context);
-  await vi.waitFor(() => expect(wrapper.find('.calendar-view__grid').exists()).toBe(true));
+  await waitFor(() => expect(wrapper.find('.calendar-view__grid').exists()).toBe(true));
   return { wrapper, fetchMock };
 }
 
@@ -114,7 +114,7 @@ describe('CalendarView', () => {
     getButton(wrapper.element, 'Save calendar').click();
     await flushPromises();
 
-    await vi.waitFor(() => expect(wrapper.get('.el-form-item__error').text()).toBe('At least one working weekday'));
+    await waitFor(() => expect(wrapper.get('.el-form-item__error').text()).toBe('At least one working weekday'));
     expect(lastPutBody(fetchMock)).toBeUndefined();
   });
 
@@ -208,7 +208,7 @@ describe('CalendarHolidayList', () => {
     await flushPromises();
 
     expect(wrapper.emitted('add')).toBeUndefined();
-    await vi.waitFor(() =>
+    await waitFor(() =>
       expect(wrapper.get('.el-form-item__error').text()).toBe('Wed 25 Dec 2030 is already a holiday.'),
     );
   });

@@ -1,4 +1,4 @@
-import { eventStream, jsonResponse, mountListener as mountWith } from './helpers';
+import { eventStream, jsonResponse, mountListener as mountWith, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import { useDockEvents } from '@/composables/useDockEvents';
@@ -32,7 +32,7 @@ describe('useDockEvents', () => {
     const onChange = vi.fn();
 
     const wrapper = mountListener(onChange);
-    await vi.waitFor(() => expect(onChange).toHaveBeenCalled());
+    await waitFor(() => expect(onChange).toHaveBeenCalled());
 
     expect(onChange.mock.calls).toEqual([[3]]);
     wrapper.unmount();

@@ -13,6 +13,14 @@ export const demoUsers = {
   buyer: { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null },
 } satisfies Record<string, SessionUser>;
 
+/**
+ * vi.waitFor with room for a busy machine: its own default gives up after one second, which a
+ * loaded two-core runner can spend on one render. A check that fails still fails, only later.
+ */
+export function waitFor<T>(check: () => T | Promise<T>, options: { timeout?: number; interval?: number } = {}) {
+  return vi.waitFor(check, { timeout: 10_000, ...options });
+}
+
 /** A fetch Response carrying JSON, as the server sends it. */
 export function jsonResponse(status: number, body: unknown): Response {
   return new Response(JSON.stringify(body), {

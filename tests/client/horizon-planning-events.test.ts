@@ -1,4 +1,4 @@
-import { eventStream, jsonResponse, mountListener as mountWith } from './helpers';
+import { eventStream, jsonResponse, mountListener as mountWith, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import fc from 'fast-check';
 import { flushPromises } from '@vue/test-utils';
@@ -81,7 +81,7 @@ describe('usePlanningEvents', () => {
     const onChange = vi.fn();
 
     const wrapper = mountListener(onChange);
-    await vi.waitFor(() => expect(onChange).toHaveBeenCalled());
+    await waitFor(() => expect(onChange).toHaveBeenCalled());
 
     expect(onChange.mock.calls).toEqual([[4]]);
     const [url, init] = fetchMock.mock.calls[0]!;

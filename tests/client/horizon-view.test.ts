@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import { addCalendarDays } from '@shared/domain/date';
@@ -189,7 +189,7 @@ describe('HorizonView', () => {
 
     expect(router.currentRoute.value.query.part).toBe('BAT-06-225');
     expect(requestsTo(fetchMock, '/api/plan')[0]!.searchParams.get('part')).toBe('BAT-06-225');
-    await vi.waitFor(() => expect(document.body.querySelector('[aria-label="Gross-to-net buckets"]')).not.toBeNull());
+    await waitFor(() => expect(document.body.querySelector('[aria-label="Gross-to-net buckets"]')).not.toBeNull());
     expect(document.body.textContent).toContain('Battery 6 V 225 Ah');
   });
 
@@ -201,7 +201,7 @@ describe('HorizonView', () => {
     });
 
     await openHorizon('/horizon?part=BAT-06-225');
-    await vi.waitFor(() => expect(document.body.querySelector('[data-test="scrap-note"]')).not.toBeNull());
+    await waitFor(() => expect(document.body.querySelector('[data-test="scrap-note"]')).not.toBeNull());
 
     const note = document.body.querySelector('[data-test="scrap-note"]')!;
     expect(note.textContent).toContain('added when ordering, not when consuming');

@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, type VueWrapper } from '@vue/test-utils';
 import type { SessionUser } from '@shared/schemas/user';
@@ -78,7 +78,7 @@ async function chooseFile(wrapper: VueWrapper, name: string, text: string): Prom
     configurable: true,
   });
   await input.trigger('change');
-  await vi.waitFor(() => expect(wrapper.find('.imports-view__file').exists()).toBe(true));
+  await waitFor(() => expect(wrapper.find('.imports-view__file').exists()).toBe(true));
 }
 
 async function chooseKind(wrapper: VueWrapper, value: string): Promise<void> {

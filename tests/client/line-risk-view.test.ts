@@ -1,4 +1,4 @@
-import { createAppContext, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import { addCalendarDays } from '@shared/domain/date';
@@ -282,7 +282,7 @@ describe('LineRiskView', () => {
     );
 
     const { wrapper } = await openLineRisk();
-    await vi.waitFor(() => expect(requestsTo(fetchMock, '/api/line-risk')).toHaveLength(2));
+    await waitFor(() => expect(requestsTo(fetchMock, '/api/line-risk')).toHaveLength(2));
     await flushPromises();
 
     expect(wrapper.text()).not.toContain('BAT-06-312');

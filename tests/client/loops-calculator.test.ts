@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getByLabel, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getByLabel, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import LoopsSizingCalculator from '@/components/LoopsSizingCalculator.vue';
@@ -47,7 +47,7 @@ describe('LoopsSizingCalculator', () => {
     vi.stubGlobal('fetch', fetchMock);
 
     const { drawer } = await openCalculator();
-    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
     await flushPromises();
 
     expect(bodies(fetchMock)[0]).toEqual({
@@ -78,16 +78,16 @@ describe('LoopsSizingCalculator', () => {
       );
     vi.stubGlobal('fetch', fetchMock);
     const { drawer } = await openCalculator();
-    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
 
     const container = getByLabel(drawer, 'Container quantity (C)');
     type(container, '-2');
     type(container, '-25');
-    await vi.waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(2));
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(2));
     await flushPromises();
 
     expect((bodies(fetchMock)[1] as { containerQty: number }).containerQty).toBe(-25);
-    await vi.waitFor(() => expect(errorUnder(drawer, 'Container quantity (C)')).toBe(message));
+    await waitFor(() => expect(errorUnder(drawer, 'Container quantity (C)')).toBe(message));
     expect(drawer.textContent).toContain('Fix the marked inputs to see the card count.');
   });
 });

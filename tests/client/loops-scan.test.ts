@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { CardScanResponse } from '@shared/schemas/loops';
@@ -110,7 +110,7 @@ describe('LoopsScanView', () => {
 
     await wedgeScan(input, CARD);
     // The dock screen is loaded on demand before the route changes.
-    await vi.waitFor(() => expect(context.router.currentRoute.value.name).toBe('dock'), { timeout: 10_000 });
+    await waitFor(() => expect(context.router.currentRoute.value.name).toBe('dock'));
 
     expect(choices).toEqual(['By card state', 'Signal empty', 'Count in at the dock']);
     expect(fetchMock.mock.calls.some(([url]) => String(url) === '/api/kanban/scans')).toBe(false);

@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { Check, Minus, Plus } from '@element-plus/icons-vue';
@@ -173,12 +173,12 @@ describe('LoopsView', () => {
     wrapper.get('[aria-label="Accept the proposal for ACT-DK36"]').trigger('click');
     await flushPromises();
     getButton(document.body, 'Add 5').click();
-    await vi.waitFor(() => expect(callsTo(fetchMock, 'POST', '/api/kanban/loops/45/accept')).toHaveLength(1));
+    await waitFor(() => expect(callsTo(fetchMock, 'POST', '/api/kanban/loops/45/accept')).toHaveLength(1));
     await flushPromises();
 
     const [, init] = callsTo(fetchMock, 'POST', '/api/kanban/loops/45/accept')[0]!;
     expect(JSON.parse(String(init?.body))).toEqual({ expectedRecommended: 5 });
-    await vi.waitFor(() => expect(document.body.textContent).toContain(reason));
+    await waitFor(() => expect(document.body.textContent).toContain(reason));
     expect(callsTo(fetchMock, 'GET', '/api/kanban/loops')).toHaveLength(2);
   });
 
@@ -203,7 +203,7 @@ describe('LoopsView', () => {
     containerInput.dispatchEvent(new Event('change'));
     await flushPromises();
     getButton(dialog, 'Save loop').click();
-    await vi.waitFor(() => expect(callsTo(fetchMock, 'PATCH', '/api/kanban/loops/45')).toHaveLength(1));
+    await waitFor(() => expect(callsTo(fetchMock, 'PATCH', '/api/kanban/loops/45')).toHaveLength(1));
     await flushPromises();
 
     const [, init] = callsTo(fetchMock, 'PATCH', '/api/kanban/loops/45')[0]!;

@@ -1,4 +1,4 @@
-import { createAppContext, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { Part } from '@shared/schemas/master-data';
@@ -159,7 +159,7 @@ describe('PartView', () => {
     expect(body.leadTimeDays).toBe(12);
     expect(body).not.toHaveProperty('onHand');
     // The message slides in with a transition.
-    await vi.waitFor(() => expect(dialog.textContent).toContain('must be at most 365'), { timeout: 5000 });
+    await waitFor(() => expect(dialog.textContent).toContain('must be at most 365'), { timeout: 5000 });
     wrapper.unmount();
   });
 });

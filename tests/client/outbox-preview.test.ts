@@ -1,5 +1,6 @@
-import { describe, expect, it } from 'vitest';
+import { beforeEach, describe, expect, it } from 'vitest';
 import { mount } from '@vue/test-utils';
+import { createPinia, setActivePinia } from 'pinia';
 import type { CapturedMail } from '@shared/schemas/outbox';
 import OutboxMailPreview from '@/components/OutboxMailPreview.vue';
 import { linkSegments } from '@/components/outbox-presentation';
@@ -30,6 +31,8 @@ describe('linkSegments', () => {
 });
 
 describe('OutboxMailPreview', () => {
+  beforeEach(() => setActivePinia(createPinia()));
+
   it('shows the HTML in a frame that cannot run scripts or navigate the app, its links opening a new tab', () => {
     const wrapper = mount(OutboxMailPreview, { props: { mail } });
 

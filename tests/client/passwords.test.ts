@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, getByLabel, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { PasswordResetInfo } from '@shared/schemas/user';
@@ -102,7 +102,7 @@ describe('Change password (user menu)', () => {
 
     await fill(dialog, 'not-my-password', 'a-new-password-42', 'a-new-password-42');
     getButton(dialog, 'Change password').click();
-    await vi.waitFor(() => expect(errorUnder(dialog, 'Current password')).toBe('Is not your current password'));
+    await waitFor(() => expect(errorUnder(dialog, 'Current password')).toBe('Is not your current password'));
 
     expect(errorUnder(dialog, 'New password')).toBe('');
     expect(dialog.querySelector('.el-alert')).toBeNull();
@@ -114,7 +114,7 @@ describe('Change password (user menu)', () => {
 
     await fill(dialog, 'old-password-1', 'a-new-password-42', 'a-new-password-42');
     getButton(dialog, 'Change password').click();
-    await vi.waitFor(() => expect(document.body.textContent).toContain('Password changed.'));
+    await waitFor(() => expect(document.body.textContent).toContain('Password changed.'));
 
     expect(posted(fetchMock, '/api/auth/password')).toEqual([
       { currentPassword: 'old-password-1', newPassword: 'a-new-password-42' },
@@ -160,7 +160,7 @@ describe('PasswordResetView', () => {
     type(getByLabel(page, 'Repeat new password'), 'brand-new-secret');
     await flushPromises();
     getButton(page, 'Set password').closest('form')!.dispatchEvent(new Event('submit'));
-    await vi.waitFor(() => expect(wrapper.text()).toContain('Password set — sign in'));
+    await waitFor(() => expect(wrapper.text()).toContain('Password set — sign in'));
 
     expect(posted(fetchMock, '/api/auth/password-reset')).toEqual([{ token: TOKEN, password: 'brand-new-secret' }]);
     const signIn = wrapper.get('a');
@@ -203,7 +203,7 @@ describe('PasswordResetView', () => {
     type(getByLabel(page, 'Repeat new password'), 'brand-new-secret');
     await flushPromises();
     getButton(page, 'Set password').closest('form')!.dispatchEvent(new Event('submit'));
-    await vi.waitFor(() => expect(wrapper.get('h1').text()).toBe('This link no longer works'));
+    await waitFor(() => expect(wrapper.get('h1').text()).toBe('This link no longer works'));
 
     expect(wrapper.text()).toContain('a newer link replaced it');
   });

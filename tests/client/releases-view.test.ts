@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { OutboxMessage } from '@shared/schemas/outbox';
@@ -370,7 +370,7 @@ describe('release e-mails', () => {
 
     getButton(wrapper.element, 'Daily run 06:00').click();
     // The popover starts from the stored time once it has opened.
-    await vi.waitFor(() => expect(wrapper.findComponent({ name: 'ElTimeSelect' }).props('modelValue')).toBe('06:00'));
+    await waitFor(() => expect(wrapper.findComponent({ name: 'ElTimeSelect' }).props('modelValue')).toBe('06:00'));
     wrapper.findComponent({ name: 'ElTimeSelect' }).vm.$emit('update:modelValue', '05:15');
     await flushPromises();
     getButton(document.body, 'Save').click();

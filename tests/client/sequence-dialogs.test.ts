@@ -1,4 +1,4 @@
-import { createAppContext, getButton, getByLabel, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, getButton, getByLabel, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, type VueWrapper } from '@vue/test-utils';
 import type { SequenceBoard, SequenceDay } from '@shared/schemas/sequence';
@@ -92,7 +92,7 @@ describe('SequenceAddUnitDialog', () => {
     await fill(wrapper, dialog, OPEN);
 
     getButton(dialog, 'Add unit').click();
-    await vi.waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
+    await waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
 
     expect(bodiesOf(fetchMock, 'POST', '/api/sequence/units')).toEqual([
       { date: OPEN, model: 'M-A', serial: 'SN-NEW-1', qty: 1 },
@@ -119,7 +119,7 @@ describe('SequenceAddUnitDialog', () => {
 
     getButton(dialog, 'Add unit').click();
 
-    await vi.waitFor(() => expect(errorUnder(dialog, 'Serial')).toBe(message));
+    await waitFor(() => expect(errorUnder(dialog, 'Serial')).toBe(message));
     expect(wrapper.emitted('added')).toBeUndefined();
   });
 
@@ -133,11 +133,9 @@ describe('SequenceAddUnitDialog', () => {
     await fill(wrapper, dialog, FROZEN);
 
     getButton(dialog, 'Add unit').click();
-    await vi.waitFor(() =>
-      expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'),
-    );
+    await waitFor(() => expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'));
     getButton(document.body, 'Add to the frozen day').click();
-    await vi.waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
+    await waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
 
     expect(bodiesOf(fetchMock, 'POST', '/api/sequence/units')).toEqual([
       { date: FROZEN, model: 'M-A', serial: 'SN-NEW-1', qty: 1, allowFrozen: true },
@@ -173,7 +171,7 @@ describe('SequenceSettingsDialog', () => {
     frozenInput.dispatchEvent(new Event('change'));
     await flushPromises();
     getButton(dialog, 'Save settings').click();
-    await vi.waitFor(() => expect(wrapper.emitted('saved')).toHaveLength(1));
+    await waitFor(() => expect(wrapper.emitted('saved')).toHaveLength(1));
 
     expect(bodiesOf(fetchMock, 'PUT', '/api/sequence/settings')).toEqual([{ frozenWindowDays: 5, dailyCapacity: 24 }]);
     expect(ifMatchOf(fetchMock, '/api/sequence/settings')).toEqual(['"settings-v1"']);
@@ -206,7 +204,7 @@ describe('SequenceSettingsDialog', () => {
     frozenInput.dispatchEvent(new Event('change'));
     await flushPromises();
     getButton(dialog, 'Save settings').click();
-    await vi.waitFor(() => expect(dialog.textContent).toContain('was changed by someone else first'));
+    await waitFor(() => expect(dialog.textContent).toContain('was changed by someone else first'));
     await flushPromises();
 
     expect(dialog.textContent).toContain('The screen now shows their version');
@@ -219,7 +217,7 @@ describe('SequenceSettingsDialog', () => {
     frozenInput.dispatchEvent(new Event('change'));
     await flushPromises();
     getButton(dialog, 'Save settings').click();
-    await vi.waitFor(() => expect(wrapper.emitted('saved')).toHaveLength(1));
+    await waitFor(() => expect(wrapper.emitted('saved')).toHaveLength(1));
     expect(ifMatchOf(fetchMock, '/api/sequence/settings')).toEqual(['"settings-v1"', '"settings-v2"']);
   });
 });

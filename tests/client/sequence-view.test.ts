@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import draggable from 'vuedraggable';
@@ -187,7 +187,7 @@ function lastButton(name: string): HTMLButtonElement {
 
 /** Answers the what-if shown before a move is saved. */
 async function answerWhatIf(button: 'Save the change' | 'Cancel'): Promise<void> {
-  await vi.waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
+  await waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
   lastButton(button).click();
   await flushPromises();
 }
@@ -303,17 +303,15 @@ describe('SequenceView', () => {
 
     await chooseFromMenu('S1', 'Move down');
     await answerWhatIf('Save the change');
-    await vi.waitFor(() =>
-      expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'),
-    );
+    await waitFor(() => expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'));
     getButton(document.body, 'Keep it as it is').click();
     await flushPromises();
     const afterNo = putBodies(fetchMock).length;
     await chooseFromMenu('S1', 'Move down');
     await answerWhatIf('Save the change');
-    await vi.waitFor(() => lastButton('Change the frozen window'));
+    await waitFor(() => lastButton('Change the frozen window'));
     lastButton('Change the frozen window').click();
-    await vi.waitFor(() => expect(putBodies(fetchMock)).toHaveLength(1));
+    await waitFor(() => expect(putBodies(fetchMock)).toHaveLength(1));
 
     expect(afterNo).toBe(0);
     expect(putBodies(fetchMock)[0]).toEqual({
@@ -337,7 +335,7 @@ describe('SequenceView', () => {
     await flushPromises();
     await answerWhatIf('Save the change');
 
-    await vi.waitFor(() => expect(document.body.textContent).toContain(`The move was not saved: ${reason}`));
+    await waitFor(() => expect(document.body.textContent).toContain(`The move was not saved: ${reason}`));
     expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
     expect(serialsOn(wrapper, OPEN)).toEqual(['S6']);
   });
@@ -421,7 +419,7 @@ describe('SequenceView', () => {
     // S4 goes to the end of Tue 8 Dec: S7 now gets the third battery, S4 none.
     over.vm.$emit('change', { added: { element: s4, newIndex: 4 } });
     await flushPromises();
-    await vi.waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
+    await waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
     const dialog = document.querySelector('[data-test="what-if"]')!;
     expect(dialog.textContent).toContain('Move S4 to Tue 8 Dec, position 5.');
     expect(dialog.querySelector('[data-test="what-if-becomes"]')?.textContent).toContain(

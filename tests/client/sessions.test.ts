@@ -1,4 +1,4 @@
-import { createAppContext, demoUsers, eventStream, jsonResponse, mountInApp, mountListener } from './helpers';
+import { createAppContext, demoUsers, eventStream, jsonResponse, mountInApp, mountListener, waitFor } from './helpers';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
@@ -115,8 +115,8 @@ describe('a session the server ends', () => {
     );
 
     const wrapper = await mountInApp(App, context);
-    await vi.waitFor(() => expect(context.router.currentRoute.value.name).toBe('login'));
-    await vi.waitFor(() => expect(wrapper.text()).toContain(SESSION_ENDED_WORDS));
+    await waitFor(() => expect(context.router.currentRoute.value.name).toBe('login'));
+    await waitFor(() => expect(wrapper.text()).toContain(SESSION_ENDED_WORDS));
 
     expect(context.router.currentRoute.value.query.redirect).toBe('/calendar');
     expect(localStorage.getItem(TOKEN_KEY)).toBeNull();

@@ -1,4 +1,4 @@
-import { createAppContext, getButton, jsonResponse, mountInApp } from './helpers';
+import { createAppContext, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { StockItem, StockLedger } from '@shared/schemas/stock';
@@ -339,7 +339,7 @@ describe('StockCountDialog and StockScrapDialog', () => {
 
     const [[, init]] = callsTo(fetchMock, 'POST', '/api/stock/scrap');
     expect(JSON.parse(String(init?.body))).toEqual({ partNumber: 'P-1', qty: 2, reason: 'Dropped at station 3' });
-    await vi.waitFor(() => expect(errorOf(dialog, 'Scrapped')).toBe('Too big: expected number to be <=1000000000'));
+    await waitFor(() => expect(errorOf(dialog, 'Scrapped')).toBe('Too big: expected number to be <=1000000000'));
     expect(wrapper.emitted('recorded')).toBeUndefined();
   });
 });

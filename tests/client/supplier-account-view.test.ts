@@ -2,7 +2,7 @@ import { createAppContext, jsonResponse, mountInApp } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import type { Release } from '@shared/schemas/releases';
-import type { ReceivingClaim, SupplierForecast } from '@shared/schemas/supplier-view';
+import type { ReceivingClaim, SupplierForecast } from '@shared/schemas/supplier-account';
 import type { SessionUser } from '@shared/schemas/user';
 import SupplierAccountView from '@/views/SupplierAccountView.vue';
 

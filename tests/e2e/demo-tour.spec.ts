@@ -40,7 +40,7 @@ function guide(page: Page) {
 /** The guide's steps as the role sees them, in order. */
 async function expectGuide(page: Page, titles: string[]): Promise<void> {
   await expect(guide(page).getByRole('heading', { name: 'Start here' })).toBeVisible();
-  await expect(guide(page).locator('ol > li .home-guide__title')).toHaveText(titles);
+  await expect(guide(page).locator('ol > li .overview-guide__title')).toHaveText(titles);
 }
 
 /** Back to the Overview, then the guide's step of that title: the way the tour is followed. */

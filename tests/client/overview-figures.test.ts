@@ -1,7 +1,7 @@
 import { createAppContext, demoUsers, jsonResponse, mountInApp, stubFetch } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { Overview } from '@shared/schemas/overview';
-import HomeFigures from '@/components/HomeFigures.vue';
+import OverviewFigures from '@/components/OverviewFigures.vue';
 
 const buyerOverview: Overview = {
   role: 'buyer',
@@ -43,12 +43,12 @@ afterEach(() => {
   document.body.innerHTML = '';
 });
 
-describe('HomeFigures', () => {
+describe('OverviewFigures', () => {
   it('shows each figure with its link, and says in words which need attention', async () => {
     stubFetch(jsonResponse(200, buyerOverview));
     const context = await createAppContext({ user: demoUsers.buyer });
 
-    const wrapper = await mountInApp(HomeFigures, context);
+    const wrapper = await mountInApp(OverviewFigures, context);
 
     const waiting = wrapper.get('[data-test="figure-exceptionsWaiting"]');
     expect(waiting.text()).toContain('2');
@@ -63,7 +63,7 @@ describe('HomeFigures', () => {
     stubFetch(jsonResponse(500, { error: { code: 'internal', message: 'Something broke.' } }));
     const context = await createAppContext({ user: demoUsers.buyer });
 
-    const wrapper = await mountInApp(HomeFigures, context);
+    const wrapper = await mountInApp(OverviewFigures, context);
 
     expect(wrapper.text()).toContain('The figures could not be loaded');
   });

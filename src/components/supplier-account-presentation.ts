@@ -1,7 +1,7 @@
 import type { ForecastZone } from '@shared/domain/supplier-forecast';
 import type { Discrepancy } from '@shared/schemas/receipts';
 import type { ReleaseStatus } from '@shared/schemas/releases';
-import type { ReceivingClaim } from '@shared/schemas/supplier-view';
+import type { ReceivingClaim } from '@shared/schemas/supplier-account';
 import { formatQty } from '@/format';
 
 export const ZONE_WORDS: Record<ForecastZone, string> = { firm: 'Firm', planned: 'Planned', forecast: 'Forecast' };

@@ -1,7 +1,7 @@
 import { forecastZone, plannedUntil } from '../../shared/domain/supplier-forecast';
 import type { OverAction } from '../../shared/domain/over-receipt';
 import type { Discrepancy } from '../../shared/schemas/receipts';
-import type { ReceivingClaim, SupplierForecast } from '../../shared/schemas/supplier-view';
+import type { ReceivingClaim, SupplierForecast } from '../../shared/schemas/supplier-account';
 import { readCalendar } from '../calendar/calendar.service';
 import type { Database } from '../db/database';
 import { ReceiptEntity } from '../dock/receipt.entity';
@@ -15,7 +15,7 @@ import { readSequenceSettings } from '../sequence/sequence-settings';
 import { frozenUntil } from '../sequence/sequence-window';
 
 /** What one supplier sees of its own business: the demand ahead for its parts and what the dock recorded against it. */
-export class SupplierViewService {
+export class SupplierAccountService {
   constructor(
     private readonly db: Database,
     private readonly planning: PlanningService,

@@ -6,7 +6,7 @@ import {
   supplierForecastQuerySchema,
   supplierForecastSchema,
   type SupplierForecast,
-} from '../../shared/schemas/supplier-view';
+} from '../../shared/schemas/supplier-account';
 import { NotFoundError } from '../errors';
 import { READ_ROLES } from '../http/roles';
 import { defineRoute, type RouteDeps } from '../http/route';
@@ -27,9 +27,9 @@ export function forecastToCsv(forecast: SupplierForecast): string {
   return toCsv(['part_number', 'description', 'uom', 'date', 'qty', 'zone'], rows);
 }
 
-export function createSupplierViewRouter(services: Services, deps: RouteDeps): Router {
+export function createSupplierAccountRouter(services: Services, deps: RouteDeps): Router {
   const router = Router();
-  const service = services.supplierView;
+  const service = services.supplierAccount;
   const access = [...READ_ROLES, 'supplier'] as const;
 
   defineRoute(router, deps, {

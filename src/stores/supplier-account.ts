@@ -1,12 +1,12 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { Release } from '@shared/schemas/releases';
-import type { ReceivingClaim, SupplierForecast } from '@shared/schemas/supplier-view';
-import * as supplierViewApi from '@/api/supplier-view';
+import type { ReceivingClaim, SupplierForecast } from '@shared/schemas/supplier-account';
+import * as supplierAccountApi from '@/api/supplier-account';
 import { useLatestRequest } from './latest-request';
 
 /** A supplier's own business: its forecast, its open releases and the dock's claims against it. */
-export const useSupplierViewStore = defineStore('supplier-view', () => {
+export const useSupplierAccountStore = defineStore('supplier-account', () => {
   const forecast = ref<SupplierForecast | null>(null);
   const claims = ref<ReceivingClaim[]>([]);
   const releases = ref<Release[]>([]);
@@ -17,9 +17,9 @@ export const useSupplierViewStore = defineStore('supplier-view', () => {
     return run(
       (signal) =>
         Promise.all([
-          supplierViewApi.getSupplierForecast(code, signal),
-          supplierViewApi.getReceivingClaims(code, signal),
-          supplierViewApi.getOwnReleases(signal),
+          supplierAccountApi.getSupplierForecast(code, signal),
+          supplierAccountApi.getReceivingClaims(code, signal),
+          supplierAccountApi.getOwnReleases(signal),
         ]),
       ([nextForecast, nextClaims, nextReleases]) => {
         forecast.value = nextForecast;
@@ -29,5 +29,13 @@ export const useSupplierViewStore = defineStore('supplier-view', () => {
     );
   }
 
-  return { forecast, claims, releases, loading, error, fetchAll };
+  return {
+    forecast,
+    claims,
+    releases,
+    loading,
+    error,
+    fetchAll,
+    downloadForecastCsv: supplierAccountApi.downloadSupplierForecastCsv,
+  };
 });

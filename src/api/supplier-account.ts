@@ -1,5 +1,5 @@
 import type { Release } from '@shared/schemas/releases';
-import type { ReceivingClaim, SupplierForecast } from '@shared/schemas/supplier-view';
+import type { ReceivingClaim, SupplierForecast } from '@shared/schemas/supplier-account';
 import { download } from './download';
 import { http } from './http';
 

@@ -2,9 +2,9 @@ import { flushPromises } from '@vue/test-utils';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { Overview } from '@shared/schemas/overview';
 import { ROLES } from '@shared/schemas/user';
-import { GUIDE_STEPS } from '@/components/home-guide';
+import { GUIDE_STEPS } from '@/components/overview-guide';
 import { navigationFor } from '@/router/navigation';
-import HomeView from '@/views/HomeView.vue';
+import OverviewView from '@/views/OverviewView.vue';
 import { createAppContext, demoUsers, jsonResponse, mountInApp, stubFetch } from './helpers';
 
 const buyerOverview: Overview = { role: 'buyer', today: '2026-12-02', figures: [], firstRunGuide: true };
@@ -28,7 +28,7 @@ describe('the first-run guide', () => {
   it('lists the buyer’s steps as links in order, and goes away for good when hidden', async () => {
     const fetchMock = stubFetch(jsonResponse(200, buyerOverview), new Response(null, { status: 204 }));
     const context = await createAppContext({ user: demoUsers.buyer });
-    const wrapper = await mountInApp(HomeView, context);
+    const wrapper = await mountInApp(OverviewView, context);
 
     const guide = wrapper.get('[data-test="first-run-guide"]');
     expect(guide.get('h2').text()).toBe('Start here');
@@ -47,7 +47,7 @@ describe('the first-run guide', () => {
     expect(String(url)).toMatch(/\/api\/overview\/first-run-guide\/dismiss$/);
     expect(init?.method).toBe('POST');
     expect(wrapper.find('[data-test="first-run-guide"]').exists()).toBe(false);
-    expect(document.activeElement?.id).toBe('home-figures-heading');
+    expect(document.activeElement?.id).toBe('overview-figures-heading');
   });
 
   it('stays, saying why, when hiding it fails', async () => {
@@ -56,7 +56,7 @@ describe('the first-run guide', () => {
       jsonResponse(500, { error: { code: 'internal', message: 'Something broke.' } }),
     );
     const context = await createAppContext({ user: demoUsers.buyer });
-    const wrapper = await mountInApp(HomeView, context);
+    const wrapper = await mountInApp(OverviewView, context);
 
     await wrapper.get('[data-test="first-run-guide"] button').trigger('click');
     await flushPromises();
@@ -68,7 +68,7 @@ describe('the first-run guide', () => {
     stubFetch(jsonResponse(200, { ...buyerOverview, firstRunGuide: false }));
     const context = await createAppContext({ user: demoUsers.buyer });
 
-    const wrapper = await mountInApp(HomeView, context);
+    const wrapper = await mountInApp(OverviewView, context);
 
     expect(wrapper.find('[data-test="first-run-guide"]').exists()).toBe(false);
     expect(wrapper.text()).toContain('Needs doing now');
