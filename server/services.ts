@@ -21,8 +21,9 @@ import { SupplierAccountService } from './supplier-account/supplier-account.serv
 import { ConfirmService } from './releases/confirm.service';
 import { ReleasesService } from './releases/releases.service';
 import { SequenceService } from './sequence/sequence.service';
-import { ShipNoticesService } from './ship-notices/ship-notices.service';
-import { StockService } from './stock/stock.service';
+import { readShipNotices, ShipNoticesService } from './ship-notices/ship-notices.service';
+import { issueShippingLink } from './ship-notices/shipping-links';
+import { savePartsWithStock, StockService } from './stock/stock.service';
 import { SupplierPerformanceService } from './supplier-performance/supplier-performance.service';
 import { UsersService } from './users/users.service';
 
@@ -67,7 +68,7 @@ export function createServices(db: Database, options: ServiceOptions) {
     users: new UsersService(db),
     calendar: new CalendarService(db),
     masterData: new MasterDataService(db),
-    masterDataEdit: new MasterDataEditService(db),
+    masterDataEdit: new MasterDataEditService(db, savePartsWithStock),
     bom: new BomService(db),
     imports: new ImportsService(db),
     sequence: new SequenceService(db),
@@ -75,8 +76,8 @@ export function createServices(db: Database, options: ServiceOptions) {
     forecastMail: new ForecastMailService(db, planning),
     loops,
     lineRisk,
-    releases: new ReleasesService(db, planning, { appUrl }),
-    confirm: new ConfirmService(db),
+    releases: new ReleasesService(db, planning, { appUrl, readShipNotices }),
+    confirm: new ConfirmService(db, issueShippingLink),
     shipNotices: new ShipNoticesService(db),
     dock,
     receipts: new ReceiptsService(db),

@@ -13,7 +13,6 @@ import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { SequenceEntryEntity } from '../sequence/sequence-entry.entity';
 import { bumpPlanningVersion } from '../settings/versions';
 import { StockMovementEntity } from '../stock/stock-movement.entity';
-import { savePartsWithStock } from '../stock/stock.service';
 import { BomLineEntity } from './bom-line.entity';
 import { upsertSuppliers } from './master-data.writer';
 import { PartEntity } from './part.entity';
@@ -51,7 +50,16 @@ function toSupplier(entity: SupplierEntity): Supplier {
 
 /** One part, one supplier at a time: read for a detail page, changed from a form, each change audited. */
 export class MasterDataEditService {
-  constructor(private readonly db: Database) {}
+  constructor(
+    private readonly db: Database,
+    /** Saves parts and posts any change of on-hand to the ledger (the stock feature owns it). */
+    private readonly savePartsWithStock: (
+      manager: EntityManager,
+      parts: readonly Part[],
+      actorEmail: string,
+      reason: string,
+    ) => Promise<void>,
+  ) {}
 
   async getPart(partNumber: string): Promise<PartDetail> {
     const manager = this.db.manager;
@@ -93,7 +101,7 @@ export class MasterDataEditService {
       }
       const changes = changedFields(kept, part);
       if (!changes) return false;
-      await savePartsWithStock(manager, [part], actor.email, 'Part master');
+      await this.savePartsWithStock(manager, [part], actor.email, 'Part master');
       await syncLoops(manager);
       await recordAudit(manager, {
         actorEmail: actor.email,

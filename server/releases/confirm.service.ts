@@ -12,7 +12,6 @@ import { hashConfirmationToken } from './confirmation-tokens';
 import { ConfirmationTokenEntity } from './confirmation-token.entity';
 import { releasesChanged } from './release-events';
 import { readLineTiming } from './line-timing';
-import { issueShippingLink } from '../ship-notices/shipping-links';
 import { plantToday } from '../planning/plan-dates';
 import type { Database } from '../db/database';
 import type { AuthenticatedUser } from '../http/request-user';
@@ -44,7 +43,11 @@ interface OpenLink {
  * token is looked up by its SHA-256, so an altered or unknown token simply matches nothing.
  */
 export class ConfirmService {
-  constructor(private readonly db: Database) {}
+  constructor(
+    private readonly db: Database,
+    /** Issues the link for the ship notices of a confirmed release (the ship-notices feature owns it). */
+    private readonly issueShippingLink: (manager: EntityManager, releaseId: number) => Promise<string>,
+  ) {}
 
   /** What the confirmation page shows; 404 unknown, 409 used, 410 expired or cancelled. */
   async view(token: string): Promise<Confirmation> {
@@ -229,7 +232,7 @@ export class ConfirmService {
     });
     // Confirmed lines become firm receipts for the line risk.
     await releasesChanged(manager);
-    const shippingToken = await issueShippingLink(manager, release.id);
+    const shippingToken = await this.issueShippingLink(manager, release.id);
     return { status, number: release.number, changedLines, shippingToken };
   }
 

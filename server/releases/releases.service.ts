@@ -3,6 +3,7 @@ import { addWorkingDays, nextWorkingDay, toWorkingCalendar } from '../../shared/
 import { releaseNumber } from '../../shared/domain/release-rules';
 import { partTerms } from '../../shared/domain/supplier-timing';
 import { supplierTerms } from '../../shared/schemas/master-data';
+import type { ShipNotice } from '../../shared/schemas/ship-notices';
 import type {
   Release,
   ReleaseJobSettings,
@@ -41,7 +42,6 @@ import { composeReleaseMail } from './release-mail';
 import { ReleaseLineEntity } from './release-line.entity';
 import { ReleaseEntity } from './release.entity';
 import { releasesChanged } from './release-events';
-import { readShipNotices } from '../ship-notices/ship-notices.service';
 import { readLineTiming } from './line-timing';
 import type { Database } from '../db/database';
 
@@ -62,6 +62,8 @@ const CANCELLABLE: ReleaseStatus[] = ['draft', 'sent', 'confirmed', 'exception',
 export interface ReleasesServiceOptions {
   /** Base of the confirmation links in the e-mails, e.g. `https://cardloop.example.com`. */
   appUrl: string;
+  /** The ship notices of a set of releases, by release id (the ship-notices feature owns them). */
+  readShipNotices: (manager: EntityManager, releases: ReleaseEntity[]) => Promise<Map<number, ShipNotice[]>>;
 }
 
 /** Who acts: a signed-in user, or null for the scheduled job. */
@@ -99,7 +101,7 @@ export class ReleasesService {
   constructor(
     private readonly db: Database,
     private readonly planning: PlanningService,
-    options: ReleasesServiceOptions,
+    private readonly options: ReleasesServiceOptions,
   ) {
     this.appUrl = options.appUrl.replace(/\/+$/, '');
   }
@@ -563,7 +565,7 @@ export class ReleasesService {
       order: { id: 'ASC' },
     });
     const noticeOf = new Map(notices.map((notice) => [notice.ref, toOutboxMessage(notice)]));
-    const shipNotices = await readShipNotices(manager, releases);
+    const shipNotices = await this.options.readShipNotices(manager, releases);
     const supplierOf = new Map(releases.map((release) => [release.id, release.supplierCode]));
     const timing = await readLineTiming(manager, [...supplierOf.values()]);
     const linesByRelease = new Map<number, ReleaseLine[]>();

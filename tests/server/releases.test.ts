@@ -22,6 +22,7 @@ import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import type { Release, RunReleasesResponse } from '../../shared/schemas/releases';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 import { runSql } from '../../server/db/sql';
+import { readShipNotices } from '../../server/ship-notices/ship-notices.service';
 
 const APP_URL = 'https://cardloop.example.com';
 
@@ -422,7 +423,7 @@ describe('ReleaseJob', () => {
   it('runs a working day once, at or after the set time, and catches up after a restart', async () => {
     const job = new ReleaseJob(
       context.db,
-      new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL }),
+      new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL, readShipNotices }),
     );
     await writeSetting(context.dataSource.manager, RELEASE_JOB_LAST_RUN, '2027-03-02');
     await request(context.app)
@@ -448,7 +449,7 @@ describe('ReleaseJob', () => {
   it('starts a brand-new schedule on the next day rather than mailing at first start', async () => {
     const job = new ReleaseJob(
       context.db,
-      new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL }),
+      new ReleasesService(context.db, new PlanningService(context.db), { appUrl: APP_URL, readShipNotices }),
     );
     await runSql(context.dataSource.manager, 'DELETE FROM setting WHERE key = ?', [RELEASE_JOB_LAST_RUN]);
 
