@@ -429,11 +429,12 @@ describe('SequenceView', () => {
       'No longer at risk: S7 (M-A), Tue 8 Dec position 1.',
     );
     const demand = [...dialog.querySelectorAll('[data-test="what-if-demand"] tbody tr')].map((row) =>
-      [...row.querySelectorAll('td')].map((cell) => cell.textContent),
+      [...row.querySelectorAll('td')].map((cell) => cell.textContent?.replace(/\s+/g, ' ').trim()),
     );
+    // The Change cell also carries Now → After, shown there on a phone where those columns fold away.
     expect(demand).toEqual([
-      ['SUP', 'BAT-1', 'Fri 4 Dec', '2 pcs', '1 pc', '−1 pc'],
-      ['SUP', 'BAT-1', 'Tue 8 Dec', '2 pcs', '3 pcs', '+1 pc'],
+      ['SUP', 'BAT-1', 'Fri 4 Dec', '2 pcs', '1 pc', '−1 pc (2 pcs → 1 pc)'],
+      ['SUP', 'BAT-1', 'Tue 8 Dec', '2 pcs', '3 pcs', '+1 pc (2 pcs → 3 pcs)'],
     ]);
     await answerWhatIf('Cancel');
 
