@@ -23,6 +23,7 @@ export const LOCK_KEYS = {
   'release-job': 7_264_002,
   'end-of-shift': 7_264_003,
   'frozen-window-check': 7_264_004,
+  'start-up': 7_264_005,
 } as const;
 
 /** A job that must run on one node at a time. */
