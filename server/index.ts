@@ -31,6 +31,7 @@ async function main(): Promise<void> {
     jwtTtl: config.JWT_TTL,
     loginAccountLimit: config.LOGIN_ACCOUNT_LIMIT,
     loginAddressLimit: config.LOGIN_ADDRESS_LIMIT,
+    trustProxy: config.TRUST_PROXY,
     fakeSmtp,
     clientDir,
     appUrl: config.APP_URL,

@@ -236,4 +236,22 @@ describe('sign-in throttling', () => {
     expect(sameAddress.body.error.details[0]).toMatchObject({ scope: 'address' });
     expect(otherAddress.status).toBe(200);
   });
+
+  it('believes X-Forwarded-For only from the proxies TRUST_PROXY names', async () => {
+    // The nodes sit behind a proxy at 10.0.0.0/8; this test client (loopback) is not one of them.
+    const behindProxy = await createTestContext({ trustProxy: '10.0.0.0/8', loginAddressLimit: 3 });
+    try {
+      const attempt = (email: string, password: string, address: string) =>
+        request(behindProxy.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email, password });
+      for (const [index, account] of ['admin', 'planner', 'buyer'].entries())
+        await attempt(`${account}@example.com`, 'guess', `198.51.100.${index + 1}`);
+
+      const claimingAnotherAddress = await attempt('viewer@example.com', TEST_PASSWORD, '198.51.100.99');
+
+      expect(claimingAnotherAddress.status).toBe(429);
+      expect(claimingAnotherAddress.body.error.details[0]).toMatchObject({ scope: 'address' });
+    } finally {
+      await behindProxy.close();
+    }
+  });
 });
