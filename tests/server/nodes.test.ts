@@ -146,8 +146,9 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
 
     expect(response.status).toBe(201);
     expect(notice.version).toBeGreaterThan(connected.version);
+    // The suite's one timing bound: a change reaches the screens of every node within a second.
     // Node A commits before it answers, so a notice heard within a second of the answer is heard
-    // within a second of the check-in (usually before the answer: PostgreSQL sends it on commit).
+    // within a second of the check-in; PostgreSQL takes milliseconds, so the margin is wide.
     expect(heardAt - answeredAt).toBeLessThan(1_000);
   });
 
