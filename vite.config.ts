@@ -1,4 +1,5 @@
 /// <reference types="vitest/config" />
+import { randomBytes } from 'node:crypto';
 import { fileURLToPath, URL } from 'node:url';
 import { defineConfig } from 'vite';
 import vue from '@vitejs/plugin-vue';
@@ -26,6 +27,8 @@ if (process.env.VITEST && !postgresTestServer && !process.env.CARDLOOP_POSTGRES_
     ].join('\n'),
   );
 }
+// Names this run's throw-away PostgreSQL databases, so that the run drops them when it ends.
+if (postgresTestServer) process.env.SCRATCH_RUN_ID ??= randomBytes(4).toString('hex');
 const serverTest = {
   include: ['tests/server/**/*.test.ts'],
   environment: 'node' as const,
@@ -66,6 +69,7 @@ export default defineConfig({
                 ...serverTest,
                 // Every throw-away database (`openDatabase(':memory:')`) is made on this server.
                 env: { ...serverTest.env, SCRATCH_DATABASE_URL: postgresTestServer },
+                globalSetup: ['tests/server/postgres-run.ts'],
               },
             },
           ]

@@ -38,6 +38,8 @@ import { createUsersRouter } from './users/users.router';
 
 export interface AppOptions extends ServiceOptions {
   fakeSmtp?: FakeSmtp | null;
+  /** The reverse proxies trusted for the client's address and scheme (TRUST_PROXY); default loopback. */
+  trustProxy?: string | number;
   /** Folder of the built client to serve; omitted in API tests. */
   clientDir?: string;
 }
@@ -56,7 +58,7 @@ export function createApp(
   const api = Router();
 
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', options.trustProxy ?? 'loopback');
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -24,6 +24,16 @@ const configSchema = z.object({
   ADMIN_PASSWORD: z.string().min(10, 'ADMIN_PASSWORD must be at least 10 characters').optional(),
   LOGIN_ACCOUNT_LIMIT: z.coerce.number().int().positive().default(10),
   LOGIN_ADDRESS_LIMIT: z.coerce.number().int().positive().default(100),
+  /**
+   * Whose X-Forwarded-For the app believes (the client address of sign-in throttling) and whose
+   * X-Forwarded-Proto: a hop count, or addresses and subnets (`10.0.0.5, 10.0.1.0/24`, `loopback`).
+   */
+  TRUST_PROXY: z
+    .string()
+    .trim()
+    .min(1)
+    .default('loopback')
+    .transform((value) => (/^\d+$/.test(value) ? Number(value) : value)),
   NODE_ENV: z.string().default('development'),
 });
 

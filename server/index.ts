@@ -3,8 +3,7 @@ import { fileURLToPath } from 'node:url';
 import { createApp } from './app';
 import { ensureClientBuilt } from './client-build';
 import { databaseLabel, databaseTarget, loadConfig } from './config';
-import { openDatabase, type Database } from './db/database';
-import { plantToday } from './planning/plan-dates';
+import { openDatabase } from './db/database';
 import { createServices } from './services';
 import { ReleaseJob } from './releases/release-job';
 import { CloseDayJob } from './builds/close-day-job';
@@ -12,9 +11,8 @@ import { startJobs } from './jobs/scheduler';
 import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
 import { startFakeSmtp } from './outbox/fake-smtp';
 import { OutboxDispatcher } from './outbox/outbox.service';
-import { DEMO_ACCOUNTS, ensureAdmin, isDatabaseEmpty } from './users/bootstrap';
-import { DEMO_PASSWORD, seedDemoScenario } from '../seed/seed-demo';
-import { readSetting } from './settings/settings';
+import { prepareDatabase } from './start-up';
+import { DEMO_PASSWORD } from '../seed/seed-demo';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -26,22 +24,14 @@ async function main(): Promise<void> {
   const fakeSmtp = config.SMTP_URL ? null : await startFakeSmtp();
   const smtpUrl = config.SMTP_URL ?? fakeSmtp!.url;
 
-  let demoSignIns: string[] = [];
-  if (config.SEED_DEMO === '1') {
-    if (await isDatabaseEmpty(db)) {
-      console.log('Empty database: seeding the demo scenario…');
-      await seedDemoScenario(db, plantToday(), { appUrl: config.APP_URL });
-    }
-    demoSignIns = await listDemoSignIns(db);
-  } else {
-    await ensureAdmin(db, config.ADMIN_EMAIL!, config.ADMIN_PASSWORD!);
-  }
+  const demoSignIns = await prepareDatabase(db, config);
 
   const appOptions = {
     jwtSecret: config.jwtSecret,
     jwtTtl: config.JWT_TTL,
     loginAccountLimit: config.LOGIN_ACCOUNT_LIMIT,
     loginAddressLimit: config.LOGIN_ADDRESS_LIMIT,
+    trustProxy: config.TRUST_PROXY,
     fakeSmtp,
     clientDir,
     appUrl: config.APP_URL,
@@ -113,16 +103,6 @@ async function main(): Promise<void> {
   };
   process.on('SIGTERM', () => void shutdown('SIGTERM'));
   process.on('SIGINT', () => void shutdown('SIGINT'));
-}
-
-/** The demo's own accounts still active; users added later are never printed beside the demo password. */
-async function listDemoSignIns(db: Database): Promise<string[]> {
-  const demoAccounts = new Set(await readSetting<string[]>(db.manager, DEMO_ACCOUNTS, []));
-  const all: { email: string; role: string; supplier_code: string | null }[] = await db.manager.query(
-    'SELECT email, role, supplier_code FROM "user" WHERE active = TRUE ORDER BY CASE role WHEN \'supplier\' THEN 1 ELSE 0 END, id',
-  );
-  const rows = all.filter((row) => demoAccounts.has(row.email));
-  return rows.map((row) => `${row.role.padEnd(10)} ${row.email}${row.supplier_code ? `  (${row.supplier_code})` : ''}`);
 }
 
 main().catch((error) => {

@@ -197,6 +197,27 @@ export class Database {
     }
   }
 
+  /**
+   * Runs `work` once no other node is running `job`, waiting for its turn: for what every node
+   * needs done before it serves but only one may do at a time (preparing a fresh database). On
+   * PostgreSQL a session advisory lock, held for the whole run; on SQLite one process serves the
+   * database. Work run under it re-reads whether it is still to be done.
+   */
+  async runInTurn<T>(job: ExclusiveJob, work: () => Promise<T>): Promise<T> {
+    if (this.engine === 'sqlite') return work();
+    const runner = this.dataSource.createQueryRunner();
+    try {
+      await runner.query('SELECT pg_advisory_lock($1)', [LOCK_KEYS[job]]);
+      try {
+        return await work();
+      } finally {
+        await runner.query('SELECT pg_advisory_unlock($1)', [LOCK_KEYS[job]]);
+      }
+    } finally {
+      await runner.release();
+    }
+  }
+
   /** Runs `effect` once the current write unit has committed; at once when no write unit is open. */
   afterCommit(effect: () => void): void {
     const open = this.currentUnit();

@@ -23,6 +23,7 @@ export const LOCK_KEYS = {
   'release-job': 7_264_002,
   'end-of-shift': 7_264_003,
   'frozen-window-check': 7_264_004,
+  'start-up': 7_264_005,
 } as const;
 
 /** A job that must run on one node at a time. */
@@ -99,6 +100,15 @@ function databaseUrl(url: string, database: string): string {
 let template: Promise<string> | undefined;
 let scratchCount = 0;
 
+/**
+ * The start of this process's throw-away database names. A test run sets `SCRATCH_RUN_ID`, so that
+ * at its end it can drop every database it made (`tests/server/postgres-run.ts`), and only those.
+ */
+function scratchNamePrefix(kind: 'template' | 'scratch'): string {
+  const run = process.env.SCRATCH_RUN_ID;
+  return `cardloop_${kind}_${run ? `${run}_` : ''}${process.pid}`;
+}
+
 async function adminQuery(url: string, sql: string): Promise<void> {
   const client = new pg.Client({ connectionString: url });
   await client.connect();
@@ -112,7 +122,7 @@ async function adminQuery(url: string, sql: string): Promise<void> {
 /** A migrated template database made once per process, named after it so parallel workers never share one. */
 function templateDatabase(serverUrl: string): Promise<string> {
   template ??= (async () => {
-    const name = `cardloop_template_${process.pid}`;
+    const name = scratchNamePrefix('template');
     await adminQuery(serverUrl, `DROP DATABASE IF EXISTS ${name}`);
     await adminQuery(serverUrl, `CREATE DATABASE ${name}`);
     const source = postgresSource(databaseUrl(serverUrl, name), { poolSize: 1 });
@@ -131,7 +141,7 @@ function templateDatabase(serverUrl: string): Promise<string> {
 export async function scratchPostgres(serverUrl: string): Promise<{ url: string; drop: () => Promise<void> }> {
   const source = await templateDatabase(serverUrl);
   scratchCount += 1;
-  const name = `cardloop_scratch_${process.pid}_${scratchCount}`;
+  const name = `${scratchNamePrefix('scratch')}_${scratchCount}`;
   await adminQuery(serverUrl, `DROP DATABASE IF EXISTS ${name}`);
   await adminQuery(serverUrl, `CREATE DATABASE ${name} TEMPLATE ${source} STRATEGY FILE_COPY`);
   return {

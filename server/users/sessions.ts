@@ -13,6 +13,8 @@ export interface SessionsRevoked {
 }
 
 export const SESSIONS_CHANNEL = 'sessions';
+/** Session ids (43 characters each) named in one notice of sessions ended. */
+const SESSIONS_PER_NOTICE = 100;
 
 /** Opens a session for a user until `expiresAt`; its id goes into the token. */
 export async function openSession(manager: EntityManager, userId: number, expiresAt: Date): Promise<SessionEntity> {
@@ -45,6 +47,11 @@ export async function revokeSessions(
   if (live.length === 0) return 0;
   const ids = live.map((session) => session.id);
   await manager.update(SessionEntity, ids, { revokedAt: new Date().toISOString(), revokedReason: reason });
-  notifyAfterCommit(SESSIONS_CHANNEL, { userId, sessionIds: ids } satisfies SessionsRevoked);
+  // A notice travels by NOTIFY on PostgreSQL, whose payload must stay under 8,000 bytes: a
+  // shared account's hundreds of sessions go out a hundred (about 4.6 kB) at a time.
+  for (let start = 0; start < ids.length; start += SESSIONS_PER_NOTICE) {
+    const sessionIds = ids.slice(start, start + SESSIONS_PER_NOTICE);
+    notifyAfterCommit(SESSIONS_CHANNEL, { userId, sessionIds } satisfies SessionsRevoked);
+  }
   return ids.length;
 }

@@ -9,30 +9,18 @@ import { printReceiptsBench, runReceiptsBench } from './receipts.bench';
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
 // `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size;
 // add `--browser` for the time the Horizon screen takes to open in Chromium.
-const { values } = parseArgs({ options: { scale: { type: 'string' }, browser: { type: 'boolean' } } });
+// `npm run bench -- --engines`: the database figures alone, on SQLite and (BENCH_DATABASE_URL) PostgreSQL.
+const { values } = parseArgs({
+  options: { scale: { type: 'string' }, browser: { type: 'boolean' }, engines: { type: 'boolean' } },
+});
 const scales = values.scale ? values.scale.split(',').map(Number) : null;
 if (scales?.some((scale) => !Number.isInteger(scale) || scale < 1)) {
   throw new Error('--scale takes whole numbers from 1, separated by commas (e.g. --scale 1,4,16)');
 }
 
-if (!scales) {
-  const ms = (value: number) => `${value.toFixed(2)} ms`;
-  const plan = await runPlanBench();
-  console.log(
-    `Synthetic plant: ${plan.parts} parts, ${plan.bomLines} BOM lines, ${plan.sequenceSlots} sequence slots, ${plan.workingDays} working days`,
-  );
-  console.log(
-    `computePlan (explosion + netting)  median ${ms(plan.medianMs)}  p90 ${ms(plan.p90Ms)}  (target < 25 ms; ${plan.runs} runs)`,
-  );
-  console.log(
-    `  + every bucket object           median ${ms(plan.allBucketsMedianMs)}  p90 ${ms(plan.allBucketsP90Ms)}`,
-  );
-  console.log(`  + demand report                 median ${ms(plan.demandMedianMs)}  p90 ${ms(plan.demandP90Ms)}`);
-  console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}  p90 ${ms(plan.floorP90Ms)}`);
-  console.log(`engine / floor                     ${(plan.medianMs / plan.floorMedianMs).toFixed(1)}×`);
-  console.log('');
-  // The database figures on SQLite, then on PostgreSQL when BENCH_DATABASE_URL (or TEST_DATABASE_URL)
-  // names a server the bench may create throw-away databases on.
+/** The figures that touch the database, on SQLite and then on PostgreSQL when a server is named. */
+async function engineFigures(): Promise<void> {
+  // BENCH_DATABASE_URL (or TEST_DATABASE_URL) names a server the bench may create throw-away databases on.
   const postgresServer = process.env.BENCH_DATABASE_URL ?? process.env.TEST_DATABASE_URL;
   for (const engine of ['SQLite', 'PostgreSQL']) {
     if (engine === 'PostgreSQL') {
@@ -48,7 +36,28 @@ if (!scales) {
     printReceiptsBench(await runReceiptsBench(1));
     if (engine === 'PostgreSQL') printReceiptsBench(await runReceiptsBench(2));
   }
+}
+
+if (values.engines) {
+  await engineFigures();
+} else if (!scales) {
+  const ms = (value: number) => `${value.toFixed(2)} ms`;
+  const plan = await runPlanBench();
+  console.log(
+    `Synthetic plant: ${plan.parts} parts, ${plan.bomLines} BOM lines, ${plan.sequenceSlots} sequence slots, ${plan.workingDays} working days`,
+  );
+  console.log(
+    `computePlan (explosion + netting)  median ${ms(plan.medianMs)}  p90 ${ms(plan.p90Ms)}  (target < 25 ms; ${plan.runs} runs)`,
+  );
+  console.log(
+    `  + every bucket object           median ${ms(plan.allBucketsMedianMs)}  p90 ${ms(plan.allBucketsP90Ms)}`,
+  );
+  console.log(`  + demand report                 median ${ms(plan.demandMedianMs)}  p90 ${ms(plan.demandP90Ms)}`);
+  console.log(`bare typed-array explosion floor   median ${ms(plan.floorMedianMs)}  p90 ${ms(plan.floorP90Ms)}`);
+  console.log(`engine / floor                     ${(plan.medianMs / plan.floorMedianMs).toFixed(1)}×`);
+  console.log('');
+  await engineFigures();
   console.log('');
   printWhatIfBench(await runWhatIfBench());
 }
-for (const scale of scales ?? [1]) await runScaleBench(scale, { browser: values.browser });
+if (!values.engines) for (const scale of scales ?? [1]) await runScaleBench(scale, { browser: values.browser });

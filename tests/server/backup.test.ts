@@ -1,12 +1,16 @@
+import { execFile } from 'node:child_process';
 import { mkdtemp, rm } from 'node:fs/promises';
 import type { Server } from 'node:net';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { promisify } from 'node:util';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { backupDatabase, restoreDatabase } from '../../server/db/backup';
 import { openDatabase, type Database } from '../../server/db/database';
 import { entities } from '../../server/db/entities';
+import { isPostgresUrl } from '../../server/db/postgres';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
@@ -30,6 +34,17 @@ async function contents(db: Database): Promise<Record<string, unknown[]>> {
     all[metadata.tableName] = await db.dataSource.manager.find(entity, { order });
   }
   return all;
+}
+
+const repository = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
+
+/** Runs `npm run <script> -- <args>` in the repository as a person would, the database named as the app is told. */
+async function npmRun(script: 'backup' | 'restore', args: string[], location: string) {
+  const env = Object.fromEntries(
+    Object.entries(process.env).filter(([name]) => name !== 'DATABASE_URL' && name !== 'DATABASE_PATH'),
+  );
+  env[isPostgresUrl(location) ? 'DATABASE_URL' : 'DATABASE_PATH'] = location;
+  return promisify(execFile)('npm', ['run', '--silent', script, '--', ...args], { cwd: repository, env });
 }
 
 /** A fresh, migrated, empty database of the same engine to restore into. */
@@ -105,6 +120,34 @@ describe('npm run backup / npm run restore', () => {
     } finally {
       await twin.close();
     }
+  });
+
+  it('runs as `npm run backup FILE` and `npm run restore FILE` on the database the app is configured with', async () => {
+    const file = join(folder, 'by-npm.backup');
+    const before = await contents(context.db);
+
+    const backedUp = await npmRun('backup', [file], locationOf(context.db));
+    const twin = await emptyTwin();
+    try {
+      const restored = await npmRun('restore', [file], locationOf(twin));
+
+      expect(backedUp.stdout).toContain(`to ${file}`);
+      expect(restored.stdout).toContain(`from ${file}`);
+      expect(await contents(twin)).toEqual(before);
+    } finally {
+      await twin.close();
+    }
+  });
+
+  it('refuses to restore from a file that is not there, changing nothing', async () => {
+    const before = await contents(context.db);
+
+    const missing = await npmRun('restore', [join(folder, 'no-such.backup')], locationOf(context.db)).catch(
+      (error: { code: number; stderr: string }) => error,
+    );
+
+    expect(missing).toMatchObject({ code: 1, stderr: expect.stringContaining('No backup file') });
+    expect(await contents(context.db)).toEqual(before);
   });
 
   it('writes a consistent copy while receipts keep arriving', async () => {

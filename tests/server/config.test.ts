@@ -26,6 +26,12 @@ describe('loadConfig', () => {
     expect(databaseTarget(loadConfig({}), '/srv/cardloop')).toBe('/srv/cardloop/data/cardloop.sqlite');
   });
 
+  it('trusts the loopback proxy by default, and a hop count or addresses when TRUST_PROXY says so', () => {
+    expect(loadConfig({}).TRUST_PROXY).toBe('loopback');
+    expect(loadConfig({ TRUST_PROXY: '1' }).TRUST_PROXY).toBe(1);
+    expect(loadConfig({ TRUST_PROXY: '10.0.0.5, 10.0.1.0/24' }).TRUST_PROXY).toBe('10.0.0.5, 10.0.1.0/24');
+  });
+
   it('names DATABASE_URL when it is not a PostgreSQL URL', () => {
     expect(() => loadConfig({ DATABASE_URL: 'mysql://db.example.com/cardloop' })).toThrow(
       /DATABASE_URL: DATABASE_URL must be a postgres:\/\/ or postgresql:\/\/ URL/,

@@ -1,6 +1,21 @@
 import type { Server } from 'node:net';
+import { performance } from 'node:perf_hooks';
 import request from 'supertest';
+import { In, Like } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CloseDayJob } from '../../server/builds/close-day-job';
+import { CLOSE_DAY_TIME } from '../../server/builds/builds.service';
+import { openDatabase } from '../../server/db/database';
+import { alertFrozenWindowShortages } from '../../server/line-risk/frozen-window-alerts';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { startFakeSmtp } from '../../server/outbox/fake-smtp';
+import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
+import { enqueueMail, OutboxDispatcher } from '../../server/outbox/outbox.service';
+import { plantToday } from '../../server/planning/plan-dates';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
+import { prepareDatabase } from '../../server/start-up';
+import { UserEntity } from '../../server/users/user.entity';
+import { nextWorkingDay } from '../../shared/domain/calendar';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
@@ -118,17 +133,23 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     const connected = await events.next<{ version: number }>('dock');
     const lineId = await openLine(12);
 
-    const announced = events.nextPast('dock', connected.version);
+    const announced = events
+      .nextPast('dock', connected.version)
+      .then((notice) => ({ notice, heardAt: performance.now() }));
     const response = await receive(nodeA, lineId, 12, 'nodes-announce');
-    // Generous: PostgreSQL delivers the notice when node A commits; no timing is asserted beyond this.
-    const notice = (await Promise.race([
+    const answeredAt = performance.now();
+    const { notice, heardAt } = (await Promise.race([
       announced,
       new Promise((_, reject) => setTimeout(() => reject(new Error('node B heard nothing within 5 s')), 5_000)),
-    ])) as { version: number };
+    ])) as { notice: { version: number }; heardAt: number };
     events.close();
 
     expect(response.status).toBe(201);
     expect(notice.version).toBeGreaterThan(connected.version);
+    // The suite's one timing bound: a change reaches the screens of every node within a second.
+    // Node A commits before it answers, so a notice heard within a second of the answer is heard
+    // within a second of the check-in; PostgreSQL takes milliseconds, so the margin is wide.
+    expect(heardAt - answeredAt).toBeLessThan(1_000);
   });
 
   it('refuses on node B a token just used there, once node B hears it was signed out on node A', async () => {
@@ -252,6 +273,52 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
     expect(await nodeA.dataSource.getRepository(ReceiptEntity).countBy({ releaseLineId: one.id })).toBe(1);
   });
 
+  it('counts failed sign-ins on both nodes together', async () => {
+    const login = (node: TestContext, password: string) =>
+      request(node.app).post('/api/auth/login').send({ email: 'line@example.com', password });
+    // Five failures in all (the limit both nodes are given), three on A and two on B.
+    const failures = [];
+    for (const node of [nodeA, nodeB, nodeA, nodeB, nodeA]) failures.push((await login(node, 'a wrong guess')).status);
+
+    const onB = await login(nodeB, TEST_PASSWORD);
+    const onA = await login(nodeA, TEST_PASSWORD);
+
+    expect(failures).toEqual([401, 401, 401, 401, 401]);
+    expect(onB.status).toBe(429);
+    expect(onB.body.error.details[0]).toMatchObject({ scope: 'account' });
+    expect(onA.status).toBe(429);
+  });
+
+  it('sends each queued notice once when both nodes drain the outbox at once', async () => {
+    const smtp = await startFakeSmtp();
+    const dispatchers = [nodeA, nodeB].map((node) => new OutboxDispatcher(node.db, smtp.url, 'cardloop@example.com'));
+    try {
+      // More than one dispatcher's batch, so both have notices to take.
+      const subjects = Array.from({ length: 45 }, (_, index) => `Node notice ${index + 1}`);
+      await nodeA.db.write(async (manager) => {
+        for (const subject of subjects)
+          await enqueueMail(manager, { to: 'orders@supplier-a.example.com', subject, text: 'Hello.' });
+      });
+      const due = () =>
+        nodeA.dataSource.getRepository(OutboxMessageEntity).countBy({ status: In(['pending', 'failing']) });
+
+      const sentBy = [0, 0];
+      for (let round = 0; round < 10 && (await due()) > 0; round += 1) {
+        const [a, b] = await Promise.all(dispatchers.map((dispatcher) => dispatcher.dispatchDue()));
+        sentBy[0] += a;
+        sentBy[1] += b;
+      }
+
+      const received = smtp.messages.filter((mail) => mail.subject.startsWith('Node notice '));
+      expect(await due()).toBe(0);
+      expect(received.map((mail) => mail.subject).sort()).toEqual([...subjects].sort());
+      expect(sentBy[0] + sentBy[1]).toBe(smtp.messages.length);
+    } finally {
+      for (const dispatcher of dispatchers) dispatcher.close();
+      await smtp.close();
+    }
+  });
+
   it('serves a packing slip uploaded on node A from node B', async () => {
     const lineId = await openLine(1);
     const { releaseId } = await nodeA.dataSource.getRepository(ReleaseLineEntity).findOneByOrFail({ id: lineId });
@@ -295,5 +362,85 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
       .getRepository(ReleaseEntity)
       .find({ where: { releaseDate: '2027-03-03' }, order: { supplierCode: 'ASC' } });
     expect(releases.map((release) => release.supplierCode)).toEqual(['SUP-A', 'SUP-B']);
+  });
+  describe('jobs both nodes reach in the same minute', () => {
+    const buildDay = '2027-03-04';
+    const frozenDay = nextWorkingDay(plantToday(), { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] });
+
+    beforeAll(async () => {
+      await nodeA.db.write(async (manager) => {
+        await savePartsWithStock(manager, [
+          testPart('MODEL-E', { source: 'end_item', supplierCode: null, replenishment: null }),
+          testPart('BOLT-E', { onHand: 100, replenishment: 'scheduled' }),
+          testPart('MODEL-F', { source: 'end_item', supplierCode: null, replenishment: null }),
+          testPart('MOTOR-F', { onHand: 1, description: 'Drive motor' }),
+        ]);
+        await replaceBomLines(manager, [
+          { parent: 'MODEL-E', component: 'BOLT-E', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+          { parent: 'MODEL-F', component: 'MOTOR-F', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+        ]);
+        await upsertSequenceEntries(manager, [
+          { date: buildDay, sequence: 1, model: 'MODEL-E', serial: 'E-1', qty: 1 },
+          { date: buildDay, sequence: 2, model: 'MODEL-E', serial: 'E-2', qty: 1 },
+          // One unit needing 2 motors with 1 on hand, inside the frozen window: a line stop ahead.
+          { date: frozenDay, sequence: 1, model: 'MODEL-F', serial: 'F-1', qty: 1 },
+        ]);
+      });
+    });
+    afterAll(async () => {
+      await nodeA?.services.lineRisk.close();
+      await nodeB?.services.lineRisk.close();
+    });
+
+    it('closes the day once', async () => {
+      await writeSetting(nodeA.dataSource.manager, CLOSE_DAY_TIME, '22:00');
+      const jobs = [nodeA, nodeB].map((node) => new CloseDayJob(node.db, node.services.builds));
+      const sameMinute = new Date(2027, 2, 4, 22, 0, 5);
+
+      const results = await Promise.all(jobs.map((job) => job.tick(sameMinute)));
+
+      const ran = results.filter((result) => result !== null);
+      expect(ran).toHaveLength(1);
+      expect(ran[0]?.built).toEqual(['E-1', 'E-2']);
+      // Conservation: two units of 2 bolts each are taken from stock once.
+      const bolts = await nodeA.dataSource.getRepository(PartEntity).findOneByOrFail({ partNumber: 'BOLT-E' });
+      expect(bolts.onHand).toBe(100 - 2 * 2);
+    });
+
+    it('e-mails the planners once about a shortage entering the frozen window', async () => {
+      const check = (node: TestContext) =>
+        alertFrozenWindowShortages(node.db, node.services.lineRisk, 'http://plant.example.com');
+
+      const results = await Promise.all([check(nodeA), check(nodeB)]);
+
+      expect(results.flat()).toEqual(['MOTOR-F']);
+      const alerts = await nodeA.dataSource
+        .getRepository(OutboxMessageEntity)
+        .findBy({ to: 'planner@example.com', subject: Like('Line stop ahead%') });
+      expect(alerts).toHaveLength(1);
+      expect(alerts[0].text).toContain('F-1 (MODEL-F)');
+    });
+  });
+
+  it('prepares a fresh database once when two nodes start at the same moment', async () => {
+    const first = await openDatabase(':memory:');
+    const second = await openDatabase((first.dataSource.options as { url: string }).url);
+    const config = {
+      SEED_DEMO: '0',
+      ADMIN_EMAIL: 'it@example.com',
+      ADMIN_PASSWORD: 'a-long-admin-password',
+      APP_URL: 'http://plant.example.com',
+    } as const;
+    try {
+      const started = await Promise.allSettled([prepareDatabase(first, config), prepareDatabase(second, config)]);
+
+      expect(started.map((result) => result.status)).toEqual(['fulfilled', 'fulfilled']);
+      expect(await first.dataSource.getRepository(UserEntity).findBy({ role: 'admin' })).toMatchObject([
+        { email: 'it@example.com' },
+      ]);
+    } finally {
+      await second.close();
+      await first.close();
+    }
   });
 });

@@ -2,7 +2,10 @@ import { get, type IncomingMessage, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { IsNull } from 'typeorm';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
+import { SessionEntity } from '../../server/users/session.entity';
+import { openSession } from '../../server/users/sessions';
 import { MAX_STREAMS_PER_USER } from '../../server/events/events.router';
 import { bearer, createTestContext, signIn, TEST_PASSWORD, type TestContext } from './helpers';
 
@@ -49,6 +52,28 @@ describe('sessions the server can end', () => {
     expect((await me(context.tokens.buyer)).status).toBe(401);
     expect((await me(context.tokens.viewer)).status).toBe(401);
     expect((await me(context.tokens.admin)).status).toBe(200);
+  });
+
+  it('ends every session of a shared account signed in on many devices, however many there are', async () => {
+    const receivingId = await idOf('receiving@example.com');
+    // A dock account shared by tablets and scanners piles up sessions; on PostgreSQL the notice
+    // of their end travels by NOTIFY, whose payload is capped at 8,000 bytes (PostgreSQL 15
+    // documentation, NOTIFY: "must be shorter than 8000 bytes"; from memory).
+    const expiresAt = new Date(Date.now() + 3_600_000);
+    await context.db.write(async (manager) => {
+      for (let device = 0; device < 300; device += 1) await openSession(manager, receivingId, expiresAt);
+    });
+
+    const deactivated = await request(context.app)
+      .patch(`/api/users/${receivingId}`)
+      .set(bearer(context.tokens.admin))
+      .send({ active: false });
+
+    expect(deactivated.status).toBe(200);
+    expect(
+      await context.dataSource.getRepository(SessionEntity).countBy({ userId: receivingId, revokedAt: IsNull() }),
+    ).toBe(0);
+    expect((await me(context.tokens.receiving)).status).toBe(401);
   });
 
   it('refuses a token on the request right after its session ended, though it was used a moment before', async () => {
@@ -235,5 +260,23 @@ describe('sign-in throttling', () => {
     expect(sameAddress.status).toBe(429);
     expect(sameAddress.body.error.details[0]).toMatchObject({ scope: 'address' });
     expect(otherAddress.status).toBe(200);
+  });
+
+  it('believes X-Forwarded-For only from the proxies TRUST_PROXY names', async () => {
+    // The nodes sit behind a proxy at 10.0.0.0/8; this test client (loopback) is not one of them.
+    const behindProxy = await createTestContext({ trustProxy: '10.0.0.0/8', loginAddressLimit: 3 });
+    try {
+      const attempt = (email: string, password: string, address: string) =>
+        request(behindProxy.app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email, password });
+      for (const [index, account] of ['admin', 'planner', 'buyer'].entries())
+        await attempt(`${account}@example.com`, 'guess', `198.51.100.${index + 1}`);
+
+      const claimingAnotherAddress = await attempt('viewer@example.com', TEST_PASSWORD, '198.51.100.99');
+
+      expect(claimingAnotherAddress.status).toBe(429);
+      expect(claimingAnotherAddress.body.error.details[0]).toMatchObject({ scope: 'address' });
+    } finally {
+      await behindProxy.close();
+    }
   });
 });
