@@ -28,10 +28,14 @@ export class LoginThrottle {
   async check(email: string, address: string, now = new Date()): Promise<void> {
     const since = new Date(now.getTime() - THROTTLE_WINDOW_MS).toISOString();
     const manager = this.db.manager;
-    const [account, fromAddress] = await Promise.all([
-      manager.find(LoginFailureEntity, { where: { email, at: MoreThan(since) }, order: { at: 'ASC' } }),
-      manager.find(LoginFailureEntity, { where: { address, at: MoreThan(since) }, order: { at: 'ASC' } }),
-    ]);
+    const account = await manager.find(LoginFailureEntity, {
+      where: { email, at: MoreThan(since) },
+      order: { at: 'ASC' },
+    });
+    const fromAddress = await manager.find(LoginFailureEntity, {
+      where: { address, at: MoreThan(since) },
+      order: { at: 'ASC' },
+    });
     const wait = (failures: LoginFailureEntity[], limit: number) => {
       const freedAt = new Date(failures[failures.length - limit].at).getTime() + THROTTLE_WINDOW_MS;
       return Math.max(1, Math.ceil((freedAt - now.getTime()) / 60_000));

@@ -76,7 +76,8 @@ export class DockService {
   async listBody(): Promise<SerialisedBody> {
     const manager = this.db.manager;
     const now = this.now();
-    const [dockVersion, planningVersion] = await Promise.all([readDockVersion(manager), readPlanningVersion(manager)]);
+    const dockVersion = await readDockVersion(manager);
+    const planningVersion = await readPlanningVersion(manager);
     const key = `${dockVersion}|${planningVersion}|${plantToday(now)}|${startOfDay(now)}`;
     if (this.board?.key === key) return this.board.body;
     const body = new SerialisedBody(await this.list(now));
@@ -182,16 +183,21 @@ export class DockService {
     });
     const partNumbers = [...new Set(lines.map((line) => line.partNumber))];
     const cardIds = lines.flatMap((line) => (line.cardId === null ? [] : [line.cardId]));
-    const [parts, suppliers, cards, attachments, noticeLines, receipts] = await Promise.all([
-      manager.findBy(PartEntity, { partNumber: In(partNumbers) }),
-      manager.findBy(SupplierEntity, { code: In([...new Set(releases.map((release) => release.supplierCode))]) }),
-      cardIds.length > 0 ? manager.findBy(KanbanCardEntity, { id: In(cardIds) }) : Promise.resolve([]),
-      manager.find(AttachmentEntity, { where: { releaseId: In(releaseIds) }, order: { id: 'ASC' } }),
+    // One after another: a PostgreSQL unit of work is one connection, which takes one query at a time.
+    const parts = await manager.findBy(PartEntity, { partNumber: In(partNumbers) });
+    const suppliers = await manager.findBy(SupplierEntity, {
+      code: In([...new Set(releases.map((release) => release.supplierCode))]),
+    });
+    const cards = cardIds.length > 0 ? await manager.findBy(KanbanCardEntity, { id: In(cardIds) }) : [];
+    const attachments = await manager.find(AttachmentEntity, {
+      where: { releaseId: In(releaseIds) },
+      order: { id: 'ASC' },
+    });
+    const noticeLines =
       notices.length > 0
-        ? manager.findBy(ShipNoticeLineEntity, { shipNoticeId: In(notices.map((notice) => notice.id)) })
-        : Promise.resolve([]),
-      lineIds.length > 0 ? manager.findBy(ReceiptEntity, { releaseLineId: In(lineIds) }) : Promise.resolve([]),
-    ]);
+        ? await manager.findBy(ShipNoticeLineEntity, { shipNoticeId: In(notices.map((notice) => notice.id)) })
+        : [];
+    const receipts = lineIds.length > 0 ? await manager.findBy(ReceiptEntity, { releaseLineId: In(lineIds) }) : [];
     const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
     const supplierName = new Map(suppliers.map((supplier) => [supplier.code, supplier.name]));
     const cardNumber = new Map(cards.map((card) => [card.id, card.cardNumber]));

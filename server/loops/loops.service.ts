@@ -393,11 +393,10 @@ export class LoopsService {
   ): Promise<KanbanLoop[]> {
     if (loops.length === 0) return [];
     const partNumbers = loops.map((loop) => loop.partNumber);
-    const [parts, demand, counts] = await Promise.all([
-      manager.find(PartEntity, { where: onlyThese ? { partNumber: In(partNumbers) } : {} }),
-      this.sizingDemand(manager),
-      this.cardCounts(manager, onlyThese ? loops.map((loop) => loop.id) : null),
-    ]);
+    // One after another: a PostgreSQL unit of work is one connection, which takes one query at a time.
+    const parts = await manager.find(PartEntity, { where: onlyThese ? { partNumber: In(partNumbers) } : {} });
+    const demand = await this.sizingDemand(manager);
+    const counts = await this.cardCounts(manager, onlyThese ? loops.map((loop) => loop.id) : null);
     const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
     const supplierCodes = [...new Set(parts.map((part) => part.supplierCode).filter((code): code is string => !!code))];
     const suppliers = supplierCodes.length

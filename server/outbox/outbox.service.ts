@@ -86,11 +86,12 @@ export class OutboxService {
   /** How many notices wait or fail, and since when the oldest failing one fails. */
   async health(): Promise<OutboxHealth> {
     const manager = this.db.manager;
-    const [pending, failing, oldest] = await Promise.all([
-      manager.countBy(OutboxMessageEntity, { status: 'pending' }),
-      manager.countBy(OutboxMessageEntity, { status: 'failing' }),
-      manager.findOne(OutboxMessageEntity, { where: { status: 'failing' }, order: { firstFailedAt: 'ASC' } }),
-    ]);
+    const pending = await manager.countBy(OutboxMessageEntity, { status: 'pending' });
+    const failing = await manager.countBy(OutboxMessageEntity, { status: 'failing' });
+    const oldest = await manager.findOne(OutboxMessageEntity, {
+      where: { status: 'failing' },
+      order: { firstFailedAt: 'ASC' },
+    });
     return { pending, failing, failingSince: oldest?.firstFailedAt ?? null };
   }
 

@@ -103,10 +103,8 @@ export class SupplierPerformanceService {
     // SQLite allows a limited number of bound parameters per statement.
     for (let start = 0; start < lineIds.length; start += 500) {
       const slice = lineIds.slice(start, start + 500);
-      const [receipts, sharesIn] = await Promise.all([
-        manager.find(ReceiptEntity, { where: { releaseLineId: In(slice) } }),
-        manager.find(ReceiptShareEntity, { where: { releaseLineId: In(slice) } }),
-      ]);
+      const receipts = await manager.find(ReceiptEntity, { where: { releaseLineId: In(slice) } });
+      const sharesIn = await manager.find(ReceiptShareEntity, { where: { releaseLineId: In(slice) } });
       const fromIds = [...new Set(sharesIn.map((share) => share.receiptId))];
       const keptIds = receipts.filter((receipt) => receipt.overAction === 'keep').map((receipt) => receipt.id);
       const sharedFrom = fromIds.length > 0 ? await manager.findBy(ReceiptEntity, { id: In(fromIds) }) : [];
