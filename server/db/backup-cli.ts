@@ -10,6 +10,12 @@ const config = loadConfig();
 const target = databaseTarget(config, process.cwd());
 
 if (command === 'backup') {
+  if (!config.DATABASE_URL && !existsSync(target)) {
+    console.error(
+      `No database at ${target}: set DATABASE_PATH (or DATABASE_URL) as the app is started with, then run the backup again.`,
+    );
+    process.exit(1);
+  }
   const out = resolve(file ?? backupFileName(target, 'backups'));
   await backupDatabase(target, out);
   console.log(`Backed up ${databaseLabel(config)} to ${out}`);

@@ -150,6 +150,16 @@ describe('npm run backup / npm run restore', () => {
     expect(await contents(context.db)).toEqual(before);
   });
 
+  it('refuses to back up a SQLite database that is not there, naming the file it looked for', async () => {
+    const nowhere = join(folder, 'no-such.sqlite');
+
+    const missing = await npmRun('backup', [join(folder, 'never.backup')], nowhere).catch(
+      (error: { code: number; stderr: string }) => error,
+    );
+
+    expect(missing).toMatchObject({ code: 1, stderr: expect.stringContaining(`No database at ${nowhere}`) });
+  });
+
   it('writes a consistent copy while receipts keep arriving', async () => {
     const file = join(folder, 'busy.backup');
     const lineId = await openLine(1000);
