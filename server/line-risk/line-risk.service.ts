@@ -13,7 +13,8 @@ import { PerPlanningVersion } from '../planning/per-version';
 import { readSequenceSettings } from '../sequence/sequence-settings';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
 import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
-import { summarise, type LineRiskSummary, type ShortageSummary } from './line-risk-summary';
+import { toReport } from './line-risk-report';
+import { summarise } from './line-risk-summary';
 
 const MAX_CACHED_RESULTS = 8;
 
@@ -22,10 +23,13 @@ interface Horizon {
   to?: string;
 }
 
+/** One result: the report as the worker sent it (bytes), or as objects when computed in place; each made from the other on demand. */
 interface Computed {
   key: string;
-  report: LineRiskReport;
+  report?: LineRiskReport;
   reportBody?: SerialisedBody;
+  /** Where the shortages start in reportBody's bytes, when the worker made them. */
+  shortagesAt?: number;
   shortagesBody?: SerialisedBody;
 }
 
@@ -56,20 +60,28 @@ export class LineRiskService {
 
   /** The report for the screen (defaults: next working day, 20 working days). */
   async report(horizon: Horizon = {}): Promise<LineRiskReport> {
-    return (await this.compute(horizon)).report;
+    const computed = await this.compute(horizon);
+    computed.report ??= JSON.parse(computed.reportBody!.json.toString('utf8')) as LineRiskReport;
+    return computed.report;
   }
 
   /** The report serialised once per result, for GET /api/line-risk. */
   async reportBody(horizon: Horizon = {}): Promise<SerialisedBody> {
     const computed = await this.compute(horizon);
-    computed.reportBody ??= new SerialisedBody(computed.report);
+    computed.reportBody ??= SerialisedBody.of(computed.report);
     return computed.reportBody;
   }
 
   /** GET /api/shortages: the short parts alone, serialised once per result. */
   async shortagesBody(horizon: Horizon = {}): Promise<SerialisedBody> {
     const computed = await this.compute(horizon);
-    computed.shortagesBody ??= new SerialisedBody(computed.report.shortages);
+    if (!computed.shortagesBody) {
+      const { reportBody, shortagesAt } = computed;
+      computed.shortagesBody =
+        reportBody && shortagesAt !== undefined
+          ? new SerialisedBody(reportBody.json.subarray(shortagesAt, reportBody.json.length - 1))
+          : SerialisedBody.of(computed.report!.shortages);
+    }
     return computed.shortagesBody;
   }
 
@@ -114,11 +126,11 @@ export class LineRiskService {
   private async compute(horizon: Horizon): Promise<Computed> {
     const inputs = await this.inputs.get();
     const options = await this.resolve(inputs, horizon);
-    const input = this.engineInputOf(inputs, options);
     if (this.db.inWriteUnit) {
       // Inputs read inside a write unit may be uncommitted: computed here, for this unit alone.
       try {
-        return { key: '', report: toReport(summarise(walkLineRisk(input)), inputs) };
+        const run = walkLineRisk(this.engineInputOf(inputs, options));
+        return { key: '', report: toReport(summarise(run), inputs.parts, inputs.details) };
       } catch (error) {
         throw asHttpError(error);
       }
@@ -127,8 +139,12 @@ export class LineRiskService {
     let computed = this.results.get(key);
     if (!computed) {
       computed = this.runner
-        .compute(key, input)
-        .then((summary) => ({ key, report: toReport(summary, inputs) }))
+        .compute(key, inputs, options)
+        .then(({ json, gzip, etag, shortagesAt }) => ({
+          key,
+          reportBody: new SerialisedBody(asBuffer(json), etag, asBuffer(gzip)),
+          shortagesAt,
+        }))
         .catch((error: unknown) => {
           throw asHttpError(error);
         });
@@ -192,51 +208,7 @@ function asHttpError(error: unknown): unknown {
   return error;
 }
 
-/** The report as published, built once per result. */
-function toReport(summary: LineRiskSummary, inputs: LineRiskInputs): LineRiskReport {
-  const partByNumber = new Map(inputs.parts.map((part) => [part.partNumber, part]));
-  return {
-    from: summary.from,
-    to: summary.to,
-    today: summary.today,
-    days: summary.days,
-    frozenWindowDays: summary.frozenWindowDays,
-    frozenUntil: summary.frozenUntil,
-    unitsInHorizon: summary.unitsInHorizon,
-    unitsBuilt: summary.unitsBuilt,
-    unitsAtRisk: summary.unitsAtRisk,
-    unitsAtRiskCount: summary.unitsAtRiskCount,
-    shortages: summary.shortages.map((shortage) => toShortage(shortage, partByNumber.get(shortage.partNumber), inputs)),
-  };
-}
-
-/** A short part as published, with what the screen shows beside the figures. */
-function toShortage(
-  shortage: ShortageSummary,
-  part: LineRiskInputs['parts'][number] | undefined,
-  inputs: LineRiskInputs,
-): ShortageDto {
-  const details = inputs.details.get(shortage.partNumber);
-  return {
-    partNumber: shortage.partNumber,
-    firstShortDate: shortage.firstShortDate,
-    shortQty: shortage.shortQty,
-    slotsAtRisk: shortage.slotsAtRisk,
-    slotsAtRiskCount: shortage.slotsAtRiskCount,
-    action: shortage.action,
-    needBy: shortage.needBy,
-    releaseBy: shortage.releaseBy,
-    leadTimeDays: shortage.leadTimeDays,
-    loop: shortage.loop,
-    description: part?.description ?? '',
-    uom: part?.uom ?? 'H87',
-    supplierCode: shortage.supplierCode,
-    supplierName: details?.supplierName ?? null,
-    hazardous: details?.hazardous ?? false,
-    onHand: shortage.onHand,
-    firmReceiptQty: shortage.firmReceiptQty,
-    daysUntilImpact: shortage.daysUntilImpact,
-    inFrozenWindow: shortage.inFrozenWindow,
-    rescue: shortage.rescue,
-  };
+/** Bytes that came from the worker, as a Buffer over the same memory. */
+function asBuffer(bytes: Uint8Array): Buffer {
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }

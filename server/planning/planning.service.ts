@@ -98,7 +98,7 @@ export class PlanningService {
     const key = `${from}|${to}|${options.supplierCode ?? ''}`;
     const cached = this.demandBodies.get(key);
     if (cached && !this.db.inWriteUnit) return cached;
-    const body = new SerialisedBody(await this.demand(options));
+    const body = SerialisedBody.of(await this.demand(options));
     // Kept only if no newer planning version arrived while it was built.
     if (!this.db.inWriteUnit && generation === this.generation) {
       if (this.demandBodies.size >= MAX_CACHED_BODIES) this.demandBodies.delete(this.demandBodies.keys().next().value!);
