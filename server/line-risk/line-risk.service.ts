@@ -1,3 +1,4 @@
+import { isDeepStrictEqual } from 'node:util';
 import { BomCycleError } from '../../shared/domain/bom';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
@@ -37,25 +38,32 @@ interface Computed {
  * Serves the line risk from a cache keyed by the planning data version (like the plan): inputs
  * are read again only after something that feeds planning has changed, and a result is computed
  * once per horizon, day and frozen window, in a worker thread so other requests go on meanwhile.
- * Reports list the first units and slots; the rest are paged, so a large plant's answer stays small.
+ * Many changes that feed planning (a draft release, a forecast) leave the line risk's own inputs
+ * as they were: its results then stand. Reports list the first units and slots; the rest are
+ * paged, so a large plant's answer stays small.
  */
 export class LineRiskService {
   private readonly results = new Map<string, Promise<Computed>>();
   private readonly inputs: PerPlanningVersion<LineRiskInputs>;
   private readonly runner = new LineRiskRunner();
-  /** Counts planning versions seen; part of every key, so a result of an older one is never served. */
+  /** Counts the inputs results were computed from; part of every key, so a result of older ones is never served. */
   private generation = 0;
+  /** The inputs last read outside a write unit, and those the results in `results` come from. */
+  private lastRead: LineRiskInputs | null = null;
+  private resultsOf: LineRiskInputs | null = null;
 
   constructor(
     private readonly db: Database,
     loops: LoopsService,
     private readonly today: () => string = plantToday,
   ) {
-    this.inputs = new PerPlanningVersion(
-      db,
-      async (manager) => loadLineRiskInputs(manager, await loops.listLoops()),
-      () => this.forget(),
-    );
+    this.inputs = new PerPlanningVersion(db, async (manager) => {
+      const read = await loadLineRiskInputs(manager, await loops.listLoops());
+      // Read inside a write unit, they may be uncommitted: used once, never kept.
+      if (db.inWriteUnit) return read;
+      this.lastRead = keepUnchanged(read, this.lastRead);
+      return this.lastRead;
+    });
   }
 
   /** The report for the screen (defaults: next working day, 20 working days). */
@@ -135,6 +143,10 @@ export class LineRiskService {
         throw asHttpError(error);
       }
     }
+    if (inputs !== this.resultsOf) {
+      this.forget();
+      this.resultsOf = inputs;
+    }
     const key = `${this.generation}|${options.from}|${options.to}|${options.today}|${options.frozenWindowDays}`;
     let computed = this.results.get(key);
     if (!computed) {
@@ -206,6 +218,21 @@ function asHttpError(error: unknown): unknown {
   if (kind === 'cycle') return new ConflictError(`The BOM cannot be exploded: ${message}.`);
   if (kind === 'input') return new BadRequestError(message);
   return error;
+}
+
+/**
+ * The inputs just read, with each piece equal to the one read before replaced by that one; the
+ * inputs read before themselves when nothing differs.
+ */
+function keepUnchanged(read: LineRiskInputs, before: LineRiskInputs | null): LineRiskInputs {
+  if (!before) return read;
+  const kept: LineRiskInputs = { ...read };
+  let changed = false;
+  for (const name of Object.keys(read) as (keyof LineRiskInputs)[]) {
+    if (isDeepStrictEqual(read[name], before[name])) (kept as unknown as Record<string, unknown>)[name] = before[name];
+    else changed = true;
+  }
+  return changed ? kept : before;
 }
 
 /** Bytes that came from the worker, as a Buffer over the same memory. */
