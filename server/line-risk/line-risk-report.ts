@@ -83,7 +83,9 @@ export function serialiseReport(report: LineRiskReport): ReportBytes {
   const json = new TextEncoder().encode(`${prefix}${JSON.stringify(shortages)}}`);
   return {
     json,
-    gzip: ownBytes(gzipSync(json)),
+    // The fastest level: made after every change, it is on the way of the answer. The body comes out
+    // about half as large again as at the default level (0.8 against 0.55 MB at 16×).
+    gzip: ownBytes(gzipSync(json, { level: 1 })),
     etag: etagOf(json),
     shortagesAt: Buffer.byteLength(prefix),
   };

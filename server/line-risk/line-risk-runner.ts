@@ -1,9 +1,9 @@
 import { extname } from 'node:path';
 import { createRequire } from 'node:module';
-import { isDeepStrictEqual } from 'node:util';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { LineRiskInput, SlotAtRisk, UnitAtRisk } from '../../shared/domain/line-risk';
+import { changedRows, samePiece } from './changed-rows';
 import type { PartDetails } from './line-risk-inputs';
 import type { ReportBytes } from './line-risk-report';
 
@@ -21,8 +21,14 @@ export type LineRiskOptions = Pick<LineRiskInput, 'from' | 'to' | 'today' | 'fro
 
 const PIECES = ['parts', 'bom', 'sequence', 'firmReceipts', 'loops', 'calendar', 'details'] as const;
 
+/** Rows of list pieces that changed, by place: the rest of each list stands as the worker holds it. */
+export type PiecePatches = Partial<Record<(typeof PIECES)[number], [index: number, row: unknown][]>>;
+
+/** A list piece with at most this share of its rows changed is sent as a patch. */
+const PATCH_SHARE = 0.25;
+
 export type WorkerRequest = { id: number } & (
-  | { kind: 'compute'; key: string; pieces: Partial<LineRiskPieces>; options: LineRiskOptions }
+  | { kind: 'compute'; key: string; pieces: Partial<LineRiskPieces>; patches: PiecePatches; options: LineRiskOptions }
   | { kind: 'units'; key: string; offset: number; limit: number }
   | { kind: 'slots'; key: string; partNumber: string; offset: number; limit: number }
   | { kind: 'drop'; key: string }
@@ -64,15 +70,24 @@ export class LineRiskRunner {
   compute(key: string, pieces: LineRiskPieces, options: LineRiskOptions): Promise<ReportBytes> {
     this.start();
     const changed: Partial<LineRiskPieces> = {};
+    const patches: PiecePatches = {};
     for (const name of PIECES) {
       const piece = pieces[name];
       const held = this.held[name];
-      if (held !== piece && (held === undefined || !isDeepStrictEqual(held, piece))) {
+      (this.held as Record<string, unknown>)[name] = piece;
+      if (held === piece || held === undefined) {
+        if (held === undefined) (changed as Record<string, unknown>)[name] = piece;
+        continue;
+      }
+      // A stock change alters a few rows of 30,000 parts: those rows alone are copied over.
+      const rows = changedRows(held, piece);
+      if (rows && rows.length <= PATCH_SHARE * (piece as unknown[]).length) {
+        if (rows.length > 0) patches[name] = rows.map((index) => [index, (piece as unknown[])[index]]);
+      } else if (rows || !samePiece(held, piece)) {
         (changed as Record<string, unknown>)[name] = piece;
       }
-      (this.held as Record<string, unknown>)[name] = piece;
     }
-    return this.send({ kind: 'compute', key, pieces: changed, options }) as Promise<ReportBytes>;
+    return this.send({ kind: 'compute', key, pieces: changed, patches, options }) as Promise<ReportBytes>;
   }
 
   /** Undefined when the worker no longer holds the result. */

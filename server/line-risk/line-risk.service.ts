@@ -1,4 +1,3 @@
-import { isDeepStrictEqual } from 'node:util';
 import { BomCycleError } from '../../shared/domain/bom';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import { toDayNumber } from '../../shared/domain/date';
@@ -12,6 +11,7 @@ import type { LoopsService } from '../loops/loops.service';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { PerPlanningVersion } from '../planning/per-version';
 import { readSequenceSettings } from '../sequence/sequence-settings';
+import { samePiece } from './changed-rows';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
 import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
 import { toReport } from './line-risk-report';
@@ -229,7 +229,7 @@ function keepUnchanged(read: LineRiskInputs, before: LineRiskInputs | null): Lin
   const kept: LineRiskInputs = { ...read };
   let changed = false;
   for (const name of Object.keys(read) as (keyof LineRiskInputs)[]) {
-    if (isDeepStrictEqual(read[name], before[name])) (kept as unknown as Record<string, unknown>)[name] = before[name];
+    if (samePiece(before[name], read[name])) (kept as unknown as Record<string, unknown>)[name] = before[name];
     else changed = true;
   }
   return changed ? kept : before;

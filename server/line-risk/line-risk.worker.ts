@@ -19,6 +19,12 @@ function answer(request: WorkerRequest): unknown {
   switch (request.kind) {
     case 'compute': {
       Object.assign(held, request.pieces);
+      for (const [name, rows] of Object.entries(request.patches)) {
+        // A new list: the results computed from the old one keep it as it was.
+        const list = [...(held[name as keyof LineRiskPieces] as unknown[])];
+        for (const [index, row] of rows) list[index] = row;
+        (held as Record<string, unknown>)[name] = list;
+      }
       const pieces = held as LineRiskPieces;
       const result = walkLineRisk({
         parts: pieces.parts,

@@ -120,9 +120,39 @@ describe('the line-risk worker thread', () => {
         'sequence',
       ]);
       expect(sentNext?.kind === 'compute' && Object.keys(sentNext.pieces).sort()).toEqual(['parts', 'sequence']);
+      expect(sentNext?.kind === 'compute' && sentNext.patches).toEqual({});
       expect(text(bytes.json)).toBe(JSON.stringify(inPlace(next)));
       // 4 C: the first two units build (2 × 2), none is at risk.
       expect(JSON.parse(text(bytes.json))).toMatchObject({ unitsAtRiskCount: 0, shortages: [] });
+    } finally {
+      posted.mockRestore();
+      await own.close();
+    }
+  });
+
+  it('sends the few rows of a long list that changed, and answers as if sent the whole list', async () => {
+    const own = new LineRiskRunner();
+    const posted = vi.spyOn(Worker.prototype, 'postMessage');
+    const lastCompute = () =>
+      posted.mock.calls.map(([message]) => message as WorkerRequest).findLast((m) => m.kind === 'compute');
+    try {
+      const long: LineRiskInput = {
+        ...input,
+        parts: [...input.parts, ...['E', 'F', 'G', 'H', 'I', 'J'].map((number) => part(number, { onHand: 1 }))],
+      };
+      await compute('a', long, own);
+      // C's stock counted up to 4: one row of eight.
+      const counted: LineRiskInput = {
+        ...long,
+        parts: long.parts.map((row) => ({ ...row, onHand: row.partNumber === 'C' ? 4 : row.onHand })),
+      };
+      const bytes = await compute('b', counted, own);
+      const sent = lastCompute();
+
+      expect(sent?.kind === 'compute' && sent.pieces).toEqual({});
+      expect(sent?.kind === 'compute' && sent.patches).toEqual({ parts: [[1, counted.parts[1]]] });
+      expect(text(bytes.json)).toBe(JSON.stringify(inPlace(counted)));
+      expect(JSON.parse(text(bytes.json))).toMatchObject({ unitsAtRiskCount: 1 });
     } finally {
       posted.mockRestore();
       await own.close();
