@@ -54,10 +54,10 @@ export class LineRiskWorkerError extends Error {
  * The line-risk engine in a worker thread: a large plant takes seconds to walk, and on the main
  * thread every other request would wait that long. The worker keeps the full results by key; the
  * report comes back as bytes ready to send, and pages as objects. The worker also keeps the input
- * it was last sent, and only the pieces that differ from it are copied over again: after most
- * planning changes the BOM, the calendar and the part list stand as they were. It is started on
- * first use and restarted after a crash (results held by the dead one are simply missing, and the
- * caller computes again).
+ * it was last sent, and only what differs from it is copied over again: after most planning
+ * changes the BOM and the calendar stand as they were, and a stock change alters a few parts of
+ * the list. It is started on first use and restarted after a crash (results held by the dead one
+ * are simply missing, and the caller computes again).
  */
 export class LineRiskRunner {
   private worker: Worker | null = null;
