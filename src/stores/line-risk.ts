@@ -35,9 +35,15 @@ export const useLineRiskStore = defineStore('line-risk', () => {
     return run(
       (signal) => lineRiskApi.getLineRisk(next, signal),
       (answer) => {
+        // A live refresh keeps a part's full list of units open: it is fetched again for the new report.
+        const open = options.quiet ? Object.keys(slotsByPart).filter((part) => slotsByPart[part]!.slots) : [];
         report.value = answer;
         range.value = { ...next };
         forgetSlots();
+        for (const partNumber of open) {
+          const shortage = answer.shortages.find((candidate) => candidate.partNumber === partNumber);
+          if (shortage && shortage.slotsAtRisk.length < shortage.slotsAtRiskCount) void fetchAllSlots(partNumber);
+        }
       },
       options,
     );

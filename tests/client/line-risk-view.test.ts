@@ -268,6 +268,61 @@ describe('LineRiskView', () => {
     });
   });
 
+  it('keeps the full list of a part open when the server announces a planning change', async () => {
+    const every = Array.from({ length: 7 }, (_, index) => ({
+      date: '2026-12-03',
+      sequence: 13 + index,
+      serial: `SN261203${String(13 + index).padStart(2, '0')}`,
+      model: 'FS-32R',
+      lackQty: 6,
+      via: null,
+    }));
+    let reports = 0;
+    let push: (text: string) => void = () => undefined;
+    const events = () =>
+      new Response(
+        new ReadableStream<Uint8Array>({
+          start(controller) {
+            push = (text) => controller.enqueue(new TextEncoder().encode(text));
+          },
+        }),
+        { status: 200, headers: { 'Content-Type': 'text/event-stream' } },
+      );
+    // After the change one unit fewer lacks the battery.
+    const fetchMock = stubApi(
+      {
+        '/api/line-risk': () => {
+          reports += 1;
+          const slots = reports === 1 ? every : every.slice(1);
+          return jsonResponse(
+            200,
+            reportOf([{ ...battery, slotsAtRisk: slots.slice(0, 2), slotsAtRiskCount: slots.length }]),
+          );
+        },
+        '/api/line-risk/parts/BAT-06-312/slots': (url) => {
+          const slots = reports === 1 ? every : every.slice(1);
+          const offset = Number(url.searchParams.get('offset'));
+          return jsonResponse(200, { total: slots.length, slots: slots.slice(offset, offset + 500) });
+        },
+      },
+      events,
+    );
+    const { wrapper } = await openLineRisk();
+    const units = () => wrapper.get('[aria-label="Units that lack BAT-06-312"]');
+    getButton(units().element as HTMLElement, 'Show all 7 units').click();
+    await flushPromises();
+    expect(units().get('[data-test="units-title"]').text()).toBe('7 units lack it');
+
+    // The first version is the baseline; the second announces a change.
+    push('event: planning\ndata: {"version":1}\n\nevent: planning\ndata: {"version":2}\n\n');
+    await vi.waitFor(() => expect(requestsTo(fetchMock, '/api/line-risk/parts/BAT-06-312/slots')).toHaveLength(2));
+    await flushPromises();
+
+    expect(units().get('[data-test="units-title"]').text()).toBe('6 units lack it');
+    expect(units().text()).not.toContain('SN26120313');
+    for (const slot of every.slice(1)) expect(units().text()).toContain(slot.serial);
+  });
+
   it('asks for the horizon picked, two weeks unless the link says otherwise', async () => {
     const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery])) });
     const { wrapper, router } = await openLineRisk();
