@@ -80,7 +80,7 @@ export class DockService {
     const planningVersion = await readPlanningVersion(manager);
     const key = `${dockVersion}|${planningVersion}|${plantToday(now)}|${startOfDay(now)}`;
     if (this.board?.key === key) return this.board.body;
-    const body = new SerialisedBody(await this.list(now));
+    const body = SerialisedBody.of(await this.list(now));
     if (!this.db.inWriteUnit) this.board = { key, body };
     return body;
   }

@@ -14,19 +14,32 @@ const GZIP_THRESHOLD = 1024;
  * sending bytes that are ready.
  */
 export class SerialisedBody {
-  readonly json: Buffer;
   readonly etag: string;
-  private gzipped: Promise<Buffer> | null = null;
+  private gzipped: Promise<Buffer> | null;
 
-  constructor(value: unknown) {
-    this.json = Buffer.from(JSON.stringify(value));
-    this.etag = `"${createHash('sha1').update(this.json).digest('base64url')}"`;
+  /** Bytes already serialised (in a worker thread, say), with their ETag and gzipped copy if made there too. */
+  constructor(
+    readonly json: Buffer,
+    etag?: string,
+    gzipped?: Buffer,
+  ) {
+    this.etag = etag ?? etagOf(json);
+    this.gzipped = gzipped ? Promise.resolve(gzipped) : null;
+  }
+
+  static of(value: unknown): SerialisedBody {
+    return new SerialisedBody(Buffer.from(JSON.stringify(value)));
   }
 
   gzip(): Promise<Buffer> {
     this.gzipped ??= gzipAsync(this.json);
     return this.gzipped;
   }
+}
+
+/** A strong ETag of some bytes. */
+export function etagOf(bytes: Uint8Array): string {
+  return `"${createHash('sha1').update(bytes).digest('base64url')}"`;
 }
 
 /**

@@ -1,9 +1,11 @@
 import type { EntityManager } from 'typeorm';
 import type { LineRiskPart, LoopSupply } from '../../shared/domain/line-risk';
-import type { ScheduledReceipt } from '../../shared/domain/types';
+import type { PlanningBomLine, ScheduledReceipt, SequenceSlot } from '../../shared/domain/types';
+import type { Calendar } from '../../shared/schemas/master-data';
 import type { KanbanLoop } from '../../shared/schemas/loops';
-import { EXPECTED_ARRIVAL, loadPlanInputs, type PlanInputs } from '../planning/plan-inputs';
-import { readCountDue } from '../stock/stock.service';
+import { readCalendar } from '../calendar/calendar.service';
+import { EXPECTED_ARRIVAL, readBomLines, readUnitsToBuild } from '../planning/plan-inputs';
+import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.service';
 
 /**
  * Release states whose open lines the line risk counts on: the supplier has confirmed them (or
@@ -17,11 +19,37 @@ export interface PartDetails {
   supplierName: string | null;
 }
 
-export interface LineRiskInputs extends Omit<PlanInputs, 'parts'> {
+export interface LineRiskInputs {
   parts: (LineRiskPart & { description: string; uom: string })[];
+  bom: PlanningBomLine[];
+  sequence: SequenceSlot[];
   firmReceipts: ScheduledReceipt[];
   loops: LoopSupply[];
+  calendar: Calendar;
   details: Map<string, PartDetails>;
+}
+
+// The plan's part columns, with what the report shows beside them and when each was last counted:
+// one pass over the part list rather than one for each.
+const PARTS_SQL = `SELECT p.part_number AS "partNumber", p.description AS description, p.uom AS uom, p.source AS source,
+  p.supplier_code AS "supplierCode", p.replenishment AS replenishment, p.lead_time_days AS "leadTimeDays",
+  p.pack_qty AS "packQty", p.on_hand AS "onHand", p.safety_stock AS "safetyStock", p.hazardous AS hazardous,
+  s.name AS "supplierName", ${COUNTED_AT_SQL} AS "countedAt"
+  FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code ORDER BY p.part_number`;
+
+interface PartRow extends CountedPart {
+  partNumber: string;
+  description: string;
+  uom: string;
+  source: LineRiskPart['source'];
+  supplierCode: string | null;
+  replenishment: LineRiskPart['replenishment'];
+  leadTimeDays: number;
+  packQty: number;
+  onHand: number;
+  safetyStock: number;
+  hazardous: boolean | number;
+  supplierName: string | null;
 }
 
 // The same expected arrival as the plan's; only the firm (confirmed or shipped) lines count here.
@@ -31,36 +59,39 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-const DETAILS_SQL = `SELECT p.part_number AS "partNumber", p.hazardous AS hazardous, s.name AS "supplierName"
-  FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code`;
-
-interface DetailRow {
-  partNumber: string;
-  hazardous: boolean | number;
-  supplierName: string | null;
-}
-
 /**
- * Reads the plan inputs, the firm receipts, the kanban loops as supply and the part details; the
- * caller runs it in one snapshot.
+ * Reads the parts (with their details and whether each is due a count), the BOM, the units to
+ * build, the firm receipts, the calendar, and the kanban loops as supply; the caller runs it in
+ * one snapshot.
  */
 export async function loadLineRiskInputs(
   manager: EntityManager,
   loops: readonly KanbanLoop[],
   now = new Date(),
 ): Promise<LineRiskInputs> {
-  const inputs = await loadPlanInputs(manager);
+  const isCountDue = await countDueTest(manager, now);
+  const rows: PartRow[] = await manager.query(PARTS_SQL);
+  const bom = await readBomLines(manager);
+  const sequence = await readUnitsToBuild(manager);
   const firmReceipts: ScheduledReceipt[] = await manager.query(FIRM_LINES_SQL);
-  const rows: DetailRow[] = await manager.query(DETAILS_SQL);
-  const countDue = await readCountDue(manager, now);
-  const details = new Map(
-    rows.map((row) => [row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName }]),
-  );
-  const parts = inputs.parts.map((part) => ({
-    ...part,
-    replenishment: part.replenishment as LineRiskPart['replenishment'],
-    countDue: countDue.has(part.partNumber),
-  }));
+  const calendar = await readCalendar(manager);
+  const details = new Map<string, PartDetails>();
+  const parts = rows.map((row) => {
+    details.set(row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName });
+    return {
+      partNumber: row.partNumber,
+      description: row.description,
+      uom: row.uom,
+      source: row.source,
+      supplierCode: row.supplierCode,
+      replenishment: row.replenishment,
+      leadTimeDays: row.leadTimeDays,
+      packQty: row.packQty,
+      onHand: row.onHand,
+      safetyStock: row.safetyStock,
+      countDue: isCountDue(row),
+    };
+  });
   const supplies: LoopSupply[] = loops
     .filter((loop) => loop.partIsKanban)
     .map((loop) => ({
@@ -71,5 +102,5 @@ export async function loadLineRiskInputs(
       replenishmentDays: loop.replenishmentDays,
       emptyCards: loop.cardStates.empty,
     }));
-  return { ...inputs, parts, firmReceipts, loops: supplies, details };
+  return { parts, bom, sequence, firmReceipts, loops: supplies, calendar, details };
 }

@@ -3,10 +3,32 @@ import { createRequire } from 'node:module';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import type { LineRiskInput, SlotAtRisk, UnitAtRisk } from '../../shared/domain/line-risk';
-import type { LineRiskSummary } from './line-risk-summary';
+import { changedRows, samePiece } from './changed-rows';
+import type { PartDetails } from './line-risk-inputs';
+import type { ReportBytes } from './line-risk-report';
+
+/** The engine's input that comes from the planning data, with the part details the report shows. */
+export interface LineRiskPieces extends Pick<
+  LineRiskInput,
+  'parts' | 'bom' | 'sequence' | 'firmReceipts' | 'calendar'
+> {
+  loops: NonNullable<LineRiskInput['loops']>;
+  details: ReadonlyMap<string, PartDetails>;
+}
+
+/** What one run asks for beyond the planning data. */
+export type LineRiskOptions = Pick<LineRiskInput, 'from' | 'to' | 'today' | 'frozenWindowDays'>;
+
+const PIECES = ['parts', 'bom', 'sequence', 'firmReceipts', 'loops', 'calendar', 'details'] as const;
+
+/** Rows of list pieces that changed, by place: the rest of each list stands as the worker holds it. */
+export type PiecePatches = Partial<Record<(typeof PIECES)[number], [index: number, row: unknown][]>>;
+
+/** A list piece with at most this share of its rows changed is sent as a patch. */
+const PATCH_SHARE = 0.25;
 
 export type WorkerRequest = { id: number } & (
-  | { kind: 'compute'; key: string; input: LineRiskInput }
+  | { kind: 'compute'; key: string; pieces: Partial<LineRiskPieces>; patches: PiecePatches; options: LineRiskOptions }
   | { kind: 'units'; key: string; offset: number; limit: number }
   | { kind: 'slots'; key: string; partNumber: string; offset: number; limit: number }
   | { kind: 'drop'; key: string }
@@ -30,17 +52,42 @@ export class LineRiskWorkerError extends Error {
 
 /**
  * The line-risk engine in a worker thread: a large plant takes seconds to walk, and on the main
- * thread every other request would wait that long. The worker keeps the full results by key; only
- * summaries and pages are copied back. It is started on first use and restarted after a crash
- * (results held by the dead one are simply missing, and the caller computes again).
+ * thread every other request would wait that long. The worker keeps the full results by key; the
+ * report comes back as bytes ready to send, and pages as objects. The worker also keeps the input
+ * it was last sent, and only what differs from it is copied over again: after most planning
+ * changes the BOM and the calendar stand as they were, and a stock change alters a few parts of
+ * the list. It is started on first use and restarted after a crash (results held by the dead one
+ * are simply missing, and the caller computes again).
  */
 export class LineRiskRunner {
   private worker: Worker | null = null;
   private nextId = 1;
   private readonly pending = new Map<number, { resolve: (value: unknown) => void; reject: (error: Error) => void }>();
+  /** The pieces the worker holds (or an equal copy of each). */
+  private held: Partial<LineRiskPieces> = {};
 
-  compute(key: string, input: LineRiskInput): Promise<LineRiskSummary> {
-    return this.send({ kind: 'compute', key, input }) as Promise<LineRiskSummary>;
+  /** Walks the line risk for these pieces and options; the report as the bytes to send. */
+  compute(key: string, pieces: LineRiskPieces, options: LineRiskOptions): Promise<ReportBytes> {
+    this.start();
+    const changed: Partial<LineRiskPieces> = {};
+    const patches: PiecePatches = {};
+    for (const name of PIECES) {
+      const piece = pieces[name];
+      const held = this.held[name];
+      (this.held as Record<string, unknown>)[name] = piece;
+      if (held === piece || held === undefined) {
+        if (held === undefined) (changed as Record<string, unknown>)[name] = piece;
+        continue;
+      }
+      // A stock change alters a few rows of 30,000 parts: those rows alone are copied over.
+      const rows = changedRows(held, piece);
+      if (rows && rows.length <= PATCH_SHARE * (piece as unknown[]).length) {
+        if (rows.length > 0) patches[name] = rows.map((index) => [index, (piece as unknown[])[index]]);
+      } else if (rows || !samePiece(held, piece)) {
+        (changed as Record<string, unknown>)[name] = piece;
+      }
+    }
+    return this.send({ kind: 'compute', key, pieces: changed, patches, options }) as Promise<ReportBytes>;
   }
 
   /** Undefined when the worker no longer holds the result. */
@@ -78,6 +125,8 @@ export class LineRiskRunner {
 
   private start(): Worker {
     if (this.worker) return this.worker;
+    // A new worker holds nothing.
+    this.held = {};
     const worker = startWorker(
       new URL(`./line-risk.worker${extname(fileURLToPath(import.meta.url))}`, import.meta.url),
     );

@@ -11,9 +11,11 @@ import type { LoopsService } from '../loops/loops.service';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { PerPlanningVersion } from '../planning/per-version';
 import { readSequenceSettings } from '../sequence/sequence-settings';
+import { samePiece } from './changed-rows';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
 import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
-import { summarise, type LineRiskSummary, type ShortageSummary } from './line-risk-summary';
+import { toReport } from './line-risk-report';
+import { summarise } from './line-risk-summary';
 
 const MAX_CACHED_RESULTS = 8;
 
@@ -22,10 +24,13 @@ interface Horizon {
   to?: string;
 }
 
+/** One result: the report as the worker sent it (bytes), or as objects when computed in place; each made from the other on demand. */
 interface Computed {
   key: string;
-  report: LineRiskReport;
+  report?: LineRiskReport;
   reportBody?: SerialisedBody;
+  /** Where the shortages start in reportBody's bytes, when the worker made them. */
+  shortagesAt?: number;
   shortagesBody?: SerialisedBody;
 }
 
@@ -33,43 +38,58 @@ interface Computed {
  * Serves the line risk from a cache keyed by the planning data version (like the plan): inputs
  * are read again only after something that feeds planning has changed, and a result is computed
  * once per horizon, day and frozen window, in a worker thread so other requests go on meanwhile.
- * Reports list the first units and slots; the rest are paged, so a large plant's answer stays small.
+ * Many changes that feed planning (a draft release, a forecast) leave the line risk's own inputs
+ * as they were: its results then stand. Reports list the first units and slots; the rest are
+ * paged, so a large plant's answer stays small.
  */
 export class LineRiskService {
   private readonly results = new Map<string, Promise<Computed>>();
   private readonly inputs: PerPlanningVersion<LineRiskInputs>;
   private readonly runner = new LineRiskRunner();
-  /** Counts planning versions seen; part of every key, so a result of an older one is never served. */
+  /** Counts the inputs results were computed from; part of every key, so a result of older ones is never served. */
   private generation = 0;
+  /** The inputs last read outside a write unit, and those the results in `results` come from. */
+  private lastRead: LineRiskInputs | null = null;
+  private resultsOf: LineRiskInputs | null = null;
 
   constructor(
     private readonly db: Database,
     loops: LoopsService,
     private readonly today: () => string = plantToday,
   ) {
-    this.inputs = new PerPlanningVersion(
-      db,
-      async (manager) => loadLineRiskInputs(manager, await loops.listLoops()),
-      () => this.forget(),
-    );
+    this.inputs = new PerPlanningVersion(db, async (manager) => {
+      const read = await loadLineRiskInputs(manager, await loops.listLoops());
+      // Read inside a write unit, they may be uncommitted: used once, never kept.
+      if (db.inWriteUnit) return read;
+      this.lastRead = keepUnchanged(read, this.lastRead);
+      return this.lastRead;
+    });
   }
 
   /** The report for the screen (defaults: next working day, 20 working days). */
   async report(horizon: Horizon = {}): Promise<LineRiskReport> {
-    return (await this.compute(horizon)).report;
+    const computed = await this.compute(horizon);
+    computed.report ??= JSON.parse(computed.reportBody!.json.toString('utf8')) as LineRiskReport;
+    return computed.report;
   }
 
   /** The report serialised once per result, for GET /api/line-risk. */
   async reportBody(horizon: Horizon = {}): Promise<SerialisedBody> {
     const computed = await this.compute(horizon);
-    computed.reportBody ??= new SerialisedBody(computed.report);
+    computed.reportBody ??= SerialisedBody.of(computed.report);
     return computed.reportBody;
   }
 
   /** GET /api/shortages: the short parts alone, serialised once per result. */
   async shortagesBody(horizon: Horizon = {}): Promise<SerialisedBody> {
     const computed = await this.compute(horizon);
-    computed.shortagesBody ??= new SerialisedBody(computed.report.shortages);
+    if (!computed.shortagesBody) {
+      const { reportBody, shortagesAt } = computed;
+      computed.shortagesBody =
+        reportBody && shortagesAt !== undefined
+          ? new SerialisedBody(reportBody.json.subarray(shortagesAt, reportBody.json.length - 1))
+          : SerialisedBody.of(computed.report!.shortages);
+    }
     return computed.shortagesBody;
   }
 
@@ -114,21 +134,29 @@ export class LineRiskService {
   private async compute(horizon: Horizon): Promise<Computed> {
     const inputs = await this.inputs.get();
     const options = await this.resolve(inputs, horizon);
-    const input = this.engineInputOf(inputs, options);
     if (this.db.inWriteUnit) {
       // Inputs read inside a write unit may be uncommitted: computed here, for this unit alone.
       try {
-        return { key: '', report: toReport(summarise(walkLineRisk(input)), inputs) };
+        const run = walkLineRisk(this.engineInputOf(inputs, options));
+        return { key: '', report: toReport(summarise(run), inputs.parts, inputs.details) };
       } catch (error) {
         throw asHttpError(error);
       }
+    }
+    if (inputs !== this.resultsOf) {
+      this.forget();
+      this.resultsOf = inputs;
     }
     const key = `${this.generation}|${options.from}|${options.to}|${options.today}|${options.frozenWindowDays}`;
     let computed = this.results.get(key);
     if (!computed) {
       computed = this.runner
-        .compute(key, input)
-        .then((summary) => ({ key, report: toReport(summary, inputs) }))
+        .compute(key, inputs, options)
+        .then(({ json, gzip, etag, shortagesAt }) => ({
+          key,
+          reportBody: new SerialisedBody(asBuffer(json), etag, asBuffer(gzip)),
+          shortagesAt,
+        }))
         .catch((error: unknown) => {
           throw asHttpError(error);
         });
@@ -192,51 +220,22 @@ function asHttpError(error: unknown): unknown {
   return error;
 }
 
-/** The report as published, built once per result. */
-function toReport(summary: LineRiskSummary, inputs: LineRiskInputs): LineRiskReport {
-  const partByNumber = new Map(inputs.parts.map((part) => [part.partNumber, part]));
-  return {
-    from: summary.from,
-    to: summary.to,
-    today: summary.today,
-    days: summary.days,
-    frozenWindowDays: summary.frozenWindowDays,
-    frozenUntil: summary.frozenUntil,
-    unitsInHorizon: summary.unitsInHorizon,
-    unitsBuilt: summary.unitsBuilt,
-    unitsAtRisk: summary.unitsAtRisk,
-    unitsAtRiskCount: summary.unitsAtRiskCount,
-    shortages: summary.shortages.map((shortage) => toShortage(shortage, partByNumber.get(shortage.partNumber), inputs)),
-  };
+/**
+ * The inputs just read, with each piece equal to the one read before replaced by that one; the
+ * inputs read before themselves when nothing differs.
+ */
+function keepUnchanged(read: LineRiskInputs, before: LineRiskInputs | null): LineRiskInputs {
+  if (!before) return read;
+  const kept: LineRiskInputs = { ...read };
+  let changed = false;
+  for (const name of Object.keys(read) as (keyof LineRiskInputs)[]) {
+    if (samePiece(before[name], read[name])) (kept as unknown as Record<string, unknown>)[name] = before[name];
+    else changed = true;
+  }
+  return changed ? kept : before;
 }
 
-/** A short part as published, with what the screen shows beside the figures. */
-function toShortage(
-  shortage: ShortageSummary,
-  part: LineRiskInputs['parts'][number] | undefined,
-  inputs: LineRiskInputs,
-): ShortageDto {
-  const details = inputs.details.get(shortage.partNumber);
-  return {
-    partNumber: shortage.partNumber,
-    firstShortDate: shortage.firstShortDate,
-    shortQty: shortage.shortQty,
-    slotsAtRisk: shortage.slotsAtRisk,
-    slotsAtRiskCount: shortage.slotsAtRiskCount,
-    action: shortage.action,
-    needBy: shortage.needBy,
-    releaseBy: shortage.releaseBy,
-    leadTimeDays: shortage.leadTimeDays,
-    loop: shortage.loop,
-    description: part?.description ?? '',
-    uom: part?.uom ?? 'H87',
-    supplierCode: shortage.supplierCode,
-    supplierName: details?.supplierName ?? null,
-    hazardous: details?.hazardous ?? false,
-    onHand: shortage.onHand,
-    firmReceiptQty: shortage.firmReceiptQty,
-    daysUntilImpact: shortage.daysUntilImpact,
-    inFrozenWindow: shortage.inFrozenWindow,
-    rescue: shortage.rescue,
-  };
+/** Bytes that came from the worker, as a Buffer over the same memory. */
+function asBuffer(bytes: Uint8Array): Buffer {
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }

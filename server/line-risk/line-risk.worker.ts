@@ -3,21 +3,40 @@ import { BomCycleError } from '../../shared/domain/bom';
 import { walkLineRisk } from '../../shared/domain/line-risk';
 import type { LineRiskRun } from '../../shared/domain/line-risk-run';
 import { PlanInputError } from '../../shared/domain/plan-model';
-import type { WorkerReply, WorkerRequest } from './line-risk-runner';
+import type { LineRiskPieces, WorkerReply, WorkerRequest } from './line-risk-runner';
+import { serialiseReport, toReport, type ReportBytes } from './line-risk-report';
 import { slotsPage, summarise, unitsPage } from './line-risk-summary';
 
 /*
  * Runs the line-risk engine off the server's event loop and keeps each run here, so only the
- * summary and the pages asked for are made into objects and cross back to the main thread.
+ * report's bytes and the pages asked for cross back to the main thread. The input pieces are kept
+ * too: the main thread sends only those that changed.
  */
 const results = new Map<string, LineRiskRun>();
+const held: Partial<LineRiskPieces> = {};
 
 function answer(request: WorkerRequest): unknown {
   switch (request.kind) {
     case 'compute': {
-      const result = walkLineRisk(request.input);
+      Object.assign(held, request.pieces);
+      for (const [name, rows] of Object.entries(request.patches)) {
+        // A new list: the results computed from the old one keep it as it was.
+        const list = [...(held[name as keyof LineRiskPieces] as unknown[])];
+        for (const [index, row] of rows) list[index] = row;
+        (held as Record<string, unknown>)[name] = list;
+      }
+      const pieces = held as LineRiskPieces;
+      const result = walkLineRisk({
+        parts: pieces.parts,
+        bom: pieces.bom,
+        sequence: pieces.sequence,
+        firmReceipts: pieces.firmReceipts,
+        loops: pieces.loops,
+        calendar: pieces.calendar,
+        ...request.options,
+      });
       results.set(request.key, result);
-      return summarise(result);
+      return serialiseReport(toReport(summarise(result), pieces.parts, pieces.details));
     }
     case 'units': {
       const result = results.get(request.key);
@@ -41,8 +60,15 @@ function errorKind(error: unknown): 'cycle' | 'input' | 'other' {
 
 parentPort!.on('message', (request: WorkerRequest) => {
   let reply: WorkerReply;
+  let transfer: ArrayBuffer[] = [];
   try {
-    reply = { id: request.id, ok: true, value: answer(request) };
+    const value = answer(request);
+    reply = { id: request.id, ok: true, value };
+    // The report's bytes are handed over, not copied.
+    if (request.kind === 'compute') {
+      const bytes = value as ReportBytes;
+      transfer = [bytes.json.buffer as ArrayBuffer, bytes.gzip.buffer as ArrayBuffer];
+    }
   } catch (error) {
     reply = {
       id: request.id,
@@ -50,5 +76,5 @@ parentPort!.on('message', (request: WorkerRequest) => {
       error: { kind: errorKind(error), message: error instanceof Error ? error.message : String(error) },
     };
   }
-  parentPort!.postMessage(reply);
+  parentPort!.postMessage(reply, transfer);
 });

@@ -51,11 +51,17 @@ const OPEN_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   FROM release_line l JOIN release r ON r.id = l.release_id
   WHERE NOT l.closed AND ${EXPECTED_QTY} > l.received_qty AND r.status IN (${OPEN_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
+/** Every BOM line, as the engines read them. */
+export const readBomLines = (manager: EntityManager): Promise<PlanningBomLine[]> => manager.query(BOM_SQL);
+
+/** The units not yet built, in build order. */
+export const readUnitsToBuild = (manager: EntityManager): Promise<SequenceSlot[]> => manager.query(SEQUENCE_SQL);
+
 /** Reads everything the engine needs; the caller runs it in one snapshot (a unit of work). */
 export async function loadPlanInputs(manager: EntityManager): Promise<PlanInputs> {
   const parts: PartRow[] = await manager.query(PARTS_SQL);
-  const bom: PlanningBomLine[] = await manager.query(BOM_SQL);
-  const sequence: SequenceSlot[] = await manager.query(SEQUENCE_SQL);
+  const bom = await readBomLines(manager);
+  const sequence = await readUnitsToBuild(manager);
   const scheduledReceipts: ScheduledReceipt[] = await manager.query(OPEN_LINES_SQL);
   const calendar = await readCalendar(manager);
   return { parts, bom, sequence, scheduledReceipts, calendar };

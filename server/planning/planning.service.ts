@@ -123,7 +123,7 @@ export class PlanningService {
    */
   async demandBody(options: DemandOptions): Promise<SerialisedBody> {
     return this.cachedDemand(options, this.demandBodies, MAX_CACHED_BODIES, async () => {
-      return new SerialisedBody(await this.demand(options));
+      return SerialisedBody.of(await this.demand(options));
     });
   }
 

@@ -25,25 +25,35 @@ import { StockMovementEntity } from './stock-movement.entity';
 export const DEFAULT_COUNT_INTERVAL_DAYS = 90;
 export const COUNT_INTERVAL = 'stock.countIntervalDays';
 
-// A part never counted is judged from its first movement: opening stock counts as its first count.
-const COUNTED_SQL = `SELECT p.part_number AS "partNumber", p.source AS source,
-  COALESCE(p.last_counted_at, (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number)) AS "countedAt"
-  FROM part p`;
+/**
+ * When a part (`p`) was last counted, in SQL. A part never counted is judged from its first
+ * movement: opening stock counts as its first count.
+ */
+export const COUNTED_AT_SQL = `COALESCE(p.last_counted_at,
+  (SELECT MIN(m.at) FROM stock_movement m WHERE m.part_number = p.part_number))`;
+const COUNTED_SQL = `SELECT p.part_number AS "partNumber", p.source AS source, ${COUNTED_AT_SQL} AS "countedAt" FROM part p`;
+
+/** A part's source and COUNTED_AT_SQL, as read. */
+export interface CountedPart {
+  source: string;
+  countedAt: string | null;
+}
 
 /**
- * Which parts are due a count: no count (nor opening stock) within the plant's interval. End items
+ * Whether a part is due a count: no count (nor opening stock) within the plant's interval. End items
  * are built, not stocked, so they are never due. A negative on-hand is its own flag.
  */
-export async function readCountDue(manager: EntityManager, now = new Date()): Promise<Set<string>> {
+export async function countDueTest(manager: EntityManager, now = new Date()): Promise<(part: CountedPart) => boolean> {
   const interval = await readSetting<number>(manager, COUNT_INTERVAL, DEFAULT_COUNT_INTERVAL_DAYS);
   const dueBefore = new Date(now.getTime() - interval * 86_400_000).toISOString();
-  const rows: { partNumber: string; source: string; countedAt: string | null }[] = await manager.query(COUNTED_SQL);
-  return new Set(
-    rows
-      .filter((row) => row.source !== 'end_item')
-      .filter((row) => row.countedAt === null || row.countedAt < dueBefore)
-      .map((row) => row.partNumber),
-  );
+  return (part) => part.source !== 'end_item' && (part.countedAt === null || part.countedAt < dueBefore);
+}
+
+/** The parts due a count (see countDueTest). */
+export async function readCountDue(manager: EntityManager, now = new Date()): Promise<Set<string>> {
+  const isDue = await countDueTest(manager, now);
+  const rows: (CountedPart & { partNumber: string })[] = await manager.query(COUNTED_SQL);
+  return new Set(rows.filter(isDue).map((row) => row.partNumber));
 }
 
 /** The start of a plant day as an instant, for ledger date filters on stored timestamps. */

@@ -30,7 +30,7 @@ export const shortageActionSchema = z.enum(SHORTAGE_ACTIONS).meta({
 });
 
 /** Units listed per short part in a report; the rest come from the slots route. */
-export const SLOTS_PER_SHORTAGE = 20;
+export const SLOTS_PER_SHORTAGE = 5;
 /** Units at risk listed in a report; the rest come from the units route. */
 export const UNITS_PER_REPORT = 100;
 
@@ -121,3 +121,5 @@ export const pageQuerySchema = lineRiskQuerySchema.extend({
 
 export const unitsPageSchema = z.object({ total: z.number().int(), units: z.array(unitAtRiskSchema) });
 export const slotsPageSchema = z.object({ total: z.number().int(), slots: z.array(slotAtRiskSchema) });
+export type SlotsPageDto = z.infer<typeof slotsPageSchema>;
+export type SlotAtRiskDto = z.infer<typeof slotAtRiskSchema>;

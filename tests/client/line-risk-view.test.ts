@@ -217,6 +217,112 @@ describe('LineRiskView', () => {
     expect(units.text()).toContain('SN26120317');
   });
 
+  it('lists the first units that lack a part and fetches all of them when asked, keeping the keyboard on the list', async () => {
+    const every = Array.from({ length: 7 }, (_, index) => ({
+      date: '2026-12-03',
+      sequence: 13 + index,
+      serial: `SN261203${String(13 + index).padStart(2, '0')}`,
+      model: 'FS-32R',
+      lackQty: 6,
+      via: null,
+    }));
+    const many: ShortageDto = { ...battery, slotsAtRisk: every.slice(0, 2), slotsAtRiskCount: 7 };
+    let slotCalls = 0;
+    const fetchMock = stubApi({
+      '/api/line-risk': () => jsonResponse(200, reportOf([many])),
+      '/api/line-risk/parts/BAT-06-312/slots': (url) => {
+        slotCalls += 1;
+        if (slotCalls === 1)
+          return jsonResponse(503, { error: { code: 'unavailable', message: 'The database is busy.' } });
+        const offset = Number(url.searchParams.get('offset'));
+        return jsonResponse(200, {
+          total: 7,
+          slots: every.slice(offset, offset + Number(url.searchParams.get('limit'))),
+        });
+      },
+    });
+    const { wrapper } = await openLineRisk();
+    const units = () => wrapper.get('[aria-label="Units that lack BAT-06-312"]');
+
+    expect(units().get('[data-test="units-title"]').text()).toBe('7 units lack it (the first 2 listed)');
+    expect(units().text()).not.toContain('SN26120315');
+    getButton(units().element as HTMLElement, 'Show all 7 units').click();
+    await flushPromises();
+    // A failure says why and leaves the button to try again.
+    expect(units().get('[role="alert"]').text()).toContain('The units could not be loaded: The database is busy.');
+    getButton(units().element as HTMLElement, 'Show all 7 units').click();
+    await flushPromises();
+
+    expect(units().get('[data-test="units-title"]').text()).toBe('7 units lack it');
+    for (const slot of every) expect(units().text()).toContain(slot.serial);
+    expect(units().find('[role="alert"]').exists()).toBe(false);
+    expect(units().find('[data-test="show-all-units"]').exists()).toBe(false);
+    expect(document.activeElement).toBe(units().get('[data-test="units-title"]').element);
+    const [, asked] = requestsTo(fetchMock, '/api/line-risk/parts/BAT-06-312/slots');
+    const today = localToday();
+    expect(Object.fromEntries(asked!.searchParams)).toEqual({
+      from: today,
+      to: addCalendarDays(today, 13),
+      offset: '0',
+      limit: '500',
+    });
+  });
+
+  it('keeps the full list of a part open when the server announces a planning change', async () => {
+    const every = Array.from({ length: 7 }, (_, index) => ({
+      date: '2026-12-03',
+      sequence: 13 + index,
+      serial: `SN261203${String(13 + index).padStart(2, '0')}`,
+      model: 'FS-32R',
+      lackQty: 6,
+      via: null,
+    }));
+    let reports = 0;
+    let push: (text: string) => void = () => undefined;
+    const events = () =>
+      new Response(
+        new ReadableStream<Uint8Array>({
+          start(controller) {
+            push = (text) => controller.enqueue(new TextEncoder().encode(text));
+          },
+        }),
+        { status: 200, headers: { 'Content-Type': 'text/event-stream' } },
+      );
+    // After the change one unit fewer lacks the battery.
+    const fetchMock = stubApi(
+      {
+        '/api/line-risk': () => {
+          reports += 1;
+          const slots = reports === 1 ? every : every.slice(1);
+          return jsonResponse(
+            200,
+            reportOf([{ ...battery, slotsAtRisk: slots.slice(0, 2), slotsAtRiskCount: slots.length }]),
+          );
+        },
+        '/api/line-risk/parts/BAT-06-312/slots': (url) => {
+          const slots = reports === 1 ? every : every.slice(1);
+          const offset = Number(url.searchParams.get('offset'));
+          return jsonResponse(200, { total: slots.length, slots: slots.slice(offset, offset + 500) });
+        },
+      },
+      events,
+    );
+    const { wrapper } = await openLineRisk();
+    const units = () => wrapper.get('[aria-label="Units that lack BAT-06-312"]');
+    getButton(units().element as HTMLElement, 'Show all 7 units').click();
+    await flushPromises();
+    expect(units().get('[data-test="units-title"]').text()).toBe('7 units lack it');
+
+    // The first version is the baseline; the second announces a change.
+    push('event: planning\ndata: {"version":1}\n\nevent: planning\ndata: {"version":2}\n\n');
+    await vi.waitFor(() => expect(requestsTo(fetchMock, '/api/line-risk/parts/BAT-06-312/slots')).toHaveLength(2));
+    await flushPromises();
+
+    expect(units().get('[data-test="units-title"]').text()).toBe('6 units lack it');
+    expect(units().text()).not.toContain('SN26120313');
+    for (const slot of every.slice(1)) expect(units().text()).toContain(slot.serial);
+  });
+
   it('asks for the horizon picked, two weeks unless the link says otherwise', async () => {
     const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery])) });
     const { wrapper, router } = await openLineRisk();

@@ -87,6 +87,25 @@ test.describe('Line risk', () => {
     await shoot(page, 'line-risk-actions-1440');
     await page.setViewportSize(PHONE);
     await shoot(page, 'line-risk-actions-390');
+    await page.setViewportSize(DESKTOP);
+
+    // The report lists the battery's first units; the rest come when asked for, from the keyboard too.
+    const title = lineRisk.unitsTitle('BAT-06-312');
+    const [, count, listed] = (await title.textContent())!.match(/([\d,]+) units lack it \(the first (\d+) listed\)/)!;
+    const total = Number(count!.replace(/,/g, ''));
+    expect(await lineRisk.unitsLacking('BAT-06-312').count()).toBe(Number(listed));
+    await lineRisk.showAllUnits('BAT-06-312').focus();
+    await page.keyboard.press('Enter');
+    await expect(title).toHaveText(`${count} units lack it`);
+    await expect(title).toBeFocused();
+    await expect(lineRisk.showAllUnits('BAT-06-312')).toHaveCount(0);
+    expect(await lineRisk.unitsLacking('BAT-06-312').count()).toBe(total);
+    await settleForScreenshot(page);
+    await lineRisk.rescue('BAT-06-312').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: 'test-results/line-risk-all-units-1440.png', animations: 'disabled' });
+    await page.setViewportSize(PHONE);
+    await lineRisk.unitsTitle('BAT-06-312').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: 'test-results/line-risk-all-units-390.png', animations: 'disabled' });
   });
 
   test('the board marks units at risk with what they lack, and shows what a move would do before it is saved', async ({

@@ -1,7 +1,12 @@
-import { afterAll, describe, expect, it } from 'vitest';
+import { Worker } from 'node:worker_threads';
+import { gunzipSync } from 'node:zlib';
+import { afterAll, describe, expect, it, vi } from 'vitest';
 import { computeLineRisk, type LineRiskInput, type LineRiskPart } from '../../shared/domain/line-risk';
-import { LineRiskRunner, LineRiskWorkerError } from '../../server/line-risk/line-risk-runner';
+import type { PartDetails } from '../../server/line-risk/line-risk-inputs';
+import { toReport, type ReportBytes } from '../../server/line-risk/line-risk-report';
+import { LineRiskRunner, LineRiskWorkerError, type WorkerRequest } from '../../server/line-risk/line-risk-runner';
 import { summarise } from '../../server/line-risk/line-risk-summary';
+import { etagOf } from '../../server/http/serialised-body';
 
 const part = (partNumber: string, fields: Partial<LineRiskPart> = {}): LineRiskPart => ({
   partNumber,
@@ -25,24 +30,45 @@ const input: LineRiskInput = {
   to: '2026-03-06',
 };
 
+const details = new Map<string, PartDetails>([['C', { hazardous: true, supplierName: 'Supplier A' }]]);
+
 const runner = new LineRiskRunner();
 afterAll(() => runner.close());
 
+function compute(key: string, engineInput: LineRiskInput, on: LineRiskRunner = runner): Promise<ReportBytes> {
+  const { from, to, today, frozenWindowDays, loops, ...pieces } = engineInput;
+  return on.compute(key, { ...pieces, loops: loops ?? [], details }, { from, to, today, frozenWindowDays });
+}
+
+/** The report the engine gives when run in place. */
+const inPlace = (engineInput: LineRiskInput) =>
+  toReport(summarise(computeLineRisk(engineInput)), engineInput.parts, details);
+
+const text = (bytes: Uint8Array) => Buffer.from(bytes).toString('utf8');
+
 describe('the line-risk worker thread', () => {
-  it('answers with the same summary as the engine run in place, and pages from the result it keeps', async () => {
-    const summary = await runner.compute('k1', input);
+  it('answers with the report of the engine run in place, as bytes, and pages from the result it keeps', async () => {
+    const bytes = await compute('k1', input);
     const slots = await runner.slots('k1', 'C', 1, 5);
     const units = await runner.units('k1', 0, 10);
 
-    expect(summary).toEqual(summarise(computeLineRisk(input)));
-    expect(summary.unitsAtRiskCount).toBe(2);
+    expect(text(bytes.json)).toBe(JSON.stringify(inPlace(input)));
+    expect(JSON.parse(text(bytes.json))).toMatchObject({
+      unitsAtRiskCount: 2,
+      shortages: [{ partNumber: 'C', hazardous: true, supplierName: 'Supplier A' }],
+    });
+    expect(text(gunzipSync(bytes.gzip))).toBe(text(bytes.json));
+    expect(bytes.etag).toBe(etagOf(bytes.json));
+    expect(text(bytes.json.subarray(bytes.shortagesAt, bytes.json.length - 1))).toBe(
+      JSON.stringify(inPlace(input).shortages),
+    );
     expect(slots).toEqual({ total: 2, slots: [expect.objectContaining({ serial: 'S3' })] });
     expect(units?.units.map((unit) => unit.serial)).toEqual(['S2', 'S3']);
     expect(await runner.slots('k1', 'M', 0, 5)).toBeNull();
   });
 
   it('says when it no longer holds a result, so the caller computes again', async () => {
-    await runner.compute('k2', input);
+    await compute('k2', input);
 
     runner.drop('k2');
 
@@ -60,9 +86,76 @@ describe('the line-risk worker thread', () => {
       ],
     };
 
-    const failure = await runner.compute('k3', cyclic).catch((error: unknown) => error);
+    const failure = await compute('k3', cyclic).catch((error: unknown) => error);
 
     expect(failure).toBeInstanceOf(LineRiskWorkerError);
     expect((failure as LineRiskWorkerError).kind).toBe('cycle');
+  });
+
+  it('sends only the pieces of the input that changed, and answers for the whole new input', async () => {
+    const own = new LineRiskRunner();
+    const posted = vi.spyOn(Worker.prototype, 'postMessage');
+    try {
+      await compute('a', input, own);
+      const sentFirst = posted.mock.calls
+        .map(([message]) => message as WorkerRequest)
+        .find((m) => m.kind === 'compute');
+      posted.mockClear();
+      // Equal pieces read again (new arrays), a different stock of C, and one unit fewer.
+      const next: LineRiskInput = {
+        ...structuredClone(input),
+        parts: [input.parts[0], { ...input.parts[1], onHand: 4 }],
+        sequence: input.sequence.slice(0, 2).map((slot) => ({ ...slot })),
+      };
+      const bytes = await compute('b', next, own);
+      const sentNext = posted.mock.calls.map(([message]) => message as WorkerRequest).find((m) => m.kind === 'compute');
+
+      expect(sentFirst?.kind === 'compute' && Object.keys(sentFirst.pieces).sort()).toEqual([
+        'bom',
+        'calendar',
+        'details',
+        'firmReceipts',
+        'loops',
+        'parts',
+        'sequence',
+      ]);
+      expect(sentNext?.kind === 'compute' && Object.keys(sentNext.pieces).sort()).toEqual(['parts', 'sequence']);
+      expect(sentNext?.kind === 'compute' && sentNext.patches).toEqual({});
+      expect(text(bytes.json)).toBe(JSON.stringify(inPlace(next)));
+      // 4 C: the first two units build (2 × 2), none is at risk.
+      expect(JSON.parse(text(bytes.json))).toMatchObject({ unitsAtRiskCount: 0, shortages: [] });
+    } finally {
+      posted.mockRestore();
+      await own.close();
+    }
+  });
+
+  it('sends the few rows of a long list that changed, and answers as if sent the whole list', async () => {
+    const own = new LineRiskRunner();
+    const posted = vi.spyOn(Worker.prototype, 'postMessage');
+    const lastCompute = () =>
+      posted.mock.calls.map(([message]) => message as WorkerRequest).findLast((m) => m.kind === 'compute');
+    try {
+      const long: LineRiskInput = {
+        ...input,
+        parts: [...input.parts, ...['E', 'F', 'G', 'H', 'I', 'J'].map((number) => part(number, { onHand: 1 }))],
+      };
+      await compute('a', long, own);
+      // C's stock counted up to 4: one row of eight.
+      const counted: LineRiskInput = {
+        ...long,
+        parts: long.parts.map((row) => ({ ...row, onHand: row.partNumber === 'C' ? 4 : row.onHand })),
+      };
+      const bytes = await compute('b', counted, own);
+      const sent = lastCompute();
+
+      expect(sent?.kind === 'compute' && sent.pieces).toEqual({});
+      expect(sent?.kind === 'compute' && sent.patches).toEqual({ parts: [[1, counted.parts[1]]] });
+      expect(text(bytes.json)).toBe(JSON.stringify(inPlace(counted)));
+      expect(JSON.parse(text(bytes.json))).toMatchObject({ unitsAtRiskCount: 1 });
+    } finally {
+      posted.mockRestore();
+      await own.close();
+    }
   });
 });

@@ -6,6 +6,8 @@ import { writeCalendar } from '../../server/calendar/calendar.service';
 import { replaceBomLines, upsertSuppliers } from '../../server/master-data/master-data.writer';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
+import { LineRiskRunner } from '../../server/line-risk/line-risk-runner';
+import { PartEntity } from '../../server/master-data/part.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { writeSetting } from '../../server/settings/settings';
@@ -189,6 +191,34 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
     expect(before.body).toHaveLength(1);
     expect(unannounced.body).toEqual(before.body);
     expect(announced.body).toEqual([]);
+  });
+
+  it('keeps its result over a planning change that leaves its inputs as they were, and walks again once they differ', async () => {
+    const warm = await getShortages();
+    const walks = vi.spyOn(LineRiskRunner.prototype, 'compute');
+    try {
+      // A draft release feeds the plan, not the line risk.
+      await releaseLineForC('draft', {});
+      const afterDraft = await getShortages();
+      const walksAfterDraft = walks.mock.calls.length;
+      await context.dataSource.transaction(async (manager) => {
+        await manager.update(PartEntity, { partNumber: 'C' }, { onHand: 6 });
+        await bumpPlanningVersion(manager);
+      });
+      const afterCount = await getShortages();
+
+      expect(afterDraft.body).toEqual(warm.body);
+      expect(walksAfterDraft).toBe(0);
+      expect(walks).toHaveBeenCalledTimes(1);
+      // 6 C on hand: S1 and S2 take 4, S3 its 2.
+      expect(afterCount.body).toEqual([]);
+    } finally {
+      walks.mockRestore();
+      await context.dataSource.transaction(async (manager) => {
+        await manager.update(PartEntity, { partNumber: 'C' }, { onHand: 5 });
+        await bumpPlanningVersion(manager);
+      });
+    }
   });
 
   it('reads the frozen window the sequence screen sets', async () => {

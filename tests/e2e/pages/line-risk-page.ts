@@ -31,6 +31,20 @@ export class LineRiskPage {
     return this.page.getByRole('region', { name: `Units that lack ${partNumber}` }).locator('.el-table__body tr');
   }
 
+  /** How many units an opened part stops, and how many are listed. */
+  unitsTitle(partNumber: string): Locator {
+    return this.page
+      .getByRole('region', { name: `Units that lack ${partNumber}` })
+      .locator('[data-test="units-title"]');
+  }
+
+  /** The button that lists every unit an opened part stops (the report lists the first few). */
+  showAllUnits(partNumber: string): Locator {
+    return this.page
+      .getByRole('region', { name: `Units that lack ${partNumber}` })
+      .getByRole('button', { name: /^Show all/ });
+  }
+
   /** The short parts grouped by action, in the order shown. */
   actionGroups(): Locator {
     return this.page.locator('[data-test="action-group"]');

@@ -1,0 +1,97 @@
+import { gzipSync } from 'node:zlib';
+import type { LineRiskPart } from '../../shared/domain/line-risk';
+import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
+import { etagOf } from '../http/serialised-body';
+import type { PartDetails } from './line-risk-inputs';
+import type { LineRiskSummary, ShortageSummary } from './line-risk-summary';
+
+type ReportPart = LineRiskPart & { description?: string; uom?: string };
+
+/** The report as published, built once per result. */
+export function toReport(
+  summary: LineRiskSummary,
+  parts: readonly ReportPart[],
+  details: ReadonlyMap<string, PartDetails>,
+): LineRiskReport {
+  const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
+  return {
+    from: summary.from,
+    to: summary.to,
+    today: summary.today,
+    days: summary.days,
+    frozenWindowDays: summary.frozenWindowDays,
+    frozenUntil: summary.frozenUntil,
+    unitsInHorizon: summary.unitsInHorizon,
+    unitsBuilt: summary.unitsBuilt,
+    unitsAtRisk: summary.unitsAtRisk,
+    unitsAtRiskCount: summary.unitsAtRiskCount,
+    // Last, so the shortages alone (GET /api/shortages) are a tail of the report's bytes.
+    shortages: summary.shortages.map((shortage) =>
+      toShortage(shortage, partByNumber.get(shortage.partNumber), details.get(shortage.partNumber)),
+    ),
+  };
+}
+
+/** A short part as published, with what the screen shows beside the figures. */
+function toShortage(
+  shortage: ShortageSummary,
+  part: ReportPart | undefined,
+  details: PartDetails | undefined,
+): ShortageDto {
+  return {
+    partNumber: shortage.partNumber,
+    firstShortDate: shortage.firstShortDate,
+    shortQty: shortage.shortQty,
+    slotsAtRisk: shortage.slotsAtRisk,
+    slotsAtRiskCount: shortage.slotsAtRiskCount,
+    action: shortage.action,
+    needBy: shortage.needBy,
+    releaseBy: shortage.releaseBy,
+    leadTimeDays: shortage.leadTimeDays,
+    loop: shortage.loop,
+    description: part?.description ?? '',
+    uom: part?.uom ?? 'H87',
+    supplierCode: shortage.supplierCode,
+    supplierName: details?.supplierName ?? null,
+    hazardous: details?.hazardous ?? false,
+    onHand: shortage.onHand,
+    firmReceiptQty: shortage.firmReceiptQty,
+    daysUntilImpact: shortage.daysUntilImpact,
+    inFrozenWindow: shortage.inFrozenWindow,
+    rescue: shortage.rescue,
+  };
+}
+
+/**
+ * A report as the bytes GET /api/line-risk sends, made where it was computed (the worker), so the
+ * main thread neither copies a large plant's report as objects nor serialises or compresses it.
+ * Each array owns its memory, so it can be transferred rather than copied.
+ */
+export interface ReportBytes {
+  json: Uint8Array;
+  gzip: Uint8Array;
+  etag: string;
+  /** Where the shortages array starts in `json`; it ends one byte before the end (the closing brace). */
+  shortagesAt: number;
+}
+
+export function serialiseReport(report: LineRiskReport): ReportBytes {
+  const { shortages, ...head } = report;
+  const headJson = JSON.stringify(head);
+  // The same text JSON.stringify(report) gives: shortages is the report's last key.
+  const prefix = `${headJson.slice(0, -1)}${headJson === '{}' ? '' : ','}"shortages":`;
+  const json = new TextEncoder().encode(`${prefix}${JSON.stringify(shortages)}}`);
+  return {
+    json,
+    // The fastest level: made after every change, it is on the way of the answer. The body comes out
+    // about half as large again as at the default level (0.8 against 0.55 MB at 16×).
+    gzip: ownBytes(gzipSync(json, { level: 1 })),
+    etag: etagOf(json),
+    shortagesAt: Buffer.byteLength(prefix),
+  };
+}
+
+/** A copy when the bytes share their buffer (Node pools small buffers), so the buffer can be transferred. */
+function ownBytes(bytes: Uint8Array): Uint8Array {
+  return bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? bytes : new Uint8Array(bytes);
+}
