@@ -6,6 +6,7 @@ import type { BomTree, PartDetail } from '@shared/schemas/master-data-edit';
 import type { SessionUser } from '@shared/schemas/user';
 import { supplierFormFields } from '@/components/master-data-presentation';
 import PartView from '@/views/PartView.vue';
+import PartsView from '@/views/PartsView.vue';
 import BomView from '@/views/BomView.vue';
 
 const buyer: SessionUser = { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null };
@@ -112,6 +113,50 @@ describe('supplierFormFields', () => {
       label: 'Lead time (working days)',
       input: { kind: 'number', integer: true, min: 0, max: 365 },
     });
+  });
+});
+
+describe('PartsView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('draws one page of a long part list, sorted by lead time across every page, and searches all of them', async () => {
+    const parts = Array.from({ length: 140 }, (_, index) => ({
+      ...bolt,
+      partNumber: `P-${String(index + 1).padStart(3, '0')}`,
+      description: index === 120 ? 'Gasket ring' : `Part ${index + 1}`,
+      leadTimeDays: (index * 17) % 41,
+    }));
+    stubApi({ 'GET /api/parts': () => jsonResponse(200, parts) });
+    const context = await createAppContext({ user: viewer, path: '/parts' });
+
+    const wrapper = await mountInApp(PartsView, context);
+
+    const drawn = () =>
+      [...wrapper.element.querySelectorAll('.el-table__body-wrapper tbody tr td:first-child')].map(
+        (cell) => cell.textContent?.trim() ?? '',
+      );
+    await waitFor(() => drawn().length > 0);
+    expect(drawn()).toHaveLength(50);
+    expect(wrapper.get('.el-pagination').text()).toContain('140');
+    const header = [...wrapper.element.querySelectorAll<HTMLElement>('.el-table__header th')].find((cell) =>
+      cell.textContent?.trim().startsWith('Lead time'),
+    )!;
+    header.click();
+    await flushPromises();
+    const shortest = [...parts].sort(
+      (a, b) => a.leadTimeDays - b.leadTimeDays || a.partNumber.localeCompare(b.partNumber),
+    );
+    expect(drawn()).toEqual(shortest.slice(0, 50).map((part) => part.partNumber));
+
+    const search = wrapper.get<HTMLInputElement>('input[aria-label="Search parts"]');
+    await search.setValue('gasket');
+    await flushPromises();
+    expect(drawn()).toEqual(['P-121']);
+    expect(wrapper.find('.el-pagination').exists()).toBe(false);
   });
 });
 
