@@ -8,7 +8,7 @@ import { printReceiptsBench, runReceiptsBench } from './receipts.bench';
 
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
 // `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size;
-// add `--browser` for the time the Horizon screen takes to open in Chromium.
+// add `--browser` for the time the Horizon and then every other screen take to open in Chromium.
 const { values } = parseArgs({ options: { scale: { type: 'string' }, browser: { type: 'boolean' } } });
 const scales = values.scale ? values.scale.split(',').map(Number) : null;
 if (scales?.some((scale) => !Number.isInteger(scale) || scale < 1)) {
