@@ -1,8 +1,8 @@
 import { computed, ref, watch, type Ref } from 'vue';
 
-export type SortOrder = 'ascending' | 'descending' | null;
+type SortOrder = 'ascending' | 'descending' | null;
 
-export interface SortState {
+interface SortState {
   prop: string | null;
   order: SortOrder;
 }
