@@ -143,8 +143,8 @@ describe('PartsView', () => {
     await waitFor(() => drawn().length > 0);
     expect(drawn()).toHaveLength(50);
     expect(wrapper.get('.el-pagination').text()).toContain('140');
-    const header = [...wrapper.element.querySelectorAll<HTMLElement>('.el-table__header th')].find((cell) =>
-      cell.textContent?.trim().startsWith('Lead time'),
+    const header = [...(wrapper.element as Element).querySelectorAll<HTMLElement>('.el-table__header th')].find(
+      (cell) => cell.textContent?.trim().startsWith('Lead time'),
     )!;
     header.click();
     await flushPromises();

@@ -169,7 +169,7 @@ describe('StockView', () => {
     const drawn = () => textOf('.el-table__body-wrapper tbody tr td:first-child', wrapper.element);
     expect(drawn()).toHaveLength(50);
     expect(wrapper.get('.el-pagination').text()).toContain('130');
-    const onHandHeader = [...wrapper.element.querySelectorAll<HTMLElement>('.el-table__header th')].find(
+    const onHandHeader = [...(wrapper.element as Element).querySelectorAll<HTMLElement>('.el-table__header th')].find(
       (cell) => cell.textContent?.trim() === 'On hand',
     )!;
     onHandHeader.click();
