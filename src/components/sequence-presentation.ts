@@ -1,6 +1,6 @@
 import type { UnitAtRisk } from '@shared/domain/line-risk';
 import type { SequenceDay } from '@shared/schemas/sequence';
-import { formatDay, formatQty, formatQuantity, formatWhen } from '@/format';
+import { countOf, formatCount, formatDay, formatQty, formatQuantity, formatWhen } from '@/format';
 
 /** Units per model on a day, in the board's model order, models with no unit left out. */
 export function modelMix(day: SequenceDay, modelOrder: readonly string[]): { model: string; count: number }[] {
@@ -9,6 +9,19 @@ export function modelMix(day: SequenceDay, modelOrder: readonly string[]): { mod
   const known = modelOrder.filter((model) => counts.has(model));
   const others = [...counts.keys()].filter((model) => !modelOrder.includes(model)).sort();
   return [...known, ...others].map((model) => ({ model, count: counts.get(model)! }));
+}
+
+/**
+ * Units drawn per day before a "show more" button: a day of a large plant holds 160 units or more,
+ * and ten such days drawn whole are tens of thousands of DOM nodes. Above any day's capacity on the
+ * demo plant, so a day there is always drawn whole.
+ */
+export const DAY_UNITS_DRAWN = 60;
+
+/** The button under a day drawn in part: how many units it hides and how many of those are at risk. */
+export function hiddenUnitsText(hidden: number, atRisk: number): string {
+  const units = countOf(hidden, 'more unit', 'more units');
+  return atRisk > 0 ? `Show ${units} (${formatCount(atRisk)} at risk)` : `Show ${units}`;
 }
 
 /** The board lengths a planner can pick, in working days. */

@@ -8,7 +8,7 @@ import { printReceiptsBench, runReceiptsBench } from './receipts.bench';
 
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
 // `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size;
-// add `--browser` for the time the Horizon screen takes to open in Chromium.
+// add `--browser` for the time the Horizon and then every other screen take to open in Chromium.
 // `npm run bench -- --engines`: the database figures alone, on SQLite and (BENCH_DATABASE_URL) PostgreSQL.
 const { values } = parseArgs({
   options: { scale: { type: 'string' }, browser: { type: 'boolean' }, engines: { type: 'boolean' } },

@@ -11,6 +11,7 @@ import { PartEntity } from '../../server/master-data/part.entity';
 import { bumpPlanningVersion } from '../../server/settings/versions';
 import { RECURSIVE_EXPLOSION } from './database.bench';
 import { printHorizonOpen } from './horizon-open.bench';
+import { printScreensOpen } from './screens-open.bench';
 import { benchUser, formatLoad, listen, load, ms } from './http-load';
 import { generatePlanFixture } from './plan-fixture';
 import { writeFixture } from './plan-fixture-db';
@@ -188,7 +189,10 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
     await app.close();
   }
   try {
-    if (options.browser) await printHorizonOpen(db);
+    if (options.browser) {
+      await printHorizonOpen(db);
+      await printScreensOpen(db);
+    }
   } finally {
     await db.close();
   }

@@ -1,11 +1,13 @@
 import { createAppContext, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
-import type { Part } from '@shared/schemas/master-data';
+import { SUPPLIER_DEFAULT_TERMS, type Part } from '@shared/schemas/master-data';
 import type { BomTree, PartDetail } from '@shared/schemas/master-data-edit';
 import type { SessionUser } from '@shared/schemas/user';
 import { supplierFormFields } from '@/components/master-data-presentation';
 import PartView from '@/views/PartView.vue';
+import PartsView from '@/views/PartsView.vue';
+import SupplierView from '@/views/SupplierView.vue';
 import BomView from '@/views/BomView.vue';
 
 const buyer: SessionUser = { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null };
@@ -115,6 +117,91 @@ describe('supplierFormFields', () => {
   });
 });
 
+describe('PartsView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('draws one page of a long part list, sorted by lead time across every page, and searches all of them', async () => {
+    const parts = Array.from({ length: 140 }, (_, index) => ({
+      ...bolt,
+      partNumber: `P-${String(index + 1).padStart(3, '0')}`,
+      description: index === 120 ? 'Gasket ring' : `Part ${index + 1}`,
+      leadTimeDays: (index * 17) % 41,
+    }));
+    stubApi({ 'GET /api/parts': () => jsonResponse(200, parts) });
+    const context = await createAppContext({ user: viewer, path: '/parts' });
+
+    const wrapper = await mountInApp(PartsView, context);
+
+    const drawn = () =>
+      [...wrapper.element.querySelectorAll('.el-table__body-wrapper tbody tr td:first-child')].map(
+        (cell) => cell.textContent?.trim() ?? '',
+      );
+    await waitFor(() => drawn().length > 0);
+    expect(drawn()).toHaveLength(50);
+    expect(wrapper.get('.el-pagination').text()).toContain('140');
+    const header = [...(wrapper.element as Element).querySelectorAll<HTMLElement>('.el-table__header th')].find(
+      (cell) => cell.textContent?.trim().startsWith('Lead time'),
+    )!;
+    header.click();
+    await flushPromises();
+    const shortest = [...parts].sort(
+      (a, b) => a.leadTimeDays - b.leadTimeDays || a.partNumber.localeCompare(b.partNumber),
+    );
+    expect(drawn()).toEqual(shortest.slice(0, 50).map((part) => part.partNumber));
+
+    const search = wrapper.get<HTMLInputElement>('input[aria-label="Search parts"]');
+    await search.setValue('gasket');
+    await flushPromises();
+    expect(drawn()).toEqual(['P-121']);
+    expect(wrapper.find('.el-pagination').exists()).toBe(false);
+  });
+});
+
+describe('SupplierView', () => {
+  afterEach(() => {
+    document.body.innerHTML = '';
+    localStorage.clear();
+    vi.unstubAllGlobals();
+  });
+
+  it('lists one page of the parts bought from the supplier, only theirs, and turns to the next', async () => {
+    const parts = Array.from({ length: 130 }, (_, index) => ({
+      ...bolt,
+      partNumber: `P-${String(index + 1).padStart(3, '0')}`,
+      supplierCode: index % 2 ? 'SUP-A' : 'SUP-B',
+    }));
+    stubApi({
+      'GET /api/parts': () => jsonResponse(200, parts),
+      'GET /api/suppliers/SUP-A': () =>
+        jsonResponse(200, {
+          code: 'SUP-A',
+          name: 'Supplier A',
+          email: 'orders@supplier-a.example.com',
+          leadTimeDays: 5,
+          ...SUPPLIER_DEFAULT_TERMS,
+        }),
+    });
+    const context = await createAppContext({ user: viewer, path: '/suppliers/SUP-A' });
+
+    const wrapper = await mountInApp(SupplierView, context);
+
+    const drawn = () =>
+      [...wrapper.element.querySelectorAll('.el-table__body-wrapper tbody tr td:first-child')].map(
+        (cell) => cell.textContent?.trim() ?? '',
+      );
+    await waitFor(() => expect(drawn()).toHaveLength(50));
+    const theirs = parts.filter((part) => part.supplierCode === 'SUP-A').map((part) => part.partNumber);
+    expect(drawn()).toEqual(theirs.slice(0, 50));
+    expect(wrapper.get('.el-pagination').text()).toContain('65');
+    await wrapper.get('.el-pagination .btn-next').trigger('click');
+    expect(drawn()).toEqual(theirs.slice(50, 65));
+  });
+});
+
 describe('PartView', () => {
   it('shows the part’s master data, stock, loop and where-used, lead time in working days', async () => {
     stubApi(partAnswers());
@@ -215,5 +302,21 @@ describe('BomView', () => {
     expect(wrapper.findAll('[data-test="extended-qty"]').map((cell) => cell.text())).toEqual(['2.2 pcs', '6.93 m']);
     expect(wrapper.get('[data-test="scrap-convention"]').text()).toContain('compounds through the levels');
     expect(wrapper.text()).not.toContain('From a date…');
+  });
+
+  it('fetches the part list for a buyer only when a dialog that picks a component opens', async () => {
+    const fetchMock = stubApi({
+      'GET /api/bom/MODEL-A': () => jsonResponse(200, tree),
+      'GET /api/parts': () => jsonResponse(200, [bolt]),
+    });
+    const context = await createAppContext({ user: buyer, path: '/bom/MODEL-A' });
+
+    const wrapper = await mountInApp(BomView, context);
+
+    expect(wrapper.findAll('[data-test="extended-qty"]')).toHaveLength(2);
+    const partLists = () => fetchMock.mock.calls.filter(([input]) => String(input).endsWith('/api/parts'));
+    expect(partLists()).toHaveLength(0);
+    getButton(wrapper.element, 'Edit lines').click();
+    await waitFor(() => expect(partLists()).toHaveLength(1));
   });
 });

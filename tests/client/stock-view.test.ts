@@ -157,6 +157,33 @@ describe('StockView', () => {
     expect(wrapper.get('[data-test="stock-summary"]').text()).toBe('3 parts · 1 part below zero · 2 parts due a count');
   });
 
+  it('draws one page of a long stock list, sorted by on hand across every page', async () => {
+    const items = Array.from({ length: 130 }, (_, index) =>
+      item(`P-${String(index + 1).padStart(3, '0')}`, { onHand: (index * 53) % 131 }),
+    );
+    stubApi({ 'GET /api/stock': () => jsonResponse(200, items) });
+    const context = await createAppContext({ user: buyer, path: '/stock' });
+
+    const wrapper = await mountInApp(StockView, context);
+
+    const drawn = () => textOf('.el-table__body-wrapper tbody tr td:first-child', wrapper.element);
+    expect(drawn()).toHaveLength(50);
+    expect(wrapper.get('.el-pagination').text()).toContain('130');
+    const onHandHeader = [...(wrapper.element as Element).querySelectorAll<HTMLElement>('.el-table__header th')].find(
+      (cell) => cell.textContent?.trim() === 'On hand',
+    )!;
+    onHandHeader.click();
+    await flushPromises();
+    onHandHeader.click();
+    await flushPromises();
+    // Descending: the largest on hand of all 130 parts heads the first page.
+    const largest = [...items].sort((a, b) => b.onHand - a.onHand || a.partNumber.localeCompare(b.partNumber));
+    expect(drawn()).toEqual(largest.slice(0, 50).map((entry) => entry.partNumber));
+    expect(wrapper.get('.el-table__body-wrapper tbody tr [data-test="on-hand"]').text()).toBe(
+      `${largest[0]!.onHand} pcs`,
+    );
+  });
+
   it('shows only the parts to count, and finds a part by its description', async () => {
     stubApi({
       'GET /api/stock': () =>
