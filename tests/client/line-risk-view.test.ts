@@ -323,6 +323,26 @@ describe('LineRiskView', () => {
     for (const slot of every.slice(1)) expect(units().text()).toContain(slot.serial);
   });
 
+  it('draws a long list of short parts a page at a time, in the order the server gave', async () => {
+    // 120 parts short in the same way, P-001 … P-120, already in the server's order.
+    const many = Array.from({ length: 120 }, (_, index) => ({
+      ...tank,
+      partNumber: `P-${String(index + 1).padStart(3, '0')}`,
+    }));
+    stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf(many)) });
+
+    const { wrapper } = await openLineRisk();
+    const drawn = () => wrapper.findAll('tr.el-table__row .line-risk-table__part-number').map((cell) => cell.text());
+
+    expect(drawn()).toHaveLength(50);
+    expect(drawn()[0]).toBe('P-001');
+    expect(wrapper.get('.line-risk-table__pager').text()).toContain('Total 120');
+    await wrapper.get('.line-risk-table__pager .btn-next').trigger('click');
+    await flushPromises();
+    expect(drawn()[0]).toBe('P-051');
+    expect(drawn()).toHaveLength(50);
+  });
+
   it('asks for the horizon picked, two weeks unless the link says otherwise', async () => {
     const fetchMock = stubApi({ '/api/line-risk': () => jsonResponse(200, reportOf([battery])) });
     const { wrapper, router } = await openLineRisk();
