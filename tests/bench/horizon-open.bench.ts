@@ -1,16 +1,8 @@
-import { chromium } from '@playwright/test';
-import type { AddressInfo } from 'node:net';
 import { performance } from 'node:perf_hooks';
-import { createApp } from '../../server/app';
-import { ensureClientBuilt } from '../../server/client-build';
 import type { Database } from '../../server/db/database';
-import { createServices } from '../../server/services';
 import { bumpPlanningVersion } from '../../server/settings/versions';
-import { hashPassword } from '../../server/users/passwords';
-import { UserEntity } from '../../server/users/user.entity';
+import { openBrowserBench } from './browser-bench';
 
-const SECRET = 'bench-secret-bench-secret-bench-secret-bench';
-const PASSWORD = 'bench-password-long-enough';
 const OPEN_TIMEOUT_MS = 180_000;
 
 /**
@@ -19,25 +11,10 @@ const OPEN_TIMEOUT_MS = 180_000;
  * planning change caused. A printout for a person to read, never a pass/fail.
  */
 export async function printHorizonOpen(db: Database): Promise<void> {
-  await db.dataSource.getRepository(UserEntity).save({
-    email: 'bench-buyer@example.com',
-    name: 'Bench buyer',
-    role: 'buyer',
-    passwordHash: await hashPassword(PASSWORD),
-    supplierCode: null,
-  });
-  const clientDir = await ensureClientBuilt(process.cwd());
-  const services = createServices(db, { jwtSecret: SECRET });
-  const server = createApp(db, { jwtSecret: SECRET, clientDir }, services).listen(0);
-  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium' });
+  const bench = await openBrowserBench(db, 'buyer');
+  const { base, page } = bench;
   try {
-    const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
-    await page.goto(`${base}/login`);
-    await page.getByLabel('E-mail').fill('bench-buyer@example.com');
-    await page.getByLabel('Password').fill(PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(`${base}/`);
+    await bench.signIn();
 
     // First with the server's plan cache cold (the first visit after a change), then again warm.
     const firstRow = page.locator('.horizon-table .el-table__body-wrapper button').first();
@@ -97,9 +74,6 @@ export async function printHorizonOpen(db: Database): Promise<void> {
         `${longTasks.toFixed(0)} ms of long tasks on the main thread`,
     );
   } finally {
-    await browser.close();
-    server.closeAllConnections();
-    server.close();
-    await services.lineRisk.close();
+    await bench.close();
   }
 }

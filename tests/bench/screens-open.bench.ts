@@ -1,17 +1,9 @@
-import { chromium, type Page } from '@playwright/test';
-import type { AddressInfo } from 'node:net';
+import type { Page } from '@playwright/test';
 import { performance } from 'node:perf_hooks';
-import { createApp } from '../../server/app';
-import { ensureClientBuilt } from '../../server/client-build';
 import type { Database } from '../../server/db/database';
 import { PartEntity } from '../../server/master-data/part.entity';
-import { createServices } from '../../server/services';
-import { hashPassword } from '../../server/users/passwords';
-import { UserEntity } from '../../server/users/user.entity';
+import { openBrowserBench } from './browser-bench';
 
-const SECRET = 'bench-secret-bench-secret-bench-secret-bench';
-const EMAIL = 'bench-admin@example.com';
-const PASSWORD = 'bench-password-long-enough';
 const OPEN_TIMEOUT_MS = 180_000;
 /** No request of the screen's own in flight for this long: its data is in. */
 const QUIET_MS = 500;
@@ -33,13 +25,6 @@ interface ScreenFigures {
  * A printout for a person to read, never a pass/fail.
  */
 export async function printScreensOpen(db: Database): Promise<void> {
-  await db.dataSource.getRepository(UserEntity).save({
-    email: EMAIL,
-    name: 'Bench admin',
-    role: 'admin',
-    passwordHash: await hashPassword(PASSWORD),
-    supplierCode: null,
-  });
   const bought = await db.dataSource
     .getRepository(PartEntity)
     .createQueryBuilder('part')
@@ -49,13 +34,9 @@ export async function printScreensOpen(db: Database): Promise<void> {
   const model = await db.dataSource
     .getRepository(PartEntity)
     .findOneOrFail({ where: { source: 'end_item' }, order: { partNumber: 'ASC' } });
-  const clientDir = await ensureClientBuilt(process.cwd());
-  const services = createServices(db, { jwtSecret: SECRET });
-  const server = createApp(db, { jwtSecret: SECRET, clientDir }, services).listen(0);
-  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium' });
+  const bench = await openBrowserBench(db, 'admin');
+  const { base, page } = bench;
   try {
-    const page = await browser.newPage({ viewport: { width: 1440, height: 900 } });
     // Plain statements only: tsx names arrow functions held in a const with a helper the page lacks.
     await page.addInitScript(() => {
       performance.setResourceTimingBufferSize(100_000);
@@ -78,11 +59,7 @@ export async function printScreensOpen(db: Database): Promise<void> {
     await cdp.send('Performance.enable');
     const tracker = trackRequests(page);
 
-    await page.goto(`${base}/login`);
-    await page.getByLabel('E-mail').fill(EMAIL);
-    await page.getByLabel('Password').fill(PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(`${base}/`);
+    await bench.signIn();
     // The Overview's first line risk starts the worker; let it settle so each screen is timed alone.
     await tracker.quiet(0);
 
@@ -149,10 +126,7 @@ export async function printScreensOpen(db: Database): Promise<void> {
       );
     }
   } finally {
-    await browser.close();
-    server.closeAllConnections();
-    server.close();
-    await services.lineRisk.close();
+    await bench.close();
   }
 }
 
