@@ -47,18 +47,18 @@ export const planResponseSchema = z.object({
 });
 export type PlanResponse = z.infer<typeof planResponseSchema>;
 
+/** One bought part's demand over the horizon; `byDay` or `byBucket` adds the breakdown. */
+const demandRowSchema = z.object({
+  partNumber: z.string(),
+  supplierCode: z.string().nullable(),
+  /** Unit of measure of the row's quantities; totals across parts are per unit. */
+  uom: z.string(),
+  total: z.number(),
+});
+
 export const demandResponseSchema = z.object({
   days: z.array(z.string()),
-  rows: z.array(
-    z.object({
-      partNumber: z.string(),
-      supplierCode: z.string().nullable(),
-      /** Unit of measure of the row's quantities; totals across parts are per unit. */
-      uom: z.string(),
-      total: z.number(),
-      byDay: z.record(z.string(), z.number()),
-    }),
-  ),
+  rows: z.array(demandRowSchema.extend({ byDay: z.record(z.string(), z.number()) })),
   /** The last day of the build sequence still to build: no demand is known after it; null with no sequence. */
   sequenceEnds: z.string().nullable(),
 });
@@ -80,15 +80,7 @@ const unitTotalSchema = z.object({ uom: z.string(), qty: z.number() });
 
 export const demandTableResponseSchema = z.object({
   buckets: z.array(z.object({ key: z.string(), days: z.array(z.string()) })),
-  rows: z.array(
-    z.object({
-      partNumber: z.string(),
-      supplierCode: z.string().nullable(),
-      uom: z.string(),
-      total: z.number(),
-      byBucket: z.record(z.string(), z.number()),
-    }),
-  ),
+  rows: z.array(demandRowSchema.extend({ byBucket: z.record(z.string(), z.number()) })),
   page: z.number().int(),
   pageSize: z.number().int(),
   matched: z.number().int().meta({ description: 'Rows the search lets through, on every page.' }),
