@@ -52,6 +52,28 @@ export async function printHorizonOpen(db: Database): Promise<void> {
         `${nodes} DOM nodes; ${count?.trim()}`,
     );
 
+    // Scrolling the table: frames drawn while its body scrolls down and back for two seconds. Sent as
+    // text: tsx would wrap a named function in a helper the page lacks.
+    const scrolling = await page.evaluate<{ frames: number; longest: number; seconds: number; range: number }>(`
+      new Promise((resolve) => {
+        const body = document.querySelector('.horizon-table .el-table__body-wrapper .el-scrollbar__wrap');
+        const frames = [];
+        const started = performance.now();
+        const step = (now) => {
+          frames.push(now);
+          if (body) body.scrollTop = (frames.length % 60) * 12;
+          if (now - started < 2000) return requestAnimationFrame(step);
+          let longest = 0;
+          for (let index = 1; index < frames.length; index += 1) longest = Math.max(longest, frames[index] - frames[index - 1]);
+          resolve({ frames: frames.length, longest, seconds: (now - started) / 1000, range: body ? body.scrollHeight - body.clientHeight : 0 });
+        };
+        requestAnimationFrame(step);
+      })`);
+    console.log(
+      `  scrolling the table: ${(scrolling.frames / scrolling.seconds).toFixed(0)} frames a second, ` +
+        `the longest frame ${scrolling.longest.toFixed(0)} ms (its body scrolls over ${scrolling.range} px)`,
+    );
+
     // Main-thread work of one planning change: long tasks (> 50 ms) from the notice until the
     // refreshed figures are in.
     await page.evaluate(() => {
