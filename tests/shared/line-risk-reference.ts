@@ -30,7 +30,10 @@ import type { IsoDate, ScheduledReceipt, SequenceSlot } from '../../shared/domai
  * The line-risk walk written the plain way, as a reference for the engine: every unit is exploded
  * afresh against the ledger as it stands at its turn, nothing is remembered between units, and
  * needs are objects in maps. Slow (it grows with units × BOM lines × days and more), but each step
- * reads as the rule it implements; the engine must give exactly the same result.
+ * reads as the rule it implements; the engine must give exactly the same result. Its supply
+ * projection, need schedule and slot order follow the same rules as the engine's and look alike
+ * line for line; they are kept here on purpose, so a change to the engine's helpers cannot change
+ * the reference it is held to.
  */
 
 /** A quantity of a part needed on a bucket, and through which made part. */
