@@ -1,6 +1,6 @@
 import { parentPort } from 'node:worker_threads';
 import { BomCycleError } from '../../shared/domain/bom';
-import { walkLineRisk } from '../../shared/domain/line-risk';
+import { LineRiskWalker } from '../../shared/domain/line-risk';
 import type { LineRiskRun } from '../../shared/domain/line-risk-run';
 import { PlanInputError } from '../../shared/domain/plan-model';
 import type { LineRiskPieces, WorkerReply, WorkerRequest } from './line-risk-runner';
@@ -14,6 +14,24 @@ import { slotsPage, summarise, unitsPage } from './line-risk-summary';
  */
 const results = new Map<string, LineRiskRun>();
 const held: Partial<LineRiskPieces> = {};
+/**
+ * A walker per horizon (the screen's default and one other), each keeping its last walk, so a walk
+ * after a stock change walks only the changed parts again.
+ */
+const walkers = new Map<string, LineRiskWalker>();
+const MAX_WALKERS = 2;
+
+function walkerFor(from: string, to: string): LineRiskWalker {
+  const key = `${from}|${to}`;
+  let walker = walkers.get(key);
+  if (walker) walkers.delete(key);
+  else {
+    walker = new LineRiskWalker();
+    if (walkers.size >= MAX_WALKERS) walkers.delete(walkers.keys().next().value!);
+  }
+  walkers.set(key, walker);
+  return walker;
+}
 
 function answer(request: WorkerRequest): unknown {
   switch (request.kind) {
@@ -26,7 +44,7 @@ function answer(request: WorkerRequest): unknown {
         (held as Record<string, unknown>)[name] = list;
       }
       const pieces = held as LineRiskPieces;
-      const result = walkLineRisk({
+      const result = walkerFor(request.options.from, request.options.to).walk({
         parts: pieces.parts,
         bom: pieces.bom,
         sequence: pieces.sequence,

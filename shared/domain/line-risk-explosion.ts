@@ -27,21 +27,38 @@ export class StockLedger {
   version = 0;
   readonly changedAt: Int32Array;
 
-  /** `rowBase[p]` is where part p's row starts in `cumulativeSupply` (and so in cells and least). */
+  /**
+   * `rowBase[p]` is where part p's row starts in `cumulativeSupply` (and so in cells and least).
+   * With `only`, just the rows of the parts marked 1 are filled (the others read as zero): for
+   * walking those parts alone again.
+   */
   constructor(
     readonly days: number,
     cumulativeSupply: Float64Array,
     readonly rowBase: Int32Array,
+    only?: Uint8Array,
   ) {
-    this.cells = cumulativeSupply.slice();
     this.least = new Float64Array(cumulativeSupply.length);
     this.changedAt = new Int32Array(rowBase.length);
-    for (let base = 0; base < cumulativeSupply.length; base += days) {
-      let least = Infinity;
-      for (let t = days - 1; t >= 0; t -= 1) {
-        if (this.cells[base + t] < least) least = this.cells[base + t];
-        this.least[base + t] = least;
-      }
+    if (!only) {
+      this.cells = cumulativeSupply.slice();
+      for (let base = 0; base < cumulativeSupply.length; base += days) this.leastOfRow(base);
+      return;
+    }
+    this.cells = new Float64Array(cumulativeSupply.length);
+    for (let part = 0; part < rowBase.length; part += 1) {
+      if (only[part] !== 1) continue;
+      const base = rowBase[part];
+      this.cells.set(cumulativeSupply.subarray(base, base + days), base);
+      this.leastOfRow(base);
+    }
+  }
+
+  private leastOfRow(base: number): void {
+    let least = Infinity;
+    for (let t = this.days - 1; t >= 0; t -= 1) {
+      if (this.cells[base + t] < least) least = this.cells[base + t];
+      this.least[base + t] = least;
     }
   }
 
@@ -234,6 +251,39 @@ export class Exploder {
       reads: this.ints.copyOf(this.reads),
       version: ledger.version,
       groups: null,
+    };
+  }
+
+  /**
+   * The lacks `explode` finds for the needs of `explosion` of the parts marked 1 in `only` (bought
+   * parts), against `ledger` as it is now: a few parts walked again without exploding the unit.
+   * The arrays are scratch, valid until the next call.
+   */
+  lacksOf(ledger: StockLedger, explosion: Explosion, only: Uint8Array) {
+    this.stamp += 1;
+    this.ledger = ledger;
+    for (const column of [
+      this.lackPart,
+      this.lackBucket,
+      this.lackQty,
+      this.lackVia,
+      this.reads,
+      this.heldBucket,
+      this.heldQty,
+      this.heldNext,
+    ])
+      column.length = 0;
+    const { needCount, needPart, needBucket, needQty, needVia } = explosion;
+    for (let need = 0; need < needCount; need += 1) {
+      const part = needPart[need];
+      if (only[part] === 1) this.lackOf(part, needBucket[need], needQty[need], needVia[need]);
+    }
+    return {
+      count: this.lackPart.length,
+      part: this.lackPart.values,
+      bucket: this.lackBucket.values,
+      qty: this.lackQty.values,
+      via: this.lackVia.values,
     };
   }
 

@@ -21,6 +21,82 @@ export interface LackRecords {
   bucket: Int32Array;
 }
 
+/** Lack records written in walk order, growing as they come; `copy` takes a range of another run's as they are. */
+export class LackRecordWriter {
+  count = 0;
+  private unit: Int32Array;
+  private part: Int32Array;
+  private qty: Float64Array;
+  private now: Uint8Array;
+  private via: Int32Array;
+  private bucket: Int32Array;
+
+  constructor(capacity: number) {
+    this.unit = new Int32Array(capacity);
+    this.part = new Int32Array(capacity);
+    this.qty = new Float64Array(capacity);
+    this.now = new Uint8Array(capacity);
+    this.via = new Int32Array(capacity);
+    this.bucket = new Int32Array(capacity);
+  }
+
+  /** Appends a record; returns its index. */
+  push(unit: number, part: number, qty: number, now: number, via: number, bucket: number): number {
+    this.room(this.count + 1);
+    const record = this.count++;
+    this.unit[record] = unit;
+    this.part[record] = part;
+    this.qty[record] = qty;
+    this.now[record] = now;
+    this.via[record] = via;
+    this.bucket[record] = bucket;
+    return record;
+  }
+
+  /** Appends records start … end - 1 of `from`. */
+  copy(from: LackRecords, start: number, end: number): void {
+    if (end <= start) return;
+    this.room(this.count + end - start);
+    this.unit.set(from.unit.subarray(start, end), this.count);
+    this.part.set(from.part.subarray(start, end), this.count);
+    this.qty.set(from.qty.subarray(start, end), this.count);
+    this.now.set(from.now.subarray(start, end), this.count);
+    this.via.set(from.via.subarray(start, end), this.count);
+    this.bucket.set(from.bucket.subarray(start, end), this.count);
+    this.count += end - start;
+  }
+
+  /** The records written, without copying. */
+  done(): LackRecords {
+    const { count } = this;
+    return {
+      count,
+      unit: this.unit.subarray(0, count),
+      part: this.part.subarray(0, count),
+      qty: this.qty.subarray(0, count),
+      now: this.now.subarray(0, count),
+      via: this.via.subarray(0, count),
+      bucket: this.bucket.subarray(0, count),
+    };
+  }
+
+  private room(size: number): void {
+    if (size <= this.unit.length) return;
+    const capacity = Math.max(size, this.unit.length * 2);
+    const grow = <T extends Int32Array | Float64Array | Uint8Array>(values: T, make: (size: number) => T): T => {
+      const grown = make(capacity);
+      grown.set(values);
+      return grown;
+    };
+    this.unit = grow(this.unit, (size) => new Int32Array(size));
+    this.part = grow(this.part, (size) => new Int32Array(size));
+    this.qty = grow(this.qty, (size) => new Float64Array(size));
+    this.now = grow(this.now, (size) => new Uint8Array(size));
+    this.via = grow(this.via, (size) => new Int32Array(size));
+    this.bucket = grow(this.bucket, (size) => new Int32Array(size));
+  }
+}
+
 export interface LineRiskRunParts {
   header: Omit<LineRiskResult, 'unitsAtRisk' | 'shortages'>;
   /** The units of the horizon in build order. */

@@ -1,6 +1,6 @@
-import { Exploder, StockLedger, stillHolds, type Explosion } from './line-risk-explosion';
-import { LineRiskRun, type ShortPartFigures } from './line-risk-run';
-import { byteColumn, floatColumn, intColumn } from './typed-column';
+import { Exploder, StockLedger, stillHolds, type Explosion, type NeedGroups } from './line-risk-explosion';
+import { LackRecordWriter, LineRiskRun, type LackRecords, type ShortPartFigures } from './line-risk-run';
+import { intColumn } from './typed-column';
 import { BOUGHT, buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
@@ -200,6 +200,56 @@ function compareText(a: string, b: string): number {
 }
 
 /**
+ * Walks the build sequence over [from, to], promising supply to units in build order; returns the
+ * units that cannot be built, the short parts with their action, dated need and units stopped, and
+ * a rescue per part. Throws PlanInputError for unusable input and BomCycleError for a cyclic BOM.
+ */
+export function computeLineRisk(input: LineRiskInput): LineRiskResult {
+  return walkLineRisk(input).result();
+}
+
+/**
+ * The same walk, its units and slots at risk kept as records: what the server keeps, summarises
+ * and pages (a large plant's full answer runs to hundreds of thousands of slots).
+ */
+export function walkLineRisk(input: LineRiskInput): LineRiskRun {
+  return walkAll(input).run;
+}
+
+/** How a walk went: every unit walked, only the parts whose supply changed walked again, or the last walk's units and slots kept whole. */
+export type WalkKind = 'full' | 'parts' | 'kept';
+
+/**
+ * Walks line risk again and again over changing planning data (the server's worker), keeping what
+ * the last walk found. Most changes between two walks are stock: a count, a receipt, firm receipts
+ * of a few bought parts. Units then keep their verdicts unless one of those parts decides one, so
+ * only those parts' rows are walked again, against the verdicts found before, and the walk is done
+ * in full whenever a verdict would change, a resequence rescue depends on those parts, or anything
+ * else changed. Either way the answer is exactly the full walk's.
+ */
+export class LineRiskWalker {
+  private last: Walked | null = null;
+  /** How the last walk went. */
+  lastKind: WalkKind = 'full';
+
+  walk(input: LineRiskInput): LineRiskRun {
+    const previous = this.last;
+    // Dropped first: if this walk throws, the next one starts afresh.
+    this.last = null;
+    let again: ReturnType<typeof walkAgain> = null;
+    try {
+      again = previous && walkAgain(previous, input);
+    } catch {
+      // The full walk below reports whatever is wrong with the input.
+    }
+    const done = again ?? { ...walkAll(input), kind: 'full' as const };
+    this.last = done.walked;
+    this.lastKind = done.kind;
+    return done.run;
+  }
+}
+
+/**
  * Explosions against one ledger, kept by model, quantity and day: a unit reuses the one made for
  * an earlier unit as long as it still holds (no row it read has been committed to since).
  */
@@ -224,97 +274,16 @@ class ExplosionCache {
 }
 
 /**
- * Walks the build sequence over [from, to], promising supply to units in build order; returns the
- * units that cannot be built, the short parts with their action, dated need and units stopped, and
- * a rescue per part. Throws PlanInputError for unusable input and BomCycleError for a cyclic BOM.
+ * The resequence rescue of a unit at risk, against the build ledger as it stands at the unit's
+ * turn: the first later unit, same or next working day, of another model whose parts are all free.
  */
-export function computeLineRisk(input: LineRiskInput): LineRiskResult {
-  return walkLineRisk(input).result();
-}
-
-/**
- * The same walk, its units and slots at risk kept as records: what the server keeps, summarises
- * and pages (a large plant's full answer runs to hundreds of thousands of slots).
- */
-export function walkLineRisk(input: LineRiskInput): LineRiskRun {
-  const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
-  const { calendar, dayNumbers, indexOf } = model;
-  const days = model.days.length;
-  const { parts } = input;
-  if (days > 0 && dayNumbers[days - 1] - dayNumbers[0] + 1 > MAX_LINE_RISK_CALENDAR_DAYS) {
-    throw new PlanInputError(`Horizon ${input.from} … ${input.to} is longer than ${MAX_LINE_RISK_CALENDAR_DAYS} days`);
-  }
-  const countable = parts.map((part) => COUNTABLE_UNITS.has(part.uom ?? 'H87'));
-  const wholeIfCountable = (part: number, qty: number) => (countable[part] ? Math.ceil(qty - epsilon) : roundQty(qty));
-  // Parts by part number, and each part's place in that order.
-  const partAtRank = Int32Array.from(
-    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
-  );
-  const rankOf = new Int32Array(parts.length);
-  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
-
-  const ordered = orderSlots(input.sequence, model);
-  const rowBase = rowsByUse(model, ordered);
-  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, rowBase);
-  const exploder = new Exploder(model);
-
-  // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
-
-  // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
-  // Only made stock is committed here, so a unit reuses the explosion of an earlier unit of the
-  // same model, quantity and day until a made part that explosion read is taken.
-  const probe = madeStockLedger(model, cumulativeSupply, rowBase);
-  const probed = new ExplosionCache(exploder, probe, false);
-  const requiredByDay = new Float64Array(parts.length * days);
-  const explosions = ordered.map((entry) => {
-    const explosion = probed.get(entry.model, entry.slot.qty, entry.bucket);
-    const { needPart, needBucket, needQty, takePart, takeBucket, takeQty } = explosion;
-    for (let take = 0; take < explosion.takeCount; take += 1)
-      probe.commit(takePart[take], takeBucket[take], takeQty[take]);
-    for (let need = 0; need < explosion.needCount; need += 1) {
-      requiredByDay[rowBase[needPart[need]] + needBucket[need]] += needQty[need];
-    }
-    return explosion;
-  });
-  const loopByPart = new Map<number, LoopSupply>();
-  for (const loop of input.loops ?? []) {
-    const part = indexOf.get(loop.partNumber);
-    if (part !== undefined && parts[part].replenishment === 'kanban') loopByPart.set(part, loop);
-  }
-  for (const [part, loop] of loopByPart) {
-    pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, requiredByDay, cumulativeSupply);
-  }
-  // Made parts only supply their own stock; nothing is ordered for them here.
-
-  // --- The walk ---
-
-  // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
-  const build = new StockLedger(days, cumulativeSupply, rowBase);
-  const againstBuild = new ExplosionCache(exploder, build, true);
-  const queue = new StockLedger(days, cumulativeSupply, rowBase);
-  const risks: (PartRisk | undefined)[] = new Array(parts.length);
-  const riskOrder: number[] = [];
-  const records = {
-    unit: intColumn(1024),
-    part: intColumn(1024),
-    qty: floatColumn(1024),
-    now: byteColumn(1024),
-    via: intColumn(1024),
-    bucket: intColumn(1024),
-  };
-  const atRiskUnit = intColumn();
-  const atRiskFirst = intColumn();
-  const atRiskCount = intColumn();
-  const unitResequence = new Map<number, ResequenceOption | null>();
-  let unitsBuilt = 0;
-
+function resequenceFinder(ordered: readonly OrderedSlot[], againstBuild: ExplosionCache, partCount: number) {
   // Each model and quantity is tried once per search: the model's first quantity is kept by search
   // number, any other in a set (units of one model rarely differ in quantity).
-  const triedIn = new Int32Array(parts.length);
-  const triedQty = new Float64Array(parts.length);
+  const triedIn = new Int32Array(partCount);
+  const triedQty = new Float64Array(partCount);
   let search = 0;
-  /** The first later unit, same or next working day, of another model whose parts are all free now. */
-  function findResequence(position: number): ResequenceOption | null {
+  return (position: number): ResequenceOption | null => {
     const atRisk = ordered[position];
     search += 1;
     let triedOther: Set<string> | null = null;
@@ -339,7 +308,201 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       }
     }
     return null;
+  };
+}
+
+/**
+ * Each short part's first slot, in the order parts first fall short, with the resequence rescue
+ * of its unit: worked out once per unit at risk, at its turn (the unit takes nothing, so the
+ * stock stands as it did), when it first holds a part's first slot.
+ */
+class Risks {
+  readonly byPart: (PartRisk | undefined)[];
+  readonly order: number[] = [];
+  /** By index among the units at risk. */
+  readonly resequence = new Map<number, ResequenceOption | null>();
+
+  constructor(
+    partCount: number,
+    private readonly find: (position: number) => ResequenceOption | null,
+  ) {
+    this.byPart = new Array(partCount);
   }
+
+  /** Record `record` lacks `part` for the unit at `position`; `atRiskIndex` is -1 for a unit built. */
+  note(part: number, record: number, position: number, atRiskIndex: number): void {
+    if (this.byPart[part]) return;
+    let resequence: ResequenceOption | null = null;
+    if (atRiskIndex >= 0) {
+      const found = this.resequence.get(atRiskIndex);
+      resequence = found === undefined ? this.find(position) : found;
+      this.resequence.set(atRiskIndex, resequence);
+    }
+    this.byPart[part] = { firstRecord: record, resequence };
+    this.order.push(part);
+  }
+}
+
+/** What a walk keeps for the next one (see LineRiskWalker). */
+interface Walked {
+  input: LineRiskInput;
+  model: PlanModel;
+  /** On-hand per part as this walk used it. */
+  onHand: Float64Array;
+  ordered: OrderedSlot[];
+  rowBase: Int32Array;
+  countable: Uint8Array;
+  rankOf: Int32Array;
+  /** Each unit's explosion against made stock alone, its needs grouped by part (the queue view's). */
+  probed: Explosion[];
+  requiredByDay: Float64Array;
+  /** Supply per part and day as walked (loops pulled). */
+  supply: Float64Array;
+  exploder: Exploder;
+  /** Per unit in build order: the explosion its verdict came from, the verdict, its index among the units at risk (or -1). */
+  judged: Explosion[];
+  built: Uint8Array;
+  atRiskIndex: Int32Array;
+  atRiskUnit: Int32Array;
+  unitsBuilt: number;
+  records: LackRecords;
+  /** The records of the unit at position u are unitStart[u] … unitStart[u + 1] - 1. */
+  unitStart: Int32Array;
+  risks: Risks;
+}
+
+/** A countable part (pieces, sets, pairs) is never short by a fraction. */
+function wholeIfCountable(countable: Uint8Array, part: number, qty: number): number {
+  return countable[part] === 1 ? Math.ceil(qty - epsilon) : roundQty(qty);
+}
+
+/** The kanban loops that supply their part, by part index. */
+function loopSupplies(input: LineRiskInput, model: PlanModel): Map<number, LoopSupply> {
+  const loopByPart = new Map<number, LoopSupply>();
+  for (const loop of input.loops ?? []) {
+    const part = model.indexOf.get(loop.partNumber);
+    if (part !== undefined && input.parts[part].replenishment === 'kanban') loopByPart.set(part, loop);
+  }
+  return loopByPart;
+}
+
+/**
+ * The queue view of one part a unit needs (group `group` of its needs): what it lacks once the
+ * units ahead are served, whatever the unit's other parts do; 0 when it lacks nothing, and then
+ * its needs are committed.
+ */
+function queueLack(queue: StockLedger, groups: NeedGroups, group: number, explosion: Explosion): number {
+  const { cells, least: leastOf, days } = queue;
+  const first = groups.start[group];
+  const end = groups.start[group + 1];
+  const base = groups.base[group];
+  if (end - first === 1) {
+    // Most parts are needed once per unit.
+    const qty = groups.firstQty[group];
+    const bucket = groups.firstBucket[group];
+    const lack = Math.max(0, qty - Math.max(0, leastOf[base + bucket]));
+    if (lack > epsilon) return lack;
+    queue.commitRow(base, bucket, qty);
+    return 0;
+  }
+  // Each need of the part after the first finds the unit's earlier needs of it already held.
+  const { needBucket, needQty } = explosion;
+  let lack = 0;
+  let heldSum = 0;
+  let heldLatest = -1;
+  for (let index = first; index < end; index += 1) {
+    const need = groups.needs[index];
+    const bucket = needBucket[need];
+    let free: number;
+    if (index === first) free = leastOf[base + bucket];
+    else if (heldLatest <= bucket) free = roundQty(leastOf[base + bucket] - heldSum);
+    else {
+      let least = Infinity;
+      for (let t = bucket; t < days; t += 1) {
+        let value = cells[base + t];
+        for (let held = first; held < index; held += 1)
+          if (needBucket[groups.needs[held]] <= t) value -= needQty[groups.needs[held]];
+        if (value < least) least = value;
+      }
+      free = roundQty(least);
+    }
+    lack += Math.max(0, needQty[need] - Math.max(0, free));
+    heldSum += needQty[need];
+    if (bucket > heldLatest) heldLatest = bucket;
+  }
+  if (lack > epsilon) return lack;
+  for (let index = first; index < end; index += 1) {
+    const need = groups.needs[index];
+    queue.commitRow(base, needBucket[need], needQty[need]);
+  }
+  return 0;
+}
+
+/** Every unit walked. */
+function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
+  const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+  const { dayNumbers } = model;
+  const days = model.days.length;
+  const { parts } = input;
+  if (days > 0 && dayNumbers[days - 1] - dayNumbers[0] + 1 > MAX_LINE_RISK_CALENDAR_DAYS) {
+    throw new PlanInputError(`Horizon ${input.from} … ${input.to} is longer than ${MAX_LINE_RISK_CALENDAR_DAYS} days`);
+  }
+  const countable = Uint8Array.from(parts, (part) => (COUNTABLE_UNITS.has(part.uom ?? 'H87') ? 1 : 0));
+  // Parts by part number, and each part's place in that order.
+  const partAtRank = Int32Array.from(
+    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
+  );
+  const rankOf = new Int32Array(parts.length);
+  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
+
+  const ordered = orderSlots(input.sequence, model);
+  const rowBase = rowsByUse(model, ordered);
+  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(
+    input.firmReceipts,
+    model,
+    rowBase,
+    model.onHand,
+  );
+  const exploder = new Exploder(model);
+
+  // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
+
+  // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
+  // Only made stock is committed here, so a unit reuses the explosion of an earlier unit of the
+  // same model, quantity and day until a made part that explosion read is taken.
+  const probe = madeStockLedger(model, cumulativeSupply, rowBase);
+  const probed = new ExplosionCache(exploder, probe, false);
+  const requiredByDay = new Float64Array(parts.length * days);
+  const explosions = ordered.map((entry) => {
+    const explosion = probed.get(entry.model, entry.slot.qty, entry.bucket);
+    const { needPart, needBucket, needQty, takePart, takeBucket, takeQty } = explosion;
+    for (let take = 0; take < explosion.takeCount; take += 1)
+      probe.commit(takePart[take], takeBucket[take], takeQty[take]);
+    for (let need = 0; need < explosion.needCount; need += 1) {
+      requiredByDay[rowBase[needPart[need]] + needBucket[need]] += needQty[need];
+    }
+    return explosion;
+  });
+  const loopByPart = loopSupplies(input, model);
+  for (const [part, loop] of loopByPart) {
+    pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, requiredByDay, cumulativeSupply);
+  }
+  // Made parts only supply their own stock; nothing is ordered for them here.
+
+  // --- The walk ---
+
+  // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
+  const build = new StockLedger(days, cumulativeSupply, rowBase);
+  const againstBuild = new ExplosionCache(exploder, build, true);
+  const queue = new StockLedger(days, cumulativeSupply, rowBase);
+  const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
+  const records = new LackRecordWriter(1024);
+  const atRiskUnit = intColumn();
+  const judged: Explosion[] = new Array(ordered.length);
+  const built = new Uint8Array(ordered.length);
+  const atRiskIndex = new Int32Array(ordered.length).fill(-1);
+  const unitStart = new Int32Array(ordered.length + 1);
+  let unitsBuilt = 0;
 
   // The parts a unit lacks behind the units ahead of it (queue view), as group indices and quantities.
   const behindGroup = new Int32Array(parts.length);
@@ -357,66 +520,19 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
    */
   function queueLacks(explosion: Explosion): number {
     const groups = exploder.needGroups(explosion, rowBase);
-    const { needBucket, needQty } = explosion;
-    const { cells, least: leastOf } = queue;
-    const { start, base: baseOf, firstBucket, firstQty } = groups;
     let count = 0;
     for (let group = 0; group < groups.count; group += 1) {
-      const first = start[group];
-      const end = start[group + 1];
-      const base = baseOf[group];
-      let lack = 0;
-      if (end - first === 1) {
-        // Most parts are needed once per unit.
-        const qty = firstQty[group];
-        const bucket = firstBucket[group];
-        lack = Math.max(0, qty - Math.max(0, leastOf[base + bucket]));
-        if (lack <= epsilon) {
-          queue.commitRow(base, bucket, qty);
-          continue;
-        }
-      } else {
-        // Each need of the part after the first finds the unit's earlier needs of it already held.
-        let heldSum = 0;
-        let heldLatest = -1;
-        for (let index = first; index < end; index += 1) {
-          const need = groups.needs[index];
-          const bucket = needBucket[need];
-          let free: number;
-          if (index === first) free = leastOf[base + bucket];
-          else if (heldLatest <= bucket) free = roundQty(leastOf[base + bucket] - heldSum);
-          else {
-            let least = Infinity;
-            for (let t = bucket; t < days; t += 1) {
-              let value = cells[base + t];
-              for (let held = first; held < index; held += 1)
-                if (needBucket[groups.needs[held]] <= t) value -= needQty[groups.needs[held]];
-              if (value < least) least = value;
-            }
-            free = roundQty(least);
-          }
-          lack += Math.max(0, needQty[need] - Math.max(0, free));
-          heldSum += needQty[need];
-          if (bucket > heldLatest) heldLatest = bucket;
-        }
-      }
-      if (lack > epsilon) {
-        const part = groups.part[group];
-        behindGroup[count] = group;
-        behindQty[count] = roundQty(lack);
-        behindIndex[part] = count;
-        count += 1;
-      } else {
-        for (let index = first; index < end; index += 1) {
-          const need = groups.needs[index];
-          queue.commitRow(base, needBucket[need], needQty[need]);
-        }
-      }
+      const lack = queueLack(queue, groups, group, explosion);
+      if (lack === 0) continue;
+      behindGroup[count] = group;
+      behindQty[count] = roundQty(lack);
+      behindIndex[groups.part[group]] = count;
+      count += 1;
     }
     return count;
   }
 
-  /** A slot of `part` for the unit at `position`; the first unit at risk of a part works out its resequence rescue. */
+  /** A slot of `part` for the unit at `position` (`atRisk`: its index among the units at risk, or -1). */
   function addSlot(
     part: number,
     position: number,
@@ -424,22 +540,13 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
     now: boolean,
     via: number,
     bucket: number,
-    resequence: () => ResequenceOption | null,
+    atRisk: number,
   ) {
-    const record = records.unit.push(position);
-    records.part.push(part);
-    records.qty.push(qty);
-    records.now.push(now ? 1 : 0);
-    records.via.push(via);
-    records.bucket.push(bucket);
-    if (!risks[part]) {
-      risks[part] = { firstRecord: record, resequence: resequence() };
-      riskOrder.push(part);
-    }
+    risks.note(part, records.push(position, part, qty, now ? 1 : 0, via, bucket), position, atRisk);
   }
 
-  const noResequence = () => null;
   ordered.forEach((entry, position) => {
+    unitStart[position] = records.count;
     const stamp = position + 1;
     const mine = explosions[position];
     // The queue view runs for every unit: a part can stop a unit that is buildable now only
@@ -450,6 +557,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
     const firstNeedOf = (index: number) => groups.needs[groups.start[behindGroup[index]]];
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
     const explosion = againstBuild.get(entry.model, entry.slot.qty, entry.bucket);
+    judged[position] = explosion;
     if (explosion.lackCount === 0) {
       for (let need = 0; need < explosion.needCount; need += 1) {
         build.commit(explosion.needPart[need], explosion.needBucket[need], explosion.needQty[need]);
@@ -457,26 +565,18 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       for (let take = 0; take < explosion.takeCount; take += 1) {
         build.commit(explosion.takePart[take], explosion.takeBucket[take], explosion.takeQty[take]);
       }
+      built[position] = 1;
       unitsBuilt += 1;
       for (let index = 0; index < behindCount; index += 1) {
         const part = groups.part[behindGroup[index]];
         const need = firstNeedOf(index);
-        const qty = wholeIfCountable(part, behindQty[index]);
-        addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], noResequence);
+        const qty = wholeIfCountable(countable, part, behindQty[index]);
+        addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], -1);
       }
       return;
     }
     const unitIndex = atRiskUnit.push(position);
-    atRiskFirst.push(records.unit.length);
-    // The unit took nothing, so the stock stands exactly as it did at its turn.
-    const resequence = () => {
-      let option = unitResequence.get(unitIndex);
-      if (option === undefined) {
-        option = findResequence(position);
-        unitResequence.set(unitIndex, option);
-      }
-      return option;
-    };
+    atRiskIndex[position] = unitIndex;
     // What it lacks now first, then what it lacks only behind the units ahead; each by part number.
     let ranks = 0;
     for (let lack = 0; lack < explosion.lackCount; lack += 1) {
@@ -496,20 +596,224 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       const part = partAtRank[rankScratch[index]];
       if (index < nowCount) {
         const lack = nowIndex[part];
-        const qty = wholeIfCountable(part, explosion.lackQty[lack]);
-        addSlot(part, position, qty, true, explosion.lackVia[lack], explosion.lackBucket[lack], resequence);
+        const qty = wholeIfCountable(countable, part, explosion.lackQty[lack]);
+        addSlot(part, position, qty, true, explosion.lackVia[lack], explosion.lackBucket[lack], unitIndex);
       } else {
         const behind = behindIndex[part];
         const need = firstNeedOf(behind);
-        const qty = wholeIfCountable(part, behindQty[behind]);
-        addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], resequence);
+        const qty = wholeIfCountable(countable, part, behindQty[behind]);
+        addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], unitIndex);
       }
     }
-    atRiskCount.push(ranks);
   });
+  unitStart[ordered.length] = records.count;
 
-  // --- Figures per short part ---
+  const walked: Walked = {
+    input,
+    model,
+    onHand: model.onHand,
+    ordered,
+    rowBase,
+    countable,
+    rankOf,
+    probed: explosions,
+    requiredByDay,
+    supply: cumulativeSupply,
+    exploder,
+    judged,
+    built,
+    atRiskIndex,
+    atRiskUnit: atRiskUnit.done(),
+    unitsBuilt,
+    records: records.done(),
+    unitStart,
+    risks,
+  };
+  const run = finish(walked, { firmReceiptQty, loopByPart });
+  return { run, walked };
+}
 
+/**
+ * The walk after a change, reusing the last one when only bought parts' supply changed (their
+ * on-hand, firm receipts or loops); null when it must be walked in full.
+ */
+function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: WalkKind } | null {
+  const before = last.input;
+  if (
+    input.from !== before.from ||
+    input.to !== before.to ||
+    input.bom !== before.bom ||
+    input.sequence !== before.sequence ||
+    input.calendar !== before.calendar ||
+    input.parts.length !== before.parts.length
+  ) {
+    return null;
+  }
+  const { model, rowBase } = last;
+  const { parts } = input;
+  let onHand = last.onHand;
+  for (let part = 0; part < parts.length; part += 1) {
+    const now = parts[part];
+    const then = before.parts[part];
+    if (now === then) continue;
+    if (!sameBesideStock(then, now)) return null;
+    if (now.onHand !== then.onHand) {
+      if (model.source[part] !== BOUGHT || !Number.isFinite(now.onHand)) return null;
+      if (onHand === last.onHand) onHand = onHand.slice();
+      onHand[part] = now.onHand;
+    }
+  }
+  const days = model.days.length;
+  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, rowBase, onHand);
+  const loopByPart = loopSupplies(input, model);
+  for (const [part, loop] of loopByPart) {
+    pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, last.requiredByDay, cumulativeSupply);
+  }
+  // Made stock decides every unit's explosion: a change there is walked in full.
+  const changed: number[] = [];
+  for (let part = 0; part < parts.length; part += 1) {
+    const base = rowBase[part];
+    for (let t = 0; t < days; t += 1) {
+      if (cumulativeSupply[base + t] === last.supply[base + t]) continue;
+      if (model.source[part] !== BOUGHT) return null;
+      changed.push(part);
+      break;
+    }
+  }
+  let walked: Walked = { ...last, input, onHand, supply: cumulativeSupply };
+  if (changed.length > 0) {
+    const inChanged = new Uint8Array(parts.length);
+    for (const part of changed) inChanged[part] = 1;
+    const replayed = replayParts(walked, inChanged);
+    if (!replayed) return null;
+    walked = { ...walked, ...replayed };
+  }
+  const run = finish(walked, { firmReceiptQty, loopByPart });
+  return { run, walked, kind: changed.length > 0 ? 'parts' : 'kept' };
+}
+
+/** Two versions of a part alike but for its stock (on-hand, whether a count is due). */
+function sameBesideStock(before: LineRiskPart, after: LineRiskPart): boolean {
+  const keys = Object.keys(after) as (keyof LineRiskPart)[];
+  if (Object.keys(before).length !== keys.length) return false;
+  return keys.every((key) => key === 'onHand' || key === 'countDue' || before[key] === after[key]);
+}
+
+/**
+ * The queue and build views of the changed parts walked again, every unit keeping its verdict, and
+ * the records made again with theirs; each resequence search made again at its unit's turn; null
+ * when a changed part would change a verdict.
+ */
+function replayParts(walked: Walked, inChanged: Uint8Array): Pick<Walked, 'records' | 'unitStart' | 'risks'> | null {
+  const { model, rowBase, ordered, probed, judged, built, exploder, countable, rankOf, supply } = walked;
+  const old = walked.records;
+  const days = model.days.length;
+  // The queue view is per part: the changed parts' rows alone. The build ledger holds every row:
+  // resequence searches read every part.
+  const queue = new StockLedger(days, supply, rowBase, inChanged);
+  const build = new StockLedger(days, supply, rowBase);
+  const partCount = model.source.length;
+  const risks = new Risks(partCount, resequenceFinder(ordered, new ExplosionCache(exploder, build, true), partCount));
+  const records = new LackRecordWriter(old.count + 1024);
+  const unitStart = new Int32Array(ordered.length + 1);
+  const behindGroup: number[] = [];
+  const behindQty: number[] = [];
+  const groupOf = new Int32Array(model.source.length);
+  for (let position = 0; position < ordered.length; position += 1) {
+    unitStart[position] = records.count;
+    const mine = probed[position];
+    const groups = mine.groups!;
+    behindGroup.length = 0;
+    behindQty.length = 0;
+    for (let group = 0; group < groups.count; group += 1) {
+      if (inChanged[groups.part[group]] !== 1) continue;
+      const lack = queueLack(queue, groups, group, mine);
+      if (lack === 0) continue;
+      behindGroup.push(group);
+      behindQty.push(roundQty(lack));
+    }
+    const explosion = judged[position];
+    const lacks = exploder.lacksOf(build, explosion, inChanged);
+    const oldFirst = walked.unitStart[position];
+    const oldEnd = walked.unitStart[position + 1];
+    if (built[position] === 1) {
+      if (lacks.count > 0) return null;
+      for (let need = 0; need < explosion.needCount; need += 1) {
+        build.commit(explosion.needPart[need], explosion.needBucket[need], explosion.needQty[need]);
+      }
+      for (let take = 0; take < explosion.takeCount; take += 1) {
+        build.commit(explosion.takePart[take], explosion.takeBucket[take], explosion.takeQty[take]);
+      }
+    } else {
+      let lacking = lacks.count;
+      for (let record = oldFirst; record < oldEnd && lacking === 0; record += 1) {
+        if (old.now[record] === 1 && inChanged[old.part[record]] !== 1) lacking += 1;
+      }
+      if (lacking === 0) return null;
+    }
+    let touched = behindGroup.length > 0 || lacks.count > 0;
+    for (let record = oldFirst; record < oldEnd && !touched; record += 1) touched = inChanged[old.part[record]] === 1;
+    if (!touched) {
+      const first = records.count;
+      records.copy(old, oldFirst, oldEnd);
+      for (let record = oldFirst; record < oldEnd; record += 1) {
+        risks.note(old.part[record], first + record - oldFirst, position, walked.atRiskIndex[position]);
+      }
+      continue;
+    }
+    // The unit's records in the walk's order: a built unit's by its need groups; a unit at risk's
+    // those it lacks now, then those it lacks behind, each by part number.
+    const atRisk = built[position] === 0;
+    for (let group = 0; group < groups.count; group += 1) groupOf[groups.part[group]] = group;
+    const partCount = model.source.length;
+    const keyOf = (part: number, now: number) => (atRisk ? (1 - now) * partCount + rankOf[part] : groupOf[part]);
+    const entries: { key: number; part: number; qty: number; now: number; via: number; bucket: number }[] = [];
+    for (let record = oldFirst; record < oldEnd; record += 1) {
+      const part = old.part[record];
+      if (inChanged[part] === 1) continue;
+      const now = old.now[record];
+      entries.push({
+        key: keyOf(part, now),
+        part,
+        qty: old.qty[record],
+        now,
+        via: old.via[record],
+        bucket: old.bucket[record],
+      });
+    }
+    const lacksNow = new Set<number>();
+    for (let lack = 0; lack < lacks.count; lack += 1) {
+      const part = lacks.part[lack];
+      lacksNow.add(part);
+      const qty = wholeIfCountable(countable, part, lacks.qty[lack]);
+      entries.push({ key: keyOf(part, 1), part, qty, now: 1, via: lacks.via[lack], bucket: lacks.bucket[lack] });
+    }
+    behindGroup.forEach((group, index) => {
+      const part = groups.part[group];
+      if (lacksNow.has(part)) return;
+      const need = groups.needs[groups.start[group]];
+      const qty = wholeIfCountable(countable, part, behindQty[index]);
+      entries.push({ key: keyOf(part, 0), part, qty, now: 0, via: mine.needVia[need], bucket: mine.needBucket[need] });
+    });
+    entries.sort((a, b) => a.key - b.key);
+    for (const entry of entries) {
+      const record = records.push(position, entry.part, entry.qty, entry.now, entry.via, entry.bucket);
+      risks.note(entry.part, record, position, walked.atRiskIndex[position]);
+    }
+  }
+  unitStart[ordered.length] = records.count;
+  return { records: records.done(), unitStart, risks };
+}
+
+/** The short parts' figures, and the run. */
+function finish(
+  walked: Walked,
+  found: { firmReceiptQty: Float64Array; loopByPart: Map<number, LoopSupply> },
+): LineRiskRun {
+  const { input, model, ordered, records, rowBase, requiredByDay, supply, countable, unitStart } = walked;
+  const { parts } = input;
+  const { calendar, dayNumbers } = model;
+  const days = model.days.length;
   const today = input.today ?? input.from;
   const todayDay = requireDate(model.dayNumberOf(today), today, 'Today');
   const frozenWindowDays = Math.max(0, Math.floor(input.frozenWindowDays ?? DEFAULT_FROZEN_WINDOW_DAYS));
@@ -524,12 +828,13 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   };
 
   const shortages: { figures: ShortPartFigures; part: number }[] = [];
-  for (const part of riskOrder) {
-    const risk = risks[part]!;
-    const firstSlot = ordered[records.unit.values[risk.firstRecord]].slot;
-    const firstLackQty = records.qty.values[risk.firstRecord];
-    const projection = needSchedule(rowBase[part], model.days, requiredByDay, cumulativeSupply, (qty) =>
-      wholeIfCountable(part, qty),
+  const { risks } = walked;
+  for (const part of risks.order) {
+    const risk = risks.byPart[part]!;
+    const firstSlot = ordered[records.unit[risk.firstRecord]].slot;
+    const firstLackQty = records.qty[risk.firstRecord];
+    const projection = needSchedule(rowBase[part], model.days, requiredByDay, supply, (qty) =>
+      wholeIfCountable(countable, part, qty),
     );
     const first =
       projection.firstShort >= 0
@@ -541,7 +846,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
     const shortQty = roundQty(needBy.reduce((sum, entry) => sum + entry.qty, 0));
     const leadTimeDays = shortPart.leadTimeDays;
     const lastArrivalInLeadTime = calendar.addWorking(calendar.nextWorking(todayDay), leadTimeDays);
-    const loop = loopByPart.get(part);
+    const loop = found.loopByPart.get(part);
     const action: ShortageAction = loop
       ? 'loop'
       : shortPart.countDue || shortPart.onHand < 0
@@ -559,7 +864,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       releaseBy: action === 'release' ? fromDayNumber(calendar.addWorking(firstShortDay, -leadTimeDays)) : null,
       leadTimeDays,
       onHand: shortPart.onHand,
-      firmReceiptQty: roundQty(firmReceiptQty[part]),
+      firmReceiptQty: roundQty(found.firmReceiptQty[part]),
       daysUntilImpact: workingDaysAfterToday(firstShortDay),
       inFrozenWindow: frozenEnd !== null && firstShortDay <= frozenEnd,
       loop: loop ? { activeCards: loop.activeCards, recommendedCards: loop.recommendedCards } : null,
@@ -575,6 +880,7 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       compareText(a.partNumber, b.partNumber),
   );
 
+  const { atRiskUnit } = walked;
   return new LineRiskRun({
     header: {
       from: input.from,
@@ -584,23 +890,15 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
       frozenWindowDays,
       frozenUntil: frozenEnd === null ? null : fromDayNumber(frozenEnd),
       unitsInHorizon: ordered.length,
-      unitsBuilt,
+      unitsBuilt: walked.unitsBuilt,
     },
     units: ordered.map((entry) => entry.slot),
     partNumbers: parts.map((part) => part.partNumber),
-    records: {
-      count: records.unit.length,
-      unit: records.unit.done(),
-      part: records.part.done(),
-      qty: records.qty.done(),
-      now: records.now.done(),
-      via: records.via.done(),
-      bucket: records.bucket.done(),
-    },
-    atRiskUnit: atRiskUnit.done(),
-    atRiskFirst: atRiskFirst.done(),
-    atRiskCount: atRiskCount.done(),
-    resequence: unitResequence,
+    records,
+    atRiskUnit,
+    atRiskFirst: atRiskUnit.map((position) => unitStart[position]),
+    atRiskCount: atRiskUnit.map((position) => unitStart[position + 1] - unitStart[position]),
+    resequence: risks.resequence,
     shortages: shortages.map((shortage) => shortage.figures),
     shortParts: Int32Array.from(shortages.map((shortage) => shortage.part)),
   });
@@ -671,7 +969,12 @@ function madeStockLedger(model: PlanModel, cumulativeSupply: Float64Array, rowBa
 }
 
 /** On-hand plus firm receipts by day, cumulated per part (late receipts count on the first day). */
-function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, rowBase: Int32Array) {
+function firmSupply(
+  receipts: readonly ScheduledReceipt[],
+  model: PlanModel,
+  rowBase: Int32Array,
+  onHand: Float64Array,
+) {
   const days = model.days.length;
   const partCount = rowBase.length;
   const receiptsByDay = new Float64Array(partCount * days);
@@ -691,7 +994,7 @@ function firmSupply(receipts: readonly ScheduledReceipt[], model: PlanModel, row
   const cumulativeSupply = new Float64Array(partCount * days);
   for (let part = 0; part < partCount; part += 1) {
     const base = rowBase[part];
-    let cumulative = model.source[part] === 2 ? 0 : model.onHand[part];
+    let cumulative = model.source[part] === 2 ? 0 : onHand[part];
     for (let t = 0; t < days; t += 1) {
       cumulative += receiptsByDay[base + t];
       cumulativeSupply[base + t] = roundQty(cumulative);

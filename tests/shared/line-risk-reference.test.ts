@@ -3,7 +3,9 @@ import { describe, expect, it } from 'vitest';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import {
   computeLineRisk,
+  LineRiskWalker,
   walkLineRisk,
+  type WalkKind,
   type LineRiskInput,
   type LineRiskPart,
   type LoopSupply,
@@ -215,4 +217,157 @@ describe('computeLineRisk against the plain walk', () => {
     expect(atRisk).toBeGreaterThan(50);
     expect(taking).toBeGreaterThan(50);
   });
+
+  it('walks again after stock changes exactly as a walk afresh would', () => {
+    // The walker keeps its last walk and, after a change to bought parts' supply alone, walks only
+    // those parts again; any other change is walked in full. Every answer must be the plain walk's.
+    const change = fc.record({
+      kind: fc.constantFrom('stock', 'stock', 'stock', 'count', 'receipt', 'dropReceipt', 'loop', 'made', 'sequence'),
+      pick: fc.nat(),
+      qty: fc.integer({ min: -4, max: 9 }),
+      day: fc.integer({ min: -2, max: 18 }),
+    });
+    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, kept: 0 };
+    fc.assert(
+      fc.property(plantArbitrary, fc.array(change, { minLength: 1, maxLength: 6 }), (plant, changes) => {
+        const walker = new LineRiskWalker();
+        let input = plant;
+        expect(walker.walk(input).result()).toEqual(referenceLineRisk(input));
+        for (const step of changes) {
+          input = changed(input, step);
+          expect(walker.walk(input).result()).toEqual(referenceLineRisk(input));
+          kinds[walker.lastKind] += 1;
+        }
+      }),
+      { numRuns: 1000 },
+    );
+    // Guards the generator: each way of walking again must have been compared, and often.
+    console.log(kinds);
+    expect(kinds.parts).toBeGreaterThan(100);
+    expect(kinds.kept).toBeGreaterThan(50);
+    expect(kinds.full).toBeGreaterThan(50);
+  }, 120_000);
+  it('works the resequence rescue out again when a unit it tried needs a changed part', () => {
+    // M0 on Tuesday lacks B1; M1 on Wednesday needs one B0. With one B0 on hand M1 could take M0's
+    // place; with none on hand (one arrives on Wednesday) it is still built on its own day, but can
+    // no longer move forward. Every unit keeps its verdict, only the rescue changes.
+    const part = (partNumber: string, source: 'end_item' | 'buy', onHand: number): LineRiskPart => ({
+      partNumber,
+      source,
+      leadTimeDays: 0,
+      packQty: 1,
+      onHand,
+      safetyStock: 0,
+    });
+    const before: LineRiskInput = {
+      parts: [part('M0', 'end_item', 0), part('M1', 'end_item', 0), part('B0', 'buy', 1), part('B1', 'buy', 0)],
+      bom: [
+        { parent: 'M0', component: 'B1', qtyPer: 1, scrapPct: 0 },
+        { parent: 'M1', component: 'B0', qtyPer: 1, scrapPct: 0 },
+      ],
+      sequence: [
+        { date: '2026-03-03', sequence: 1, model: 'M0', serial: 'SN1', qty: 1 },
+        { date: '2026-03-04', sequence: 2, model: 'M1', serial: 'SN2', qty: 1 },
+      ],
+      firmReceipts: [{ partNumber: 'B0', date: '2026-03-04', qty: 1 }],
+      calendar: CALENDAR,
+      from: FROM,
+      to: TO,
+    };
+    const after = { ...before, parts: before.parts.map((p) => (p.partNumber === 'B0' ? { ...p, onHand: 0 } : p)) };
+    const walker = new LineRiskWalker();
+
+    expect(walker.walk(before).unitsAtRisk()[0]!.resequence?.candidate.serial).toBe('SN2');
+    expect(walker.walk(after).unitsAtRisk()[0]!.resequence).toBeNull();
+    expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
+    // And back: M1 lacked only the changed part when it was tried, so now it fits.
+    const back = new LineRiskWalker();
+    back.walk(after);
+    expect(back.walk(before).unitsAtRisk()[0]!.resequence?.candidate.serial).toBe('SN2');
+  });
+  it('keeps each unit its own lacks when walked again', () => {
+    // Found by the property above: M0 needs B0 twice (through M1 on two lines), M1 once; a unit's
+    // lacks must not take another unit's after its search is made again.
+    const bought: LineRiskPart = {
+      partNumber: 'B0',
+      source: 'buy',
+      leadTimeDays: 0,
+      packQty: 1,
+      onHand: 0,
+      safetyStock: 0,
+    };
+    const model = (partNumber: string): LineRiskPart => ({ ...bought, partNumber, source: 'end_item' });
+    const before: LineRiskInput = {
+      parts: [model('M0'), model('M1'), bought],
+      bom: [
+        { parent: 'M0', component: 'M1', qtyPer: 1, scrapPct: 0 },
+        { parent: 'M1', component: 'B0', qtyPer: 1, scrapPct: 0 },
+        { parent: 'M0', component: 'M1', qtyPer: 1, scrapPct: 0 },
+      ],
+      sequence: [
+        { date: FROM, sequence: 1, model: 'M1', serial: 'SN0', qty: 1 },
+        { date: FROM, sequence: 2, model: 'M0', serial: 'SN1', qty: 1 },
+      ],
+      firmReceipts: [],
+      calendar: CALENDAR,
+      from: FROM,
+      to: TO,
+    };
+    const after = { ...before, parts: [before.parts[0]!, before.parts[1]!, { ...bought, onHand: -1 }] };
+    const walker = new LineRiskWalker();
+    walker.walk(before);
+
+    expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
+    expect(walker.lastKind).toBe('parts');
+  });
 });
+
+/** The input after one change; unchanged pieces stay the same objects, as the server's worker keeps them. */
+function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: number; day: number }): LineRiskInput {
+  const indices = (source: string) => input.parts.flatMap((part, index) => (part.source === source ? [index] : []));
+  const withPart = (index: number, fields: Partial<LineRiskPart>) =>
+    input.parts.map((part, at) => (at === index ? { ...part, ...fields } : part));
+  const bought = indices('buy');
+  const someBought = bought[step.pick % bought.length]!;
+  switch (step.kind) {
+    case 'stock':
+      return { ...input, parts: withPart(someBought, { onHand: input.parts[someBought]!.onHand + step.qty }) };
+    case 'count':
+      return { ...input, parts: withPart(someBought, { countDue: !input.parts[someBought]!.countDue }) };
+    case 'receipt':
+      return {
+        ...input,
+        firmReceipts: [
+          ...input.firmReceipts,
+          {
+            partNumber: input.parts[someBought]!.partNumber,
+            date: addCalendarDays(FROM, step.day),
+            qty: Math.abs(step.qty) + 1,
+          },
+        ],
+      };
+    case 'dropReceipt':
+      return { ...input, firmReceipts: input.firmReceipts.filter((_, index) => index !== step.pick % 3) };
+    case 'loop': {
+      const loops = input.loops ?? [];
+      if (loops.length === 0) return input;
+      const at = step.pick % loops.length;
+      return {
+        ...input,
+        loops: loops.map((loop, index) =>
+          index === at
+            ? { ...loop, emptyCards: Math.abs(step.qty) % 3, activeCards: loop.activeCards + (step.qty > 4 ? 1 : 0) }
+            : loop,
+        ),
+      };
+    }
+    case 'made': {
+      const made = indices('make');
+      if (made.length === 0) return input;
+      const part = made[step.pick % made.length]!;
+      return { ...input, parts: withPart(part, { onHand: Math.max(0, input.parts[part]!.onHand + step.qty) }) };
+    }
+    default:
+      return { ...input, sequence: input.sequence.slice(1) };
+  }
+}
