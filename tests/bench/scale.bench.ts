@@ -3,7 +3,7 @@ import { gzipSync } from 'node:zlib';
 import { openDatabase } from '../../server/db/database';
 import { seedDemoScenario } from '../../seed/seed-demo';
 import { addWorkingDays } from '../../shared/domain/calendar';
-import { computeLineRisk, walkLineRisk, type LineRiskInput } from '../../shared/domain/line-risk';
+import { computeLineRisk, LineRiskWalker, walkLineRisk, type LineRiskInput } from '../../shared/domain/line-risk';
 import { summarise } from '../../server/line-risk/line-risk-summary';
 import { computePlan } from '../../shared/domain/plan';
 import { plantToday } from '../../server/planning/plan-dates';
@@ -98,6 +98,23 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
   // What the server's worker does after a change: the walk, and the summary the report shows.
   const walkSamples: number[] = [];
   for (let run = 0; run < 5; run += 1) walkSamples.push(timed(() => summarise(walkLineRisk(lineRiskInput))).ms);
+  // What the worker does after a stock count: the walker walks again only the counted part.
+  const walker = new LineRiskWalker();
+  walker.walk(lineRiskInput);
+  const againSamples: number[] = [];
+  const againKinds = new Set<string>();
+  const boughtAt = lineRiskInput.parts.flatMap((part, index) => (part.source === 'buy' ? [index] : []));
+  for (let run = 0; run < 5; run += 1) {
+    const counted = boughtAt[(run * 97) % boughtAt.length];
+    const input = {
+      ...lineRiskInput,
+      parts: lineRiskInput.parts.map((part, index) =>
+        index === counted ? { ...part, onHand: part.onHand + 1 } : part,
+      ),
+    };
+    againSamples.push(timed(() => summarise(walker.walk(input))).ms);
+    againKinds.add(walker.lastKind);
+  }
   // The whole answer, every unit and slot at risk as an object. Only the figures are kept: a 16×
   // result is a million objects, and holding it here would slow the server below (same process)
   // with garbage collection.
@@ -126,6 +143,9 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
     `  ${units4.length} units × ${linesPerModel} lines = ${units4.length * linesPerModel} unit-lines, ` +
       `${((walkMs * 1000) / (units4.length * linesPerModel)).toFixed(2)} µs each; ` +
       `${lineRisk.unitsAtRisk} units at risk, ${lineRisk.shortages} short parts, ${lineRisk.slots} slots at risk`,
+  );
+  console.log(
+    `  walk again after a stock count       median ${ms(median(againSamples))} (${[...againKinds].join(', ')})`,
   );
   console.log(`  whole answer, every slot an object   median ${ms(lineRiskMs)}`);
 
