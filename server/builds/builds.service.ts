@@ -137,6 +137,8 @@ export class BuildsService {
         { id: entry.id },
         { status: 'planned', builtAt: null, startedAt: null },
       );
+      // The unit is in the sequence again: more than stock changed.
+      await bumpPlanningVersion(manager);
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'reverse-build',
@@ -282,6 +284,8 @@ export class BuildsService {
     }
     if (affected !== entries.length)
       throw new ConflictError('A unit changed while it was being reported built; look again.');
+    // The built units leave the sequence still to build: more than stock changed.
+    if (entries.length > 0) await bumpPlanningVersion(manager);
     const bySerial = new Map<string, PostedMovement[]>();
     for (const movement of posted) {
       const list = bySerial.get(movement.ref!);

@@ -405,7 +405,9 @@ export class ReceiptsService {
         ...(status !== previousStatus && { releaseStatus: { from: previousStatus, to: status } }),
       },
     });
-    await bumpPlanningVersion(manager);
+    // Stock, received quantities, closed lines, release statuses and card states alone changed
+    // above; the receipt, its shares, the notice's dock column and the audit are no planning input.
+    await bumpPlanningVersion(manager, 'stock');
     await bumpDockVersion(manager);
     return { receipt: toReceipt(receipt, line, release, shares), onHand: onHandAfter };
   }

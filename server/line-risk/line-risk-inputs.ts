@@ -59,6 +59,10 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
+// The part columns a change of stock alone moves, in the same order as PARTS_SQL.
+const STOCK_SQL = `SELECT p.part_number AS "partNumber", p.on_hand AS "onHand", ${COUNTED_AT_SQL} AS "countedAt"
+  FROM part p ORDER BY p.part_number`;
+
 /**
  * Reads the parts (with their details and whether each is due a count), the BOM, the units to
  * build, the firm receipts, the calendar, and the kanban loops as supply; the caller runs it in
@@ -73,7 +77,7 @@ export async function loadLineRiskInputs(
   const rows: PartRow[] = await manager.query(PARTS_SQL);
   const bom = await readBomLines(manager);
   const sequence = await readUnitsToBuild(manager);
-  const firmReceipts: ScheduledReceipt[] = await manager.query(FIRM_LINES_SQL);
+  const firmReceipts = await readFirmReceipts(manager);
   const calendar = await readCalendar(manager);
   const details = new Map<string, PartDetails>();
   const parts = rows.map((row) => {
@@ -92,7 +96,46 @@ export async function loadLineRiskInputs(
       countDue: isCountDue(row),
     };
   });
-  const supplies: LoopSupply[] = loops
+  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details };
+}
+
+/**
+ * The inputs after changes of stock alone since `before` was read (see PlanningChange): on-hand,
+ * when each part was counted, the firm receipts and the loops are read again; the rest is
+ * `before`'s, and so is every part whose stock figures stand (the same object, so what compares
+ * the inputs finds it unchanged at once). Equal to what loadLineRiskInputs would read now. Null
+ * when the part list is no longer the one `before` holds (a change that was not stock alone after
+ * all): the caller then reads everything.
+ */
+export async function loadLineRiskStock(
+  manager: EntityManager,
+  loops: readonly KanbanLoop[],
+  before: LineRiskInputs,
+  now = new Date(),
+): Promise<LineRiskInputs | null> {
+  // The clock and the count interval are read again too: whether a part is due a count moves with them.
+  const isCountDue = await countDueTest(manager, now);
+  const rows: (Pick<PartRow, 'partNumber' | 'onHand'> & Pick<CountedPart, 'countedAt'>)[] =
+    await manager.query(STOCK_SQL);
+  if (rows.length !== before.parts.length) return null;
+  const parts = new Array<LineRiskInputs['parts'][number]>(rows.length);
+  for (let index = 0; index < rows.length; index += 1) {
+    const row = rows[index];
+    const part = before.parts[index];
+    if (row.partNumber !== part.partNumber) return null;
+    const countDue = isCountDue({ source: part.source, countedAt: row.countedAt });
+    parts[index] =
+      row.onHand === part.onHand && countDue === part.countDue ? part : { ...part, onHand: row.onHand, countDue };
+  }
+  const firmReceipts = await readFirmReceipts(manager);
+  return { ...before, parts, firmReceipts, loops: loopSupplies(loops) };
+}
+
+const readFirmReceipts = (manager: EntityManager): Promise<ScheduledReceipt[]> => manager.query(FIRM_LINES_SQL);
+
+/** The kanban loops of kanban parts, as the supply the line risk counts on. */
+function loopSupplies(loops: readonly KanbanLoop[]): LoopSupply[] {
+  return loops
     .filter((loop) => loop.partIsKanban)
     .map((loop) => ({
       partNumber: loop.partNumber,
@@ -102,5 +145,4 @@ export async function loadLineRiskInputs(
       replenishmentDays: loop.replenishmentDays,
       emptyCards: loop.cardStates.empty,
     }));
-  return { parts, bom, sequence, firmReceipts, loops: supplies, calendar, details };
 }

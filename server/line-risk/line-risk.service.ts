@@ -11,8 +11,9 @@ import type { LoopsService } from '../loops/loops.service';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { PerPlanningVersion } from '../planning/per-version';
 import { readSequenceSettings } from '../sequence/sequence-settings';
+import { readPlanningStructureVersion } from '../settings/versions';
 import { samePiece } from './changed-rows';
-import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
+import { loadLineRiskInputs, loadLineRiskStock, type LineRiskInputs } from './line-risk-inputs';
 import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
 import { toReport } from './line-risk-report';
 import { summarise } from './line-risk-summary';
@@ -48,8 +49,11 @@ export class LineRiskService {
   private readonly runner = new LineRiskRunner();
   /** Counts the inputs results were computed from; part of every key, so a result of older ones is never served. */
   private generation = 0;
-  /** The inputs last read outside a write unit, and those the results in `results` come from. */
-  private lastRead: LineRiskInputs | null = null;
+  /**
+   * The inputs last read outside a write unit, with the structure version they were read at; and
+   * the inputs the results in `results` come from.
+   */
+  private lastRead: { inputs: LineRiskInputs; structure: number } | null = null;
   private resultsOf: LineRiskInputs | null = null;
 
   constructor(
@@ -58,11 +62,18 @@ export class LineRiskService {
     private readonly today: () => string = plantToday,
   ) {
     this.inputs = new PerPlanningVersion(db, async (manager) => {
-      const read = await loadLineRiskInputs(manager, await loops.listLoops());
+      const loopList = await loops.listLoops();
       // Read inside a write unit, they may be uncommitted: used once, never kept.
-      if (db.inWriteUnit) return read;
-      this.lastRead = keepUnchanged(read, this.lastRead);
-      return this.lastRead;
+      if (db.inWriteUnit) return loadLineRiskInputs(manager, loopList);
+      // After changes of stock alone, a large plant's part master, BOM and sequence stand: only
+      // stock is read again. Both reads are in this one snapshot, so the version matches them.
+      const structure = await readPlanningStructureVersion(manager);
+      const before = this.lastRead;
+      const stockRead =
+        before?.structure === structure ? await loadLineRiskStock(manager, loopList, before.inputs) : null;
+      const read = stockRead ?? (await loadLineRiskInputs(manager, loopList));
+      this.lastRead = { inputs: keepUnchanged(read, before?.inputs ?? null), structure };
+      return this.lastRead.inputs;
     });
   }
 

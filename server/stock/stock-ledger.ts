@@ -54,7 +54,8 @@ async function readOnHand(
  * The only way on-hand changes: each movement is written with the balance after it and the part's
  * on-hand moves by the same quantity, inside the caller's unit of work, so on-hand always equals the
  * sum of the part's movements. Negative on-hand is allowed (a backflush ahead of a receipt) and is
- * left for a count to settle, never clamped. A zero movement is written only for a count.
+ * left for a count to settle, never clamped. A zero movement is written only for a count. The
+ * planning version moves as for a change of stock alone (see PlanningChange).
  */
 export async function postMovements(
   manager: EntityManager,
@@ -126,6 +127,8 @@ export async function postMovements(
       [at, ...chunk],
     );
   }
-  await bumpPlanningVersion(manager);
+  // Stock alone moved here; a caller that changes more in the same unit (a build marks its units)
+  // bumps fully itself.
+  await bumpPlanningVersion(manager, 'stock');
   return posted;
 }

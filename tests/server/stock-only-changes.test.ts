@@ -1,0 +1,378 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { writeCalendar } from '../../server/calendar/calendar.service';
+import { loadLineRiskInputs, loadLineRiskStock, type LineRiskInputs } from '../../server/line-risk/line-risk-inputs';
+import { LineRiskRunner, type LineRiskPieces } from '../../server/line-risk/line-risk-runner';
+import { syncLoops } from '../../server/loops/loop-sync';
+import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
+import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
+import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { PartEntity } from '../../server/master-data/part.entity';
+import { plantToday } from '../../server/planning/plan-dates';
+import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { ReleaseEntity } from '../../server/releases/release.entity';
+import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
+import { bumpPlanningVersion, readPlanningStructureVersion, readPlanningVersion } from '../../server/settings/versions';
+import { savePartsWithStock } from '../../server/stock/stock.service';
+import { addWorkingDays, nextWorkingDay } from '../../shared/domain/calendar';
+import { cardNumber } from '../../shared/domain/gs1';
+import type { PlantCalendar } from '../../shared/domain/types';
+import type { LineRiskReport } from '../../shared/schemas/line-risk';
+import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+
+// A change of stock alone (a count, scrap, a receipt) moves the planning version but not the
+// structure version, and the line risk then reads only stock again: what it reads must be exactly
+// what a full read gives, and the screen must show the new stock.
+
+const calendar: PlantCalendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] };
+const day1 = nextWorkingDay(plantToday(), calendar);
+const day2 = addWorkingDays(day1, 1, calendar);
+const day3 = addWorkingDays(day1, 2, calendar);
+const DAY_MS = 86_400_000;
+
+const versions = (context: TestContext) =>
+  context.db.read(async (manager) => ({
+    planning: await readPlanningVersion(manager),
+    structure: await readPlanningStructureVersion(manager),
+  }));
+
+/** A release the supplier answered, written straight to the tables (with a full bump, as release events do). */
+async function confirmedRelease(
+  context: TestContext,
+  number: string,
+  lines: { partNumber: string; qty: number; arrivalDate: string; cardId?: number }[],
+): Promise<ReleaseLineEntity[]> {
+  return context.db.write(async (manager) => {
+    const release = await manager.save(
+      manager.create(ReleaseEntity, { number, supplierCode: 'SUP-A', releaseDate: plantToday(), status: 'confirmed' }),
+    );
+    const saved = await manager.save(
+      lines.map((line) =>
+        manager.create(ReleaseLineEntity, {
+          releaseId: release.id,
+          partNumber: line.partNumber,
+          qty: line.qty,
+          confirmedQty: line.qty,
+          needDate: line.arrivalDate,
+          arrivalDate: line.arrivalDate,
+          origin: line.cardId ? 'kanban' : 'plan',
+          cardId: line.cardId ?? null,
+          receivedQty: 0,
+          closed: false,
+        }),
+      ),
+    );
+    await bumpPlanningVersion(manager);
+    return saved;
+  });
+}
+
+describe('the planning structure version', () => {
+  let context: TestContext;
+
+  beforeAll(async () => {
+    context = await createTestContext();
+    await context.db.write((manager) => savePartsWithStock(manager, [testPart('P', { onHand: 10 })]));
+  });
+  afterAll(() => context.close());
+
+  it('moves to the new planning version with a full bump, and stands through a stock-only one', async () => {
+    const start = await versions(context);
+
+    const full = await context.db.write((manager) => bumpPlanningVersion(manager));
+    const afterFull = await versions(context);
+    const stock = await context.db.write((manager) => bumpPlanningVersion(manager, 'stock'));
+    const afterStock = await versions(context);
+
+    expect(full).toBe(start.planning + 1);
+    expect(afterFull).toEqual({ planning: full, structure: full });
+    expect(stock).toBe(full + 1);
+    expect(afterStock).toEqual({ planning: stock, structure: full });
+  });
+
+  it('moves in a unit of work with a full bump in it, before or after a stock-only one', async () => {
+    const start = await versions(context);
+
+    await context.db.write(async (manager) => {
+      await bumpPlanningVersion(manager, 'stock');
+      await bumpPlanningVersion(manager);
+    });
+    const stockThenFull = await versions(context);
+    await context.db.write(async (manager) => {
+      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'stock');
+    });
+    const fullThenStock = await versions(context);
+
+    expect(stockThenFull).toEqual({ planning: start.planning + 2, structure: start.planning + 2 });
+    expect(fullThenStock).toEqual({ planning: start.planning + 4, structure: start.planning + 3 });
+  });
+
+  it('tells open screens the planning version after a stock-only bump as after any other', async () => {
+    const notices: unknown[] = [];
+    const stop = context.db.committedHere.subscribe((notice) => notices.push(notice));
+    try {
+      const version = await context.db.write((manager) => bumpPlanningVersion(manager, 'stock'));
+
+      expect(notices).toContainEqual({ channel: 'planning', payload: { version } });
+    } finally {
+      stop();
+    }
+  });
+});
+
+describe('line-risk inputs read after changes of stock alone', () => {
+  let context: TestContext;
+  let releaseLines: ReleaseLineEntity[];
+
+  // M takes 2 C, 1 D and 1 K; K is a kanban part with a loop and one card on its way. OLD was last
+  // counted 200 days ago (past the 90-day interval); NEW-OPEN has only its opening movement.
+  beforeAll(async () => {
+    context = await createTestContext();
+    const longAgo = new Date(Date.now() - 200 * DAY_MS).toISOString();
+    await context.db.write(async (manager) => {
+      await writeCalendar(manager, calendar);
+      await savePartsWithStock(manager, [
+        testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
+        testPart('C', { onHand: 5, replenishment: 'scheduled' }),
+        testPart('D', { onHand: 100, replenishment: 'scheduled', supplierCode: 'SUP-B' }),
+        testPart('K', { onHand: 3, replenishment: 'kanban' }),
+        testPart('OLD', { onHand: 40, replenishment: 'scheduled' }),
+        testPart('NEW-OPEN', { onHand: 8, replenishment: 'scheduled' }),
+      ]);
+      await manager.update(PartEntity, { partNumber: 'OLD' }, { lastCountedAt: longAgo });
+      await replaceBomLines(manager, [
+        { parent: 'M', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+        { parent: 'M', component: 'D', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+        { parent: 'M', component: 'K', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+      ]);
+      await upsertSequenceEntries(manager, [
+        { date: day1, sequence: 1, model: 'M', serial: 'S1', qty: 1 },
+        { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 },
+        { date: day2, sequence: 1, model: 'M', serial: 'S3', qty: 1 },
+      ]);
+      await syncLoops(manager);
+    });
+    const loop = await context.dataSource.getRepository(KanbanLoopEntity).findOneByOrFail({ partNumber: 'K' });
+    const card = await context.dataSource.getRepository(KanbanCardEntity).save({
+      loopId: loop.id,
+      cardIndex: 1,
+      cardNumber: cardNumber(loop.id, 1),
+      state: 'ordered',
+      stateChangedAt: new Date().toISOString(),
+      retiredAt: null,
+      releaseLineId: null,
+    });
+    releaseLines = await confirmedRelease(context, 'R-STOCK-1', [
+      { partNumber: 'C', qty: 10, arrivalDate: day2 },
+      { partNumber: 'K', qty: 6, arrivalDate: day3, cardId: card.id },
+    ]);
+  });
+  afterAll(() => context.close());
+
+  const readFull = () =>
+    context.db.read(async (manager) => loadLineRiskInputs(manager, await context.services.loops.listLoops()));
+  const byPart = (inputs: LineRiskInputs, partNumber: string) =>
+    inputs.parts.find((part) => part.partNumber === partNumber)!;
+
+  it('equals a full read after scrap, counts and receipts, keeping every piece and part that stood', async () => {
+    const before = await readFull();
+    const versionsBefore = await versions(context);
+    const asReceiving = bearer(context.tokens.receiving);
+
+    const scrap = await request(context.app)
+      .post('/api/stock/scrap')
+      .set(asReceiving)
+      .send({ partNumber: 'D', qty: 3, reason: 'Dropped' });
+    const countOld = await request(context.app)
+      .post('/api/stock/counts')
+      .set(asReceiving)
+      .send({ partNumber: 'OLD', counted: 38 });
+    const countC = await request(context.app)
+      .post('/api/stock/counts')
+      .set(asReceiving)
+      .send({ partNumber: 'C', counted: 6 });
+    const receiveC = await request(context.app)
+      .post('/api/receipts')
+      .set(asReceiving)
+      .set('Idempotency-Key', 'stock-only-c')
+      .send({ releaseLineId: releaseLines[0].id, qty: 10 });
+    const receiveK = await request(context.app)
+      .post('/api/receipts')
+      .set(asReceiving)
+      .set('Idempotency-Key', 'stock-only-k')
+      .send({ releaseLineId: releaseLines[1].id, qty: 6, discrepancy: 'damaged', close: true });
+    const versionsAfter = await versions(context);
+    const { full, stockOnly } = await context.db.read(async (manager) => {
+      const loops = await context.services.loops.listLoops();
+      return {
+        full: await loadLineRiskInputs(manager, loops),
+        stockOnly: await loadLineRiskStock(manager, loops, before),
+      };
+    });
+
+    expect([scrap.status, countOld.status, countC.status, receiveC.status, receiveK.status]).toEqual([
+      201, 201, 201, 201, 201,
+    ]);
+    // Five stock changes moved the planning version; none moved the structure version.
+    expect(versionsAfter.planning).toBeGreaterThan(versionsBefore.planning);
+    expect(versionsAfter.structure).toBe(versionsBefore.structure);
+    // The changes were real: stock, count-due, firm receipts and the loop's card (closed with
+    // nothing usable, back to empty) all moved.
+    expect(byPart(before, 'OLD').countDue).toBe(true);
+    expect(byPart(full, 'OLD')).toMatchObject({ onHand: 38, countDue: false });
+    expect(byPart(full, 'C').onHand).toBe(16);
+    expect(byPart(full, 'D').onHand).toBe(97);
+    expect(before.firmReceipts).toHaveLength(2);
+    expect(full.firmReceipts).toEqual([]);
+    expect(before.loops).toMatchObject([{ partNumber: 'K', emptyCards: 0 }]);
+    expect(full.loops).toMatchObject([{ partNumber: 'K', emptyCards: 1 }]);
+
+    expect(stockOnly).toStrictEqual(full);
+    // What stood is kept as it was, object for object.
+    expect(stockOnly!.bom).toBe(before.bom);
+    expect(stockOnly!.sequence).toBe(before.sequence);
+    expect(stockOnly!.calendar).toBe(before.calendar);
+    expect(stockOnly!.details).toBe(before.details);
+    for (const partNumber of ['M', 'K', 'NEW-OPEN'])
+      expect(byPart(stockOnly!, partNumber)).toBe(byPart(before, partNumber));
+    for (const partNumber of ['C', 'D', 'OLD'])
+      expect(byPart(stockOnly!, partNumber)).not.toBe(byPart(before, partNumber));
+  });
+
+  it('sees a part that became due a count as time passed, with no change at all', async () => {
+    const before = await readFull();
+    // NEW-OPEN opened its ledger today: 100 days on, it is past the 90-day interval.
+    const later = new Date(Date.now() + 100 * DAY_MS);
+
+    const { full, stockOnly } = await context.db.read(async (manager) => {
+      const loops = await context.services.loops.listLoops();
+      return {
+        full: await loadLineRiskInputs(manager, loops, later),
+        stockOnly: await loadLineRiskStock(manager, loops, before, later),
+      };
+    });
+
+    expect(byPart(before, 'NEW-OPEN').countDue).toBe(false);
+    expect(byPart(full, 'NEW-OPEN').countDue).toBe(true);
+    expect(stockOnly).toStrictEqual(full);
+  });
+
+  it('gives up on a part list that is no longer the one it read, so the caller reads everything', async () => {
+    const before = await readFull();
+    // Written with no bump at all: only the part list itself can tell.
+    await context.dataSource.getRepository(PartEntity).insert({ ...testPart('EXTRA'), onHand: 0 });
+
+    const stockOnly = await context.db.read(async (manager) =>
+      loadLineRiskStock(manager, await context.services.loops.listLoops(), before),
+    );
+
+    expect(stockOnly).toBeNull();
+  });
+});
+
+describe('GET /api/line-risk after changes of stock and of the sequence', () => {
+  let context: TestContext;
+  const horizon = { from: day1, to: day3 };
+
+  // M takes 2 × C; C has 5 on hand and nothing on order. Day 1 builds S1 and S2, day 2 S3 and S4.
+  beforeAll(async () => {
+    context = await createTestContext();
+    await context.db.write(async (manager) => {
+      await writeCalendar(manager, calendar);
+      await savePartsWithStock(manager, [
+        testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
+        testPart('C', { onHand: 5, replenishment: 'scheduled' }),
+        testPart('E', { onHand: 50, replenishment: 'scheduled' }),
+      ]);
+      await replaceBomLines(manager, [
+        { parent: 'M', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+        { parent: 'M', component: 'E', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
+      ]);
+      await upsertSequenceEntries(manager, [
+        { date: day1, sequence: 1, model: 'M', serial: 'S1', qty: 1 },
+        { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 },
+        { date: day2, sequence: 1, model: 'M', serial: 'S3', qty: 1 },
+        { date: day2, sequence: 2, model: 'M', serial: 'S4', qty: 1 },
+      ]);
+    });
+  });
+  afterAll(() => context.close());
+
+  const lineRisk = async () => {
+    const response = await request(context.app)
+      .get('/api/line-risk')
+      .query(horizon)
+      .set(bearer(context.tokens.planner));
+    expect(response.status).toBe(200);
+    return response.body as LineRiskReport;
+  };
+  const shortOf = (report: LineRiskReport, partNumber: string) =>
+    report.shortages.find((shortage) => shortage.partNumber === partNumber);
+
+  it('shows the counted on-hand at once, reading only stock again', async () => {
+    const walks = vi.spyOn(LineRiskRunner.prototype, 'compute');
+    try {
+      const before = await lineRisk();
+      const count = await request(context.app)
+        .post('/api/stock/counts')
+        .set(bearer(context.tokens.receiving))
+        .send({ partNumber: 'C', counted: 6 });
+      const after = await lineRisk();
+
+      // Projected on-hand, day by day (on hand less what the day's units take, the netting of
+      // material requirements planning; common practice): C 5 − 4 = 1, then 1 − 4 = −3 → 3 short.
+      expect(shortOf(before, 'C')).toMatchObject({ firstShortDate: day2, shortQty: 3 });
+      expect(count.status).toBe(201);
+      // Counted 6: 6 − 4 = 2, then 2 − 4 = −2 → 2 short.
+      expect(shortOf(after, 'C')).toMatchObject({ firstShortDate: day2, shortQty: 2 });
+      // The walk after the count was given E's part as read before the count: only stock was read again.
+      expect(walks).toHaveBeenCalledTimes(2);
+      const [first, second] = walks.mock.calls.map((call) => call[1] as LineRiskPieces);
+      const partOf = (pieces: LineRiskPieces, partNumber: string) =>
+        pieces.parts.find((part) => part.partNumber === partNumber);
+      expect(partOf(second, 'E')).toBe(partOf(first, 'E'));
+      expect(partOf(second, 'C')).toMatchObject({ onHand: 6 });
+      expect(second.bom).toBe(first.bom);
+    } finally {
+      walks.mockRestore();
+    }
+  });
+
+  it('reads the sequence again after a build, which also moves stock', async () => {
+    const before = await lineRisk();
+    const structureBefore = (await versions(context)).structure;
+
+    const built = await request(context.app)
+      .post('/api/builds')
+      .set(bearer(context.tokens.line))
+      .set('Idempotency-Key', 'build-s1')
+      .send({ serial: 'S1' });
+    const after = await lineRisk();
+
+    expect(built.status).toBe(201);
+    expect((await versions(context)).structure).toBeGreaterThan(structureBefore);
+    // S1 took its 2 C from stock (6 → 4) and left the units to build: 4 − 2 = 2 on day 1, then
+    // 2 − 4 = −2 on day 2, still 2 short. Had the sequence not been read again, S1 would be
+    // counted twice: 4 − 4 = 0, then −4.
+    expect(before.unitsInHorizon).toBe(4);
+    expect(after.unitsInHorizon).toBe(3);
+    expect(shortOf(after, 'C')).toMatchObject({ firstShortDate: day2, shortQty: 2 });
+  });
+
+  it('reads the sequence again after a build is undone', async () => {
+    const structureBefore = (await versions(context)).structure;
+
+    const undone = await request(context.app)
+      .delete('/api/builds/S1')
+      .query({ reason: 'Reported the wrong serial' })
+      .set(bearer(context.tokens.planner));
+    const after = await lineRisk();
+
+    expect(undone.status).toBe(200);
+    expect((await versions(context)).structure).toBeGreaterThan(structureBefore);
+    // S1 is to build again and its 2 C are back (4 → 6): as after the count.
+    expect(after.unitsInHorizon).toBe(4);
+    expect(shortOf(after, 'C')).toMatchObject({ firstShortDate: day2, shortQty: 2 });
+  });
+});
