@@ -27,7 +27,6 @@ export class TypedColumn<T extends Int32Array | Float64Array | Uint8Array> {
 export const intColumn = (capacity = 256) => new TypedColumn(new Int32Array(capacity), (size) => new Int32Array(size));
 export const floatColumn = (capacity = 256) =>
   new TypedColumn(new Float64Array(capacity), (size) => new Float64Array(size));
-export const byteColumn = (capacity = 256) => new TypedColumn(new Uint8Array(capacity), (size) => new Uint8Array(size));
 
 /**
  * Hands out typed arrays as views into large shared blocks: many short-lived arrays of a walk
