@@ -262,8 +262,9 @@ export class LoopsService {
       }
       const loop = await this.findLoop(manager, card.loopId);
       const moved = await applyCardEvent(manager, card, event, actor.email);
-      // Cards in circulation are the loop's supply, which the line risk counts.
-      await bumpPlanningVersion(manager);
+      // Cards in circulation are the loop's supply, which the line risk counts. A scan changes a
+      // card's state and its log alone: stock, as planning changes go.
+      await bumpPlanningVersion(manager, 'stock');
       return { card: toKanbanCard(moved.card, loop.partNumber), scan: toCardScan(moved.scan) };
     });
   }

@@ -240,6 +240,42 @@ describe('line-risk inputs read after changes of stock alone', () => {
       expect(byPart(stockOnly!, partNumber)).not.toBe(byPart(before, partNumber));
   });
 
+  it('equals a full read after a kanban card is scanned empty at the line', async () => {
+    const loop = await context.dataSource.getRepository(KanbanLoopEntity).findOneByOrFail({ partNumber: 'K' });
+    const card = await context.dataSource.getRepository(KanbanCardEntity).save({
+      loopId: loop.id,
+      cardIndex: 2,
+      cardNumber: cardNumber(loop.id, 2),
+      state: 'full',
+      stateChangedAt: new Date().toISOString(),
+      retiredAt: null,
+      releaseLineId: null,
+    });
+    const before = await readFull();
+    const versionsBefore = await versions(context);
+
+    const scan = await request(context.app)
+      .post('/api/kanban/scans')
+      .set(bearer(context.tokens.planner))
+      .send({ cardNumber: card.cardNumber });
+    const versionsAfter = await versions(context);
+    const { full, stockOnly } = await context.db.read(async (manager) => {
+      const loops = await context.services.loops.listLoops();
+      return {
+        full: await loadLineRiskInputs(manager, loops),
+        stockOnly: await loadLineRiskStock(manager, loops, before),
+      };
+    });
+
+    expect(scan.status).toBe(201);
+    expect(versionsAfter.planning).toBeGreaterThan(versionsBefore.planning);
+    expect(versionsAfter.structure).toBe(versionsBefore.structure);
+    // The emptied card is one more the loop waits for.
+    const emptyBefore = before.loops.find((supply) => supply.partNumber === 'K')!.emptyCards;
+    expect(full.loops).toMatchObject([{ partNumber: 'K', emptyCards: emptyBefore + 1 }]);
+    expect(stockOnly).toStrictEqual(full);
+  });
+
   it('sees a part that became due a count as time passed, with no change at all', async () => {
     const before = await readFull();
     // NEW-OPEN opened its ledger today: 100 days on, it is past the 90-day interval.
