@@ -695,7 +695,8 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
 /** Two versions of a part alike but for its stock (on-hand, whether a count is due). */
 function sameBesideStock(before: LineRiskPart, after: LineRiskPart): boolean {
   const keys = Object.keys(after) as (keyof LineRiskPart)[];
-  if (Object.keys(before).length !== keys.length) return false;
+  // The same fields (an absent uom means pieces), then equal values beside stock.
+  if (Object.keys(before).length !== keys.length || !keys.every((key) => Object.hasOwn(before, key))) return false;
   return keys.every((key) => key === 'onHand' || key === 'countDue' || before[key] === after[key]);
 }
 

@@ -320,6 +320,35 @@ describe('computeLineRisk against the plain walk', () => {
     expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
     expect(walker.lastKind).toBe('parts');
   });
+  it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
+    // Found in review: a part that drops its uom (so counts in pieces) and gains countDue has as
+    // many fields as before; it is not a change of stock alone.
+    const kilos: LineRiskPart = {
+      partNumber: 'B0',
+      source: 'buy',
+      leadTimeDays: 0,
+      packQty: 1,
+      onHand: 0,
+      safetyStock: 0,
+      uom: 'KGM',
+    };
+    const before: LineRiskInput = {
+      parts: [{ ...kilos, partNumber: 'M0', source: 'end_item' }, kilos],
+      bom: [{ parent: 'M0', component: 'B0', qtyPer: 0.5, scrapPct: 0 }],
+      sequence: [{ date: '2026-03-03', sequence: 1, model: 'M0', serial: 'SN1', qty: 1 }],
+      firmReceipts: [],
+      calendar: CALENDAR,
+      from: FROM,
+      to: '2026-03-13',
+    };
+    const { uom: _uom, ...withoutUom } = kilos;
+    const after = { ...before, parts: [before.parts[0]!, { ...withoutUom, countDue: false }] };
+    const walker = new LineRiskWalker();
+    walker.walk(before);
+
+    expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
+    expect(walker.lastKind).toBe('full');
+  });
 });
 
 /** The input after one change; unchanged pieces stay the same objects, as the server's worker keeps them. */
