@@ -211,27 +211,7 @@ export class Exploder {
    * part it read is committed to.
    */
   explode(ledger: StockLedger, part: number, qty: number, bucket: number, withLacks: boolean): Explosion {
-    this.stamp += 1;
-    this.ledger = ledger;
-    this.withLacks = withLacks;
-    for (const column of [
-      this.needPart,
-      this.needBucket,
-      this.needQty,
-      this.needVia,
-      this.takePart,
-      this.takeBucket,
-      this.takeQty,
-      this.lackPart,
-      this.lackBucket,
-      this.lackQty,
-      this.lackVia,
-      this.reads,
-      this.heldBucket,
-      this.heldQty,
-      this.heldNext,
-    ])
-      column.length = 0;
+    this.begin(ledger, withLacks);
     this.visit(part, qty, bucket, NO_VIA);
     return {
       needCount: this.needPart.length,
@@ -260,19 +240,7 @@ export class Exploder {
    * The arrays are scratch, valid until the next call.
    */
   lacksOf(ledger: StockLedger, explosion: Explosion, only: Uint8Array) {
-    this.stamp += 1;
-    this.ledger = ledger;
-    for (const column of [
-      this.lackPart,
-      this.lackBucket,
-      this.lackQty,
-      this.lackVia,
-      this.reads,
-      this.heldBucket,
-      this.heldQty,
-      this.heldNext,
-    ])
-      column.length = 0;
+    this.begin(ledger, true);
     const { needCount, needPart, needBucket, needQty, needVia } = explosion;
     for (let need = 0; need < needCount; need += 1) {
       const part = needPart[need];
@@ -333,6 +301,31 @@ export class Exploder {
     }
     explosion.groups = groups;
     return explosion.groups;
+  }
+
+  /** A new explosion against `ledger`: a new stamp for the per-part scratch, and empty columns. */
+  private begin(ledger: StockLedger, withLacks: boolean): void {
+    this.stamp += 1;
+    this.ledger = ledger;
+    this.withLacks = withLacks;
+    for (const column of [
+      this.needPart,
+      this.needBucket,
+      this.needQty,
+      this.needVia,
+      this.takePart,
+      this.takeBucket,
+      this.takeQty,
+      this.lackPart,
+      this.lackBucket,
+      this.lackQty,
+      this.lackVia,
+      this.reads,
+      this.heldBucket,
+      this.heldQty,
+      this.heldNext,
+    ])
+      column.length = 0;
   }
 
   /** Day number of bucket offset b, which may lie before the horizon (a subassembly started earlier). */
