@@ -19,6 +19,7 @@ import { cardNumber } from '../../shared/domain/gs1';
 import type { PlantCalendar } from '../../shared/domain/types';
 import type { LineRiskReport } from '../../shared/schemas/line-risk';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { bomLine } from '../shared/builders';
 
 // A change of stock alone (a count, scrap, a receipt) moves the planning version but not the
 // structure version, and the line risk then reads only stock again: what it reads must be exactly
@@ -141,11 +142,7 @@ describe('line-risk inputs read after changes of stock alone', () => {
         testPart('NEW-OPEN', { onHand: 8, replenishment: 'scheduled' }),
       ]);
       await manager.update(PartEntity, { partNumber: 'OLD' }, { lastCountedAt: longAgo });
-      await replaceBomLines(manager, [
-        { parent: 'M', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
-        { parent: 'M', component: 'D', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
-        { parent: 'M', component: 'K', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
-      ]);
+      await replaceBomLines(manager, [bomLine('M', 'C', 2), bomLine('M', 'D', 1), bomLine('M', 'K', 1)]);
       await upsertSequenceEntries(manager, [
         { date: day1, sequence: 1, model: 'M', serial: 'S1', qty: 1 },
         { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 },
@@ -172,6 +169,15 @@ describe('line-risk inputs read after changes of stock alone', () => {
 
   const readFull = () =>
     context.db.read(async (manager) => loadLineRiskInputs(manager, await context.services.loops.listLoops()));
+  /** A full read and a stock-only read after `before`, in one snapshot. */
+  const readBoth = (before: LineRiskInputs, now?: Date) =>
+    context.db.read(async (manager) => {
+      const loops = await context.services.loops.listLoops();
+      return {
+        full: await loadLineRiskInputs(manager, loops, now),
+        stockOnly: await loadLineRiskStock(manager, loops, before, now),
+      };
+    });
   const byPart = (inputs: LineRiskInputs, partNumber: string) =>
     inputs.parts.find((part) => part.partNumber === partNumber)!;
 
@@ -203,13 +209,7 @@ describe('line-risk inputs read after changes of stock alone', () => {
       .set('Idempotency-Key', 'stock-only-k')
       .send({ releaseLineId: releaseLines[1].id, qty: 6, discrepancy: 'damaged', close: true });
     const versionsAfter = await versions(context);
-    const { full, stockOnly } = await context.db.read(async (manager) => {
-      const loops = await context.services.loops.listLoops();
-      return {
-        full: await loadLineRiskInputs(manager, loops),
-        stockOnly: await loadLineRiskStock(manager, loops, before),
-      };
-    });
+    const { full, stockOnly } = await readBoth(before);
 
     expect([scrap.status, countOld.status, countC.status, receiveC.status, receiveK.status]).toEqual([
       201, 201, 201, 201, 201,
@@ -259,13 +259,7 @@ describe('line-risk inputs read after changes of stock alone', () => {
       .set(bearer(context.tokens.planner))
       .send({ cardNumber: card.cardNumber });
     const versionsAfter = await versions(context);
-    const { full, stockOnly } = await context.db.read(async (manager) => {
-      const loops = await context.services.loops.listLoops();
-      return {
-        full: await loadLineRiskInputs(manager, loops),
-        stockOnly: await loadLineRiskStock(manager, loops, before),
-      };
-    });
+    const { full, stockOnly } = await readBoth(before);
 
     expect(scan.status).toBe(201);
     expect(versionsAfter.planning).toBeGreaterThan(versionsBefore.planning);
@@ -281,13 +275,7 @@ describe('line-risk inputs read after changes of stock alone', () => {
     // NEW-OPEN opened its ledger today: 100 days on, it is past the 90-day interval.
     const later = new Date(Date.now() + 100 * DAY_MS);
 
-    const { full, stockOnly } = await context.db.read(async (manager) => {
-      const loops = await context.services.loops.listLoops();
-      return {
-        full: await loadLineRiskInputs(manager, loops, later),
-        stockOnly: await loadLineRiskStock(manager, loops, before, later),
-      };
-    });
+    const { full, stockOnly } = await readBoth(before, later);
 
     expect(byPart(before, 'NEW-OPEN').countDue).toBe(false);
     expect(byPart(full, 'NEW-OPEN').countDue).toBe(true);
@@ -321,10 +309,7 @@ describe('GET /api/line-risk after changes of stock and of the sequence', () => 
         testPart('C', { onHand: 5, replenishment: 'scheduled' }),
         testPart('E', { onHand: 50, replenishment: 'scheduled' }),
       ]);
-      await replaceBomLines(manager, [
-        { parent: 'M', component: 'C', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
-        { parent: 'M', component: 'E', qtyPer: 1, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
-      ]);
+      await replaceBomLines(manager, [bomLine('M', 'C', 2), bomLine('M', 'E', 1)]);
       await upsertSequenceEntries(manager, [
         { date: day1, sequence: 1, model: 'M', serial: 'S1', qty: 1 },
         { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 },

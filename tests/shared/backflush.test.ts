@@ -2,17 +2,8 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { backflush, bomByParent, type BackflushPart } from '../../shared/domain/backflush';
 import { computePlan } from '../../shared/domain/plan';
-import type { PartSource, PlanningBomLine } from '../../shared/domain/types';
-
-const line = (parent: string, component: string, qtyPer: number, extra: Partial<PlanningBomLine> = {}) => ({
-  parent,
-  component,
-  qtyPer,
-  scrapPct: 0,
-  effectiveFrom: null,
-  effectiveTo: null,
-  ...extra,
-});
+import type { PartSource } from '../../shared/domain/types';
+import { bomLine } from './builders';
 
 const partsOf = (sources: Record<string, PartSource>) =>
   new Map<string, BackflushPart>(Object.entries(sources).map(([partNumber, source]) => [partNumber, { source }]));
@@ -25,14 +16,14 @@ const partsOf = (sources: Record<string, PartSource>) =>
  * B, C and F are assemblies made in-house; D, E and G are bought.
  */
 const speakerKit = bomByParent([
-  line('A', 'B', 2),
-  line('A', 'C', 3),
-  line('B', 'D', 2),
-  line('B', 'E', 2),
-  line('C', 'E', 2),
-  line('C', 'F', 2),
-  line('F', 'D', 2),
-  line('F', 'G', 1),
+  bomLine('A', 'B', 2),
+  bomLine('A', 'C', 3),
+  bomLine('B', 'D', 2),
+  bomLine('B', 'E', 2),
+  bomLine('C', 'E', 2),
+  bomLine('C', 'F', 2),
+  bomLine('F', 'D', 2),
+  bomLine('F', 'G', 1),
 ]);
 const speakerParts = partsOf({ A: 'end_item', B: 'make', C: 'make', F: 'make', D: 'buy', E: 'buy', G: 'buy' });
 
@@ -55,9 +46,9 @@ describe('backflush', () => {
 
   it('consumes the BOM quantity without the scrap allowance, through the lines effective on the build date', () => {
     const bom = bomByParent([
-      line('M', 'BOLT', 8, { scrapPct: 5 }),
-      line('M', 'OLD-DECAL', 1, { effectiveTo: '2027-03-01' }),
-      line('M', 'NEW-DECAL', 1, { effectiveFrom: '2027-03-02' }),
+      bomLine('M', 'BOLT', 8, { scrapPct: 5 }),
+      bomLine('M', 'OLD-DECAL', 1, { effectiveTo: '2027-03-01' }),
+      bomLine('M', 'NEW-DECAL', 1, { effectiveFrom: '2027-03-02' }),
     ]);
     const parts = partsOf({ M: 'end_item', BOLT: 'buy', 'OLD-DECAL': 'buy', 'NEW-DECAL': 'buy' });
 
@@ -88,7 +79,7 @@ describe('backflush', () => {
           .filter(
             ({ parent, child }) => child > parent && !seen.has(`${parent}-${child}`) && seen.add(`${parent}-${child}`),
           )
-          .map(({ parent, child, qtyPer }) => line(names[parent], names[child], qtyPer));
+          .map(({ parent, child, qtyPer }) => bomLine(names[parent], names[child], qtyPer));
       });
     fc.assert(
       fc.property(structure, fc.integer({ min: 1, max: 9 }), (lines, units) => {

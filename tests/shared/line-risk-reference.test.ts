@@ -12,6 +12,7 @@ import {
 } from '../../shared/domain/line-risk';
 import type { PlanningBomLine, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
 import { referenceLineRisk } from './line-risk-reference';
+import { bomLine } from './builders';
 
 /*
  * The engine keeps explosions between units, walks flat arrays and keeps its slots as records; the
@@ -251,28 +252,13 @@ describe('computeLineRisk against the plain walk', () => {
     // M0 on Tuesday lacks B1; M1 on Wednesday needs one B0. With one B0 on hand M1 could take M0's
     // place; with none on hand (one arrives on Wednesday) it is still built on its own day, but can
     // no longer move forward. Every unit keeps its verdict, only the rescue changes.
-    const part = (partNumber: string, source: 'end_item' | 'buy', onHand: number): LineRiskPart => ({
-      partNumber,
-      source,
-      leadTimeDays: 0,
-      packQty: 1,
-      onHand,
-      safetyStock: 0,
-    });
     const before: LineRiskInput = {
-      parts: [part('M0', 'end_item', 0), part('M1', 'end_item', 0), part('B0', 'buy', 1), part('B1', 'buy', 0)],
-      bom: [
-        { parent: 'M0', component: 'B1', qtyPer: 1, scrapPct: 0 },
-        { parent: 'M1', component: 'B0', qtyPer: 1, scrapPct: 0 },
-      ],
-      sequence: [
-        { date: '2026-03-03', sequence: 1, model: 'M0', serial: 'SN1', qty: 1 },
-        { date: '2026-03-04', sequence: 2, model: 'M1', serial: 'SN2', qty: 1 },
-      ],
+      ...smallPlant(
+        [model('M0'), model('M1'), bought('B0', { onHand: 1 }), bought('B1')],
+        [bomLine('M0', 'B1'), bomLine('M1', 'B0')],
+        [unit('2026-03-03', 1, 'M0', 'SN1'), unit('2026-03-04', 2, 'M1', 'SN2')],
+      ),
       firmReceipts: [{ partNumber: 'B0', date: '2026-03-04', qty: 1 }],
-      calendar: CALENDAR,
-      from: FROM,
-      to: TO,
     };
     const after = { ...before, parts: before.parts.map((p) => (p.partNumber === 'B0' ? { ...p, onHand: 0 } : p)) };
     const walker = new LineRiskWalker();
@@ -288,32 +274,12 @@ describe('computeLineRisk against the plain walk', () => {
   it('keeps each unit its own lacks when walked again', () => {
     // Found by the property above: M0 needs B0 twice (through M1 on two lines), M1 once; a unit's
     // lacks must not take another unit's after its search is made again.
-    const bought: LineRiskPart = {
-      partNumber: 'B0',
-      source: 'buy',
-      leadTimeDays: 0,
-      packQty: 1,
-      onHand: 0,
-      safetyStock: 0,
-    };
-    const model = (partNumber: string): LineRiskPart => ({ ...bought, partNumber, source: 'end_item' });
-    const before: LineRiskInput = {
-      parts: [model('M0'), model('M1'), bought],
-      bom: [
-        { parent: 'M0', component: 'M1', qtyPer: 1, scrapPct: 0 },
-        { parent: 'M1', component: 'B0', qtyPer: 1, scrapPct: 0 },
-        { parent: 'M0', component: 'M1', qtyPer: 1, scrapPct: 0 },
-      ],
-      sequence: [
-        { date: FROM, sequence: 1, model: 'M1', serial: 'SN0', qty: 1 },
-        { date: FROM, sequence: 2, model: 'M0', serial: 'SN1', qty: 1 },
-      ],
-      firmReceipts: [],
-      calendar: CALENDAR,
-      from: FROM,
-      to: TO,
-    };
-    const after = { ...before, parts: [before.parts[0]!, before.parts[1]!, { ...bought, onHand: -1 }] };
+    const before = smallPlant(
+      [model('M0'), model('M1'), bought('B0')],
+      [bomLine('M0', 'M1'), bomLine('M1', 'B0'), bomLine('M0', 'M1')],
+      [unit(FROM, 1, 'M1', 'SN0'), unit(FROM, 2, 'M0', 'SN1')],
+    );
+    const after = { ...before, parts: [before.parts[0]!, before.parts[1]!, bought('B0', { onHand: -1 })] };
     const walker = new LineRiskWalker();
     walker.walk(before);
 
@@ -323,24 +289,8 @@ describe('computeLineRisk against the plain walk', () => {
   it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
     // Found in review: a part that drops its uom (so counts in pieces) and gains countDue has as
     // many fields as before; it is not a change of stock alone.
-    const kilos: LineRiskPart = {
-      partNumber: 'B0',
-      source: 'buy',
-      leadTimeDays: 0,
-      packQty: 1,
-      onHand: 0,
-      safetyStock: 0,
-      uom: 'KGM',
-    };
-    const before: LineRiskInput = {
-      parts: [{ ...kilos, partNumber: 'M0', source: 'end_item' }, kilos],
-      bom: [{ parent: 'M0', component: 'B0', qtyPer: 0.5, scrapPct: 0 }],
-      sequence: [{ date: '2026-03-03', sequence: 1, model: 'M0', serial: 'SN1', qty: 1 }],
-      firmReceipts: [],
-      calendar: CALENDAR,
-      from: FROM,
-      to: '2026-03-13',
-    };
+    const kilos = bought('B0', { uom: 'KGM' });
+    const before = smallPlant([model('M0'), kilos], [bomLine('M0', 'B0', 0.5)], [unit('2026-03-03', 1, 'M0', 'SN1')]);
     const { uom: _uom, ...withoutUom } = kilos;
     const after = { ...before, parts: [before.parts[0]!, { ...withoutUom, countDue: false }] };
     const walker = new LineRiskWalker();
@@ -349,6 +299,34 @@ describe('computeLineRisk against the plain walk', () => {
     expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
     expect(walker.lastKind).toBe('full');
   });
+});
+
+/** Parts, lines and units of the worked cases, with nothing but what each case is about. */
+const bought = (partNumber: string, fields: Partial<LineRiskPart> = {}): LineRiskPart => ({
+  partNumber,
+  source: 'buy',
+  leadTimeDays: 0,
+  packQty: 1,
+  onHand: 0,
+  safetyStock: 0,
+  ...fields,
+});
+const model = (partNumber: string): LineRiskPart => bought(partNumber, { source: 'end_item' });
+const unit = (date: string, sequence: number, model: string, serial: string): SequenceSlot => ({
+  date,
+  sequence,
+  model,
+  serial,
+  qty: 1,
+});
+const smallPlant = (parts: LineRiskPart[], bom: PlanningBomLine[], sequence: SequenceSlot[]): LineRiskInput => ({
+  parts,
+  bom,
+  sequence,
+  firmReceipts: [],
+  calendar: CALENDAR,
+  from: FROM,
+  to: TO,
 });
 
 /** The input after one change; unchanged pieces stay the same objects, as the server's worker keeps them. */

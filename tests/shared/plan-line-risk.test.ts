@@ -3,7 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { addCalendarDays, isWorkingDay } from '../../shared/domain/calendar';
 import { computeLineRisk, type LineRiskInput } from '../../shared/domain/line-risk';
 import { computePlan } from '../../shared/domain/plan';
-import type { PlanningBomLine, PlanningPart, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
+import type { PlanningPart, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
+import { bomLine } from './builders';
 
 /*
  * The plan and the line risk read the same plan model with the same rules, so on the same inputs
@@ -29,15 +30,6 @@ const part = (partNumber: string, fields: Partial<PlanningPart> = {}): PlanningP
   onHand: 0,
   safetyStock: 0,
   ...fields,
-});
-const line = (parent: string, component: string, qtyPer: number, extra: Partial<PlanningBomLine> = {}) => ({
-  parent,
-  component,
-  qtyPer,
-  scrapPct: 0,
-  effectiveFrom: null,
-  effectiveTo: null,
-  ...extra,
 });
 const slot = (date: string, sequence: number, model: string): SequenceSlot => ({
   date,
@@ -76,7 +68,7 @@ describe('the plan and the line risk agree', () => {
     // while the line risk flagged all five.
     const result = bothOf({
       parts: [part('M', { source: 'end_item', supplierCode: null, onHand: 5 }), part('C')],
-      bom: [line('M', 'C', 2)],
+      bom: [bomLine('M', 'C', 2)],
       sequence: [MON, TUE, WED, THU, FRI].map((date) => slot(date, 1, 'M')),
       firmReceipts: [],
     });
@@ -96,7 +88,11 @@ describe('the plan and the line risk agree', () => {
         part('S1'),
         part('S2'),
       ],
-      bom: [line('M', 'F', 1), line('F', 'S1', 1, { effectiveTo: WED }), line('F', 'S2', 1, { effectiveFrom: THU })],
+      bom: [
+        bomLine('M', 'F', 1),
+        bomLine('F', 'S1', 1, { effectiveTo: WED }),
+        bomLine('F', 'S2', 1, { effectiveFrom: THU }),
+      ],
       sequence: [slot(FRI, 1, 'M')],
       firmReceipts: [],
     });
@@ -111,7 +107,7 @@ describe('the plan and the line risk agree', () => {
   it('count the same receipts on the same day', () => {
     const result = bothOf({
       parts: [part('M', { source: 'end_item', supplierCode: null }), part('C', { onHand: 1 })],
-      bom: [line('M', 'C', 1)],
+      bom: [bomLine('M', 'C', 1)],
       sequence: [MON, TUE, WED, THU].map((date) => slot(date, 1, 'M')),
       firmReceipts: [{ partNumber: 'C', date: WED, qty: 1 }],
     });
@@ -169,10 +165,10 @@ describe('the plan and the line risk agree', () => {
           ...bought.map((partNumber, index) => part(partNumber, { onHand: raw.onHand[index]! })),
         ],
         bom: [
-          line('M', 'F', raw.qtyPer[0]!),
-          line('M', 'B0', raw.qtyPer[1]!),
-          line('F', 'B1', raw.qtyPer[2]!),
-          line('F', 'B2', raw.qtyPer[3]!),
+          bomLine('M', 'F', raw.qtyPer[0]!),
+          bomLine('M', 'B0', raw.qtyPer[1]!),
+          bomLine('F', 'B1', raw.qtyPer[2]!),
+          bomLine('F', 'B2', raw.qtyPer[3]!),
         ],
         sequence: raw.units.map((unit, index) => slot(workingDays[unit.day]!, index + 1, 'M')),
         firmReceipts: raw.receipts.map((receipt) => ({
