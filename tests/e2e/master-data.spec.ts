@@ -34,6 +34,14 @@ test.describe('Master data', () => {
     await expect(bom.componentLink('FRM-20W')).toBeVisible();
     await expect(bom.componentLink('STL-SHT-30').first()).toBeVisible();
 
+    // The dialog opens on the line as it is: the same part and its quantity per.
+    await page.getByRole('button', { name: 'Engineering change of BLT-M8-25' }).first().click();
+    const change = page.getByRole('dialog');
+    await expect(change.locator('.el-select')).toContainText('BLT-M8-25');
+    await expect(change.getByLabel('Qty per')).toHaveValue('12');
+    await change.getByRole('button', { name: 'Cancel' }).click();
+    await expect(change).toBeHidden();
+
     await bom.changeFromDate('BLT-M8-25', 'BLT-M10-30', '2028-06-01', 12);
 
     await expect(page.getByText('Engineering change on FS-20W made.')).toBeVisible();
