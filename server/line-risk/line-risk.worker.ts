@@ -15,8 +15,9 @@ import { slotsPage, summarise, unitsPage } from './line-risk-summary';
 const results = new Map<string, LineRiskRun>();
 const held: Partial<LineRiskPieces> = {};
 /**
- * Keeps the last walk (about 120 MB at 16 times the demo plant), so a walk after a stock change
- * walks only the changed parts again; a walk of another horizon is made in full.
+ * Keeps the last walk (about 120 MB at 16 times the demo plant), so a walk after a stock change or
+ * an engineering change to bought components walks only the changed parts again; a walk of
+ * another horizon is made in full.
  */
 const walker = new LineRiskWalker();
 

@@ -216,16 +216,22 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
   return walkAll(input).run;
 }
 
-/** How a walk went: every unit walked, only the parts whose supply changed walked again, or the last walk's units and slots kept whole. */
-export type WalkKind = 'full' | 'parts' | 'kept';
+/**
+ * How a walk went: every unit walked; only the parts whose supply changed walked again; only the
+ * parts whose BOM lines changed (and those whose supply changed) walked again, the units that use
+ * those lines exploded again; or the last walk's units and slots kept whole.
+ */
+export type WalkKind = 'full' | 'parts' | 'bom' | 'kept';
 
 /**
  * Walks line risk again and again over changing planning data (the server's worker), keeping what
  * the last walk found. Most changes between two walks are stock: a count, a receipt, firm receipts
  * of a few bought parts. Units then keep their verdicts unless one of those parts decides one, so
- * only those parts' rows are walked again, against the verdicts found before, and the walk is done
- * in full whenever a verdict would change, a resequence rescue depends on those parts, or anything
- * else changed. Either way the answer is exactly the full walk's.
+ * only those parts' rows are walked again, against the verdicts found before. An engineering
+ * change to lines of bought components is walked the same way: it changes what units need of
+ * those parts alone, so only the units whose BOM passes a changed line are exploded again. The
+ * walk is done in full whenever a verdict would change, a made part's stock or lines changed, or
+ * anything else changed. Either way the answer is exactly the full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -635,21 +641,20 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
 
 /**
  * The walk after a change, reusing the last one when only bought parts' supply changed (their
- * on-hand, firm receipts or loops); null when it must be walked in full.
+ * on-hand, firm receipts or loops) or lines of bought components; null when it must be walked in full.
  */
 function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: WalkKind } | null {
   const before = last.input;
   if (
     input.from !== before.from ||
     input.to !== before.to ||
-    input.bom !== before.bom ||
     input.sequence !== before.sequence ||
     input.calendar !== before.calendar ||
     input.parts.length !== before.parts.length
   ) {
     return null;
   }
-  const { model, rowBase } = last;
+  const { rowBase } = last;
   const { parts } = input;
   let onHand = last.onHand;
   for (let part = 0; part < parts.length; part += 1) {
@@ -658,38 +663,172 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
     if (now === then) continue;
     if (!sameBesideStock(then, now)) return null;
     if (now.onHand !== then.onHand) {
-      if (model.source[part] !== BOUGHT || !Number.isFinite(now.onHand)) return null;
+      if (last.model.source[part] !== BOUGHT || !Number.isFinite(now.onHand)) return null;
       if (onHand === last.onHand) onHand = onHand.slice();
       onHand[part] = now.onHand;
     }
   }
+  const bom = input.bom === before.bom ? null : bomChangeOf(last, input);
+  if (bom === undefined) return null;
+  const model = bom?.model ?? last.model;
   const days = model.days.length;
   const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, rowBase, onHand);
+  const needs = bom
+    ? needAgain(last, bom, cumulativeSupply)
+    : { probed: last.probed, requiredByDay: last.requiredByDay };
+  if (!needs) return null;
   const loopByPart = loopSupplies(input, model);
   for (const [part, loop] of loopByPart) {
-    pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, last.requiredByDay, cumulativeSupply);
+    pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, needs.requiredByDay, cumulativeSupply);
   }
   // Made stock decides every unit's explosion: a change there is walked in full.
-  const changed: number[] = [];
+  const inChanged = new Uint8Array(parts.length);
+  let changed = 0;
+  for (const part of bom?.parts ?? []) {
+    inChanged[part] = 1;
+    changed += 1;
+  }
   for (let part = 0; part < parts.length; part += 1) {
     const base = rowBase[part];
     for (let t = 0; t < days; t += 1) {
       if (cumulativeSupply[base + t] === last.supply[base + t]) continue;
       if (model.source[part] !== BOUGHT) return null;
-      changed.push(part);
+      if (inChanged[part] === 0) changed += 1;
+      inChanged[part] = 1;
       break;
     }
   }
-  let walked: Walked = { ...last, input, onHand, supply: cumulativeSupply };
-  if (changed.length > 0) {
-    const inChanged = new Uint8Array(parts.length);
-    for (const part of changed) inChanged[part] = 1;
-    const replayed = replayParts(walked, inChanged);
+  let walked: Walked = { ...last, input, onHand, supply: cumulativeSupply, ...needs };
+  if (bom) walked = { ...walked, model, exploder: bom.exploder };
+  if (changed > 0) {
+    const replayed = replayParts(walked, inChanged, bom?.explodeAgain ?? null);
     if (!replayed) return null;
     walked = { ...walked, ...replayed };
   }
   const run = finish(walked, { firmReceiptQty, loopByPart });
-  return { run, walked, kind: changed.length > 0 ? 'parts' : 'kept' };
+  return { run, walked, kind: bom ? 'bom' : changed > 0 ? 'parts' : 'kept' };
+}
+
+/** A change to the BOM that the walker can walk again part by part. */
+interface BomChange {
+  model: PlanModel;
+  exploder: Exploder;
+  /** Bought parts on lines that changed (before or after). */
+  parts: number[];
+  /** Per part: 1 when exploding it passes a changed line, so units of it (a model) are exploded again. */
+  explodeAgain: Uint8Array;
+}
+
+/**
+ * The BOM change from the last walk's lines to the input's, parent by parent, line by line in
+ * order; undefined when a changed line has a made component (made stock is taken in turn, and the
+ * walk is done in full), null when no line the walk reads changed (the scrap allowance is for
+ * ordering, not building).
+ */
+function bomChangeOf(last: Walked, input: LineRiskInput): BomChange | null | undefined {
+  const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+  const old = last.model;
+  const partCount = old.source.length;
+  const inParts = new Uint8Array(partCount);
+  const parts: number[] = [];
+  const changedParents: number[] = [];
+  const sameLine = (a: number, b: number) =>
+    old.lineComponent[a] === model.lineComponent[b] &&
+    old.lineQtyPer[a] === model.lineQtyPer[b] &&
+    old.lineFrom[a] === model.lineFrom[b] &&
+    old.lineTo[a] === model.lineTo[b];
+  const addComponent = (of: PlanModel, line: number): boolean => {
+    const component = of.lineComponent[line];
+    if (of.source[component] !== BOUGHT) return false;
+    if (inParts[component] === 0) parts.push(component);
+    inParts[component] = 1;
+    return true;
+  };
+  for (let parent = 0; parent < partCount; parent += 1) {
+    const oldFirst = old.lineStart[parent];
+    const oldCount = old.lineStart[parent + 1] - oldFirst;
+    const newFirst = model.lineStart[parent];
+    const newCount = model.lineStart[parent + 1] - newFirst;
+    let changed = false;
+    // Line by line in order: the order of a parent's lines is the order its components are met.
+    for (let at = 0; at < Math.max(oldCount, newCount); at += 1) {
+      if (at < oldCount && at < newCount && sameLine(oldFirst + at, newFirst + at)) continue;
+      changed = true;
+      if (at < oldCount && !addComponent(old, oldFirst + at)) return undefined;
+      if (at < newCount && !addComponent(model, newFirst + at)) return undefined;
+    }
+    if (changed) changedParents.push(parent);
+  }
+  if (changedParents.length === 0) return null;
+  // Every part whose explosion reaches a changed parent: the parents' parents, up to the models.
+  // Only bought components changed, so the made structure above them is the same in both.
+  const parentsOf: number[][] = Array.from({ length: partCount }, () => []);
+  for (let parent = 0; parent < partCount; parent += 1) {
+    for (let line = model.lineStart[parent]; line < model.lineStart[parent + 1]; line += 1) {
+      if (model.source[model.lineComponent[line]] !== BOUGHT) parentsOf[model.lineComponent[line]].push(parent);
+    }
+  }
+  const explodeAgain = new Uint8Array(partCount);
+  const stack = [...changedParents];
+  for (const parent of stack) explodeAgain[parent] = 1;
+  while (stack.length > 0) {
+    for (const parent of parentsOf[stack.pop()!]) {
+      if (explodeAgain[parent] === 1) continue;
+      explodeAgain[parent] = 1;
+      stack.push(parent);
+    }
+  }
+  return { model, exploder: new Exploder(model), parts, explodeAgain };
+}
+
+/**
+ * Each unit's needs after a BOM change (the probe walk again): units of the models it reaches are
+ * exploded again, the others keep theirs; the changed parts' need per day summed again in the
+ * full walk's order. Null when a unit would take other made stock than before.
+ */
+function needAgain(
+  last: Walked,
+  bom: BomChange,
+  cumulativeSupply: Float64Array,
+): Pick<Walked, 'probed' | 'requiredByDay'> | null {
+  const { ordered, rowBase } = last;
+  const days = bom.model.days.length;
+  const probe = madeStockLedger(bom.model, cumulativeSupply, rowBase);
+  const explosions = new ExplosionCache(bom.exploder, probe, false);
+  const probed = last.probed.slice();
+  const inParts = new Uint8Array(rowBase.length);
+  const requiredByDay = last.requiredByDay.slice();
+  for (const part of bom.parts) {
+    inParts[part] = 1;
+    requiredByDay.fill(0, rowBase[part], rowBase[part] + days);
+  }
+  for (let position = 0; position < ordered.length; position += 1) {
+    const entry = ordered[position];
+    let explosion = last.probed[position];
+    if (bom.explodeAgain[entry.model] === 1) {
+      explosion = explosions.get(entry.model, entry.slot.qty, entry.bucket);
+      if (!sameTakes(explosion, last.probed[position])) return null;
+      bom.exploder.needGroups(explosion, rowBase);
+      probed[position] = explosion;
+    }
+    const { needPart, needBucket, needQty, takePart, takeBucket, takeQty } = explosion;
+    for (let take = 0; take < explosion.takeCount; take += 1)
+      probe.commit(takePart[take], takeBucket[take], takeQty[take]);
+    for (let need = 0; need < explosion.needCount; need += 1) {
+      const part = needPart[need];
+      if (inParts[part] === 1) requiredByDay[rowBase[part] + needBucket[need]] += needQty[need];
+    }
+  }
+  return { probed, requiredByDay };
+}
+
+function sameTakes(a: Explosion, b: Explosion): boolean {
+  if (a.takeCount !== b.takeCount) return false;
+  for (let take = 0; take < a.takeCount; take += 1) {
+    if (a.takePart[take] !== b.takePart[take] || a.takeBucket[take] !== b.takeBucket[take]) return false;
+    if (a.takeQty[take] !== b.takeQty[take]) return false;
+  }
+  return true;
 }
 
 /** Two versions of a part alike but for its stock (on-hand, whether a count is due). */
@@ -702,11 +841,16 @@ function sameBesideStock(before: LineRiskPart, after: LineRiskPart): boolean {
 
 /**
  * The queue and build views of the changed parts walked again, every unit keeping its verdict, and
- * the records made again with theirs; each resequence search made again at its unit's turn; null
- * when a changed part would change a verdict.
+ * the records made again with theirs; each resequence search made again at its unit's turn; units
+ * of the models marked in `explodeAgain` exploded again against the build ledger at their turn.
+ * Null when a changed part would change a verdict.
  */
-function replayParts(walked: Walked, inChanged: Uint8Array): Pick<Walked, 'records' | 'unitStart' | 'risks'> | null {
-  const { model, rowBase, ordered, probed, judged, built, exploder, countable, rankOf, supply } = walked;
+function replayParts(
+  walked: Walked,
+  inChanged: Uint8Array,
+  explodeAgain: Uint8Array | null,
+): Pick<Walked, 'records' | 'unitStart' | 'risks' | 'judged'> | null {
+  const { model, rowBase, ordered, probed, built, exploder, countable, rankOf, supply } = walked;
   const old = walked.records;
   const days = model.days.length;
   // The queue view is per part: the changed parts' rows alone. The build ledger holds every row:
@@ -714,7 +858,9 @@ function replayParts(walked: Walked, inChanged: Uint8Array): Pick<Walked, 'recor
   const queue = new StockLedger(days, supply, rowBase, inChanged);
   const build = new StockLedger(days, supply, rowBase);
   const partCount = model.source.length;
-  const risks = new Risks(partCount, resequenceFinder(ordered, new ExplosionCache(exploder, build, true), partCount));
+  const againstBuild = new ExplosionCache(exploder, build, true);
+  const risks = new Risks(partCount, resequenceFinder(ordered, againstBuild, partCount));
+  const judged = explodeAgain ? walked.judged.slice() : walked.judged;
   const records = new LackRecordWriter(old.count + 1024);
   const unitStart = new Int32Array(ordered.length + 1);
   const behindGroup: number[] = [];
@@ -733,6 +879,9 @@ function replayParts(walked: Walked, inChanged: Uint8Array): Pick<Walked, 'recor
       behindGroup.push(group);
       behindQty.push(roundQty(lack));
     }
+    const entry = ordered[position];
+    if (explodeAgain?.[entry.model] === 1)
+      judged[position] = againstBuild.get(entry.model, entry.slot.qty, entry.bucket);
     const explosion = judged[position];
     const lacks = exploder.lacksOf(build, explosion, inChanged);
     const oldFirst = walked.unitStart[position];
@@ -803,7 +952,7 @@ function replayParts(walked: Walked, inChanged: Uint8Array): Pick<Walked, 'recor
     }
   }
   unitStart[ordered.length] = records.count;
-  return { records: records.done(), unitStart, risks };
+  return { records: records.done(), unitStart, risks, judged };
 }
 
 /** The short parts' figures, and the run. */

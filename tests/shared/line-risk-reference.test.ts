@@ -219,16 +219,33 @@ describe('computeLineRisk against the plain walk', () => {
     expect(taking).toBeGreaterThan(50);
   });
 
-  it('walks again after stock changes exactly as a walk afresh would', () => {
-    // The walker keeps its last walk and, after a change to bought parts' supply alone, walks only
-    // those parts again; any other change is walked in full. Every answer must be the plain walk's.
+  it('walks again after stock and BOM changes exactly as a walk afresh would', () => {
+    // The walker keeps its last walk and, after a change to bought parts' supply or to lines of
+    // bought components alone, walks only those parts again; any other change is walked in full.
+    // Every answer must be the plain walk's.
     const change = fc.record({
-      kind: fc.constantFrom('stock', 'stock', 'stock', 'count', 'receipt', 'dropReceipt', 'loop', 'made', 'sequence'),
+      kind: fc.constantFrom(
+        'stock',
+        'stock',
+        'stock',
+        'count',
+        'receipt',
+        'dropReceipt',
+        'loop',
+        'made',
+        'sequence',
+        'lineQty',
+        'lineQty',
+        'lineAdd',
+        'lineDrop',
+        'lineDates',
+        'lineScrap',
+      ),
       pick: fc.nat(),
       qty: fc.integer({ min: -4, max: 9 }),
       day: fc.integer({ min: -2, max: 18 }),
     });
-    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, kept: 0 };
+    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, bom: 0, kept: 0 };
     fc.assert(
       fc.property(plantArbitrary, fc.array(change, { minLength: 1, maxLength: 6 }), (plant, changes) => {
         const walker = new LineRiskWalker();
@@ -245,6 +262,7 @@ describe('computeLineRisk against the plain walk', () => {
     // Guards the generator: each way of walking again must have been compared, and often.
     console.log(kinds);
     expect(kinds.parts).toBeGreaterThan(100);
+    expect(kinds.bom).toBeGreaterThan(100);
     expect(kinds.kept).toBeGreaterThan(50);
     expect(kinds.full).toBeGreaterThan(50);
   }, 120_000);
@@ -285,6 +303,31 @@ describe('computeLineRisk against the plain walk', () => {
 
     expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
     expect(walker.lastKind).toBe('parts');
+  });
+  it('walks a change to lines of bought components part by part, and one to a made component in full', () => {
+    // M0 takes one B1 and one F0 (made, none in stock), which takes one B0. Only B1 is on hand.
+    const made: LineRiskPart = { ...bought('F0'), source: 'make' };
+    const before = smallPlant(
+      [model('M0'), made, bought('B0'), bought('B1', { onHand: 3 })],
+      [bomLine('M0', 'B1'), bomLine('M0', 'F0'), bomLine('F0', 'B0')],
+      [unit('2026-03-03', 1, 'M0', 'SN1'), unit('2026-03-04', 2, 'M0', 'SN2')],
+    );
+    const withLines = (lines: PlanningBomLine[]) => ({ ...before, bom: lines });
+    const walker = new LineRiskWalker();
+    walker.walk(before);
+
+    // Two B1 a unit: the second unit lacks it too.
+    const boughtQty = withLines([bomLine('M0', 'B1', 2), before.bom[1]!, before.bom[2]!]);
+    expect(walker.walk(boughtQty).result()).toEqual(referenceLineRisk(boughtQty));
+    expect(walker.lastKind).toBe('bom');
+    // The scrap allowance is for ordering: nothing the walk reads changed.
+    const scrap = withLines([{ ...boughtQty.bom[0]!, scrapPct: 10 }, before.bom[1]!, before.bom[2]!]);
+    expect(walker.walk(scrap).result()).toEqual(referenceLineRisk(scrap));
+    expect(walker.lastKind).toBe('kept');
+    // Two F0 a unit: made parts are taken in turn, so every unit is walked again.
+    const madeQty = withLines([scrap.bom[0]!, bomLine('M0', 'F0', 2), before.bom[2]!]);
+    expect(walker.walk(madeQty).result()).toEqual(referenceLineRisk(madeQty));
+    expect(walker.lastKind).toBe('full');
   });
   it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
     // Found in review: a part that drops its uom (so counts in pieces) and gains countDue has as
@@ -374,6 +417,38 @@ function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: 
       const part = made[step.pick % made.length]!;
       return { ...input, parts: withPart(part, { onHand: Math.max(0, input.parts[part]!.onHand + step.qty) }) };
     }
+    case 'lineQty':
+    case 'lineDates':
+    case 'lineScrap': {
+      // One line changed in place (quantity, effectivity, or the scrap allowance, which building ignores).
+      if (input.bom.length === 0) return input;
+      const at = step.pick % input.bom.length;
+      const line = input.bom[at]!;
+      const date = addCalendarDays(FROM, step.day);
+      const edited: PlanningBomLine =
+        step.kind === 'lineQty'
+          ? { ...line, qtyPer: QTY_PER[Math.abs(step.qty) % QTY_PER.length]! }
+          : step.kind === 'lineDates'
+            ? {
+                ...line,
+                effectiveFrom: step.qty % 2 === 0 ? date : null,
+                effectiveTo: step.qty % 2 === 0 ? null : date,
+              }
+            : { ...line, scrapPct: line.scrapPct + 5 };
+      return { ...input, bom: input.bom.map((each, index) => (index === at ? edited : each)) };
+    }
+    case 'lineAdd': {
+      // A new line from a model or made part to any part after it (acyclic, as the generator's).
+      const parents = input.parts.filter((part) => part.source !== 'buy');
+      const parent = step.pick % parents.length;
+      const after = input.parts.slice(input.parts.indexOf(parents[parent]!) + 1);
+      if (after.length === 0) return input;
+      const component = after[Math.abs(step.qty * 7 + step.day) % after.length]!;
+      const line = bomLine(parents[parent]!.partNumber, component.partNumber, QTY_PER[step.pick % QTY_PER.length]);
+      return { ...input, bom: [...input.bom, line] };
+    }
+    case 'lineDrop':
+      return { ...input, bom: input.bom.filter((_, index) => index !== step.pick % Math.max(1, input.bom.length)) };
     default:
       return { ...input, sequence: input.sequence.slice(1) };
   }
