@@ -1,7 +1,7 @@
 import { Exploder, StockLedger, stillHolds, type Explosion, type NeedGroups } from './line-risk-explosion';
 import { LackRecordWriter, LineRiskRun, type LackRecords, type ShortPartFigures } from './line-risk-run';
 import { intColumn } from './typed-column';
-import { BOUGHT, buildPlanModel, PlanInputError, requireDate, type PlanModel } from './plan-model';
+import { BOUGHT, buildPlanModel, END_ITEM, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
 import type { IsoDate, PlanningBomLine, PlanningPart, PlantCalendar, ScheduledReceipt, SequenceSlot } from './types';
@@ -219,9 +219,10 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
 /**
  * How a walk went: every unit walked; only the parts whose supply changed walked again; only the
  * parts whose BOM lines changed (and those whose supply changed) walked again, the units that use
- * those lines exploded again; or the last walk's units and slots kept whole.
+ * those lines exploded again; the first units taken out as built, the rest walked on from there
+ * (the parts whose supply changed walked again); or the last walk's units and slots kept whole.
  */
-export type WalkKind = 'full' | 'parts' | 'bom' | 'kept';
+export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'kept';
 
 /**
  * Walks line risk again and again over changing planning data (the server's worker), keeping what
@@ -229,9 +230,11 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'kept';
  * of a few bought parts. Units then keep their verdicts unless one of those parts decides one, so
  * only those parts' rows are walked again, against the verdicts found before. An engineering
  * change to lines of bought components is walked the same way: it changes what units need of
- * those parts alone, so only the units whose BOM passes a changed line are exploded again. The
- * walk is done in full whenever a verdict would change, a made part's stock or lines changed, or
- * anything else changed. Either way the answer is exactly the full walk's.
+ * those parts alone, so only the units whose BOM passes a changed line are exploded again. Units
+ * built at the head of the sequence, which the walk had found buildable, are taken out with what
+ * they committed (the backflush took the same from on-hand), and the walk stands from the next
+ * unit on. The walk is done in full whenever a verdict would change, a made part's stock or lines
+ * changed, or anything else changed. Either way the answer is exactly the full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -641,41 +644,44 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
 
 /**
  * The walk after a change, reusing the last one when only bought parts' supply changed (their
- * on-hand, firm receipts or loops) or lines of bought components; null when it must be walked in full.
+ * on-hand, firm receipts or loops), lines of bought components, or when the first units were built
+ * (their parts backflushed); null when it must be walked in full.
  */
 function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: WalkKind } | null {
   const before = last.input;
   if (
     input.from !== before.from ||
     input.to !== before.to ||
-    input.sequence !== before.sequence ||
     input.calendar !== before.calendar ||
     input.parts.length !== before.parts.length
   ) {
     return null;
   }
-  const { rowBase } = last;
+  // One kind of change at a time beside stock: units built, or the BOM.
+  const base =
+    input.sequence === before.sequence ? last : input.bom === before.bom && withoutBuilt(last, input.sequence);
+  if (!base) return null;
+  const { rowBase } = base;
   const { parts } = input;
-  let onHand = last.onHand;
+  let onHand = base.onHand;
   for (let part = 0; part < parts.length; part += 1) {
     const now = parts[part];
     const then = before.parts[part];
-    if (now === then) continue;
-    if (!sameBesideStock(then, now)) return null;
-    if (now.onHand !== then.onHand) {
-      if (last.model.source[part] !== BOUGHT || !Number.isFinite(now.onHand)) return null;
-      if (onHand === last.onHand) onHand = onHand.slice();
-      onHand[part] = now.onHand;
-    }
+    if (now !== then && !sameBesideStock(then, now)) return null;
+    // An end item's own stock is never drawn on: a unit is a build order.
+    if (base.model.source[part] === END_ITEM || now.onHand === onHand[part]) continue;
+    if (base.model.source[part] !== BOUGHT || !Number.isFinite(now.onHand)) return null;
+    if (onHand === base.onHand) onHand = onHand.slice();
+    onHand[part] = now.onHand;
   }
-  const bom = input.bom === before.bom ? null : bomChangeOf(last, input);
+  const bom = input.bom === before.bom ? null : bomChangeOf(base, input);
   if (bom === undefined) return null;
-  const model = bom?.model ?? last.model;
+  const model = bom?.model ?? base.model;
   const days = model.days.length;
   const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(input.firmReceipts, model, rowBase, onHand);
   const needs = bom
-    ? needAgain(last, bom, cumulativeSupply)
-    : { probed: last.probed, requiredByDay: last.requiredByDay };
+    ? needAgain(base, bom, cumulativeSupply)
+    : { probed: base.probed, requiredByDay: base.requiredByDay };
   if (!needs) return null;
   const loopByPart = loopSupplies(input, model);
   for (const [part, loop] of loopByPart) {
@@ -689,16 +695,16 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
     changed += 1;
   }
   for (let part = 0; part < parts.length; part += 1) {
-    const base = rowBase[part];
+    const row = rowBase[part];
     for (let t = 0; t < days; t += 1) {
-      if (cumulativeSupply[base + t] === last.supply[base + t]) continue;
+      if (cumulativeSupply[row + t] === base.supply[row + t]) continue;
       if (model.source[part] !== BOUGHT) return null;
       if (inChanged[part] === 0) changed += 1;
       inChanged[part] = 1;
       break;
     }
   }
-  let walked: Walked = { ...last, input, onHand, supply: cumulativeSupply, ...needs };
+  let walked: Walked = { ...base, input, onHand, supply: cumulativeSupply, ...needs };
   if (bom) walked = { ...walked, model, exploder: bom.exploder };
   if (changed > 0) {
     const replayed = replayParts(walked, inChanged, bom?.explodeAgain ?? null);
@@ -706,7 +712,97 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
     walked = { ...walked, ...replayed };
   }
   const run = finish(walked, { firmReceiptQty, loopByPart });
-  return { run, walked, kind: bom ? 'bom' : changed > 0 ? 'parts' : 'kept' };
+  const kind = base !== last ? 'built' : bom ? 'bom' : changed > 0 ? 'parts' : 'kept';
+  return { run, walked, kind };
+}
+
+/**
+ * The last walk as if it had started after units built since: the first units of its order, each
+ * built in the walk on the first day, so what they committed is now gone from on-hand (the
+ * backflush took it) and the rest of the walk stands as it was. False when the sequence changed
+ * otherwise or a unit built was not one of those.
+ */
+function withoutBuilt(last: Walked, sequence: SequenceSlot[]): Walked | false {
+  const ordered = orderSlots(sequence, last.model);
+  const gone = last.ordered.length - ordered.length;
+  if (gone <= 0) return false;
+  for (let position = 0; position < ordered.length; position += 1) {
+    if (!sameSlot(ordered[position], last.ordered[position + gone])) return false;
+  }
+  const { rowBase, model, probed } = last;
+  const days = model.days.length;
+  const supply = last.supply.slice();
+  const onHand = last.onHand.slice();
+  const commit = (part: number, bucket: number, qty: number): boolean => {
+    if (bucket !== 0) return false;
+    const row = rowBase[part];
+    for (let t = 0; t < days; t += 1) supply[row + t] = roundQty(supply[row + t] - qty);
+    onHand[part] = roundQty(onHand[part] - qty);
+    return true;
+  };
+  // The parts the units built needed: what every unit needs of them per day is summed again, in
+  // the full walk's order, without those units.
+  const needed = new Uint8Array(rowBase.length);
+  const requiredByDay = last.requiredByDay.slice();
+  for (let position = 0; position < gone; position += 1) {
+    if (last.built[position] !== 1) return false;
+    const { needCount, needPart, needBucket, needQty, takeCount, takePart, takeBucket, takeQty } =
+      last.judged[position];
+    for (let need = 0; need < needCount; need += 1) {
+      if (!commit(needPart[need], needBucket[need], needQty[need])) return false;
+    }
+    for (let take = 0; take < takeCount; take += 1) {
+      if (!commit(takePart[take], takeBucket[take], takeQty[take])) return false;
+    }
+    const explosion = probed[position];
+    for (let need = 0; need < explosion.needCount; need += 1) {
+      const part = explosion.needPart[need];
+      if (needed[part] === 1) continue;
+      needed[part] = 1;
+      requiredByDay.fill(0, rowBase[part], rowBase[part] + days);
+    }
+  }
+  for (let position = gone; position < probed.length; position += 1) {
+    const { needCount, needPart, needBucket, needQty } = probed[position];
+    for (let need = 0; need < needCount; need += 1) {
+      const part = needPart[need];
+      if (needed[part] === 1) requiredByDay[rowBase[part] + needBucket[need]] += needQty[need];
+    }
+  }
+  // Units built with every unit ahead of them built too lacked nothing, now or behind others (the
+  // two views agree until a unit is at risk): they left no records, so the records and each part's
+  // first slot keep their places, and each rescue was found against the same stock as now.
+  const first = last.unitStart[gone];
+  if (first !== 0) return false;
+  const old = last.records;
+  return {
+    ...last,
+    input: { ...last.input, sequence },
+    onHand,
+    supply,
+    requiredByDay,
+    ordered,
+    probed: probed.slice(gone),
+    judged: last.judged.slice(gone),
+    built: last.built.slice(gone),
+    // Units built are not at risk: the others keep their index among those at risk.
+    atRiskIndex: last.atRiskIndex.slice(gone),
+    atRiskUnit: last.atRiskUnit.map((position) => position - gone),
+    unitsBuilt: last.unitsBuilt - gone,
+    records: { ...old, unit: old.unit.map((position) => position - gone) },
+    unitStart: last.unitStart.subarray(gone),
+  };
+}
+
+function sameSlot(a: OrderedSlot, b: OrderedSlot): boolean {
+  return (
+    a.model === b.model &&
+    a.bucket === b.bucket &&
+    a.slot.date === b.slot.date &&
+    a.slot.sequence === b.slot.sequence &&
+    a.slot.serial === b.slot.serial &&
+    a.slot.qty === b.slot.qty
+  );
 }
 
 /** A change to the BOM that the walker can walk again part by part. */
@@ -1144,7 +1240,7 @@ function firmSupply(
   const cumulativeSupply = new Float64Array(partCount * days);
   for (let part = 0; part < partCount; part += 1) {
     const base = rowBase[part];
-    let cumulative = model.source[part] === 2 ? 0 : onHand[part];
+    let cumulative = model.source[part] === END_ITEM ? 0 : onHand[part];
     for (let t = 0; t < days; t += 1) {
       cumulative += receiptsByDay[base + t];
       cumulativeSupply[base + t] = roundQty(cumulative);

@@ -16,6 +16,7 @@ export const MAX_PLAN_CALENDAR_DAYS = 800;
 export const PART_SOURCE_CODES: Record<string, number> = { buy: 0, make: 1, end_item: 2 };
 export const BOUGHT = 0;
 export const MADE = 1;
+export const END_ITEM = 2;
 
 /** Bucket index of a date before `from`. */
 export const BEFORE_HORIZON = -1;

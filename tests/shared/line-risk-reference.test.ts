@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { backflush, bomByParent } from '../../shared/domain/backflush';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import {
   computeLineRisk,
@@ -10,6 +11,7 @@ import {
   type LineRiskPart,
   type LoopSupply,
 } from '../../shared/domain/line-risk';
+import { roundQty } from '../../shared/domain/quantity';
 import type { PlanningBomLine, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
 import { referenceLineRisk } from './line-risk-reference';
 import { bomLine } from './builders';
@@ -219,10 +221,10 @@ describe('computeLineRisk against the plain walk', () => {
     expect(taking).toBeGreaterThan(50);
   });
 
-  it('walks again after stock and BOM changes exactly as a walk afresh would', () => {
+  it('walks again after stock, BOM changes and builds exactly as a walk afresh would', () => {
     // The walker keeps its last walk and, after a change to bought parts' supply or to lines of
-    // bought components alone, walks only those parts again; any other change is walked in full.
-    // Every answer must be the plain walk's.
+    // bought components alone, or after the first units were built, walks only the parts that
+    // changed again; any other change is walked in full. Every answer must be the plain walk's.
     const change = fc.record({
       kind: fc.constantFrom(
         'stock',
@@ -240,12 +242,15 @@ describe('computeLineRisk against the plain walk', () => {
         'lineDrop',
         'lineDates',
         'lineScrap',
+        'build',
+        'build',
+        'build',
       ),
       pick: fc.nat(),
       qty: fc.integer({ min: -4, max: 9 }),
       day: fc.integer({ min: -2, max: 18 }),
     });
-    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, bom: 0, kept: 0 };
+    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, bom: 0, built: 0, kept: 0 };
     fc.assert(
       fc.property(plantArbitrary, fc.array(change, { minLength: 1, maxLength: 6 }), (plant, changes) => {
         const walker = new LineRiskWalker();
@@ -263,6 +268,7 @@ describe('computeLineRisk against the plain walk', () => {
     console.log(kinds);
     expect(kinds.parts).toBeGreaterThan(100);
     expect(kinds.bom).toBeGreaterThan(100);
+    expect(kinds.built).toBeGreaterThan(100);
     expect(kinds.kept).toBeGreaterThan(50);
     expect(kinds.full).toBeGreaterThan(50);
   }, 120_000);
@@ -327,6 +333,30 @@ describe('computeLineRisk against the plain walk', () => {
     // Two F0 a unit: made parts are taken in turn, so every unit is walked again.
     const madeQty = withLines([scrap.bom[0]!, bomLine('M0', 'F0', 2), before.bom[2]!]);
     expect(walker.walk(madeQty).result()).toEqual(referenceLineRisk(madeQty));
+    expect(walker.lastKind).toBe('full');
+  });
+  it('takes units built at the head of the sequence out, and walks in full after a unit at risk was built', () => {
+    // Three units of M0, one B0 each; two B0 on hand. The third lacks B0.
+    const before = smallPlant(
+      [model('M0'), bought('B0', { onHand: 2 })],
+      [bomLine('M0', 'B0')],
+      [unit(FROM, 1, 'M0', 'SN1'), unit(FROM, 2, 'M0', 'SN2'), unit('2026-03-03', 3, 'M0', 'SN3')],
+    );
+    const walker = new LineRiskWalker();
+    walker.walk(before);
+
+    // SN1 built: its B0 was backflushed (one left), and SN3 still lacks it.
+    const first = built(before, 1);
+    expect(first.parts[1]!.onHand).toBe(1);
+    expect(walker.walk(first).result()).toEqual(referenceLineRisk(first));
+    expect(walker.lastKind).toBe('built');
+    // SN2 built too, then SN3 (at risk in the walk) built anyway: on-hand goes below zero.
+    const second = built(first, 1);
+    expect(walker.walk(second).result()).toEqual(referenceLineRisk(second));
+    expect(walker.lastKind).toBe('built');
+    const third = built(second, 1);
+    expect(third.parts[1]!.onHand).toBe(-1);
+    expect(walker.walk(third).result()).toEqual(referenceLineRisk(third));
     expect(walker.lastKind).toBe('full');
   });
   it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
@@ -449,7 +479,42 @@ function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: 
     }
     case 'lineDrop':
       return { ...input, bom: input.bom.filter((_, index) => index !== step.pick % Math.max(1, input.bom.length)) };
+    case 'build':
+      return built(input, 1 + (step.pick % 2));
     default:
       return { ...input, sequence: input.sequence.slice(1) };
   }
+}
+
+/**
+ * The input after the first `count` units in build order were reported built on the first day of
+ * the horizon, as the server does it: each backflushed in turn (sharing subassembly stock), its
+ * consumption taken from on-hand, and the unit gone from the units to build.
+ */
+function built(input: LineRiskInput, count: number): LineRiskInput {
+  const inOrder = [...input.sequence]
+    .filter((slot) => slot.qty > 0 && slot.date <= input.to)
+    .sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.sequence - b.sequence));
+  const units = inOrder.slice(0, count);
+  if (units.length === 0) return input;
+  const bom = bomByParent(input.bom);
+  const sources = new Map(input.parts.map((part) => [part.partNumber, { source: part.source }]));
+  const subassemblyStock = new Map(
+    input.parts
+      .filter((part) => part.source !== 'buy' && part.onHand > 0)
+      .map((part) => [part.partNumber, part.onHand]),
+  );
+  const onHand = new Map(input.parts.map((part) => [part.partNumber, part.onHand]));
+  for (const unit of units) {
+    for (const [partNumber, qty] of backflush(unit.model, unit.qty, input.from, bom, sources, subassemblyStock)) {
+      onHand.set(partNumber, roundQty(onHand.get(partNumber)! - qty));
+    }
+  }
+  return {
+    ...input,
+    parts: input.parts.map((part) =>
+      onHand.get(part.partNumber) === part.onHand ? part : { ...part, onHand: onHand.get(part.partNumber)! },
+    ),
+    sequence: input.sequence.filter((slot) => !units.includes(slot)),
+  };
 }
