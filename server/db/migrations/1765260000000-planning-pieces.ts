@@ -14,7 +14,8 @@ export class PlanningPieces1765260000000 implements MigrationInterface {
 
   async down(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(
-      `DELETE FROM setting WHERE "key" IN ('planningVersion.parts', 'planningVersion.bom', 'planningVersion.sequence', 'planningVersion.calendar')`,
+      `DELETE FROM setting WHERE "key" IN ('planningVersion.parts', 'planningVersion.bom', 'planningVersion.sequence',
+        'planningVersion.calendar', 'planningVersion.structure')`,
     );
     // As if everything but stock changed at the last planning change: always safe for the old reader.
     await queryRunner.query(
