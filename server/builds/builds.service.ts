@@ -138,7 +138,7 @@ export class BuildsService {
         { status: 'planned', builtAt: null, startedAt: null },
       );
       // The unit is in the sequence again: more than stock changed.
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'sequence');
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'reverse-build',
@@ -203,7 +203,7 @@ export class BuildsService {
           entityKey: serial,
         });
         // The sequence is a planning input; open boards and line-end screens show the new status.
-        await bumpPlanningVersion(manager);
+        await bumpPlanningVersion(manager, 'sequence');
         entry.status = 'started';
       }
       return { serial, status: entry.status, builtAt: entry.builtAt, movements: [] };
@@ -285,7 +285,7 @@ export class BuildsService {
     if (affected !== entries.length)
       throw new ConflictError('A unit changed while it was being reported built; look again.');
     // The built units leave the sequence still to build: more than stock changed.
-    if (entries.length > 0) await bumpPlanningVersion(manager);
+    if (entries.length > 0) await bumpPlanningVersion(manager, 'sequence');
     const bySerial = new Map<string, PostedMovement[]>();
     for (const movement of posted) {
       const list = bySerial.get(movement.ref!);

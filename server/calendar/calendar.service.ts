@@ -36,7 +36,7 @@ export async function writeCalendar(
       calendar.holidays.map((date) => ({ date, name: names.get(date) ?? kept.get(date) ?? '' })),
     );
   }
-  await bumpPlanningVersion(manager);
+  await bumpPlanningVersion(manager, 'calendar');
   return readCalendar(manager);
 }
 

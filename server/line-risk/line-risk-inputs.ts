@@ -5,6 +5,7 @@ import type { Calendar } from '../../shared/schemas/master-data';
 import type { KanbanLoop } from '../../shared/schemas/loops';
 import { readCalendar } from '../calendar/calendar.service';
 import { EXPECTED_ARRIVAL, readBomLines, readUnitsToBuild } from '../planning/plan-inputs';
+import type { PlanningPiece } from '../settings/versions';
 import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.service';
 
 /**
@@ -59,26 +60,55 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-// The part columns a change of stock alone moves, in the same order as PARTS_SQL.
+// The part columns a change of stock alone moves, in the same order as PARTS_SQL: read again while the part master stands.
 const STOCK_SQL = `SELECT p.part_number AS "partNumber", p.on_hand AS "onHand", ${COUNTED_AT_SQL} AS "countedAt"
   FROM part p ORDER BY p.part_number`;
+
+/** What a read may take from the inputs read before: the pieces whose counters stood since (see PlanningPiece). */
+export interface LineRiskReuse {
+  before: LineRiskInputs;
+  standing: ReadonlySet<PlanningPiece>;
+}
 
 /**
  * Reads the parts (with their details and whether each is due a count), the BOM, the units to
  * build, the firm receipts, the calendar, and the kanban loops as supply; the caller runs it in
- * one snapshot.
+ * one snapshot. With `reuse`, a standing piece is `before`'s (the same object, so what compares
+ * the inputs finds it unchanged at once) and only the others are read. Standing parts still have
+ * their stock read again (on-hand, when each was counted), keeping every part whose figures stand;
+ * firm receipts and loops are read every time. Equal to a read without `reuse` as long as the
+ * standing pieces did stand.
  */
 export async function loadLineRiskInputs(
   manager: EntityManager,
   loops: readonly KanbanLoop[],
   now = new Date(),
+  reuse?: LineRiskReuse,
 ): Promise<LineRiskInputs> {
+  /** `before`'s piece when it stood; undefined when it is to be read. */
+  const kept = <P extends 'bom' | 'sequence' | 'calendar'>(piece: P): LineRiskInputs[P] | undefined =>
+    reuse?.standing.has(piece) ? reuse.before[piece] : undefined;
+  // The clock and the count interval are read every time: whether a part is due a count moves with them.
   const isCountDue = await countDueTest(manager, now);
-  const rows: PartRow[] = await manager.query(PARTS_SQL);
-  const bom = await readBomLines(manager);
-  const sequence = await readUnitsToBuild(manager);
+  const { parts, details } =
+    (reuse?.standing.has('parts') ? await readPartStock(manager, reuse.before, isCountDue) : null) ??
+    (await readParts(manager, isCountDue));
+  const bom = kept('bom') ?? (await readBomLines(manager));
+  const sequence = kept('sequence') ?? (await readUnitsToBuild(manager));
   const firmReceipts = await readFirmReceipts(manager);
-  const calendar = await readCalendar(manager);
+  const calendar = kept('calendar') ?? (await readCalendar(manager));
+  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details };
+}
+
+/** Whether a part is due a count, at the time and interval read (see countDueTest). */
+type IsCountDue = (part: CountedPart) => boolean;
+
+/** Every part, with its details and whether it is due a count. */
+async function readParts(
+  manager: EntityManager,
+  isCountDue: IsCountDue,
+): Promise<Pick<LineRiskInputs, 'parts' | 'details'>> {
+  const rows: PartRow[] = await manager.query(PARTS_SQL);
   const details = new Map<string, PartDetails>();
   const parts = rows.map((row) => {
     details.set(row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName });
@@ -96,25 +126,20 @@ export async function loadLineRiskInputs(
       countDue: isCountDue(row),
     };
   });
-  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details };
+  return { parts, details };
 }
 
 /**
- * The inputs after changes of stock alone since `before` was read (see PlanningChange): on-hand,
- * when each part was counted, the firm receipts and the loops are read again; the rest is
- * `before`'s, and so is every part whose stock figures stand (the same object, so what compares
- * the inputs finds it unchanged at once). Equal to what loadLineRiskInputs would read now. Null
- * when the part list is no longer the one `before` holds (a change that was not stock alone after
- * all): the caller then reads everything.
+ * The parts of `before` with their stock read again: on-hand and whether each is due a count; a
+ * part whose figures stand is `before`'s own object, and so are the details. Null when the part
+ * list is no longer the one `before` holds (the part master changed after all): the caller then
+ * reads the parts in full.
  */
-export async function loadLineRiskStock(
+async function readPartStock(
   manager: EntityManager,
-  loops: readonly KanbanLoop[],
   before: LineRiskInputs,
-  now = new Date(),
-): Promise<LineRiskInputs | null> {
-  // The clock and the count interval are read again too: whether a part is due a count moves with them.
-  const isCountDue = await countDueTest(manager, now);
+  isCountDue: IsCountDue,
+): Promise<Pick<LineRiskInputs, 'parts' | 'details'> | null> {
   const rows: (Pick<PartRow, 'partNumber' | 'onHand'> & Pick<CountedPart, 'countedAt'>)[] =
     await manager.query(STOCK_SQL);
   if (rows.length !== before.parts.length) return null;
@@ -127,8 +152,7 @@ export async function loadLineRiskStock(
     parts[index] =
       row.onHand === part.onHand && countDue === part.countDue ? part : { ...part, onHand: row.onHand, countDue };
   }
-  const firmReceipts = await readFirmReceipts(manager);
-  return { ...before, parts, firmReceipts, loops: loopSupplies(loops) };
+  return { parts, details: before.details };
 }
 
 const readFirmReceipts = (manager: EntityManager): Promise<ScheduledReceipt[]> => manager.query(FIRM_LINES_SQL);

@@ -11,9 +11,14 @@ import type { LoopsService } from '../loops/loops.service';
 import { plantToday, resolveHorizon } from '../planning/plan-dates';
 import { PerPlanningVersion } from '../planning/per-version';
 import { readSequenceSettings } from '../sequence/sequence-settings';
-import { readPlanningStructureVersion } from '../settings/versions';
+import {
+  PLANNING_PIECES,
+  readPlanningPieceVersions,
+  type PlanningPiece,
+  type PlanningPieceVersions,
+} from '../settings/versions';
 import { samePiece } from './changed-rows';
-import { loadLineRiskInputs, loadLineRiskStock, type LineRiskInputs } from './line-risk-inputs';
+import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
 import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
 import { toReport } from './line-risk-report';
 import { summarise } from './line-risk-summary';
@@ -50,10 +55,10 @@ export class LineRiskService {
   /** Counts the inputs results were computed from; part of every key, so a result of older ones is never served. */
   private generation = 0;
   /**
-   * The inputs last read outside a write unit, with the structure version they were read at; and
-   * the inputs the results in `results` come from.
+   * The inputs last read outside a write unit, with the piece versions they were read at; and the
+   * inputs the results in `results` come from.
    */
-  private lastRead: { inputs: LineRiskInputs; structure: number } | null = null;
+  private lastRead: { inputs: LineRiskInputs; versions: PlanningPieceVersions } | null = null;
   private resultsOf: LineRiskInputs | null = null;
 
   constructor(
@@ -65,14 +70,14 @@ export class LineRiskService {
       const loopList = await loops.listLoops();
       // Read inside a write unit, they may be uncommitted: used once, never kept.
       if (db.inWriteUnit) return loadLineRiskInputs(manager, loopList);
-      // After changes of stock alone, a large plant's part master, BOM and sequence stand: only
-      // stock is read again. Both reads are in this one snapshot, so the version matches them.
-      const structure = await readPlanningStructureVersion(manager);
+      // A change reads again only the pieces it touched: after a BOM edit a large plant's part
+      // master, sequence and calendar stand, and after changes of stock alone only stock is read.
+      // The versions are read in this one snapshot with the inputs, so they match them.
+      const versions = await readPlanningPieceVersions(manager);
       const before = this.lastRead;
-      const stockRead =
-        before?.structure === structure ? await loadLineRiskStock(manager, loopList, before.inputs) : null;
-      const read = stockRead ?? (await loadLineRiskInputs(manager, loopList));
-      this.lastRead = { inputs: keepUnchanged(read, before?.inputs ?? null), structure };
+      const reuse = before ? { before: before.inputs, standing: standingPieces(before.versions, versions) } : undefined;
+      const read = await loadLineRiskInputs(manager, loopList, new Date(), reuse);
+      this.lastRead = { inputs: keepUnchanged(read, before?.inputs ?? null), versions };
       return this.lastRead.inputs;
     });
   }
@@ -229,6 +234,11 @@ function asHttpError(error: unknown): unknown {
   if (kind === 'cycle') return new ConflictError(`The BOM cannot be exploded: ${message}.`);
   if (kind === 'input') return new BadRequestError(message);
   return error;
+}
+
+/** The pieces whose version stands between two reads. */
+function standingPieces(before: PlanningPieceVersions, now: PlanningPieceVersions): Set<PlanningPiece> {
+  return new Set(PLANNING_PIECES.filter((piece) => before[piece] === now[piece]));
 }
 
 /**

@@ -199,7 +199,8 @@ export class LoopsService {
         stillToPull = excess - toRetire.length;
       }
       if (added.length > 0 || retired.length > 0) {
-        await bumpPlanningVersion(manager);
+        // Cards added or retired change the loop's card count alone: stock, as planning changes go.
+        await bumpPlanningVersion(manager, 'stock');
         await recordAudit(manager, {
           actorEmail: actor.email,
           action: 'accept',

@@ -129,7 +129,7 @@ export class MasterDataEditService {
       }
       await manager.delete(KanbanLoopEntity, { partNumber });
       await manager.delete(PartEntity, { partNumber });
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'parts');
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'delete',

@@ -11,7 +11,8 @@ import { SupplierEntity } from './supplier.entity';
 
 export async function upsertSuppliers(manager: EntityManager, suppliers: Supplier[]): Promise<void> {
   await upsertBy(manager, SupplierEntity, suppliers as SupplierEntity[], 'code');
-  await bumpPlanningVersion(manager);
+  // Supplier names join into the part read.
+  await bumpPlanningVersion(manager, 'parts');
 }
 
 /**
@@ -21,7 +22,7 @@ export async function upsertSuppliers(manager: EntityManager, suppliers: Supplie
 export async function upsertParts(manager: EntityManager, parts: Part[]): Promise<void> {
   const master = parts.map(({ onHand: _onHand, ...part }) => part);
   await upsertBy(manager, PartEntity, master as PartEntity[], 'partNumber');
-  await bumpPlanningVersion(manager);
+  await bumpPlanningVersion(manager, 'parts');
 }
 
 /** A BOM upload replaces every line of each parent it names and leaves other parents alone. */
@@ -29,5 +30,5 @@ export async function replaceBomLines(manager: EntityManager, lines: BomLine[]):
   const parents = [...new Set(lines.map((line) => line.parent))];
   for (const chunk of chunks(parents)) await manager.delete(BomLineEntity, { parent: In(chunk) });
   for (const chunk of chunks(lines)) await manager.insert(BomLineEntity, chunk);
-  await bumpPlanningVersion(manager);
+  await bumpPlanningVersion(manager, 'bom');
 }

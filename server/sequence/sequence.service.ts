@@ -220,7 +220,7 @@ export class SequenceService {
         entityKey: 'plant',
         changes: { before, after: settings },
       });
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'sequence');
       return withVersion(await readSequenceSettings(manager));
     });
   }
@@ -333,7 +333,7 @@ export class SequenceService {
         entityKey: changed.length === 1 ? changed[0] : `${changed[0]}..${changed[changed.length - 1]}`,
         changes: { days: changed, moves, ...(frozen.length > 0 && { frozenDaysChanged: frozen }) },
       });
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'sequence');
       return {
         days: changed.map((date) =>
           this.describeDay(
@@ -423,7 +423,7 @@ export class SequenceService {
           ...(rules.isFrozen(entry.date) && { frozenDayChanged: entry.date }),
         },
       });
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'sequence');
       return toUnit(entry);
     });
   }
@@ -457,7 +457,7 @@ export class SequenceService {
           ...(rules.isFrozen(entry.date) && { frozenDayChanged: entry.date }),
         },
       });
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'sequence');
     });
   }
 }

@@ -1,18 +1,28 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi, type MockInstance } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
-import { loadLineRiskInputs, loadLineRiskStock, type LineRiskInputs } from '../../server/line-risk/line-risk-inputs';
+import { loadLineRiskInputs, type LineRiskInputs } from '../../server/line-risk/line-risk-inputs';
 import { LineRiskRunner, type LineRiskPieces } from '../../server/line-risk/line-risk-runner';
 import { syncLoops } from '../../server/loops/loop-sync';
 import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { replaceBomLines } from '../../server/master-data/master-data.writer';
+import { HolidayEntity } from '../../server/calendar/holiday.entity';
 import { PartEntity } from '../../server/master-data/part.entity';
 import { plantToday } from '../../server/planning/plan-dates';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { releasesChanged } from '../../server/releases/release-events';
 import { ReleaseEntity } from '../../server/releases/release.entity';
+import { SequenceEntryEntity } from '../../server/sequence/sequence-entry.entity';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
-import { bumpPlanningVersion, readPlanningStructureVersion, readPlanningVersion } from '../../server/settings/versions';
+import {
+  bumpPlanningVersion,
+  PLANNING_PIECES,
+  readPlanningPieceVersions,
+  readPlanningVersion,
+  type PlanningPiece,
+  type PlanningPieceVersions,
+} from '../../server/settings/versions';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { addWorkingDays, nextWorkingDay } from '../../shared/domain/calendar';
 import { cardNumber } from '../../shared/domain/gs1';
@@ -21,9 +31,10 @@ import type { LineRiskReport } from '../../shared/schemas/line-risk';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 import { bomLine } from '../shared/builders';
 
-// A change of stock alone (a count, scrap, a receipt) moves the planning version but not the
-// structure version, and the line risk then reads only stock again: what it reads must be exactly
-// what a full read gives, and the screen must show the new stock.
+// A change moves the planning version and the counter of each planning piece it touched (part
+// master, BOM, sequence, calendar); a change of stock alone (a count, scrap, a receipt) moves none.
+// The line risk then reads again only the pieces whose counter moved, and stock: what it reads must
+// be exactly what a full read gives, and the screen must show the change.
 
 const calendar: PlantCalendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] };
 const day1 = nextWorkingDay(plantToday(), calendar);
@@ -34,10 +45,17 @@ const DAY_MS = 86_400_000;
 const versions = (context: TestContext) =>
   context.db.read(async (manager) => ({
     planning: await readPlanningVersion(manager),
-    structure: await readPlanningStructureVersion(manager),
+    pieces: await readPlanningPieceVersions(manager),
   }));
 
-/** A release the supplier answered, written straight to the tables (with a full bump, as release events do). */
+/** The pieces whose counter differs between two reads. */
+const movedPieces = (before: PlanningPieceVersions, after: PlanningPieceVersions): PlanningPiece[] =>
+  PLANNING_PIECES.filter((piece) => after[piece] !== before[piece]);
+
+/** Every planning piece at a time, as the counters hand them to the line risk when none moved. */
+const everyPiece: ReadonlySet<PlanningPiece> = new Set(PLANNING_PIECES);
+
+/** A release the supplier answered, written straight to the tables and told as release events are. */
 async function confirmedRelease(
   context: TestContext,
   number: string,
@@ -63,12 +81,12 @@ async function confirmedRelease(
         }),
       ),
     );
-    await bumpPlanningVersion(manager);
+    await releasesChanged(manager);
     return saved;
   });
 }
 
-describe('the planning structure version', () => {
+describe('the planning piece versions', () => {
   let context: TestContext;
 
   beforeAll(async () => {
@@ -77,7 +95,7 @@ describe('the planning structure version', () => {
   });
   afterAll(() => context.close());
 
-  it('moves to the new planning version with a full bump, and stands through a stock-only one', async () => {
+  it('moves every piece to the new planning version with a full bump (the default), and none with a stock-only one', async () => {
     const start = await versions(context);
 
     const full = await context.db.write((manager) => bumpPlanningVersion(manager));
@@ -86,27 +104,46 @@ describe('the planning structure version', () => {
     const afterStock = await versions(context);
 
     expect(full).toBe(start.planning + 1);
-    expect(afterFull).toEqual({ planning: full, structure: full });
+    expect(afterFull).toEqual({ planning: full, pieces: { parts: full, bom: full, sequence: full, calendar: full } });
     expect(stock).toBe(full + 1);
-    expect(afterStock).toEqual({ planning: stock, structure: full });
+    expect(afterStock).toEqual({ planning: stock, pieces: afterFull.pieces });
   });
 
-  it('moves in a unit of work with a full bump in it, before or after a stock-only one', async () => {
+  it('moves the one piece a change names, leaving the others standing', async () => {
+    for (const piece of PLANNING_PIECES) {
+      const before = await versions(context);
+
+      const bumped = await context.db.write((manager) => bumpPlanningVersion(manager, piece));
+      const after = await versions(context);
+
+      expect(after.planning).toBe(bumped);
+      expect(after.pieces).toEqual({ ...before.pieces, [piece]: bumped });
+    }
+  });
+
+  it('moves each piece any bump of a unit of work touched, before or after a stock-only one', async () => {
     const start = await versions(context);
 
     await context.db.write(async (manager) => {
       await bumpPlanningVersion(manager, 'stock');
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'bom');
     });
-    const stockThenFull = await versions(context);
+    const stockThenBom = await versions(context);
     await context.db.write(async (manager) => {
-      await bumpPlanningVersion(manager);
+      await bumpPlanningVersion(manager, 'calendar');
+      await bumpPlanningVersion(manager, 'sequence');
       await bumpPlanningVersion(manager, 'stock');
     });
-    const fullThenStock = await versions(context);
+    const calendarSequenceStock = await versions(context);
 
-    expect(stockThenFull).toEqual({ planning: start.planning + 2, structure: start.planning + 2 });
-    expect(fullThenStock).toEqual({ planning: start.planning + 4, structure: start.planning + 3 });
+    expect(stockThenBom).toEqual({
+      planning: start.planning + 2,
+      pieces: { ...start.pieces, bom: start.planning + 2 },
+    });
+    expect(calendarSequenceStock).toEqual({
+      planning: start.planning + 5,
+      pieces: { ...stockThenBom.pieces, calendar: start.planning + 3, sequence: start.planning + 4 },
+    });
   });
 
   it('tells open screens the planning version after a stock-only bump as after any other', async () => {
@@ -122,7 +159,7 @@ describe('the planning structure version', () => {
   });
 });
 
-describe('line-risk inputs read after changes of stock alone', () => {
+describe('line-risk inputs read again with every planning piece standing, after changes of stock alone', () => {
   let context: TestContext;
   let releaseLines: ReleaseLineEntity[];
 
@@ -169,13 +206,13 @@ describe('line-risk inputs read after changes of stock alone', () => {
 
   const readFull = () =>
     context.db.read(async (manager) => loadLineRiskInputs(manager, await context.services.loops.listLoops()));
-  /** A full read and a stock-only read after `before`, in one snapshot. */
+  /** A full read and a read that takes every planning piece from `before`, in one snapshot. */
   const readBoth = (before: LineRiskInputs, now?: Date) =>
     context.db.read(async (manager) => {
       const loops = await context.services.loops.listLoops();
       return {
         full: await loadLineRiskInputs(manager, loops, now),
-        stockOnly: await loadLineRiskStock(manager, loops, before, now),
+        reused: await loadLineRiskInputs(manager, loops, now, { before, standing: everyPiece }),
       };
     });
   const byPart = (inputs: LineRiskInputs, partNumber: string) =>
@@ -209,14 +246,14 @@ describe('line-risk inputs read after changes of stock alone', () => {
       .set('Idempotency-Key', 'stock-only-k')
       .send({ releaseLineId: releaseLines[1].id, qty: 6, discrepancy: 'damaged', close: true });
     const versionsAfter = await versions(context);
-    const { full, stockOnly } = await readBoth(before);
+    const { full, reused } = await readBoth(before);
 
     expect([scrap.status, countOld.status, countC.status, receiveC.status, receiveK.status]).toEqual([
       201, 201, 201, 201, 201,
     ]);
-    // Five stock changes moved the planning version; none moved the structure version.
+    // Five stock changes moved the planning version; none moved a piece's counter.
     expect(versionsAfter.planning).toBeGreaterThan(versionsBefore.planning);
-    expect(versionsAfter.structure).toBe(versionsBefore.structure);
+    expect(versionsAfter.pieces).toEqual(versionsBefore.pieces);
     // The changes were real: stock, count-due, firm receipts and the loop's card (closed with
     // nothing usable, back to empty) all moved.
     expect(byPart(before, 'OLD').countDue).toBe(true);
@@ -228,16 +265,15 @@ describe('line-risk inputs read after changes of stock alone', () => {
     expect(before.loops).toMatchObject([{ partNumber: 'K', emptyCards: 0 }]);
     expect(full.loops).toMatchObject([{ partNumber: 'K', emptyCards: 1 }]);
 
-    expect(stockOnly).toStrictEqual(full);
+    expect(reused).toStrictEqual(full);
     // What stood is kept as it was, object for object.
-    expect(stockOnly!.bom).toBe(before.bom);
-    expect(stockOnly!.sequence).toBe(before.sequence);
-    expect(stockOnly!.calendar).toBe(before.calendar);
-    expect(stockOnly!.details).toBe(before.details);
+    expect(reused.bom).toBe(before.bom);
+    expect(reused.sequence).toBe(before.sequence);
+    expect(reused.calendar).toBe(before.calendar);
+    expect(reused.details).toBe(before.details);
     for (const partNumber of ['M', 'K', 'NEW-OPEN'])
-      expect(byPart(stockOnly!, partNumber)).toBe(byPart(before, partNumber));
-    for (const partNumber of ['C', 'D', 'OLD'])
-      expect(byPart(stockOnly!, partNumber)).not.toBe(byPart(before, partNumber));
+      expect(byPart(reused, partNumber)).toBe(byPart(before, partNumber));
+    for (const partNumber of ['C', 'D', 'OLD']) expect(byPart(reused, partNumber)).not.toBe(byPart(before, partNumber));
   });
 
   it('equals a full read after a kanban card is scanned empty at the line', async () => {
@@ -259,15 +295,15 @@ describe('line-risk inputs read after changes of stock alone', () => {
       .set(bearer(context.tokens.planner))
       .send({ cardNumber: card.cardNumber });
     const versionsAfter = await versions(context);
-    const { full, stockOnly } = await readBoth(before);
+    const { full, reused } = await readBoth(before);
 
     expect(scan.status).toBe(201);
     expect(versionsAfter.planning).toBeGreaterThan(versionsBefore.planning);
-    expect(versionsAfter.structure).toBe(versionsBefore.structure);
+    expect(versionsAfter.pieces).toEqual(versionsBefore.pieces);
     // The emptied card is one more the loop waits for.
     const emptyBefore = before.loops.find((supply) => supply.partNumber === 'K')!.emptyCards;
     expect(full.loops).toMatchObject([{ partNumber: 'K', emptyCards: emptyBefore + 1 }]);
-    expect(stockOnly).toStrictEqual(full);
+    expect(reused).toStrictEqual(full);
   });
 
   it('sees a part that became due a count as time passed, with no change at all', async () => {
@@ -275,61 +311,74 @@ describe('line-risk inputs read after changes of stock alone', () => {
     // NEW-OPEN opened its ledger today: 100 days on, it is past the 90-day interval.
     const later = new Date(Date.now() + 100 * DAY_MS);
 
-    const { full, stockOnly } = await readBoth(before, later);
+    const { full, reused } = await readBoth(before, later);
 
     expect(byPart(before, 'NEW-OPEN').countDue).toBe(false);
     expect(byPart(full, 'NEW-OPEN').countDue).toBe(true);
-    expect(stockOnly).toStrictEqual(full);
+    expect(reused).toStrictEqual(full);
   });
 
-  it('gives up on a part list that is no longer the one it read, so the caller reads everything', async () => {
+  it('reads the parts in full when the part list is no longer the one it read, though no counter moved', async () => {
     const before = await readFull();
     // Written with no bump at all: only the part list itself can tell.
-    await context.dataSource.getRepository(PartEntity).insert({ ...testPart('EXTRA'), onHand: 0 });
+    await context.dataSource
+      .getRepository(PartEntity)
+      .insert({ ...testPart('EXTRA', { hazardous: true }), supplierCode: 'SUP-B', onHand: 4 });
 
-    const stockOnly = await context.db.read(async (manager) =>
-      loadLineRiskStock(manager, await context.services.loops.listLoops(), before),
-    );
+    const { full, reused } = await readBoth(before);
 
-    expect(stockOnly).toBeNull();
+    expect(byPart(full, 'EXTRA')).toMatchObject({ onHand: 4, supplierCode: 'SUP-B' });
+    expect(full.details.get('EXTRA')).toMatchObject({ hazardous: true });
+    expect(reused).toStrictEqual(full);
+    expect(reused.parts).not.toBe(before.parts);
+    expect(reused.details).not.toBe(before.details);
+    expect(reused.bom).toBe(before.bom);
   });
 });
 
+/** M takes 2 × C and 1 × E; C has 5 on hand and nothing on order, E 50. Day 1 builds S1 and S2, day 2 S3 and S4. */
+async function twoDaysOfM(): Promise<TestContext> {
+  const context = await createTestContext();
+  await context.db.write(async (manager) => {
+    await writeCalendar(manager, calendar);
+    await savePartsWithStock(manager, [
+      testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
+      testPart('C', { onHand: 5, replenishment: 'scheduled' }),
+      testPart('E', { onHand: 50, replenishment: 'scheduled' }),
+    ]);
+    await replaceBomLines(manager, [bomLine('M', 'C', 2), bomLine('M', 'E', 1)]);
+    await upsertSequenceEntries(manager, [
+      { date: day1, sequence: 1, model: 'M', serial: 'S1', qty: 1 },
+      { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 },
+      { date: day2, sequence: 1, model: 'M', serial: 'S3', qty: 1 },
+      { date: day2, sequence: 2, model: 'M', serial: 'S4', qty: 1 },
+    ]);
+  });
+  return context;
+}
+
+/** The line risk of days 1 to 3, as the planner's screen asks for it. */
+async function lineRiskOf(context: TestContext): Promise<LineRiskReport> {
+  const response = await request(context.app)
+    .get('/api/line-risk')
+    .query({ from: day1, to: day3 })
+    .set(bearer(context.tokens.planner));
+  expect(response.status).toBe(200);
+  return response.body as LineRiskReport;
+}
+
+const shortOf = (report: LineRiskReport, partNumber: string) =>
+  report.shortages.find((shortage) => shortage.partNumber === partNumber);
+
 describe('GET /api/line-risk after changes of stock and of the sequence', () => {
   let context: TestContext;
-  const horizon = { from: day1, to: day3 };
 
-  // M takes 2 × C; C has 5 on hand and nothing on order. Day 1 builds S1 and S2, day 2 S3 and S4.
   beforeAll(async () => {
-    context = await createTestContext();
-    await context.db.write(async (manager) => {
-      await writeCalendar(manager, calendar);
-      await savePartsWithStock(manager, [
-        testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
-        testPart('C', { onHand: 5, replenishment: 'scheduled' }),
-        testPart('E', { onHand: 50, replenishment: 'scheduled' }),
-      ]);
-      await replaceBomLines(manager, [bomLine('M', 'C', 2), bomLine('M', 'E', 1)]);
-      await upsertSequenceEntries(manager, [
-        { date: day1, sequence: 1, model: 'M', serial: 'S1', qty: 1 },
-        { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 },
-        { date: day2, sequence: 1, model: 'M', serial: 'S3', qty: 1 },
-        { date: day2, sequence: 2, model: 'M', serial: 'S4', qty: 1 },
-      ]);
-    });
+    context = await twoDaysOfM();
   });
   afterAll(() => context.close());
 
-  const lineRisk = async () => {
-    const response = await request(context.app)
-      .get('/api/line-risk')
-      .query(horizon)
-      .set(bearer(context.tokens.planner));
-    expect(response.status).toBe(200);
-    return response.body as LineRiskReport;
-  };
-  const shortOf = (report: LineRiskReport, partNumber: string) =>
-    report.shortages.find((shortage) => shortage.partNumber === partNumber);
+  const lineRisk = () => lineRiskOf(context);
 
   it('shows the counted on-hand at once, reading only stock again', async () => {
     const walks = vi.spyOn(LineRiskRunner.prototype, 'compute');
@@ -362,7 +411,7 @@ describe('GET /api/line-risk after changes of stock and of the sequence', () => 
 
   it('reads the sequence again after a build, which also moves stock', async () => {
     const before = await lineRisk();
-    const structureBefore = (await versions(context)).structure;
+    const versionsBefore = await versions(context);
 
     const built = await request(context.app)
       .post('/api/builds')
@@ -372,7 +421,8 @@ describe('GET /api/line-risk after changes of stock and of the sequence', () => 
     const after = await lineRisk();
 
     expect(built.status).toBe(201);
-    expect((await versions(context)).structure).toBeGreaterThan(structureBefore);
+    // The stock it took moved no counter; the units it marked built moved the sequence's alone.
+    expect(movedPieces(versionsBefore.pieces, (await versions(context)).pieces)).toEqual(['sequence']);
     // S1 took its 2 C from stock (6 → 4) and left the units to build: 4 − 2 = 2 on day 1, then
     // 2 − 4 = −2 on day 2, still 2 short. Had the sequence not been read again, S1 would be
     // counted twice: 4 − 4 = 0, then −4.
@@ -382,7 +432,7 @@ describe('GET /api/line-risk after changes of stock and of the sequence', () => 
   });
 
   it('reads the sequence again after a build is undone', async () => {
-    const structureBefore = (await versions(context)).structure;
+    const versionsBefore = await versions(context);
 
     const undone = await request(context.app)
       .delete('/api/builds/S1')
@@ -391,9 +441,124 @@ describe('GET /api/line-risk after changes of stock and of the sequence', () => 
     const after = await lineRisk();
 
     expect(undone.status).toBe(200);
-    expect((await versions(context)).structure).toBeGreaterThan(structureBefore);
+    expect(movedPieces(versionsBefore.pieces, (await versions(context)).pieces)).toEqual(['sequence']);
     // S1 is to build again and its 2 C are back (4 → 6): as after the count.
     expect(after.unitsInHorizon).toBe(4);
     expect(shortOf(after, 'C')).toMatchObject({ firstShortDate: day2, shortQty: 2 });
+  });
+});
+
+describe('GET /api/line-risk after a change to one planning piece', () => {
+  let context: TestContext;
+  let walks: MockInstance<LineRiskRunner['compute']>;
+  // Far past the horizon, so what is written there changes no figure on the screen.
+  const farDay = addWorkingDays(day1, 60, calendar);
+
+  beforeAll(async () => {
+    context = await twoDaysOfM();
+    walks = vi.spyOn(LineRiskRunner.prototype, 'compute');
+  });
+  afterAll(async () => {
+    walks.mockRestore();
+    await context.close();
+  });
+
+  const lineRisk = () => lineRiskOf(context);
+  /** The pieces of the last walk: those of the result the screen was just given, walked or kept. */
+  const lastWalk = () => walks.mock.calls.at(-1)![1] as LineRiskPieces;
+  const readFull = () =>
+    context.db.read(async (manager) => loadLineRiskInputs(manager, await context.services.loops.listLoops()));
+
+  it('reads the BOM alone again after a BOM edit, walking it with the parts, sequence and calendar of the walk before', async () => {
+    const before = await lineRisk();
+    const first = lastWalk();
+    const versionsBefore = await versions(context);
+    // Written behind the counters' back (no bump): a read of the part master, the sequence or the
+    // calendar would see them, so the walk after the edit must not.
+    await context.dataSource.getRepository(PartEntity).update({ partNumber: 'E' }, { description: 'Renamed unseen' });
+    await context.dataSource
+      .getRepository(SequenceEntryEntity)
+      .insert({ date: farDay, sequence: 1, model: 'M', serial: 'S-UNSEEN', qty: 1 });
+    await context.dataSource.getRepository(HolidayEntity).insert({ date: farDay, name: '' });
+
+    const edit = await request(context.app)
+      .put('/api/bom/M')
+      .set(bearer(context.tokens.buyer))
+      .send({
+        lines: [
+          { component: 'C', qtyPer: 3 },
+          { component: 'E', qtyPer: 1 },
+        ],
+      });
+    const versionsAfter = await versions(context);
+    const after = await lineRisk();
+    const second = lastWalk();
+    const full = await readFull();
+
+    expect(edit.status).toBe(200);
+    expect(movedPieces(versionsBefore.pieces, versionsAfter.pieces)).toEqual(['bom']);
+    // Projected on-hand, day by day (on hand less what the day's units take, the netting of
+    // material requirements planning; common practice). 2 C a unit: 5 − 4 = 1, then 1 − 4 = −3,
+    // short from day 2 by 3. 3 C a unit: 5 − 6 = −1 on day 1, then −1 − 6 = −7: 1 + 6 = 7 must
+    // arrive, short from day 1.
+    expect(shortOf(before, 'C')).toMatchObject({ firstShortDate: day2, shortQty: 3 });
+    expect(shortOf(after, 'C')).toMatchObject({ firstShortDate: day1, shortQty: 7 });
+    expect(second).not.toBe(first);
+    expect(second.parts).toBe(first.parts);
+    expect(second.details).toBe(first.details);
+    expect(second.sequence).toBe(first.sequence);
+    expect(second.calendar).toBe(first.calendar);
+    expect(second.bom).not.toEqual(first.bom);
+    expect(second.bom).toStrictEqual(full.bom);
+    // What was written behind the counters' back is there for a full read to see.
+    expect(full.parts.find((part) => part.partNumber === 'E')!.description).toBe('Renamed unseen');
+    expect(full.sequence).toContainEqual(expect.objectContaining({ serial: 'S-UNSEEN' }));
+    expect(full.calendar.holidays).toContain(farDay);
+  });
+
+  it('reads the calendar alone again after a calendar change', async () => {
+    await lineRisk();
+    const first = lastWalk();
+    const versionsBefore = await versions(context);
+    const shutdown = addWorkingDays(farDay, 5, calendar);
+    // As in the BOM edit: seen by a read of the part master or the sequence, so by none here.
+    await context.dataSource.getRepository(PartEntity).update({ partNumber: 'E' }, { description: 'Renamed again' });
+    await context.dataSource
+      .getRepository(SequenceEntryEntity)
+      .insert({ date: shutdown, sequence: 1, model: 'M', serial: 'S-UNSEEN-2', qty: 1 });
+
+    const change = await request(context.app)
+      .put('/api/calendar')
+      .set(bearer(context.tokens.planner))
+      .send({ workingWeekdays: [1, 2, 3, 4, 5], holidays: [shutdown] });
+    const versionsAfter = await versions(context);
+    await lineRisk();
+    const second = lastWalk();
+
+    expect(change.status).toBe(200);
+    expect(movedPieces(versionsBefore.pieces, versionsAfter.pieces)).toEqual(['calendar']);
+    expect(second.calendar).toEqual({ workingWeekdays: [1, 2, 3, 4, 5], holidays: [shutdown] });
+    expect(second.parts).toBe(first.parts);
+    expect(second.details).toBe(first.details);
+    expect(second.bom).toBe(first.bom);
+    expect(second.sequence).toBe(first.sequence);
+  });
+
+  it('reads every piece again after a change that names none', async () => {
+    await lineRisk();
+    const first = lastWalk();
+
+    await context.db.write((manager) => bumpPlanningVersion(manager, 'any'));
+    await lineRisk();
+    const second = lastWalk();
+    const full = await readFull();
+
+    // The changes written behind the counters' back in the tests before are read at last.
+    expect(full.parts.find((part) => part.partNumber === 'E')!.description).toBe('Renamed again');
+    expect(full.sequence).toContainEqual(expect.objectContaining({ serial: 'S-UNSEEN-2' }));
+    expect(second.parts).toStrictEqual(full.parts);
+    expect(second.sequence).toStrictEqual(full.sequence);
+    expect(second.parts).not.toBe(first.parts);
+    expect(second.sequence).not.toBe(first.sequence);
   });
 });

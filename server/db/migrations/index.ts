@@ -10,6 +10,7 @@ import { PartSafety1765100000000 } from './1765100000000-part-safety';
 import { ShipNotices1765150000000 } from './1765150000000-ship-notices';
 import { DockShipments1765200000000 } from './1765200000000-dock-shipments';
 import { OverReceipts1765210000000 } from './1765210000000-over-receipts';
+import { PlanningPieces1765260000000 } from './1765260000000-planning-pieces';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -25,4 +26,5 @@ export const migrations = [
   ShipNotices1765150000000,
   DockShipments1765200000000,
   OverReceipts1765210000000,
+  PlanningPieces1765260000000,
 ];
