@@ -148,6 +148,8 @@ export class LoopsService {
       }
       if (Object.keys(after).length === 0) return;
       await manager.save(loop);
+      // The line risk counts on the loop's containers and replenishment time, read with stock.
+      await bumpPlanningVersion(manager, 'stock');
       await recordAudit(manager, {
         actorEmail: actor.email,
         action: 'update',

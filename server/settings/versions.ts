@@ -48,7 +48,7 @@ export async function bumpVersion(manager: EntityManager, channel: VersionChanne
 /**
  * What a planning change touched. `stock`: nothing but stock and its arrival — on-hand, when a
  * part was last counted, stock movements, release lines' received quantities and closed flags,
- * release statuses and firm lines, kanban card states and loop card counts; the line risk reads
+ * release statuses and firm lines, kanban card states, loops' cards and settings; the line risk reads
  * those again after every change anyway. A planning piece: that piece (stock moved in the same
  * unit of work is told by the stock ledger's own bump). `any`: every piece, or not known.
  */

@@ -9,6 +9,7 @@ import { replaceBomLines } from '../../server/master-data/master-data.writer';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
+import { readPlanningVersion } from '../../server/settings/versions';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Part } from '../../shared/schemas/master-data';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
@@ -391,6 +392,21 @@ describe('accepting a loop’s recommendation', () => {
     expect(changed.body).toMatchObject({ safetyUnits: 3, recommendedCards: 5 });
     const audit = await loopAudit('S', 'update');
     expect(audit.map((event) => event.changes)).toEqual([{ before: { safetyUnits: 0 }, after: { safetyUnits: 3 } }]);
+  });
+
+  it('moves the planning version, so the line risk counts on the loop as it now is', async () => {
+    const loop = await loopOf('S');
+    const loopSupply = async () =>
+      (await context.services.lineRisk.engineInput()).loops?.find((supply) => supply.partNumber === 'S');
+    const versionBefore = await context.db.read(readPlanningVersion);
+    const before = await loopSupply();
+
+    const changed = await patchLoop(loop.id, { containerQty: loop.containerQty + 4 });
+
+    expect(changed.status).toBe(200);
+    expect(await context.db.read(readPlanningVersion)).toBeGreaterThan(versionBefore);
+    expect(before?.containerQty).toBe(loop.containerQty);
+    expect((await loopSupply())?.containerQty).toBe(loop.containerQty + 4);
   });
 
   it('is refused to viewers and planners', async () => {
