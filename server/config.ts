@@ -18,7 +18,8 @@ const configSchema = z.object({
     .default('8h'),
   SMTP_URL: z.url().optional(),
   MAIL_FROM: z.string().default('Cardloop <cardloop@example.com>'),
-  APP_URL: z.url().default('http://localhost:3000'),
+  /** Unset: this machine on PORT, so the demo's e-mailed links work on whatever port it listens. */
+  APP_URL: z.url().optional(),
   SEED_DEMO: z.enum(['0', '1']).optional(),
   ADMIN_EMAIL: z.email().optional(),
   ADMIN_PASSWORD: z.string().min(10, 'ADMIN_PASSWORD must be at least 10 characters').optional(),
@@ -50,8 +51,9 @@ export function databaseLabel(config: Pick<AppConfig, 'DATABASE_URL' | 'DATABASE
   return `PostgreSQL ${url.toString()}`;
 }
 
-export type AppConfig = Omit<z.infer<typeof configSchema>, 'SEED_DEMO'> & {
+export type AppConfig = Omit<z.infer<typeof configSchema>, 'SEED_DEMO' | 'APP_URL'> & {
   SEED_DEMO: '0' | '1';
+  APP_URL: string;
   jwtSecret: string;
   jwtSecretGenerated: boolean;
 };
@@ -84,7 +86,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       `Invalid configuration for NODE_ENV=production:\n${problems.map((problem) => `  ${problem}`).join('\n')}`,
     );
   // The demo plant is the default only outside production.
-  const config = { ...parsed.data, SEED_DEMO: parsed.data.SEED_DEMO ?? (production ? '0' : '1') } as const;
+  const config = {
+    ...parsed.data,
+    SEED_DEMO: parsed.data.SEED_DEMO ?? (production ? '0' : '1'),
+    APP_URL: parsed.data.APP_URL ?? `http://localhost:${parsed.data.PORT}`,
+  } as const;
   if (config.SEED_DEMO === '0' && (!config.ADMIN_EMAIL || !config.ADMIN_PASSWORD)) {
     throw new Error('Invalid configuration:\n  SEED_DEMO=0 needs ADMIN_EMAIL and ADMIN_PASSWORD');
   }

@@ -12,6 +12,14 @@ describe('loadConfig', () => {
     expect(config.jwtSecretGenerated).toBe(true);
   });
 
+  it('links e-mails to this machine on the port it listens on unless APP_URL names the public address', () => {
+    expect(loadConfig({}).APP_URL).toBe('http://localhost:3000');
+    expect(loadConfig({ PORT: '3311' }).APP_URL).toBe('http://localhost:3311');
+    expect(loadConfig({ PORT: '3311', APP_URL: 'https://plant.example.com' }).APP_URL).toBe(
+      'https://plant.example.com',
+    );
+  });
+
   it('refuses to start in production without a secret, a mail server and a public address, naming each', () => {
     expect(() => loadConfig({ NODE_ENV: 'production' })).toThrow(
       /JWT_SECRET is required in production[\s\S]*SMTP_URL is required[\s\S]*APP_URL is required/,

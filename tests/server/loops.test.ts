@@ -25,6 +25,7 @@ interface LoopRow {
   recommendedCards: number;
   activeCards: number;
   proposal: { action: string; count: number };
+  containerQty: number;
   cardStates: Record<string, number>;
   [field: string]: unknown;
 }
