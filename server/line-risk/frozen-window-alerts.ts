@@ -1,10 +1,16 @@
 import type { Database } from '../db/database';
 import type { ShortageDto } from '../../shared/schemas/line-risk';
+import { unitWord } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
 import { enqueueMail } from '../outbox/outbox.service';
 import { readSetting, writeSetting } from '../settings/settings';
 import { UserEntity } from '../users/user.entity';
 import type { LineRiskService } from './line-risk.service';
+
+const QTY_FORMAT = new Intl.NumberFormat('en', { maximumFractionDigits: 3 });
+
+/** A quantity as the screens write it: `60 pcs`, `1 pc`, `12.5 kg`. */
+const quantity = (qty: number, uom: string) => `${QTY_FORMAT.format(qty)} ${unitWord(uom, qty)}`;
 
 /** Part number → first short date already reported to the planners. */
 const ALERTED = 'lineRisk.frozenWindowAlerts';
@@ -22,7 +28,7 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
       : [];
     return [
       `${shortage.partNumber} ${shortage.description}${shortage.hazardous ? ' [hazardous goods]' : ''}`,
-      `  Short from ${shortage.firstShortDate} by ${shortage.shortQty} ${shortage.uom}; ${shortage.slotsAtRiskCount} units cannot be built:`,
+      `  Short from ${shortage.firstShortDate} by ${quantity(shortage.shortQty, shortage.uom)}; ${shortage.slotsAtRiskCount} units cannot be built:`,
       ...units,
       ...more,
       ...actionLines(shortage),
@@ -47,7 +53,7 @@ function actionLines(shortage: ShortageDto): string[] {
   }
   if (shortage.action === 'count') return ['  Its on-hand is negative or due a count: count it before expediting.'];
   return [
-    `  Expedite from ${supplier}: ${shortage.needBy.map((entry) => `${entry.qty} ${shortage.uom} by ${entry.date}`).join(', ')}.`,
+    `  Expedite from ${supplier}: ${shortage.needBy.map((entry) => `${quantity(entry.qty, shortage.uom)} by ${entry.date}`).join(', ')}.`,
   ];
 }
 

@@ -1,5 +1,5 @@
 import { safetyNotes, SAFETY_DEFERRAL } from '../../shared/domain/part-safety';
-import { UNIT_WORDS } from '../../shared/schemas/master-data';
+import { unitWord } from '../../shared/schemas/master-data';
 import type { OutgoingMail } from '../outbox/outbox.service';
 
 export const HAZARDOUS_NOTE = 'Hazardous goods: pack and ship under the applicable dangerous-goods rules.';
@@ -38,11 +38,6 @@ export interface ReleaseMailContent {
 
 const QTY_FORMAT = new Intl.NumberFormat('en', { maximumFractionDigits: 3 });
 
-/** UN/ECE Recommendation 20 codes as a supplier's dispatcher says them; other codes print as they are. */
-function unitOf(uom: string): string {
-  return UNIT_WORDS[uom] ?? uom;
-}
-
 function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (char) => `&#${char.charCodeAt(0)};`);
 }
@@ -75,7 +70,7 @@ function textTable(lines: ReleaseMailLine[]): string[] {
     line.partNumber,
     line.description,
     QTY_FORMAT.format(line.qty),
-    unitOf(line.uom),
+    unitWord(line.uom, line.qty),
     line.needDate,
   ]);
   const header = ['Part', 'Description', 'Qty', 'Unit', 'At our dock by'];
@@ -109,7 +104,7 @@ function htmlTable(lines: ReleaseMailLine[]): string {
           .join('');
       return (
         `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
-        `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitOf(line.uom))}</td>` +
+        `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitWord(line.uom, line.qty))}</td>` +
         `<td style="${cell}">${line.needDate}</td></tr>`
       );
     })

@@ -33,6 +33,15 @@ export const UNIT_WORDS: Record<string, string> = {
   PR: 'pairs',
 };
 
+/** Words for one of a countable unit; measures (kg, m, L, m²) read the same for one. */
+const ONE_UNIT_WORDS: Record<string, string> = { H87: 'pc', SET: 'set', PR: 'pair' };
+
+/** The unit as people say it (`pcs`, `kg`, `sets`; `pc` for one piece); an unknown code as it is. */
+export function unitWord(uom: string, qty?: number): string {
+  if (qty === 1 && ONE_UNIT_WORDS[uom]) return ONE_UNIT_WORDS[uom];
+  return UNIT_WORDS[uom] ?? uom;
+}
+
 const weekday = z.number().int().min(1).max(7);
 
 /**

@@ -1,6 +1,6 @@
 import { roundQty } from '@shared/domain/quantity';
 import type { UnitTotal } from '@shared/domain/unit-totals';
-import { UNIT_WORDS } from '@shared/schemas/master-data';
+import { unitWord } from '@shared/schemas/master-data';
 
 /*
  * Quantities read the way people on the floor say them: `12 pcs`, `1 pc`, `4 sets`, `1,250.5 kg`.
@@ -8,18 +8,11 @@ import { UNIT_WORDS } from '@shared/schemas/master-data';
  * same words on card labels and mails); a code is never shown in place of a known word.
  */
 
-/** Words for one of a countable unit; measures (kg, m, L, m²) read the same for one. */
-const ONE_UNIT_WORDS: Record<string, string> = { H87: 'pc', SET: 'set', PR: 'pair' };
-
 const QTY_FORMAT = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 3 });
 // A total across parts adds several units of measure, so one decimal is all it can usefully show.
 const TOTAL_FORMAT = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 1 });
 
-/** The unit as people say it (`pcs`, `kg`, `sets`; `pc` for one piece); an unknown code as it is. */
-export function unitWord(uom: string, qty?: number): string {
-  if (qty === 1 && ONE_UNIT_WORDS[uom]) return ONE_UNIT_WORDS[uom];
-  return UNIT_WORDS[uom] ?? uom;
-}
+export { unitWord };
 
 /** A quantity without its unit: grouped thousands, at most three decimals (`1,250.5`). */
 export function formatQty(value: number): string {

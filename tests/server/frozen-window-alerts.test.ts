@@ -50,6 +50,9 @@ describe('frozen-window shortage alerts', () => {
     expect(mails).toHaveLength(1);
     expect(mails[0].subject).toContain('P short on');
     expect(mails[0].text).toContain('S-1 (M)');
+    // Quantities in the words the screens use, never the unit code.
+    expect(mails[0].text).toMatch(/Short from \d{4}-\d{2}-\d{2} by \d+ pcs?;/);
+    expect(mails[0].text).not.toContain('H87');
     expect(mails[0].text).toContain('http://plant.example.com/line-risk');
     expect(await alertsTo('buyer@example.com')).toHaveLength(0);
   });
