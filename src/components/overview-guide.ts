@@ -4,6 +4,8 @@ import type { PlainRouteName } from '@/router/route-map';
 /** One step of the first-run guide: where to go and what the demo shows there. */
 export interface GuideStep {
   routeName: PlainRouteName;
+  /** Opens the screen as the text describes it (a horizon, a filter). */
+  query?: Record<string, string>;
   title: string;
   text: string;
 }
@@ -16,8 +18,10 @@ export const GUIDE_STEPS: Record<Role, readonly GuideStep[]> = {
   planner: [
     {
       routeName: 'line-risk',
+      // The loop and the count fall due in the third and fourth weeks.
+      query: { weeks: '4' },
       title: 'Line risk',
-      text: 'Three parts need action: a battery to expedite, a kanban loop short of cards and a part to count.',
+      text: 'Over four weeks three parts need action: a battery to expedite, a kanban loop short of cards and a part to count.',
     },
     {
       routeName: 'sequence',

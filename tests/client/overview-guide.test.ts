@@ -25,6 +25,18 @@ describe('the first-run guide', () => {
     }
   });
 
+  it('opens the planner’s line risk on the four weeks its words are about', async () => {
+    stubFetch(jsonResponse(200, { ...buyerOverview, role: 'planner' }));
+    const context = await createAppContext({
+      user: { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null },
+    });
+    const wrapper = await mountInApp(OverviewView, context);
+
+    const first = wrapper.get('[data-test="first-run-guide"] ol > li');
+    expect(first.text()).toContain('Over four weeks three parts need action');
+    expect(first.get('a').attributes('href')).toBe('/line-risk?weeks=4');
+  });
+
   it('lists the buyer’s steps as links in order, and goes away for good when hidden', async () => {
     const fetchMock = stubFetch(jsonResponse(200, buyerOverview), new Response(null, { status: 204 }));
     const context = await createAppContext({ user: demoUsers.buyer });

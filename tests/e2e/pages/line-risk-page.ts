@@ -1,5 +1,7 @@
 import type { Locator, Page } from '@playwright/test';
 
+type HorizonLabel = 'Next week' | '2 weeks' | '4 weeks';
+
 /** The planner's Line risk screen: headline figures, short parts with their rescues, units at risk. */
 export class LineRiskPage {
   constructor(private readonly page: Page) {}
@@ -59,8 +61,12 @@ export class LineRiskPage {
     return this.page.locator('[data-test="need-by"]');
   }
 
-  async chooseHorizon(label: 'Next week' | '2 weeks' | '4 weeks'): Promise<void> {
+  async chooseHorizon(label: HorizonLabel): Promise<void> {
     await this.page.getByRole('radiogroup', { name: 'Horizon' }).getByText(label, { exact: true }).click();
+  }
+
+  horizonOption(label: HorizonLabel): Locator {
+    return this.page.getByRole('radiogroup', { name: 'Horizon' }).getByRole('radio', { name: label, exact: true });
   }
 
   async showUnits(): Promise<void> {
