@@ -22,9 +22,9 @@ export function remainingQty(line: DockLine): number {
   return Math.max(0, line.qty - line.receivedQty);
 }
 
-/** The words for what a card's line brings: a shipment carries it, the rest is still to be shipped. */
+/** The words for what a card's line brings: a shipment carries it; without a ship notice, what is expected. */
 export function cardQtyWord(kind: DockItem['kind']): string {
-  return kind === 'shipment' ? 'On this shipment' : 'Not yet shipped';
+  return kind === 'shipment' ? 'On this shipment' : 'Expected';
 }
 
 /**

@@ -217,7 +217,7 @@ describe('DockCheckInDialog', () => {
     expect(lineElement('BRUSH-20').textContent).toContain('On this shipment 40 pcs');
   });
 
-  it('counts the lines of a card not yet shipped against no shipment', async () => {
+  it('counts the lines of a card with no ship notice against no shipment', async () => {
     const fetchMock = vi.fn<typeof fetch>((_input, init) =>
       Promise.resolve(
         jsonResponse(201, receiptAnswer(JSON.parse(String(init?.body)) as ReceiptRequest, 'BRUSH-20', 12)),
@@ -237,7 +237,7 @@ describe('DockCheckInDialog', () => {
 
     await record();
 
-    expect(shown).toContain('Not yet shipped 12 pcs');
+    expect(shown).toContain('Expected 12 pcs');
     expect(receiptCalls(fetchMock).map((call) => call.body.shipNoticeId)).toEqual([null]);
   });
 

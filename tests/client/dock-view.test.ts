@@ -170,7 +170,7 @@ describe('DockView', () => {
     expect(first).toContain('2 lines');
     expect(first).toContain('Road freight · TRK-0001');
     expect(first).toContain('Confirmed');
-    expect(first).toContain('Not yet shipped');
+    expect(first).toContain('No ship notice');
     const shipment = document.querySelector('[data-card="shipment-7"]')!.textContent!;
     expect(shipment).toContain('Shipment, sent Fri 27 Nov');
     expect(shipment).toContain('Arrives Mon 30 Nov');
@@ -195,7 +195,7 @@ describe('DockView', () => {
     expect(numbersIn('at_dock')).toEqual(['R261130-SUP-B', 'R261201-SUP-A']);
     expect(numbersIn('expected')).toEqual([]);
     expect(document.querySelector('.dock-view__status')?.textContent).toBe(
-      'R261201-SUP-A (not yet shipped) moved to At dock.',
+      'R261201-SUP-A (no ship notice) moved to At dock.',
     );
   });
 
@@ -227,7 +227,7 @@ describe('DockView', () => {
     await scan('000004500018');
 
     expect(byRelease).toBe('Check in shipment of R261130-SUP-B');
-    expect(dialogTitle()).toBe('Check in R261201-SUP-A (not yet shipped)');
+    expect(dialogTitle()).toBe('Check in R261201-SUP-A (no ship notice)');
     expect(document.querySelector('[data-test="check-in-line"]')?.getAttribute('data-part')).toBe('BATT-24V');
   });
 
@@ -311,7 +311,7 @@ describe('DockView', () => {
     await mountInApp(DockView, context);
     await flushPromises();
 
-    expect(dialogTitle()).toBe('Check in R261201-SUP-A (not yet shipped)');
+    expect(dialogTitle()).toBe('Check in R261201-SUP-A (no ship notice)');
     expect(document.querySelector('[data-test="check-in-line"]')?.getAttribute('data-part')).toBe('BATT-24V');
   });
 

@@ -136,7 +136,7 @@ test.describe('Dock', () => {
     await dock.dragCard(card, dock.column('at_dock'));
 
     await expect(dock.column('at_dock').locator(`[data-card="${key}"]`)).toBeVisible();
-    await expect(dock.status()).toContainText(`${releaseNumber} (not yet shipped) moved to At dock`);
+    await expect(dock.status()).toContainText(`${releaseNumber} (no ship notice) moved to At dock`);
     await page.reload();
     await expect(dock.column('at_dock').locator(`[data-card="${key}"]`)).toBeVisible();
 

@@ -1,6 +1,6 @@
 import { expect, type Locator, type Page } from '@playwright/test';
 
-/** The Dock board: four columns of cards (a shipment, or a day not yet shipped), a scan box, and the check-in dialog. */
+/** The Dock board: four columns of cards (a shipment, or a day expected without a ship notice), a scan box, and the check-in dialog. */
 export class DockPage {
   constructor(private readonly page: Page) {}
 
@@ -28,7 +28,7 @@ export class DockPage {
     return this.page.locator(`[data-test="dock-card"][data-card="${key}"]`);
   }
 
-  /** Every card of a release: its shipments and its days not yet shipped. */
+  /** Every card of a release: its shipments and its days expected without a ship notice. */
   cardsOf(releaseNumber: string): Locator {
     return this.page.locator(`[data-test="dock-card"][data-release="${releaseNumber}"]`);
   }
