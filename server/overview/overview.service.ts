@@ -101,7 +101,7 @@ export class OverviewService {
         value: inFrozen,
         unit: 'count',
         hint: frozenUntil
-          ? `Units built up to ${frozenUntil} that cannot get every part they need.`
+          ? `Units to build up to ${frozenUntil} that cannot get every part they need.`
           : 'No frozen window is set.',
         to: '/line-risk',
         attention: inFrozen > 0,
