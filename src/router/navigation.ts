@@ -30,6 +30,8 @@ export interface NavigationEntry {
   roles: readonly Role[];
   /** Plain words of what the role does there, for the landing page. */
   summary: string;
+  /** The same for roles that do something else there (a viewer only looks, a supplier sees its own). */
+  summaryFor?: Partial<Record<Role, string>>;
 }
 
 /** The rail, in order. Keep `roles` equal to the route's `meta.roles` (a test checks it). */
@@ -47,7 +49,13 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Sort),
     roles: ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'],
     summary:
-      'Units by day and position, planned, started or built: drag to resequence, watch capacity and the model mix, keep the frozen window.',
+      'Units by day and position, planned, started or built, with capacity, the model mix and the frozen window.',
+    summaryFor: {
+      admin:
+        'Units by day and position, planned, started or built: drag to resequence, watch capacity and the model mix, keep the frozen window.',
+      planner:
+        'Units by day and position, planned, started or built: drag to resequence, watch capacity and the model mix, keep the frozen window.',
+    },
   },
   {
     routeName: 'line-end',
@@ -92,6 +100,7 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Tickets),
     roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
     summary: 'What each supplier was asked to ship and when, their answers, and the exceptions waiting for a decision.',
+    summaryFor: { supplier: 'What the plant asked you to ship and when, and your answers.' },
   },
   {
     routeName: 'supplier-account',
@@ -108,13 +117,17 @@ export const navigation: readonly NavigationEntry[] = [
     roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
     summary:
       'Each supplier month by month: on time and filled against what was first asked, promises kept, and how fast releases are answered.',
+    summaryFor: {
+      supplier:
+        'Your deliveries month by month: on time and filled against what was first asked, promises kept, and how fast you answered.',
+    },
   },
   {
     routeName: 'card-scan',
     label: 'Scan cards',
     icon: markRaw(Aim),
     roles: ['admin', 'buyer', 'planner', 'receiving'],
-    summary: 'Scan kanban cards as they are emptied, released, shipped and received.',
+    summary: 'Scan a kanban card when its container is emptied at the line: the next release orders it.',
   },
   {
     routeName: 'dock',
@@ -122,6 +135,7 @@ export const navigation: readonly NavigationEntry[] = [
     icon: markRaw(Van),
     roles: ['admin', 'receiving', 'buyer', 'planner', 'viewer'],
     summary: 'Deliveries on their way in: move them across the dock, count them in, attach the packing slip.',
+    summaryFor: { viewer: 'Deliveries on their way in, at the dock and counted in.' },
   },
   {
     routeName: 'parts',
@@ -144,6 +158,10 @@ export const navigation: readonly NavigationEntry[] = [
     roles: ['admin', 'buyer', 'planner'],
     summary:
       'Load suppliers, parts, BOMs, the build sequence or stock counts from CSV; a bad row stops the whole file.',
+    summaryFor: {
+      planner: 'Load the build sequence from CSV; a bad row stops the whole file.',
+      buyer: 'Load suppliers, parts, BOMs, stock counts or open orders from CSV; a bad row stops the whole file.',
+    },
   },
   {
     routeName: 'calendar',
@@ -174,6 +192,11 @@ export const navigation: readonly NavigationEntry[] = [
     summary: 'Every notice the plant sent or is still trying to send, and what the demo mail server caught.',
   },
 ];
+
+/** What `role` does in an area, in plain words. */
+export function summaryOf(entry: NavigationEntry, role: Role): string {
+  return entry.summaryFor?.[role] ?? entry.summary;
+}
 
 /** The entries a role may open, in rail order; nobody signed in gets none. */
 export function navigationFor(role: Role | null): NavigationEntry[] {

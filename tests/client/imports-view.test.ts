@@ -106,6 +106,9 @@ describe('ImportsView', () => {
 
     expect(kindLabels(wrapper)).toEqual(['Build sequence']);
     expect(wrapper.get('.imports-view__columns').text()).toContain('Build sequence.');
+    // The page says what this role may load, not what others may.
+    expect(wrapper.text()).toContain('Load the build sequence from a CSV file.');
+    expect(wrapper.text()).not.toContain('master data');
   });
 
   it('sends the file as the multipart field "file" and lists the rows the server refused, keeping the file chosen', async () => {

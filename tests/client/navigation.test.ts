@@ -2,7 +2,7 @@ import { createAppContext, demoUsers, mountInApp } from './helpers';
 import { afterEach, describe, expect, it } from 'vitest';
 import { ROLES } from '@shared/schemas/user';
 import AppShellNav from '@/components/AppShellNav.vue';
-import { navigation, navigationFor } from '@/router/navigation';
+import { navigation, navigationFor, summaryOf } from '@/router/navigation';
 import { routes } from '@/router/routes';
 
 // Role rules from PRODUCT.md, "The people and what each must get done": users and roles are
@@ -72,6 +72,19 @@ describe('navigationFor', () => {
 
       expect([...entry.roles].sort(), entry.routeName).toEqual([...routeRoles].sort());
     }
+  });
+});
+
+describe('summaryOf', () => {
+  it('tells each role what it does in an area: only planners and admins are told to drag units', () => {
+    const sequence = navigation.find((entry) => entry.routeName === 'sequence')!;
+    const releases = navigation.find((entry) => entry.routeName === 'releases')!;
+
+    expect(summaryOf(sequence, 'planner')).toContain('drag to resequence');
+    expect(summaryOf(sequence, 'viewer')).not.toContain('drag');
+    expect(summaryOf(sequence, 'line')).not.toContain('drag');
+    expect(summaryOf(releases, 'supplier')).toBe('What the plant asked you to ship and when, and your answers.');
+    expect(summaryOf(releases, 'buyer')).toBe(releases.summary);
   });
 });
 
