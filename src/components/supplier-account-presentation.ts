@@ -1,6 +1,6 @@
 import type { ForecastZone } from '@shared/domain/supplier-forecast';
 import type { Discrepancy } from '@shared/schemas/receipts';
-import type { ReleaseStatus } from '@shared/schemas/releases';
+import type { Release, ReleaseStatus } from '@shared/schemas/releases';
 import type { ReceivingClaim } from '@shared/schemas/supplier-account';
 import { formatQty } from '@/format';
 
@@ -40,4 +40,22 @@ export function confirmPath(releaseNumber: string): string {
 /** Where a supplier tells the plant what it shipped for a release. */
 export function shipNoticePath(releaseNumber: string): string {
   return `/releases/${encodeURIComponent(releaseNumber)}/ship-notice`;
+}
+
+/**
+ * The day a release must leave the supplier: the earliest ship date of its lines still to come (the
+ * answered date, or the last one that still arrives on time); null when nothing is left to ship.
+ */
+export function shipBy(release: Pick<Release, 'lines'>): string | null {
+  const dates = release.lines
+    .filter((line) => !line.closed && line.receivedQty < (line.confirmedQty ?? line.qty))
+    .map((line) => line.shipDate ?? line.latestShipDate)
+    .sort();
+  return dates[0] ?? null;
+}
+
+/** Not shipped yet and past its ship-by day (`today` is the plant's day). */
+export function isLate(release: Pick<Release, 'lines' | 'status'>, today: string): boolean {
+  const day = shipBy(release);
+  return ['sent', 'confirmed', 'exception'].includes(release.status) && day !== null && day < today;
 }

@@ -50,11 +50,33 @@ const claims: ReceivingClaim[] = [
     receivedAt: '2026-11-27T08:00:00.000Z',
   },
 ];
-const release = (number: string, status: Release['status']): Release => ({
+/** An open line: answered with a ship date, or not yet (then it ships by its latest on-time day). */
+const line = (shipDate: string | null, latestShipDate: string): Release['lines'][number] => ({
+  id: 1,
+  partNumber: 'C-1',
+  qty: 10,
+  needDate: latestShipDate,
+  description: 'Clip',
+  uom: 'H87',
+  hazardous: false,
+  origin: 'plan',
+  cardNumber: null,
+  confirmedQty: shipDate ? 10 : null,
+  shipDate,
+  receivedQty: 0,
+  closed: false,
+  requestedQty: 10,
+  requestedDate: latestShipDate,
+  expedite: false,
+  arrivalDate: null,
+  earliestShipDate: latestShipDate,
+  latestShipDate,
+});
+const release = (number: string, status: Release['status'], lines: Release['lines'] = []): Release => ({
   number,
   supplierCode: 'SUP-A',
   status,
-  lines: [],
+  lines,
   shipNotices: [],
   id: 1,
   supplierName: 'Supplier A',
@@ -75,8 +97,9 @@ function stubApi() {
     if (url.pathname === '/api/releases')
       return Promise.resolve(
         jsonResponse(200, [
-          release('R2-ASKED', 'sent'),
-          release('R1-OPEN', 'confirmed'),
+          release('R2-ASKED', 'sent', [line(null, '2099-01-05')]),
+          // Confirmed to ship on a day long gone, and not shipped.
+          release('R1-OPEN', 'confirmed', [line('2020-01-06', '2020-01-08')]),
           release('R0-DONE', 'received'),
         ]),
       );
@@ -123,6 +146,11 @@ describe('SupplierAccountView', () => {
     ]);
     expect(releases[1]!.text()).toContain('R1-OPEN');
     expect(linksOf(releases[1]!)).toEqual(['Send ship notice /releases/R1-OPEN/ship-notice']);
+    // The status in words, and a release past its ship-by day marked late.
+    expect(releases[0]!.text()).toContain('Sent');
+    expect(releases[0]!.text()).not.toContain('late');
+    expect(releases[1]!.text()).toContain('Confirmed');
+    expect(releases[1]!.text()).toContain('Mon 6 Jan · late');
     const claim = wrapper.get('[data-test="receiving-claims"]').get('tr.el-table__row');
     expect(claim.text()).toContain('Short');
     expect(claim.text()).toContain('10 / 12');
