@@ -193,6 +193,22 @@ describe('HorizonView', () => {
     expect(document.body.textContent).toContain('Battery 6 V 225 Ah');
   });
 
+  it('says a part number typed that is no part at all, with no Retry that could never work', async () => {
+    stubApi({
+      '/api/demand/table': tableOf(demand),
+      '/api/suppliers': () => jsonResponse(200, []),
+      '/api/plan': () => jsonResponse(404, { error: { code: 'not_found', message: 'No part NOSUCHPART.' } }),
+    });
+
+    await openHorizon('/horizon?part=NOSUCHPART');
+    await waitFor(() => expect(document.body.textContent).toContain('There is no part NOSUCHPART in the part master.'));
+
+    expect(document.body.textContent).not.toContain('could not be loaded');
+    expect([...document.body.querySelectorAll('button')].map((button) => button.textContent?.trim())).not.toContain(
+      'Retry',
+    );
+  });
+
   it('says in the drill-down that the scrap allowance is added when ordering, and links the part to its stock', async () => {
     stubApi({
       '/api/demand/table': tableOf(demand),
