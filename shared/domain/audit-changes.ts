@@ -9,10 +9,27 @@ function isRecord(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
 
+/** A list is named item by item, the first few of a long one with its count. */
+const MAX_LIST_ITEMS = 8;
+
 function shown(value: unknown): string {
   if (value === undefined || value === null || value === '') return '—';
-  const text = typeof value === 'string' ? value : JSON.stringify(value);
+  const text = typeof value === 'string' ? value : inWords(value);
   return text.length > MAX_VALUE_LENGTH ? `${text.slice(0, MAX_VALUE_LENGTH - 1)}…` : text;
+}
+
+/** A recorded value as a person reads it: `A, B, C … (12 in all)`, `field value, field value`. */
+function inWords(value: unknown): string {
+  if (Array.isArray(value)) {
+    const items = value.slice(0, MAX_LIST_ITEMS).map(shown).join(', ');
+    return value.length > MAX_LIST_ITEMS ? `${items} … (${value.length} in all)` : items || '—';
+  }
+  if (isRecord(value)) {
+    return Object.entries(value)
+      .map(([field, item]) => `${field} ${shown(item)}`)
+      .join(', ');
+  }
+  return String(value);
 }
 
 /** One line describing what an audit event changed, from → to where both are recorded. */

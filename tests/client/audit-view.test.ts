@@ -18,6 +18,16 @@ const trail: AuditList = {
       changes: { before: { leadTimeDays: 3 }, after: { leadTimeDays: 5 } },
       summary: 'leadTimeDays: 3 → 5',
     },
+    {
+      id: 1,
+      at: '2026-12-01T09:30:00.000Z',
+      actorEmail: null,
+      action: 'reverse-build',
+      kind: 'kanban_loop',
+      subject: 'GRP-W',
+      changes: null,
+      summary: '',
+    },
   ],
   truncated: false,
 };
@@ -45,7 +55,12 @@ describe('AuditView', () => {
 
     expect(wrapper.text()).toContain('buyer@example.com');
     expect(wrapper.text()).toContain('leadTimeDays: 3 → 5');
-    expect(wrapper.get('[data-test="audit-summary"]').text()).toBe('1 change');
+    expect(wrapper.get('[data-test="audit-summary"]').text()).toBe('2 changes');
+    // Actions and kinds of record in words, never their codes.
+    const rows = wrapper.findAll('tr.el-table__row').map((row) => row.text());
+    expect(rows[0]).toContain('UpdatePart');
+    expect(rows[1]).toContain('Reverse buildKanban loop');
+    expect(wrapper.text()).not.toContain('kanban_loop');
     const last = new URL(String(fetchMock.mock.calls.at(-1)?.[0]), 'http://localhost');
     expect(last.pathname).toBe('/api/audit');
     expect(last.searchParams.get('subject')).toBe('BOLT');

@@ -14,4 +14,15 @@ describe('describeAuditChanges', () => {
     expect(describeAuditChanges({ kind: 'parts', imported: 3 })).toBe('kind: parts; imported: 3');
     expect(describeAuditChanges(null)).toBe('');
   });
+
+  it('names the items of a list, the first eight of a long one with the count, and fields of a record', () => {
+    const parts = Array.from({ length: 12 }, (_, index) => `P-${index + 1}`);
+
+    expect(describeAuditChanges({ created: ['P-1', 'P-2'] })).toBe('created: P-1, P-2');
+    expect(describeAuditChanges({ created: parts })).toBe(
+      'created: P-1, P-2, P-3, P-4, P-5, P-6, P-7, P-8 … (12 in all)',
+    );
+    expect(describeAuditChanges({ loop: { cards: 4, containerQty: 20 } })).toBe('loop: cards 4, containerQty 20');
+    expect(describeAuditChanges({ created: [] })).toBe('created: —');
+  });
 });
