@@ -82,7 +82,7 @@ const SUPPLIER_FIELD_WORDS: Record<string, FieldWords> = {
   },
   deliveryWeekdays: {
     label: 'Delivery weekdays',
-    help: 'Days the supplier delivers, 1 = Monday … 7 = Sunday (e.g. 1, 4); empty means every working day. Scheduled needs are brought forward to the last delivery day before them.',
+    help: 'Days the supplier delivers; none ticked means every working day. Scheduled needs are brought forward to the last delivery day before them.',
   },
   cycleDays: {
     label: 'Cycle days',
@@ -113,7 +113,7 @@ export type FieldKind =
   | { kind: 'text' }
   | { kind: 'flag' }
   | { kind: 'choice'; options: string[] }
-  | { kind: 'numbers' };
+  | { kind: 'weekdays' };
 
 export interface SchemaField extends FieldWords {
   field: string;
@@ -158,7 +158,8 @@ function kindOf(schema: z.ZodType): FieldKind {
   }
   if (def.type === 'boolean') return { kind: 'flag' };
   if (def.type === 'enum') return { kind: 'choice', options: Object.values(def.entries ?? {}) };
-  if (def.type === 'array') return { kind: 'numbers' };
+  // The one list field: ISO 8601 weekday numbers.
+  if (def.type === 'array') return { kind: 'weekdays' };
   return { kind: 'text' };
 }
 

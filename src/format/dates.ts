@@ -28,6 +28,17 @@ export function formatWeekday(date: IsoDate): string {
   return isIsoDate(date) ? WEEKDAY_NAMES[weekdayOfDayNumber(toDayNumber(date)) - 1]! : date;
 }
 
+/** ISO 8601 weekday numbers (1 = Monday … 7 = Sunday) as names: `Mon, Thu`. */
+export function formatWeekdays(weekdays: readonly number[]): string {
+  return [...weekdays]
+    .sort((a, b) => a - b)
+    .map((day) => WEEKDAY_NAMES[day - 1] ?? String(day))
+    .join(', ');
+}
+
+/** The weekdays as choices, Monday first (ISO 8601 numbering). */
+export const WEEKDAY_OPTIONS = WEEKDAY_NAMES.map((label, index) => ({ value: index + 1, label }));
+
 /** `2 Dec` for a plant date. */
 export function formatDayMonth(date: IsoDate): string {
   return isIsoDate(date) ? `${Number(date.slice(8, 10))} ${MONTH_NAMES[Number(date.slice(5, 7)) - 1]}` : date;

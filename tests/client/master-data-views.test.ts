@@ -8,6 +8,7 @@ import { supplierFormFields } from '@/components/master-data-presentation';
 import PartView from '@/views/PartView.vue';
 import PartsView from '@/views/PartsView.vue';
 import SupplierView from '@/views/SupplierView.vue';
+import { formatWeekdays } from '@/format';
 import BomView from '@/views/BomView.vue';
 
 const buyer: SessionUser = { email: 'buyer@example.com', name: 'Bo Buyer', role: 'buyer', supplierCode: null };
@@ -114,6 +115,15 @@ describe('supplierFormFields', () => {
       label: 'Lead time (working days)',
       input: { kind: 'number', integer: true, min: 0, max: 365 },
     });
+    expect(fields.find((field) => field.field === 'deliveryWeekdays')).toMatchObject({ input: { kind: 'weekdays' } });
+  });
+});
+
+describe('formatWeekdays', () => {
+  // ISO 8601-1:2019, 3.1.2.1 (from memory): weekdays are numbered 1 = Monday … 7 = Sunday.
+  it('names ISO weekday numbers Monday first', () => {
+    expect(formatWeekdays([4, 1])).toBe('Mon, Thu');
+    expect(formatWeekdays([7])).toBe('Sun');
   });
 });
 
@@ -183,6 +193,7 @@ describe('SupplierView', () => {
           email: 'orders@supplier-a.example.com',
           leadTimeDays: 5,
           ...SUPPLIER_DEFAULT_TERMS,
+          deliveryWeekdays: [1, 4],
         }),
     });
     const context = await createAppContext({ user: viewer, path: '/suppliers/SUP-A' });
@@ -197,6 +208,8 @@ describe('SupplierView', () => {
     const theirs = parts.filter((part) => part.supplierCode === 'SUP-A').map((part) => part.partNumber);
     expect(drawn()).toEqual(theirs.slice(0, 50));
     expect(wrapper.get('.el-pagination').text()).toContain('65');
+    // Delivery weekdays by name, as the calendar names them.
+    expect(wrapper.text()).toContain('Mon, Thu');
     await wrapper.get('.el-pagination .btn-next').trigger('click');
     expect(drawn()).toEqual(theirs.slice(50, 65));
   });
