@@ -160,11 +160,26 @@ describe('BuildsView (Line end)', () => {
     expect(JSON.parse(String(init?.body))).toEqual({ serial: 'S1' });
     expect(keyOf(init)).toMatch(/^[0-9a-f-]{36}$/);
     expect(feedback(wrapper).text()).toContain('S1 reported built');
-    expect(feedback(wrapper).text()).toContain('2 parts came off stock.');
+    expect(feedback(wrapper).text()).toContain('2 part numbers came off stock.');
+    expect(feedback(wrapper).text()).not.toContain('ahead of');
     expect(feedback(wrapper).classes()).toContain('is-success');
     expect(wrapper.get('[data-serial="S1"] [data-test="unit-status"]').text()).toBe('Built');
     expect(wrapper.get('[data-test="built-count"]').text()).toBe('1 of 2 built');
     expect(wrapper.find('[data-serial="S2"] [data-test="next-unit"]').exists()).toBe(true);
+  });
+
+  it('says when a unit is reported built ahead of the one due next', async () => {
+    stubApi({
+      'GET /api/sequence': () => jsonResponse(200, boardOf([unit('S1', 1), unit('S2', 2), unit('S3', 3)])),
+      'POST /api/builds': () => jsonResponse(201, built('S3')),
+    });
+    const wrapper = await openLineEnd();
+
+    await scan(wrapper, 'S3');
+
+    expect(feedback(wrapper).text()).toContain('S3 reported built');
+    expect(feedback(wrapper).text()).toContain('It was built ahead of S1 (position 1), which is still to build.');
+    expect(feedback(wrapper).classes()).toContain('is-success');
   });
 
   it('says plainly, without an error tone, that a unit is already built', async () => {
