@@ -114,7 +114,10 @@ async function seedCountHistory(manager: EntityManager, scenario: DemoScenario, 
   for (const [index, part] of stocked.entries()) {
     // The part planted for Line risk's count story was counted well past the interval.
     const daysBefore = part.partNumber === COUNT_TO_CHECK ? 120 : 1 + ((index * 37) % 80);
-    const countedAt = new Date(new Date(opened).getTime() - daysBefore * 86_400_000).toISOString();
+    const counted = new Date(new Date(opened).getTime() - daysBefore * 86_400_000);
+    // Counts are taken on working days: a Saturday or Sunday becomes the Friday before.
+    const weekend = counted.getUTCDay() === 6 ? 1 : counted.getUTCDay() === 0 ? 2 : 0;
+    const countedAt = new Date(counted.getTime() - weekend * 86_400_000).toISOString();
     await manager.update(PartEntity, { partNumber: part.partNumber }, { lastCountedAt: countedAt });
   }
 }

@@ -140,6 +140,16 @@ describe('the demo plant’s story', () => {
     }
   });
 
+  it('dates every stock count on a weekday, as the plant works Monday to Friday', async () => {
+    const counted: { lastCountedAt: string | null }[] = await db.manager.query(
+      'SELECT last_counted_at AS "lastCountedAt" FROM part',
+    );
+    const dates = counted.flatMap((part) => (part.lastCountedAt ? [new Date(part.lastCountedAt)] : []));
+
+    expect(dates.length).toBeGreaterThan(50);
+    expect(dates.filter((date) => date.getUTCDay() === 0 || date.getUTCDay() === 6)).toEqual([]);
+  });
+
   it('names its holidays as plant shutdown days', async () => {
     const holidays: { date: string; name: string }[] = await db.manager.query('SELECT date, name FROM plant_holiday');
 
