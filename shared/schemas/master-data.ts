@@ -55,7 +55,7 @@ export const supplierSchema = z
   .object({
     code,
     name: plainText(120),
-    email: z.email().max(254),
+    email: z.email('an e-mail address like orders@example.com').max(254),
     leadTimeDays: z.number().int().min(0).max(365),
     transitDays: z.number().int().min(0).max(60),
     deliveryWeekdays: z

@@ -17,7 +17,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 };
 
 const email = z
-  .email()
+  .email('an e-mail address like name@example.com')
   .max(254)
   .transform((value) => value.toLowerCase());
 const password = z.string().min(10, 'at least 10 characters').max(200);

@@ -29,6 +29,24 @@ describe('/api/users', () => {
     );
   });
 
+  it('says what an e-mail address looks like when one sent is not, adding nobody', async () => {
+    const refused = await request(context.app)
+      .post('/api/users')
+      .set(bearer(context.tokens.admin))
+      .send({ email: 'noor at example', name: 'Noor', role: 'planner', password: 'planner-password-1' });
+
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.details).toContainEqual(
+      expect.objectContaining({ path: ['email'], message: 'an e-mail address like name@example.com' }),
+    );
+    const [{ count }] = await runSql<{ count: number }[]>(
+      context.dataSource.manager,
+      'SELECT COUNT(*) AS count FROM "user" WHERE name = ?',
+      ['Noor'],
+    );
+    expect(Number(count)).toBe(0);
+  });
+
   it('binds a supplier user to an existing supplier and rejects an unknown one', async () => {
     const missing = await request(context.app)
       .post('/api/users')
