@@ -5,6 +5,7 @@ import { ReceiptEntity } from '../../server/dock/receipt.entity';
 import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
 import { ReleaseEntity } from '../../server/releases/release.entity';
 import { StockMovementEntity } from '../../server/stock/stock-movement.entity';
+import { ShipNoticeEntity } from '../../server/ship-notices/ship-notice.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
 
@@ -33,15 +34,15 @@ const onHandOf = async (partNumber: string) =>
 const movementCount = (partNumber: string) =>
   context.dataSource.getRepository(StockMovementEntity).countBy({ partNumber });
 
-/** A sent release of SUP-A with one line per part, written straight to the tables. */
-async function sentRelease(parts: { partNumber: string; qty: number }[]) {
+/** A release of SUP-A (sent unless said) with one line per part, written straight to the tables. */
+async function sentRelease(parts: { partNumber: string; qty: number }[], status = 'sent') {
   releaseDay += 1;
   const releaseDate = `2026-10-${String(releaseDay).padStart(2, '0')}`;
   const release = await context.dataSource.getRepository(ReleaseEntity).save({
     number: `R-QTY-${releaseDay}`,
     supplierCode: 'SUP-A',
     releaseDate,
-    status: 'sent',
+    status,
     sentAt: `${releaseDate}T06:00:00.000Z`,
     carrier: null,
     trackingNumber: null,
@@ -182,5 +183,37 @@ describe('POST /api/releases/:number/confirmation', () => {
     expect((await context.dataSource.getRepository(ReleaseEntity).findOneByOrFail({ id: release.id })).status).toBe(
       'sent',
     );
+  });
+});
+
+describe('POST /api/releases/:number/ship-notices', () => {
+  it('refuses a fraction of a piece on the line that has it and announces nothing', async () => {
+    const { release, lines } = await sentRelease(
+      [
+        { partNumber: 'RESIN', qty: 50 },
+        { partNumber: 'GLOVES', qty: 40 },
+      ],
+      'confirmed',
+    );
+
+    const response = await request(context.app)
+      .post(`/api/releases/${release.number}/ship-notices`)
+      .set(bearer(context.tokens.supplier))
+      .set('Idempotency-Key', 'qty-notice-1')
+      .send({
+        lines: [
+          { lineId: lines[0].id, qty: 49.5 },
+          { lineId: lines[1].id, qty: 39.5 },
+        ],
+        carrier: 'Road Freight Co',
+        trackingNumber: 'RF-9',
+        shipDate: '2099-01-05',
+      });
+
+    expect(response.status).toBe(422);
+    expect(response.body.error.details).toEqual([
+      { path: ['lines', 1, 'qty'], message: `line ${lines[1].id} (GLOVES): must be a whole number of pairs` },
+    ]);
+    expect(await context.dataSource.getRepository(ShipNoticeEntity).countBy({ releaseId: release.id })).toBe(0);
   });
 });
