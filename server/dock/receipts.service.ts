@@ -29,6 +29,7 @@ import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
 import type { AuthenticatedUser } from '../http/request-user';
 import { PartEntity } from '../master-data/part.entity';
+import { refuseUnfitQty } from '../master-data/typed-quantity';
 import { postMovements } from '../stock/stock-ledger';
 import { ReleaseLineEntity } from '../releases/release-line.entity';
 import { ReleaseEntity } from '../releases/release.entity';
@@ -300,6 +301,7 @@ export class ReceiptsService {
     const part = await manager.findOneBy(PartEntity, { partNumber: line.partNumber });
     if (!part)
       throw new ConflictError(`Part ${line.partNumber} is no longer in the master data; add it back before receiving.`);
+    refuseUnfitQty(request.qty, part, ['qty']);
 
     // Every receipt of this part waits here for the one before it, so two counts can never spread
     // the same excess over the same open lines (SQLite's single writer needs no lock).

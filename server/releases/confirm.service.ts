@@ -1,5 +1,6 @@
 import { In, IsNull, type EntityManager } from 'typeorm';
 import { answerDiffers, answerStatus } from '../../shared/domain/release-rules';
+import { typedQtyProblem } from '../../shared/domain/typed-quantity';
 import type { ConfirmAnswer, Confirmation, ConfirmResult } from '../../shared/schemas/releases';
 import { recordAudit } from '../audit/audit.service';
 import { ConflictError, InvalidInputError, GoneError, NotFoundError, RefusedInputError } from '../errors';
@@ -131,6 +132,22 @@ export class ConfirmService {
     });
   }
 
+  /** Each confirmed quantity the part's unit cannot take (half a piece), naming its line's field. */
+  private async unfitQuantities(
+    manager: EntityManager,
+    answer: ConfirmAnswer,
+    lineById: Map<number, ReleaseLineEntity>,
+  ): Promise<{ path: (string | number)[]; message: string }[]> {
+    const partNumbers = [...new Set([...lineById.values()].map((line) => line.partNumber))];
+    const parts = await manager.find(PartEntity, { where: { partNumber: In(partNumbers) } });
+    const uomOf = new Map(parts.map((part) => [part.partNumber, part.uom]));
+    return answer.lines.flatMap((reply, index) => {
+      const uom = uomOf.get(lineById.get(reply.id)!.partNumber);
+      const problem = uom === undefined ? null : typedQtyProblem(reply.confirmedQty, uom);
+      return problem ? [{ path: ['lines', index, 'confirmedQty'], message: problem }] : [];
+    });
+  }
+
   private async record(
     manager: EntityManager,
     release: ReleaseEntity,
@@ -158,6 +175,14 @@ export class ConfirmService {
         missing.map((line) => ({ path: ['lines'], message: `line ${line.id} (${line.partNumber}) has no answer` })),
       );
     }
+
+    const unfit = await this.unfitQuantities(manager, answer, lineById);
+    if (unfit.length > 0)
+      throw new RefusedInputError(
+        'Some confirmed quantities do not fit the part; nothing was changed.',
+        unfit,
+        'quantity_refused',
+      );
 
     const today = plantToday();
     const past = answer.lines

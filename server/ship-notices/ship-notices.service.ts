@@ -13,6 +13,7 @@ import { oncePerKey } from '../http/idempotency';
 import { applyCardEvent } from '../loops/card-events';
 import { KanbanCardEntity } from '../loops/kanban-card.entity';
 import { canTransition, isCardState } from '../../shared/domain/card-cycle';
+import { typedQtyProblem } from '../../shared/domain/typed-quantity';
 import { PartEntity } from '../master-data/part.entity';
 import { SupplierEntity } from '../master-data/supplier.entity';
 import { plantToday } from '../planning/plan-dates';
@@ -137,6 +138,7 @@ export class ShipNoticesService {
     const shipped = await this.shippedByLine(manager, lines);
     const supplier = await manager.findOneBy(SupplierEntity, { code: release.supplierCode });
     const overPct = supplier?.overTolerancePct ?? 0;
+    const uomOf = await this.unitsOf(manager, lines);
 
     const problems = body.lines.flatMap((asked, index) => {
       const line = lineById.get(asked.lineId);
@@ -146,6 +148,12 @@ export class ShipNoticesService {
         ];
       if (line.closed)
         return [{ path: ['lines', index, 'qty'], message: `line ${line.id} (${line.partNumber}) is already closed` }];
+      const uom = uomOf.get(line.partNumber);
+      const unfit = uom === undefined ? null : typedQtyProblem(asked.qty, uom, 'positive');
+      if (unfit)
+        return [
+          { path: ['lines', index, 'qty'], message: `line ${line.id} (${line.partNumber}): ${unfit.toLowerCase()}` },
+        ];
       const most = maxShippable(line, shipped.get(line.id) ?? 0, overPct);
       if (asked.qty > most + 1e-9) {
         return [
@@ -220,6 +228,13 @@ export class ShipNoticesService {
       if (card.retiredAt || !isCardState(card.state) || !canTransition(card.state, 'ship')) continue;
       await applyCardEvent(manager, card, 'ship', actor);
     }
+  }
+
+  /** The unit of measure of each line's part, by part number. */
+  private async unitsOf(manager: EntityManager, lines: ReleaseLineEntity[]): Promise<Map<string, string>> {
+    const partNumbers = [...new Set(lines.map((line) => line.partNumber))];
+    const parts = partNumbers.length ? await manager.findBy(PartEntity, { partNumber: In(partNumbers) }) : [];
+    return new Map(parts.map((part) => [part.partNumber, part.uom]));
   }
 
   private async shippedByLine(manager: EntityManager, lines: ReleaseLineEntity[]): Promise<Map<number, number>> {

@@ -16,6 +16,7 @@ import { NotFoundError } from '../errors';
 import type { AuthenticatedUser } from '../http/request-user';
 import type { Part } from '../../shared/schemas/master-data';
 import { upsertParts } from '../master-data/master-data.writer';
+import { refuseUnfitQty } from '../master-data/typed-quantity';
 import { PartEntity } from '../master-data/part.entity';
 import { readSetting } from '../settings/settings';
 import { postMovements, type PostedMovement } from './stock-ledger';
@@ -218,6 +219,7 @@ export class StockService {
   count(request: StockCountRequest, actor: AuthenticatedUser): Promise<StockChange> {
     return this.db.write(async (manager) => {
       const part = await this.findPart(manager, request.partNumber);
+      refuseUnfitQty(request.counted, part, ['counted']);
       await postCounts(
         manager,
         [{ partNumber: part.partNumber, counted: request.counted }],
@@ -244,6 +246,7 @@ export class StockService {
   scrap(request: StockScrapRequest, actor: AuthenticatedUser): Promise<StockChange> {
     return this.db.write(async (manager) => {
       const part = await this.findPart(manager, request.partNumber);
+      refuseUnfitQty(request.qty, part, ['qty'], 'positive');
       await postMovements(manager, [
         {
           partNumber: part.partNumber,

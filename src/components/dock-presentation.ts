@@ -1,3 +1,4 @@
+import { isCountableUnit, typedQtyProblem } from '@shared/domain/typed-quantity';
 import type { DockColumn, DockItem, DockLine } from '@shared/schemas/dock';
 import type { Discrepancy, OverCheckResponse, Receipt } from '@shared/schemas/receipts';
 import { formatDay, formatQuantity } from '@/format';
@@ -74,4 +75,21 @@ export function parseCount(typed: string): number | null {
   const text = typed.trim().replace(',', '.');
   if (!/^\d+(\.\d+)?$/.test(text)) return null;
   return Number(text);
+}
+
+/**
+ * What is wrong with a count typed for a line in `uom`, as a sentence under the line; null when
+ * `parseCount` reads it and the shared rule takes it. A minus sign is named as such rather than
+ * as "not a number", and the example offers decimals only for units that have them.
+ */
+export function countProblem(typed: string, uom: string): string | null {
+  const text = typed.trim().replace(',', '.');
+  if (/^-\d+(\.\d+)?$/.test(text)) return `${typedQtyProblem(Number(text), uom)}.`;
+  const count = parseCount(typed);
+  if (count === null)
+    return isCountableUnit(uom)
+      ? 'Type the counted quantity as a whole number, e.g. 24.'
+      : 'Type the counted quantity as a number, e.g. 24 or 12.5.';
+  const problem = typedQtyProblem(count, uom);
+  return problem ? `${problem}.` : null;
 }

@@ -109,7 +109,7 @@ const SUPPLIER_FIELD_WORDS: Record<string, FieldWords> = {
 
 /** How a form edits a field, read from its zod schema so new schema fields need no new form code. */
 export type FieldKind =
-  | { kind: 'number'; integer: boolean; min?: number; max?: number }
+  | { kind: 'number'; integer: boolean }
   | { kind: 'text' }
   | { kind: 'flag' }
   | { kind: 'choice'; options: string[] }
@@ -148,13 +148,8 @@ function unwrap(schema: z.ZodType): { inner: z.ZodType; nullable: boolean } {
 function kindOf(schema: z.ZodType): FieldKind {
   const def = defOf(schema);
   if (def.type === 'number') {
-    const number = schema as z.ZodNumber;
-    return {
-      kind: 'number',
-      integer: number.isInt,
-      min: number.minValue ?? undefined,
-      max: number.maxValue ?? undefined,
-    };
+    // No limits for the box: a clamp would change what was typed; the field's schema rule says what is wrong.
+    return { kind: 'number', integer: (schema as z.ZodNumber).isInt };
   }
   if (def.type === 'boolean') return { kind: 'flag' };
   if (def.type === 'enum') return { kind: 'choice', options: Object.values(def.entries ?? {}) };

@@ -11,11 +11,16 @@ export function zodRule(schema: z.ZodType, trigger: 'blur' | 'change' = 'blur'):
     trigger,
     validator: (_rule, value: unknown, callback: (error?: Error) => void) => {
       if (value === '' || value === null || value === undefined) return callback();
-      const result = schema.safeParse(value);
-      if (result.success) return callback();
-      callback(new Error(sentenceCase(result.error.issues[0]?.message ?? 'Invalid value')));
+      const problem = zodProblem(schema, value);
+      callback(problem ? new Error(problem) : undefined);
     },
   };
+}
+
+/** What the schema says is wrong with `value`, as a sentence; null when it passes. */
+export function zodProblem(schema: z.ZodType, value: unknown): string | null {
+  const result = schema.safeParse(value);
+  return result.success ? null : sentenceCase(result.error.issues[0]?.message ?? 'Invalid value');
 }
 
 /**

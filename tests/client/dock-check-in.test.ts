@@ -6,7 +6,7 @@ import type { OverCheckResponse, ReceiptRequest, ReceiptResponse } from '@shared
 import type { SessionUser } from '@shared/schemas/user';
 import DockCheckInDialog from '@/components/DockCheckInDialog.vue';
 import { newIdempotencyKey } from '@/api/idempotency-key';
-import { parseCount, suggestDiscrepancy } from '@/components/dock-presentation';
+import { countProblem, parseCount, suggestDiscrepancy } from '@/components/dock-presentation';
 
 const receiving: SessionUser = {
   email: 'receiving@example.com',
@@ -177,6 +177,26 @@ describe('check-in helpers', () => {
     ]).toEqual([24, 12.5, 12.5, null, null, null]);
   });
 
+  it('says what is wrong with a typed count: a minus sign, half a piece, or no number at all', () => {
+    expect([
+      countProblem('-4', 'H87'),
+      countProblem('-0,5', 'KGM'),
+      countProblem('12.5', 'H87'),
+      countProblem('abc', 'H87'),
+      countProblem('abc', 'KGM'),
+      countProblem('24', 'H87'),
+      countProblem('12,5', 'KGM'),
+    ]).toEqual([
+      'Must be 0 or more.',
+      'Must be 0 or more.',
+      'Must be a whole number of pcs.',
+      'Type the counted quantity as a whole number, e.g. 24.',
+      'Type the counted quantity as a number, e.g. 24 or 12.5.',
+      null,
+      null,
+    ]);
+  });
+
   it('suggests short below what is still to come, and nothing from the count alone above it', () => {
     // Common practice, no source: a count below the remaining quantity is a short delivery. Above
     // it, only the supplier's tolerance makes a count over, and the server's over-check says so.
@@ -312,6 +332,19 @@ describe('DockCheckInDialog', () => {
     expect(sent[1]!.key).toBe(sent[0]!.key);
     expect(sent[1]!.body).toEqual(sent[0]!.body);
     expect(lineElement('BRUSH-20').querySelector('[data-test="on-hand"]')?.textContent).toBe('On hand now: 50 pcs');
+  });
+
+  it('keeps a negative count as typed, says it must be 0 or more and sends nothing', async () => {
+    const fetchMock = vi.fn<typeof fetch>();
+    vi.stubGlobal('fetch', fetchMock);
+    await openDialog(itemWith([line(1, 'BRUSH-20', 40)]));
+    await type(countBox('BRUSH-20'), '-4');
+
+    await record();
+
+    expect(fetchMock).not.toHaveBeenCalled();
+    expect(countBox('BRUSH-20').value).toBe('-4');
+    expect(lineElement('BRUSH-20').querySelector('[role="alert"]')?.textContent).toBe('Must be 0 or more.');
   });
 
   it('refuses a count of 0 without a discrepancy before sending anything', async () => {

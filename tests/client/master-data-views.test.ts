@@ -106,15 +106,21 @@ afterEach(() => {
 });
 
 describe('supplierFormFields', () => {
-  it('offers every field of the supplier schema but the code, with the schema’s limits', () => {
+  it('offers every field of the supplier schema but the code, checked by the schema’s limits, not clamped', () => {
     const fields = supplierFormFields();
+    const leadTime = fields.find((field) => field.field === 'leadTimeDays')!;
 
     expect(fields.map((field) => field.field)).not.toContain('code');
     expect(fields.map((field) => field.field)).toEqual(expect.arrayContaining(['name', 'email', 'leadTimeDays']));
-    expect(fields.find((field) => field.field === 'leadTimeDays')).toMatchObject({
-      label: 'Lead time (working days)',
-      input: { kind: 'number', integer: true, min: 0, max: 365 },
-    });
+    expect(leadTime).toMatchObject({ label: 'Lead time (working days)', input: { kind: 'number', integer: true } });
+    expect(leadTime.input).not.toHaveProperty('min');
+    expect([-1, 0, 365, 366, 2.5].map((days) => leadTime.schema.safeParse(days).success)).toEqual([
+      false,
+      true,
+      true,
+      false,
+      false,
+    ]);
     expect(fields.find((field) => field.field === 'deliveryWeekdays')).toMatchObject({ input: { kind: 'weekdays' } });
   });
 });

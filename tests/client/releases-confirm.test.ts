@@ -182,6 +182,47 @@ describe('ConfirmView', () => {
     expect(wrapper.text()).toContain('Pick the day the goods leave you.');
   });
 
+  it('keeps a negative or half-piece quantity as typed, says so under the line and sends nothing', async () => {
+    const fetchMock = stubConfirm(() => jsonResponse(200, confirmation));
+    const wrapper = await openConfirm();
+    const negative = qtyInput(wrapper, 11);
+    const halfPiece = qtyInput(wrapper, 12);
+    for (const [input, typed] of [
+      [negative, '-2'],
+      [halfPiece, '11.5'],
+    ] as const) {
+      input.value = typed;
+      input.dispatchEvent(new Event('input'));
+      input.dispatchEvent(new Event('change'));
+      input.dispatchEvent(new Event('blur'));
+    }
+    await flushPromises();
+
+    getButton(wrapper.element, 'Send answer').click();
+    await flushPromises();
+
+    expect(posted(fetchMock)).toEqual([]);
+    expect([negative.value, halfPiece.value]).toEqual(['-2', '11.5']);
+    expect(wrapper.get('#confirm-line-11-qty').element.closest('.confirm-line-card__field')!.textContent).toContain(
+      'Must be 0 or more',
+    );
+    expect(wrapper.get('#confirm-line-12-qty').element.closest('.confirm-line-card__field')!.textContent).toContain(
+      'Must be a whole number of pcs',
+    );
+  });
+
+  it('fills a quantity in kilograms in as asked, with no padded decimals', async () => {
+    const inKilograms = structuredClone(confirmation);
+    Object.assign(inKilograms.release.lines[0]!, { qty: 2000, uom: 'KGM' });
+    Object.assign(inKilograms.release.lines[1]!, { qty: 180.5, uom: 'KGM' });
+    stubConfirm(() => jsonResponse(200, inKilograms));
+
+    const wrapper = await openConfirm();
+
+    expect(wrapper.text()).toContain('Requested 2,000 kg');
+    expect([qtyInput(wrapper, 11).value, qtyInput(wrapper, 12).value]).toEqual(['2000', '180.5']);
+  });
+
   it('stands alone without the app shell, even for someone signed in', async () => {
     stubConfirm(() => jsonResponse(200, confirmation));
     const context = await createAppContext({ path: `/confirm/${TOKEN}`, user: demoUsers.buyer });

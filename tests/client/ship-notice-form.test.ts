@@ -132,6 +132,26 @@ describe('ShipNoticeView through the link in a confirmation receipt', () => {
     expect(wrapper.text()).toContain('line 11 (TNK-R60): 6 is more than the 5 still open');
   });
 
+  it('keeps a negative or more than still open as typed, says so beside the line and sends nothing', async () => {
+    const fetchMock = stubShipping(() => jsonResponse(201, sent));
+    const wrapper = await openForm();
+    setQty(wrapper, 'TNK-R60', '-2');
+    setQty(wrapper, 'CAP-20', '9');
+    await flushPromises();
+    await wrapper.get('input[aria-label="Carrier"]').setValue('Road Freight Co');
+    await wrapper.get('input[aria-label="Tracking number"]').setValue('RF-1');
+
+    getButton(wrapper.element, 'Send ship notice').click();
+    await flushPromises();
+
+    expect(fetchMock.mock.calls.filter(([, init]) => init?.method === 'POST')).toHaveLength(0);
+    const box = (partNumber: string) =>
+      wrapper.get<HTMLInputElement>(`input[aria-label="Quantity of ${partNumber} on this shipment"]`).element;
+    expect([box('TNK-R60').value, box('CAP-20').value]).toEqual(['-2', '9']);
+    expect(wrapper.text()).toContain('Must be 0 or more.');
+    expect(wrapper.text()).toContain('At most 8 pcs on this line.');
+  });
+
   it('asks for a carrier before sending anything', async () => {
     const fetchMock = stubShipping(() => jsonResponse(201, sent));
     const wrapper = await openForm();

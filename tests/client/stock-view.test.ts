@@ -344,6 +344,36 @@ describe('StockCountDialog and StockScrapDialog', () => {
     expect(wrapper.emitted('recorded')).toEqual([[{ partNumber: 'P-1', movement: null, onHand: 10 }]]);
   });
 
+  it('keeps a negative count as typed, says what is wrong beside it and sends nothing', async () => {
+    const fetchMock = stubApi({});
+    const { wrapper, dialog } = await openDialog(StockCountDialog);
+
+    await typeInto(field(dialog, 'Counted'), '-3');
+    getButton(document.body, 'Record count').click();
+    await flushPromises();
+
+    expect(field(dialog, 'Counted').value).toBe('-3');
+    await waitFor(() => expect(errorOf(dialog, 'Counted')).toBe('Must be 0 or more'));
+    expect(dialog.querySelector('[data-test="count-difference"]')).toBeNull();
+    expect(callsTo(fetchMock, 'POST', '/api/stock/counts')).toHaveLength(0);
+    expect(wrapper.emitted('recorded')).toBeUndefined();
+  });
+
+  it('refuses a fraction of a part counted in pieces when the box is left, keeps it and sends nothing', async () => {
+    const fetchMock = stubApi({});
+    const { dialog } = await openDialog(StockScrapDialog);
+
+    await typeInto(field(dialog, 'What happened'), 'Dropped');
+    await typeInto(field(dialog, 'Scrapped'), '1.5');
+    await waitFor(() => expect(errorOf(dialog, 'Scrapped')).toBe('Must be a whole number of pcs'));
+    getButton(document.body, 'Record scrap').click();
+    await flushPromises();
+
+    expect(field(dialog, 'Scrapped').value).toBe('1.5');
+    expect(errorOf(dialog, 'Scrapped')).toBe('Must be a whole number of pcs');
+    expect(callsTo(fetchMock, 'POST', '/api/stock/scrap')).toHaveLength(0);
+  });
+
   // Element Plus shows client-side rule messages only in a real browser (tests/e2e/line-end.spec.ts
   // checks them); here the server's field messages are placed through each item's `error`.
   it('places the server’s field message on its field and reports nothing recorded', async () => {

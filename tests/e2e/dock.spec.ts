@@ -94,6 +94,12 @@ test.describe('Dock', () => {
     await expect(dialog).toHaveAccessibleName(`Check in shipment of ${release!.number}`);
     await expect(dock.lines()).toHaveCount(1);
     expect(await dock.orderedQty(dock.lines().first())).toBe(shippedQty);
+    // A negative count is named as such under its line, stays in the box and records nothing.
+    const shippedLine = dock.lines().first();
+    await dock.count(shippedLine, -4);
+    await dock.recordCounts();
+    await expect(shippedLine.getByRole('alert')).toHaveText('Must be 0 or more.');
+    await expect(shippedLine.getByLabel(/^Counted/)).toHaveValue('-4');
     await dock.count(dock.lines().first(), shippedQty);
     await dock.recordCounts();
     await expect(dialog.locator('[data-test="check-in-done"]')).toContainText('This card is now in Counted');

@@ -217,6 +217,12 @@ test.describe('Line end', () => {
     await expect(page.locator('[data-test="stock-flag"]')).toHaveText(['Count due']);
     await page.getByRole('button', { name: 'Record a count' }).click();
     const count = page.getByRole('dialog', { name: `Record a count of ${due.partNumber}` });
+    // A typo is refused beside the box and stays in it as typed, never turned into 0.
+    await count.getByLabel(/^Counted/).fill('-3');
+    await count.getByLabel(/^Reason/).focus();
+    await expect(count.getByText('Must be 0 or more')).toBeVisible();
+    await expect(count.getByLabel(/^Counted/)).toHaveValue('-3');
+    await expect(count.locator('[data-test="count-difference"]')).toHaveCount(0);
     await count.getByLabel(/^Counted/).fill(String(due.onHand - 2));
     await count.getByLabel(/^Reason/).fill('Cycle count');
     await expect(count.locator('[data-test="count-difference"]')).toContainText('Adjustment: −2');

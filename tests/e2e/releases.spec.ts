@@ -93,6 +93,12 @@ test('a buyer runs today’s releases, the supplier proposes a change from the e
   await expect(confirm.heading()).toHaveText(kanbanRelease!.number);
   await expect(supplierPage.getByRole('navigation', { name: 'Main' })).toHaveCount(0);
   const firstQty = Number(await confirm.quantityInputs().first().inputValue());
+  // A typo is refused under its line and stays in the box as typed; nothing is sent.
+  await confirm.setQuantity(0, -2);
+  await confirm.send();
+  await expect(supplierPage.getByText('Must be 0 or more')).toBeVisible();
+  await expect(confirm.quantityInputs().first()).toHaveValue('-2');
+  await expect(confirm.heading()).toHaveText(kanbanRelease!.number);
   await confirm.setQuantity(0, firstQty - 1);
   await expect(confirm.summary()).toHaveText(/1 line differs from the request/);
   await supplierPage.evaluate(() => window.scrollTo(0, 0));
