@@ -104,6 +104,28 @@ describe('OutboxView', () => {
     );
   });
 
+  it('shows the action column only while a notice in view can be sent again', async () => {
+    stubApi({
+      'GET /api/outbox': () => jsonResponse(200, [sent]),
+      'GET /api/outbox/health': () => jsonResponse(200, health),
+      'GET /api/dev/mail': () => jsonResponse(200, []),
+    });
+    const headers = (wrapper: Awaited<ReturnType<typeof openOutbox>>) =>
+      wrapper.findAll('.outbox-view__table th').map((cell) => cell.text());
+
+    const allSent = await openOutbox();
+    expect(headers(allSent)).toEqual(['Status', 'To', 'Subject', 'Delivery', 'Queued']);
+    allSent.unmount();
+    stubApi({
+      'GET /api/outbox': () => jsonResponse(200, [failing, sent]),
+      'GET /api/outbox/health': () => jsonResponse(200, health),
+      'GET /api/dev/mail': () => jsonResponse(200, []),
+    });
+    const oneFailing = await openOutbox();
+
+    expect(headers(oneFailing)).toEqual(['Status', 'To', 'Subject', 'Delivery', 'Queued', 'Action']);
+  });
+
   it('tries a failing notice again at once and shows it as it now stands', async () => {
     const fetchMock = stubApi({
       'GET /api/outbox': () => jsonResponse(200, [failing, sent]),
