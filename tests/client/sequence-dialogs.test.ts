@@ -102,6 +102,21 @@ describe('SequenceAddUnitDialog', () => {
     ).toBe(true);
   });
 
+  it('keeps a quantity that is not a whole number of units as typed, says so and sends nothing', async () => {
+    const fetchMock = stubApi({});
+    const { wrapper, dialog } = await openAddDialog();
+    await fill(wrapper, dialog, OPEN);
+    wrapper.findComponent({ name: 'ElInputNumber' }).vm.$emit('update:modelValue', 1.5);
+    await flushPromises();
+
+    getButton(dialog, 'Add unit').click();
+    await flushPromises();
+
+    await waitFor(() => expect(errorUnder(dialog, 'Quantity')).toBe('Must be a whole number of pcs'));
+    expect(bodiesOf(fetchMock, 'POST', '/api/sequence/units')).toEqual([]);
+    expect(wrapper.emitted('added')).toBeUndefined();
+  });
+
   it('shows a serial already in the sequence (409) under the serial input', async () => {
     const message = 'Serial SN-NEW-1 is already in the sequence (2026-12-07, position 3).';
     stubApi({
