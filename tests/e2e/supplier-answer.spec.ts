@@ -80,7 +80,7 @@ test('a supplier signed in answers a release from its own page, and the e-mailed
   await expect(page).toHaveURL(/\/$/);
   const account = new SupplierAccountPage(page);
   await account.openFromRail();
-  await expect(account.releaseRow(release.number)).toContainText('sent');
+  await expect(account.releaseRow(release.number)).toContainText('Sent');
 
   await account.answer(release.number);
 
