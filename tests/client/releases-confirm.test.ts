@@ -194,7 +194,7 @@ describe('ConfirmView', () => {
       input.value = typed;
       input.dispatchEvent(new Event('input'));
       input.dispatchEvent(new Event('change'));
-      input.dispatchEvent(new Event('blur'));
+      input.dispatchEvent(new FocusEvent('blur'));
     }
     await flushPromises();
 

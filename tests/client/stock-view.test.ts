@@ -107,7 +107,7 @@ async function typeInto(input: HTMLInputElement, text: string): Promise<void> {
   input.value = text;
   input.dispatchEvent(new Event('input'));
   input.dispatchEvent(new Event('change'));
-  input.dispatchEvent(new Event('blur'));
+  input.dispatchEvent(new FocusEvent('blur'));
   await flushPromises();
 }
 
