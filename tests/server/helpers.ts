@@ -8,6 +8,8 @@ import { createServices, type Services } from '../../server/services';
 import { hashPassword } from '../../server/users/passwords';
 import { openDatabase, type Database } from '../../server/db/database';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
+import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { ReleaseEntity } from '../../server/releases/release.entity';
 import { UserEntity } from '../../server/users/user.entity';
 import { SUPPLIER_DEFAULT_TERMS } from '../../shared/schemas/master-data';
 
@@ -113,3 +115,45 @@ export const testPart = (partNumber: string, overrides: Partial<Part> = {}): Par
   hazardous: false,
   ...overrides,
 });
+
+/** A line of a release written by a test; a line with a card is a kanban line. */
+export interface TestReleaseLine {
+  partNumber: string;
+  qty: number;
+  confirmedQty?: number | null;
+  cardId?: number | null;
+}
+
+/**
+ * A release of SUP-A as the release job and the supplier would leave it (sent at 06:00 on its day,
+ * each line needed that day, nothing received), written straight to the tables.
+ */
+export async function writeTestRelease(
+  context: TestContext,
+  release: { number: string; releaseDate: string; status: string },
+  lines: TestReleaseLine[],
+): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
+  const saved = await context.dataSource.getRepository(ReleaseEntity).save({
+    number: release.number,
+    supplierCode: 'SUP-A',
+    releaseDate: release.releaseDate,
+    status: release.status,
+    sentAt: `${release.releaseDate}T06:00:00.000Z`,
+    carrier: null,
+    trackingNumber: null,
+  });
+  const savedLines = await context.dataSource.getRepository(ReleaseLineEntity).save(
+    lines.map((line) => ({
+      releaseId: saved.id,
+      partNumber: line.partNumber,
+      qty: line.qty,
+      needDate: release.releaseDate,
+      origin: line.cardId ? 'kanban' : 'plan',
+      cardId: line.cardId ?? null,
+      confirmedQty: line.confirmedQty ?? null,
+      receivedQty: 0,
+      closed: false,
+    })),
+  );
+  return { release: saved, lines: savedLines };
+}

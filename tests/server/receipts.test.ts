@@ -13,49 +13,24 @@ import { readPlanningVersion } from '../../server/settings/versions';
 import { readDockVersion } from '../../server/settings/versions';
 import { cardNumber } from '../../shared/domain/gs1';
 import type { Role } from '../../shared/schemas/user';
-import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import {
+  bearer,
+  createTestContext,
+  testPart,
+  writeTestRelease,
+  type TestContext,
+  type TestReleaseLine,
+} from './helpers';
 
 let context: TestContext;
 let releaseDay = 0;
 let keyCounter = 0;
 
-interface LineSpec {
-  partNumber: string;
-  qty: number;
-  confirmedQty?: number | null;
-  cardId?: number | null;
-}
-
 /** A release as the release job and the supplier would leave it, written straight to the tables. */
-async function makeRelease(
-  status: string,
-  lines: LineSpec[],
-): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
+async function makeRelease(status: string, lines: TestReleaseLine[]) {
   releaseDay += 1;
   const releaseDate = `2026-11-${String(releaseDay).padStart(2, '0')}`;
-  const release = await context.dataSource.getRepository(ReleaseEntity).save({
-    number: `R-TEST-${releaseDay}`,
-    supplierCode: 'SUP-A',
-    releaseDate,
-    status,
-    sentAt: `${releaseDate}T06:00:00.000Z`,
-    carrier: null,
-    trackingNumber: null,
-  });
-  const saved = await context.dataSource.getRepository(ReleaseLineEntity).save(
-    lines.map((line) => ({
-      releaseId: release.id,
-      partNumber: line.partNumber,
-      qty: line.qty,
-      needDate: releaseDate,
-      origin: line.cardId ? 'kanban' : 'plan',
-      cardId: line.cardId ?? null,
-      confirmedQty: line.confirmedQty ?? null,
-      receivedQty: 0,
-      closed: false,
-    })),
-  );
-  return { release, lines: saved };
+  return writeTestRelease(context, { number: `R-TEST-${releaseDay}`, releaseDate, status }, lines);
 }
 
 const freshKey = () => `test-key-${(keyCounter += 1)}`;

@@ -7,7 +7,7 @@ import { ReleaseEntity } from '../../server/releases/release.entity';
 import { StockMovementEntity } from '../../server/stock/stock-movement.entity';
 import { ShipNoticeEntity } from '../../server/ship-notices/ship-notice.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
-import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { bearer, createTestContext, testPart, writeTestRelease, type TestContext } from './helpers';
 
 /*
  * Parts counted in pieces, sets or pairs (UN/ECE Recommendation 20 codes H87, SET, PR) take whole
@@ -38,29 +38,7 @@ const movementCount = (partNumber: string) =>
 async function sentRelease(parts: { partNumber: string; qty: number }[], status = 'sent') {
   releaseDay += 1;
   const releaseDate = `2026-10-${String(releaseDay).padStart(2, '0')}`;
-  const release = await context.dataSource.getRepository(ReleaseEntity).save({
-    number: `R-QTY-${releaseDay}`,
-    supplierCode: 'SUP-A',
-    releaseDate,
-    status,
-    sentAt: `${releaseDate}T06:00:00.000Z`,
-    carrier: null,
-    trackingNumber: null,
-  });
-  const lines = await context.dataSource.getRepository(ReleaseLineEntity).save(
-    parts.map((part) => ({
-      releaseId: release.id,
-      partNumber: part.partNumber,
-      qty: part.qty,
-      needDate: releaseDate,
-      origin: 'plan',
-      cardId: null,
-      confirmedQty: null,
-      receivedQty: 0,
-      closed: false,
-    })),
-  );
-  return { release, lines };
+  return writeTestRelease(context, { number: `R-QTY-${releaseDay}`, releaseDate, status }, parts);
 }
 
 describe('POST /api/stock/counts', () => {
