@@ -447,6 +447,35 @@ function queueLack(queue: StockLedger, groups: NeedGroups, group: number, explos
   return 0;
 }
 
+/**
+ * The parts (of those marked in `among`, or all) whose projection runs below zero on some day:
+ * supply to date less every unit's need to date. Only these can leave a unit short in the queue
+ * view. Where supply covers every unit's need to every day, a unit finds its need free however
+ * much the units ahead took: they took at most their own needs, all counted in the projection.
+ */
+function mayRunShort(
+  rowBase: Int32Array,
+  days: number,
+  requiredByDay: Float64Array,
+  supply: Float64Array,
+  among?: Uint8Array,
+): Uint8Array {
+  const marked = new Uint8Array(rowBase.length);
+  for (let part = 0; part < rowBase.length; part += 1) {
+    if (among && among[part] !== 1) continue;
+    const base = rowBase[part];
+    let required = 0;
+    for (let t = 0; t < days; t += 1) {
+      required += requiredByDay[base + t];
+      if (supply[base + t] - required < 0) {
+        marked[part] = 1;
+        break;
+      }
+    }
+  }
+  return marked;
+}
+
 /** Every unit walked. */
 function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
   const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
@@ -503,7 +532,8 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
   // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
   const build = new StockLedger(days, cumulativeSupply, rowBase);
   const againstBuild = new ExplosionCache(exploder, build, true);
-  const queue = new StockLedger(days, cumulativeSupply, rowBase);
+  const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply);
+  const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
   const records = new LackRecordWriter(1024);
   const atRiskUnit = intColumn();
@@ -531,6 +561,7 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
     const groups = exploder.needGroups(explosion, rowBase);
     let count = 0;
     for (let group = 0; group < groups.count; group += 1) {
+      if (queued[groups.part[group]] === 0) continue;
       const lack = queueLack(queue, groups, group, explosion);
       if (lack === 0) continue;
       behindGroup[count] = group;
@@ -949,9 +980,10 @@ function replayParts(
   const { model, rowBase, ordered, probed, built, exploder, countable, rankOf, supply } = walked;
   const old = walked.records;
   const days = model.days.length;
-  // The queue view is per part: the changed parts' rows alone. The build ledger holds every row:
-  // resequence searches read every part.
-  const queue = new StockLedger(days, supply, rowBase, inChanged);
+  // The queue view is per part: the rows of the changed parts that may run short alone. The build
+  // ledger holds every row: resequence searches read every part.
+  const queued = mayRunShort(rowBase, days, walked.requiredByDay, supply, inChanged);
+  const queue = new StockLedger(days, supply, rowBase, queued);
   const build = new StockLedger(days, supply, rowBase);
   const partCount = model.source.length;
   const againstBuild = new ExplosionCache(exploder, build, true);
@@ -969,7 +1001,7 @@ function replayParts(
     behindGroup.length = 0;
     behindQty.length = 0;
     for (let group = 0; group < groups.count; group += 1) {
-      if (inChanged[groups.part[group]] !== 1) continue;
+      if (queued[groups.part[group]] !== 1) continue;
       const lack = queueLack(queue, groups, group, mine);
       if (lack === 0) continue;
       behindGroup.push(group);
