@@ -6,6 +6,7 @@ import type { KanbanLoop } from '../../shared/schemas/loops';
 import { readCalendar } from '../calendar/calendar.service';
 import { EXPECTED_ARRIVAL, readBomLines, readUnitsToBuild } from '../planning/plan-inputs';
 import type { PlanningPiece } from '../settings/versions';
+import { runSql } from '../db/sql';
 import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.service';
 
 /**
@@ -28,6 +29,21 @@ export interface LineRiskInputs {
   loops: LoopSupply[];
   calendar: Calendar;
   details: Map<string, PartDetails>;
+  stock: StockMark;
+}
+
+/**
+ * How far the parts' stock was read: the last stock movement, and when each part was last counted
+ * (in the order of `parts`). Every change of on-hand or of a count is a movement (the stock ledger
+ * posts them), so a read after it needs only the parts with a later movement. Movement ids follow
+ * the order writers commit in: each writer of movements also bumps the planning version row, so
+ * on PostgreSQL a writer that took its ids before another committed is refused and runs again.
+ */
+export interface StockMark {
+  lastMovement: number;
+  countedAt: (string | null)[];
+  /** Part number → its place in `parts`. */
+  placeOf: ReadonlyMap<string, number>;
 }
 
 // The plan's part columns, with what the report shows beside them and when each was last counted:
@@ -60,9 +76,12 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-// The part columns a change of stock alone moves, in the same order as PARTS_SQL: read again while the part master stands.
-const STOCK_SQL = `SELECT p.part_number AS "partNumber", p.on_hand AS "onHand", ${COUNTED_AT_SQL} AS "countedAt"
-  FROM part p ORDER BY p.part_number`;
+const STOCK_MARK_SQL = `SELECT (SELECT COUNT(*) FROM part) AS "partCount",
+  (SELECT COALESCE(MAX(m.id), 0) FROM stock_movement m) AS "lastMovement"`;
+
+// The part columns a change of stock moves, for the parts with a movement after a given one.
+const MOVED_SQL = `SELECT p.part_number AS "partNumber", p.on_hand AS "onHand", ${COUNTED_AT_SQL} AS "countedAt"
+  FROM part p WHERE p.part_number IN (SELECT m.part_number FROM stock_movement m WHERE m.id > ?)`;
 
 /** What a read may take from the inputs read before: the pieces whose counters stood since (see PlanningPiece). */
 export interface LineRiskReuse {
@@ -90,14 +109,14 @@ export async function loadLineRiskInputs(
     reuse?.standing.has(piece) ? reuse.before[piece] : undefined;
   // The clock and the count interval are read every time: whether a part is due a count moves with them.
   const isCountDue = await countDueTest(manager, now);
-  const { parts, details } =
+  const { parts, details, stock } =
     (reuse?.standing.has('parts') ? await readPartStock(manager, reuse.before, isCountDue) : null) ??
     (await readParts(manager, isCountDue));
   const bom = kept('bom') ?? (await readBomLines(manager));
   const sequence = kept('sequence') ?? (await readUnitsToBuild(manager));
   const firmReceipts = await readFirmReceipts(manager);
   const calendar = kept('calendar') ?? (await readCalendar(manager));
-  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details };
+  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details, stock };
 }
 
 /** Whether a part is due a count, at the time and interval read (see countDueTest). */
@@ -107,7 +126,8 @@ type IsCountDue = (part: CountedPart) => boolean;
 async function readParts(
   manager: EntityManager,
   isCountDue: IsCountDue,
-): Promise<Pick<LineRiskInputs, 'parts' | 'details'>> {
+): Promise<Pick<LineRiskInputs, 'parts' | 'details' | 'stock'>> {
+  const { lastMovement } = await readStockMark(manager);
   const rows: PartRow[] = await manager.query(PARTS_SQL);
   const details = new Map<string, PartDetails>();
   const parts = rows.map((row) => {
@@ -126,33 +146,57 @@ async function readParts(
       countDue: isCountDue(row),
     };
   });
-  return { parts, details };
+  const stock: StockMark = {
+    lastMovement,
+    countedAt: rows.map((row) => row.countedAt),
+    placeOf: new Map(rows.map((row, place) => [row.partNumber, place])),
+  };
+  return { parts, details, stock };
+}
+
+async function readStockMark(manager: EntityManager): Promise<{ partCount: number; lastMovement: number }> {
+  const [row] = (await manager.query(STOCK_MARK_SQL)) as {
+    partCount: number | string;
+    lastMovement: number | string;
+  }[];
+  return { partCount: Number(row.partCount), lastMovement: Number(row.lastMovement) };
 }
 
 /**
- * The parts of `before` with their stock read again: on-hand and whether each is due a count; a
- * part whose figures stand is `before`'s own object, and so are the details. Null when the part
- * list is no longer the one `before` holds (the part master changed after all): the caller then
- * reads the parts in full.
+ * The parts of `before` with their stock read again: on-hand and when each was counted for the
+ * parts with a movement since (see StockMark), and whether each part is due a count (that moves
+ * with the clock). A part whose figures stand is `before`'s own object, and so are the details.
+ * Null when `before`'s parts are no longer the part list (the part master changed after all): the
+ * caller then reads the parts in full.
  */
 async function readPartStock(
   manager: EntityManager,
   before: LineRiskInputs,
   isCountDue: IsCountDue,
-): Promise<Pick<LineRiskInputs, 'parts' | 'details'> | null> {
-  const rows: (Pick<PartRow, 'partNumber' | 'onHand'> & Pick<CountedPart, 'countedAt'>)[] =
-    await manager.query(STOCK_SQL);
-  if (rows.length !== before.parts.length) return null;
-  const parts = new Array<LineRiskInputs['parts'][number]>(rows.length);
-  for (let index = 0; index < rows.length; index += 1) {
-    const row = rows[index];
-    const part = before.parts[index];
-    if (row.partNumber !== part.partNumber) return null;
-    const countDue = isCountDue({ source: part.source, countedAt: row.countedAt });
-    parts[index] =
-      row.onHand === part.onHand && countDue === part.countDue ? part : { ...part, onHand: row.onHand, countDue };
+): Promise<Pick<LineRiskInputs, 'parts' | 'details' | 'stock'> | null> {
+  const mark = before.stock;
+  const { partCount, lastMovement } = await readStockMark(manager);
+  if (partCount !== before.parts.length || lastMovement < mark.lastMovement) return null;
+  const moved: (Pick<PartRow, 'partNumber' | 'onHand'> & Pick<CountedPart, 'countedAt'>)[] =
+    lastMovement === mark.lastMovement ? [] : await runSql(manager, MOVED_SQL, [mark.lastMovement]);
+  const countedAt = moved.length > 0 ? mark.countedAt.slice() : mark.countedAt;
+  const onHandOf = new Map<number, number>();
+  for (const row of moved) {
+    const place = mark.placeOf.get(row.partNumber);
+    if (place === undefined) return null;
+    countedAt[place] = row.countedAt;
+    onHandOf.set(place, row.onHand);
   }
-  return { parts, details: before.details };
+  const parts = new Array<LineRiskInputs['parts'][number]>(before.parts.length);
+  for (let place = 0; place < parts.length; place += 1) {
+    const part = before.parts[place];
+    const onHand = onHandOf.get(place) ?? part.onHand;
+    const countDue = isCountDue({ source: part.source, countedAt: countedAt[place] });
+    parts[place] = onHand === part.onHand && countDue === part.countDue ? part : { ...part, onHand, countDue };
+  }
+  const stock =
+    countedAt === mark.countedAt && lastMovement === mark.lastMovement ? mark : { ...mark, lastMovement, countedAt };
+  return { parts, details: before.details, stock };
 }
 
 const readFirmReceipts = (manager: EntityManager): Promise<ScheduledReceipt[]> => manager.query(FIRM_LINES_SQL);

@@ -318,6 +318,28 @@ describe('line-risk inputs read again with every planning piece standing, after 
     expect(reused).toStrictEqual(full);
   });
 
+  it('reads again only the parts with a stock movement since: every change of on-hand goes through the ledger', async () => {
+    const before = await readFull();
+    // Written behind the ledger's back (no movement): a read of every part would see it.
+    await context.dataSource.getRepository(PartEntity).update({ partNumber: 'D' }, { onHand: 777 });
+    const count = await request(context.app)
+      .post('/api/stock/counts')
+      .set(bearer(context.tokens.receiving))
+      .send({ partNumber: 'C', counted: 12 });
+
+    const { full, reused } = await readBoth(before);
+
+    expect(count.status).toBe(201);
+    expect(byPart(full, 'D').onHand).toBe(777);
+    expect(byPart(reused, 'D')).toBe(byPart(before, 'D'));
+    expect(byPart(reused, 'C')).toMatchObject({ onHand: 12, countDue: false });
+    expect(reused.stock.lastMovement).toBe(full.stock.lastMovement);
+    expect(reused.stock.lastMovement).toBeGreaterThan(before.stock.lastMovement);
+    await context.dataSource
+      .getRepository(PartEntity)
+      .update({ partNumber: 'D' }, { onHand: byPart(before, 'D').onHand });
+  });
+
   it('reads the parts in full when the part list is no longer the one it read, though no counter moved', async () => {
     const before = await readFull();
     // Written with no bump at all: only the part list itself can tell.
