@@ -11,6 +11,7 @@ import { startJobs } from './jobs/scheduler';
 import { alertFrozenWindowShortages } from './line-risk/frozen-window-alerts';
 import { startFakeSmtp } from './outbox/fake-smtp';
 import { OutboxDispatcher } from './outbox/outbox.service';
+import { pruneExpiredSessions } from './users/sessions';
 import { prepareDatabase } from './start-up';
 import { DEMO_PASSWORD } from '../seed/seed-demo';
 
@@ -63,6 +64,14 @@ async function main(): Promise<void> {
       run: async () => {
         const result = await closeDayJob.tick();
         return result && `${result.date}: ${result.built.length} units reported built.`;
+      },
+    },
+    {
+      name: 'Session cleanup',
+      schedule: '0 10 3 * * *',
+      run: async () => {
+        const pruned = await db.write((manager) => pruneExpiredSessions(manager));
+        return pruned > 0 ? `${pruned} expired sessions deleted.` : null;
       },
     },
     {

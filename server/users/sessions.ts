@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { IsNull, Not, type EntityManager } from 'typeorm';
+import { IsNull, LessThan, Not, type EntityManager } from 'typeorm';
 import { notifyAfterCommit } from '../db/database';
 import { SessionEntity } from './session.entity';
 
@@ -54,4 +54,17 @@ export async function revokeSessions(
     notifyAfterCommit(SESSIONS_CHANNEL, { userId, sessionIds } satisfies SessionsRevoked);
   }
   return ids.length;
+}
+
+/** Days an ended session is kept past its expiry, for whoever asks why they were signed out. */
+export const ENDED_SESSION_KEEP_DAYS = 30;
+
+/**
+ * Deletes the sessions that expired more than ENDED_SESSION_KEEP_DAYS before `now`: their tokens
+ * expired with them, so nothing can name them any more. Returns how many went.
+ */
+export async function pruneExpiredSessions(manager: EntityManager, now = new Date()): Promise<number> {
+  const before = new Date(now.getTime() - ENDED_SESSION_KEEP_DAYS * 86_400_000).toISOString();
+  const result = await manager.delete(SessionEntity, { expiresAt: LessThan(before) });
+  return result.affected ?? 0;
 }

@@ -5,7 +5,7 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { IsNull } from 'typeorm';
 import { OutboxMessageEntity } from '../../server/outbox/outbox-message.entity';
 import { SessionEntity } from '../../server/users/session.entity';
-import { openSession } from '../../server/users/sessions';
+import { ENDED_SESSION_KEEP_DAYS, openSession, pruneExpiredSessions } from '../../server/users/sessions';
 import { MAX_STREAMS_PER_USER } from '../../server/events/events.router';
 import { bearer, createTestContext, signIn, TEST_PASSWORD, type TestContext } from './helpers';
 
@@ -278,5 +278,29 @@ describe('sign-in throttling', () => {
     } finally {
       await behindProxy.close();
     }
+  });
+});
+
+describe('sessions long expired', () => {
+  it('are deleted once they expired more than the keeping period ago; live and recently ended ones stay', async () => {
+    const DAY = 86_400_000;
+    const now = new Date();
+    const userId = await idOf('viewer@example.com');
+    const ages = { long: ENDED_SESSION_KEEP_DAYS + 1, recent: ENDED_SESSION_KEEP_DAYS - 1 };
+    const [longExpired, recentlyExpired, live] = await context.db.write(async (manager) => [
+      await openSession(manager, userId, new Date(now.getTime() - ages.long * DAY)),
+      await openSession(manager, userId, new Date(now.getTime() - ages.recent * DAY)),
+      await openSession(manager, userId, new Date(now.getTime() + DAY)),
+    ]);
+
+    const pruned = await context.db.write((manager) => pruneExpiredSessions(manager, now));
+    const left = await context.dataSource.getRepository(SessionEntity).findBy({ userId });
+
+    expect(pruned).toBe(1);
+    const ids = left.map((session) => session.id);
+    expect(ids).not.toContain(longExpired.id);
+    expect(ids).toEqual(expect.arrayContaining([recentlyExpired.id, live.id]));
+    // The signed-in viewer's own session is live too.
+    expect((await me(context.tokens.viewer)).status).toBe(200);
   });
 });
