@@ -220,9 +220,11 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
  * How a walk went: every unit walked; only the parts whose supply changed walked again; only the
  * parts whose BOM lines changed (and those whose supply changed) walked again, the units that use
  * those lines exploded again; the first units taken out as built, the rest walked on from there
- * (the parts whose supply changed walked again); or the last walk's units and slots kept whole.
+ * (the parts whose supply changed walked again); the first units taken out as built, every other
+ * unit judged again with the needs the last walk found ('judged'); or the last walk's units and
+ * slots kept whole.
  */
-export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'kept';
+export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
 
 /**
  * Walks line risk again and again over changing planning data (the server's worker), keeping what
@@ -233,8 +235,10 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'kept';
  * those parts alone, so only the units whose BOM passes a changed line are exploded again. Units
  * built at the head of the sequence, which the walk had found buildable, are taken out with what
  * they committed (the backflush took the same from on-hand), and the walk stands from the next
- * unit on. The walk is done in full whenever a verdict would change, a made part's stock or lines
- * changed, or anything else changed. Either way the answer is exactly the full walk's.
+ * unit on. When one of them was at risk, the others are judged again against stock as it is now,
+ * but what each needs (the explosions) stands. The walk is done in full whenever a made part's
+ * stock or lines changed otherwise, or anything else changed. Either way the answer is exactly the
+ * full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -481,36 +485,20 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
   const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
   const { dayNumbers } = model;
   const days = model.days.length;
-  const { parts } = input;
   if (days > 0 && dayNumbers[days - 1] - dayNumbers[0] + 1 > MAX_LINE_RISK_CALENDAR_DAYS) {
     throw new PlanInputError(`Horizon ${input.from} … ${input.to} is longer than ${MAX_LINE_RISK_CALENDAR_DAYS} days`);
   }
-  const countable = Uint8Array.from(parts, (part) => (COUNTABLE_UNITS.has(part.uom ?? 'H87') ? 1 : 0));
-  // Parts by part number, and each part's place in that order.
-  const partAtRank = Int32Array.from(
-    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
-  );
-  const rankOf = new Int32Array(parts.length);
-  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
-
   const ordered = orderSlots(input.sequence, model);
   const rowBase = rowsByUse(model, ordered);
-  const { cumulativeSupply, firmReceiptQty, receiptsByDay } = firmSupply(
-    input.firmReceipts,
-    model,
-    rowBase,
-    model.onHand,
-  );
+  const supply = firmSupply(input.firmReceipts, model, rowBase, model.onHand);
   const exploder = new Exploder(model);
-
-  // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
 
   // Every unit draws: made stock goes to the units in order, the rest is made and needs its parts.
   // Only made stock is committed here, so a unit reuses the explosion of an earlier unit of the
   // same model, quantity and day until a made part that explosion read is taken.
-  const probe = madeStockLedger(model, cumulativeSupply, rowBase);
+  const probe = madeStockLedger(model, supply.cumulativeSupply, rowBase);
   const probed = new ExplosionCache(exploder, probe, false);
-  const requiredByDay = new Float64Array(parts.length * days);
+  const requiredByDay = new Float64Array(input.parts.length * days);
   const explosions = ordered.map((entry) => {
     const explosion = probed.get(entry.model, entry.slot.qty, entry.bucket);
     const { needPart, needBucket, needQty, takePart, takeBucket, takeQty } = explosion;
@@ -521,6 +509,33 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
     }
     return explosion;
   });
+  return judgeUnits(input, { model, ordered, rowBase, exploder, probed: explosions, requiredByDay }, supply);
+}
+
+/** What every unit needs, as the probe walk found it: what a walk judges the units by. */
+type UnitNeeds = Pick<Walked, 'model' | 'ordered' | 'rowBase' | 'exploder' | 'probed' | 'requiredByDay'>;
+
+/**
+ * The walk proper: each unit in build order judged against the stock promised to the units before
+ * it (the build view) and against every unit before it (the queue view), with the needs found.
+ */
+function judgeUnits(
+  input: LineRiskInput,
+  needs: UnitNeeds,
+  { cumulativeSupply, firmReceiptQty, receiptsByDay }: ReturnType<typeof firmSupply>,
+): { run: LineRiskRun; walked: Walked } {
+  const { model, ordered, rowBase, exploder, probed: explosions, requiredByDay } = needs;
+  const days = model.days.length;
+  const { parts } = input;
+  const countable = Uint8Array.from(parts, (part) => (COUNTABLE_UNITS.has(part.uom ?? 'H87') ? 1 : 0));
+  // Parts by part number, and each part's place in that order.
+  const partAtRank = Int32Array.from(
+    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
+  );
+  const rankOf = new Int32Array(parts.length);
+  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
+
+  // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
   const loopByPart = loopSupplies(input, model);
   for (const [part, loop] of loopByPart) {
     pullSupply(rowBase[part], loop, model, parts[part].onHand, receiptsByDay, requiredByDay, cumulativeSupply);
@@ -691,7 +706,10 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
   // One kind of change at a time beside stock: units built, or the BOM.
   const base =
     input.sequence === before.sequence ? last : input.bom === before.bom && withoutBuilt(last, input.sequence);
-  if (!base) return null;
+  if (!base) {
+    const judged = input.sequence !== before.sequence && input.bom === before.bom && judgeAfterBuilt(last, input);
+    return judged ? { ...judged, kind: 'judged' } : null;
+  }
   const { rowBase } = base;
   const { parts } = input;
   let onHand = base.onHand;
@@ -771,10 +789,6 @@ function withoutBuilt(last: Walked, sequence: SequenceSlot[]): Walked | false {
     onHand[part] = roundQty(onHand[part] - qty);
     return true;
   };
-  // The parts the units built needed: what every unit needs of them per day is summed again, in
-  // the full walk's order, without those units.
-  const needed = new Uint8Array(rowBase.length);
-  const requiredByDay = last.requiredByDay.slice();
   for (let position = 0; position < gone; position += 1) {
     if (last.built[position] !== 1) return false;
     const { needCount, needPart, needBucket, needQty, takeCount, takePart, takeBucket, takeQty } =
@@ -785,21 +799,8 @@ function withoutBuilt(last: Walked, sequence: SequenceSlot[]): Walked | false {
     for (let take = 0; take < takeCount; take += 1) {
       if (!commit(takePart[take], takeBucket[take], takeQty[take])) return false;
     }
-    const explosion = probed[position];
-    for (let need = 0; need < explosion.needCount; need += 1) {
-      const part = explosion.needPart[need];
-      if (needed[part] === 1) continue;
-      needed[part] = 1;
-      requiredByDay.fill(0, rowBase[part], rowBase[part] + days);
-    }
   }
-  for (let position = gone; position < probed.length; position += 1) {
-    const { needCount, needPart, needBucket, needQty } = probed[position];
-    for (let need = 0; need < needCount; need += 1) {
-      const part = needPart[need];
-      if (needed[part] === 1) requiredByDay[rowBase[part] + needBucket[need]] += needQty[need];
-    }
-  }
+  const requiredByDay = requiredWithout(last, gone);
   // Units built with every unit ahead of them built too lacked nothing, now or behind others (the
   // two views agree until a unit is at risk): they left no records, so the records and each part's
   // first slot keep their places, and each rescue was found against the same stock as now.
@@ -823,6 +824,97 @@ function withoutBuilt(last: Walked, sequence: SequenceSlot[]): Walked | false {
     records: { ...old, unit: old.unit.map((position) => position - gone) },
     unitStart: last.unitStart.subarray(gone),
   };
+}
+
+/**
+ * What every unit needs per part and day without the first `gone` units: the rows of the parts
+ * they needed summed again over the others, in the full walk's order.
+ */
+function requiredWithout(last: Walked, gone: number): Float64Array {
+  const { rowBase, probed } = last;
+  const days = last.model.days.length;
+  const needed = new Uint8Array(rowBase.length);
+  const requiredByDay = last.requiredByDay.slice();
+  for (let position = 0; position < gone; position += 1) {
+    const explosion = probed[position];
+    for (let need = 0; need < explosion.needCount; need += 1) {
+      const part = explosion.needPart[need];
+      if (needed[part] === 1) continue;
+      needed[part] = 1;
+      requiredByDay.fill(0, rowBase[part], rowBase[part] + days);
+    }
+  }
+  for (let position = gone; position < probed.length; position += 1) {
+    const { needCount, needPart, needBucket, needQty } = probed[position];
+    for (let need = 0; need < needCount; need += 1) {
+      const part = needPart[need];
+      if (needed[part] === 1) requiredByDay[rowBase[part] + needBucket[need]] += needQty[need];
+    }
+  }
+  return requiredByDay;
+}
+
+/**
+ * The first units of the last walk's order built, one of them at risk or leaving records there:
+ * every other unit judged again from the start, against stock as it is now, but with the needs
+ * the last walk found for it. They stand when the units built took from made stock on the first
+ * day what the last walk had them take, and made stock changed in nothing else: made stock goes
+ * to units first come, first served, so every later unit then takes what it took before. Null
+ * when that cannot be told (the walk is then done in full).
+ */
+function judgeAfterBuilt(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked } | null {
+  const before = last.input;
+  const { parts } = input;
+  for (let part = 0; part < parts.length; part += 1) {
+    if (parts[part] !== before.parts[part] && !sameBesideStock(before.parts[part], parts[part])) return null;
+  }
+  const model = withStock(last.model, parts);
+  if (!model) return null;
+  const ordered = orderSlots(input.sequence, model);
+  const gone = last.ordered.length - ordered.length;
+  if (gone <= 0) return null;
+  for (let position = 0; position < ordered.length; position += 1) {
+    if (!sameSlot(ordered[position], last.ordered[position + gone])) return null;
+  }
+  const { rowBase, probed } = last;
+  const days = model.days.length;
+  const taken = new Float64Array(parts.length);
+  for (let position = 0; position < gone; position += 1) {
+    const { takeCount, takePart, takeBucket, takeQty } = probed[position];
+    for (let take = 0; take < takeCount; take += 1) {
+      if (takeBucket[take] !== 0) return null;
+      taken[takePart[take]] = roundQty(taken[takePart[take]] + takeQty[take]);
+    }
+  }
+  const supply = firmSupply(input.firmReceipts, model, rowBase, model.onHand);
+  for (let part = 0; part < parts.length; part += 1) {
+    if (model.source[part] === BOUGHT) continue;
+    // A loop's pull would have moved the row the last walk kept.
+    if (parts[part].replenishment === 'kanban') return null;
+    const row = rowBase[part];
+    for (let t = 0; t < days; t += 1) {
+      if (supply.cumulativeSupply[row + t] !== roundQty(last.supply[row + t] - taken[part])) return null;
+    }
+  }
+  const needs: UnitNeeds = {
+    model,
+    ordered,
+    rowBase,
+    exploder: last.exploder,
+    probed: probed.slice(gone),
+    requiredByDay: requiredWithout(last, gone),
+  };
+  return judgeUnits(input, needs, supply);
+}
+
+/** `model` with the on-hand of `parts`, as buildPlanModel makes it; null when an on-hand is not a number. */
+function withStock(model: PlanModel, parts: readonly LineRiskPart[]): PlanModel | null {
+  const onHand = new Float64Array(parts.length);
+  for (let part = 0; part < parts.length; part += 1) {
+    if (!Number.isFinite(parts[part].onHand)) return null;
+    if (model.source[part] !== END_ITEM) onHand[part] = parts[part].onHand;
+  }
+  return { ...model, onHand };
 }
 
 function sameSlot(a: OrderedSlot, b: OrderedSlot): boolean {

@@ -250,7 +250,7 @@ describe('computeLineRisk against the plain walk', () => {
       qty: fc.integer({ min: -4, max: 9 }),
       day: fc.integer({ min: -2, max: 18 }),
     });
-    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, bom: 0, built: 0, kept: 0 };
+    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, bom: 0, built: 0, judged: 0, kept: 0 };
     fc.assert(
       fc.property(plantArbitrary, fc.array(change, { minLength: 1, maxLength: 6 }), (plant, changes) => {
         const walker = new LineRiskWalker();
@@ -269,6 +269,7 @@ describe('computeLineRisk against the plain walk', () => {
     expect(kinds.parts).toBeGreaterThan(100);
     expect(kinds.bom).toBeGreaterThan(100);
     expect(kinds.built).toBeGreaterThan(100);
+    expect(kinds.judged).toBeGreaterThan(100);
     expect(kinds.kept).toBeGreaterThan(50);
     expect(kinds.full).toBeGreaterThan(50);
   }, 120_000);
@@ -335,7 +336,7 @@ describe('computeLineRisk against the plain walk', () => {
     expect(walker.walk(madeQty).result()).toEqual(referenceLineRisk(madeQty));
     expect(walker.lastKind).toBe('full');
   });
-  it('takes units built at the head of the sequence out, and walks in full after a unit at risk was built', () => {
+  it('takes units built at the head of the sequence out, and judges the others again after a unit at risk was built', () => {
     // Three units of M0, one B0 each; two B0 on hand. The third lacks B0.
     const before = smallPlant(
       [model('M0'), bought('B0', { onHand: 2 })],
@@ -357,7 +358,38 @@ describe('computeLineRisk against the plain walk', () => {
     const third = built(second, 1);
     expect(third.parts[1]!.onHand).toBe(-1);
     expect(walker.walk(third).result()).toEqual(referenceLineRisk(third));
-    expect(walker.lastKind).toBe('full');
+    expect(walker.lastKind).toBe('judged');
+  });
+  it('judges the units again with their needs after a unit at risk took made stock, and walks in full when made stock moved otherwise', () => {
+    // M0 takes one S (made, one on hand, else made from one B0) and one B1 (none on hand): SN1 is
+    // at risk for B1 but takes the S in stock; SN2 must have its S made, so it needs a B0.
+    const before = smallPlant(
+      [model('M0'), bought('S', { source: 'make', onHand: 1 }), bought('B0', { onHand: 5 }), bought('B1')],
+      [bomLine('M0', 'S'), bomLine('S', 'B0'), bomLine('M0', 'B1')],
+      [unit(FROM, 1, 'M0', 'SN1'), unit(FROM, 2, 'M0', 'SN2')],
+    );
+    const walker = new LineRiskWalker();
+    expect(
+      walker
+        .walk(before)
+        .unitsAtRisk()
+        .map((slot) => slot.serial),
+    ).toEqual(['SN1', 'SN2']);
+
+    // SN1 built anyway: the backflush took the S it was to take, and a B1 that was not there.
+    const first = built(before, 1);
+    expect(first.parts.map((part) => part.onHand)).toEqual([0, 0, 5, -1]);
+    expect(walker.walk(first).result()).toEqual(referenceLineRisk(first));
+    expect(walker.lastKind).toBe('judged');
+    // The same build with an S counted as well: SN2 may now take one from stock, so it is walked in full.
+    const counted = {
+      ...first,
+      parts: first.parts.map((part) => (part.partNumber === 'S' ? { ...part, onHand: 1 } : part)),
+    };
+    const again = new LineRiskWalker();
+    again.walk(before);
+    expect(again.walk(counted).result()).toEqual(referenceLineRisk(counted));
+    expect(again.lastKind).toBe('full');
   });
   it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
     // Found in review: a part that drops its uom (so counts in pieces) and gains countDue has as
