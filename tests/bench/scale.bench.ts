@@ -261,7 +261,7 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
     const afterMadeLine = await afterBomLine('make');
     // After the first units of the sequence are reported built (backflushed through the API): the
     // sequence and stock are read again; units the last walk found buildable are taken out of it,
-    // a unit it found at risk means walking every unit again.
+    // after a unit it found at risk every other unit is judged again with the needs it found.
     const afterBuild: number[] = [];
     for (let run = 0; run < 3; run += 1) {
       const built = await post(`${app.base}/api/builds`, token, { serial: inOrder[run].serial }, `bench-${run}`);
