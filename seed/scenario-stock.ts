@@ -20,6 +20,11 @@ export const SHORT_COVER_DAYS: Record<string, number> = {
  */
 export const UNDERSIZED_LOOP = { partNumber: 'GRP-W', lostCards: 2, coverDays: 10 };
 export const COUNT_TO_CHECK = 'DRM-R15';
+/**
+ * Parts last counted past the 90-day interval though none is short, so the Stock screen has counts
+ * due to show: kanban parts of right-sized loops, which the line risk never finds short.
+ */
+export const DUE_FOR_COUNT = ['NUT-M8', 'SQW-50', 'BMR-80', 'BCB-24'];
 /** A kanban loop with more cards than its demand needs: the buyer may take two out. */
 export const OVERSIZED_LOOP = { partNumber: 'SQB-F20', extraCards: 2 };
 

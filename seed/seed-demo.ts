@@ -23,7 +23,7 @@ import { cardNumber } from '../shared/domain/gs1';
 import { buildDemoScenario, type DemoScenario } from './scenario';
 import { OPEN_KANBAN, openKanbanDeliveries, pastReleases } from './scenario-history';
 import { addWorkingDays } from '../shared/domain/calendar';
-import { COUNT_TO_CHECK, OVERSIZED_LOOP, UNDERSIZED_LOOP } from './scenario-stock';
+import { COUNT_TO_CHECK, DUE_FOR_COUNT, OVERSIZED_LOOP, UNDERSIZED_LOOP } from './scenario-stock';
 import {
   instantOn,
   receiptMovements,
@@ -106,14 +106,15 @@ async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario):
 
 /**
  * The opening figures came from the plant's rolling cycle count, so each stocked part carries the
- * date it was last counted: spread over the 80 days before the opening, which leaves a handful
- * past the 90-day interval and due a count when the demo starts.
+ * date it was last counted: spread over the 55 days before the opening (some three weeks ago), so
+ * on whatever day the demo starts, only the parts planted for it are past the 90-day interval.
  */
 async function seedCountHistory(manager: EntityManager, scenario: DemoScenario, opened: string): Promise<void> {
   const stocked = scenario.parts.filter((part) => part.source !== 'end_item');
   for (const [index, part] of stocked.entries()) {
     // The part planted for Line risk's count story was counted well past the interval.
-    const daysBefore = part.partNumber === COUNT_TO_CHECK ? 120 : 1 + ((index * 37) % 80);
+    const due = DUE_FOR_COUNT.indexOf(part.partNumber);
+    const daysBefore = part.partNumber === COUNT_TO_CHECK ? 120 : due >= 0 ? 95 + 3 * due : 1 + ((index * 37) % 55);
     const counted = new Date(new Date(opened).getTime() - daysBefore * 86_400_000);
     // Counts are taken on working days: a Saturday or Sunday becomes the Friday before.
     const weekend = counted.getUTCDay() === 6 ? 1 : counted.getUTCDay() === 0 ? 2 : 0;
