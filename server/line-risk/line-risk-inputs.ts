@@ -15,14 +15,16 @@ import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.s
  */
 export const FIRM_RELEASE_STATES = ['confirmed', 'shipped', 'partial'];
 
-/** Part facts the screen shows beside the figures. */
+/** Part facts the screen shows beside the figures (the engine reads none of them but the unit, which it also has). */
 export interface PartDetails {
+  description: string;
+  uom: string;
   hazardous: boolean;
   supplierName: string | null;
 }
 
 export interface LineRiskInputs {
-  parts: (LineRiskPart & { description: string; uom: string })[];
+  parts: (LineRiskPart & { uom: string })[];
   bom: PlanningBomLine[];
   sequence: SequenceSlot[];
   firmReceipts: ScheduledReceipt[];
@@ -131,10 +133,14 @@ async function readParts(
   const rows: PartRow[] = await manager.query(PARTS_SQL);
   const details = new Map<string, PartDetails>();
   const parts = rows.map((row) => {
-    details.set(row.partNumber, { hazardous: Boolean(row.hazardous), supplierName: row.supplierName });
+    details.set(row.partNumber, {
+      description: row.description,
+      uom: row.uom,
+      hazardous: Boolean(row.hazardous),
+      supplierName: row.supplierName,
+    });
     return {
       partNumber: row.partNumber,
-      description: row.description,
       uom: row.uom,
       source: row.source,
       supplierCode: row.supplierCode,

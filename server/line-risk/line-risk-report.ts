@@ -1,19 +1,11 @@
 import { gzipSync } from 'node:zlib';
-import type { LineRiskPart } from '../../shared/domain/line-risk';
 import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import { etagOf } from '../http/serialised-body';
 import type { PartDetails } from './line-risk-inputs';
 import type { LineRiskSummary, ShortageSummary } from './line-risk-summary';
 
-type ReportPart = LineRiskPart & { description?: string; uom?: string };
-
 /** The report as published, built once per result. */
-export function toReport(
-  summary: LineRiskSummary,
-  parts: readonly ReportPart[],
-  details: ReadonlyMap<string, PartDetails>,
-): LineRiskReport {
-  const partByNumber = new Map(parts.map((part) => [part.partNumber, part]));
+export function toReport(summary: LineRiskSummary, details: ReadonlyMap<string, PartDetails>): LineRiskReport {
   return {
     from: summary.from,
     to: summary.to,
@@ -26,18 +18,12 @@ export function toReport(
     unitsAtRisk: summary.unitsAtRisk,
     unitsAtRiskCount: summary.unitsAtRiskCount,
     // Last, so the shortages alone (GET /api/shortages) are a tail of the report's bytes.
-    shortages: summary.shortages.map((shortage) =>
-      toShortage(shortage, partByNumber.get(shortage.partNumber), details.get(shortage.partNumber)),
-    ),
+    shortages: summary.shortages.map((shortage) => toShortage(shortage, details.get(shortage.partNumber))),
   };
 }
 
 /** A short part as published, with what the screen shows beside the figures. */
-function toShortage(
-  shortage: ShortageSummary,
-  part: ReportPart | undefined,
-  details: PartDetails | undefined,
-): ShortageDto {
+function toShortage(shortage: ShortageSummary, details: PartDetails | undefined): ShortageDto {
   return {
     partNumber: shortage.partNumber,
     firstShortDate: shortage.firstShortDate,
@@ -49,8 +35,8 @@ function toShortage(
     releaseBy: shortage.releaseBy,
     leadTimeDays: shortage.leadTimeDays,
     loop: shortage.loop,
-    description: part?.description ?? '',
-    uom: part?.uom ?? 'H87',
+    description: details?.description ?? '',
+    uom: details?.uom ?? 'H87',
     supplierCode: shortage.supplierCode,
     supplierName: details?.supplierName ?? null,
     hazardous: details?.hazardous ?? false,

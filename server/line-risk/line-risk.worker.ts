@@ -42,7 +42,7 @@ function answer(request: WorkerRequest): unknown {
         ...request.options,
       });
       results.set(request.key, result);
-      return serialiseReport(toReport(summarise(result), pieces.parts, pieces.details));
+      return serialiseReport(toReport(summarise(result), pieces.details));
     }
     case 'units': {
       const result = results.get(request.key);

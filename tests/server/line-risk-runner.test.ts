@@ -30,7 +30,9 @@ const input: LineRiskInput = {
   to: '2026-03-06',
 };
 
-const details = new Map<string, PartDetails>([['C', { hazardous: true, supplierName: 'Supplier A' }]]);
+const details = new Map<string, PartDetails>([
+  ['C', { description: 'Bracket', uom: 'H87', hazardous: true, supplierName: 'Supplier A' }],
+]);
 
 const runner = new LineRiskRunner();
 afterAll(() => runner.close());
@@ -41,8 +43,7 @@ function compute(key: string, engineInput: LineRiskInput, on: LineRiskRunner = r
 }
 
 /** The report the engine gives when run in place. */
-const inPlace = (engineInput: LineRiskInput) =>
-  toReport(summarise(computeLineRisk(engineInput)), engineInput.parts, details);
+const inPlace = (engineInput: LineRiskInput) => toReport(summarise(computeLineRisk(engineInput)), details);
 
 const text = (bytes: Uint8Array) => Buffer.from(bytes).toString('utf8');
 

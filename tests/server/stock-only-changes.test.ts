@@ -533,7 +533,7 @@ describe('GET /api/line-risk after a change to one planning piece', () => {
     expect(second.bom).not.toEqual(first.bom);
     expect(second.bom).toStrictEqual(full.bom);
     // What was written behind the counters' back is there for a full read to see.
-    expect(full.parts.find((part) => part.partNumber === 'E')!.description).toBe('Renamed unseen');
+    expect(full.details.get('E')!.description).toBe('Renamed unseen');
     expect(full.sequence).toContainEqual(expect.objectContaining({ serial: 'S-UNSEEN' }));
     expect(full.calendar.holidays).toContain(farDay);
   });
@@ -576,11 +576,12 @@ describe('GET /api/line-risk after a change to one planning piece', () => {
     const full = await readFull();
 
     // The changes written behind the counters' back in the tests before are read at last.
-    expect(full.parts.find((part) => part.partNumber === 'E')!.description).toBe('Renamed again');
+    expect(full.details.get('E')!.description).toBe('Renamed again');
     expect(full.sequence).toContainEqual(expect.objectContaining({ serial: 'S-UNSEEN-2' }));
     expect(second.parts).toStrictEqual(full.parts);
+    expect(second.details).toStrictEqual(full.details);
     expect(second.sequence).toStrictEqual(full.sequence);
-    expect(second.parts).not.toBe(first.parts);
+    expect(second.details).not.toBe(first.details);
     expect(second.sequence).not.toBe(first.sequence);
   });
 });
