@@ -23,10 +23,12 @@ export function summarise(result: LineRiskRun | LineRiskResult): LineRiskSummary
       ...result.header,
       unitsAtRisk: result.unitsAtRisk(0, UNITS_PER_REPORT),
       unitsAtRiskCount: result.unitsAtRiskCount,
-      shortages: result.shortages.map((_, index) => ({
-        ...result.shortageWith(index, result.slotsAtRisk(index, 0, SLOTS_PER_SHORTAGE)),
-        slotsAtRiskCount: result.slotsAtRiskCount(index),
-      })),
+      // Each shortage is a new object already: the count is added to it rather than copied over.
+      shortages: result.shortages.map((_, index) =>
+        Object.assign(result.shortageWith(index, result.slotsAtRisk(index, 0, SLOTS_PER_SHORTAGE)), {
+          slotsAtRiskCount: result.slotsAtRiskCount(index),
+        }),
+      ),
     };
   }
   return {
