@@ -96,8 +96,9 @@ export class StockLedger {
 /**
  * One unit's explosion against a ledger, in flat arrays: the needs of bought parts and the made
  * stock taken, in the order the BOM is walked, and (when asked for) the bought parts lacking now.
- * It depends on the ledger only through the rows of `reads`, so it holds for any unit of the same
- * model, quantity and day until one of those rows is committed to.
+ * It depends on the ledger only through the free quantities it read, and only so far: a part taken
+ * or needed whole holds while at least that much stays free, one found with none while none is. So
+ * it holds for any unit of the same model, quantity and day while each read stays in its bounds.
  */
 export interface Explosion {
   needCount: number;
@@ -116,8 +117,15 @@ export interface Explosion {
   lackBucket: Int32Array;
   lackQty: Float64Array;
   lackVia: Int32Array;
-  reads: Int32Array;
-  /** The ledger's version when it was made. */
+  /**
+   * The reads it depends on: part, bucket, and the bounds the free quantity must stay within (low
+   * NaN: the row must not change at all, for a part read again after the unit held some of it).
+   */
+  readPart: Int32Array;
+  readBucket: Int32Array;
+  readLow: Float64Array;
+  readHigh: Float64Array;
+  /** The ledger's version when it was made, or last found to hold. */
   version: number;
   /** Needs grouped by part, made when first asked for (see needGroups). */
   groups: NeedGroups | null;
@@ -138,12 +146,35 @@ export interface NeedGroups {
   firstQty: Float64Array;
 }
 
-/** True while no row the explosion read has been committed to since it was made. */
+/** True while every free quantity the explosion read stays within its bounds (see Explosion). */
 export function stillHolds(explosion: Explosion, ledger: StockLedger): boolean {
   if (explosion.version === ledger.version) return true;
-  const { reads, version } = explosion;
+  if (!readsHold(explosion, ledger, explosion.version)) return false;
+  // Every row changed since was checked as it is now: later, only rows changed after this need be.
+  explosion.version = ledger.version;
+  return true;
+}
+
+/**
+ * True when an explosion made against another ledger (the last walk's) holds against this one:
+ * every free quantity it read is within its bounds here too.
+ */
+export function holdsAgainst(explosion: Explosion, ledger: StockLedger): boolean {
+  return readsHold(explosion, ledger, -1);
+}
+
+/** Whether the reads of rows committed to after `version` (every read for -1) are within their bounds. */
+function readsHold(explosion: Explosion, ledger: StockLedger, version: number): boolean {
+  const { readPart, readBucket, readLow, readHigh } = explosion;
   const { changedAt } = ledger;
-  for (let index = 0; index < reads.length; index += 1) if (changedAt[reads[index]] > version) return false;
+  for (let read = 0; read < readPart.length; read += 1) {
+    const part = readPart[read];
+    if (version >= 0 && changedAt[part] <= version) continue;
+    const low = readLow[read];
+    if (Number.isNaN(low)) return false;
+    const free = ledger.free(part, readBucket[read]);
+    if (free < low || free > readHigh[read]) return false;
+  }
   return true;
 }
 
@@ -168,7 +199,12 @@ export class Exploder {
   private readonly lackBucket = intColumn();
   private readonly lackQty = floatColumn();
   private readonly lackVia = intColumn();
-  private readonly reads = intColumn();
+  private readonly readPart = intColumn();
+  private readonly readBucket = intColumn();
+  private readonly readLow = floatColumn();
+  private readonly readHigh = floatColumn();
+  /** The read the last freeFor made (its index), or -1 when it read a part read before. */
+  private lastRead = -1;
   /** What this unit holds of a part: a list in walk order (heldFirst → heldNext), its sum and latest bucket. */
   private readonly heldBucket = intColumn();
   private readonly heldQty = floatColumn();
@@ -179,6 +215,7 @@ export class Exploder {
   private readonly heldSum: Float64Array;
   private readonly heldLatest: Int32Array;
   private readonly readStamp: Int32Array;
+  private readonly readIndex: Int32Array;
   private readonly lackStamp: Int32Array;
   private readonly lackIndex: Int32Array;
   private readonly groupStamp: Int32Array;
@@ -199,6 +236,7 @@ export class Exploder {
     this.heldSum = new Float64Array(parts);
     this.heldLatest = new Int32Array(parts);
     this.readStamp = new Int32Array(parts);
+    this.readIndex = new Int32Array(parts);
     this.lackStamp = new Int32Array(parts);
     this.lackIndex = new Int32Array(parts);
     this.groupStamp = new Int32Array(parts);
@@ -228,7 +266,10 @@ export class Exploder {
       lackBucket: this.ints.copyOf(this.lackBucket),
       lackQty: this.floats.copyOf(this.lackQty),
       lackVia: this.ints.copyOf(this.lackVia),
-      reads: this.ints.copyOf(this.reads),
+      readPart: this.ints.copyOf(this.readPart),
+      readBucket: this.ints.copyOf(this.readBucket),
+      readLow: this.floats.copyOf(this.readLow),
+      readHigh: this.floats.copyOf(this.readHigh),
       version: ledger.version,
       groups: null,
     };
@@ -320,7 +361,10 @@ export class Exploder {
       this.lackBucket,
       this.lackQty,
       this.lackVia,
-      this.reads,
+      this.readPart,
+      this.readBucket,
+      this.readLow,
+      this.readHigh,
       this.heldBucket,
       this.heldQty,
       this.heldNext,
@@ -353,8 +397,12 @@ export class Exploder {
         if (this.withLacks) this.lackOf(component, bucket, need, via);
         continue;
       }
-      const inStock = Math.max(0, this.freeFor(component, bucket));
+      const free = this.freeFor(component, bucket);
+      const inStock = Math.max(0, free);
       const taken = Math.min(need, inStock);
+      // Taken whole while at least the need is free; none taken while none is.
+      if (taken === need) this.bound(need, Infinity);
+      else if (inStock === 0) this.bound(-Infinity, 0);
       if (taken > epsilon) {
         this.takePart.push(component);
         this.takeBucket.push(bucket);
@@ -371,9 +419,13 @@ export class Exploder {
 
   /** Records what of `need` is not free now; the first need that lacks gives the bucket and via. */
   private lackOf(part: number, bucket: number, need: number, via: number): void {
-    const free = Math.max(0, this.freeFor(part, bucket));
+    const read = this.freeFor(part, bucket);
+    const free = Math.max(0, read);
     this.hold(part, bucket, need);
     const lack = need - free;
+    // Lacking nothing while at least as much is free; lacking the whole need while none is.
+    if (lack <= epsilon) this.bound(Math.min(need, read), Infinity);
+    else if (free === 0) this.bound(-Infinity, 0);
     if (lack <= epsilon) return;
     if (this.lackStamp[part] !== this.stamp) {
       this.lackStamp[part] = this.stamp;
@@ -389,11 +441,20 @@ export class Exploder {
 
   /** Least free quantity of `part` from `bucket` on, less what this unit already holds of it (and when). */
   private freeFor(part: number, bucket: number): number {
-    if (this.readStamp[part] !== this.stamp) {
-      this.readStamp[part] = this.stamp;
-      this.reads.push(part);
-    }
     const { ledger } = this;
+    this.lastRead = -1;
+    if (this.readStamp[part] !== this.stamp) {
+      // A first read: exactly this free quantity, until the caller knows how much of it mattered (see bound).
+      this.readStamp[part] = this.stamp;
+      const free = ledger.free(part, bucket);
+      this.readIndex[part] = this.readPart.push(part);
+      this.readBucket.push(bucket);
+      this.lastRead = this.readLow.push(free);
+      this.readHigh.push(free);
+      return free;
+    }
+    // Read again: the row must stand as it was.
+    this.readLow.values[this.readIndex[part]] = NaN;
     if (this.heldStamp[part] !== this.stamp) return ledger.free(part, bucket);
     // Held quantities only lower the days from their own need on.
     if (this.heldLatest[part] <= bucket) return roundQty(ledger.free(part, bucket) - this.heldSum[part]);
@@ -409,6 +470,13 @@ export class Exploder {
       if (value < least) least = value;
     }
     return roundQty(least);
+  }
+
+  /** Widens the bounds of the read the last freeFor made, when it was a first read. */
+  private bound(low: number, high: number): void {
+    if (this.lastRead < 0) return;
+    this.readLow.values[this.lastRead] = low;
+    this.readHigh.values[this.lastRead] = high;
   }
 
   private hold(part: number, bucket: number, qty: number): void {

@@ -1,4 +1,11 @@
-import { Exploder, StockLedger, stillHolds, type Explosion, type NeedGroups } from './line-risk-explosion';
+import {
+  Exploder,
+  holdsAgainst,
+  StockLedger,
+  stillHolds,
+  type Explosion,
+  type NeedGroups,
+} from './line-risk-explosion';
 import { LackRecordWriter, LineRiskRun, type LackRecords, type ShortPartFigures } from './line-risk-run';
 import { intColumn } from './typed-column';
 import { BOUGHT, buildPlanModel, END_ITEM, PlanInputError, requireDate, type PlanModel } from './plan-model';
@@ -220,9 +227,8 @@ export function walkLineRisk(input: LineRiskInput): LineRiskRun {
  * How a walk went: every unit walked; only the parts whose supply changed walked again; only the
  * parts whose BOM lines changed (and those whose supply changed) walked again, the units that use
  * those lines exploded again; the first units taken out as built, the rest walked on from there
- * (the parts whose supply changed walked again); the first units taken out as built, every other
- * unit judged again with the needs the last walk found ('judged'); or the last walk's units and
- * slots kept whole.
+ * (the parts whose supply changed walked again); every unit judged again, exploded again only
+ * where the made stock it read moved ('judged'); or the last walk's units and slots kept whole.
  */
 export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
 
@@ -235,10 +241,11 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
  * those parts alone, so only the units whose BOM passes a changed line are exploded again. Units
  * built at the head of the sequence, which the walk had found buildable, are taken out with what
  * they committed (the backflush took the same from on-hand), and the walk stands from the next
- * unit on. When one of them was at risk, the others are judged again against stock as it is now,
- * but what each needs (the explosions) stands. The walk is done in full whenever a made part's
- * stock or lines changed otherwise, or anything else changed. Either way the answer is exactly the
- * full walk's.
+ * unit on. Any other change to the sequence or to stock (a unit at risk built, units moved,
+ * added or removed, made stock counted, a verdict changed) judges every unit again, but keeps what
+ * each needs wherever the made stock its explosion read stands. The walk is done in full when the
+ * part master, the BOM's made structure, the calendar or the horizon changed. Either way the
+ * answer is exactly the full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -251,7 +258,7 @@ export class LineRiskWalker {
     this.last = null;
     let again: ReturnType<typeof walkAgain> = null;
     try {
-      again = previous && walkAgain(previous, input);
+      again = previous && (walkAgain(previous, input) ?? judgeAgain(previous, input));
     } catch {
       // The full walk below reports whatever is wrong with the input.
     }
@@ -706,10 +713,7 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
   // One kind of change at a time beside stock: units built, or the BOM.
   const base =
     input.sequence === before.sequence ? last : input.bom === before.bom && withoutBuilt(last, input.sequence);
-  if (!base) {
-    const judged = input.sequence !== before.sequence && input.bom === before.bom && judgeAfterBuilt(last, input);
-    return judged ? { ...judged, kind: 'judged' } : null;
-  }
+  if (!base) return null;
   const { rowBase } = base;
   const { parts } = input;
   let onHand = base.onHand;
@@ -855,56 +859,81 @@ function requiredWithout(last: Walked, gone: number): Float64Array {
 }
 
 /**
- * The first units of the last walk's order built, one of them at risk or leaving records there:
- * every other unit judged again from the start, against stock as it is now, but with the needs
- * the last walk found for it. They stand when the units built took from made stock on the first
- * day what the last walk had them take, and made stock changed in nothing else: made stock goes
- * to units first come, first served, so every later unit then takes what it took before. Null
- * when that cannot be told (the walk is then done in full).
+ * Every unit judged again (the build and queue views walked from the start) against the input's
+ * stock, with the explosions of the last walk wherever they still hold: made stock goes to the
+ * units first come, first served, so each unit's last explosion is tried against made stock as it
+ * stands at the unit's turn, and the unit is exploded again only when a free quantity it read is
+ * out of its bounds. For a change that leaves the parts (but for stock), the BOM, the calendar and
+ * the horizon as they were: units built, moved, added or removed, made stock counted, a verdict
+ * changed by stock. Null for any other change (the walk is then done in full).
  */
-function judgeAfterBuilt(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked } | null {
+function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: 'judged' } | null {
   const before = last.input;
   const { parts } = input;
+  if (
+    input.from !== before.from ||
+    input.to !== before.to ||
+    input.calendar !== before.calendar ||
+    input.bom !== before.bom ||
+    parts.length !== before.parts.length
+  ) {
+    return null;
+  }
   for (let part = 0; part < parts.length; part += 1) {
     if (parts[part] !== before.parts[part] && !sameBesideStock(before.parts[part], parts[part])) return null;
   }
   const model = withStock(last.model, parts);
   if (!model) return null;
   const ordered = orderSlots(input.sequence, model);
-  const gone = last.ordered.length - ordered.length;
-  if (gone <= 0) return null;
-  for (let position = 0; position < ordered.length; position += 1) {
-    if (!sameSlot(ordered[position], last.ordered[position + gone])) return null;
-  }
-  const { rowBase, probed } = last;
+  const { rowBase } = last;
   const days = model.days.length;
-  const taken = new Float64Array(parts.length);
-  for (let position = 0; position < gone; position += 1) {
-    const { takeCount, takePart, takeBucket, takeQty } = probed[position];
-    for (let take = 0; take < takeCount; take += 1) {
-      if (takeBucket[take] !== 0) return null;
-      taken[takePart[take]] = roundQty(taken[takePart[take]] + takeQty[take]);
-    }
-  }
   const supply = firmSupply(input.firmReceipts, model, rowBase, model.onHand);
+  const lastAt = new Map<string, number>();
+  last.ordered.forEach((entry, position) => lastAt.set(entry.slot.serial, position));
+  const probe = madeStockLedger(model, supply.cumulativeSupply, rowBase);
+  const explosions = new ExplosionCache(last.exploder, probe, false);
+  // Parts whose need per day may have changed: those of units gone, added, exploded again or out of
+  // their last order. The others' rows are summed from the same units in the same order as before.
+  const touched = new Uint8Array(parts.length);
+  const touch = ({ needCount, needPart }: Explosion) => {
+    for (let need = 0; need < needCount; need += 1) touched[needPart[need]] = 1;
+  };
+  const keptInOrder = new Uint8Array(last.ordered.length);
+  let lastKept = -1;
+  const probed = ordered.map((entry) => {
+    const at = lastAt.get(entry.slot.serial);
+    const kept = at === undefined ? undefined : last.probed[at];
+    const explosion =
+      kept && sameNeeds(last.ordered[at!], entry) && holdsAgainst(kept, probe)
+        ? kept
+        : explosions.get(entry.model, entry.slot.qty, entry.bucket);
+    if (explosion === kept && at! > lastKept) {
+      keptInOrder[at!] = 1;
+      lastKept = at!;
+    } else touch(explosion);
+    const { takePart, takeBucket, takeQty } = explosion;
+    for (let take = 0; take < explosion.takeCount; take += 1)
+      probe.commit(takePart[take], takeBucket[take], takeQty[take]);
+    return explosion;
+  });
+  last.probed.forEach((explosion, position) => keptInOrder[position] === 0 && touch(explosion));
+  const requiredByDay = last.requiredByDay.slice();
   for (let part = 0; part < parts.length; part += 1) {
-    if (model.source[part] === BOUGHT) continue;
-    // A loop's pull would have moved the row the last walk kept.
-    if (parts[part].replenishment === 'kanban') return null;
-    const row = rowBase[part];
-    for (let t = 0; t < days; t += 1) {
-      if (supply.cumulativeSupply[row + t] !== roundQty(last.supply[row + t] - taken[part])) return null;
+    if (touched[part] === 1) requiredByDay.fill(0, rowBase[part], rowBase[part] + days);
+  }
+  for (const { needCount, needPart, needBucket, needQty } of probed) {
+    for (let need = 0; need < needCount; need += 1) {
+      const part = needPart[need];
+      if (touched[part] === 1) requiredByDay[rowBase[part] + needBucket[need]] += needQty[need];
     }
   }
-  const needs: UnitNeeds = {
-    model,
-    ordered,
-    rowBase,
-    exploder: last.exploder,
-    probed: probed.slice(gone),
-    requiredByDay: requiredWithout(last, gone),
-  };
-  return judgeUnits(input, needs, supply);
+  const needs: UnitNeeds = { model, ordered, rowBase, exploder: last.exploder, probed, requiredByDay };
+  return { ...judgeUnits(input, needs, supply), kind: 'judged' };
+}
+
+/** Two units exploded alike: the same model and quantity, on the same day. */
+function sameNeeds(a: OrderedSlot, b: OrderedSlot): boolean {
+  return a.model === b.model && a.bucket === b.bucket && a.slot.qty === b.slot.qty;
 }
 
 /** `model` with the on-hand of `parts`, as buildPlanModel makes it; null when an on-hand is not a number. */
