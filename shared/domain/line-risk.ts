@@ -241,11 +241,11 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
  * those parts alone, so only the units whose BOM passes a changed line are exploded again. Units
  * built at the head of the sequence, which the walk had found buildable, are taken out with what
  * they committed (the backflush took the same from on-hand), and the walk stands from the next
- * unit on. Any other change to the sequence or to stock (a unit at risk built, units moved,
- * added or removed, made stock counted, a verdict changed) judges every unit again, but keeps what
- * each needs wherever the made stock its explosion read stands. The walk is done in full when the
- * part master, the BOM's made structure, the calendar or the horizon changed. Either way the
- * answer is exactly the full walk's.
+ * unit on. Any other change to the sequence, to stock or to the BOM (a unit at risk built, units
+ * moved, added or removed, made stock counted, a made component's line, a verdict changed) judges
+ * every unit again, but keeps what each needs wherever its model's BOM stands and the made stock
+ * its explosion read does too. The walk is done in full when the part master, the calendar or the
+ * horizon changed. Either way the answer is exactly the full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -863,9 +863,10 @@ function requiredWithout(last: Walked, gone: number): Float64Array {
  * stock, with the explosions of the last walk wherever they still hold: made stock goes to the
  * units first come, first served, so each unit's last explosion is tried against made stock as it
  * stands at the unit's turn, and the unit is exploded again only when a free quantity it read is
- * out of its bounds. For a change that leaves the parts (but for stock), the BOM, the calendar and
- * the horizon as they were: units built, moved, added or removed, made stock counted, a verdict
- * changed by stock. Null for any other change (the walk is then done in full).
+ * out of its bounds, or its model's explosion passes a BOM line that changed. For a change that
+ * leaves the parts (but for stock), the calendar and the horizon as they were: units built, moved,
+ * added or removed, made stock counted, BOM lines changed, a verdict changed by stock. Null for
+ * any other change (the walk is then done in full).
  */
 function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: 'judged' } | null {
   const before = last.input;
@@ -874,7 +875,6 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
     input.from !== before.from ||
     input.to !== before.to ||
     input.calendar !== before.calendar ||
-    input.bom !== before.bom ||
     parts.length !== before.parts.length
   ) {
     return null;
@@ -882,7 +882,16 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
   for (let part = 0; part < parts.length; part += 1) {
     if (parts[part] !== before.parts[part] && !sameBesideStock(before.parts[part], parts[part])) return null;
   }
-  const model = withStock(last.model, parts);
+  // After a BOM change, the units of the models whose explosion passes a changed line are exploded anew.
+  let model: PlanModel | null;
+  let exploder = last.exploder;
+  let explodeAgain: Uint8Array | null = null;
+  if (input.bom === before.bom) model = withStock(last.model, parts);
+  else {
+    model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+    exploder = new Exploder(model);
+    explodeAgain = reaching(bomDifference(last.model, model).changedParents, model);
+  }
   if (!model) return null;
   const ordered = orderSlots(input.sequence, model);
   const { rowBase } = last;
@@ -891,7 +900,7 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
   const lastAt = new Map<string, number>();
   last.ordered.forEach((entry, position) => lastAt.set(entry.slot.serial, position));
   const probe = madeStockLedger(model, supply.cumulativeSupply, rowBase);
-  const explosions = new ExplosionCache(last.exploder, probe, false);
+  const explosions = new ExplosionCache(exploder, probe, false);
   // Parts whose need per day may have changed: those of units gone, added, exploded again or out of
   // their last order. The others' rows are summed from the same units in the same order as before.
   const touched = new Uint8Array(parts.length);
@@ -904,7 +913,7 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
     const at = lastAt.get(entry.slot.serial);
     const kept = at === undefined ? undefined : last.probed[at];
     const explosion =
-      kept && sameNeeds(last.ordered[at!], entry) && holdsAgainst(kept, probe)
+      kept && explodeAgain?.[entry.model] !== 1 && sameNeeds(last.ordered[at!], entry) && holdsAgainst(kept, probe)
         ? kept
         : explosions.get(entry.model, entry.slot.qty, entry.bucket);
     if (explosion === kept && at! > lastKept) {
@@ -927,7 +936,7 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
       if (touched[part] === 1) requiredByDay[rowBase[part] + needBucket[need]] += needQty[need];
     }
   }
-  const needs: UnitNeeds = { model, ordered, rowBase, exploder: last.exploder, probed, requiredByDay };
+  const needs: UnitNeeds = { model, ordered, rowBase, exploder, probed, requiredByDay };
   return { ...judgeUnits(input, needs, supply), kind: 'judged' };
 }
 
@@ -975,22 +984,31 @@ interface BomChange {
  */
 function bomChangeOf(last: Walked, input: LineRiskInput): BomChange | null | undefined {
   const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
-  const old = last.model;
+  const { changedParents, components } = bomDifference(last.model, model);
+  if (components.some((component) => model.source[component] !== BOUGHT)) return undefined;
+  if (changedParents.length === 0) return null;
+  // Only bought components changed, so the made structure above them is the same in both.
+  return { model, exploder: new Exploder(model), parts: components, explodeAgain: reaching(changedParents, model) };
+}
+
+/**
+ * How the BOM of `model` differs from that of `old` (the same parts), parent by parent, line by
+ * line in order: the parents whose lines changed, and the components on changed lines (before or
+ * after).
+ */
+function bomDifference(old: PlanModel, model: PlanModel): { changedParents: number[]; components: number[] } {
   const partCount = old.source.length;
-  const inParts = new Uint8Array(partCount);
-  const parts: number[] = [];
+  const inComponents = new Uint8Array(partCount);
+  const components: number[] = [];
   const changedParents: number[] = [];
   const sameLine = (a: number, b: number) =>
     old.lineComponent[a] === model.lineComponent[b] &&
     old.lineQtyPer[a] === model.lineQtyPer[b] &&
     old.lineFrom[a] === model.lineFrom[b] &&
     old.lineTo[a] === model.lineTo[b];
-  const addComponent = (of: PlanModel, line: number): boolean => {
-    const component = of.lineComponent[line];
-    if (of.source[component] !== BOUGHT) return false;
-    if (inParts[component] === 0) parts.push(component);
-    inParts[component] = 1;
-    return true;
+  const addComponent = (component: number) => {
+    if (inComponents[component] === 0) components.push(component);
+    inComponents[component] = 1;
   };
   for (let parent = 0; parent < partCount; parent += 1) {
     const oldFirst = old.lineStart[parent];
@@ -1002,31 +1020,39 @@ function bomChangeOf(last: Walked, input: LineRiskInput): BomChange | null | und
     for (let at = 0; at < Math.max(oldCount, newCount); at += 1) {
       if (at < oldCount && at < newCount && sameLine(oldFirst + at, newFirst + at)) continue;
       changed = true;
-      if (at < oldCount && !addComponent(old, oldFirst + at)) return undefined;
-      if (at < newCount && !addComponent(model, newFirst + at)) return undefined;
+      if (at < oldCount) addComponent(old.lineComponent[oldFirst + at]);
+      if (at < newCount) addComponent(model.lineComponent[newFirst + at]);
     }
     if (changed) changedParents.push(parent);
   }
-  if (changedParents.length === 0) return null;
-  // Every part whose explosion reaches a changed parent: the parents' parents, up to the models.
-  // Only bought components changed, so the made structure above them is the same in both.
+  return { changedParents, components };
+}
+
+/**
+ * Per part: 1 when exploding it passes one of `parents` (the parents whose lines changed): the
+ * parents themselves and every part above them through made parts. The structure of the new
+ * model is enough: on the way down from a part to a changed parent, the first changed parent met
+ * lies under lines that stood.
+ */
+function reaching(parents: readonly number[], model: PlanModel): Uint8Array {
+  const partCount = model.source.length;
   const parentsOf: number[][] = Array.from({ length: partCount }, () => []);
   for (let parent = 0; parent < partCount; parent += 1) {
     for (let line = model.lineStart[parent]; line < model.lineStart[parent + 1]; line += 1) {
       if (model.source[model.lineComponent[line]] !== BOUGHT) parentsOf[model.lineComponent[line]].push(parent);
     }
   }
-  const explodeAgain = new Uint8Array(partCount);
-  const stack = [...changedParents];
-  for (const parent of stack) explodeAgain[parent] = 1;
+  const reached = new Uint8Array(partCount);
+  const stack = [...parents];
+  for (const parent of stack) reached[parent] = 1;
   while (stack.length > 0) {
     for (const parent of parentsOf[stack.pop()!]) {
-      if (explodeAgain[parent] === 1) continue;
-      explodeAgain[parent] = 1;
+      if (reached[parent] === 1) continue;
+      reached[parent] = 1;
       stack.push(parent);
     }
   }
-  return { model, exploder: new Exploder(model), parts, explodeAgain };
+  return reached;
 }
 
 /**

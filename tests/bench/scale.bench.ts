@@ -50,10 +50,16 @@ async function get(url: string, token: string): Promise<{ ms: number; bytes: num
   return { ms: performance.now() - start, bytes: body.length, body };
 }
 
-/** One POST with an idempotency key, as the line-end screen sends a build. */
-async function post(url: string, token: string, body: object, key: string): Promise<{ status: number }> {
+/** One POST with an idempotency key, as the line-end screen sends a build; or a PUT, as the board moves units. */
+async function post(
+  url: string,
+  token: string,
+  body: object,
+  key: string,
+  method: 'POST' | 'PUT' = 'POST',
+): Promise<{ status: number }> {
   const response = await fetch(url, {
-    method: 'POST',
+    method,
     headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json', 'Idempotency-Key': key },
     body: JSON.stringify(body),
   });
@@ -268,6 +274,24 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
       if (built.status !== 201) throw new Error(`POST /api/builds answered ${built.status}`);
       afterBuild.push((await get(lineRiskUrl, token)).ms);
     }
+    // After two units of a day in the middle of the horizon swapped places on the board: the
+    // sequence is read again, every unit judged again, and only units whose made stock moved
+    // exploded again.
+    const middle = inOrder.filter((slot) => slot.date === inOrder[Math.floor(inOrder.length / 2)].date);
+    const afterMove: number[] = [];
+    for (let run = 0; run < 3; run += 1) {
+      const serials = middle.map((slot) => slot.serial);
+      if (run % 2 === 0) serials.splice(0, 2, serials[1], serials[0]);
+      const moved = await post(
+        `${app.base}/api/sequence/days`,
+        token,
+        { days: [{ date: middle[0].date, serials }], allowFrozen: true },
+        `bench-move-${run}`,
+        'PUT',
+      );
+      if (moved.status !== 200) throw new Error(`PUT /api/sequence/days answered ${moved.status}`);
+      afterMove.push((await get(lineRiskUrl, token)).ms);
+    }
     console.log(
       `GET /api/line-risk 4 weeks: first ${ms(firstReport.ms)} (worker starting), then after a made BOM line ` +
         `(every unit walked, the worker's code still compiling): ${warmUp.map(ms).join(', ')}`,
@@ -281,6 +305,7 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
       `  after a BOM change: bought component median ${ms(afterBoughtLine)}, made component median ${ms(afterMadeLine)}; ` +
         `after a unit built median ${ms(median(afterBuild))} (${inOrder[0].serial} is ${lineRisk.firstAtRisk ? 'at risk' : 'buildable'} in the walk)`,
     );
+    console.log(`  after two units of a day swapped on the board median ${ms(median(afterMove))}`);
     console.log(
       `  report ${mb(firstReport.bytes)} JSON | full result ${mb(lineRisk.jsonBytes)} JSON, ${mb(lineRisk.gzipBytes)} gzipped`,
     );

@@ -249,6 +249,7 @@ describe('computeLineRisk against the plain walk', () => {
         'move',
         'addUnit',
         'dropUnit',
+        'leadTime',
       ),
       pick: fc.nat(),
       qty: fc.integer({ min: -4, max: 9 }),
@@ -315,7 +316,7 @@ describe('computeLineRisk against the plain walk', () => {
     expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
     expect(walker.lastKind).toBe('parts');
   });
-  it('walks a change to lines of bought components part by part, and one to a made component in full', () => {
+  it('walks a change to lines of bought components part by part, and judges every unit again after one to a made component', () => {
     // M0 takes one B1 and one F0 (made, none in stock), which takes one B0. Only B1 is on hand.
     const made: LineRiskPart = { ...bought('F0'), source: 'make' };
     const before = smallPlant(
@@ -335,10 +336,10 @@ describe('computeLineRisk against the plain walk', () => {
     const scrap = withLines([{ ...boughtQty.bom[0]!, scrapPct: 10 }, before.bom[1]!, before.bom[2]!]);
     expect(walker.walk(scrap).result()).toEqual(referenceLineRisk(scrap));
     expect(walker.lastKind).toBe('kept');
-    // Two F0 a unit: made parts are taken in turn, so every unit is walked again.
+    // Two F0 a unit: made parts are taken in turn, so every unit is judged again, those of M0 exploded anew.
     const madeQty = withLines([scrap.bom[0]!, bomLine('M0', 'F0', 2), before.bom[2]!]);
     expect(walker.walk(madeQty).result()).toEqual(referenceLineRisk(madeQty));
-    expect(walker.lastKind).toBe('full');
+    expect(walker.lastKind).toBe('judged');
   });
   it('takes units built at the head of the sequence out, and judges the others again after a unit at risk was built', () => {
     // Three units of M0, one B0 each; two B0 on hand. The third lacks B0.
@@ -528,6 +529,11 @@ function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: 
       const moved = { ...sequence[from]!, date: to.date, sequence: place };
       if (step.kind === 'move') return { ...input, sequence: sequence.map((slot, at) => (at === from ? moved : slot)) };
       return { ...input, sequence: [...sequence, { ...moved, serial: `${moved.serial}-NEW${sequence.length}` }] };
+    }
+    case 'leadTime': {
+      // The part master: a part's lead time changed.
+      const part = step.pick % input.parts.length;
+      return { ...input, parts: withPart(part, { leadTimeDays: Math.abs(step.qty) % 4 }) };
     }
     case 'dropUnit':
       return {
