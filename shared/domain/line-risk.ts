@@ -863,10 +863,11 @@ function requiredWithout(last: Walked, gone: number): Float64Array {
  * stock, with the explosions of the last walk wherever they still hold: made stock goes to the
  * units first come, first served, so each unit's last explosion is tried against made stock as it
  * stands at the unit's turn, and the unit is exploded again only when a free quantity it read is
- * out of its bounds, or its model's explosion passes a BOM line that changed. For a change that
- * leaves the parts (but for stock), the calendar and the horizon as they were: units built, moved,
- * added or removed, made stock counted, BOM lines changed, a verdict changed by stock. Null for
- * any other change (the walk is then done in full).
+ * out of its bounds, or its model's explosion passes a BOM line that changed or a made part whose
+ * lead time moved. For a change that leaves the calendar, the horizon and each part's source, unit
+ * and replenishment as they were: units built, moved, added or removed, made stock counted, BOM
+ * lines changed, lead times and suppliers edited, a verdict changed by stock. Null for any other
+ * change (the walk is then done in full).
  */
 function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: 'judged' } | null {
   const before = last.input;
@@ -879,18 +880,29 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
   ) {
     return null;
   }
+  // Part master edits the walk survives: anything but a part's source, unit or replenishment. A
+  // made part's lead time moves the start of what it is made from.
+  let partsEdited = false;
+  const leadTimeMoved: number[] = [];
   for (let part = 0; part < parts.length; part += 1) {
-    if (parts[part] !== before.parts[part] && !sameBesideStock(before.parts[part], parts[part])) return null;
+    const now = parts[part];
+    const then = before.parts[part];
+    if (now === then || sameBesideStock(then, now)) continue;
+    if (!sameForTheWalk(then, now)) return null;
+    partsEdited = true;
+    if (now.leadTimeDays !== then.leadTimeDays && last.model.source[part] !== BOUGHT) leadTimeMoved.push(part);
   }
-  // After a BOM change, the units of the models whose explosion passes a changed line are exploded anew.
+  // After a BOM change or a lead time moved, the units of the models whose explosion passes a
+  // changed line or that part are exploded anew.
   let model: PlanModel | null;
   let exploder = last.exploder;
   let explodeAgain: Uint8Array | null = null;
-  if (input.bom === before.bom) model = withStock(last.model, parts);
+  if (input.bom === before.bom && !partsEdited) model = withStock(last.model, parts);
   else {
     model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
     exploder = new Exploder(model);
-    explodeAgain = reaching(bomDifference(last.model, model).changedParents, model);
+    const changedParents = input.bom === before.bom ? [] : bomDifference(last.model, model).changedParents;
+    explodeAgain = reaching([...changedParents, ...leadTimeMoved], model);
   }
   if (!model) return null;
   const ordered = orderSlots(input.sequence, model);
@@ -1103,6 +1115,21 @@ function sameTakes(a: Explosion, b: Explosion): boolean {
     if (a.takeQty[take] !== b.takeQty[take]) return false;
   }
   return true;
+}
+
+/**
+ * Two versions of a part alike in what a walk reads of it beside its lead time and the figures a
+ * short part is reported with: the same fields, number, source, unit and replenishment.
+ */
+function sameForTheWalk(before: LineRiskPart, after: LineRiskPart): boolean {
+  const keys = Object.keys(after) as (keyof LineRiskPart)[];
+  if (Object.keys(before).length !== keys.length || !keys.every((key) => Object.hasOwn(before, key))) return false;
+  return (
+    before.partNumber === after.partNumber &&
+    before.source === after.source &&
+    before.uom === after.uom &&
+    before.replenishment === after.replenishment
+  );
 }
 
 /** Two versions of a part alike but for its stock (on-hand, whether a count is due). */

@@ -250,6 +250,8 @@ describe('computeLineRisk against the plain walk', () => {
         'addUnit',
         'dropUnit',
         'leadTime',
+        'leadTime',
+        'uom',
       ),
       pick: fc.nat(),
       qty: fc.integer({ min: -4, max: 9 }),
@@ -396,6 +398,31 @@ describe('computeLineRisk against the plain walk', () => {
     expect(again.walk(counted).result()).toEqual(referenceLineRisk(counted));
     expect(again.lastKind).toBe('judged');
   });
+  it('judges every unit again after the lead time of a made part moved, exploding anew the units that pass it', () => {
+    // M0 takes one S (made, none in stock), which takes one B0; one B0 arrives on Wednesday. SN1 is
+    // built on Thursday: made the same day, S finds the B0; made two working days ahead (Tuesday),
+    // it does not.
+    const before: LineRiskInput = {
+      ...smallPlant(
+        [model('M0'), bought('S', { source: 'make', leadTimeDays: 0 }), bought('B0')],
+        [bomLine('M0', 'S'), bomLine('S', 'B0')],
+        [unit('2026-03-05', 1, 'M0', 'SN1')],
+      ),
+      firmReceipts: [{ partNumber: 'B0', date: '2026-03-04', qty: 1 }],
+    };
+    const after = { ...before, parts: before.parts.map((p) => (p.partNumber === 'S' ? { ...p, leadTimeDays: 2 } : p)) };
+    const walker = new LineRiskWalker();
+
+    expect(walker.walk(before).unitsAtRisk()).toEqual([]);
+    expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
+    expect(walker.lastKind).toBe('judged');
+    expect(
+      walker
+        .walk(after)
+        .unitsAtRisk()
+        .map((slot) => slot.serial),
+    ).toEqual(['SN1']);
+  });
   it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
     // Found in review: a part that drops its uom (so counts in pieces) and gains countDue has as
     // many fields as before; it is not a change of stock alone.
@@ -534,6 +561,11 @@ function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: 
       // The part master: a part's lead time changed.
       const part = step.pick % input.parts.length;
       return { ...input, parts: withPart(part, { leadTimeDays: Math.abs(step.qty) % 4 }) };
+    }
+    case 'uom': {
+      // A part now counted in kilograms, or back in pieces: what is short by a fraction changes.
+      const part = step.pick % input.parts.length;
+      return { ...input, parts: withPart(part, { uom: input.parts[part]!.uom === 'KGM' ? 'H87' : 'KGM' }) };
     }
     case 'dropUnit':
       return {
