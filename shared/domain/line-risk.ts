@@ -249,11 +249,13 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
+  /** Walks since the last full one. */
+  private sinceFull = 0;
   /** How the last walk went. */
   lastKind: WalkKind = 'full';
 
   walk(input: LineRiskInput): LineRiskRun {
-    const previous = this.last;
+    const previous = this.sinceFull < WALKS_BEFORE_FULL ? this.last : null;
     // Dropped first: if this walk throws, the next one starts afresh.
     this.last = null;
     let again: ReturnType<typeof walkAgain> = null;
@@ -265,9 +267,16 @@ export class LineRiskWalker {
     const done = again ?? { ...walkAll(input), kind: 'full' as const };
     this.last = done.walked;
     this.lastKind = done.kind;
+    this.sinceFull = done.kind === 'full' ? 0 : this.sinceFull + 1;
     return done.run;
   }
 }
+
+/**
+ * A walk again keeps explosions of earlier walks, and with them the blocks of memory they were
+ * made in; every this many walks one is done in full, so what is kept cannot grow without bound.
+ */
+export const WALKS_BEFORE_FULL = 100;
 
 /**
  * Explosions against one ledger, kept by model, quantity and day: a unit reuses the one made for
@@ -552,8 +561,9 @@ function judgeUnits(
   // --- The walk ---
 
   // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
+  // These explosions are the walk's own: made apart from the needs, which the next walks may keep.
   const build = new StockLedger(days, cumulativeSupply, rowBase);
-  const againstBuild = new ExplosionCache(exploder, build, true);
+  const againstBuild = new ExplosionCache(new Exploder(model), build, true);
   const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply);
   const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
@@ -1151,7 +1161,7 @@ function replayParts(
   inChanged: Uint8Array,
   explodeAgain: Uint8Array | null,
 ): Pick<Walked, 'records' | 'unitStart' | 'risks' | 'judged'> | null {
-  const { model, rowBase, ordered, probed, built, exploder, countable, rankOf, supply } = walked;
+  const { model, rowBase, ordered, probed, built, countable, rankOf, supply } = walked;
   const old = walked.records;
   const days = model.days.length;
   // The queue view is per part: the rows of the changed parts that may run short alone. The build
@@ -1160,7 +1170,9 @@ function replayParts(
   const queue = new StockLedger(days, supply, rowBase, queued);
   const build = new StockLedger(days, supply, rowBase);
   const partCount = model.source.length;
-  const againstBuild = new ExplosionCache(exploder, build, true);
+  // The build view's explosions apart from the needs (see judgeUnits).
+  const builder = new Exploder(model);
+  const againstBuild = new ExplosionCache(builder, build, true);
   const risks = new Risks(partCount, resequenceFinder(ordered, againstBuild, partCount));
   const judged = explodeAgain ? walked.judged.slice() : walked.judged;
   const records = new LackRecordWriter(old.count + 1024);
@@ -1185,7 +1197,7 @@ function replayParts(
     if (explodeAgain?.[entry.model] === 1)
       judged[position] = againstBuild.get(entry.model, entry.slot.qty, entry.bucket);
     const explosion = judged[position];
-    const lacks = exploder.lacksOf(build, explosion, inChanged);
+    const lacks = builder.lacksOf(build, explosion, inChanged);
     const oldFirst = walked.unitStart[position];
     const oldEnd = walked.unitStart[position + 1];
     if (built[position] === 1) {

@@ -6,6 +6,7 @@ import {
   computeLineRisk,
   LineRiskWalker,
   walkLineRisk,
+  WALKS_BEFORE_FULL,
   type WalkKind,
   type LineRiskInput,
   type LineRiskPart,
@@ -422,6 +423,29 @@ describe('computeLineRisk against the plain walk', () => {
         .unitsAtRisk()
         .map((slot) => slot.serial),
     ).toEqual(['SN1']);
+  });
+  it('walks in full once in so many walks, however the changes could be walked again', () => {
+    const before = smallPlant(
+      [model('M0'), bought('B0', { onHand: 5 })],
+      [bomLine('M0', 'B0')],
+      [unit(FROM, 1, 'M0', 'SN1'), unit('2026-03-03', 1, 'M0', 'SN2')],
+    );
+    const walker = new LineRiskWalker();
+    walker.walk(before);
+    const kinds: WalkKind[] = [];
+    let input = before;
+    for (let change = 1; change <= WALKS_BEFORE_FULL + 1; change += 1) {
+      input = {
+        ...input,
+        parts: input.parts.map((p) => (p.partNumber === 'B0' ? { ...p, onHand: 5 + (change % 3) } : p)),
+      };
+      walker.walk(input);
+      kinds.push(walker.lastKind);
+    }
+
+    expect(kinds.slice(0, WALKS_BEFORE_FULL).every((kind) => kind !== 'full')).toBe(true);
+    expect(kinds[WALKS_BEFORE_FULL]).toBe('full');
+    expect(walker.walk(input).result()).toEqual(referenceLineRisk(input));
   });
   it('walks in full when a part gains or loses a field, whatever the count of fields', () => {
     // Found in review: a part that drops its uom (so counts in pieces) and gains countDue has as
