@@ -241,11 +241,12 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
  * those parts alone, so only the units whose BOM passes a changed line are exploded again. Units
  * built at the head of the sequence, which the walk had found buildable, are taken out with what
  * they committed (the backflush took the same from on-hand), and the walk stands from the next
- * unit on. Any other change to the sequence, to stock or to the BOM (a unit at risk built, units
- * moved, added or removed, made stock counted, a made component's line, a verdict changed) judges
- * every unit again, but keeps what each needs wherever its model's BOM stands and the made stock
- * its explosion read does too. The walk is done in full when the part master, the calendar or the
- * horizon changed. Either way the answer is exactly the full walk's.
+ * unit on. Any other change to the sequence, to stock, to the BOM or to the part master (a unit at
+ * risk built, units moved, added or removed, made stock counted, a made component's line, a lead
+ * time, a verdict changed) judges every unit again, but keeps what each needs wherever its model's
+ * BOM and lead times stand and the made stock its explosion read does too. The walk is done in full
+ * when a part's source, unit or replenishment, the calendar or the horizon changed, and every
+ * WALKS_BEFORE_FULL walks. Either way the answer is exactly the full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -280,7 +281,7 @@ export const WALKS_BEFORE_FULL = 100;
 
 /**
  * Explosions against one ledger, kept by model, quantity and day: a unit reuses the one made for
- * an earlier unit as long as it still holds (no row it read has been committed to since).
+ * an earlier unit as long as it still holds (every free quantity it read within its bounds).
  */
 class ExplosionCache {
   private readonly kept = new Map<string, Explosion>();
