@@ -21,6 +21,19 @@ export function samePiece(before: unknown, after: unknown): boolean {
   return changed ? changed.length === 0 : isDeepStrictEqual(before, after);
 }
 
+/**
+ * `after`, with every row equal to `before`'s at the same place replaced by `before`'s own row (or
+ * `before` itself when nothing differs): later comparisons then find the rows that stood at once.
+ */
+export function keepEqualRows<T>(before: T, after: T): T {
+  const changed = changedRows(before, after);
+  if (!changed) return samePiece(before, after) ? before : after;
+  if (changed.length === 0) return before;
+  const rows = (before as unknown[]).slice();
+  for (const index of changed) rows[index] = (after as unknown[])[index];
+  return rows as T;
+}
+
 function sameRow(before: unknown, after: unknown): boolean {
   if (before === after) return true;
   if (typeof before !== 'object' || typeof after !== 'object' || before === null || after === null) return false;

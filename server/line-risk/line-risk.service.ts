@@ -17,7 +17,7 @@ import {
   type PlanningPiece,
   type PlanningPieceVersions,
 } from '../settings/versions';
-import { samePiece } from './changed-rows';
+import { keepEqualRows } from './changed-rows';
 import { loadLineRiskInputs, type LineRiskInputs } from './line-risk-inputs';
 import { LineRiskRunner, LineRiskWorkerError } from './line-risk-runner';
 import { toReport } from './line-risk-report';
@@ -242,16 +242,18 @@ function standingPieces(before: PlanningPieceVersions, now: PlanningPieceVersion
 }
 
 /**
- * The inputs just read, with each piece equal to the one read before replaced by that one; the
- * inputs read before themselves when nothing differs.
+ * The inputs just read, with each piece equal to the one read before replaced by that one, and in
+ * a list that changed each row equal to the one before replaced by it; the inputs read before
+ * themselves when nothing differs.
  */
 function keepUnchanged(read: LineRiskInputs, before: LineRiskInputs | null): LineRiskInputs {
   if (!before) return read;
   const kept: LineRiskInputs = { ...read };
   let changed = false;
   for (const name of Object.keys(read) as (keyof LineRiskInputs)[]) {
-    if (samePiece(before[name], read[name])) (kept as unknown as Record<string, unknown>)[name] = before[name];
-    else changed = true;
+    const piece = keepEqualRows<unknown>(before[name], read[name]);
+    (kept as unknown as Record<string, unknown>)[name] = piece;
+    if (piece !== before[name]) changed = true;
   }
   return changed ? kept : before;
 }
