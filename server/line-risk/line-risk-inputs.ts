@@ -1,3 +1,4 @@
+import { isDeepStrictEqual } from 'node:util';
 import type { EntityManager } from 'typeorm';
 import type { LineRiskPart, LoopSupply } from '../../shared/domain/line-risk';
 import type { PlanningBomLine, ScheduledReceipt, SequenceSlot } from '../../shared/domain/types';
@@ -31,30 +32,38 @@ export interface LineRiskInputs {
   loops: LoopSupply[];
   calendar: Calendar;
   details: Map<string, PartDetails>;
-  stock: StockMark;
+  mark: PartsMark;
 }
 
 /**
- * How far the parts' stock was read: the last stock movement, and when each part was last counted
- * (in the order of `parts`). Every change of on-hand or of a count is a movement (the stock ledger
- * posts them), so a read after it needs only the parts with a later movement. Movement ids follow
- * the order writers commit in: each writer of movements also bumps the planning version row, so
- * on PostgreSQL a writer that took its ids before another committed is refused and runs again.
+ * How far the parts were read, so a read after a change needs only the parts it touched:
+ * - the last part revision: every change to a part's planned columns gives it a new, higher
+ *   revision (database triggers keep them; see the part-revisions migration);
+ * - the last stock movement, and when each part was last counted (in the order of `parts`): every
+ *   change of on-hand or of a count is a movement (the stock ledger posts them);
+ * - the supplier names, which join into the details.
+ * Revisions and movement ids follow the order writers commit in: on SQLite one writer commits at a
+ * time, and on PostgreSQL every writer of parts or movements also bumps the planning version row,
+ * so a writer that took its numbers before another committed is refused and runs again.
  */
-export interface StockMark {
+export interface PartsMark {
+  lastRevision: number;
   lastMovement: number;
   countedAt: (string | null)[];
   /** Part number → its place in `parts`. */
   placeOf: ReadonlyMap<string, number>;
+  supplierNames: ReadonlyMap<string, string>;
 }
 
 // The plan's part columns, with what the report shows beside them and when each was last counted:
 // one pass over the part list rather than one for each.
-const PARTS_SQL = `SELECT p.part_number AS "partNumber", p.description AS description, p.uom AS uom, p.source AS source,
+const PART_COLUMNS = `p.part_number AS "partNumber", p.description AS description, p.uom AS uom, p.source AS source,
   p.supplier_code AS "supplierCode", p.replenishment AS replenishment, p.lead_time_days AS "leadTimeDays",
   p.pack_qty AS "packQty", p.on_hand AS "onHand", p.safety_stock AS "safetyStock", p.hazardous AS hazardous,
-  s.name AS "supplierName", ${COUNTED_AT_SQL} AS "countedAt"
-  FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code ORDER BY p.part_number`;
+  s.name AS "supplierName", ${COUNTED_AT_SQL} AS "countedAt"`;
+const PARTS_SQL = `SELECT ${PART_COLUMNS} FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code ORDER BY p.part_number`;
+// The same, for the parts revised after a given revision.
+const REVISED_SQL = `SELECT ${PART_COLUMNS} FROM part p LEFT JOIN supplier s ON s.code = p.supplier_code WHERE p.revision > ?`;
 
 interface PartRow extends CountedPart {
   partNumber: string;
@@ -78,12 +87,15 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
-const STOCK_MARK_SQL = `SELECT (SELECT COUNT(*) FROM part) AS "partCount",
+const MARK_SQL = `SELECT (SELECT COUNT(*) FROM part) AS "partCount",
+  (SELECT COALESCE(MAX(p.revision), 0) FROM part p) AS "lastRevision",
   (SELECT COALESCE(MAX(m.id), 0) FROM stock_movement m) AS "lastMovement"`;
 
 // The part columns a change of stock moves, for the parts with a movement after a given one.
 const MOVED_SQL = `SELECT p.part_number AS "partNumber", p.on_hand AS "onHand", ${COUNTED_AT_SQL} AS "countedAt"
   FROM part p WHERE p.part_number IN (SELECT m.part_number FROM stock_movement m WHERE m.id > ?)`;
+
+const SUPPLIERS_SQL = `SELECT code, name FROM supplier`;
 
 /** What a read may take from the inputs read before: the pieces whose counters stood since (see PlanningPiece). */
 export interface LineRiskReuse {
@@ -95,10 +107,10 @@ export interface LineRiskReuse {
  * Reads the parts (with their details and whether each is due a count), the BOM, the units to
  * build, the firm receipts, the calendar, and the kanban loops as supply; the caller runs it in
  * one snapshot. With `reuse`, a standing piece is `before`'s (the same object, so what compares
- * the inputs finds it unchanged at once) and only the others are read. Standing parts still have
- * their stock read again (on-hand, when each was counted), keeping every part whose figures stand;
- * firm receipts and loops are read every time. Equal to a read without `reuse` as long as the
- * standing pieces did stand.
+ * the inputs finds it unchanged at once) and only the others are read. The parts are read again
+ * from `before`'s: only those revised or with a stock movement since (see PartsMark), keeping
+ * every part whose figures stand; firm receipts and loops are read every time. Equal to a read
+ * without `reuse` as long as the standing pieces did stand.
  */
 export async function loadLineRiskInputs(
   manager: EntityManager,
@@ -111,98 +123,140 @@ export async function loadLineRiskInputs(
     reuse?.standing.has(piece) ? reuse.before[piece] : undefined;
   // The clock and the count interval are read every time: whether a part is due a count moves with them.
   const isCountDue = await countDueTest(manager, now);
-  const { parts, details, stock } =
-    (reuse?.standing.has('parts') ? await readPartStock(manager, reuse.before, isCountDue) : null) ??
-    (await readParts(manager, isCountDue));
+  const { parts, details, mark } =
+    (reuse ? await readChangedParts(manager, reuse, isCountDue) : null) ?? (await readParts(manager, isCountDue));
   const bom = kept('bom') ?? (await readBomLines(manager));
   const sequence = kept('sequence') ?? (await readUnitsToBuild(manager));
   const firmReceipts = await readFirmReceipts(manager);
   const calendar = kept('calendar') ?? (await readCalendar(manager));
-  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details, stock };
+  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details, mark };
 }
 
 /** Whether a part is due a count, at the time and interval read (see countDueTest). */
 type IsCountDue = (part: CountedPart) => boolean;
 
+type PartsRead = Pick<LineRiskInputs, 'parts' | 'details' | 'mark'>;
+
 /** Every part, with its details and whether it is due a count. */
-async function readParts(
-  manager: EntityManager,
-  isCountDue: IsCountDue,
-): Promise<Pick<LineRiskInputs, 'parts' | 'details' | 'stock'>> {
-  const { lastMovement } = await readStockMark(manager);
+async function readParts(manager: EntityManager, isCountDue: IsCountDue): Promise<PartsRead> {
+  const { lastRevision, lastMovement } = await readMark(manager);
   const rows: PartRow[] = await manager.query(PARTS_SQL);
   const details = new Map<string, PartDetails>();
   const parts = rows.map((row) => {
-    details.set(row.partNumber, {
-      description: row.description,
-      uom: row.uom,
-      hazardous: Boolean(row.hazardous),
-      supplierName: row.supplierName,
-    });
-    return {
-      partNumber: row.partNumber,
-      uom: row.uom,
-      source: row.source,
-      supplierCode: row.supplierCode,
-      replenishment: row.replenishment,
-      leadTimeDays: row.leadTimeDays,
-      packQty: row.packQty,
-      onHand: row.onHand,
-      safetyStock: row.safetyStock,
-      countDue: isCountDue(row),
-    };
+    details.set(row.partNumber, detailsOf(row));
+    return partOf(row, isCountDue(row));
   });
-  const stock: StockMark = {
+  const mark: PartsMark = {
+    lastRevision,
     lastMovement,
     countedAt: rows.map((row) => row.countedAt),
     placeOf: new Map(rows.map((row, place) => [row.partNumber, place])),
+    supplierNames: await readSupplierNames(manager),
   };
-  return { parts, details, stock };
+  return { parts, details, mark };
 }
 
-async function readStockMark(manager: EntityManager): Promise<{ partCount: number; lastMovement: number }> {
-  const [row] = (await manager.query(STOCK_MARK_SQL)) as {
-    partCount: number | string;
-    lastMovement: number | string;
-  }[];
-  return { partCount: Number(row.partCount), lastMovement: Number(row.lastMovement) };
+function partOf(row: PartRow, countDue: boolean): LineRiskInputs['parts'][number] {
+  return {
+    partNumber: row.partNumber,
+    uom: row.uom,
+    source: row.source,
+    supplierCode: row.supplierCode,
+    replenishment: row.replenishment,
+    leadTimeDays: row.leadTimeDays,
+    packQty: row.packQty,
+    onHand: row.onHand,
+    safetyStock: row.safetyStock,
+    countDue,
+  };
+}
+
+function detailsOf(row: PartRow): PartDetails {
+  return {
+    description: row.description,
+    uom: row.uom,
+    hazardous: Boolean(row.hazardous),
+    supplierName: row.supplierName,
+  };
+}
+
+async function readMark(manager: EntityManager) {
+  const [row] = (await manager.query(MARK_SQL)) as Record<
+    'partCount' | 'lastRevision' | 'lastMovement',
+    number | string
+  >[];
+  return {
+    partCount: Number(row.partCount),
+    lastRevision: Number(row.lastRevision),
+    lastMovement: Number(row.lastMovement),
+  };
+}
+
+async function readSupplierNames(manager: EntityManager): Promise<Map<string, string>> {
+  const rows: { code: string; name: string }[] = await manager.query(SUPPLIERS_SQL);
+  return new Map(rows.map((row) => [row.code, row.name]));
 }
 
 /**
- * The parts of `before` with their stock read again: on-hand and when each was counted for the
- * parts with a movement since (see StockMark), and whether each part is due a count (that moves
- * with the clock). A part whose figures stand is `before`'s own object, and so are the details.
- * Null when `before`'s parts are no longer the part list (the part master changed after all): the
- * caller then reads the parts in full.
+ * The parts of `before` read again where they changed: the parts revised since, on-hand and when
+ * each was counted for the parts with a stock movement since (see PartsMark), and whether each part
+ * is due a count (that moves with the clock). A part whose figures stand is `before`'s own object,
+ * and so are the details while no part's changed. Null when the parts are better read in full: the
+ * part list is no longer `before`'s, or a supplier was renamed.
  */
-async function readPartStock(
+async function readChangedParts(
   manager: EntityManager,
-  before: LineRiskInputs,
+  { before, standing }: LineRiskReuse,
   isCountDue: IsCountDue,
-): Promise<Pick<LineRiskInputs, 'parts' | 'details' | 'stock'> | null> {
-  const mark = before.stock;
-  const { partCount, lastMovement } = await readStockMark(manager);
-  if (partCount !== before.parts.length || lastMovement < mark.lastMovement) return null;
+): Promise<PartsRead | null> {
+  const mark = before.mark;
+  const { partCount, lastRevision, lastMovement } = await readMark(manager);
+  if (partCount !== before.parts.length || lastRevision < mark.lastRevision || lastMovement < mark.lastMovement) {
+    return null;
+  }
+  // Supplier names join into the details: when one changed, every part of that supplier did.
+  const supplierNames = standing.has('parts') ? mark.supplierNames : await readSupplierNames(manager);
+  if (supplierNames !== mark.supplierNames && !isDeepStrictEqual(supplierNames, mark.supplierNames)) return null;
+  const revised: PartRow[] =
+    lastRevision === mark.lastRevision ? [] : await runSql(manager, REVISED_SQL, [mark.lastRevision]);
   const moved: (Pick<PartRow, 'partNumber' | 'onHand'> & Pick<CountedPart, 'countedAt'>)[] =
     lastMovement === mark.lastMovement ? [] : await runSql(manager, MOVED_SQL, [mark.lastMovement]);
-  const countedAt = moved.length > 0 ? mark.countedAt.slice() : mark.countedAt;
+
+  const countedAt = moved.length + revised.length > 0 ? mark.countedAt.slice() : mark.countedAt;
   const onHandOf = new Map<number, number>();
-  for (const row of moved) {
+  const revisedAt = new Map<number, PartRow>();
+  let details = before.details;
+  for (const row of [...revised, ...moved]) {
     const place = mark.placeOf.get(row.partNumber);
     if (place === undefined) return null;
     countedAt[place] = row.countedAt;
     onHandOf.set(place, row.onHand);
   }
+  for (const row of revised) {
+    const place = mark.placeOf.get(row.partNumber)!;
+    revisedAt.set(place, row);
+    const rowDetails = detailsOf(row);
+    if (!isDeepStrictEqual(rowDetails, details.get(row.partNumber))) {
+      if (details === before.details) details = new Map(details);
+      (details as Map<string, PartDetails>).set(row.partNumber, rowDetails);
+    }
+  }
   const parts = new Array<LineRiskInputs['parts'][number]>(before.parts.length);
   for (let place = 0; place < parts.length; place += 1) {
     const part = before.parts[place];
-    const onHand = onHandOf.get(place) ?? part.onHand;
     const countDue = isCountDue({ source: part.source, countedAt: countedAt[place] });
-    parts[place] = onHand === part.onHand && countDue === part.countDue ? part : { ...part, onHand, countDue };
+    const row = revisedAt.get(place);
+    const onHand = onHandOf.get(place) ?? part.onHand;
+    if (row) {
+      const read = partOf(row, countDue);
+      parts[place] = isDeepStrictEqual(read, part) ? part : read;
+    } else {
+      parts[place] = onHand === part.onHand && countDue === part.countDue ? part : { ...part, onHand, countDue };
+    }
   }
-  const stock =
-    countedAt === mark.countedAt && lastMovement === mark.lastMovement ? mark : { ...mark, lastMovement, countedAt };
-  return { parts, details: before.details, stock };
+  const changed =
+    countedAt !== mark.countedAt || lastMovement !== mark.lastMovement || lastRevision !== mark.lastRevision;
+  return { parts, details, mark: changed ? { ...mark, lastRevision, lastMovement, countedAt } : mark };
 }
 
 const readFirmReceipts = (manager: EntityManager): Promise<ScheduledReceipt[]> => manager.query(FIRM_LINES_SQL);
