@@ -5,9 +5,10 @@ import type { PlanningBomLine, ScheduledReceipt, SequenceSlot } from '../../shar
 import type { Calendar } from '../../shared/schemas/master-data';
 import type { KanbanLoop } from '../../shared/schemas/loops';
 import { readCalendar } from '../calendar/calendar.service';
-import { EXPECTED_ARRIVAL, readBomLines, readUnitsToBuild } from '../planning/plan-inputs';
+import { EXPECTED_ARRIVAL, readUnitsToBuild } from '../planning/plan-inputs';
 import type { PlanningPiece } from '../settings/versions';
 import { runSql } from '../db/sql';
+import { readBom, readBomAgain, type BomMark } from './bom-read';
 import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.service';
 
 /**
@@ -33,12 +34,13 @@ export interface LineRiskInputs {
   calendar: Calendar;
   details: Map<string, PartDetails>;
   mark: PartsMark;
+  bomMark: BomMark;
 }
 
 /**
  * How far the parts were read, so a read after a change needs only the parts it touched:
  * - the last part revision: every change to a part's planned columns gives it a new, higher
- *   revision (database triggers keep them; see the part-revisions migration);
+ *   revision (database triggers keep them; see the planning-revisions migration);
  * - the last stock movement, and when each part was last counted (in the order of `parts`): every
  *   change of on-hand or of a count is a movement (the stock ledger posts them);
  * - the supplier names, which join into the details.
@@ -109,7 +111,8 @@ export interface LineRiskReuse {
  * one snapshot. With `reuse`, a standing piece is `before`'s (the same object, so what compares
  * the inputs finds it unchanged at once) and only the others are read. The parts are read again
  * from `before`'s: only those revised or with a stock movement since (see PartsMark), keeping
- * every part whose figures stand; firm receipts and loops are read every time. Equal to a read
+ * every part whose figures stand; so is a BOM that changed, only its lines revised since (see
+ * BomMark); firm receipts and loops are read every time. Equal to a read
  * without `reuse` as long as the standing pieces did stand.
  */
 export async function loadLineRiskInputs(
@@ -119,17 +122,22 @@ export async function loadLineRiskInputs(
   reuse?: LineRiskReuse,
 ): Promise<LineRiskInputs> {
   /** `before`'s piece when it stood; undefined when it is to be read. */
-  const kept = <P extends 'bom' | 'sequence' | 'calendar'>(piece: P): LineRiskInputs[P] | undefined =>
+  const kept = <P extends 'sequence' | 'calendar'>(piece: P): LineRiskInputs[P] | undefined =>
     reuse?.standing.has(piece) ? reuse.before[piece] : undefined;
   // The clock and the count interval are read every time: whether a part is due a count moves with them.
   const isCountDue = await countDueTest(manager, now);
   const { parts, details, mark } =
     (reuse ? await readChangedParts(manager, reuse, isCountDue) : null) ?? (await readParts(manager, isCountDue));
-  const bom = kept('bom') ?? (await readBomLines(manager));
+  const before = reuse && { bom: reuse.before.bom, mark: reuse.before.bomMark };
+  const { bom, mark: bomMark } = !before
+    ? await readBom(manager)
+    : reuse.standing.has('bom')
+      ? before
+      : await readBomAgain(manager, before);
   const sequence = kept('sequence') ?? (await readUnitsToBuild(manager));
   const firmReceipts = await readFirmReceipts(manager);
   const calendar = kept('calendar') ?? (await readCalendar(manager));
-  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details, mark };
+  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details, mark, bomMark };
 }
 
 /** Whether a part is due a count, at the time and interval read (see countDueTest). */

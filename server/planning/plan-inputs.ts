@@ -34,8 +34,9 @@ const PARTS_SQL = `SELECT part_number AS "partNumber", description, uom, source,
   FROM part ORDER BY part_number`;
 // In the order the lines were written, on both engines (PostgreSQL moves an updated row): a parent's
 // lines are exploded in that order, and the line risk compares a BOM with the last one line by line.
-const BOM_SQL = `SELECT parent, component, qty_per AS "qtyPer", scrap_pct AS "scrapPct", effective_from AS "effectiveFrom",
-  effective_to AS "effectiveTo" FROM bom_line ORDER BY id`;
+export const BOM_COLUMNS = `parent, component, qty_per AS "qtyPer", scrap_pct AS "scrapPct", effective_from AS "effectiveFrom",
+  effective_to AS "effectiveTo"`;
+const BOM_SQL = `SELECT ${BOM_COLUMNS} FROM bom_line ORDER BY id`;
 // Built units consumed their parts already (the backflush); only the rest is demand.
 const SEQUENCE_SQL = `SELECT date, sequence, model, serial, qty FROM sequence_entry WHERE status <> 'built'
   ORDER BY date, sequence`;

@@ -8,6 +8,7 @@ import { KanbanCardEntity } from '../../server/loops/kanban-card.entity';
 import { KanbanLoopEntity } from '../../server/loops/kanban-loop.entity';
 import { replaceBomLines } from '../../server/master-data/master-data.writer';
 import { HolidayEntity } from '../../server/calendar/holiday.entity';
+import { BomLineEntity } from '../../server/master-data/bom-line.entity';
 import { PartEntity } from '../../server/master-data/part.entity';
 import { SupplierEntity } from '../../server/master-data/supplier.entity';
 import { plantToday } from '../../server/planning/plan-dates';
@@ -216,8 +217,12 @@ describe('line-risk inputs read again with every planning piece standing, after 
         reused: await loadLineRiskInputs(manager, loops, now, { before, standing }),
       };
     });
-  /** Every piece but the part master, as the counters hand them over after a part or supplier change. */
-  const allButParts: ReadonlySet<PlanningPiece> = new Set(PLANNING_PIECES.filter((piece) => piece !== 'parts'));
+  /** Every piece but one, as the counters hand them over after a change to that one. */
+  const allBut = (moved: PlanningPiece): ReadonlySet<PlanningPiece> =>
+    new Set(PLANNING_PIECES.filter((piece) => piece !== moved));
+  const allButParts = allBut('parts');
+  const lineOf = (inputs: LineRiskInputs, component: string) =>
+    inputs.bom.find((line) => line.parent === 'M' && line.component === component);
   const byPart = (inputs: LineRiskInputs, partNumber: string) =>
     inputs.parts.find((part) => part.partNumber === partNumber)!;
 
@@ -399,6 +404,46 @@ describe('line-risk inputs read again with every planning piece standing, after 
     expect(full.parts.map((part) => part.partNumber)).not.toContain('GONE');
     expect(reused).toStrictEqual(full);
     await context.dataSource.getRepository(PartEntity).delete({ partNumber: 'CAME' });
+  });
+
+  it('reads again only the BOM lines revised since, keeping the others as they were', async () => {
+    const before = await readFull();
+    await context.db.write(async (manager) => {
+      await manager.update(BomLineEntity, { parent: 'M', component: 'D' }, { qtyPer: 3 });
+      await bumpPlanningVersion(manager, 'bom');
+    });
+
+    const { full, reused } = await readBoth(before, undefined, allBut('bom'));
+
+    expect(lineOf(full, 'D')).toMatchObject({ qtyPer: 3 });
+    expect(reused).toStrictEqual(full);
+    expect(reused.bomMark.lastRevision).toBeGreaterThan(before.bomMark.lastRevision);
+    expect(lineOf(reused, 'C')).toBe(lineOf(before, 'C'));
+    expect(lineOf(reused, 'K')).toBe(lineOf(before, 'K'));
+  });
+
+  it("reads the BOM again after a parent's lines are replaced, and after a line goes", async () => {
+    const before = await readFull();
+    await context.db.write((manager) =>
+      replaceBomLines(manager, [
+        bomLine('M', 'C', 2),
+        bomLine('M', 'D', 1),
+        bomLine('M', 'K', 1),
+        bomLine('M', 'OLD', 1),
+      ]),
+    );
+    const replaced = await readBoth(before, undefined, allBut('bom'));
+    await context.db.write(async (manager) => {
+      await manager.delete(BomLineEntity, { parent: 'M', component: 'OLD' });
+      await bumpPlanningVersion(manager, 'bom');
+    });
+    const removed = await readBoth(replaced.reused, undefined, allBut('bom'));
+
+    expect(replaced.full.bom).toHaveLength(before.bom.length + 1);
+    expect(replaced.reused).toStrictEqual(replaced.full);
+    expect(removed.full.bom).toHaveLength(before.bom.length);
+    expect(removed.reused).toStrictEqual(removed.full);
+    expect(removed.reused.bomMark.ids).not.toEqual(before.bomMark.ids);
   });
 
   it('reads the parts in full when the part list is no longer the one it read, though no counter moved', async () => {

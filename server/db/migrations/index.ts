@@ -11,7 +11,7 @@ import { ShipNotices1765150000000 } from './1765150000000-ship-notices';
 import { DockShipments1765200000000 } from './1765200000000-dock-shipments';
 import { OverReceipts1765210000000 } from './1765210000000-over-receipts';
 import { PlanningPieces1765260000000 } from './1765260000000-planning-pieces';
-import { PartRevisions1765300000000 } from './1765300000000-part-revisions';
+import { PlanningRevisions1765300000000 } from './1765300000000-planning-revisions';
 
 /** Every migration in order; listed by hand so the bundled and tsx runs see the same set. */
 export const migrations = [
@@ -28,5 +28,5 @@ export const migrations = [
   DockShipments1765200000000,
   OverReceipts1765210000000,
   PlanningPieces1765260000000,
-  PartRevisions1765300000000,
+  PlanningRevisions1765300000000,
 ];
