@@ -344,6 +344,25 @@ describe('computeLineRisk against the plain walk', () => {
     expect(walker.walk(madeQty).result()).toEqual(referenceLineRisk(madeQty));
     expect(walker.lastKind).toBe('judged');
   });
+  it('judges every unit again when a BOM change moves made stock another model takes', () => {
+    // M0 and M1 each take one F0 (made, two in stock, made from B0 of which there is none). At two
+    // F0 a unit, SN1 (M0) takes both and SN2 (M1) lacks B0 for the F0 it must now make.
+    const made: LineRiskPart = { ...bought('F0', { onHand: 2 }), source: 'make' };
+    const before = smallPlant(
+      [model('M0'), model('M1'), made, bought('B0')],
+      [bomLine('M0', 'F0'), bomLine('M1', 'F0'), bomLine('F0', 'B0')],
+      [unit('2026-03-03', 1, 'M0', 'SN1'), unit('2026-03-04', 2, 'M1', 'SN2')],
+    );
+    const after = { ...before, bom: [bomLine('M0', 'F0', 2), before.bom[1]!, before.bom[2]!] };
+    const walker = new LineRiskWalker();
+
+    expect(walker.walk(before).unitsAtRiskCount).toBe(0);
+    const run = walker.walk(after);
+
+    expect(run.result()).toEqual(referenceLineRisk(after));
+    expect(run.unitsAtRisk(0, 5).map((unit) => unit.serial)).toEqual(['SN2']);
+    expect(walker.lastKind).toBe('judged');
+  });
   it('takes units built at the head of the sequence out, and judges the others again after a unit at risk was built', () => {
     // Three units of M0, one B0 each; two B0 on hand. The third lacks B0.
     const before = smallPlant(
