@@ -67,12 +67,15 @@ export function serialiseReport(report: LineRiskReport): ReportBytes {
   // The same text JSON.stringify(report) gives: shortages is the report's last key.
   const prefix = `${headJson.slice(0, -1)}${headJson === '{}' ? '' : ','}"shortages":`;
   const json = new TextEncoder().encode(`${prefix}${JSON.stringify(shortages)}}`);
+  // The fastest level: made after every change, it is on the way of the answer. The body comes out
+  // about half as large again as at the default level (0.8 against 0.55 MB at 16×).
+  const gzip = ownBytes(gzipSync(json, { level: 1 }));
   return {
     json,
-    // The fastest level: made after every change, it is on the way of the answer. The body comes out
-    // about half as large again as at the default level (0.8 against 0.55 MB at 16×).
-    gzip: ownBytes(gzipSync(json, { level: 1 })),
-    etag: etagOf(json),
+    gzip,
+    // The same JSON always compresses to the same bytes, and other JSON to other bytes: the tag of
+    // the compressed body tags the JSON too, for a ninth of the hashing (7 MB of JSON at 16×).
+    etag: etagOf(gzip),
     shortagesAt: Buffer.byteLength(prefix),
   };
 }
