@@ -7,7 +7,7 @@ import {
   type NeedGroups,
 } from './line-risk-explosion';
 import { LackRecordWriter, LineRiskRun, type LackRecords, type ShortPartFigures } from './line-risk-run';
-import { intColumn } from './typed-column';
+import { floatColumn, intColumn } from './typed-column';
 import { BOUGHT, buildPlanModel, END_ITEM, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
@@ -399,6 +399,33 @@ interface Walked {
   /** The records of the unit at position u are unitStart[u] … unitStart[u + 1] - 1. */
   unitStart: Int32Array;
   risks: Risks;
+  /** The queue view's findings, for a later walk to keep those of the parts that stood; null when unknown. */
+  queueLacks: QueueLacks | null;
+}
+
+/**
+ * What each unit lacks of each part only behind the units ahead of it (the queue view): the
+ * entries of the unit at position u are start[u] … start[u + 1] - 1. The queue view of a part
+ * depends only on that part's supply and on the needs of it of the units in order: as long as those
+ * stand, so do its entries. `stale` marks the parts whose entries a later walk changed (a walk of
+ * those parts alone again), so they are no longer to be kept.
+ */
+interface QueueLacks {
+  start: Int32Array;
+  part: Int32Array;
+  qty: Float64Array;
+  stale: Uint8Array | null;
+}
+
+/** What judgeUnits may keep of the last walk's queue view (see QueueLacks). */
+interface QueueReuse {
+  last: QueueLacks;
+  /** The supply per part and day the entries were found against. */
+  supply: Float64Array;
+  /** Per unit: its position in the last walk, or -1. */
+  lastPosition: Int32Array;
+  /** Parts whose needs may have changed (1): their entries are found again. */
+  touched: Uint8Array;
 }
 
 /** A countable part (pieces, sets, pairs) is never short by a fraction. */
@@ -540,6 +567,7 @@ function judgeUnits(
   input: LineRiskInput,
   needs: UnitNeeds,
   { cumulativeSupply, firmReceiptQty, receiptsByDay }: ReturnType<typeof firmSupply>,
+  reuse: QueueReuse | null = null,
 ): { run: LineRiskRun; walked: Walked } {
   const { model, ordered, rowBase, exploder, probed: explosions, requiredByDay } = needs;
   const days = model.days.length;
@@ -565,8 +593,17 @@ function judgeUnits(
   // These explosions are the walk's own: made apart from the needs, which the next walks may keep.
   const build = new StockLedger(days, cumulativeSupply, rowBase);
   const againstBuild = new ExplosionCache(new Exploder(model), build, true);
-  const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply);
+  // With the last walk's queue view at hand, only the parts whose needs or supply may have changed
+  // (or whose entries a walk since changed) are walked in the queue view again.
+  const fresh = reuse ? freshParts(reuse, rowBase, days, cumulativeSupply) : null;
+  const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply, fresh ?? undefined);
   const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
+  const lacksStart = new Int32Array(ordered.length + 1);
+  const lacksPart = intColumn(1024);
+  const lacksQty = floatColumn(1024);
+  /** The last walk's entries of the unit at hand, by part (stamped with the position + 1). */
+  const keptStamp = new Int32Array(parts.length);
+  const keptQty = new Float64Array(parts.length);
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
   const records = new LackRecordWriter(1024);
   const atRiskUnit = intColumn();
@@ -590,16 +627,35 @@ function judgeUnits(
    * Queue view: each part serves this unit if it can, whatever the unit's other parts do; parts
    * that can are committed. Returns how many parts cannot (in behindGroup / behindQty).
    */
-  function queueLacks(explosion: Explosion): number {
+  function queueLacks(explosion: Explosion, position: number): number {
     const groups = exploder.needGroups(explosion, rowBase);
+    lacksStart[position] = lacksPart.length;
+    const last = reuse ? reuse.lastPosition[position] : -1;
+    if (last >= 0) {
+      const kept = reuse!.last;
+      for (let entry = kept.start[last]; entry < kept.start[last + 1]; entry += 1) {
+        keptStamp[kept.part[entry]] = position + 1;
+        keptQty[kept.part[entry]] = kept.qty[entry];
+      }
+    }
     let count = 0;
     for (let group = 0; group < groups.count; group += 1) {
-      if (queued[groups.part[group]] === 0) continue;
-      const lack = queueLack(queue, groups, group, explosion);
-      if (lack === 0) continue;
+      const part = groups.part[group];
+      let qty: number;
+      if (fresh === null || fresh[part] === 1) {
+        if (queued[part] === 0) continue;
+        const lack = queueLack(queue, groups, group, explosion);
+        if (lack === 0) continue;
+        qty = roundQty(lack);
+      } else {
+        if (keptStamp[part] !== position + 1) continue;
+        qty = keptQty[part];
+      }
       behindGroup[count] = group;
-      behindQty[count] = roundQty(lack);
-      behindIndex[groups.part[group]] = count;
+      behindQty[count] = qty;
+      behindIndex[part] = count;
+      lacksPart.push(part);
+      lacksQty.push(qty);
       count += 1;
     }
     return count;
@@ -624,7 +680,7 @@ function judgeUnits(
     const mine = explosions[position];
     // The queue view runs for every unit: a part can stop a unit that is buildable now only
     // because a unit ahead of it, short of something else, is not taking its share.
-    const behindCount = queueLacks(mine);
+    const behindCount = queueLacks(mine, position);
     const groups = mine.groups!;
     /** The unit's first need of a part short behind others gives its via and day. */
     const firstNeedOf = (index: number) => groups.needs[groups.start[behindGroup[index]]];
@@ -680,6 +736,7 @@ function judgeUnits(
     }
   });
   unitStart[ordered.length] = records.count;
+  lacksStart[ordered.length] = lacksPart.length;
 
   const walked: Walked = {
     input,
@@ -701,9 +758,34 @@ function judgeUnits(
     records: records.done(),
     unitStart,
     risks,
+    queueLacks: { start: lacksStart, part: lacksPart.done(), qty: lacksQty.done(), stale: null },
   };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   return { run, walked };
+}
+
+/**
+ * The parts whose queue view is walked again (1): those whose needs may have changed, whose
+ * entries a walk since changed, or whose supply differs from that of the last queue view.
+ */
+function freshParts(reuse: QueueReuse, rowBase: Int32Array, days: number, supply: Float64Array): Uint8Array {
+  const fresh = reuse.touched.slice();
+  const { stale } = reuse.last;
+  for (let part = 0; part < rowBase.length; part += 1) {
+    if (fresh[part] === 1) continue;
+    if (stale?.[part] === 1) {
+      fresh[part] = 1;
+      continue;
+    }
+    const base = rowBase[part];
+    for (let t = 0; t < days; t += 1) {
+      if (supply[base + t] !== reuse.supply[base + t]) {
+        fresh[part] = 1;
+        break;
+      }
+    }
+  }
+  return fresh;
 }
 
 /**
@@ -773,11 +855,21 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
   if (changed > 0) {
     const replayed = replayParts(walked, inChanged, bom?.explodeAgain ?? null);
     if (!replayed) return null;
-    walked = { ...walked, ...replayed };
+    walked = { ...walked, ...replayed, queueLacks: withStale(walked.queueLacks, inChanged) };
   }
+  // Units built are gone from the head of the order: the queue view's entries no longer line up.
+  if (base !== last) walked = { ...walked, queueLacks: null };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   const kind = base !== last ? 'built' : bom ? 'bom' : changed > 0 ? 'parts' : 'kept';
   return { run, walked, kind };
+}
+
+/** The queue view's entries with the parts marked in `changed` no longer to be kept. */
+function withStale(lacks: QueueLacks | null, changed: Uint8Array): QueueLacks | null {
+  if (!lacks) return null;
+  const stale = lacks.stale ? lacks.stale.slice() : new Uint8Array(changed.length);
+  for (let part = 0; part < changed.length; part += 1) if (changed[part] === 1) stale[part] = 1;
+  return { ...lacks, stale };
 }
 
 /**
@@ -960,7 +1052,13 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
     }
   }
   const needs: UnitNeeds = { model, ordered, rowBase, exploder, probed, requiredByDay };
-  return { ...judgeUnits(input, needs, supply), kind: 'judged' };
+  const reuse: QueueReuse | null = last.queueLacks && {
+    last: last.queueLacks,
+    supply: last.supply,
+    lastPosition: Int32Array.from(ordered, (entry) => lastAt.get(entry.slot.serial) ?? -1),
+    touched,
+  };
+  return { ...judgeUnits(input, needs, supply, reuse), kind: 'judged' };
 }
 
 /** Two units exploded alike: the same model and quantity, on the same day. */
