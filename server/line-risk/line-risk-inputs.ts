@@ -5,10 +5,10 @@ import type { PlanningBomLine, ScheduledReceipt, SequenceSlot } from '../../shar
 import type { Calendar } from '../../shared/schemas/master-data';
 import type { KanbanLoop } from '../../shared/schemas/loops';
 import { readCalendar } from '../calendar/calendar.service';
-import { EXPECTED_ARRIVAL, readUnitsToBuild } from '../planning/plan-inputs';
+import { BOM_LIST, EXPECTED_ARRIVAL, UNITS_TO_BUILD_LIST } from '../planning/plan-inputs';
 import type { PlanningPiece } from '../settings/versions';
 import { runSql } from '../db/sql';
-import { readBom, readBomAgain, type BomMark } from './bom-read';
+import { readRows, readRowsAgain, type RevisedList, type RowsMark } from '../db/revised-rows';
 import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.service';
 
 /**
@@ -34,7 +34,9 @@ export interface LineRiskInputs {
   calendar: Calendar;
   details: Map<string, PartDetails>;
   mark: PartsMark;
-  bomMark: BomMark;
+  /** How far the BOM and the units to build were read (see RowsMark). */
+  bomMark: RowsMark;
+  sequenceMark: RowsMark;
 }
 
 /**
@@ -93,9 +95,10 @@ const MARK_SQL = `SELECT (SELECT COUNT(*) FROM part) AS "partCount",
   (SELECT COALESCE(MAX(p.revision), 0) FROM part p) AS "lastRevision",
   (SELECT COALESCE(MAX(m.id), 0) FROM stock_movement m) AS "lastMovement"`;
 
-// The part columns a change of stock moves, for the parts with a movement after a given one.
+// The part columns a change of stock moves, for the parts with a movement after a given one (but
+// for those revised after a given revision: read in full).
 const MOVED_SQL = `SELECT p.part_number AS "partNumber", p.on_hand AS "onHand", ${COUNTED_AT_SQL} AS "countedAt"
-  FROM part p WHERE p.part_number IN (SELECT m.part_number FROM stock_movement m WHERE m.id > ?)`;
+  FROM part p WHERE p.part_number IN (SELECT m.part_number FROM stock_movement m WHERE m.id > ?) AND p.revision <= ?`;
 
 const SUPPLIERS_SQL = `SELECT code, name FROM supplier`;
 
@@ -111,8 +114,8 @@ export interface LineRiskReuse {
  * one snapshot. With `reuse`, a standing piece is `before`'s (the same object, so what compares
  * the inputs finds it unchanged at once) and only the others are read. The parts are read again
  * from `before`'s: only those revised or with a stock movement since (see PartsMark), keeping
- * every part whose figures stand; so is a BOM that changed, only its lines revised since (see
- * BomMark); firm receipts and loops are read every time. Equal to a read
+ * every part whose figures stand; so are a BOM and units to build that changed, only their rows
+ * revised since (see RowsMark); firm receipts and loops are read every time. Equal to a read
  * without `reuse` as long as the standing pieces did stand.
  */
 export async function loadLineRiskInputs(
@@ -122,22 +125,40 @@ export async function loadLineRiskInputs(
   reuse?: LineRiskReuse,
 ): Promise<LineRiskInputs> {
   /** `before`'s piece when it stood; undefined when it is to be read. */
-  const kept = <P extends 'sequence' | 'calendar'>(piece: P): LineRiskInputs[P] | undefined =>
+  const kept = <P extends 'calendar'>(piece: P): LineRiskInputs[P] | undefined =>
     reuse?.standing.has(piece) ? reuse.before[piece] : undefined;
+  /** A list piece: `before`'s when it stood, read again where it changed, or read in full. */
+  const listOf = <T>(piece: 'bom' | 'sequence', list: RevisedList<T>, before?: { rows: T[]; mark: RowsMark }) =>
+    !before ? readRows(manager, list) : reuse!.standing.has(piece) ? before : readRowsAgain(manager, list, before);
   // The clock and the count interval are read every time: whether a part is due a count moves with them.
   const isCountDue = await countDueTest(manager, now);
   const { parts, details, mark } =
     (reuse ? await readChangedParts(manager, reuse, isCountDue) : null) ?? (await readParts(manager, isCountDue));
-  const before = reuse && { bom: reuse.before.bom, mark: reuse.before.bomMark };
-  const { bom, mark: bomMark } = !before
-    ? await readBom(manager)
-    : reuse.standing.has('bom')
-      ? before
-      : await readBomAgain(manager, before);
-  const sequence = kept('sequence') ?? (await readUnitsToBuild(manager));
+  const before = reuse?.before;
+  const { rows: bom, mark: bomMark } = await listOf(
+    'bom',
+    BOM_LIST,
+    before && { rows: before.bom, mark: before.bomMark },
+  );
+  const { rows: sequence, mark: sequenceMark } = await listOf(
+    'sequence',
+    UNITS_TO_BUILD_LIST,
+    before && { rows: before.sequence, mark: before.sequenceMark },
+  );
   const firmReceipts = await readFirmReceipts(manager);
   const calendar = kept('calendar') ?? (await readCalendar(manager));
-  return { parts, bom, sequence, firmReceipts, loops: loopSupplies(loops), calendar, details, mark, bomMark };
+  return {
+    parts,
+    bom,
+    sequence,
+    firmReceipts,
+    loops: loopSupplies(loops),
+    calendar,
+    details,
+    mark,
+    bomMark,
+    sequenceMark,
+  };
 }
 
 /** Whether a part is due a count, at the time and interval read (see countDueTest). */
@@ -228,7 +249,7 @@ async function readChangedParts(
   const revised: PartRow[] =
     lastRevision === mark.lastRevision ? [] : await runSql(manager, REVISED_SQL, [mark.lastRevision]);
   const moved: (Pick<PartRow, 'partNumber' | 'onHand'> & Pick<CountedPart, 'countedAt'>)[] =
-    lastMovement === mark.lastMovement ? [] : await runSql(manager, MOVED_SQL, [mark.lastMovement]);
+    lastMovement === mark.lastMovement ? [] : await runSql(manager, MOVED_SQL, [mark.lastMovement, mark.lastRevision]);
 
   const countedAt = moved.length + revised.length > 0 ? mark.countedAt.slice() : mark.countedAt;
   const onHandOf = new Map<number, number>();

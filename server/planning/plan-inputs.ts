@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import type { PlanningBomLine, PlanningPart, ScheduledReceipt, SequenceSlot } from '../../shared/domain/types';
 import type { Calendar } from '../../shared/schemas/master-data';
 import { readCalendar } from '../calendar/calendar.service';
+import type { RevisedList } from '../db/revised-rows';
 
 /** Release states whose open lines count as scheduled receipts. */
 export const OPEN_RELEASE_STATES = ['sent', 'confirmed', 'exception', 'shipped', 'partial'];
@@ -32,14 +33,34 @@ interface PartRow {
 const PARTS_SQL = `SELECT part_number AS "partNumber", description, uom, source, supplier_code AS "supplierCode",
   replenishment, lead_time_days AS "leadTimeDays", pack_qty AS "packQty", on_hand AS "onHand", safety_stock AS "safetyStock"
   FROM part ORDER BY part_number`;
-// In the order the lines were written, on both engines (PostgreSQL moves an updated row): a parent's
-// lines are exploded in that order, and the line risk compares a BOM with the last one line by line.
-export const BOM_COLUMNS = `parent, component, qty_per AS "qtyPer", scrap_pct AS "scrapPct", effective_from AS "effectiveFrom",
-  effective_to AS "effectiveTo"`;
-const BOM_SQL = `SELECT ${BOM_COLUMNS} FROM bom_line ORDER BY id`;
-// Built units consumed their parts already (the backflush); only the rest is demand.
-const SEQUENCE_SQL = `SELECT date, sequence, model, serial, qty FROM sequence_entry WHERE status <> 'built'
-  ORDER BY date, sequence`;
+/**
+ * The BOM lines, as a list a reader can read again where it changed (see readRowsAgain). In the
+ * order the lines were written, on both engines (PostgreSQL moves an updated row): a parent's lines
+ * are exploded in that order, and the line risk compares a BOM with the last one line by line.
+ */
+export const BOM_LIST: RevisedList<PlanningBomLine> = {
+  table: 'bom_line',
+  columns: `parent, component, qty_per AS "qtyPer", scrap_pct AS "scrapPct", effective_from AS "effectiveFrom",
+    effective_to AS "effectiveTo"`,
+  where: '1 = 1',
+  orderBy: 'id',
+  compare: (_a, aId, _b, bId) => aId - bId,
+};
+const BOM_SQL = `SELECT ${BOM_LIST.columns} FROM bom_line ORDER BY ${BOM_LIST.orderBy}`;
+/**
+ * The units to build, in build order (the id orders units that share a place, as a board being
+ * moved may leave them for a moment). Built units consumed their parts already (the backflush);
+ * only the rest is demand.
+ */
+export const UNITS_TO_BUILD_LIST: RevisedList<SequenceSlot> = {
+  table: 'sequence_entry',
+  columns: 'date, sequence, model, serial, qty',
+  where: `status <> 'built'`,
+  orderBy: 'date, sequence, id',
+  compare: (a, aId, b, bId) => (a.date < b.date ? -1 : a.date > b.date ? 1 : a.sequence - b.sequence || aId - bId),
+};
+const SEQUENCE_SQL = `SELECT ${UNITS_TO_BUILD_LIST.columns} FROM sequence_entry WHERE ${UNITS_TO_BUILD_LIST.where}
+  ORDER BY ${UNITS_TO_BUILD_LIST.orderBy}`;
 // Once the buyer has a confirmed answer, the supplier's quantity is what will come.
 const EXPECTED_QTY = `CASE WHEN r.status IN ('confirmed', 'shipped', 'partial') AND l.confirmed_qty IS NOT NULL
   THEN l.confirmed_qty ELSE l.qty END`;

@@ -1,4 +1,5 @@
 import request from 'supertest';
+import type { EntityManager } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it, vi, type MockInstance } from 'vitest';
 import { writeCalendar } from '../../server/calendar/calendar.service';
 import { loadLineRiskInputs, type LineRiskInputs } from '../../server/line-risk/line-risk-inputs';
@@ -444,6 +445,49 @@ describe('line-risk inputs read again with every planning piece standing, after 
     expect(removed.full.bom).toHaveLength(before.bom.length);
     expect(removed.reused).toStrictEqual(removed.full);
     expect(removed.reused.bomMark.ids).not.toEqual(before.bomMark.ids);
+  });
+
+  it('reads again only the units revised since: moved, built, added or gone', async () => {
+    const serialsOf = (inputs: LineRiskInputs) => inputs.sequence.map((slot) => slot.serial);
+    const unitOf = (inputs: LineRiskInputs, serial: string) => inputs.sequence.find((slot) => slot.serial === serial);
+    const change = async (write: (manager: EntityManager) => Promise<unknown>) => {
+      const before = await readFull();
+      await context.db.write(async (manager) => {
+        await write(manager);
+        await bumpPlanningVersion(manager, 'sequence');
+      });
+      const read = await readBoth(before, undefined, allBut('sequence'));
+      expect(read.reused).toStrictEqual(read.full);
+      return { before, ...read };
+    };
+
+    // S3 moves ahead of S1 and S2, to the first place of day 1.
+    const moved = await change((manager) =>
+      manager.update(SequenceEntryEntity, { serial: 'S3' }, { date: day1, sequence: 0 }),
+    );
+    // S1 is built: it leaves the units to build.
+    const built = await change((manager) => manager.update(SequenceEntryEntity, { serial: 'S1' }, { status: 'built' }));
+    const added = await change((manager) =>
+      manager.insert(SequenceEntryEntity, { date: day2, sequence: 5, model: 'M', serial: 'S9', qty: 1 }),
+    );
+    // Not the last revised: the deletion shows only in the count.
+    const gone = await change((manager) => manager.delete(SequenceEntryEntity, { serial: 'S2' }));
+
+    expect(serialsOf(moved.full)).toEqual(['S3', 'S1', 'S2']);
+    expect(unitOf(moved.reused, 'S1')).toBe(unitOf(moved.before, 'S1'));
+    expect(serialsOf(built.full)).toEqual(['S3', 'S2']);
+    expect(unitOf(built.reused, 'S2')).toBe(unitOf(built.before, 'S2'));
+    expect(serialsOf(added.full)).toEqual(['S3', 'S2', 'S9']);
+    expect(serialsOf(gone.full)).toEqual(['S3', 'S9']);
+    expect(gone.reused.sequenceMark.lastRevision).toBe(gone.before.sequenceMark.lastRevision);
+    expect(unitOf(gone.reused, 'S9')).toBe(unitOf(gone.before, 'S9'));
+    await context.db.write(async (manager) => {
+      await manager.delete(SequenceEntryEntity, { serial: 'S9' });
+      await manager.insert(SequenceEntryEntity, { date: day1, sequence: 2, model: 'M', serial: 'S2', qty: 1 });
+      await manager.update(SequenceEntryEntity, { serial: 'S1' }, { status: 'planned' });
+      await manager.update(SequenceEntryEntity, { serial: 'S3' }, { date: day2, sequence: 1 });
+      await bumpPlanningVersion(manager, 'sequence');
+    });
   });
 
   it('reads the parts in full when the part list is no longer the one it read, though no counter moved', async () => {

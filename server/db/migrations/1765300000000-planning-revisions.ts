@@ -1,9 +1,10 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
 /**
- * Every part and BOM line carries the revision of its last change to what planning reads of it,
- * so a reader that holds the part master or the BOM as of one revision reads again only the rows
- * changed since (the line risk, after a part or BOM edit on a large plant). Triggers keep it, so no
+ * Every part, BOM line and unit of the sequence carries the revision of its last change to what
+ * planning reads of it, so a reader that holds the part master, the BOM or the units to build as of
+ * one revision reads again only the rows changed since (the line risk, after an edit on a large
+ * plant). Triggers keep it, so no
  * writer can forget to. Revisions only grow, also past a deleted row's: on SQLite they come from a
  * counter row, on PostgreSQL from a sequence.
  */
@@ -77,4 +78,5 @@ const PLANNED_COLUMNS: Record<string, string[]> = {
     'hazardous',
   ],
   bom_line: ['parent', 'component', 'qty_per', 'scrap_pct', 'effective_from', 'effective_to'],
+  sequence_entry: ['date', 'sequence', 'model', 'serial', 'qty', 'status'],
 };
