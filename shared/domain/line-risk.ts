@@ -524,9 +524,20 @@ function mayRunShort(
   return marked;
 }
 
+/** Each input's plan model without units or receipts: a walk that tries one way, then another, builds it once. */
+const structures = new WeakMap<LineRiskInput, PlanModel>();
+function structureOf(input: LineRiskInput): PlanModel {
+  let model = structures.get(input);
+  if (!model) {
+    model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+    structures.set(input, model);
+  }
+  return model;
+}
+
 /** Every unit walked. */
 function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
-  const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+  const model = structureOf(input);
   const { dayNumbers } = model;
   const days = model.days.length;
   if (days > 0 && dayNumbers[days - 1] - dayNumbers[0] + 1 > MAX_LINE_RISK_CALENDAR_DAYS) {
@@ -1002,7 +1013,7 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
   let explodeAgain: Uint8Array | null = null;
   if (input.bom === before.bom && !partsEdited) model = withStock(last.model, parts);
   else {
-    model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+    model = structureOf(input);
     exploder = new Exploder(model);
     const changedParents = input.bom === before.bom ? [] : bomDifference(last.model, model).changedParents;
     explodeAgain = reaching([...changedParents, ...leadTimeMoved], model);
@@ -1104,7 +1115,7 @@ interface BomChange {
  * ordering, not building).
  */
 function bomChangeOf(last: Walked, input: LineRiskInput): BomChange | null | undefined {
-  const model = buildPlanModel({ ...input, sequence: [], scheduledReceipts: [] });
+  const model = structureOf(input);
   const { changedParents, components } = bomDifference(last.model, model);
   if (components.some((component) => model.source[component] !== BOUGHT)) return undefined;
   if (changedParents.length === 0) return null;
