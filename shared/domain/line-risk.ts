@@ -284,6 +284,8 @@ export const WALKS_BEFORE_FULL = 100;
  * an earlier unit as long as it still holds (every free quantity it read within its bounds).
  */
 class ExplosionCache {
+  /** By model and day for a quantity of one (nearly every unit), found without making a key of text. */
+  private readonly keptOne = new Map<number, Explosion>();
   private readonly kept = new Map<string, Explosion>();
 
   constructor(
@@ -293,11 +295,13 @@ class ExplosionCache {
   ) {}
 
   get(model: number, qty: number, bucket: number): Explosion {
-    const key = `${model}:${qty}:${bucket}`;
-    let explosion = this.kept.get(key);
+    const one = qty === 1;
+    const key = one ? model * this.ledger.days + bucket : `${model}:${qty}:${bucket}`;
+    let explosion = one ? this.keptOne.get(key as number) : this.kept.get(key as string);
     if (explosion === undefined || !stillHolds(explosion, this.ledger)) {
       explosion = this.exploder.explode(this.ledger, model, qty, bucket, this.withLacks);
-      this.kept.set(key, explosion);
+      if (one) this.keptOne.set(key as number, explosion);
+      else this.kept.set(key as string, explosion);
     }
     return explosion;
   }
