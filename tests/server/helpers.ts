@@ -120,34 +120,51 @@ export const testPart = (partNumber: string, overrides: Partial<Part> = {}): Par
 export interface TestReleaseLine {
   partNumber: string;
   qty: number;
+  /** The release's day when not given. */
+  needDate?: string;
   confirmedQty?: number | null;
   cardId?: number | null;
+  /** What the buyer asked for, when the test is about a change to it. */
+  requestedQty?: number;
+  requestedDate?: string;
 }
 
 /**
- * A release of SUP-A as the release job and the supplier would leave it (sent at 06:00 on its day,
- * each line needed that day, nothing received), written straight to the tables.
+ * A release as the release job and the supplier would leave it (of SUP-A unless told, sent at
+ * 06:00 on its day, each line needed that day unless told, nothing received), written straight to
+ * the tables.
  */
 export async function writeTestRelease(
   context: TestContext,
-  release: { number: string; releaseDate: string; status: string },
+  release: {
+    number: string;
+    releaseDate: string;
+    status: string;
+    supplierCode?: string;
+    reference?: string;
+    dockColumn?: string;
+  },
   lines: TestReleaseLine[],
 ): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
   const saved = await context.dataSource.getRepository(ReleaseEntity).save({
     number: release.number,
-    supplierCode: 'SUP-A',
+    supplierCode: release.supplierCode ?? 'SUP-A',
     releaseDate: release.releaseDate,
+    reference: release.reference,
     status: release.status,
     sentAt: `${release.releaseDate}T06:00:00.000Z`,
     carrier: null,
     trackingNumber: null,
+    dockColumn: release.dockColumn,
   });
   const savedLines = await context.dataSource.getRepository(ReleaseLineEntity).save(
     lines.map((line) => ({
       releaseId: saved.id,
       partNumber: line.partNumber,
       qty: line.qty,
-      needDate: release.releaseDate,
+      requestedQty: line.requestedQty,
+      requestedDate: line.requestedDate,
+      needDate: line.needDate ?? release.releaseDate,
       origin: line.cardId ? 'kanban' : 'plan',
       cardId: line.cardId ?? null,
       confirmedQty: line.confirmedQty ?? null,

@@ -11,7 +11,7 @@ import { ReleaseEntity } from '../../server/releases/release.entity';
 import { savePartsWithStock } from '../../server/stock/stock.service';
 import { addCalendarDays } from '../../shared/domain/date';
 import { cardNumber } from '../../shared/domain/gs1';
-import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { bearer, createTestContext, testPart, writeTestRelease, type TestContext } from './helpers';
 
 let context: TestContext;
 let releaseCounter = 0;
@@ -24,40 +24,24 @@ interface LineSpec {
   cardId?: number | null;
 }
 
-/** A release as the release job and the supplier would leave it, written straight to the tables. */
+/** A release as the release job and the supplier would leave it, on the dock board's expected column. */
 async function makeRelease(
   lines: LineSpec[],
   options: { status?: string; supplierCode?: string } = {},
 ): Promise<{ release: ReleaseEntity; lines: ReleaseLineEntity[] }> {
   releaseCounter += 1;
-  const releaseDate = lines[0].needDate;
-  const release = await context.dataSource.getRepository(ReleaseEntity).save({
-    number: `R-OVER-${releaseCounter}`,
-    supplierCode: options.supplierCode ?? 'SUP-A',
-    releaseDate,
-    reference: `test-${releaseCounter}`,
-    status: options.status ?? 'sent',
-    sentAt: `${releaseDate}T06:00:00.000Z`,
-    carrier: null,
-    trackingNumber: null,
-    dockColumn: 'expected',
-  });
-  const saved = await context.dataSource.getRepository(ReleaseLineEntity).save(
-    lines.map((line) => ({
-      releaseId: release.id,
-      partNumber: line.partNumber,
-      qty: line.qty,
-      requestedQty: line.qty,
-      requestedDate: line.needDate,
-      needDate: line.needDate,
-      origin: line.cardId ? 'kanban' : 'plan',
-      cardId: line.cardId ?? null,
-      confirmedQty: null,
-      receivedQty: 0,
-      closed: false,
-    })),
+  return writeTestRelease(
+    context,
+    {
+      number: `R-OVER-${releaseCounter}`,
+      releaseDate: lines[0].needDate,
+      status: options.status ?? 'sent',
+      supplierCode: options.supplierCode,
+      reference: `test-${releaseCounter}`,
+      dockColumn: 'expected',
+    },
+    lines.map((line) => ({ ...line, requestedQty: line.qty, requestedDate: line.needDate })),
   );
-  return { release, lines: saved };
 }
 
 const freshKey = () => `over-key-${(keyCounter += 1)}`;
