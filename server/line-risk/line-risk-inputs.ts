@@ -33,7 +33,7 @@ export interface LineRiskInputs {
   loops: LoopSupply[];
   calendar: Calendar;
   details: Map<string, PartDetails>;
-  mark: PartsMark;
+  partsMark: PartsMark;
   /** How far the BOM and the units to build were read (see RowsMark). */
   bomMark: RowsMark;
   sequenceMark: RowsMark;
@@ -132,7 +132,7 @@ export async function loadLineRiskInputs(
     !before ? readRows(manager, list) : reuse!.standing.has(piece) ? before : readRowsAgain(manager, list, before);
   // The clock and the count interval are read every time: whether a part is due a count moves with them.
   const isCountDue = await countDueTest(manager, now);
-  const { parts, details, mark } =
+  const { parts, details, partsMark } =
     (reuse ? await readChangedParts(manager, reuse, isCountDue) : null) ?? (await readParts(manager, isCountDue));
   const before = reuse?.before;
   const { rows: bom, mark: bomMark } = await listOf(
@@ -155,7 +155,7 @@ export async function loadLineRiskInputs(
     loops: loopSupplies(loops),
     calendar,
     details,
-    mark,
+    partsMark,
     bomMark,
     sequenceMark,
   };
@@ -164,7 +164,7 @@ export async function loadLineRiskInputs(
 /** Whether a part is due a count, at the time and interval read (see countDueTest). */
 type IsCountDue = (part: CountedPart) => boolean;
 
-type PartsRead = Pick<LineRiskInputs, 'parts' | 'details' | 'mark'>;
+type PartsRead = Pick<LineRiskInputs, 'parts' | 'details' | 'partsMark'>;
 
 /** Every part, with its details and whether it is due a count. */
 async function readParts(manager: EntityManager, isCountDue: IsCountDue): Promise<PartsRead> {
@@ -175,14 +175,14 @@ async function readParts(manager: EntityManager, isCountDue: IsCountDue): Promis
     details.set(row.partNumber, detailsOf(row));
     return partOf(row, isCountDue(row));
   });
-  const mark: PartsMark = {
+  const partsMark: PartsMark = {
     lastRevision,
     lastMovement,
     countedAt: rows.map((row) => row.countedAt),
     placeOf: new Map(rows.map((row, place) => [row.partNumber, place])),
     supplierNames: await readSupplierNames(manager),
   };
-  return { parts, details, mark };
+  return { parts, details, partsMark };
 }
 
 function partOf(row: PartRow, countDue: boolean): LineRiskInputs['parts'][number] {
@@ -238,7 +238,7 @@ async function readChangedParts(
   { before, standing }: LineRiskReuse,
   isCountDue: IsCountDue,
 ): Promise<PartsRead | null> {
-  const mark = before.mark;
+  const mark = before.partsMark;
   const { partCount, lastRevision, lastMovement } = await readMark(manager);
   if (partCount !== before.parts.length || lastRevision < mark.lastRevision || lastMovement < mark.lastMovement) {
     return null;
@@ -285,7 +285,7 @@ async function readChangedParts(
   }
   const changed =
     countedAt !== mark.countedAt || lastMovement !== mark.lastMovement || lastRevision !== mark.lastRevision;
-  return { parts, details, mark: changed ? { ...mark, lastRevision, lastMovement, countedAt } : mark };
+  return { parts, details, partsMark: changed ? { ...mark, lastRevision, lastMovement, countedAt } : mark };
 }
 
 const readFirmReceipts = (manager: EntityManager): Promise<ScheduledReceipt[]> => manager.query(FIRM_LINES_SQL);

@@ -338,7 +338,7 @@ describe('line-risk inputs read again with every planning piece standing, after 
 
     expect(byPart(full, 'D')).toMatchObject({ leadTimeDays: 9, safetyStock: 2 });
     expect(reused).toStrictEqual(full);
-    expect(reused.mark.lastRevision).toBeGreaterThan(before.mark.lastRevision);
+    expect(reused.partsMark.lastRevision).toBeGreaterThan(before.partsMark.lastRevision);
     for (const partNumber of ['M', 'C', 'K', 'OLD', 'NEW-OPEN'])
       expect(byPart(reused, partNumber)).toBe(byPart(before, partNumber));
     // Neither the lead time nor the safety stock shows beside the figures.
@@ -387,7 +387,7 @@ describe('line-risk inputs read again with every planning piece standing, after 
 
     expect(full.details.get('D')).toMatchObject({ supplierName: 'Renamed Supplier B' });
     expect(reused).toStrictEqual(full);
-    expect(reused.mark.supplierNames.get('SUP-B')).toBe('Renamed Supplier B');
+    expect(reused.partsMark.supplierNames.get('SUP-B')).toBe('Renamed Supplier B');
   });
 
   it('reads the parts in full when one part gave way to another, though the count stands', async () => {
