@@ -221,11 +221,19 @@ describe('line-risk inputs read again with every planning piece standing, after 
   /** Every piece but one, as the counters hand them over after a change to that one. */
   const allBut = (moved: PlanningPiece): ReadonlySet<PlanningPiece> =>
     new Set(PLANNING_PIECES.filter((piece) => piece !== moved));
-  const allButParts = allBut('parts');
   const lineOf = (inputs: LineRiskInputs, component: string) =>
     inputs.bom.find((line) => line.parent === 'M' && line.component === component);
   const byPart = (inputs: LineRiskInputs, partNumber: string) =>
     inputs.parts.find((part) => part.partNumber === partNumber)!;
+  /** Reads in full, writes a change to one piece as its writers do, then reads both ways. */
+  const changeThenReadBoth = async (piece: PlanningPiece, write: (manager: EntityManager) => Promise<unknown>) => {
+    const before = await readFull();
+    await context.db.write(async (manager) => {
+      await write(manager);
+      await bumpPlanningVersion(manager, piece);
+    });
+    return { before, ...(await readBoth(before, undefined, allBut(piece))) };
+  };
 
   it('equals a full read after scrap, counts and receipts, keeping every piece and part that stood', async () => {
     const before = await readFull();
@@ -328,13 +336,9 @@ describe('line-risk inputs read again with every planning piece standing, after 
   });
 
   it('reads again only the parts revised since a part-master change, keeping the others and the details', async () => {
-    const before = await readFull();
-    await context.db.write(async (manager) => {
-      await manager.update(PartEntity, { partNumber: 'D' }, { leadTimeDays: 9, safetyStock: 2 });
-      await bumpPlanningVersion(manager, 'parts');
-    });
-
-    const { full, reused } = await readBoth(before, undefined, allButParts);
+    const { before, full, reused } = await changeThenReadBoth('parts', (manager) =>
+      manager.update(PartEntity, { partNumber: 'D' }, { leadTimeDays: 9, safetyStock: 2 }),
+    );
 
     expect(byPart(full, 'D')).toMatchObject({ leadTimeDays: 9, safetyStock: 2 });
     expect(reused).toStrictEqual(full);
@@ -346,13 +350,9 @@ describe('line-risk inputs read again with every planning piece standing, after 
   });
 
   it('gives only the renamed part new details', async () => {
-    const before = await readFull();
-    await context.db.write(async (manager) => {
-      await manager.update(PartEntity, { partNumber: 'C' }, { description: 'Bracket, revised' });
-      await bumpPlanningVersion(manager, 'parts');
-    });
-
-    const { full, reused } = await readBoth(before, undefined, allButParts);
+    const { before, full, reused } = await changeThenReadBoth('parts', (manager) =>
+      manager.update(PartEntity, { partNumber: 'C' }, { description: 'Bracket, revised' }),
+    );
 
     expect(full.details.get('C')).toMatchObject({ description: 'Bracket, revised' });
     expect(reused).toStrictEqual(full);
@@ -377,13 +377,9 @@ describe('line-risk inputs read again with every planning piece standing, after 
   });
 
   it('reads the parts in full after a supplier is renamed: its name shows beside each of its parts', async () => {
-    const before = await readFull();
-    await context.db.write(async (manager) => {
-      await manager.update(SupplierEntity, { code: 'SUP-B' }, { name: 'Renamed Supplier B' });
-      await bumpPlanningVersion(manager, 'parts');
-    });
-
-    const { full, reused } = await readBoth(before, undefined, allButParts);
+    const { full, reused } = await changeThenReadBoth('parts', (manager) =>
+      manager.update(SupplierEntity, { code: 'SUP-B' }, { name: 'Renamed Supplier B' }),
+    );
 
     expect(full.details.get('D')).toMatchObject({ supplierName: 'Renamed Supplier B' });
     expect(reused).toStrictEqual(full);
@@ -392,14 +388,10 @@ describe('line-risk inputs read again with every planning piece standing, after 
 
   it('reads the parts in full when one part gave way to another, though the count stands', async () => {
     await context.dataSource.getRepository(PartEntity).insert(testPart('GONE'));
-    const before = await readFull();
-    await context.db.write(async (manager) => {
+    const { full, reused } = await changeThenReadBoth('parts', async (manager) => {
       await manager.delete(PartEntity, { partNumber: 'GONE' });
       await manager.insert(PartEntity, testPart('CAME'));
-      await bumpPlanningVersion(manager, 'parts');
     });
-
-    const { full, reused } = await readBoth(before, undefined, allButParts);
 
     expect(full.parts.map((part) => part.partNumber)).toContain('CAME');
     expect(full.parts.map((part) => part.partNumber)).not.toContain('GONE');
@@ -408,13 +400,9 @@ describe('line-risk inputs read again with every planning piece standing, after 
   });
 
   it('reads again only the BOM lines revised since, keeping the others as they were', async () => {
-    const before = await readFull();
-    await context.db.write(async (manager) => {
-      await manager.update(BomLineEntity, { parent: 'M', component: 'D' }, { qtyPer: 3 });
-      await bumpPlanningVersion(manager, 'bom');
-    });
-
-    const { full, reused } = await readBoth(before, undefined, allBut('bom'));
+    const { before, full, reused } = await changeThenReadBoth('bom', (manager) =>
+      manager.update(BomLineEntity, { parent: 'M', component: 'D' }, { qtyPer: 3 }),
+    );
 
     expect(lineOf(full, 'D')).toMatchObject({ qtyPer: 3 });
     expect(reused).toStrictEqual(full);
@@ -451,14 +439,9 @@ describe('line-risk inputs read again with every planning piece standing, after 
     const serialsOf = (inputs: LineRiskInputs) => inputs.sequence.map((slot) => slot.serial);
     const unitOf = (inputs: LineRiskInputs, serial: string) => inputs.sequence.find((slot) => slot.serial === serial);
     const change = async (write: (manager: EntityManager) => Promise<unknown>) => {
-      const before = await readFull();
-      await context.db.write(async (manager) => {
-        await write(manager);
-        await bumpPlanningVersion(manager, 'sequence');
-      });
-      const read = await readBoth(before, undefined, allBut('sequence'));
+      const read = await changeThenReadBoth('sequence', write);
       expect(read.reused).toStrictEqual(read.full);
-      return { before, ...read };
+      return read;
     };
 
     // S3 moves ahead of S1 and S2, to the first place of day 1.
