@@ -245,8 +245,8 @@ export type WalkKind = 'full' | 'parts' | 'bom' | 'built' | 'judged' | 'kept';
  * risk built, units moved, added or removed, made stock counted, a made component's line, a lead
  * time, a verdict changed) judges every unit again, but keeps what each needs wherever its model's
  * BOM and lead times stand and the made stock its explosion read does too. The walk is done in full
- * when a part's source, unit or replenishment, the calendar or the horizon changed, and every
- * WALKS_BEFORE_FULL walks. Either way the answer is exactly the full walk's.
+ * when a part's source or the horizon changed, when a calendar change moved a working day the walk
+ * reads, and every WALKS_BEFORE_FULL walks. Either way the answer is exactly the full walk's.
  */
 export class LineRiskWalker {
   private last: Walked | null = null;
@@ -982,24 +982,17 @@ function requiredWithout(last: Walked, gone: number): Float64Array {
  * units first come, first served, so each unit's last explosion is tried against made stock as it
  * stands at the unit's turn, and the unit is exploded again only when a free quantity it read is
  * out of its bounds, or its model's explosion passes a BOM line that changed or a made part whose
- * lead time moved. For a change that leaves the calendar, the horizon and each part's source, unit
- * and replenishment as they were: units built, moved, added or removed, made stock counted, BOM
- * lines changed, lead times and suppliers edited, a verdict changed by stock. Null for any other
- * change (the walk is then done in full).
+ * lead time moved. For a change that leaves the horizon, each part's source and the working days
+ * the walk reads as they were: units built, moved, added or removed, made stock counted, BOM lines
+ * changed, lead times, units, replenishment and suppliers edited, holidays set outside the days the
+ * walk reads, a verdict changed by stock. Null for any other change (the walk is then done in full).
  */
 function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: 'judged' } | null {
   const before = last.input;
   const { parts } = input;
-  if (
-    input.from !== before.from ||
-    input.to !== before.to ||
-    input.calendar !== before.calendar ||
-    parts.length !== before.parts.length
-  ) {
-    return null;
-  }
-  // Part master edits the walk survives: anything but a part's source, unit or replenishment. A
-  // made part's lead time moves the start of what it is made from.
+  if (input.from !== before.from || input.to !== before.to || parts.length !== before.parts.length) return null;
+  // Part master edits the walk survives: anything but a part's source. A made part's lead time
+  // moves the start of what it is made from.
   let partsEdited = false;
   const leadTimeMoved: number[] = [];
   for (let part = 0; part < parts.length; part += 1) {
@@ -1015,9 +1008,11 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
   let model: PlanModel | null;
   let exploder = last.exploder;
   let explodeAgain: Uint8Array | null = null;
-  if (input.bom === before.bom && !partsEdited) model = withStock(last.model, parts);
+  const calendarEdited = input.calendar !== before.calendar;
+  if (input.bom === before.bom && !partsEdited && !calendarEdited) model = withStock(last.model, parts);
   else {
     model = structureOf(input);
+    if (calendarEdited && !sameWorkingDays(last.model, model)) return null;
     exploder = new Exploder(model);
     const changedParents = input.bom === before.bom ? [] : bomDifference(last.model, model).changedParents;
     explodeAgain = reaching([...changedParents, ...leadTimeMoved], model);
@@ -1242,18 +1237,54 @@ function sameTakes(a: Explosion, b: Explosion): boolean {
 }
 
 /**
- * Two versions of a part alike in what a walk reads of it beside its lead time and the figures a
- * short part is reported with: the same fields, number, source, unit and replenishment.
+ * Two versions of a part a judged walk can take one for the other: the same fields, number and
+ * source. Its unit and replenishment are read afresh at every judging (whether a lack is whole, the
+ * loop's supply), its lead time where the units that pass it are exploded anew.
  */
 function sameForTheWalk(before: LineRiskPart, after: LineRiskPart): boolean {
   const keys = Object.keys(after) as (keyof LineRiskPart)[];
   if (Object.keys(before).length !== keys.length || !keys.every((key) => Object.hasOwn(before, key))) return false;
-  return (
-    before.partNumber === after.partNumber &&
-    before.source === after.source &&
-    before.uom === after.uom &&
-    before.replenishment === after.replenishment
-  );
+  return before.partNumber === after.partNumber && before.source === after.source;
+}
+
+/**
+ * Two calendars alike on every working day a walk reads: the horizon's (its buckets) and those
+ * before it that a subassembly's start can reach (BOM effectivity is checked on them). A holiday
+ * set weeks past the horizon, the usual calendar edit, changes none of them.
+ */
+function sameWorkingDays(before: PlanModel, after: PlanModel): boolean {
+  const { dayNumbers } = after;
+  if (before.dayNumbers.length !== dayNumbers.length) return false;
+  for (let bucket = 0; bucket < dayNumbers.length; bucket += 1) {
+    if (before.dayNumbers[bucket] !== dayNumbers[bucket]) return false;
+  }
+  const reach = Math.max(deepestStart(before), deepestStart(after));
+  for (let count = 1; count <= reach; count += 1) {
+    if (before.workingDayBeforeStart(count) !== after.workingDayBeforeStart(count)) return false;
+  }
+  return true;
+}
+
+/**
+ * How many working days before its unit's day a subassembly can start, at most: the longest sum of
+ * made parts' lead times down the BOM (an explosion steps back one lead time per made level).
+ */
+function deepestStart(model: PlanModel): number {
+  const { levelOrder, lineStart, lineComponent, source, leadTimeDays } = model;
+  const reach = new Int32Array(source.length);
+  let deepest = 0;
+  // Parents come before their components in levelOrder: each part's reach is final when met.
+  for (const parent of levelOrder) {
+    if (source[parent] === BOUGHT) continue;
+    for (let line = lineStart[parent]; line < lineStart[parent + 1]; line += 1) {
+      const component = lineComponent[line];
+      if (source[component] === BOUGHT) continue;
+      const start = reach[parent] + Math.max(0, leadTimeDays[component]);
+      if (start > reach[component]) reach[component] = start;
+      if (start > deepest) deepest = start;
+    }
+  }
+  return deepest;
 }
 
 /** Two versions of a part alike but for its stock (on-hand, whether a count is due). */

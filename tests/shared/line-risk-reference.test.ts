@@ -253,6 +253,9 @@ describe('computeLineRisk against the plain walk', () => {
         'leadTime',
         'leadTime',
         'uom',
+        'replenishment',
+        'holiday',
+        'holiday',
       ),
       pick: fc.nat(),
       qty: fc.integer({ min: -4, max: 9 }),
@@ -443,6 +446,62 @@ describe('computeLineRisk against the plain walk', () => {
         .map((slot) => slot.serial),
     ).toEqual(['SN1']);
   });
+  it('judges the units again after a holiday weeks ahead, and walks in full after one on a day the walk reads', () => {
+    // M0 takes one S (made, none in stock, two working days to make), which takes one B0 (none) by a
+    // line effective from Thursday 26 February. SN1 on Monday 2 March starts S on Thursday: it needs
+    // the B0 and is at risk. A holiday on Friday 27 February moves the start to Wednesday, before
+    // the line: SN1 builds.
+    const before = smallPlant(
+      [model('M0'), bought('S', { source: 'make', leadTimeDays: 2 }), bought('B0')],
+      [bomLine('M0', 'S'), { ...bomLine('S', 'B0'), effectiveFrom: '2026-02-26' }],
+      [unit(FROM, 1, 'M0', 'SN1')],
+    );
+    const withHoliday = (date: string): LineRiskInput => ({
+      ...before,
+      calendar: { ...before.calendar, holidays: [...before.calendar.holidays, date] },
+    });
+    const weeksAhead = withHoliday('2026-04-15');
+    const beforeStart = withHoliday('2026-02-27');
+    const inside = withHoliday('2026-03-12');
+    const walker = new LineRiskWalker();
+    const serials = (input: LineRiskInput) =>
+      walker
+        .walk(input)
+        .unitsAtRisk()
+        .map((slot) => slot.serial);
+
+    expect(serials(before)).toEqual(['SN1']);
+    expect(walker.walk(weeksAhead).result()).toEqual(referenceLineRisk(weeksAhead));
+    expect(walker.lastKind).toBe('judged');
+    expect(serials(beforeStart)).toEqual([]);
+    expect(walker.lastKind).toBe('full');
+    expect(walker.walk(inside).result()).toEqual(referenceLineRisk(inside));
+    expect(walker.lastKind).toBe('full');
+  });
+  it("judges the units again after a part's unit or replenishment changed", () => {
+    // B0 in kilograms: SN1 lacks half a kilogram. Counted in pieces, it lacks a whole one.
+    const before = smallPlant(
+      [model('M0'), bought('B0', { uom: 'KGM', replenishment: 'scheduled' })],
+      [bomLine('M0', 'B0', 0.5)],
+      [unit('2026-03-03', 1, 'M0', 'SN1')],
+    );
+    const inPieces = { ...before, parts: [before.parts[0]!, { ...before.parts[1]!, uom: 'H87' }] };
+    const onLoop: LineRiskInput = {
+      ...inPieces,
+      parts: [inPieces.parts[0]!, { ...inPieces.parts[1]!, replenishment: 'kanban' }],
+      loops: [
+        { partNumber: 'B0', activeCards: 2, recommendedCards: 2, containerQty: 1, replenishmentDays: 1, emptyCards: 1 },
+      ],
+    };
+    const walker = new LineRiskWalker();
+    const lack = (input: LineRiskInput) => walker.walk(input).unitsAtRisk()[0]!.lacks[0]!.qty;
+
+    expect(lack(before)).toBe(0.5);
+    expect(lack(inPieces)).toBe(1);
+    expect(walker.lastKind).toBe('judged');
+    expect(walker.walk(onLoop).result()).toEqual(referenceLineRisk(onLoop));
+    expect(walker.lastKind).toBe('judged');
+  });
   it('walks in full once in so many walks, however the changes could be walked again', () => {
     const before = smallPlant(
       [model('M0'), bought('B0', { onHand: 5 })],
@@ -609,6 +668,26 @@ function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: 
       // A part now counted in kilograms, or back in pieces: what is short by a fraction changes.
       const part = step.pick % input.parts.length;
       return { ...input, parts: withPart(part, { uom: input.parts[part]!.uom === 'KGM' ? 'H87' : 'KGM' }) };
+    }
+    case 'replenishment':
+      // A bought part taken off its kanban loop (then ordered as scheduled), or put on one.
+      return {
+        ...input,
+        parts: withPart(someBought, {
+          replenishment: input.parts[someBought]!.replenishment === 'kanban' ? 'scheduled' : 'kanban',
+        }),
+      };
+    case 'holiday': {
+      // A holiday set or lifted: before the horizon (where subassemblies start), inside it, or weeks past it.
+      const date = addCalendarDays(FROM, step.day * 3 - 12);
+      const { holidays } = input.calendar;
+      return {
+        ...input,
+        calendar: {
+          ...input.calendar,
+          holidays: holidays.includes(date) ? holidays.filter((holiday) => holiday !== date) : [...holidays, date],
+        },
+      };
     }
     case 'dropUnit':
       return {
