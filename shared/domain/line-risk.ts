@@ -11,6 +11,7 @@ import { floatColumn, intColumn } from './typed-column';
 import { BOUGHT, buildPlanModel, END_ITEM, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
+import { leadTimeArrival } from './supplier-timing';
 import type { IsoDate, PlanningBomLine, PlanningPart, PlantCalendar, ScheduledReceipt, SequenceSlot } from './types';
 
 /*
@@ -1454,13 +1455,14 @@ function finish(
     const needBy = projection.needBy.length > 0 ? projection.needBy : [{ date: model.days[first], qty: firstLackQty }];
     const shortQty = roundQty(needBy.reduce((sum, entry) => sum + entry.qty, 0));
     const leadTimeDays = shortPart.leadTimeDays;
-    const lastArrivalInLeadTime = calendar.addWorking(calendar.nextWorking(todayDay), leadTimeDays);
     const loop = found.loopByPart.get(part);
+    // Released today, it arrives lead time later: in time for a shortage from that day on, which
+    // is then a release to send by the last day that still makes it (today at the latest).
     const action: ShortageAction = loop
       ? 'loop'
       : shortPart.countDue || shortPart.onHand < 0
         ? 'count'
-        : firstShortDay <= lastArrivalInLeadTime
+        : firstShortDay < leadTimeArrival(todayDay, leadTimeDays, calendar)
           ? 'expedite'
           : 'release';
     const figures: ShortPartFigures = {

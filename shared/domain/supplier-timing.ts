@@ -137,6 +137,16 @@ export function arrivalOf(
   return fromDayNumber(working.addWorking(start, terms.transitDays));
 }
 
+/**
+ * The day an order released on `releaseDay` arrives, delivery days aside: `leadTimeDays` working
+ * days after the first working day on or after its release. Goods arriving on the day they are
+ * needed are in time, so a need on or after this day is met by releasing then; a need before it
+ * must be expedited.
+ */
+export function leadTimeArrival(releaseDay: number, leadTimeDays: number, working: WorkingCalendar): number {
+  return working.addWorking(working.nextWorking(releaseDay), leadTimeDays);
+}
+
 /** The earliest arrival of an order released on `releaseDate`: lead time later, on a delivery day. */
 export function earliestArrival(
   releaseDate: IsoDate,
@@ -144,7 +154,7 @@ export function earliestArrival(
   calendar: PlantCalendar | WorkingCalendar,
 ): IsoDate {
   const working = calendarOf(calendar);
-  const arrival = fromDayNumber(working.addWorking(working.nextWorking(toDayNumber(releaseDate)), terms.leadTimeDays));
+  const arrival = fromDayNumber(leadTimeArrival(toDayNumber(releaseDate), terms.leadTimeDays, working));
   return deliveryDayOnOrAfter(arrival, terms, working);
 }
 
@@ -156,7 +166,7 @@ export function isInsideLeadTime(
   calendar: PlantCalendar | WorkingCalendar,
 ): boolean {
   const working = calendarOf(calendar);
-  return toDayNumber(needDate) < working.addWorking(working.nextWorking(toDayNumber(releaseDate)), terms.leadTimeDays);
+  return toDayNumber(needDate) < leadTimeArrival(toDayNumber(releaseDate), terms.leadTimeDays, working);
 }
 
 /** The ship dates that bring goods inside the on-time window of a need date. */

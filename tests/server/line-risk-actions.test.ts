@@ -104,13 +104,14 @@ describe('GET /api/shortages and GET /api/line-risk: the action, dated need and 
     expect(response.status).toBe(200);
     const byPart = new Map((response.body as ShortageDto[]).map((shortage) => [shortage.partNumber, shortage]));
     expect((response.body as ShortageDto[]).map((shortage) => [shortage.action, shortage.partNumber])).toEqual([
-      // H (Mon 21) and E (Wed 23) run short before Thu 24, the last arrival a release sent Monday
-      // can make with a lead time of 3 working days: expedite.
+      // Today is Friday 18. With a lead time of 3 working days a release sent today arrives Wed 23:
+      // H, short Mon 21, can only be expedited.
       ['expedite', 'H'],
-      ['expedite', 'E'],
       // K is due a count: that comes before any other action, even inside its lead time.
       ['count', 'K'],
-      // S is needed Mon 28, R on Tue 29: both later than their lead times allow, so a release in time covers them.
+      // E is needed Wed 23: a release sent today (its last day) arrives in time. S is needed Mon
+      // 28, R on Tue 29: both later than their lead times allow, so a release in time covers them.
+      ['release', 'E'],
       ['release', 'S'],
       ['release', 'R'],
     ]);
@@ -118,7 +119,7 @@ describe('GET /api/shortages and GET /api/line-risk: the action, dated need and 
     expect(byPart.get('E')).toMatchObject({
       firstShortDate: '2026-12-23',
       needBy: [{ date: '2026-12-23', qty: 1 }],
-      releaseBy: null,
+      releaseBy: '2026-12-18',
       slotsAtRisk: [expect.objectContaining({ serial: 'E3', lackQty: 1, via: null })],
     });
     // H: half a piece a unit, 1 on hand → H1 and H2 share it, H3 lacks half a piece: one whole piece.

@@ -403,13 +403,14 @@ export function referenceLineRisk(input: LineRiskInput): LineRiskResult {
       projection.needBy.length > 0 ? projection.needBy : [{ date: model.days[first], qty: risk.slots[0].lackQty }];
     const shortQty = roundQty(needBy.reduce((sum, entry) => sum + entry.qty, 0));
     const leadTimeDays = shortPart.leadTimeDays;
-    const lastArrivalInLeadTime = calendar.addWorking(calendar.nextWorking(todayDay), leadTimeDays);
+    // A release sent today arrives lead time later, in time for a need on that day.
+    const releasedTodayArrives = calendar.addWorking(calendar.nextWorking(todayDay), leadTimeDays);
     const loop = loopByPart.get(part);
     const action: ShortageAction = loop
       ? 'loop'
       : shortPart.countDue || shortPart.onHand < 0
         ? 'count'
-        : firstShortDay <= lastArrivalInLeadTime
+        : firstShortDay < releasedTodayArrives
           ? 'expedite'
           : 'release';
     shortages.push({

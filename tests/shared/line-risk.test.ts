@@ -649,28 +649,36 @@ describe('computeLineRisk — what to do about each short part', () => {
   ];
 
   it('asks to expedite inside the supplier lead time, and only to release in time beyond it', () => {
-    // Today Monday. E (lead time 2 working days) runs out Wednesday: only Monday + 2 = Wednesday
-    // could still arrive by a normal release, so a shortage from Wednesday is an expedite.
-    // R (lead time 2) runs out Friday: a release sent by Wednesday (Friday − 2) arrives in time.
+    // Today Monday; every part has a lead time of 2 working days, so an order released today
+    // arrives Wednesday, in time for Wednesday's build (lead-time offsetting: the release date is
+    // the need date less the lead time; Orlicky, Material Requirements Planning, 1975, ch. on
+    // time-phasing — from memory).
+    // E runs out Tuesday: no release can arrive by then, it is an expedite.
+    // W runs out Wednesday: released today (its send-by day) it still arrives in time.
+    // R runs out Friday: a release sent by Wednesday (Friday − 2) arrives in time.
     const result = lineRisk({
       today: MON,
       parts: [
         model('ME'),
+        model('MW'),
         model('MR'),
-        part('E', { onHand: 2, leadTimeDays: 2 }),
+        part('E', { onHand: 1, leadTimeDays: 2 }),
+        part('W', { onHand: 2, leadTimeDays: 2 }),
         part('R', { onHand: 4, leadTimeDays: 2 }),
       ],
-      bom: [line('ME', 'E', 1), line('MR', 'R', 1)],
+      bom: [line('ME', 'E', 1), line('MW', 'W', 1), line('MR', 'R', 1)],
       sequence: [
         ...oneUnitADay('ME'),
-        ...oneUnitADay('MR').map((unit) => ({ ...unit, sequence: 2, serial: `R-${unit.date}` })),
+        ...oneUnitADay('MW').map((unit) => ({ ...unit, sequence: 2, serial: `W-${unit.date}` })),
+        ...oneUnitADay('MR').map((unit) => ({ ...unit, sequence: 3, serial: `R-${unit.date}` })),
       ],
     });
 
     const byPart = Object.fromEntries(result.shortages.map((shortage) => [shortage.partNumber, shortage]));
-    expect(byPart.E).toMatchObject({ action: 'expedite', firstShortDate: WED, releaseBy: null });
+    expect(byPart.E).toMatchObject({ action: 'expedite', firstShortDate: TUE, releaseBy: null });
+    expect(byPart.W).toMatchObject({ action: 'release', firstShortDate: WED, releaseBy: MON });
     expect(byPart.R).toMatchObject({ action: 'release', firstShortDate: FRI, releaseBy: WED });
-    expect(result.shortages.map((shortage) => shortage.action)).toEqual(['expedite', 'release']);
+    expect(result.shortages.map((shortage) => shortage.action)).toEqual(['expedite', 'release', 'release']);
   });
 
   it('says how much must arrive by each date, not one lump on the first', () => {
