@@ -66,7 +66,8 @@ export function serialiseReport(report: LineRiskReport): ReportBytes {
   const headJson = JSON.stringify(head);
   // The same text JSON.stringify(report) gives: shortages is the report's last key.
   const prefix = `${headJson.slice(0, -1)}${headJson === '{}' ? '' : ','}"shortages":`;
-  const json = new TextEncoder().encode(`${prefix}${JSON.stringify(shortages)}}`);
+  // Buffer.from writes UTF-8 about twice as fast as TextEncoder on a large report (5 against 10 ms at 16×).
+  const json = ownBytes(Buffer.from(`${prefix}${JSON.stringify(shortages)}}`));
   // The fastest level: made after every change, it is on the way of the answer. The body comes out
   // about half as large again as at the default level (0.8 against 0.55 MB at 16×).
   const gzip = ownBytes(gzipSync(json, { level: 1 }));
