@@ -617,6 +617,8 @@ function judgeUnits(
   const lacksStart = new Int32Array(ordered.length + 1);
   const lacksPart = intColumn(1024);
   const lacksQty = floatColumn(1024);
+  /** Per entry: the unit's first need of the part, which gives the slot's via and day. */
+  const lacksNeed = intColumn(1024);
   /** The last walk's entries of the unit at hand, by part (stamped with the position + 1). */
   const keptStamp = new Int32Array(parts.length);
   const keptQty = new Float64Array(parts.length);
@@ -629,10 +631,7 @@ function judgeUnits(
   const unitStart = new Int32Array(ordered.length + 1);
   let unitsBuilt = 0;
 
-  // The parts a unit lacks behind the units ahead of it (queue view), as group indices and quantities.
-  const behindGroup = new Int32Array(parts.length);
-  const behindQty = new Float64Array(parts.length);
-  /** Per part: its entry in behindGroup / behindQty for the unit at hand. */
+  /** Per part: its queue-view entry for the unit at hand (see lacksStart). */
   const behindIndex = new Int32Array(parts.length);
   /** Per part: the unit (position + 1) it lacks now for, and which lack of the unit's explosion. */
   const nowStamp = new Int32Array(parts.length);
@@ -641,9 +640,9 @@ function judgeUnits(
 
   /**
    * Queue view: each part serves this unit if it can, whatever the unit's other parts do; parts
-   * that can are committed. Returns how many parts cannot (in behindGroup / behindQty).
+   * that can are committed. The parts that cannot are the unit's entries (lacksStart).
    */
-  function queueLacks(explosion: Explosion, position: number): number {
+  function queueLacks(explosion: Explosion, position: number): void {
     const groups = exploder.needGroups(explosion, rowBase);
     lacksStart[position] = lacksPart.length;
     const last = reuse ? reuse.lastPosition[position] : -1;
@@ -654,7 +653,6 @@ function judgeUnits(
         keptQty[kept.part[entry]] = kept.qty[entry];
       }
     }
-    let count = 0;
     for (let group = 0; group < groups.count; group += 1) {
       const part = groups.part[group];
       let qty: number;
@@ -667,14 +665,10 @@ function judgeUnits(
         if (keptStamp[part] !== position + 1) continue;
         qty = keptQty[part];
       }
-      behindGroup[count] = group;
-      behindQty[count] = qty;
-      behindIndex[part] = count;
       lacksPart.push(part);
       lacksQty.push(qty);
-      count += 1;
+      lacksNeed.push(groups.needs[groups.start[group]]);
     }
-    return count;
   }
 
   /** A slot of `part` for the unit at `position` (`atRisk`: its index among the units at risk, or -1). */
@@ -690,16 +684,20 @@ function judgeUnits(
     risks.note(part, records.push(position, part, qty, now ? 1 : 0, via, bucket), position, atRisk);
   }
 
+  // The queue view first, for every unit: a part can stop a unit that is buildable now only
+  // because a unit ahead of it, short of something else, is not taking its share.
+  for (let position = 0; position < ordered.length; position += 1) queueLacks(explosions[position], position);
+  lacksStart[ordered.length] = lacksPart.length;
+  const behindPart = lacksPart.done();
+  const behindQty = lacksQty.done();
+  const behindNeed = lacksNeed.done();
+
   ordered.forEach((entry, position) => {
     unitStart[position] = records.count;
     const stamp = position + 1;
     const mine = explosions[position];
-    // The queue view runs for every unit: a part can stop a unit that is buildable now only
-    // because a unit ahead of it, short of something else, is not taking its share.
-    const behindCount = queueLacks(mine, position);
-    const groups = mine.groups!;
-    /** The unit's first need of a part short behind others gives its via and day. */
-    const firstNeedOf = (index: number) => groups.needs[groups.start[behindGroup[index]]];
+    const behindFirst = lacksStart[position];
+    const behindEnd = lacksStart[position + 1];
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
     const explosion = againstBuild.get(entry.model, entry.slot.qty, entry.bucket);
     judged[position] = explosion;
@@ -712,10 +710,10 @@ function judgeUnits(
       }
       built[position] = 1;
       unitsBuilt += 1;
-      for (let index = 0; index < behindCount; index += 1) {
-        const part = groups.part[behindGroup[index]];
-        const need = firstNeedOf(index);
-        const qty = wholeIfCountable(countable, part, behindQty[index]);
+      for (let behind = behindFirst; behind < behindEnd; behind += 1) {
+        const part = behindPart[behind];
+        const need = behindNeed[behind];
+        const qty = wholeIfCountable(countable, part, behindQty[behind]);
         addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], -1);
       }
       return;
@@ -731,8 +729,9 @@ function judgeUnits(
       rankScratch[ranks++] = rankOf[part];
     }
     const nowCount = ranks;
-    for (let index = 0; index < behindCount; index += 1) {
-      const part = groups.part[behindGroup[index]];
+    for (let behind = behindFirst; behind < behindEnd; behind += 1) {
+      const part = behindPart[behind];
+      behindIndex[part] = behind;
       if (nowStamp[part] !== stamp) rankScratch[ranks++] = rankOf[part];
     }
     rankScratch.subarray(0, nowCount).sort();
@@ -745,14 +744,13 @@ function judgeUnits(
         addSlot(part, position, qty, true, explosion.lackVia[lack], explosion.lackBucket[lack], unitIndex);
       } else {
         const behind = behindIndex[part];
-        const need = firstNeedOf(behind);
+        const need = behindNeed[behind];
         const qty = wholeIfCountable(countable, part, behindQty[behind]);
         addSlot(part, position, qty, false, mine.needVia[need], mine.needBucket[need], unitIndex);
       }
     }
   });
   unitStart[ordered.length] = records.count;
-  lacksStart[ordered.length] = lacksPart.length;
 
   const walked: Walked = {
     input,
@@ -774,7 +772,7 @@ function judgeUnits(
     records: records.done(),
     unitStart,
     risks,
-    queueLacks: { start: lacksStart, part: lacksPart.done(), qty: lacksQty.done(), stale: null },
+    queueLacks: { start: lacksStart, part: behindPart, qty: behindQty, stale: null },
   };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   return { run, walked };
