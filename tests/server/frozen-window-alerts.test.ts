@@ -15,7 +15,8 @@ let context: TestContext;
 let lineRisk: LineRiskService;
 
 // The first working day from today is inside the default frozen window of 3 working days. One
-// unit of M needs 2 of P; with 1 on hand and nothing confirmed to arrive, that unit is at risk.
+// unit of M needs 2 of P; with 1 on hand and nothing confirmed to arrive, that unit is at risk, and
+// P's lead time of 2 working days leaves no release time to bring it: an expedite.
 beforeAll(async () => {
   context = await createTestContext();
   lineRisk = context.services.lineRisk;
@@ -24,7 +25,7 @@ beforeAll(async () => {
     await writeCalendar(manager, calendar);
     await savePartsWithStock(manager, [
       testPart('M', { source: 'end_item', supplierCode: null, replenishment: null }),
-      testPart('P', { onHand: 1, description: 'Drive motor' }),
+      testPart('P', { onHand: 1, leadTimeDays: 2, description: 'Drive motor' }),
     ]);
     await replaceBomLines(manager, [
       { parent: 'M', component: 'P', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
