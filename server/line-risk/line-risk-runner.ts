@@ -1,11 +1,11 @@
 import { extname } from 'node:path';
-import { createRequire } from 'node:module';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import { fileURLToPath } from 'node:url';
+import type { Worker } from 'node:worker_threads';
 import type { LineRiskInput, SlotAtRisk, UnitAtRisk } from '../../shared/domain/line-risk';
 import { changedRows, samePiece } from './changed-rows';
 import type { PartDetails } from './line-risk-inputs';
 import type { ReportBytes } from './line-risk-report';
+import { startWorker } from './start-worker';
 
 /** The engine's input that comes from the planning data, with the part details the report shows. */
 export interface LineRiskPieces extends Pick<
@@ -32,6 +32,7 @@ export type WorkerRequest = { id: number } & (
   | { kind: 'units'; key: string; offset: number; limit: number }
   | { kind: 'slots'; key: string; partNumber: string; offset: number; limit: number }
   | { kind: 'drop'; key: string }
+  | { kind: 'helped' }
 );
 
 type Request = WorkerRequest extends infer R ? (R extends unknown ? Omit<R, 'id'> : never) : never;
@@ -65,6 +66,9 @@ export class LineRiskRunner {
   private readonly pending = new Map<number, { resolve: (value: unknown) => void; reject: (error: Error) => void }>();
   /** The pieces the worker holds (or an equal copy of each). */
   private held: Partial<LineRiskPieces> = {};
+
+  /** `queueHelperFrom`: the size of walk from which the worker has the queue view walked beside it (see queue-helper.ts). */
+  constructor(private readonly options: { queueHelperFrom?: number } = {}) {}
 
   /** Walks the line risk for these pieces and options; the report as the bytes to send. */
   compute(key: string, pieces: LineRiskPieces, options: LineRiskOptions): Promise<ReportBytes> {
@@ -108,6 +112,11 @@ export class LineRiskRunner {
     if (this.worker) void this.send({ kind: 'drop', key }).catch(() => undefined);
   }
 
+  /** How many walks of the worker had their queue view walked beside them (see queue-helper.ts). */
+  helped(): Promise<number> {
+    return this.send({ kind: 'helped' }) as Promise<number>;
+  }
+
   async close(): Promise<void> {
     const worker = this.worker;
     this.worker = null;
@@ -129,6 +138,7 @@ export class LineRiskRunner {
     this.held = {};
     const worker = startWorker(
       new URL(`./line-risk.worker${extname(fileURLToPath(import.meta.url))}`, import.meta.url),
+      { workerData: { queueHelperFrom: this.options.queueHelperFrom } },
     );
     // Idle, it must not keep the process alive; the server's own socket does that.
     worker.unref();
@@ -149,20 +159,4 @@ export class LineRiskRunner {
     this.worker = worker;
     return worker;
   }
-}
-
-/**
- * Run from TypeScript sources (tsx, vitest), a worker does not inherit the TypeScript loader: a
- * small bootstrap registers tsx's ESM hooks in the worker, then loads the worker file.
- */
-function startWorker(file: URL): Worker {
-  if (!file.pathname.endsWith('.ts')) return new Worker(file);
-  // The ESM entry of tsx's API (require.resolve finds its CommonJS twin beside it).
-  const tsxApi = pathToFileURL(
-    createRequire(import.meta.url)
-      .resolve('tsx/esm/api')
-      .replace(/\.cjs$/, '.mjs'),
-  );
-  const bootstrap = `import(${JSON.stringify(tsxApi.href)}).then(({ register }) => { register(); return import(${JSON.stringify(file.href)}); });`;
-  return new Worker(bootstrap, { eval: true });
 }

@@ -1,4 +1,4 @@
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
 import { BomCycleError } from '../../shared/domain/bom';
 import { LineRiskWalker } from '../../shared/domain/line-risk';
 import type { LineRiskRun } from '../../shared/domain/line-risk-run';
@@ -6,6 +6,7 @@ import { PlanInputError } from '../../shared/domain/plan-model';
 import type { LineRiskPieces, WorkerReply, WorkerRequest } from './line-risk-runner';
 import { serialiseReport, toReport, type ReportBytes } from './line-risk-report';
 import { slotsPage, summarise, unitsPage } from './line-risk-summary';
+import { createQueueHelper } from './queue-helper';
 
 /*
  * Runs the line-risk engine off the server's event loop and keeps each run here, so only the
@@ -19,7 +20,14 @@ const held: Partial<LineRiskPieces> = {};
  * an engineering change to bought components walks only the changed parts again; a walk of
  * another horizon is made in full.
  */
-const walker = new LineRiskWalker();
+const helper = createQueueHelper((workerData as { queueHelperFrom?: number } | null)?.queueHelperFrom);
+/** Walks whose queue view the helper walked. */
+let helped = 0;
+const walker = new LineRiskWalker((job) => {
+  const stream = helper(job);
+  if (stream) helped += 1;
+  return stream;
+});
 
 function answer(request: WorkerRequest): unknown {
   switch (request.kind) {
@@ -52,6 +60,8 @@ function answer(request: WorkerRequest): unknown {
       const result = results.get(request.key);
       return result ? slotsPage(result, request.partNumber, request.offset, request.limit) : undefined;
     }
+    case 'helped':
+      return helped;
     case 'drop':
       results.delete(request.key);
       return null;
@@ -83,4 +93,6 @@ parentPort!.on('message', (request: WorkerRequest) => {
     };
   }
   parentPort!.postMessage(reply, transfer);
+  // Once the answer is sent: the next walk then finds every unit's needs grouped.
+  if (request.kind === 'compute') setImmediate(() => walker.groupAhead());
 });

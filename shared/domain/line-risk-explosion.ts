@@ -178,6 +178,73 @@ function readsHold(explosion: Explosion, ledger: StockLedger, version: number): 
   return true;
 }
 
+/** The needs of a unit the queue view reads: an explosion's, or a copy of them in another thread. */
+export type UnitNeeds = Pick<Explosion, 'needCount' | 'needPart' | 'needBucket' | 'needQty' | 'groups'>;
+
+/** Groups units' needs by part (see NeedGroups), with scratch for `partCount` parts. */
+export class NeedGrouper {
+  private readonly groupStamp: Int32Array;
+  private readonly groupIndex: Int32Array;
+  private run = 0;
+
+  constructor(
+    partCount: number,
+    private readonly ints = new TypedArena((size) => new Int32Array(size)),
+    private readonly floats = new TypedArena((size) => new Float64Array(size)),
+  ) {
+    this.groupStamp = new Int32Array(partCount);
+    this.groupIndex = new Int32Array(partCount);
+  }
+
+  /** The needs grouped by part, worked out once; `rowBase` places the parts' rows in the ledgers. */
+  groupsOf(explosion: UnitNeeds, rowBase: Int32Array): NeedGroups {
+    if (explosion.groups) return explosion.groups;
+    const run = (this.run += 1);
+    const { needCount, needPart, needBucket, needQty } = explosion;
+    const { groupStamp, groupIndex } = this;
+    // Group of each need, parts in order of first need, and how many needs each part has.
+    const groupOf = this.ints.take(needCount);
+    const partOf = this.ints.take(needCount);
+    const sizes = this.ints.take(needCount + 1);
+    let count = 0;
+    for (let index = 0; index < needCount; index += 1) {
+      const part = needPart[index];
+      if (groupStamp[part] !== run) {
+        groupStamp[part] = run;
+        groupIndex[part] = count;
+        partOf[count] = part;
+        count += 1;
+      }
+      const group = groupIndex[part];
+      groupOf[index] = group;
+      sizes[group + 1] += 1;
+    }
+    const start = this.ints.take(count + 1);
+    for (let group = 0; group < count; group += 1) start[group + 1] = start[group] + sizes[group + 1];
+    const fill = sizes;
+    fill.set(start.subarray(0, count));
+    const needs = this.ints.take(needCount);
+    for (let index = 0; index < needCount; index += 1) needs[fill[groupOf[index]]++] = index;
+    const groups: NeedGroups = {
+      count,
+      part: partOf.subarray(0, count),
+      start,
+      needs,
+      base: this.ints.take(count),
+      firstBucket: this.ints.take(count),
+      firstQty: this.floats.take(count),
+    };
+    for (let group = 0; group < count; group += 1) {
+      const first = needs[start[group]];
+      groups.base[group] = rowBase[partOf[group]];
+      groups.firstBucket[group] = needBucket[first];
+      groups.firstQty[group] = needQty[first];
+    }
+    explosion.groups = groups;
+    return explosion.groups;
+  }
+}
+
 /**
  * Explodes units through the plan model with pegging:
  * - a bought part is needed on the day of its parent (the build date, or a subassembly's start);
@@ -218,13 +285,11 @@ export class Exploder {
   private readonly readIndex: Int32Array;
   private readonly lackStamp: Int32Array;
   private readonly lackIndex: Int32Array;
-  private readonly groupStamp: Int32Array;
-  private readonly groupIndex: Int32Array;
   /** Explosions are many and small: their arrays are views into shared blocks. */
   private readonly ints = new TypedArena((size) => new Int32Array(size));
   private readonly floats = new TypedArena((size) => new Float64Array(size));
+  readonly grouper: NeedGrouper;
   private stamp = 0;
-  private groupRun = 0;
   private ledger!: StockLedger;
   private withLacks = false;
 
@@ -239,8 +304,7 @@ export class Exploder {
     this.readIndex = new Int32Array(parts);
     this.lackStamp = new Int32Array(parts);
     this.lackIndex = new Int32Array(parts);
-    this.groupStamp = new Int32Array(parts);
-    this.groupIndex = new Int32Array(parts);
+    this.grouper = new NeedGrouper(parts, this.ints, this.floats);
   }
 
   /**
@@ -298,50 +362,7 @@ export class Exploder {
 
   /** The explosion's needs grouped by part, worked out once; `rowBase` places the parts' rows in the ledgers. */
   needGroups(explosion: Explosion, rowBase: Int32Array): NeedGroups {
-    if (explosion.groups) return explosion.groups;
-    const run = (this.groupRun += 1);
-    const { needCount, needPart, needBucket, needQty } = explosion;
-    const { groupStamp, groupIndex } = this;
-    // Group of each need, parts in order of first need, and how many needs each part has.
-    const groupOf = this.ints.take(needCount);
-    const partOf = this.ints.take(needCount);
-    const sizes = this.ints.take(needCount + 1);
-    let count = 0;
-    for (let index = 0; index < needCount; index += 1) {
-      const part = needPart[index];
-      if (groupStamp[part] !== run) {
-        groupStamp[part] = run;
-        groupIndex[part] = count;
-        partOf[count] = part;
-        count += 1;
-      }
-      const group = groupIndex[part];
-      groupOf[index] = group;
-      sizes[group + 1] += 1;
-    }
-    const start = this.ints.take(count + 1);
-    for (let group = 0; group < count; group += 1) start[group + 1] = start[group] + sizes[group + 1];
-    const fill = sizes;
-    fill.set(start.subarray(0, count));
-    const needs = this.ints.take(needCount);
-    for (let index = 0; index < needCount; index += 1) needs[fill[groupOf[index]]++] = index;
-    const groups: NeedGroups = {
-      count,
-      part: partOf.subarray(0, count),
-      start,
-      needs,
-      base: this.ints.take(count),
-      firstBucket: this.ints.take(count),
-      firstQty: this.floats.take(count),
-    };
-    for (let group = 0; group < count; group += 1) {
-      const first = needs[start[group]];
-      groups.base[group] = rowBase[partOf[group]];
-      groups.firstBucket[group] = needBucket[first];
-      groups.firstQty[group] = needQty[first];
-    }
-    explosion.groups = groups;
-    return explosion.groups;
+    return this.grouper.groupsOf(explosion, rowBase);
   }
 
   /** A new explosion against `ledger`: a new stamp for the per-part scratch, and empty columns. */

@@ -1,13 +1,16 @@
-import {
-  Exploder,
-  holdsAgainst,
-  StockLedger,
-  stillHolds,
-  type Explosion,
-  type NeedGroups,
-} from './line-risk-explosion';
+import { Exploder, holdsAgainst, StockLedger, stillHolds, type Explosion } from './line-risk-explosion';
 import { LackRecordWriter, LineRiskRun, type LackRecords, type ShortPartFigures } from './line-risk-run';
-import { floatColumn, intColumn } from './typed-column';
+import { intColumn } from './typed-column';
+import {
+  entriesOf,
+  queueColumns,
+  queueLack,
+  walkQueueView,
+  writtenStream,
+  type QueueEntries,
+  type QueueHelper,
+  type QueueKeep,
+} from './line-risk-queue';
 import { BOUGHT, buildPlanModel, END_ITEM, PlanInputError, requireDate, type PlanModel } from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
@@ -256,17 +259,29 @@ export class LineRiskWalker {
   /** How the last walk went. */
   lastKind: WalkKind = 'full';
 
+  /** `helper` may walk the queue view of a walk afresh in another thread (see QueueHelper). */
+  constructor(private readonly helper: QueueHelper | null = null) {}
+
+  /**
+   * Groups by part the needs of every unit of the last walk, for the next walk to find them done:
+   * a walk whose queue view another thread walked leaves them to be worked out. For idle time.
+   */
+  groupAhead(): void {
+    const last = this.last;
+    if (last) for (const explosion of last.probed) last.exploder.needGroups(explosion, last.rowBase);
+  }
+
   walk(input: LineRiskInput): LineRiskRun {
     const previous = this.sinceFull < WALKS_BEFORE_FULL ? this.last : null;
     // Dropped first: if this walk throws, the next one starts afresh.
     this.last = null;
     let again: ReturnType<typeof walkAgain> = null;
     try {
-      again = previous && (walkAgain(previous, input) ?? judgeAgain(previous, input));
+      again = previous && (walkAgain(previous, input) ?? judgeAgain(previous, input, this.helper));
     } catch {
       // The full walk below reports whatever is wrong with the input.
     }
-    const done = again ?? { ...walkAll(input), kind: 'full' as const };
+    const done = again ?? { ...walkAll(input, this.helper), kind: 'full' as const };
     this.last = done.walked;
     this.lastKind = done.kind;
     this.sinceFull = done.kind === 'full' ? 0 : this.sinceFull + 1;
@@ -449,58 +464,6 @@ function loopSupplies(input: LineRiskInput, model: PlanModel): Map<number, LoopS
 }
 
 /**
- * The queue view of one part a unit needs (group `group` of its needs): what it lacks once the
- * units ahead are served, whatever the unit's other parts do; 0 when it lacks nothing, and then
- * its needs are committed.
- */
-function queueLack(queue: StockLedger, groups: NeedGroups, group: number, explosion: Explosion): number {
-  const { cells, least: leastOf, days } = queue;
-  const first = groups.start[group];
-  const end = groups.start[group + 1];
-  const base = groups.base[group];
-  if (end - first === 1) {
-    // Most parts are needed once per unit.
-    const qty = groups.firstQty[group];
-    const bucket = groups.firstBucket[group];
-    const lack = Math.max(0, qty - Math.max(0, leastOf[base + bucket]));
-    if (lack > epsilon) return lack;
-    queue.commitRow(base, bucket, qty);
-    return 0;
-  }
-  // Each need of the part after the first finds the unit's earlier needs of it already held.
-  const { needBucket, needQty } = explosion;
-  let lack = 0;
-  let heldSum = 0;
-  let heldLatest = -1;
-  for (let index = first; index < end; index += 1) {
-    const need = groups.needs[index];
-    const bucket = needBucket[need];
-    let free: number;
-    if (index === first) free = leastOf[base + bucket];
-    else if (heldLatest <= bucket) free = roundQty(leastOf[base + bucket] - heldSum);
-    else {
-      let least = Infinity;
-      for (let t = bucket; t < days; t += 1) {
-        let value = cells[base + t];
-        for (let held = first; held < index; held += 1)
-          if (needBucket[groups.needs[held]] <= t) value -= needQty[groups.needs[held]];
-        if (value < least) least = value;
-      }
-      free = roundQty(least);
-    }
-    lack += Math.max(0, needQty[need] - Math.max(0, free));
-    heldSum += needQty[need];
-    if (bucket > heldLatest) heldLatest = bucket;
-  }
-  if (lack > epsilon) return lack;
-  for (let index = first; index < end; index += 1) {
-    const need = groups.needs[index];
-    queue.commitRow(base, needBucket[need], needQty[need]);
-  }
-  return 0;
-}
-
-/**
  * The parts (of those marked in `among`, or all) whose projection runs below zero on some day:
  * supply to date less every unit's need to date. Only these can leave a unit short in the queue
  * view. Where supply covers every unit's need to every day, a unit finds its need free however
@@ -541,7 +504,7 @@ function structureOf(input: LineRiskInput): PlanModel {
 }
 
 /** Every unit walked. */
-function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
+function walkAll(input: LineRiskInput, helper: QueueHelper | null = null): { run: LineRiskRun; walked: Walked } {
   const model = structureOf(input);
   const { dayNumbers } = model;
   const days = model.days.length;
@@ -569,7 +532,13 @@ function walkAll(input: LineRiskInput): { run: LineRiskRun; walked: Walked } {
     }
     return explosion;
   });
-  return judgeUnits(input, { model, ordered, rowBase, exploder, probed: explosions, requiredByDay }, supply);
+  return judgeUnits(
+    input,
+    { model, ordered, rowBase, exploder, probed: explosions, requiredByDay },
+    supply,
+    null,
+    helper,
+  );
 }
 
 /** What every unit needs, as the probe walk found it: what a walk judges the units by. */
@@ -584,6 +553,7 @@ function judgeUnits(
   needs: UnitNeeds,
   { cumulativeSupply, firmReceiptQty, receiptsByDay }: ReturnType<typeof firmSupply>,
   reuse: QueueReuse | null = null,
+  helper: QueueHelper | null = null,
 ): { run: LineRiskRun; walked: Walked } {
   const { model, ordered, rowBase, exploder, probed: explosions, requiredByDay } = needs;
   const days = model.days.length;
@@ -613,15 +583,19 @@ function judgeUnits(
   // (or whose entries a walk since changed) are walked in the queue view again.
   const fresh = reuse ? freshParts(reuse, rowBase, days, cumulativeSupply) : null;
   const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply, fresh ?? undefined);
-  const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
-  const lacksStart = new Int32Array(ordered.length + 1);
-  const lacksPart = intColumn(1024);
-  const lacksQty = floatColumn(1024);
-  /** Per entry: the unit's first need of the part, which gives the slot's via and day. */
-  const lacksNeed = intColumn(1024);
-  /** The last walk's entries of the unit at hand, by part (stamped with the position + 1). */
-  const keptStamp = new Int32Array(parts.length);
-  const keptQty = new Float64Array(parts.length);
+  const keep: QueueKeep | null = reuse && { fresh: fresh!, last: reuse.last, lastPosition: reuse.lastPosition };
+  const walkHere = (): QueueEntries => {
+    const columns = queueColumns(ordered.length);
+    const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
+    walkQueueView(explosions, exploder.grouper, rowBase, queue, queued, keep, columns);
+    return entriesOf(columns);
+  };
+  // The queue view is walked before the units are judged. Walked afresh on a large plant, it may be
+  // walked beside the judging, in another thread. (Walked again, most of it is kept from the last
+  // walk: handing it over would save little, as the thread groups every unit's needs anew.)
+  const queueView =
+    (keep === null && helper?.({ units: explosions, rowBase, days, supply: cumulativeSupply, queued, walkHere })) ||
+    writtenStream(walkHere());
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
   const records = new LackRecordWriter(1024);
   const atRiskUnit = intColumn();
@@ -631,45 +605,12 @@ function judgeUnits(
   const unitStart = new Int32Array(ordered.length + 1);
   let unitsBuilt = 0;
 
-  /** Per part: its queue-view entry for the unit at hand (see lacksStart). */
+  /** Per part: its queue-view entry for the unit at hand. */
   const behindIndex = new Int32Array(parts.length);
   /** Per part: the unit (position + 1) it lacks now for, and which lack of the unit's explosion. */
   const nowStamp = new Int32Array(parts.length);
   const nowIndex = new Int32Array(parts.length);
   const rankScratch = new Int32Array(parts.length);
-
-  /**
-   * Queue view: each part serves this unit if it can, whatever the unit's other parts do; parts
-   * that can are committed. The parts that cannot are the unit's entries (lacksStart).
-   */
-  function queueLacks(explosion: Explosion, position: number): void {
-    const groups = exploder.needGroups(explosion, rowBase);
-    lacksStart[position] = lacksPart.length;
-    const last = reuse ? reuse.lastPosition[position] : -1;
-    if (last >= 0) {
-      const kept = reuse!.last;
-      for (let entry = kept.start[last]; entry < kept.start[last + 1]; entry += 1) {
-        keptStamp[kept.part[entry]] = position + 1;
-        keptQty[kept.part[entry]] = kept.qty[entry];
-      }
-    }
-    for (let group = 0; group < groups.count; group += 1) {
-      const part = groups.part[group];
-      let qty: number;
-      if (fresh === null || fresh[part] === 1) {
-        if (queued[part] === 0) continue;
-        const lack = queueLack(queue, groups, group, explosion);
-        if (lack === 0) continue;
-        qty = roundQty(lack);
-      } else {
-        if (keptStamp[part] !== position + 1) continue;
-        qty = keptQty[part];
-      }
-      lacksPart.push(part);
-      lacksQty.push(qty);
-      lacksNeed.push(groups.needs[groups.start[group]]);
-    }
-  }
 
   /** A slot of `part` for the unit at `position` (`atRisk`: its index among the units at risk, or -1). */
   function addSlot(
@@ -684,20 +625,15 @@ function judgeUnits(
     risks.note(part, records.push(position, part, qty, now ? 1 : 0, via, bucket), position, atRisk);
   }
 
-  // The queue view first, for every unit: a part can stop a unit that is buildable now only
-  // because a unit ahead of it, short of something else, is not taking its share.
-  for (let position = 0; position < ordered.length; position += 1) queueLacks(explosions[position], position);
-  lacksStart[ordered.length] = lacksPart.length;
-  const behindPart = lacksPart.done();
-  const behindQty = lacksQty.done();
-  const behindNeed = lacksNeed.done();
-
   ordered.forEach((entry, position) => {
     unitStart[position] = records.count;
     const stamp = position + 1;
     const mine = explosions[position];
-    const behindFirst = lacksStart[position];
-    const behindEnd = lacksStart[position + 1];
+    // The queue view's entries of the unit: a part can stop a unit that is buildable now only
+    // because a unit ahead of it, short of something else, is not taking its share.
+    const { start, part: behindPart, qty: behindQty, need: behindNeed } = queueView.ready(position);
+    const behindFirst = start[position];
+    const behindEnd = start[position + 1];
     // Evaluated again against the build ledger, which holds the commitments of the units built so far.
     const explosion = againstBuild.get(entry.model, entry.slot.qty, entry.bucket);
     judged[position] = explosion;
@@ -772,7 +708,7 @@ function judgeUnits(
     records: records.done(),
     unitStart,
     risks,
-    queueLacks: { start: lacksStart, part: behindPart, qty: behindQty, stale: null },
+    queueLacks: { ...queueView.keep(), stale: null },
   };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   return { run, walked };
@@ -986,7 +922,11 @@ function requiredWithout(last: Walked, gone: number): Float64Array {
  * changed, lead times, units, replenishment and suppliers edited, holidays set outside the days the
  * walk reads, a verdict changed by stock. Null for any other change (the walk is then done in full).
  */
-function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walked: Walked; kind: 'judged' } | null {
+function judgeAgain(
+  last: Walked,
+  input: LineRiskInput,
+  helper: QueueHelper | null = null,
+): { run: LineRiskRun; walked: Walked; kind: 'judged' } | null {
   const before = last.input;
   const { parts } = input;
   if (input.from !== before.from || input.to !== before.to || parts.length !== before.parts.length) return null;
@@ -1067,7 +1007,7 @@ function judgeAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; wal
     lastPosition: Int32Array.from(ordered, (entry) => lastAt.get(entry.slot.serial) ?? -1),
     touched,
   };
-  return { ...judgeUnits(input, needs, supply, reuse), kind: 'judged' };
+  return { ...judgeUnits(input, needs, supply, reuse, helper), kind: 'judged' };
 }
 
 /** Two units exploded alike: the same model and quantity, on the same day. */
@@ -1212,7 +1152,6 @@ function needAgain(
     if (bom.explodeAgain[entry.model] === 1) {
       explosion = explosions.get(entry.model, entry.slot.qty, entry.bucket);
       if (!sameTakes(explosion, last.probed[position])) return null;
-      bom.exploder.needGroups(explosion, rowBase);
       probed[position] = explosion;
     }
     const { needPart, needBucket, needQty, takePart, takeBucket, takeQty } = explosion;
@@ -1327,7 +1266,7 @@ function replayParts(
   for (let position = 0; position < ordered.length; position += 1) {
     unitStart[position] = records.count;
     const mine = probed[position];
-    const groups = mine.groups!;
+    const groups = walked.exploder.needGroups(mine, rowBase);
     behindGroup.length = 0;
     behindQty.length = 0;
     for (let group = 0; group < groups.count; group += 1) {

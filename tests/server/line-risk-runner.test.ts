@@ -7,6 +7,8 @@ import { toReport, type ReportBytes } from '../../server/line-risk/line-risk-rep
 import { LineRiskRunner, LineRiskWorkerError, type WorkerRequest } from '../../server/line-risk/line-risk-runner';
 import { summarise } from '../../server/line-risk/line-risk-summary';
 import { etagOf } from '../../server/http/serialised-body';
+import { addWorkingDays } from '../../shared/domain/calendar';
+import { generatePlanFixture } from '../bench/plan-fixture';
 
 const part = (partNumber: string, fields: Partial<LineRiskPart> = {}): LineRiskPart => ({
   partNumber,
@@ -127,6 +129,43 @@ describe('the line-risk worker thread', () => {
       expect(JSON.parse(text(bytes.json))).toMatchObject({ unitsAtRiskCount: 0, shortages: [] });
     } finally {
       posted.mockRestore();
+      await own.close();
+    }
+  });
+
+  it('has the queue view of a walk afresh walked beside it in a thread of its own, with the same answer', async () => {
+    // The benchmark plant, small: every walk afresh is handed to the helper (from 0 needs on).
+    const plant = generatePlanFixture({ partCount: 300, models: 4, workingDays: 15, unitsPerDay: 12 });
+    const own = new LineRiskRunner({ queueHelperFrom: 0 });
+    try {
+      // The helper's thread takes a moment to start; walks before it is up walk their queue view
+      // themselves. Each horizon is a walk afresh.
+      let helped = 0;
+      for (let days = 3; days <= 40 && helped === 0; days += 1) {
+        const walked: LineRiskInput = {
+          ...plant,
+          firmReceipts: plant.scheduledReceipts,
+          to: addWorkingDays(plant.from, days % 12, plant.calendar),
+        };
+        const bytes = await compute(`plant-${days}`, walked, own);
+        expect(text(bytes.json)).toBe(JSON.stringify(inPlace(walked)));
+        helped = await own.helped();
+        if (helped === 0) await new Promise((resolve) => setTimeout(resolve, 100));
+      }
+      expect(helped).toBeGreaterThan(0);
+      // And a walk after it, which keeps the queue view the helper found.
+      const later: LineRiskInput = {
+        ...plant,
+        firmReceipts: plant.scheduledReceipts,
+        to: addWorkingDays(plant.from, 11, plant.calendar),
+        parts: plant.parts.map((each, index) =>
+          index === 7 ? { ...each, leadTimeDays: each.leadTimeDays + 1 } : each,
+        ),
+      };
+      const before = { ...later, parts: plant.parts };
+      await compute('plant-before', before, own);
+      expect(text((await compute('plant-before', later, own)).json)).toBe(JSON.stringify(inPlace(later)));
+    } finally {
       await own.close();
     }
   });

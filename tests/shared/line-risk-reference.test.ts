@@ -12,6 +12,14 @@ import {
   type LineRiskPart,
   type LoopSupply,
 } from '../../shared/domain/line-risk';
+import {
+  flatEntries,
+  flattenQueueJob,
+  ownEntries,
+  walkFlatQueueJob,
+  type Memory,
+  type QueueHelper,
+} from '../../shared/domain/line-risk-queue';
 import { roundQty } from '../../shared/domain/quantity';
 import type { PlanningBomLine, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
 import { referenceLineRisk } from './line-risk-reference';
@@ -284,6 +292,40 @@ describe('computeLineRisk against the plain walk', () => {
     expect(kinds.kept).toBeGreaterThan(50);
     expect(kinds.full).toBeGreaterThan(50);
   }, 120_000);
+  it('walks alike with the queue view walked from a flat copy of its job, as the helper thread walks it', () => {
+    // The server has the queue view of a large walk afresh walked in another thread, from the job
+    // copied into flat arrays (shared memory there, plain here); a later walk keeps its entries.
+    let handed = 0;
+    const memory: Memory = (bytes) => new ArrayBuffer(bytes);
+    const flatHelper: QueueHelper = (job) => {
+      handed += 1;
+      const flat = flattenQueueJob(job, memory);
+      const entries = flatEntries(flat, memory);
+      walkFlatQueueJob(flat, entries);
+      return { ready: () => entries, keep: () => ownEntries(entries) };
+    };
+    const change = fc.record({
+      kind: fc.constantFrom('stock', 'made', 'leadTime', 'move', 'build', 'holiday'),
+      pick: fc.nat(),
+      qty: fc.integer({ min: -4, max: 9 }),
+      day: fc.integer({ min: -2, max: 18 }),
+    });
+    const kinds: Record<WalkKind, number> = { full: 0, parts: 0, bom: 0, built: 0, judged: 0, kept: 0 };
+    fc.assert(
+      fc.property(plantArbitrary, change, (plant, step) => {
+        const walker = new LineRiskWalker(flatHelper);
+        expect(walker.walk(plant).result()).toEqual(referenceLineRisk(plant));
+        const after = changed(plant, step);
+        expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
+        kinds[walker.lastKind] += 1;
+      }),
+      { numRuns: 300 },
+    );
+    expect(handed).toBeGreaterThanOrEqual(300);
+    // Walks after one the helper walked go on as after any other: part by part after a stock change.
+    expect(kinds.parts).toBeGreaterThan(20);
+    expect(kinds.judged).toBeGreaterThan(50);
+  });
   it('works the resequence rescue out again when a unit it tried needs a changed part', () => {
     // M0 on Tuesday lacks B1; M1 on Wednesday needs one B0. With one B0 on hand M1 could take M0's
     // place; with none on hand (one arrives on Wednesday) it is still built on its own day, but can
