@@ -373,7 +373,8 @@ describe.skipIf(!onPostgres)('two app nodes over one PostgreSQL database', () =>
           testPart('MODEL-E', { source: 'end_item', supplierCode: null, replenishment: null }),
           testPart('BOLT-E', { onHand: 100, replenishment: 'scheduled' }),
           testPart('MODEL-F', { source: 'end_item', supplierCode: null, replenishment: null }),
-          testPart('MOTOR-F', { onHand: 1, description: 'Drive motor' }),
+          // Two working days to bring: short today, it can only be expedited (an alarm).
+          testPart('MOTOR-F', { onHand: 1, leadTimeDays: 2, description: 'Drive motor' }),
         ]);
         await replaceBomLines(manager, [
           { parent: 'MODEL-E', component: 'BOLT-E', qtyPer: 2, scrapPct: 0, effectiveFrom: null, effectiveTo: null },
