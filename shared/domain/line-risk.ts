@@ -558,14 +558,6 @@ function judgeUnits(
   const { model, ordered, rowBase, exploder, probed: explosions, requiredByDay } = needs;
   const days = model.days.length;
   const { parts } = input;
-  const countable = Uint8Array.from(parts, (part) => (COUNTABLE_UNITS.has(part.uom ?? 'H87') ? 1 : 0));
-  // Parts by part number, and each part's place in that order.
-  const partAtRank = Int32Array.from(
-    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
-  );
-  const rankOf = new Int32Array(parts.length);
-  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
-
   // --- Supply: kanban loops pull; every other part has on-hand and firm receipts ---
   const loopByPart = loopSupplies(input, model);
   for (const [part, loop] of loopByPart) {
@@ -575,10 +567,7 @@ function judgeUnits(
 
   // --- The walk ---
 
-  // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
-  // These explosions are the walk's own: made apart from the needs, which the next walks may keep.
-  const build = new StockLedger(days, cumulativeSupply, rowBase);
-  const againstBuild = new ExplosionCache(new Exploder(model), build, true);
+  // The queue view first: a thread that walks it beside the judging starts as early as it can.
   // With the last walk's queue view at hand, only the parts whose needs or supply may have changed
   // (or whose entries a walk since changed) are walked in the queue view again.
   const fresh = reuse ? freshParts(reuse, rowBase, days, cumulativeSupply) : null;
@@ -590,12 +579,24 @@ function judgeUnits(
     walkQueueView(explosions, exploder.grouper, rowBase, queue, queued, keep, columns);
     return entriesOf(columns);
   };
-  // The queue view is walked before the units are judged. Walked afresh on a large plant, it may be
-  // walked beside the judging, in another thread. (Walked again, most of it is kept from the last
-  // walk: handing it over would save little, as the thread groups every unit's needs anew.)
+  // Walked afresh on a large plant, it may be walked beside the judging, in another thread. (Walked
+  // again, most of it is kept from the last walk: handing it over would save little, as the thread
+  // groups every unit's needs anew.)
   const queueView =
     (keep === null && helper?.({ units: explosions, rowBase, days, supply: cumulativeSupply, queued, walkHere })) ||
     writtenStream(walkHere());
+
+  const countable = Uint8Array.from(parts, (part) => (COUNTABLE_UNITS.has(part.uom ?? 'H87') ? 1 : 0));
+  // Parts by part number, and each part's place in that order.
+  const partAtRank = Int32Array.from(
+    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
+  );
+  const rankOf = new Int32Array(parts.length);
+  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
+  // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
+  // These explosions are the walk's own: made apart from the needs, which the next walks may keep.
+  const build = new StockLedger(days, cumulativeSupply, rowBase);
+  const againstBuild = new ExplosionCache(new Exploder(model), build, true);
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
   const records = new LackRecordWriter(1024);
   const atRiskUnit = intColumn();
