@@ -196,8 +196,11 @@ export class NeedGrouper {
     this.groupIndex = new Int32Array(partCount);
   }
 
-  /** The needs grouped by part, worked out once; `rowBase` places the parts' rows in the ledgers. */
-  groupsOf(explosion: UnitNeeds, rowBase: Int32Array): NeedGroups {
+  /**
+   * The needs grouped by part, worked out once; `rowBase` places the parts' rows in the ledgers.
+   * With `only`, the needs of the parts marked 1 alone (for a walk that reads no others).
+   */
+  groupsOf(explosion: UnitNeeds, rowBase: Int32Array, only?: Uint8Array): NeedGroups {
     if (explosion.groups) return explosion.groups;
     const run = (this.run += 1);
     const { needCount, needPart, needBucket, needQty } = explosion;
@@ -209,6 +212,10 @@ export class NeedGrouper {
     let count = 0;
     for (let index = 0; index < needCount; index += 1) {
       const part = needPart[index];
+      if (only && only[part] !== 1) {
+        groupOf[index] = -1;
+        continue;
+      }
       if (groupStamp[part] !== run) {
         groupStamp[part] = run;
         groupIndex[part] = count;
@@ -224,7 +231,7 @@ export class NeedGrouper {
     const fill = sizes;
     fill.set(start.subarray(0, count));
     const needs = this.ints.take(needCount);
-    for (let index = 0; index < needCount; index += 1) needs[fill[groupOf[index]]++] = index;
+    for (let index = 0; index < needCount; index += 1) if (groupOf[index] >= 0) needs[fill[groupOf[index]]++] = index;
     const groups: NeedGroups = {
       count,
       part: partOf.subarray(0, count),

@@ -58,7 +58,8 @@ export interface QueueKeep {
 /**
  * Walks the queue view of the units' needs (in build order) against `queue`, a ledger holding the
  * rows of the parts marked in `queued` (the others never run short), into `out`. `done(n)` is
- * told each time the first n units are written.
+ * told each time the first n units are written. `groupQueuedOnly`: the units' needs are grouped for
+ * this walk alone (a walk afresh reads no other part's), not for later walks to keep.
  */
 export function walkQueueView(
   units: readonly UnitNeeds[],
@@ -69,13 +70,14 @@ export function walkQueueView(
   keep: QueueKeep | null,
   out: QueueColumns,
   done?: (units: number) => void,
+  groupQueuedOnly = false,
 ): void {
   const { start, part: outPart, qty: outQty, need: outNeed } = out;
   const keptStamp = keep ? new Int32Array(rowBase.length) : null;
   const keptQty = keep ? new Float64Array(rowBase.length) : null;
   for (let position = 0; position < units.length; position += 1) {
     const explosion = units[position];
-    const groups = grouper.groupsOf(explosion, rowBase);
+    const groups = grouper.groupsOf(explosion, rowBase, groupQueuedOnly && keep === null ? queued : undefined);
     start[position] = outPart.length;
     const last = keep ? keep.lastPosition[position] : -1;
     if (last >= 0) {
@@ -284,7 +286,8 @@ export function walkFlatQueueJob(flat: FlatQueueJob, entries: QueueEntries, done
     need: new TypedColumn(entries.need, full),
   };
   const queue = new StockLedger(flat.days, flat.supply, flat.rowBase, flat.queued);
-  walkQueueView(units, new NeedGrouper(flat.rowBase.length), flat.rowBase, queue, flat.queued, null, columns, done);
+  const grouper = new NeedGrouper(flat.rowBase.length);
+  walkQueueView(units, grouper, flat.rowBase, queue, flat.queued, null, columns, done, true);
 }
 
 /** The first `start[units]` entries, in arrays of their own. */
