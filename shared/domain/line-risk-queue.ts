@@ -32,8 +32,9 @@ export interface QueueColumns {
   need: TypedColumn<Int32Array>;
 }
 
-export function queueColumns(units: number): QueueColumns {
-  return { start: new Int32Array(units + 1), part: intColumn(1024), qty: floatColumn(1024), need: intColumn(1024) };
+/** Columns for `units` units, with room for `room` entries before they grow. */
+export function queueColumns(units: number, room = 1024): QueueColumns {
+  return { start: new Int32Array(units + 1), part: intColumn(room), qty: floatColumn(room), need: intColumn(room) };
 }
 
 export function entriesOf(columns: QueueColumns): QueueEntries {

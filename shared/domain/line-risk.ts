@@ -272,6 +272,7 @@ export class LineRiskWalker {
   }
 
   walk(input: LineRiskInput): LineRiskRun {
+    const sizes = this.last && sizesOf(this.last);
     const previous = this.sinceFull < WALKS_BEFORE_FULL ? this.last : null;
     // Dropped first: if this walk throws, the next one starts afresh.
     this.last = null;
@@ -281,7 +282,7 @@ export class LineRiskWalker {
     } catch {
       // The full walk below reports whatever is wrong with the input.
     }
-    const done = again ?? { ...walkAll(input, this.helper), kind: 'full' as const };
+    const done = again ?? { ...walkAll(input, this.helper, sizes), kind: 'full' as const };
     this.last = done.walked;
     this.lastKind = done.kind;
     this.sinceFull = done.kind === 'full' ? 0 : this.sinceFull + 1;
@@ -504,7 +505,11 @@ function structureOf(input: LineRiskInput): PlanModel {
 }
 
 /** Every unit walked. */
-function walkAll(input: LineRiskInput, helper: QueueHelper | null = null): { run: LineRiskRun; walked: Walked } {
+function walkAll(
+  input: LineRiskInput,
+  helper: QueueHelper | null = null,
+  sizes: WalkSizes | null = null,
+): { run: LineRiskRun; walked: Walked } {
   const model = structureOf(input);
   const { dayNumbers } = model;
   const days = model.days.length;
@@ -538,7 +543,27 @@ function walkAll(input: LineRiskInput, helper: QueueHelper | null = null): { run
     supply,
     null,
     helper,
+    sizes,
   );
+}
+
+/**
+ * How many slot records and queue-view entries a walk wrote: the next walk sizes its columns by
+ * them, for a plant's walks write about as many each time (at 16 times the demo plant over half a
+ * million of each; grown by doubling, they were copied over and again, and collected).
+ */
+interface WalkSizes {
+  records: number;
+  entries: number;
+}
+
+function sizesOf(walked: Walked): WalkSizes {
+  return { records: walked.records.count, entries: walked.queueLacks?.part.length ?? 0 };
+}
+
+/** Room for about `size` values and an eighth more; a little when unknown. */
+function roomFor(size: number | undefined): number {
+  return size ? size + (size >> 3) + 1024 : 1024;
 }
 
 /** What every unit needs, as the probe walk found it: what a walk judges the units by. */
@@ -554,6 +579,7 @@ function judgeUnits(
   { cumulativeSupply, firmReceiptQty, receiptsByDay }: ReturnType<typeof firmSupply>,
   reuse: QueueReuse | null = null,
   helper: QueueHelper | null = null,
+  sizes: WalkSizes | null = null,
 ): { run: LineRiskRun; walked: Walked } {
   const { model, ordered, rowBase, exploder, probed: explosions, requiredByDay } = needs;
   const days = model.days.length;
@@ -574,7 +600,7 @@ function judgeUnits(
   const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply, fresh ?? undefined);
   const keep: QueueKeep | null = reuse && { fresh: fresh!, last: reuse.last, lastPosition: reuse.lastPosition };
   const walkHere = (): QueueEntries => {
-    const columns = queueColumns(ordered.length);
+    const columns = queueColumns(ordered.length, roomFor(sizes?.entries));
     const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
     walkQueueView(explosions, exploder.grouper, rowBase, queue, queued, keep, columns);
     return entriesOf(columns);
@@ -598,7 +624,7 @@ function judgeUnits(
   const build = new StockLedger(days, cumulativeSupply, rowBase);
   const againstBuild = new ExplosionCache(new Exploder(model), build, true);
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
-  const records = new LackRecordWriter(1024);
+  const records = new LackRecordWriter(roomFor(sizes?.records));
   const atRiskUnit = intColumn();
   const judged: Explosion[] = new Array(ordered.length);
   const built = new Uint8Array(ordered.length);
@@ -1008,7 +1034,7 @@ function judgeAgain(
     lastPosition: Int32Array.from(ordered, (entry) => lastAt.get(entry.slot.serial) ?? -1),
     touched,
   };
-  return { ...judgeUnits(input, needs, supply, reuse, helper), kind: 'judged' };
+  return { ...judgeUnits(input, needs, supply, reuse, helper, sizesOf(last)), kind: 'judged' };
 }
 
 /** Two units exploded alike: the same model and quantity, on the same day. */
