@@ -5,6 +5,7 @@ import {
   flatEntries,
   flattenQueueJob,
   ownEntries,
+  type KeptEntries,
   type Memory,
   type QueueEntries,
   type QueueHelper,
@@ -108,7 +109,7 @@ class SharedQueueStream implements QueueStream {
     return this.entries;
   }
 
-  keep(): QueueEntries {
+  keep(): KeptEntries {
     const units = this.job.units.length;
     const entries = units > 0 ? this.ready(units - 1) : this.entries;
     // The shared arrays are sized for the worst case and go with this walk.

@@ -46,13 +46,16 @@ export function entriesOf(columns: QueueColumns): QueueEntries {
   };
 }
 
+/** What a walk keeps of its queue view for the next one: the entries' first needs are not read again. */
+export type KeptEntries = Pick<QueueEntries, 'start' | 'part' | 'qty'>;
+
 /**
  * The last walk's queue view lent to this one: the entries of the parts not marked in `fresh` are
  * kept as they were for the same unit (its position then in `lastPosition`, or -1).
  */
 export interface QueueKeep {
   fresh: Uint8Array;
-  last: Pick<QueueEntries, 'start' | 'part' | 'qty'>;
+  last: KeptEntries;
   lastPosition: Int32Array;
 }
 
@@ -166,7 +169,7 @@ export interface QueueStream {
   /** The entries, once those of the units up to `position` are written. */
   ready(position: number): QueueEntries;
   /** The entries, every array its own (for the next walk to keep), once all are written. */
-  keep(): QueueEntries;
+  keep(): KeptEntries;
 }
 
 /** What a walk hands a helper that walks its queue view afresh in another thread. */
@@ -291,13 +294,8 @@ export function walkFlatQueueJob(flat: FlatQueueJob, entries: QueueEntries, done
   walkQueueView(units, grouper, flat.rowBase, queue, flat.queued, null, columns, done, true);
 }
 
-/** The first `start[units]` entries, in arrays of their own. */
-export function ownEntries(entries: QueueEntries): QueueEntries {
+/** The first `start[units]` entries as a walk keeps them, in arrays of their own. */
+export function ownEntries(entries: QueueEntries): KeptEntries {
   const count = entries.start[entries.start.length - 1];
-  return {
-    start: entries.start.slice(),
-    part: entries.part.slice(0, count),
-    qty: entries.qty.slice(0, count),
-    need: entries.need.slice(0, count),
-  };
+  return { start: entries.start.slice(), part: entries.part.slice(0, count), qty: entries.qty.slice(0, count) };
 }

@@ -7,6 +7,7 @@ import {
   queueLack,
   walkQueueView,
   writtenStream,
+  type KeptEntries,
   type QueueEntries,
   type QueueHelper,
   type QueueKeep,
@@ -449,6 +450,11 @@ interface QueueReuse {
   touched: Uint8Array;
 }
 
+/** The entries a walk keeps, without what else the arrays object carries (the first needs). */
+function keptOf({ start, part, qty }: QueueEntries | KeptEntries): KeptEntries {
+  return { start, part, qty };
+}
+
 /** A countable part (pieces, sets, pairs) is never short by a fraction. */
 function wholeIfCountable(countable: Uint8Array, part: number, qty: number): number {
   return countable[part] === 1 ? Math.ceil(qty - epsilon) : roundQty(qty);
@@ -735,7 +741,7 @@ function judgeUnits(
     records: records.done(),
     unitStart,
     risks,
-    queueLacks: { ...queueView.keep(), stale: null },
+    queueLacks: { ...keptOf(queueView.keep()), stale: null },
   };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   return { run, walked };
