@@ -1,8 +1,12 @@
 import type { LineRiskResult, PartShortage, ResequenceOption, SlotAtRisk, UnitAtRisk } from './line-risk';
+import { roundQty } from './quantity';
 import type { IsoDate, SequenceSlot } from './types';
 
-/** A short part's figures; its slots at risk stay in the run (see LineRiskRun.slotsAtRisk). */
-export type ShortPartFigures = Omit<PartShortage, 'slotsAtRisk'>;
+/**
+ * A short part's figures; its slots at risk stay in the run (see LineRiskRun.slotsAtRisk), and so
+ * does its need per day, which the report does not show (see LineRiskRunParts.requiredByDay).
+ */
+export type ShortPartFigures = Omit<PartShortage, 'slotsAtRisk' | 'requiredByDay'>;
 
 /**
  * What the walk found a part lacking for a unit, one record each in walk order, as flat arrays:
@@ -112,6 +116,8 @@ export interface LineRiskRunParts {
   /** In display order, with the part index of each. */
   shortages: readonly ShortPartFigures[];
   shortParts: Int32Array;
+  /** Each short part's need per working day of the horizon, unrounded: shortage i's at i × days … (i + 1) × days - 1. */
+  requiredByDay: Float64Array;
 }
 
 /**
@@ -204,8 +210,14 @@ export class LineRiskRun {
       inFrozenWindow: figures.inFrozenWindow,
       loop: figures.loop,
       rescue: figures.rescue,
-      requiredByDay: figures.requiredByDay,
+      requiredByDay: this.requiredByDay(index),
     };
+  }
+
+  /** A short part's need per working day, made into a list only when asked for (the report leaves it out). */
+  private requiredByDay(index: number): number[] {
+    const days = this.header.days.length;
+    return Array.from(this.parts.requiredByDay.subarray(index * days, (index + 1) * days), (qty) => roundQty(qty));
   }
 
   /** The whole answer, every unit and slot at risk as an object. */

@@ -1450,7 +1450,6 @@ function finish(
       inFrozenWindow: frozenEnd !== null && firstShortDay <= frozenEnd,
       loop: loop ? { activeCards: loop.activeCards, recommendedCards: loop.recommendedCards } : null,
       rescue: { expedite: { qty: needBy[0].qty, needBy: needBy[0].date }, resequence: risk.resequence },
-      requiredByDay: Array.from(requiredByDay.subarray(rowBase[part], rowBase[part] + days)).map(roundQty),
     };
     shortages.push({ figures, part });
   }
@@ -1461,6 +1460,10 @@ function finish(
       compareText(a.partNumber, b.partNumber),
   );
 
+  const shortRequired = new Float64Array(shortages.length * days);
+  shortages.forEach(({ part }, index) =>
+    shortRequired.set(requiredByDay.subarray(rowBase[part], rowBase[part] + days), index * days),
+  );
   const { atRiskUnit } = walked;
   return new LineRiskRun({
     header: {
@@ -1482,6 +1485,7 @@ function finish(
     resequence: risks.resequence,
     shortages: shortages.map((shortage) => shortage.figures),
     shortParts: Int32Array.from(shortages.map((shortage) => shortage.part)),
+    requiredByDay: shortRequired,
   });
 }
 
