@@ -2,8 +2,8 @@ import type { LineRiskResult, PartShortage, SlotAtRisk, UnitAtRisk } from '../..
 import { LineRiskRun } from '../../shared/domain/line-risk-run';
 import { SLOTS_PER_SHORTAGE, UNITS_PER_REPORT } from '../../shared/schemas/line-risk';
 
-/** A short part with its first slots at risk and how many there are in all. */
-export type ShortageSummary = PartShortage & { slotsAtRiskCount: number };
+/** A short part with its first slots at risk and how many there are in all (the report shows no need per day). */
+export type ShortageSummary = Omit<PartShortage, 'requiredByDay'> & { slotsAtRiskCount: number };
 
 /**
  * The line risk as the report needs it: every short part, but only the first units at risk and
@@ -35,7 +35,7 @@ export function summarise(result: LineRiskRun | LineRiskResult): LineRiskSummary
     ...result,
     unitsAtRisk: result.unitsAtRisk.slice(0, UNITS_PER_REPORT),
     unitsAtRiskCount: result.unitsAtRisk.length,
-    shortages: result.shortages.map((shortage) => ({
+    shortages: result.shortages.map(({ requiredByDay: _, ...shortage }) => ({
       ...shortage,
       slotsAtRisk: shortage.slotsAtRisk.slice(0, SLOTS_PER_SHORTAGE),
       slotsAtRiskCount: shortage.slotsAtRisk.length,

@@ -191,8 +191,8 @@ export class LineRiskRun {
     return this.shortageOf.get(partNumber);
   }
 
-  /** A short part with the slots given. */
-  shortageWith(index: number, slotsAtRisk: SlotAtRisk[]): PartShortage {
+  /** A short part with the slots given, without its need per day (see `requiredByDay`). */
+  shortageWith(index: number, slotsAtRisk: SlotAtRisk[]): Omit<PartShortage, 'requiredByDay'> {
     const figures = this.shortages[index];
     return {
       partNumber: figures.partNumber,
@@ -210,12 +210,11 @@ export class LineRiskRun {
       inFrozenWindow: figures.inFrozenWindow,
       loop: figures.loop,
       rescue: figures.rescue,
-      requiredByDay: this.requiredByDay(index),
     };
   }
 
   /** A short part's need per working day, made into a list only when asked for (the report leaves it out). */
-  private requiredByDay(index: number): number[] {
+  requiredByDay(index: number): number[] {
     const days = this.header.days.length;
     return Array.from(this.parts.requiredByDay.subarray(index * days, (index + 1) * days), (qty) => roundQty(qty));
   }
@@ -225,7 +224,9 @@ export class LineRiskRun {
     return {
       ...this.header,
       unitsAtRisk: this.unitsAtRisk(),
-      shortages: this.shortages.map((_, index) => this.shortageWith(index, this.slotsAtRisk(index))),
+      shortages: this.shortages.map((_, index) =>
+        Object.assign(this.shortageWith(index, this.slotsAtRisk(index)), { requiredByDay: this.requiredByDay(index) }),
+      ),
     };
   }
 
