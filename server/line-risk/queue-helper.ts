@@ -5,7 +5,6 @@ import {
   flatEntries,
   flattenQueueJob,
   ownEntries,
-  type KeptEntries,
   type Memory,
   type QueueEntries,
   type QueueHelper,
@@ -109,7 +108,7 @@ class SharedQueueStream implements QueueStream {
     return this.entries;
   }
 
-  keep(): KeptEntries {
+  keep(): QueueEntries {
     const units = this.job.units.length;
     const entries = units > 0 ? this.ready(units - 1) : this.entries;
     // The shared arrays are sized for the worst case and go with this walk.

@@ -46,16 +46,16 @@ export function entriesOf(columns: QueueColumns): QueueEntries {
   };
 }
 
-/** What a walk keeps of its queue view for the next one: the entries' first needs are not read again. */
-export type KeptEntries = Pick<QueueEntries, 'start' | 'part' | 'qty'>;
-
 /**
  * The last walk's queue view lent to this one: the entries of the parts not marked in `fresh` are
- * kept as they were for the same unit (its position then in `lastPosition`, or -1).
+ * kept as they were for the same unit (its position then in `lastPosition`, or -1). `lastUnits`:
+ * the explosions the entries were found for, by position then (an entry's first need indexes its
+ * unit's explosion).
  */
 export interface QueueKeep {
   fresh: Uint8Array;
-  last: KeptEntries;
+  last: QueueEntries;
+  lastUnits: readonly UnitNeeds[];
   lastPosition: Int32Array;
 }
 
@@ -63,7 +63,8 @@ export interface QueueKeep {
  * Walks the queue view of the units' needs (in build order) against `queue`, a ledger holding the
  * rows of the parts marked in `queued` (the others never run short), into `out`. `done(n)` is
  * told each time the first n units are written. `groupQueuedOnly`: the units' needs are grouped for
- * this walk alone (a walk afresh reads no other part's), not for later walks to keep.
+ * this walk alone (a walk afresh reads no other part's), not for later walks to keep. A unit's
+ * entries come in no particular order of parts.
  */
 export function walkQueueView(
   units: readonly UnitNeeds[],
@@ -79,33 +80,77 @@ export function walkQueueView(
   const { start, part: outPart, qty: outQty, need: outNeed } = out;
   const keptStamp = keep ? new Int32Array(rowBase.length) : null;
   const keptQty = keep ? new Float64Array(rowBase.length) : null;
+  /** Per explosion: its groups of the parts walked afresh that may run short (most units share an explosion). */
+  const freshGroups = new Map<UnitNeeds, number[]>();
+  const push = (part: number, qty: number, need: number) => {
+    outPart.push(part);
+    outQty.push(qty);
+    outNeed.push(need);
+  };
   for (let position = 0; position < units.length; position += 1) {
     const explosion = units[position];
-    const groups = grouper.groupsOf(explosion, rowBase, groupQueuedOnly && keep === null ? queued : undefined);
     start[position] = outPart.length;
     const last = keep ? keep.lastPosition[position] : -1;
-    if (last >= 0) {
+    if (last >= 0 && keep!.lastUnits[last] === explosion) {
+      // The same explosion as then: its entries of the parts that stand are copied as they are,
+      // and only the parts walked afresh are looked for among its needs.
       const kept = keep!.last;
-      for (let entry = kept.start[last]; entry < kept.start[last + 1]; entry += 1) {
-        keptStamp![kept.part[entry]] = position + 1;
-        keptQty![kept.part[entry]] = kept.qty[entry];
+      const from = kept.start[last];
+      const to = kept.start[last + 1];
+      // Written straight into the columns, with room made once: most entries of a walk come here.
+      let at = outPart.length;
+      outPart.reserve(at + to - from);
+      outQty.reserve(at + to - from);
+      outNeed.reserve(at + to - from);
+      const { values: parts } = outPart;
+      const { values: qtys } = outQty;
+      const { values: needs } = outNeed;
+      for (let entry = from; entry < to; entry += 1) {
+        const part = kept.part[entry];
+        if (keep!.fresh[part] === 1) continue;
+        parts[at] = part;
+        qtys[at] = kept.qty[entry];
+        needs[at] = kept.need[entry];
+        at += 1;
       }
-    }
-    for (let group = 0; group < groups.count; group += 1) {
-      const part = groups.part[group];
-      let qty: number;
-      if (keep === null || keep.fresh[part] === 1) {
-        if (queued[part] === 0) continue;
+      outPart.length = outQty.length = outNeed.length = at;
+      const groups = grouper.groupsOf(explosion, rowBase);
+      let walked = freshGroups.get(explosion);
+      if (!walked) {
+        walked = [];
+        for (let group = 0; group < groups.count; group += 1) {
+          const part = groups.part[group];
+          if (keep!.fresh[part] === 1 && queued[part] === 1) walked.push(group);
+        }
+        freshGroups.set(explosion, walked);
+      }
+      for (const group of walked) {
         const lack = queueLack(queue, groups, group, explosion);
-        if (lack === 0) continue;
-        qty = roundQty(lack);
-      } else {
-        if (keptStamp![part] !== position + 1) continue;
-        qty = keptQty![part];
+        if (lack !== 0) push(groups.part[group], roundQty(lack), groups.needs[groups.start[group]]);
       }
-      outPart.push(part);
-      outQty.push(qty);
-      outNeed.push(groups.needs[groups.start[group]]);
+    } else {
+      const groups = grouper.groupsOf(explosion, rowBase, groupQueuedOnly && keep === null ? queued : undefined);
+      if (last >= 0) {
+        const kept = keep!.last;
+        for (let entry = kept.start[last]; entry < kept.start[last + 1]; entry += 1) {
+          keptStamp![kept.part[entry]] = position + 1;
+          keptQty![kept.part[entry]] = kept.qty[entry];
+        }
+      }
+      for (let group = 0; group < groups.count; group += 1) {
+        const part = groups.part[group];
+        let qty: number;
+        if (keep === null || keep.fresh[part] === 1) {
+          if (queued[part] === 0) continue;
+          const lack = queueLack(queue, groups, group, explosion);
+          if (lack === 0) continue;
+          qty = roundQty(lack);
+        } else {
+          if (keptStamp![part] !== position + 1) continue;
+          qty = keptQty![part];
+        }
+        push(part, qty, groups.needs[groups.start[group]]);
+      }
     }
     start[position + 1] = outPart.length;
     done?.(position + 1);
@@ -169,7 +214,7 @@ export interface QueueStream {
   /** The entries, once those of the units up to `position` are written. */
   ready(position: number): QueueEntries;
   /** The entries, every array its own (for the next walk to keep), once all are written. */
-  keep(): KeptEntries;
+  keep(): QueueEntries;
 }
 
 /** What a walk hands a helper that walks its queue view afresh in another thread. */
@@ -295,7 +340,12 @@ export function walkFlatQueueJob(flat: FlatQueueJob, entries: QueueEntries, done
 }
 
 /** The first `start[units]` entries as a walk keeps them, in arrays of their own. */
-export function ownEntries(entries: QueueEntries): KeptEntries {
+export function ownEntries(entries: QueueEntries): QueueEntries {
   const count = entries.start[entries.start.length - 1];
-  return { start: entries.start.slice(), part: entries.part.slice(0, count), qty: entries.qty.slice(0, count) };
+  return {
+    start: entries.start.slice(),
+    part: entries.part.slice(0, count),
+    qty: entries.qty.slice(0, count),
+    need: entries.need.slice(0, count),
+  };
 }

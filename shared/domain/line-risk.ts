@@ -7,7 +7,6 @@ import {
   queueLack,
   walkQueueView,
   writtenStream,
-  type KeptEntries,
   type QueueEntries,
   type QueueHelper,
   type QueueKeep,
@@ -427,15 +426,13 @@ interface Walked {
 
 /**
  * What each unit lacks of each part only behind the units ahead of it (the queue view): the
- * entries of the unit at position u are start[u] … start[u + 1] - 1. The queue view of a part
- * depends only on that part's supply and on the needs of it of the units in order: as long as those
- * stand, so do its entries. `stale` marks the parts whose entries a later walk changed (a walk of
- * those parts alone again), so they are no longer to be kept.
+ * entries of the unit at position u are start[u] … start[u + 1] - 1, found for the explosion
+ * units[u]. The queue view of a part depends only on that part's supply and on the needs of it of
+ * the units in order: as long as those stand, so do its entries. `stale` marks the parts whose
+ * entries a later walk changed (a walk of those parts alone again), so they are no longer to be kept.
  */
-interface QueueLacks {
-  start: Int32Array;
-  part: Int32Array;
-  qty: Float64Array;
+interface QueueLacks extends QueueEntries {
+  units: readonly Explosion[];
   stale: Uint8Array | null;
 }
 
@@ -450,9 +447,9 @@ interface QueueReuse {
   touched: Uint8Array;
 }
 
-/** The entries a walk keeps, without what else the arrays object carries (the first needs). */
-function keptOf({ start, part, qty }: QueueEntries | KeptEntries): KeptEntries {
-  return { start, part, qty };
+/** The entries a walk keeps, without what else the arrays object carries. */
+function keptOf({ start, part, qty, need }: QueueEntries): QueueEntries {
+  return { start, part, qty, need };
 }
 
 /** A countable part (pieces, sets, pairs) is never short by a fraction. */
@@ -604,7 +601,12 @@ function judgeUnits(
   // (or whose entries a walk since changed) are walked in the queue view again.
   const fresh = reuse ? freshParts(reuse, rowBase, days, cumulativeSupply) : null;
   const queued = mayRunShort(rowBase, days, requiredByDay, cumulativeSupply, fresh ?? undefined);
-  const keep: QueueKeep | null = reuse && { fresh: fresh!, last: reuse.last, lastPosition: reuse.lastPosition };
+  const keep: QueueKeep | null = reuse && {
+    fresh: fresh!,
+    last: reuse.last,
+    lastUnits: reuse.last.units,
+    lastPosition: reuse.lastPosition,
+  };
   const walkHere = (): QueueEntries => {
     const columns = queueColumns(ordered.length, roomFor(sizes?.entries));
     const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
@@ -741,7 +743,7 @@ function judgeUnits(
     records: records.done(),
     unitStart,
     risks,
-    queueLacks: { ...keptOf(queueView.keep()), stale: null },
+    queueLacks: { ...keptOf(queueView.keep()), units: explosions, stale: null },
   };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   return { run, walked };
@@ -840,8 +842,6 @@ function walkAgain(last: Walked, input: LineRiskInput): { run: LineRiskRun; walk
     if (!replayed) return null;
     walked = { ...walked, ...replayed, queueLacks: withStale(walked.queueLacks, inChanged) };
   }
-  // Units built are gone from the head of the order: the queue view's entries no longer line up.
-  if (base !== last) walked = { ...walked, queueLacks: null };
   const run = finish(walked, { firmReceiptQty, loopByPart });
   const kind = base !== last ? 'built' : bom ? 'bom' : changed > 0 ? 'parts' : 'kept';
   return { run, walked, kind };
@@ -913,6 +913,13 @@ function withoutBuilt(last: Walked, sequence: SequenceSlot[]): Walked | false {
     unitsBuilt: last.unitsBuilt - gone,
     records: { ...old, unit: old.unit.map((position) => position - gone) },
     unitStart: last.unitStart.subarray(gone),
+    // The same holds in the queue view: the units built took their needs there too, and left no
+    // entries; the others keep theirs.
+    queueLacks: last.queueLacks && {
+      ...last.queueLacks,
+      start: last.queueLacks.start.subarray(gone),
+      units: last.queueLacks.units.slice(gone),
+    },
   };
 }
 

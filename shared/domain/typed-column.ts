@@ -9,13 +9,17 @@ export class TypedColumn<T extends Int32Array | Float64Array | Uint8Array> {
 
   /** Appends a value; returns its index. */
   push(value: number): number {
-    if (this.length === this.values.length) {
-      const grown = this.make(Math.max(16, this.values.length * 2));
-      grown.set(this.values);
-      this.values = grown;
-    }
+    if (this.length === this.values.length) this.reserve(this.length + 1);
     this.values[this.length] = value;
     return this.length++;
+  }
+
+  /** Makes room for `size` values in `values` (doubling), for a caller that writes them itself and sets `length`. */
+  reserve(size: number): void {
+    if (size <= this.values.length) return;
+    const grown = this.make(Math.max(16, this.values.length * 2, size));
+    grown.set(this.values.subarray(0, this.length));
+    this.values = grown;
   }
 
   /** The values pushed, without copying: for a column that is done with. */
