@@ -272,7 +272,7 @@ export class LineRiskWalker {
   }
 
   walk(input: LineRiskInput): LineRiskRun {
-    const sizes = this.last && sizesOf(this.last);
+    const fromLastWalk = this.last && fromLast(this.last);
     const previous = this.sinceFull < WALKS_BEFORE_FULL ? this.last : null;
     // Dropped first: if this walk throws, the next one starts afresh.
     this.last = null;
@@ -282,7 +282,7 @@ export class LineRiskWalker {
     } catch {
       // The full walk below reports whatever is wrong with the input.
     }
-    const done = again ?? { ...walkAll(input, this.helper, sizes), kind: 'full' as const };
+    const done = again ?? { ...walkAll(input, this.helper, fromLastWalk), kind: 'full' as const };
     this.last = done.walked;
     this.lastKind = done.kind;
     this.sinceFull = done.kind === 'full' ? 0 : this.sinceFull + 1;
@@ -403,7 +403,7 @@ interface Walked {
   ordered: OrderedSlot[];
   rowBase: Int32Array;
   countable: Uint8Array;
-  rankOf: Int32Array;
+  ranks: PartRanks;
   /** Each unit's explosion against made stock alone, its needs grouped by part (the queue view's). */
   probed: Explosion[];
   requiredByDay: Float64Array;
@@ -511,7 +511,7 @@ function structureOf(input: LineRiskInput): PlanModel {
 function walkAll(
   input: LineRiskInput,
   helper: QueueHelper | null = null,
-  sizes: WalkSizes | null = null,
+  last: FromLastWalk | null = null,
 ): { run: LineRiskRun; walked: Walked } {
   const model = structureOf(input);
   const { dayNumbers } = model;
@@ -546,22 +546,51 @@ function walkAll(
     supply,
     null,
     helper,
-    sizes,
+    last,
   );
 }
 
 /**
- * How many slot records and queue-view entries a walk wrote: the next walk sizes its columns by
- * them, for a plant's walks write about as many each time (at 16 times the demo plant over half a
- * million of each; grown by doubling, they were copied over and again, and collected).
+ * What a walk takes from the last one besides its findings:
+ * - how many slot records and queue-view entries it wrote: the next walk sizes its columns by
+ *   them, for a plant's walks write about as many each time (at 16 times the demo plant over half
+ *   a million of each; grown by doubling, they were copied over and again, and collected);
+ * - the parts in part-number order, which stand while the part numbers do (sorting 32,000 of them
+ *   costs a walk about 10 ms).
  */
-interface WalkSizes {
+interface FromLastWalk {
   records: number;
   entries: number;
+  ranks: PartRanks;
 }
 
-function sizesOf(walked: Walked): WalkSizes {
-  return { records: walked.records.count, entries: walked.queueLacks?.part.length ?? 0 };
+function fromLast(walked: Walked): FromLastWalk {
+  return { records: walked.records.count, entries: walked.queueLacks?.part.length ?? 0, ranks: walked.ranks };
+}
+
+/** Parts by part number (`partAtRank`), and each part's place in that order (`rankOf`), for the part list `parts`. */
+interface PartRanks {
+  parts: readonly LineRiskPart[];
+  partAtRank: Int32Array;
+  rankOf: Int32Array;
+}
+
+/** The ranks of `parts`: `last`'s when every part number stands in its place. */
+function partRanks(parts: readonly LineRiskPart[], last: PartRanks | undefined): PartRanks {
+  if (
+    last &&
+    (last.parts === parts ||
+      (last.parts.length === parts.length &&
+        parts.every((part, index) => part.partNumber === last.parts[index].partNumber)))
+  ) {
+    return last.parts === parts ? last : { ...last, parts };
+  }
+  const partAtRank = Int32Array.from(
+    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
+  );
+  const rankOf = new Int32Array(parts.length);
+  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
+  return { parts, partAtRank, rankOf };
 }
 
 /** Room for about `size` values and an eighth more; a little when unknown. */
@@ -582,7 +611,7 @@ function judgeUnits(
   { cumulativeSupply, firmReceiptQty, receiptsByDay }: ReturnType<typeof firmSupply>,
   reuse: QueueReuse | null = null,
   helper: QueueHelper | null = null,
-  sizes: WalkSizes | null = null,
+  last: FromLastWalk | null = null,
 ): { run: LineRiskRun; walked: Walked } {
   const { model, ordered, rowBase, exploder, probed: explosions, requiredByDay } = needs;
   const days = model.days.length;
@@ -608,7 +637,7 @@ function judgeUnits(
     lastPosition: reuse.lastPosition,
   };
   const walkHere = (): QueueEntries => {
-    const columns = queueColumns(ordered.length, roomFor(sizes?.entries));
+    const columns = queueColumns(ordered.length, roomFor(last?.entries));
     const queue = new StockLedger(days, cumulativeSupply, rowBase, queued);
     walkQueueView(explosions, exploder.grouper, rowBase, queue, queued, keep, columns);
     return entriesOf(columns);
@@ -621,18 +650,14 @@ function judgeUnits(
     writtenStream(walkHere());
 
   const countable = Uint8Array.from(parts, (part) => (COUNTABLE_UNITS.has(part.uom ?? 'H87') ? 1 : 0));
-  // Parts by part number, and each part's place in that order.
-  const partAtRank = Int32Array.from(
-    parts.map((_, index) => index).sort((a, b) => compareText(parts[a].partNumber, parts[b].partNumber)),
-  );
-  const rankOf = new Int32Array(parts.length);
-  partAtRank.forEach((part, rank) => (rankOf[part] = rank));
+  const ranks = partRanks(parts, last?.ranks);
+  const { partAtRank, rankOf } = ranks;
   // A unit's explosion against the build ledger holds until a unit that shares a part with it is built.
   // These explosions are the walk's own: made apart from the needs, which the next walks may keep.
   const build = new StockLedger(days, cumulativeSupply, rowBase);
   const againstBuild = new ExplosionCache(new Exploder(model), build, true);
   const risks = new Risks(parts.length, resequenceFinder(ordered, againstBuild, parts.length));
-  const records = new LackRecordWriter(roomFor(sizes?.records));
+  const records = new LackRecordWriter(roomFor(last?.records));
   const atRiskUnit = intColumn();
   const judged: Explosion[] = new Array(ordered.length);
   const built = new Uint8Array(ordered.length);
@@ -730,7 +755,7 @@ function judgeUnits(
     ordered,
     rowBase,
     countable,
-    rankOf,
+    ranks,
     probed: explosions,
     requiredByDay,
     supply: cumulativeSupply,
@@ -1047,7 +1072,7 @@ function judgeAgain(
     lastPosition: Int32Array.from(ordered, (entry) => lastAt.get(entry.slot.serial) ?? -1),
     touched,
   };
-  return { ...judgeUnits(input, needs, supply, reuse, helper, sizesOf(last)), kind: 'judged' };
+  return { ...judgeUnits(input, needs, supply, reuse, helper, fromLast(last)), kind: 'judged' };
 }
 
 /** Two units exploded alike: the same model and quantity, on the same day. */
@@ -1284,7 +1309,8 @@ function replayParts(
   inChanged: Uint8Array,
   explodeAgain: Uint8Array | null,
 ): Pick<Walked, 'records' | 'unitStart' | 'risks' | 'judged'> | null {
-  const { model, rowBase, ordered, probed, built, countable, rankOf, supply } = walked;
+  const { model, rowBase, ordered, probed, built, countable, supply } = walked;
+  const { rankOf } = walked.ranks;
   const old = walked.records;
   const days = model.days.length;
   // The queue view is per part: the rows of the changed parts that may run short alone. The build

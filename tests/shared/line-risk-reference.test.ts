@@ -262,6 +262,7 @@ describe('computeLineRisk against the plain walk', () => {
         'leadTime',
         'uom',
         'replenishment',
+        'rename',
         'holiday',
         'holiday',
       ),
@@ -710,6 +711,20 @@ function changed(input: LineRiskInput, step: { kind: string; pick: number; qty: 
       // A part now counted in kilograms, or back in pieces: what is short by a fraction changes.
       const part = step.pick % input.parts.length;
       return { ...input, parts: withPart(part, { uom: input.parts[part]!.uom === 'KGM' ? 'H87' : 'KGM' }) };
+    }
+    case 'rename': {
+      // A bought part given a new number that sorts first or last (the plant renumbered it): the
+      // order parts are listed in by number changes, with the same count of parts.
+      const from = input.parts[someBought]!.partNumber;
+      const to = step.qty > 2 ? `A${from}` : `Z${from}`;
+      const renamed = (partNumber: string) => (partNumber === from ? to : partNumber);
+      return {
+        ...input,
+        parts: withPart(someBought, { partNumber: to }),
+        bom: input.bom.map((line) => (line.component === from ? { ...line, component: to } : line)),
+        firmReceipts: input.firmReceipts.map((receipt) => ({ ...receipt, partNumber: renamed(receipt.partNumber) })),
+        loops: input.loops?.map((loop) => ({ ...loop, partNumber: renamed(loop.partNumber) })),
+      };
     }
     case 'replenishment':
       // A bought part taken off its kanban loop (then ordered as scheduled), or put on one.
