@@ -74,6 +74,10 @@ function errorKind(error: unknown): 'cycle' | 'input' | 'other' {
   return 'other';
 }
 
+function groupAhead(): void {
+  if (walker.groupAhead()) setImmediate(groupAhead);
+}
+
 parentPort!.on('message', (request: WorkerRequest) => {
   let reply: WorkerReply;
   let transfer: ArrayBuffer[] = [];
@@ -93,6 +97,7 @@ parentPort!.on('message', (request: WorkerRequest) => {
     };
   }
   parentPort!.postMessage(reply, transfer);
-  // Once the answer is sent: the next walk then finds every unit's needs grouped.
-  if (request.kind === 'compute') setImmediate(() => walker.groupAhead());
+  // Once the answer is sent: the next walk then finds every unit's needs grouped. A slice at a
+  // time, so the next request is taken up between two slices.
+  if (request.kind === 'compute') setImmediate(groupAhead);
 });

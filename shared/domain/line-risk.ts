@@ -262,13 +262,22 @@ export class LineRiskWalker {
   /** `helper` may walk the queue view of a walk afresh in another thread (see QueueHelper). */
   constructor(private readonly helper: QueueHelper | null = null) {}
 
+  /** The last walk's units whose needs groupAhead has grouped. */
+  private groupedAhead = 0;
+
   /**
-   * Groups by part the needs of every unit of the last walk, for the next walk to find them done:
-   * a walk whose queue view another thread walked leaves them to be worked out. For idle time.
+   * Groups by part the needs of the next `units` units of the last walk, for the next walk to find
+   * them done: a walk whose queue view another thread walked leaves them to be worked out. For idle
+   * time, a slice at a time, so that a request arriving meanwhile waits for one slice at most (at
+   * 16 times the demo plant all of them take 20–35 ms). True while units are left.
    */
-  groupAhead(): void {
+  groupAhead(units = GROUP_AHEAD_SLICE): boolean {
     const last = this.last;
-    if (last) for (const explosion of last.probed) last.exploder.needGroups(explosion, last.rowBase);
+    if (!last) return false;
+    const end = Math.min(last.probed.length, this.groupedAhead + units);
+    for (let unit = this.groupedAhead; unit < end; unit += 1) last.exploder.needGroups(last.probed[unit], last.rowBase);
+    this.groupedAhead = end;
+    return end < last.probed.length;
   }
 
   walk(input: LineRiskInput): LineRiskRun {
@@ -284,6 +293,7 @@ export class LineRiskWalker {
     }
     const done = again ?? { ...walkAll(input, this.helper, fromLastWalk), kind: 'full' as const };
     this.last = done.walked;
+    this.groupedAhead = 0;
     this.lastKind = done.kind;
     this.sinceFull = done.kind === 'full' ? 0 : this.sinceFull + 1;
     return done.run;
@@ -295,6 +305,9 @@ export class LineRiskWalker {
  * made in; every this many walks one is done in full, so what is kept cannot grow without bound.
  */
 export const WALKS_BEFORE_FULL = 100;
+
+/** Units whose needs groupAhead groups at a time: a few milliseconds' work at 16 times the demo plant. */
+export const GROUP_AHEAD_SLICE = 200;
 
 /**
  * Explosions against one ledger, kept by model, quantity and day: a unit reuses the one made for

@@ -316,6 +316,9 @@ describe('computeLineRisk against the plain walk', () => {
       fc.property(plantArbitrary, change, (plant, step) => {
         const walker = new LineRiskWalker(flatHelper);
         expect(walker.walk(plant).result()).toEqual(referenceLineRisk(plant));
+        // The worker groups the units' needs ahead a slice at a time while idle: the next walk may
+        // find some of them grouped, all, or none.
+        for (let slice = 0; slice < step.pick % 4; slice += 1) walker.groupAhead(2);
         const after = changed(plant, step);
         expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
         kinds[walker.lastKind] += 1;
@@ -349,6 +352,21 @@ describe('computeLineRisk against the plain walk', () => {
     const back = new LineRiskWalker();
     back.walk(after);
     expect(back.walk(before).unitsAtRisk()[0]!.resequence?.candidate.serial).toBe('SN2');
+  });
+  it('groups the last walk ahead a slice of units at a time, and says when none are left', () => {
+    const plant = smallPlant(
+      [model('M0'), bought('B0')],
+      [bomLine('M0', 'B0')],
+      [unit(FROM, 1, 'M0', 'SN1'), unit(FROM, 2, 'M0', 'SN2'), unit(FROM, 3, 'M0', 'SN3')],
+    );
+    const walker = new LineRiskWalker();
+    expect(walker.groupAhead(2)).toBe(false);
+    walker.walk(plant);
+
+    expect([walker.groupAhead(2), walker.groupAhead(2), walker.groupAhead(2)]).toEqual([true, false, false]);
+    // A new walk starts from its first unit again.
+    walker.walk(plant);
+    expect(walker.groupAhead(3)).toBe(false);
   });
   it('keeps each unit its own lacks when walked again', () => {
     // Found by the property above: M0 needs B0 twice (through M1 on two lines), M1 once; a unit's
