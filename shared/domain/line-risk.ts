@@ -11,7 +11,15 @@ import {
   type QueueHelper,
   type QueueKeep,
 } from './line-risk-queue';
-import { BOUGHT, buildPlanModel, END_ITEM, PlanInputError, requireDate, type PlanModel } from './plan-model';
+import {
+  BOUGHT,
+  buildPlanModel,
+  END_ITEM,
+  PlanInputError,
+  requireDate,
+  withCalendar,
+  type PlanModel,
+} from './plan-model';
 import { fromDayNumber } from './date';
 import { QTY_EPSILON, roundQty } from './quantity';
 import { leadTimeArrival } from './supplier-timing';
@@ -518,6 +526,19 @@ function structureOf(input: LineRiskInput): PlanModel {
     structures.set(input, model);
   }
   return model;
+}
+
+/**
+ * The last walk's model with the input's stock and calendar, when nothing else the model holds
+ * changed; kept as the input's structure, so a walk in full after it finds it made. Null when an
+ * on-hand is not a number.
+ */
+function recalendared(model: PlanModel, input: LineRiskInput): PlanModel | null {
+  const stocked = withStock(model, input.parts);
+  if (!stocked) return null;
+  const made = withCalendar(stocked, input.calendar, input.from, input.to);
+  structures.set(input, made);
+  return made;
 }
 
 /** Every unit walked. */
@@ -1028,7 +1049,9 @@ function judgeAgain(
   const calendarEdited = input.calendar !== before.calendar;
   if (input.bom === before.bom && !partsEdited && !calendarEdited) model = withStock(last.model, parts);
   else {
-    model = structureOf(input);
+    model =
+      calendarEdited && input.bom === before.bom && !partsEdited ? recalendared(last.model, input) : structureOf(input);
+    if (!model) return null;
     if (calendarEdited && !sameWorkingDays(last.model, model)) return null;
     exploder = new Exploder(model);
     const changedParents = input.bom === before.bom ? [] : bomDifference(last.model, model).changedParents;

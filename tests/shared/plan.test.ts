@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { addCalendarDays } from '../../shared/domain/calendar';
 import { BomCycleError, computePlan, grossDemandByDay, PlanInputError, weeklyTotals } from '../../shared/domain/plan';
+import { buildPlanModel, withCalendar } from '../../shared/domain/plan-model';
 import type {
   PartPlan,
   PlanInput,
@@ -581,5 +582,32 @@ describe('weeklyTotals', () => {
       '2026-W53': 3.5,
       '2027-W01': 4,
     });
+  });
+});
+
+describe('withCalendar', () => {
+  it('lays out the working days of another calendar exactly as a model built on it', () => {
+    const input: PlanInput = {
+      parts: [part('KIT', { source: 'end_item' }), part('PANEL', { source: 'make', leadTimeDays: 2 }), part('BOLT')],
+      bom: [bomLine('KIT', 'PANEL', 1), bomLine('PANEL', 'BOLT', 4)],
+      sequence: [],
+      scheduledReceipts: [],
+      calendar: MONDAY_TO_FRIDAY,
+      from: '2026-03-02',
+      to: '2026-03-20',
+    };
+    // A holiday inside the horizon, one before it (a subassembly's start can reach back), and Saturdays worked.
+    const other: PlantCalendar = { workingWeekdays: [1, 2, 3, 4, 5, 6], holidays: ['2026-02-27', '2026-03-10'] };
+    const built = buildPlanModel({ ...input, calendar: other });
+    const moved = withCalendar(buildPlanModel(input), other, input.from, input.to);
+
+    expect(moved.days).toEqual(built.days);
+    expect(moved.dayNumbers).toEqual(built.dayNumbers);
+    const from = built.dayNumbers[0]!;
+    for (let day = from - 3; day <= from + 22; day += 1) expect(moved.bucketOf(day)).toBe(built.bucketOf(day));
+    for (let count = 0; count <= 6; count += 1) {
+      expect(moved.workingDayBeforeStart(count)).toBe(built.workingDayBeforeStart(count));
+    }
+    expect(moved.lineStart).toEqual(built.lineStart);
   });
 });
