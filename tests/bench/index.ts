@@ -1,3 +1,4 @@
+import { spawn } from 'node:child_process';
 import { parseArgs } from 'node:util';
 import { printCloseDayBench, runCloseDayBench } from './close-day.bench';
 import { printDatabaseBench, runDatabaseBench } from './database.bench';
@@ -7,7 +8,8 @@ import { printWhatIfBench, runWhatIfBench } from './what-if.bench';
 import { printReceiptsBench, runReceiptsBench } from './receipts.bench';
 
 // `npm run bench`: figures only, no pass/fail; targets are compared by a person reading them.
-// `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size;
+// `npm run bench -- --scale 16` (or `--scale 1,4,16`): the plant-size figures alone, for each size
+// (several sizes each in a process of their own);
 // add `--browser` for the time the Horizon and then every other screen take to open in Chromium.
 // `npm run bench -- --engines`: the database figures alone, on SQLite and (BENCH_DATABASE_URL) PostgreSQL.
 const { values } = parseArgs({
@@ -60,4 +62,29 @@ if (values.engines) {
   console.log('');
   printWhatIfBench(await runWhatIfBench());
 }
-if (!values.engines) for (const scale of scales ?? [1]) await runScaleBench(scale, { browser: values.browser });
+/**
+ * One plant size in a process of its own, as a server holds one plant: what a smaller plant's run
+ * leaves on the heap (its fixture, its database, its workers' garbage) then does not slow the next
+ * size's figures.
+ */
+function runScaleApart(scale: number): Promise<void> {
+  const args = [
+    ...process.execArgv,
+    process.argv[1]!,
+    '--scale',
+    String(scale),
+    ...(values.browser ? ['--browser'] : []),
+  ];
+  return new Promise((resolve, reject) => {
+    spawn(process.execPath, args, { stdio: 'inherit' })
+      .on('error', reject)
+      .on('exit', (code) =>
+        code === 0 ? resolve() : reject(new Error(`The ${scale}× run stopped (exit code ${code}).`)),
+      );
+  });
+}
+
+if (!values.engines) {
+  if (scales && scales.length > 1) for (const scale of scales) await runScaleApart(scale);
+  else await runScaleBench(scales?.[0] ?? 1, { browser: values.browser });
+}
