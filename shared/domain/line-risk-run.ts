@@ -1,12 +1,27 @@
-import type { LineRiskResult, PartShortage, ResequenceOption, SlotAtRisk, UnitAtRisk } from './line-risk';
+import type { LineRiskResult, NeedBy, PartShortage, ResequenceOption, SlotAtRisk, UnitAtRisk } from './line-risk';
 import { roundQty } from './quantity';
 import type { IsoDate, SequenceSlot } from './types';
 
 /**
  * A short part's figures; its slots at risk stay in the run (see LineRiskRun.slotsAtRisk), and so
- * does its need per day, which the report does not show (see LineRiskRunParts.requiredByDay).
+ * do its need per day, which the report does not show (see LineRiskRunParts.requiredByDay), and
+ * its need-by dates, from which its rescue is made (see LineRiskRunParts.needBy): a large plant has
+ * thousands of short parts, and a run kept as objects costs every garbage collection after it.
  */
-export type ShortPartFigures = Omit<PartShortage, 'slotsAtRisk' | 'requiredByDay'>;
+export type ShortPartFigures = Omit<PartShortage, 'slotsAtRisk' | 'requiredByDay' | 'needBy' | 'rescue'> & {
+  /** For the first unit at risk among its slots. */
+  resequence: ResequenceOption | null;
+};
+
+/**
+ * What must arrive by which bucket, by short part in display order: shortage i's entries are
+ * bucket/qty[start[i] … start[i + 1] - 1].
+ */
+export interface NeedByColumns {
+  start: Int32Array;
+  bucket: Int32Array;
+  qty: Float64Array;
+}
 
 /**
  * What the walk found a part lacking for a unit, one record each in walk order, as flat arrays:
@@ -118,6 +133,7 @@ export interface LineRiskRunParts {
   shortParts: Int32Array;
   /** Each short part's need per working day of the horizon, unrounded: shortage i's at i × days … (i + 1) × days - 1. */
   requiredByDay: Float64Array;
+  needBy: NeedByColumns;
 }
 
 /**
@@ -194,13 +210,14 @@ export class LineRiskRun {
   /** A short part with the slots given, without its need per day (see `requiredByDay`). */
   shortageWith(index: number, slotsAtRisk: SlotAtRisk[]): Omit<PartShortage, 'requiredByDay'> {
     const figures = this.shortages[index];
+    const needBy = this.needBy(index);
     return {
       partNumber: figures.partNumber,
       supplierCode: figures.supplierCode,
       action: figures.action,
       firstShortDate: figures.firstShortDate,
       shortQty: figures.shortQty,
-      needBy: figures.needBy,
+      needBy,
       releaseBy: figures.releaseBy,
       leadTimeDays: figures.leadTimeDays,
       slotsAtRisk,
@@ -209,8 +226,19 @@ export class LineRiskRun {
       daysUntilImpact: figures.daysUntilImpact,
       inFrozenWindow: figures.inFrozenWindow,
       loop: figures.loop,
-      rescue: figures.rescue,
+      rescue: { expedite: { qty: needBy[0].qty, needBy: needBy[0].date }, resequence: figures.resequence },
     };
+  }
+
+  /** What must arrive by each date for the short part at `index` of `shortages`. */
+  needBy(index: number): NeedBy[] {
+    const { start, bucket, qty } = this.parts.needBy;
+    const days = this.header.days;
+    const needBy: NeedBy[] = [];
+    for (let entry = start[index]; entry < start[index + 1]; entry += 1) {
+      needBy.push({ date: days[bucket[entry]], qty: qty[entry] });
+    }
+    return needBy;
   }
 
   /** A short part's need per working day, made into a list only when asked for (the report leaves it out). */

@@ -1,6 +1,6 @@
 import { Exploder, holdsAgainst, StockLedger, stillHolds, type Explosion } from './line-risk-explosion';
 import { LackRecordWriter, LineRiskRun, type LackRecords, type ShortPartFigures } from './line-risk-run';
-import { intColumn } from './typed-column';
+import { floatColumn, intColumn, type TypedColumn } from './typed-column';
 import {
   entriesOf,
   queueColumns,
@@ -1476,23 +1476,35 @@ function finish(
     return count;
   };
 
-  const shortages: { figures: ShortPartFigures; part: number }[] = [];
+  // Need-by entries in walk order, gathered by part in display order once the parts are sorted.
+  const needBy = { bucket: intColumn(), qty: floatColumn() };
+  const shortages: { figures: ShortPartFigures; part: number; needByAt: number; needByEnd: number }[] = [];
   const { risks } = walked;
   for (const part of risks.order) {
     const risk = risks.byPart[part]!;
     const firstSlot = ordered[records.unit[risk.firstRecord]].slot;
-    const firstLackQty = records.qty[risk.firstRecord];
-    const projection = needSchedule(rowBase[part], model.days, requiredByDay, supply, (qty) =>
-      wholeIfCountable(countable, part, qty),
+    const needByAt = needBy.bucket.length;
+    const firstShort = needSchedule(
+      rowBase[part],
+      days,
+      requiredByDay,
+      supply,
+      (qty) => wholeIfCountable(countable, part, qty),
+      needBy,
     );
     const first =
-      projection.firstShort >= 0
-        ? projection.firstShort
+      firstShort >= 0
+        ? firstShort
         : Math.max(0, model.bucketOf(requireDate(model.dayNumberOf(firstSlot.date), firstSlot.date, 'Slot')));
+    if (needBy.bucket.length === needByAt) {
+      needBy.bucket.push(first);
+      needBy.qty.push(records.qty[risk.firstRecord]);
+    }
     const shortPart = parts[part];
     const firstShortDay = dayNumbers[first];
-    const needBy = projection.needBy.length > 0 ? projection.needBy : [{ date: model.days[first], qty: firstLackQty }];
-    const shortQty = roundQty(needBy.reduce((sum, entry) => sum + entry.qty, 0));
+    let needed = 0;
+    for (let entry = needByAt; entry < needBy.qty.length; entry += 1) needed += needBy.qty.values[entry];
+    const shortQty = roundQty(needed);
     const leadTimeDays = shortPart.leadTimeDays;
     const loop = found.loopByPart.get(part);
     // Released today, it arrives lead time later: in time for a shortage from that day on, which
@@ -1510,7 +1522,6 @@ function finish(
       action,
       firstShortDate: model.days[first],
       shortQty,
-      needBy,
       releaseBy: action === 'release' ? fromDayNumber(calendar.addWorking(firstShortDay, -leadTimeDays)) : null,
       leadTimeDays,
       onHand: shortPart.onHand,
@@ -1518,9 +1529,9 @@ function finish(
       daysUntilImpact: workingDaysAfterToday(firstShortDay),
       inFrozenWindow: frozenEnd !== null && firstShortDay <= frozenEnd,
       loop: loop ? { activeCards: loop.activeCards, recommendedCards: loop.recommendedCards } : null,
-      rescue: { expedite: { qty: needBy[0].qty, needBy: needBy[0].date }, resequence: risk.resequence },
+      resequence: risk.resequence,
     };
-    shortages.push({ figures, part });
+    shortages.push({ figures, part, needByAt, needByEnd: needBy.bucket.length });
   }
   shortages.sort(
     ({ figures: a }, { figures: b }) =>
@@ -1533,6 +1544,16 @@ function finish(
   shortages.forEach(({ part }, index) =>
     shortRequired.set(requiredByDay.subarray(rowBase[part], rowBase[part] + days), index * days),
   );
+  const needByStart = new Int32Array(shortages.length + 1);
+  shortages.forEach(({ needByAt, needByEnd }, index) => {
+    needByStart[index + 1] = needByStart[index] + needByEnd - needByAt;
+  });
+  const needByBucket = new Int32Array(needByStart[shortages.length]);
+  const needByQty = new Float64Array(needByStart[shortages.length]);
+  shortages.forEach(({ needByAt, needByEnd }, index) => {
+    needByBucket.set(needBy.bucket.values.subarray(needByAt, needByEnd), needByStart[index]);
+    needByQty.set(needBy.qty.values.subarray(needByAt, needByEnd), needByStart[index]);
+  });
   const { atRiskUnit } = walked;
   return new LineRiskRun({
     header: {
@@ -1555,6 +1576,7 @@ function finish(
     shortages: shortages.map((shortage) => shortage.figures),
     shortParts: Int32Array.from(shortages.map((shortage) => shortage.part)),
     requiredByDay: shortRequired,
+    needBy: { start: needByStart, bucket: needByBucket, qty: needByQty },
   });
 }
 
@@ -1701,24 +1723,24 @@ function pullSupply(
  */
 function needSchedule(
   base: number,
-  dates: readonly IsoDate[],
+  days: number,
   requiredByDay: Float64Array,
   cumulativeSupply: Float64Array,
   round: (qty: number) => number,
-): { firstShort: number; needBy: NeedBy[] } {
-  const days = dates.length;
+  needBy: { bucket: TypedColumn<Int32Array>; qty: TypedColumn<Float64Array> },
+): number {
   let required = 0;
   let covered = 0;
   let firstShort = -1;
-  const needBy: NeedBy[] = [];
   for (let t = 0; t < days; t += 1) {
     required += requiredByDay[base + t];
     const shortfall = round(required - cumulativeSupply[base + t]);
     if (shortfall > covered + epsilon) {
       if (firstShort < 0) firstShort = t;
-      needBy.push({ date: dates[t], qty: roundQty(shortfall - covered) });
+      needBy.bucket.push(t);
+      needBy.qty.push(roundQty(shortfall - covered));
       covered = shortfall;
     }
   }
-  return { firstShort, needBy };
+  return firstShort;
 }
