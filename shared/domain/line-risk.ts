@@ -1718,8 +1718,9 @@ function pullSupply(
 }
 
 /**
- * A part's projection against every unit's need: the first day it is short and how much must have
- * arrived by each day to keep every unit building (the running worst shortfall, as increments).
+ * A part's projection against every unit's need: the first day it is short (returned, or -1) and
+ * how much must have arrived by each day to keep every unit building (the running worst shortfall,
+ * as increments), pushed to `needBy`.
  */
 function needSchedule(
   base: number,

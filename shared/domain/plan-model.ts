@@ -201,7 +201,8 @@ function calendarFields(plantCalendar: PlanInput['calendar'], fromDay: number, t
 
 /**
  * `model` on another plant calendar, for the same parts, lines and horizon: only what the working
- * days decide is worked out again (at 16 times the demo plant, 1 ms against 12–25 ms for the whole).
+ * days decide is worked out again. At 16 times the demo plant a whole model takes 12–25 ms; in the
+ * line-risk worker, the time before a walk after a calendar change went from 20–34 to 1–3 ms.
  */
 export function withCalendar(
   model: PlanModel,
