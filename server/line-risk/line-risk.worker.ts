@@ -74,8 +74,12 @@ function errorKind(error: unknown): 'cycle' | 'input' | 'other' {
   return 'other';
 }
 
+/** Whether slices of grouping ahead are scheduled: one chain at a time, whatever walks come meanwhile. */
+let groupingAhead = false;
+
 function groupAhead(): void {
-  if (walker.groupAhead()) setImmediate(groupAhead);
+  groupingAhead = walker.groupAhead();
+  if (groupingAhead) setImmediate(groupAhead);
 }
 
 parentPort!.on('message', (request: WorkerRequest) => {
@@ -99,5 +103,8 @@ parentPort!.on('message', (request: WorkerRequest) => {
   parentPort!.postMessage(reply, transfer);
   // Once the answer is sent: the next walk then finds every unit's needs grouped. A slice at a
   // time, so the next request is taken up between two slices.
-  if (request.kind === 'compute') setImmediate(groupAhead);
+  if (request.kind === 'compute' && !groupingAhead) {
+    groupingAhead = true;
+    setImmediate(groupAhead);
+  }
 });
