@@ -1,4 +1,4 @@
-import { computeLineRisk, type LineRiskInput, type LineRiskResult, type UnitAtRisk } from './line-risk';
+import { LineRiskWalker, type LineRiskInput, type UnitAtRisk } from './line-risk';
 import { computePlan, grossDemandByDay } from './plan';
 import { roundQty } from './quantity';
 import type { DayOrder } from './sequence';
@@ -20,7 +20,10 @@ export interface PartDemand {
 
 /** What line risk and supplier demand look like for one sequence. */
 export interface SequenceOutlook {
-  risk: LineRiskResult;
+  /** The units that cannot be built, in build order, with what each lacks. */
+  unitsAtRisk: UnitAtRisk[];
+  /** The horizon's working days. */
+  days: readonly IsoDate[];
   demand: PartDemand[];
 }
 
@@ -59,9 +62,15 @@ export function resequenced(sequence: readonly SequenceSlot[], orders: readonly 
   });
 }
 
-/** Line risk and the plan's gross demand of bought parts for the input's sequence. */
-export function sequenceOutlook(input: LineRiskInput): SequenceOutlook {
-  const risk = computeLineRisk(input);
+/**
+ * Line risk and the plan's gross demand of bought parts for the input's sequence. `walker`: the
+ * one that made the outlook this one is compared with, which then walks only what the change moved
+ * (a move judges every unit again, but explodes again only the units whose made stock moved).
+ */
+export function sequenceOutlook(input: LineRiskInput, walker = new LineRiskWalker()): SequenceOutlook {
+  // The units at risk alone: the board marks them and a what-if compares them, while every slot
+  // of every short part, as objects, would cost as much again on a large plant.
+  const run = walker.walk(input);
   const plan = computePlan({
     parts: input.parts,
     bom: input.bom,
@@ -78,24 +87,26 @@ export function sequenceOutlook(input: LineRiskInput): SequenceOutlook {
     uom: uomOf.get(row.partNumber) ?? 'H87',
     byDay: row.byDay,
   }));
-  return { risk, demand };
+  return { unitsAtRisk: run.unitsAtRisk(), days: run.header.days, demand };
 }
 
 /**
  * Tries new day orders against the outlook of the sequence as it stands: which units would become
- * or stop being at risk, and how each supplier's demand by day would move.
+ * or stop being at risk, and how each supplier's demand by day would move. With the walker that
+ * made `before` (see sequenceOutlook), the move is walked from that walk.
  */
 export function tryResequence(
   input: LineRiskInput,
   before: SequenceOutlook,
   orders: readonly DayOrder[],
+  walker?: LineRiskWalker,
 ): WhatIfResult {
-  const after = sequenceOutlook({ ...input, sequence: resequenced(input.sequence, orders) });
-  const wasAtRisk = new Map(before.risk.unitsAtRisk.map((unit) => [unit.serial, unit]));
-  const isAtRisk = new Map(after.risk.unitsAtRisk.map((unit) => [unit.serial, unit]));
+  const after = sequenceOutlook({ ...input, sequence: resequenced(input.sequence, orders) }, walker);
+  const wasAtRisk = new Map(before.unitsAtRisk.map((unit) => [unit.serial, unit]));
+  const isAtRisk = new Map(after.unitsAtRisk.map((unit) => [unit.serial, unit]));
   return {
-    becomeAtRisk: after.risk.unitsAtRisk.filter((unit) => !wasAtRisk.has(unit.serial)),
-    stopAtRisk: before.risk.unitsAtRisk.filter((unit) => !isAtRisk.has(unit.serial)),
+    becomeAtRisk: after.unitsAtRisk.filter((unit) => !wasAtRisk.has(unit.serial)),
+    stopAtRisk: before.unitsAtRisk.filter((unit) => !isAtRisk.has(unit.serial)),
     supplierDemand: demandChanges(before.demand, after.demand),
     after,
   };

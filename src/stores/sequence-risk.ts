@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia';
 import { computed, ref, shallowRef } from 'vue';
-import type { LineRiskInput, UnitAtRisk } from '@shared/domain/line-risk';
+import { LineRiskWalker, type LineRiskInput, type UnitAtRisk } from '@shared/domain/line-risk';
 import type { DayOrder } from '@shared/domain/sequence';
 import {
   resequenced,
@@ -29,10 +29,12 @@ export const useSequenceRiskStore = defineStore('sequence-risk', () => {
   const outlook = shallowRef<SequenceOutlook | null>(null);
   const range = ref<LineRiskRange | null>(null);
   const { loading, error, run } = useLatestRequest();
+  // Keeps its last walk: a what-if then walks only what the move changed. Not reactive state.
+  const walker = new LineRiskWalker();
 
   /** Units at risk on the board, by serial. */
   const atRisk = computed<ReadonlyMap<string, UnitAtRisk>>(
-    () => new Map((outlook.value?.risk.unitsAtRisk ?? []).map((unit) => [unit.serial, unit])),
+    () => new Map((outlook.value?.unitsAtRisk ?? []).map((unit) => [unit.serial, unit])),
   );
 
   /** Reads the engine's inputs for the board's days and works out its line risk; a failure is kept in `error`. */
@@ -41,7 +43,7 @@ export const useSequenceRiskStore = defineStore('sequence-risk', () => {
       (signal) => lineRiskApi.getEngineInput(next, signal),
       (answer) => {
         input.value = answer;
-        outlook.value = sequenceOutlook(answer);
+        outlook.value = sequenceOutlook(answer, walker);
         range.value = { ...next };
       },
       { quiet: input.value !== null },
@@ -52,7 +54,7 @@ export const useSequenceRiskStore = defineStore('sequence-risk', () => {
   function preview(orders: readonly DayOrder[]): TimedWhatIf | null {
     if (!input.value || !outlook.value) return null;
     const started = performance.now();
-    const result = tryResequence(input.value, outlook.value, orders);
+    const result = tryResequence(input.value, outlook.value, orders, walker);
     return { ...result, elapsedMs: performance.now() - started };
   }
 

@@ -14,6 +14,7 @@ import { postMovements } from '../../server/stock/stock-ledger';
 import { RECURSIVE_EXPLOSION } from './database.bench';
 import { printHorizonOpen } from './horizon-open.bench';
 import { printScreensOpen } from './screens-open.bench';
+import { BOARD_WORKING_DAYS, boardWhatIf, printWhatIfBench } from './what-if.bench';
 import { benchUser, formatLoad, listen, load, ms } from './http-load';
 import { generatePlanFixture } from './plan-fixture';
 import { writeFixture } from './plan-fixture-db';
@@ -25,6 +26,8 @@ import { writeFixture } from './plan-fixture-db';
  * they move with the load of everything else running.
  */
 
+/** Moves tried on the board of a large plant: each is walked twice (from the last walk, and afresh). */
+const BOARD_MOVES = 6;
 const WEEKS_4 = 20;
 const gunzip = promisify(gunzipCallback);
 
@@ -220,6 +223,14 @@ export async function runScaleBench(scale: number, options: { browser?: boolean 
   );
   console.log(`  walk again after a bought BOM line   median ${ms(median(bomSamples))} (${[...bomKinds].join(', ')})`);
   console.log(`  whole answer, every slot an object   median ${ms(lineRiskMs)}`);
+  // The Build sequence board's what-if, which the browser works out with the same engine.
+  const boardTo = addWorkingDays(fixture.from, BOARD_WORKING_DAYS - 1, fixture.calendar);
+  const boardInput = {
+    ...lineRiskInput,
+    to: boardTo,
+    sequence: lineRiskInput.sequence.filter((slot) => slot.date <= boardTo),
+  };
+  printWhatIfBench(boardWhatIf(boardInput, BOARD_MOVES), `the ${scale}× plant`);
 
   // --- Through HTTP ---
   const token = await benchUser(db);

@@ -21,6 +21,8 @@ import {
   type QueueHelper,
 } from '../../shared/domain/line-risk-queue';
 import { roundQty } from '../../shared/domain/quantity';
+import type { DayOrder } from '../../shared/domain/sequence';
+import { resequenced, sequenceOutlook, tryResequence } from '../../shared/domain/sequence-what-if';
 import type { PlanningBomLine, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
 import { referenceLineRisk } from './line-risk-reference';
 import { bomLine } from './builders';
@@ -599,7 +601,53 @@ describe('computeLineRisk against the plain walk', () => {
     expect(walker.walk(after).result()).toEqual(referenceLineRisk(after));
     expect(walker.lastKind).toBe('full');
   });
+
+  it("tries the board's moves from its walker exactly as afresh, with the plain walk's units at risk", () => {
+    // The Build sequence board keeps one walker: each move it tries is walked from the last walk.
+    const move = fc.record({ pick: fc.nat(), to: fc.nat(), place: fc.nat() });
+    let moved = 0;
+    fc.assert(
+      fc.property(plantArbitrary, fc.array(move, { minLength: 1, maxLength: 4 }), (input, moves) => {
+        const walker = new LineRiskWalker();
+        const before = sequenceOutlook(input, walker);
+        expect(before.unitsAtRisk).toEqual(referenceLineRisk(input).unitsAtRisk);
+        for (const step of moves) {
+          const orders = movedOrders(input.sequence, step);
+          if (!orders) continue;
+          const tried = tryResequence(input, before, orders, walker);
+          expect(tried).toEqual(tryResequence(input, before, orders));
+          const after = { ...input, sequence: resequenced(input.sequence, orders) };
+          expect(tried.after.unitsAtRisk).toEqual(referenceLineRisk(after).unitsAtRisk);
+          if (tried.becomeAtRisk.length + tried.stopAtRisk.length > 0) moved += 1;
+        }
+      }),
+      { numRuns: 300 },
+    );
+    // Guards the generator: moves that change which units are at risk must have been compared.
+    expect(moved).toBeGreaterThan(30);
+  }, 60_000);
 });
+
+/** One unit of the sequence moved to a place on a day, as the board's day orders; null without units. */
+function movedOrders(
+  sequence: readonly SequenceSlot[],
+  { pick, to, place }: { pick: number; to: number; place: number },
+): DayOrder[] | null {
+  if (sequence.length === 0) return null;
+  const unit = sequence[pick % sequence.length]!;
+  const dates = [...new Set(sequence.map((slot) => slot.date))].sort();
+  const toDate = dates[to % dates.length]!;
+  const dayOf = (date: string) =>
+    sequence
+      .filter((slot) => slot.date === date && slot.serial !== unit.serial)
+      .sort((a, b) => a.sequence - b.sequence)
+      .map((slot) => slot.serial);
+  const target = dayOf(toDate);
+  target.splice(place % (target.length + 1), 0, unit.serial);
+  const orders = [{ date: toDate, serials: target }];
+  if (unit.date !== toDate) orders.push({ date: unit.date, serials: dayOf(unit.date) });
+  return orders;
+}
 
 /** Parts, lines and units of the worked cases, with nothing but what each case is about. */
 const bought = (partNumber: string, fields: Partial<LineRiskPart> = {}): LineRiskPart => ({
