@@ -1,6 +1,5 @@
-import type { LineRiskInput } from '@shared/domain/line-risk';
 import type { LineRiskReport, SlotsPageDto } from '@shared/schemas/line-risk';
-import { http } from './http';
+import { http, requestRaw } from './http';
 
 /** The dates a line-risk view covers, ISO `YYYY-MM-DD`, both inclusive. */
 export interface LineRiskRange {
@@ -26,7 +25,15 @@ export function getPartSlots(
   });
 }
 
-/** The line-risk engine's inputs over a horizon (parts, BOM, units not built, firm receipts, loops, calendar), for a what-if in the browser. */
-export function getEngineInput(range: LineRiskRange, signal?: AbortSignal): Promise<LineRiskInput> {
-  return http.get<LineRiskInput>('/line-risk/engine-input', { query: { ...range }, signal });
+/**
+ * The line-risk engine's inputs over a horizon (parts, BOM, units not built, firm receipts, loops,
+ * calendar), for a what-if in the browser: as JSON bytes, parsed where the engine runs.
+ */
+export async function getEngineInputBytes(range: LineRiskRange, signal?: AbortSignal): Promise<ArrayBuffer> {
+  const response = await requestRaw('/line-risk/engine-input', {
+    query: { ...range },
+    signal,
+    accept: 'application/json',
+  });
+  return response.arrayBuffer();
 }

@@ -1,5 +1,5 @@
-import type { UnitAtRisk } from '@shared/domain/line-risk';
 import type { SequenceDay } from '@shared/schemas/sequence';
+import type { BoardUnitAtRisk } from '@/stores/board-risk-engine';
 import { countOf, formatCount, formatDay, formatQty, formatQuantity, formatWhen } from '@/format';
 
 /** Units per model on a day, in the board's model order, models with no unit left out. */
@@ -65,28 +65,20 @@ export function staleMoveMessage(error: { message: string; details: readonly unk
 }
 
 /** "At risk: lacks BAT-06-312 ×6 by Tue 8 Dec; STL-TUB-25 ×0.4 through FRM-32R by Mon 7 Dec." */
-export function riskDescription(unit: Pick<UnitAtRisk, 'lacks'>): string {
+export function riskDescription(unit: Pick<BoardUnitAtRisk, 'lacks' | 'moreLacks'>): string {
   return `At risk: lacks ${lackList(unit)}.`;
 }
 
-/**
- * A unit's lacks named one by one up to this many, the rest counted. On a large plant a unit can
- * lack a hundred parts or more: a tip or a description read out that long helps nobody, and on
- * every card of the board it made the page slow to lay out. Line risk lists them all.
- */
-export const LACKS_NAMED = 5;
-
 /** "BAT-06-312 ×6 by Tue 8 Dec; STL-TUB-25 ×0.4 through FRM-32R by Mon 7 Dec", then "and 3 more parts". */
-export function lackList(unit: Pick<UnitAtRisk, 'lacks'>): string {
+export function lackList(unit: Pick<BoardUnitAtRisk, 'lacks' | 'moreLacks'>): string {
   const named = unit.lacks
-    .slice(0, LACKS_NAMED)
     .map((lack) => {
       const via = lack.via ? ` through ${lack.via}` : '';
       return `${lack.partNumber} ×${formatQty(lack.qty)}${via} by ${formatDay(lack.neededOn)}`;
     })
     .join('; ');
-  const more = unit.lacks.length - LACKS_NAMED;
-  return more > 0 ? `${named}; and ${more} more ${more === 1 ? 'part' : 'parts'}` : named;
+  const { moreLacks } = unit;
+  return moreLacks > 0 ? `${named}; and ${moreLacks} more ${moreLacks === 1 ? 'part' : 'parts'}` : named;
 }
 
 /** "+6 pcs", "−2.5 kg": a change in demand with its sign and unit. */

@@ -1,6 +1,6 @@
 import { createAppContext, demoUsers, mountInApp } from './helpers';
 import { afterEach, describe, expect, it } from 'vitest';
-import type { UnitAtRisk } from '@shared/domain/line-risk';
+import type { BoardUnitAtRisk } from '@/stores/board-risk-engine';
 import type { SequenceDay, SequenceUnit } from '@shared/schemas/sequence';
 import SequenceDayColumn from '@/components/SequenceDayColumn.vue';
 import { DAY_UNITS_DRAWN } from '@/components/sequence-presentation';
@@ -21,8 +21,8 @@ function dayOf(count: number): SequenceDay {
   return { date: DATE, working: true, frozen: false, past: false, capacity: count, load: count, units, version: 'v1' };
 }
 
-function atRisk(unit: SequenceUnit): UnitAtRisk {
-  return { serial: unit.serial, date: unit.date, sequence: unit.sequence, model: unit.model, lacks: [] };
+function atRisk(unit: SequenceUnit): BoardUnitAtRisk {
+  return { serial: unit.serial, date: unit.date, sequence: unit.sequence, model: unit.model, lacks: [], moreLacks: 0 };
 }
 
 describe('SequenceDayColumn', () => {

@@ -25,7 +25,7 @@ import type { DayOrder } from '../../shared/domain/sequence';
 import { resequenced, sequenceOutlook, tryResequence } from '../../shared/domain/sequence-what-if';
 import type { PlanningBomLine, PlantCalendar, SequenceSlot } from '../../shared/domain/types';
 import { referenceLineRisk } from './line-risk-reference';
-import { bomLine } from './builders';
+import { bomLine, boughtPart, sequenceUnit } from './builders';
 
 /*
  * The engine keeps explosions between units, walks flat arrays and keeps its slots as records; the
@@ -650,23 +650,9 @@ function movedOrders(
 }
 
 /** Parts, lines and units of the worked cases, with nothing but what each case is about. */
-const bought = (partNumber: string, fields: Partial<LineRiskPart> = {}): LineRiskPart => ({
-  partNumber,
-  source: 'buy',
-  leadTimeDays: 0,
-  packQty: 1,
-  onHand: 0,
-  safetyStock: 0,
-  ...fields,
-});
+const bought = boughtPart;
 const model = (partNumber: string): LineRiskPart => bought(partNumber, { source: 'end_item' });
-const unit = (date: string, sequence: number, model: string, serial: string): SequenceSlot => ({
-  date,
-  sequence,
-  model,
-  serial,
-  qty: 1,
-});
+const unit = sequenceUnit;
 const smallPlant = (parts: LineRiskPart[], bom: PlanningBomLine[], sequence: SequenceSlot[]): LineRiskInput => ({
   parts,
   bom,
