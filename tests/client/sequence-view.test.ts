@@ -386,6 +386,25 @@ describe('SequenceView', () => {
     expect(boardLoads).toHaveLength(2);
   });
 
+  it('says it is working out line risk until the marks are in', async () => {
+    const fetchMock = stubApi();
+    const answer = fetchMock.getMockImplementation()!;
+    let release!: () => void;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    fetchMock.mockImplementation(async (input, init) => {
+      if (String(input).includes('/api/line-risk/engine-input')) await held;
+      return answer(input, init);
+    });
+
+    const wrapper = await openSequence();
+
+    expect(wrapper.get('[data-test="risk-working"]').text()).toBe('Working out line risk…');
+    expect(wrapper.find('[data-test="at-risk-count"]').exists()).toBe(false);
+    release();
+    await waitFor(() => expect(wrapper.find('[data-test="at-risk-count"]').exists()).toBe(true));
+    expect(wrapper.find('[data-test="risk-working"]').exists()).toBe(false);
+  });
+
   it('marks the units at risk on their cards, with what they lack for hover and keyboard focus', async () => {
     stubApi();
 
