@@ -44,12 +44,29 @@ export async function printScreensOpen(db: Database): Promise<void> {
         benchLongTaskEnds: number[];
         benchLongTasks: PerformanceObserver;
         benchTakeLongTasks: () => void;
+        benchBusyEnds: number[];
       };
       win.benchLongTaskEnds = [];
       win.benchLongTasks = new PerformanceObserver((list) => {
         for (const entry of list.getEntries()) win.benchLongTaskEnds.push(entry.startTime + entry.duration);
       });
       win.benchLongTasks.observe({ type: 'longtask', buffered: true });
+      // A screen that works something out off the main thread (the Build sequence's line risk) is
+      // aria-busy meanwhile: it is drawn when that ends.
+      win.benchBusyEnds = [];
+      new MutationObserver((records) => {
+        for (const record of records) {
+          const target = record.target as Element;
+          if (record.oldValue === 'true' && target.getAttribute('aria-busy') !== 'true') {
+            win.benchBusyEnds.push(performance.now());
+          }
+        }
+      }).observe(document, {
+        subtree: true,
+        attributes: true,
+        attributeFilter: ['aria-busy'],
+        attributeOldValue: true,
+      });
       win.benchTakeLongTasks = () => {
         for (const entry of win.benchLongTasks.takeRecords())
           win.benchLongTaskEnds.push(entry.startTime + entry.duration);
@@ -65,18 +82,26 @@ export async function printScreensOpen(db: Database): Promise<void> {
 
     const figures = async (since: number, pageStart: number): Promise<ScreenFigures> => {
       await tracker.quiet(since);
-      // Data in and drawn: the last answer it asked for (its data, its code), or the last long task it
-      // caused.
+      await page.waitForFunction(() => !document.querySelector('[aria-busy="true"]'), null, {
+        timeout: OPEN_TIMEOUT_MS,
+      });
+      // Data in and drawn: the last answer it asked for (its data, its code), the last long task it
+      // caused, or the end of its busy state.
       const ready = await page.evaluate(
         ({ start }) => {
-          const win = window as unknown as { benchLongTaskEnds: number[]; benchTakeLongTasks: () => void };
+          const win = window as unknown as {
+            benchLongTaskEnds: number[];
+            benchTakeLongTasks: () => void;
+            benchBusyEnds: number[];
+          };
           // Entries not yet handed to the observer's callback (it runs later, at low priority).
           win.benchTakeLongTasks();
           const answers = performance
             .getEntriesByType('resource')
             .filter((entry) => entry.startTime >= start && !entry.name.includes('/api/events'))
             .map((entry) => (entry as PerformanceResourceTiming).responseEnd);
-          return Math.max(start, ...answers, ...win.benchLongTaskEnds.filter((end) => end >= start)) - start;
+          const ends = [...win.benchLongTaskEnds, ...win.benchBusyEnds].filter((end) => end >= start);
+          return Math.max(start, ...answers, ...ends) - start;
         },
         { start: pageStart },
       );
