@@ -185,9 +185,16 @@ function lastButton(name: string): HTMLButtonElement {
   return buttons[buttons.length - 1]!;
 }
 
+/** Waits for the what-if shown before a move is saved, its effect worked out. */
+async function whatIfShown(): Promise<Element> {
+  await waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
+  await waitFor(() => expect(document.querySelector('[data-test="what-if-working"]')).toBeNull());
+  return document.querySelector('[data-test="what-if"]')!;
+}
+
 /** Answers the what-if shown before a move is saved. */
 async function answerWhatIf(button: 'Save the change' | 'Cancel'): Promise<void> {
-  await waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
+  await whatIfShown();
   lastButton(button).click();
   await flushPromises();
 }
@@ -429,6 +436,34 @@ describe('SequenceView', () => {
     expect(document.querySelector('[data-test="unit-risk-tip"]')).toBeNull();
   });
 
+  it('opens the what-if at once, and offers to save once the effect is worked out', async () => {
+    const fetchMock = stubApi();
+    const answer = fetchMock.getMockImplementation()!;
+    let release!: () => void;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    fetchMock.mockImplementation(async (input, init) => {
+      if (String(input).includes('/api/line-risk/engine-input')) await held;
+      return answer(input, init);
+    });
+    const wrapper = await openSequence();
+    const s4 = boardOf().days[1]!.units[1]!;
+
+    wrapper.findAllComponents(draggable)[3]!.vm.$emit('change', { added: { element: s4, newIndex: 4 } });
+    await flushPromises();
+
+    await waitFor(() => expect(document.querySelector('[data-test="what-if-working"]')).not.toBeNull());
+    expect(document.querySelector('[data-test="what-if-working"]')?.textContent).toContain(
+      'Working out what the move would do…',
+    );
+    expect(lastButton('Save the change').disabled).toBe(true);
+    release();
+    const dialog = await whatIfShown();
+    expect(dialog.querySelector('[data-test="what-if-becomes"]')?.textContent).toContain('Becomes at risk: S4');
+    expect(lastButton('Save the change').disabled).toBe(false);
+    await answerWhatIf('Cancel');
+    expect(putBodies(fetchMock)).toHaveLength(0);
+  });
+
   it('shows what a move would do before saving it, and saves nothing on Cancel', async () => {
     const fetchMock = stubApi();
     const wrapper = await openSequence();
@@ -438,8 +473,7 @@ describe('SequenceView', () => {
     // S4 goes to the end of Tue 8 Dec: S7 now gets the third battery, S4 none.
     over.vm.$emit('change', { added: { element: s4, newIndex: 4 } });
     await flushPromises();
-    await waitFor(() => expect(document.querySelector('[data-test="what-if"]')).not.toBeNull());
-    const dialog = document.querySelector('[data-test="what-if"]')!;
+    const dialog = await whatIfShown();
     expect(dialog.textContent).toContain('Move S4 to Tue 8 Dec, position 5.');
     expect(dialog.querySelector('[data-test="what-if-becomes"]')?.textContent).toContain(
       'Becomes at risk: S4 (M-A), Tue 8 Dec position 5. Would lack BAT-1 ×1 by Tue 8 Dec.',
