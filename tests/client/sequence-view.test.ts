@@ -147,6 +147,18 @@ function stubApi(answers: Record<string, Answer> = {}) {
   return fetchMock;
 }
 
+/** Holds the answers of the line-risk engine's input back until the function returned is called. */
+function holdEngineInput(fetchMock: ReturnType<typeof stubApi>): () => void {
+  const answer = fetchMock.getMockImplementation()!;
+  let release!: () => void;
+  const held = new Promise<void>((resolve) => (release = resolve));
+  fetchMock.mockImplementation(async (input, init) => {
+    if (String(input).includes('/api/line-risk/engine-input')) await held;
+    return answer(input, init);
+  });
+  return release;
+}
+
 function putBodies(fetchMock: ReturnType<typeof stubApi>): unknown[] {
   return fetchMock.mock.calls
     .filter(
@@ -395,13 +407,7 @@ describe('SequenceView', () => {
 
   it('says it is working out line risk until the marks are in', async () => {
     const fetchMock = stubApi();
-    const answer = fetchMock.getMockImplementation()!;
-    let release!: () => void;
-    const held = new Promise<void>((resolve) => (release = resolve));
-    fetchMock.mockImplementation(async (input, init) => {
-      if (String(input).includes('/api/line-risk/engine-input')) await held;
-      return answer(input, init);
-    });
+    const release = holdEngineInput(fetchMock);
 
     const wrapper = await openSequence();
 
@@ -438,13 +444,7 @@ describe('SequenceView', () => {
 
   it('opens the what-if at once, and offers to save once the effect is worked out', async () => {
     const fetchMock = stubApi();
-    const answer = fetchMock.getMockImplementation()!;
-    let release!: () => void;
-    const held = new Promise<void>((resolve) => (release = resolve));
-    fetchMock.mockImplementation(async (input, init) => {
-      if (String(input).includes('/api/line-risk/engine-input')) await held;
-      return answer(input, init);
-    });
+    const release = holdEngineInput(fetchMock);
     const wrapper = await openSequence();
     const s4 = boardOf().days[1]!.units[1]!;
 
