@@ -27,9 +27,9 @@ type BoardRiskCall = <K extends BoardRiskRequest['kind']>(
 export const useSequenceRiskStore = defineStore('sequence-risk', () => {
   const unitsAtRisk = shallowRef<BoardUnitAtRisk[] | null>(null);
   const range = ref<LineRiskRange | null>(null);
-  const { loading, error, run } = useLatestRequest();
-  let call: BoardRiskCall | null = null;
-  const engine = (): BoardRiskCall => (call ??= startEngine());
+  const { loading, error, run, cancel } = useLatestRequest();
+  let started: BoardRiskEngine | null = null;
+  const engine = (): BoardRiskCall => (started ??= startEngine()).call;
 
   /** True once the board's line risk has been worked out. */
   const loaded = computed(() => unitsAtRisk.value !== null);
@@ -63,17 +63,38 @@ export const useSequenceRiskStore = defineStore('sequence-risk', () => {
   /** A saved change becomes the board's line risk at once, before the server's planning event reloads it. */
   async function adopt(orders: readonly DayOrder[]): Promise<void> {
     if (!loaded.value) return;
-    unitsAtRisk.value = await engine()({ kind: 'adopt', orders: plainOrders(orders) });
+    const answer = await engine()({ kind: 'adopt', orders: plainOrders(orders) });
+    // Unless the board was left meanwhile.
+    if (loaded.value) unitsAtRisk.value = answer;
   }
 
-  return { unitsAtRisk, range, loading, error, loaded, atRisk, load, preview, adopt };
+  /**
+   * Stops the engine and forgets the board's line risk, when the board is left: on a large plant
+   * the engine holds tens of megabytes, and the board works its line risk out anew when opened
+   * (the plan may have changed meanwhile).
+   */
+  function release(): void {
+    cancel();
+    started?.stop();
+    started = null;
+    unitsAtRisk.value = null;
+    range.value = null;
+  }
+
+  return { unitsAtRisk, range, loading, error, loaded, atRisk, load, preview, adopt, release };
 });
 
+interface BoardRiskEngine {
+  call: BoardRiskCall;
+  /** Ends the engine; what it was asked and has not answered is refused. */
+  stop: () => void;
+}
+
 /** The engine in a worker where the browser has them; in the page otherwise (tests). */
-function startEngine(): BoardRiskCall {
+function startEngine(): BoardRiskEngine {
   if (typeof Worker === 'undefined') {
     const handle = boardRiskHandler();
-    return async (request) => handle(request);
+    return { call: async (request) => handle(request), stop: () => undefined };
   }
   const waiting = new Map<number, { resolve: (value: never) => void; reject: (error: Error) => void }>();
   let nextId = 1;
@@ -87,22 +108,27 @@ function startEngine(): BoardRiskCall {
       else pending?.reject(new Error(data.message));
     };
     // A worker that failed is gone: the next request starts another, which loads again.
-    started.onerror = (event) => {
-      started.terminate();
-      if (worker === started) worker = null;
-      for (const pending of waiting.values())
-        pending.reject(new Error(event.message || 'The line-risk engine stopped.'));
-      waiting.clear();
-    };
+    started.onerror = (event) => end(started, event.message || 'The line-risk engine stopped.');
     return started;
   };
-  return (request, transfer = []) =>
-    new Promise((resolve, reject) => {
-      const id = nextId++;
-      waiting.set(id, { resolve, reject });
-      const message: BoardRiskMessage = { id, request };
-      (worker ??= start()).postMessage(message, transfer);
-    });
+  const end = (ended: Worker, why: string): void => {
+    ended.terminate();
+    if (worker === ended) worker = null;
+    for (const pending of waiting.values()) pending.reject(new Error(why));
+    waiting.clear();
+  };
+  return {
+    call: (request, transfer = []) =>
+      new Promise((resolve, reject) => {
+        const id = nextId++;
+        waiting.set(id, { resolve, reject });
+        const message: BoardRiskMessage = { id, request };
+        (worker ??= start()).postMessage(message, transfer);
+      }),
+    stop: () => {
+      if (worker) end(worker, 'The line-risk engine was stopped.');
+    },
+  };
 }
 
 /** Day orders as plain data, to be copied to the engine (the board's may be reactive). */

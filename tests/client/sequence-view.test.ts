@@ -7,6 +7,7 @@ import type { SessionUser } from '@shared/schemas/user';
 import type { LineRiskInput } from '@shared/domain/line-risk';
 import { planMove } from '@shared/domain/sequence';
 import SequenceView from '@/views/SequenceView.vue';
+import { useSequenceRiskStore } from '@/stores/sequence-risk';
 
 const FROZEN = '2026-12-01';
 const FULL = '2026-12-04';
@@ -416,6 +417,38 @@ describe('SequenceView', () => {
     release();
     await waitFor(() => expect(wrapper.find('[data-test="at-risk-count"]').exists()).toBe(true));
     expect(wrapper.find('[data-test="risk-working"]').exists()).toBe(false);
+  });
+
+  it('forgets the line risk when the board is left, and works it out anew when it is opened again', async () => {
+    const fetchMock = stubApi();
+    const context = await createAppContext({ user: planner, path: '/sequence' });
+    const first = await mountInApp(SequenceView, context);
+    await waitFor(() => expect(first.find('[data-test="at-risk-count"]').exists()).toBe(true));
+    first.unmount();
+
+    const release = holdEngineInput(fetchMock);
+    const again = await mountInApp(SequenceView, context);
+
+    // No marks of the last visit meanwhile: the plan may have changed since.
+    expect(again.find('[data-test="at-risk-count"]').exists()).toBe(false);
+    expect(again.get('[data-test="risk-working"]').text()).toBe('Working out line risk…');
+    release();
+    await waitFor(() => expect(again.find('[data-test="at-risk-count"]').exists()).toBe(true));
+  });
+
+  it('drops a line risk that arrives after the board was left', async () => {
+    const fetchMock = stubApi();
+    const release = holdEngineInput(fetchMock);
+    const context = await createAppContext({ user: planner, path: '/sequence' });
+    const wrapper = await mountInApp(SequenceView, context);
+    wrapper.unmount();
+    release();
+    await flushPromises();
+
+    const risk = useSequenceRiskStore(context.pinia);
+    expect(risk.loaded).toBe(false);
+    expect(risk.loading).toBe(false);
+    expect(fetchMock.mock.calls.filter(([input]) => String(input).includes('/engine-input'))).toHaveLength(1);
   });
 
   it('marks the units at risk on their cards, with what they lack for hover and keyboard focus', async () => {

@@ -170,5 +170,13 @@ test.describe('Line risk', () => {
     await expect(sequence.status()).toContainText(`${serial} moved to`);
     await expect(earlier.locator(`[data-serial="${serial}"]`)).toBeVisible();
     expect(await sequence.serials(column)).not.toContain(serial);
+
+    // The board's engine runs in a worker of its own, which ends when the planner leaves the board.
+    expect(page.workers()).toHaveLength(1);
+    const ended = page.workers()[0]!.waitForEvent('close');
+    await page.getByRole('navigation').getByRole('link', { name: 'Line risk' }).click();
+    await expect(page.getByRole('heading', { level: 1, name: 'Line risk' })).toBeVisible();
+    await ended;
+    expect(page.workers()).toHaveLength(0);
   });
 });
