@@ -265,7 +265,7 @@ export class OverviewService {
         value: health.failing,
         unit: 'count',
         hint: 'Notices the mail server refused; they are retried and can be sent again from the Outbox.',
-        to: '/outbox',
+        to: '/admin/outbox',
         attention: health.failing > 0,
       },
       {
@@ -274,7 +274,7 @@ export class OverviewService {
         value: health.pending,
         unit: 'count',
         hint: 'Notices queued for the mail server.',
-        to: '/outbox',
+        to: '/admin/outbox',
         attention: false,
       },
       planner!,

@@ -21,7 +21,7 @@ import {
 } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { PlainRouteName } from './route-map';
-import { LINE_END_ROLES, MASTER_DATA_READ_ROLES, STOCK_ROLES } from './routes';
+import { LINE_END_ROLES, MASTER_DATA_READ_ROLES, READ_ROLES, READ_ROLES_AND_SUPPLIER, STOCK_ROLES } from './routes';
 
 export interface NavigationEntry {
   routeName: PlainRouteName;
@@ -47,7 +47,7 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'sequence',
     label: 'Build sequence',
     icon: markRaw(Sort),
-    roles: ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'],
+    roles: READ_ROLES,
     summary:
       'Units by day and position, planned, started or built, with capacity, the model mix and the frozen window.',
     summaryFor: {
@@ -76,7 +76,7 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'line-risk',
     label: 'Line risk',
     icon: markRaw(Warning),
-    roles: ['admin', 'planner', 'buyer', 'viewer'],
+    roles: READ_ROLES,
     summary:
       'Units of the sequence that cannot be built for want of a bought part, days before it happens, with a rescue for each.',
   },
@@ -84,21 +84,21 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'horizon',
     label: 'Horizon',
     icon: markRaw(TrendCharts),
-    roles: ['admin', 'buyer', 'planner', 'viewer'],
+    roles: READ_ROLES,
     summary: 'Gross demand per part and supplier, by day or ISO week, with each part’s gross-to-net record.',
   },
   {
     routeName: 'loops',
     label: 'Loops',
     icon: markRaw(Refresh),
-    roles: ['admin', 'buyer', 'planner', 'viewer'],
+    roles: READ_ROLES,
     summary: 'Kanban loops: cards recommended for the demand ahead versus cards in circulation, labels to print.',
   },
   {
     routeName: 'releases',
     label: 'Releases',
     icon: markRaw(Tickets),
-    roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
+    roles: READ_ROLES_AND_SUPPLIER,
     summary: 'What each supplier was asked to ship and when, their answers, and the exceptions waiting for a decision.',
     summaryFor: { supplier: 'What the plant asked you to ship and when, and your answers.' },
   },
@@ -114,7 +114,7 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'supplier-performance',
     label: 'Supplier performance',
     icon: markRaw(Medal),
-    roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'],
+    roles: READ_ROLES_AND_SUPPLIER,
     summary:
       'Each supplier month by month: on time and filled against what was first asked, promises kept, and how fast releases are answered.',
     summaryFor: {
@@ -133,7 +133,7 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'dock',
     label: 'Dock',
     icon: markRaw(Van),
-    roles: ['admin', 'receiving', 'buyer', 'planner', 'viewer'],
+    roles: READ_ROLES,
     summary: 'Deliveries on their way in: move them across the dock, count them in, attach the packing slip.',
     summaryFor: { viewer: 'Deliveries on their way in, at the dock and counted in.' },
   },
@@ -167,7 +167,7 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'calendar',
     label: 'Calendar',
     icon: markRaw(Calendar),
-    roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'],
+    roles: READ_ROLES,
     summary: 'Working weekdays and plant holidays, which every lead-time offset counts in.',
   },
   {

@@ -3,11 +3,14 @@ import type { Role } from '@shared/schemas/user';
 
 /** Reporting units built at the end of the line (the server's rule for builds). */
 export const LINE_END_ROLES: readonly Role[] = ['admin', 'planner', 'line'];
-/** Stock and kits are read by everyone signed in except suppliers. */
-export const STOCK_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
-
-/** Parts, suppliers and BOMs are read by everyone signed in except suppliers; buyers and admins change them. */
-export const MASTER_DATA_READ_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
+/** Every screen that shows the plant's data is open to everyone signed in except suppliers (the server's rule). */
+export const READ_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
+/** Stock and kits: read by all those; counts and scrap are for fewer roles, checked where they are posted. */
+export const STOCK_ROLES = READ_ROLES;
+/** Parts, suppliers and BOMs: read by all those; buyers and admins change them. */
+export const MASTER_DATA_READ_ROLES = READ_ROLES;
+/** Releases and supplier performance: also a supplier, who sees its own. */
+export const READ_ROLES_AND_SUPPLIER: readonly Role[] = [...READ_ROLES, 'supplier'];
 
 export const routes: RouteRecordRaw[] = [
   {
@@ -44,13 +47,13 @@ export const routes: RouteRecordRaw[] = [
     path: '/line-risk',
     name: 'line-risk',
     component: () => import('@/views/LineRiskView.vue'),
-    meta: { title: 'Line risk', roles: ['admin', 'planner', 'buyer', 'viewer'] },
+    meta: { title: 'Line risk', roles: READ_ROLES },
   },
   {
     path: '/sequence',
     name: 'sequence',
     component: () => import('@/views/SequenceView.vue'),
-    meta: { title: 'Build sequence', roles: ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'] },
+    meta: { title: 'Build sequence', roles: READ_ROLES },
   },
   {
     path: '/line-end',
@@ -80,19 +83,19 @@ export const routes: RouteRecordRaw[] = [
     path: '/horizon',
     name: 'horizon',
     component: () => import('@/views/HorizonView.vue'),
-    meta: { title: 'Horizon', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+    meta: { title: 'Horizon', roles: READ_ROLES },
   },
   {
     path: '/loops',
     name: 'loops',
     component: () => import('@/views/LoopsView.vue'),
-    meta: { title: 'Loops', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+    meta: { title: 'Loops', roles: READ_ROLES },
   },
   {
     path: '/releases',
     name: 'releases',
     component: () => import('@/views/ReleasesView.vue'),
-    meta: { title: 'Releases', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
+    meta: { title: 'Releases', roles: READ_ROLES_AND_SUPPLIER },
   },
   {
     path: '/releases/:number/confirm',
@@ -110,7 +113,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/suppliers/performance',
     name: 'supplier-performance',
     component: () => import('@/views/SupplierPerformanceView.vue'),
-    meta: { title: 'Supplier performance', roles: ['admin', 'buyer', 'planner', 'viewer', 'supplier'] },
+    meta: { title: 'Supplier performance', roles: READ_ROLES_AND_SUPPLIER },
   },
   {
     path: '/supplier',
@@ -122,7 +125,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/loops/:id/print',
     name: 'loop-print',
     component: () => import('@/views/LoopsPrintView.vue'),
-    meta: { title: 'Card labels', roles: ['admin', 'buyer', 'planner', 'viewer'] },
+    meta: { title: 'Card labels', roles: READ_ROLES },
   },
   {
     path: '/scan',
@@ -134,7 +137,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/dock',
     name: 'dock',
     component: () => import('@/views/DockView.vue'),
-    meta: { title: 'Dock', roles: ['admin', 'receiving', 'buyer', 'planner', 'viewer'] },
+    meta: { title: 'Dock', roles: READ_ROLES },
   },
   {
     path: '/admin/users',
@@ -152,7 +155,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/calendar',
     name: 'calendar',
     component: () => import('@/views/CalendarView.vue'),
-    meta: { title: 'Plant calendar', roles: ['admin', 'planner', 'buyer', 'receiving', 'viewer'] },
+    meta: { title: 'Plant calendar', roles: READ_ROLES },
   },
   {
     path: '/admin/outbox',

@@ -47,12 +47,46 @@ describe('navigationFor', () => {
     expect(names).toEqual(['home', 'releases', 'supplier-account', 'supplier-performance']);
   });
 
-  // Role rules from PRODUCT.md, "Second round": the line reports units built; stock is read by
-  // everyone but suppliers.
-  it('offers the line its end of the line, the sequence, stock and master data to read', () => {
+  // Role rules from PRODUCT.md: everything is readable by every signed-in role except supplier;
+  // the line reports units built.
+  it('offers the line its end of the line and every screen to read, but no scanning, imports or admin', () => {
     const names = navigationFor('line').map((entry) => entry.routeName);
 
-    expect(names).toEqual(['home', 'sequence', 'line-end', 'stock', 'parts', 'suppliers']);
+    expect(names).toEqual([
+      'home',
+      'sequence',
+      'line-end',
+      'stock',
+      'line-risk',
+      'horizon',
+      'loops',
+      'releases',
+      'supplier-performance',
+      'dock',
+      'parts',
+      'suppliers',
+      'calendar',
+    ]);
+  });
+
+  it('offers the receiving clerk every screen to read beside the dock and card scanning', () => {
+    const names = navigationFor('receiving').map((entry) => entry.routeName);
+
+    expect(names).toEqual([
+      'home',
+      'sequence',
+      'stock',
+      'line-risk',
+      'horizon',
+      'loops',
+      'releases',
+      'supplier-performance',
+      'card-scan',
+      'dock',
+      'parts',
+      'suppliers',
+      'calendar',
+    ]);
   });
 
   it('offers the Line end only to the roles that may report units built', () => {

@@ -7,6 +7,10 @@ import { savePartsWithStock } from '../../server/stock/stock.service';
 import { writeSetting } from '../../server/settings/settings';
 import { DEMO_ACCOUNTS } from '../../server/users/bootstrap';
 import { bearer, createTestContext, testPart, type TestContext } from './helpers';
+import { createMemoryHistory, createRouter } from 'vue-router';
+import { ROLES } from '../../shared/schemas/user';
+import { routes } from '../../src/router/routes';
+import { mayEnter } from '../../src/router/access';
 
 let context: TestContext;
 
@@ -74,6 +78,20 @@ describe('GET /api/overview', () => {
     expect(figure(planner, 'unitsAtRiskFrozen')).toMatchObject({ value: 0, attention: false });
     expect(figure(planner, 'daysToFirstStop')).toMatchObject({ value: null });
     expect(viewer.figures).toEqual(planner.figures);
+  });
+
+  it("links every role's figures to a screen of the app that role may open", async () => {
+    const router = createRouter({ history: createMemoryHistory(), routes });
+    let checked = 0;
+    for (const role of ROLES) {
+      for (const { key, to } of (await overviewOf(role)).figures) {
+        const target = router.resolve(to);
+        expect(target.name, `${role}: ${key} → ${to}`).not.toBe('not-found');
+        expect(mayEnter(target.meta.roles, role), `${role}: ${key} → ${to}`).toBe(true);
+        checked += 1;
+      }
+    }
+    expect(checked).toBeGreaterThan(ROLES.length);
   });
 
   it('answers 401 without a sign-in', async () => {
