@@ -177,3 +177,14 @@ export function supplierFormFields(): SchemaField[] {
     };
   });
 }
+
+/** A supplier's delivery cycle as written days–deliveries–delay; a dash when none is set (it is derived). */
+export function deliveryCycleText(supplier: {
+  cycleDays: number | null;
+  deliveriesPerCycle: number | null;
+  deliveryDelay: number | null;
+}): string {
+  const { cycleDays, deliveriesPerCycle, deliveryDelay } = supplier;
+  if (cycleDays === null && deliveriesPerCycle === null && deliveryDelay === null) return '—';
+  return [cycleDays, deliveriesPerCycle, deliveryDelay].map((value) => value ?? '?').join('–');
+}
