@@ -5,6 +5,24 @@ import { AuditPage, BomPage, PartPage, PartsPage } from './pages/master-data-pag
 import { DEMO_PASSWORD } from './pages/demo-api';
 
 test.describe('Master data', () => {
+  test('on a phone, a new part added with fields missing puts the cursor in the first of them', async ({ page }) => {
+    await page.setViewportSize({ width: 390, height: 844 });
+    const login = new LoginPage(page);
+    await login.open();
+    await login.signIn('buyer@example.com', DEMO_PASSWORD);
+    await expect(page).toHaveURL(/\/$/);
+    await page.goto('/parts');
+    await page.getByRole('button', { name: 'New part' }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByRole('button', { name: 'Add part' }).click();
+
+    // The message sits at the top of a dialog taller than the screen, far above the button.
+    const partNumber = dialog.getByLabel('Part number');
+    await expect(partNumber).toBeFocused();
+    await expect(dialog.getByText('Give the part number')).toBeInViewport();
+    await page.screenshot({ path: 'test-results/master-data-new-part-missing-390.png' });
+  });
+
   test('a buyer changes a part’s lead time and makes an engineering change on a model’s BOM', async ({ page }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     const login = new LoginPage(page);
