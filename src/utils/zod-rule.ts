@@ -34,9 +34,32 @@ export function importWordsRule(schema: z.ZodType, trigger: 'blur' | 'change' = 
       if (value === '' || value === null || value === undefined) return callback();
       const result = schema.safeParse(value);
       if (result.success) return callback();
-      callback(new Error(sentenceCase(describeCellIssue(result.error.issues[0], value))));
+      callback(new Error(issueWords(result.error.issues[0], value)));
     },
   };
+}
+
+/**
+ * What is wrong with each field of `body` in the words the CSV import uses, keyed by the field's
+ * path joined with dots (as the server's field errors are); empty when the schema passes.
+ */
+export function fieldProblems(schema: z.ZodType, body: Record<string, unknown>): Record<string, string> {
+  const result = schema.safeParse(body);
+  const byField: Record<string, string> = {};
+  if (result.success) return byField;
+  for (const issue of result.error.issues) {
+    const value = issue.path.reduce<unknown>(
+      (from, key) => (from && typeof from === 'object' ? (from as Record<PropertyKey, unknown>)[key] : undefined),
+      body,
+    );
+    byField[issue.path.join('.')] ??= issueWords(issue, value);
+  }
+  return byField;
+}
+
+function issueWords(issue: z.core.$ZodIssue, value: unknown): string {
+  if (value === null || (value === undefined && issue.code === 'invalid_type')) return 'Give a number';
+  return sentenceCase(describeCellIssue(issue, value));
 }
 
 function sentenceCase(message: string): string {

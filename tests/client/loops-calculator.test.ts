@@ -62,8 +62,34 @@ describe('LoopsSizingCalculator', () => {
     expect(drawer.querySelector('[data-test="sizing-formula"]')?.textContent).toContain('⌈8.8⌉ = 9');
   });
 
+  it('says by the field what is wrong with a number the server would refuse, and sends nothing until it is fixed', async () => {
+    const fetchMock = vi
+      .fn<typeof fetch>()
+      .mockImplementation(() =>
+        Promise.resolve(jsonResponse(200, { exact: 8.8, cards: 9, replenishmentTime: 2, formula: '' })),
+      );
+    vi.stubGlobal('fetch', fetchMock);
+    const { drawer } = await openCalculator();
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
+
+    type(getByLabel(drawer, 'Container quantity (C)'), '-25');
+    type(getByLabel(drawer, 'Daily demand (D)'), '-10');
+    await waitFor(() => expect(errorUnder(drawer, 'Container quantity (C)')).toBe('Must be greater than 0'));
+    expect(errorUnder(drawer, 'Daily demand (D)')).toBe('Must be at least 0');
+    expect(drawer.textContent).toContain('Fix the marked inputs to see the card count.');
+    expect(drawer.querySelector('[data-test="sizing-cards"]')?.textContent).not.toBe('9');
+    await new Promise((resolve) => setTimeout(resolve, 400));
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+
+    type(getByLabel(drawer, 'Container quantity (C)'), '20');
+    type(getByLabel(drawer, 'Daily demand (D)'), '10');
+    await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(2));
+    expect(bodies(fetchMock)[1]).toMatchObject({ dailyDemand: 10, containerQty: 20 });
+    expect(errorUnder(drawer, 'Container quantity (C)')).toBe('');
+  });
+
   it('waits for typing to pause, then puts the server’s message by the field it judged', async () => {
-    const message = 'Too small: expected number to be >0';
+    const message = 'Container quantity is above what a container holds';
     const fetchMock = vi
       .fn<typeof fetch>()
       .mockResolvedValueOnce(jsonResponse(200, { exact: 8.8, cards: 9, replenishmentTime: 2, formula: '' }))
@@ -72,7 +98,7 @@ describe('LoopsSizingCalculator', () => {
           error: {
             code: 'invalid_input',
             message: `containerQty: ${message}`,
-            details: [{ path: ['containerQty'], code: 'too_small', message }],
+            details: [{ path: ['containerQty'], code: 'custom', message }],
           },
         }),
       );
@@ -81,12 +107,12 @@ describe('LoopsSizingCalculator', () => {
     await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(1));
 
     const container = getByLabel(drawer, 'Container quantity (C)');
-    type(container, '-2');
-    type(container, '-25');
+    type(container, '2');
+    type(container, '25000');
     await waitFor(() => expect(fetchMock).toHaveBeenCalledTimes(2));
     await flushPromises();
 
-    expect((bodies(fetchMock)[1] as { containerQty: number }).containerQty).toBe(-25);
+    expect((bodies(fetchMock)[1] as { containerQty: number }).containerQty).toBe(25000);
     await waitFor(() => expect(errorUnder(drawer, 'Container quantity (C)')).toBe(message));
     expect(drawer.textContent).toContain('Fix the marked inputs to see the card count.');
   });
