@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { Router, type Response } from 'express';
 import { z } from 'zod';
 import {
   capturedAttachmentParamsSchema,
@@ -38,16 +38,32 @@ export function createOutboxRouter(services: Services, deps: RouteDeps, fakeSmtp
       if (!fakeSmtp) throw new NotFoundError('The embedded mail server is not running; SMTP_URL points elsewhere.');
       const file = fakeSmtp.attachment(params.id, params.index);
       if (!file) throw new NotFoundError('No such attachment among the captured mail.');
-      const fallback = file.fileName.replace(/[^\x20-\x7e]/g, '_').replace(/[\\"]/g, '_');
-      res.status(200);
-      // Always a download: a captured file is untrusted and must not render on the app's origin.
-      res.setHeader('Content-Type', 'application/octet-stream');
-      res.setHeader(
-        'Content-Disposition',
-        `attachment; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(file.fileName)}`,
-      );
-      res.setHeader('X-Content-Type-Options', 'nosniff');
-      res.send(file.content);
+      sendAsDownload(res, file);
+      return undefined;
+    },
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/outbox/:id/mail',
+    summary: 'One notice as written (text, HTML and files), to read as its recipient does',
+    access: ['admin'],
+    params: outboxMessageParamsSchema,
+    response: capturedMailSchema,
+    handler: ({ params }) => services.outbox.mail(params.id),
+  });
+
+  defineRoute(router, deps, {
+    method: 'get',
+    path: '/outbox/:id/attachments/:index',
+    summary: 'One file attached to a notice, as a download',
+    access: ['admin'],
+    params: capturedAttachmentParamsSchema,
+    produces: ['application/octet-stream'],
+    handler: async ({ params, res }) => {
+      const file = await services.outbox.attachment(params.id, params.index);
+      if (!file) throw new NotFoundError(`Notice ${params.id} has no attachment ${params.index}.`);
+      sendAsDownload(res, file);
       return undefined;
     },
   });
@@ -81,4 +97,17 @@ export function createOutboxRouter(services: Services, deps: RouteDeps, fakeSmtp
   });
 
   return router;
+}
+
+/** Always a download: a file sent by mail is untrusted and must not render on the app's origin. */
+function sendAsDownload(res: Response, file: { fileName: string; content: Buffer }): void {
+  const fallback = file.fileName.replace(/[^\x20-\x7e]/g, '_').replace(/[\\"]/g, '_');
+  res.status(200);
+  res.setHeader('Content-Type', 'application/octet-stream');
+  res.setHeader(
+    'Content-Disposition',
+    `attachment; filename="${fallback}"; filename*=UTF-8''${encodeURIComponent(file.fileName)}`,
+  );
+  res.setHeader('X-Content-Type-Options', 'nosniff');
+  res.send(file.content);
 }

@@ -1,6 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import { And, In, IsNull, LessThan, LessThanOrEqual, Not, Or, type EntityManager } from 'typeorm';
-import type { OutboxHealth, OutboxMessage } from '../../shared/schemas/outbox';
+import type { CapturedAttachment, CapturedMail, OutboxHealth, OutboxMessage } from '../../shared/schemas/outbox';
 import type { Database } from '../db/database';
 import { NotFoundError } from '../errors';
 import { UserEntity } from '../users/user.entity';
@@ -102,6 +102,38 @@ export class OutboxService {
   }
 
   /** "Send again": a notice not yet taken by the mail server is due at once. */
+  /** One notice as written, to read as its recipient does; its sending time, or when it was queued. */
+  async mail(id: number): Promise<CapturedMail> {
+    const row = await this.findRow(id);
+    return {
+      id: row.id,
+      to: row.to,
+      subject: row.subject,
+      text: row.text,
+      html: row.html ?? '',
+      date: row.sentAt ?? row.createdAt,
+      attachments: (row.attachments ?? []).map((file) => ({
+        fileName: file.filename,
+        contentType: file.contentType,
+        sizeBytes: Buffer.byteLength(file.content),
+      })),
+    };
+  }
+
+  /** A file attached to a notice, with its bytes; null when the notice has no such file. */
+  async attachment(id: number, index: number): Promise<(CapturedAttachment & { content: Buffer }) | null> {
+    const file = (await this.findRow(id)).attachments?.[index];
+    if (!file) return null;
+    const content = Buffer.from(file.content);
+    return { fileName: file.filename, contentType: file.contentType, sizeBytes: content.length, content };
+  }
+
+  private async findRow(id: number): Promise<OutboxMessageEntity> {
+    const row = await this.db.manager.findOneBy(OutboxMessageEntity, { id });
+    if (!row) throw new NotFoundError(`No notice ${id} in the outbox.`);
+    return row;
+  }
+
   async sendAgain(id: number): Promise<OutboxMessage> {
     return this.db.write(async (manager) => {
       const row = await manager.findOneBy(OutboxMessageEntity, { id });

@@ -29,3 +29,13 @@ export function listCapturedMail(signal?: AbortSignal): Promise<CapturedMail[]> 
 export function downloadCapturedAttachment(mailId: number, index: number, fileName: string): Promise<string> {
   return download(`/dev/mail/${mailId}/attachments/${index}`, fileName);
 }
+
+/** One notice as written (text, HTML, files), to read as its recipient does (admin). */
+export function getOutboxMail(id: number, signal?: AbortSignal): Promise<CapturedMail> {
+  return http.get<CapturedMail>(`/outbox/${id}/mail`, { signal });
+}
+
+/** Saves one file attached to a notice in the outbox under its own name (admin). */
+export function downloadOutboxAttachment(id: number, index: number, fileName: string): Promise<string> {
+  return download(`/outbox/${id}/attachments/${index}`, fileName);
+}

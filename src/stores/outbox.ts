@@ -75,6 +75,26 @@ export const useOutboxStore = defineStore('outbox', () => {
     );
   }
 
+  /** The notice being read from the outbox, as written. */
+  const reading = ref<CapturedMail | null>(null);
+  const { loading: readingLoading, error: readingError, run: runReading, cancel: cancelReading } = useLatestRequest();
+
+  /** Loads one notice as written, to read; a failure is kept in `readingError`. */
+  function read(id: number): Promise<void> {
+    reading.value = null;
+    return runReading(
+      (signal) => outboxApi.getOutboxMail(id, signal),
+      (answer) => {
+        reading.value = answer;
+      },
+    );
+  }
+
+  function stopReading(): void {
+    cancelReading();
+    reading.value = null;
+  }
+
   return {
     messages,
     loading,
@@ -90,5 +110,11 @@ export const useOutboxStore = defineStore('outbox', () => {
     sendAgain,
     isSending,
     downloadAttachment: outboxApi.downloadCapturedAttachment,
+    downloadOutboxAttachment: outboxApi.downloadOutboxAttachment,
+    reading,
+    readingLoading,
+    readingError,
+    read,
+    stopReading,
   };
 });

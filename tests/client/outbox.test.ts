@@ -98,10 +98,39 @@ describe('OutboxView', () => {
     const sentRow = rowOf(wrapper, 'Forecast week 49');
     expect(sentRow.get('.outbox-status').text()).toBe('Sent');
     expect(sentRow.text()).toContain('Sent 00:05');
-    expect(sentRow.find('button').exists()).toBe(false);
+    expect(sentRow.findAll('button').map((button) => button.text())).toEqual(['Read']);
     expect(wrapper.get('.outbox-view__failing').text()).toContain(
       '1 notice has not reached the mail server since 00:05',
     );
+  });
+
+  it('opens a notice as written from its row, the sent one as its recipient got it', async () => {
+    const fetchMock = stubApi({
+      'GET /api/outbox': () => jsonResponse(200, [failing, sent]),
+      'GET /api/outbox/health': () => jsonResponse(200, health),
+      'GET /api/dev/mail': () => jsonResponse(200, []),
+      'GET /api/outbox/4/mail': () =>
+        jsonResponse(200, {
+          id: 4,
+          to: sent.to,
+          subject: sent.subject,
+          text: 'Your forecast for week 49 is attached.',
+          html: '',
+          date: sent.sentAt,
+          attachments: [{ fileName: 'forecast.csv', contentType: 'text/csv', sizeBytes: 120 }],
+        }),
+    });
+    const wrapper = await openOutbox();
+
+    rowOf(wrapper, 'Forecast week 49').get('[data-test="read-notice"]').element.dispatchEvent(new Event('click'));
+    await flushPromises();
+
+    expect(callsTo(fetchMock, 'GET', '/api/outbox/4/mail')).toHaveLength(1);
+    const preview = document.querySelector('[aria-label="Selected message"]')!;
+    expect(preview.textContent).toContain('Forecast week 49');
+    expect(preview.textContent).toContain('sales@example.org');
+    expect(preview.textContent).toContain('Your forecast for week 49 is attached.');
+    expect(preview.textContent).toContain('forecast.csv');
   });
 
   it('shows the action column only while a notice in view can be sent again', async () => {
@@ -114,7 +143,7 @@ describe('OutboxView', () => {
       wrapper.findAll('.outbox-view__table th').map((cell) => cell.text());
 
     const allSent = await openOutbox();
-    expect(headers(allSent)).toEqual(['Status', 'To', 'Subject', 'Delivery', 'Queued']);
+    expect(headers(allSent)).toEqual(['Status', 'To', 'Subject', 'Delivery', 'Queued', 'Message']);
     allSent.unmount();
     stubApi({
       'GET /api/outbox': () => jsonResponse(200, [failing, sent]),
@@ -123,7 +152,7 @@ describe('OutboxView', () => {
     });
     const oneFailing = await openOutbox();
 
-    expect(headers(oneFailing)).toEqual(['Status', 'To', 'Subject', 'Delivery', 'Queued', 'Action']);
+    expect(headers(oneFailing)).toEqual(['Status', 'To', 'Subject', 'Delivery', 'Queued', 'Message', 'Action']);
   });
 
   it('tries a failing notice again at once and shows it as it now stands', async () => {
@@ -143,7 +172,7 @@ describe('OutboxView', () => {
     const row = rowOf(wrapper, 'Release R261202-FBS');
     expect(row.get('.outbox-status').text()).toBe('Sent');
     expect(row.text()).toContain('Sent 00:05 after 4 attempts');
-    expect(row.find('button').exists()).toBe(false);
+    expect(row.findAll('button').map((button) => button.text())).toEqual(['Read']);
   });
 });
 

@@ -122,6 +122,55 @@ describe('the outbox through a long mail-server outage', () => {
   });
 });
 
+describe('reading a notice in the outbox', () => {
+  it('gives the admin the notice as written with its files, as a download, and nobody else', async () => {
+    await context.db.write((manager) =>
+      enqueueMail(manager, {
+        to: 'orders@supplier-a.example.com',
+        subject: 'Forecast for week 50',
+        text: 'Your forecast is attached.',
+        html: '<p>Your forecast is attached.</p>',
+        attachments: [{ filename: 'forecast wk50.csv', content: 'part,qty\nP1,4\n', contentType: 'text/csv' }],
+      }),
+    );
+    const { id, createdAt } = await stored('Forecast for week 50');
+
+    const mail = await request(context.app).get(`/api/outbox/${id}/mail`).set(bearer(context.tokens.admin));
+    const file = await request(context.app)
+      .get(`/api/outbox/${id}/attachments/0`)
+      .set(bearer(context.tokens.admin))
+      .buffer(true)
+      .parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (chunk: Buffer) => chunks.push(chunk));
+        res.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    const byBuyer = await request(context.app).get(`/api/outbox/${id}/mail`).set(bearer(context.tokens.buyer));
+    const missing = await request(context.app)
+      .get(`/api/outbox/${id + 999}/mail`)
+      .set(bearer(context.tokens.admin));
+    const noFile = await request(context.app).get(`/api/outbox/${id}/attachments/1`).set(bearer(context.tokens.admin));
+
+    expect(mail.status).toBe(200);
+    expect(mail.body).toEqual({
+      id,
+      to: 'orders@supplier-a.example.com',
+      subject: 'Forecast for week 50',
+      text: 'Your forecast is attached.',
+      html: '<p>Your forecast is attached.</p>',
+      date: createdAt,
+      attachments: [{ fileName: 'forecast wk50.csv', contentType: 'text/csv', sizeBytes: 14 }],
+    });
+    expect(file.status).toBe(200);
+    expect(file.headers['content-type']).toBe('application/octet-stream');
+    expect(file.headers['content-disposition']).toContain('attachment;');
+    expect((file.body as Buffer).toString('utf8')).toBe('part,qty\nP1,4\n');
+    expect(byBuyer.status).toBe(403);
+    expect(missing.status).toBe(404);
+    expect(noFile.status).toBe(404);
+  });
+});
+
 describe('single-use links in sent notices', () => {
   it('are removed from the stored text once the mail server has the message', async () => {
     const link = 'https://plant.example.com/confirm/Q2F0Y2gtbWUtaWYteW91LWNhbg_0123456789';
