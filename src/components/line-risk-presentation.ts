@@ -46,10 +46,16 @@ export function expediteSentence(shortage: ShortageDto): string {
   return `Expedite ${formatQuantity(qty, shortage.uom)} of ${shortage.partNumber}${supplier} by ${formatDay(needBy)}.`;
 }
 
-/** "Build SN… (FS-20W) in slot 14 of Thu 3 Dec instead of SN…: all its parts are present." */
+/**
+ * "Build SN… (FS-20W) in slot 14 of Thu 3 Dec, ahead of SN…: …". A resequence keeps the line's slot
+ * busy; the unit at risk still lacks the part, so a what-if of the move shows it still at risk.
+ */
 export function resequenceSentence(option: ResequenceOptionDto): string {
   const { slot, candidate } = option;
-  return `Build ${candidate.serial} (${candidate.model}) in slot ${slot.sequence} of ${formatDay(slot.date)} instead of ${slot.serial}: all its parts are present.`;
+  return (
+    `Build ${candidate.serial} (${candidate.model}) in slot ${slot.sequence} of ${formatDay(slot.date)}, ahead of ${slot.serial}: ` +
+    `all its parts are present, so the line keeps running while ${slot.serial} waits for the part.`
+  );
 }
 
 export type ShortageAction = ShortageDto['action'];

@@ -209,7 +209,7 @@ describe('LineRiskView', () => {
     const detail = wrapper.get('[aria-label="Rescue for BAT-06-312"]');
     expect(detail.text()).toContain('Expedite 12 pcs of BAT-06-312 from FBS (Battery Supply Co) by Thu 3 Dec.');
     expect(detail.text()).toContain(
-      'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec instead of SN26120313: all its parts are present.',
+      'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec, ahead of SN26120313: all its parts are present, so the line keeps running while SN26120313 waits for the part.',
     );
     expect(detail.text()).toContain("Hazardous goods: follow the plant's handling and transport rules.");
     const units = wrapper.get('[aria-label="Units that lack BAT-06-312"]');
@@ -507,7 +507,7 @@ describe('line-risk wording', () => {
   it('words the rescues as instructions', () => {
     expect(expediteSentence(tank)).toBe('Expedite 3 pcs of TNK-R60 from SRM by Tue 8 Dec.');
     expect(resequenceSentence(battery.rescue.resequence!)).toBe(
-      'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec instead of SN26120313: all its parts are present.',
+      'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec, ahead of SN26120313: all its parts are present, so the line keeps running while SN26120313 waits for the part.',
     );
   });
 });

@@ -45,7 +45,7 @@ test.describe('Line risk', () => {
       new RegExp(`Expedite \\d[\\d,.]* \\w+ of ${firstPart} from \\w+`),
     );
     await expect(lineRisk.rescue(firstPart)).toContainText(
-      /Build SN\d+ \([\w-]+\) in slot \d+ of (Mon|Tue|Wed|Thu|Fri|Sat|Sun) \d{1,2} [A-Z][a-z]{2} instead of SN\d+: all its parts are present\./,
+      /Build SN\d+ \([\w-]+\) in slot \d+ of (Mon|Tue|Wed|Thu|Fri|Sat|Sun) \d{1,2} [A-Z][a-z]{2}, ahead of (SN\d+): all its parts are present, so the line keeps running while \2 waits for the part\./,
     );
     await expect(lineRisk.unitsLacking(firstPart).first()).toContainText(/SN\d+/);
     await expect(page.getByText('Hazardous', { exact: true }).first()).toBeVisible();
