@@ -9,8 +9,6 @@ import { unitWord } from '@shared/schemas/master-data';
  */
 
 const QTY_FORMAT = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 3 });
-// A total across parts adds several units of measure, so one decimal is all it can usefully show.
-const TOTAL_FORMAT = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 1 });
 
 export { unitWord };
 
@@ -24,9 +22,12 @@ export function formatQtyCell(value: number): string {
   return value === 0 ? '' : formatQty(value);
 }
 
-/** A sum across parts for a footer or a count line: always written, at most one decimal. */
+/**
+ * A sum of one unit across parts, for a footer or a count line: always written, to the same
+ * decimals as the cells it sums, so a column of one part totals to the figure in its cell.
+ */
 export function formatTotal(value: number): string {
-  return TOTAL_FORMAT.format(roundQty(value));
+  return QTY_FORMAT.format(roundQty(value));
 }
 
 /** A quantity with its unit in words: `12 pcs`, `1 pc`, `4 sets`, `1,250.5 kg`. */

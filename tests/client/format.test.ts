@@ -160,13 +160,15 @@ describe('quantities on screen', () => {
     expect(formatQuantity(5, 'XBX')).toBe('5 XBX');
   });
 
-  it('rounds to three decimals, blanks zeros in dense cells, and sums across parts to one decimal', () => {
+  it('rounds to three decimals, blanks zeros in dense cells, and writes a sum to the decimals of its cells', () => {
     expect(formatQty(71.50000000000001)).toBe('71.5');
     expect(formatQty(0.1235)).toBe('0.124');
     expect(formatQty(0)).toBe('0');
     expect(formatQtyCell(0)).toBe('');
     expect(formatQtyCell(12000)).toBe('12,000');
-    expect(formatTotal(1234.56)).toBe('1,234.6');
+    expect(formatTotal(1234.56)).toBe('1,234.56');
+    expect(formatTotal(16.32)).toBe(formatQty(16.32));
+    expect(formatTotal(0)).toBe('0');
   });
 
   it('writes sums in several units side by side, never as one number', () => {
@@ -176,7 +178,7 @@ describe('quantities on screen', () => {
         { uom: 'KGM', qty: 56.54 },
         { uom: 'PR', qty: 1 },
       ]),
-    ).toBe('1,250 pcs · 56.5 kg · 1 pair');
+    ).toBe('1,250 pcs · 56.54 kg · 1 pair');
     expect(formatUnitTotals([])).toBe('0');
   });
 });
