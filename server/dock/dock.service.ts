@@ -273,7 +273,7 @@ export class DockService {
           status: release.status as DockStatus,
           shipDate: card.shipDate,
           arrivalDate: card.arrivalDate,
-          expectedToday: card.arrivalDate === today,
+          expectedToday: anyOpen && card.arrivalDate === today,
           overdue: anyOpen && card.arrivalDate < today,
           carrier: notice ? notice.carrier : release.carrier,
           trackingNumber: notice ? notice.trackingNumber : release.trackingNumber,

@@ -66,7 +66,7 @@ export const dockItemSchema = z.object({
     description:
       'When the dock expects the goods: ship date plus transit working days for a shipment, the answered arrival or need date otherwise.',
   }),
-  expectedToday: z.boolean().meta({ description: 'The goods are expected today.' }),
+  expectedToday: z.boolean().meta({ description: 'The goods are expected today and some are still to come.' }),
   overdue: z.boolean().meta({ description: 'The expected day has passed and lines are still open.' }),
   carrier: z.string().nullable(),
   trackingNumber: z.string().nullable(),

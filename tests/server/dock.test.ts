@@ -289,10 +289,17 @@ describe('GET /api/dock', () => {
     });
     await context.db.write((manager) => bumpDockVersion(manager));
 
-    const ids = (await listDock()).map((item) => item.releaseId);
+    const items = await listDock();
+    const ids = items.map((item) => item.releaseId);
 
     expect(ids).toContain(receivedNow.release.id);
     expect(ids).not.toContain(earlier.release.id);
+    // Due today, but nothing is left to come: no longer flagged as expected.
+    expect(items.find((item) => item.releaseId === receivedNow.release.id)).toMatchObject({
+      arrivalDate: today,
+      expectedToday: false,
+      overdue: false,
+    });
   });
 
   it('shows a part or supplier edited since the last read, and answers 304 to the board the client holds', async () => {
