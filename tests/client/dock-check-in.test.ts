@@ -345,6 +345,11 @@ describe('DockCheckInDialog', () => {
     expect(fetchMock).not.toHaveBeenCalled();
     expect(countBox('BRUSH-20').value).toBe('-4');
     expect(lineElement('BRUSH-20').querySelector('[role="alert"]')?.textContent).toBe('Must be 0 or more.');
+
+    // A new count takes the message away; half a piece is no shortfall to speak of.
+    await type(countBox('BRUSH-20'), '2.5');
+    expect(lineElement('BRUSH-20').querySelector('[role="alert"]')).toBeNull();
+    expect(lineElement('BRUSH-20').textContent).not.toContain('37.5');
   });
 
   it('refuses a count of 0 without a discrepancy before sending anything', async () => {
