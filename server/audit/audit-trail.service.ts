@@ -50,10 +50,25 @@ function toEvent(entity: AuditEventEntity): AuditEvent {
     actorEmail: entity.actorEmail,
     action: entity.action,
     kind: entity.entity,
-    subject: entity.entityKey,
+    subject: subjectOf(entity),
     changes: entity.changes,
     summary: describeAuditChanges(entity.changes),
   };
+}
+
+/**
+ * What a person calls the record: a receipt is keyed by its own number, which nobody at the dock
+ * knows, so it is named by its release and part, the number kept beside them.
+ */
+function subjectOf(entity: AuditEventEntity): string {
+  const changes = entity.changes;
+  if (
+    entity.entity === 'receipt' &&
+    typeof changes?.releaseNumber === 'string' &&
+    typeof changes.partNumber === 'string'
+  )
+    return `${changes.releaseNumber} · ${changes.partNumber} (receipt ${entity.entityKey})`;
+  return entity.entityKey;
 }
 
 /** The events as CSV, one row each, the changes in one readable column. */

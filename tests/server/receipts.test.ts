@@ -106,6 +106,13 @@ describe('POST /api/receipts', () => {
       onHand: { from: 10, to: 50 },
       lineClosed: true,
     });
+    // The trail names the receipt as the dock does: by release and part.
+    const trail = await request(context.app).get('/api/audit?kind=receipt').set(bearer(context.tokens.admin));
+    expect(trail.body.events).toEqual(
+      expect.arrayContaining([
+        expect.objectContaining({ subject: `${release.number} · BRUSH-20 (receipt ${response.body.receipt.id})` }),
+      ]),
+    );
   });
 
   it('counts a replayed Idempotency-Key once and answers 200 with the same body', async () => {
