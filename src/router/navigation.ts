@@ -21,7 +21,7 @@ import {
 } from '@element-plus/icons-vue';
 import { ROLES, type Role } from '@shared/schemas/user';
 import type { PlainRouteName } from './route-map';
-import { LINE_END_ROLES, MASTER_DATA_READ_ROLES, READ_ROLES, READ_ROLES_AND_SUPPLIER, STOCK_ROLES } from './routes';
+import { LINE_END_ROLES, READ_ROLES, READ_ROLES_AND_SUPPLIER } from './routes';
 
 export interface NavigationEntry {
   routeName: PlainRouteName;
@@ -69,7 +69,7 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'stock',
     label: 'Stock',
     icon: markRaw(Goods),
-    roles: STOCK_ROLES,
+    roles: READ_ROLES,
     summary: 'On-hand of every part with its ledger of receipts, builds, counts and scrap; parts to count are flagged.',
   },
   {
@@ -141,14 +141,14 @@ export const navigation: readonly NavigationEntry[] = [
     routeName: 'parts',
     label: 'Parts',
     icon: markRaw(Box),
-    roles: MASTER_DATA_READ_ROLES,
+    roles: READ_ROLES,
     summary: 'Each part’s master data, stock, loop, supplier and where it is used; BOMs with engineering changes.',
   },
   {
     routeName: 'suppliers',
     label: 'Suppliers',
     icon: markRaw(Shop),
-    roles: MASTER_DATA_READ_ROLES,
+    roles: READ_ROLES,
     summary: 'Who the plant buys from: order e-mail, lead time and delivery cycle.',
   },
   {

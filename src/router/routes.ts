@@ -5,10 +5,6 @@ import type { Role } from '@shared/schemas/user';
 export const LINE_END_ROLES: readonly Role[] = ['admin', 'planner', 'line'];
 /** Every screen that shows the plant's data is open to everyone signed in except suppliers (the server's rule). */
 export const READ_ROLES: readonly Role[] = ['admin', 'planner', 'buyer', 'receiving', 'line', 'viewer'];
-/** Stock and kits: read by all those; counts and scrap are for fewer roles, checked where they are posted. */
-export const STOCK_ROLES = READ_ROLES;
-/** Parts, suppliers and BOMs: read by all those; buyers and admins change them. */
-export const MASTER_DATA_READ_ROLES = READ_ROLES;
 /** Releases and supplier performance: also a supplier, who sees its own. */
 export const READ_ROLES_AND_SUPPLIER: readonly Role[] = [...READ_ROLES, 'supplier'];
 
@@ -65,19 +61,19 @@ export const routes: RouteRecordRaw[] = [
     path: '/line-end/kits',
     name: 'line-end-kits',
     component: () => import('@/views/BuildsKitsView.vue'),
-    meta: { title: 'Kit sheets', roles: STOCK_ROLES },
+    meta: { title: 'Kit sheets', roles: READ_ROLES },
   },
   {
     path: '/stock',
     name: 'stock',
     component: () => import('@/views/StockView.vue'),
-    meta: { title: 'Stock', roles: STOCK_ROLES },
+    meta: { title: 'Stock', roles: READ_ROLES },
   },
   {
     path: '/stock/:partNumber',
     name: 'stock-part',
     component: () => import('@/views/StockPartView.vue'),
-    meta: { title: 'Part stock', roles: STOCK_ROLES },
+    meta: { title: 'Part stock', roles: READ_ROLES },
   },
   {
     path: '/horizon',
@@ -167,31 +163,31 @@ export const routes: RouteRecordRaw[] = [
     path: '/parts',
     name: 'parts',
     component: () => import('@/views/PartsView.vue'),
-    meta: { title: 'Parts', roles: MASTER_DATA_READ_ROLES },
+    meta: { title: 'Parts', roles: READ_ROLES },
   },
   {
     path: '/parts/:partNumber',
     name: 'part',
     component: () => import('@/views/PartView.vue'),
-    meta: { title: 'Part', roles: MASTER_DATA_READ_ROLES },
+    meta: { title: 'Part', roles: READ_ROLES },
   },
   {
     path: '/suppliers',
     name: 'suppliers',
     component: () => import('@/views/SuppliersView.vue'),
-    meta: { title: 'Suppliers', roles: MASTER_DATA_READ_ROLES },
+    meta: { title: 'Suppliers', roles: READ_ROLES },
   },
   {
     path: '/suppliers/:code',
     name: 'supplier',
     component: () => import('@/views/SupplierView.vue'),
-    meta: { title: 'Supplier', roles: MASTER_DATA_READ_ROLES },
+    meta: { title: 'Supplier', roles: READ_ROLES },
   },
   {
     path: '/bom/:parent',
     name: 'bom',
     component: () => import('@/views/BomView.vue'),
-    meta: { title: 'BOM', roles: MASTER_DATA_READ_ROLES },
+    meta: { title: 'BOM', roles: READ_ROLES },
   },
   {
     path: '/admin/audit',
