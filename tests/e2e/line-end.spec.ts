@@ -168,8 +168,15 @@ test.describe('Line end', () => {
       'Build sequence',
       'Line end',
       'Stock',
+      'Line risk',
+      'Horizon',
+      'Loops',
+      'Releases',
+      'Supplier performance',
+      'Dock',
       'Parts',
       'Suppliers',
+      'Calendar',
     ]);
     await screenshots(page, 'home-line');
     const lineEnd = new LineEndPage(page);
