@@ -82,7 +82,6 @@ export async function writePastReleases(
         carrier: null,
         trackingNumber: null,
         supplierNote: past.supplierNote,
-        dockColumn: 'to_line',
       }),
     );
     for (const line of past.lines) {
@@ -128,6 +127,37 @@ export async function writePastReleases(
 }
 
 /**
+ * The release a kanban container was ordered on. The release run sends one release per supplier
+ * and day, so a container ordered on a day the supplier's scheduled parts were also released joins
+ * that release, whose lines already came in: the release is then partly received.
+ */
+async function releaseForDelivery(manager: EntityManager, delivery: OpenKanbanDelivery): Promise<ReleaseEntity> {
+  const sameDay = await manager.findOneBy(ReleaseEntity, {
+    supplierCode: delivery.supplierCode,
+    releaseDate: delivery.releaseDate,
+    reference: '',
+  });
+  if (sameDay) {
+    const status = sameDay.status === 'received' ? 'partial' : sameDay.status;
+    await manager.update(ReleaseEntity, { id: sameDay.id }, { status });
+    return { ...sameDay, status };
+  }
+  return manager.save(
+    manager.create(ReleaseEntity, {
+      number: releaseNumber(delivery.supplierCode, delivery.releaseDate),
+      supplierCode: delivery.supplierCode,
+      releaseDate: delivery.releaseDate,
+      status: delivery.status,
+      sentAt: instantOn(delivery.releaseDate, SENT_AT_MINUTES),
+      confirmedAt: instantOn(delivery.answeredOn, ANSWERED_AT_MINUTES - 60),
+      carrier: null,
+      trackingNumber: null,
+      supplierNote: delivery.supplierNote,
+    }),
+  );
+}
+
+/**
  * The kanban containers on their way: one release each, its card ordered on the line. Written after
  * the cards are issued; the card taken is the loop's first.
  */
@@ -142,20 +172,7 @@ export async function writeOpenKanbanDeliveries(
         kind: 'supplier',
       });
       const card = await manager.findOneByOrFail(KanbanCardEntity, { loopId: loop.id, cardIndex: 1 });
-      const release = await manager.save(
-        manager.create(ReleaseEntity, {
-          number: releaseNumber(delivery.supplierCode, delivery.releaseDate),
-          supplierCode: delivery.supplierCode,
-          releaseDate: delivery.releaseDate,
-          status: delivery.status,
-          sentAt: instantOn(delivery.releaseDate, SENT_AT_MINUTES),
-          confirmedAt: instantOn(delivery.answeredOn, ANSWERED_AT_MINUTES - 60),
-          carrier: null,
-          trackingNumber: null,
-          supplierNote: delivery.supplierNote,
-          dockColumn: 'expected',
-        }),
-      );
+      const release = await releaseForDelivery(manager, delivery);
       const line = await manager.save(
         manager.create(ReleaseLineEntity, {
           releaseId: release.id,

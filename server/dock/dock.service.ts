@@ -101,7 +101,7 @@ export class DockService {
         ...(receivedIds.length > 0 ? [{ status: 'received', id: In(receivedIds) }] : []),
       ],
     });
-    const items = await this.toItems(manager, releases);
+    const items = await this.toItems(manager, releases, now);
     return items.sort(
       (a, b) =>
         DOCK_COLUMNS.indexOf(a.column) - DOCK_COLUMNS.indexOf(b.column) ||
@@ -170,10 +170,10 @@ export class DockService {
     return release;
   }
 
-  private async toItems(manager: EntityManager, releases: ReleaseEntity[]): Promise<DockItem[]> {
+  private async toItems(manager: EntityManager, releases: ReleaseEntity[], now = this.now()): Promise<DockItem[]> {
     if (releases.length === 0) return [];
-    const today = plantToday(this.now());
-    const todayStart = startOfDay(this.now());
+    const today = plantToday(now);
+    const todayStart = startOfDay(now);
     const releaseIds = releases.map((release) => release.id);
     const lines = await manager.find(ReleaseLineEntity, { where: { releaseId: In(releaseIds) }, order: { id: 'ASC' } });
     const lineIds = lines.map((line) => line.id);

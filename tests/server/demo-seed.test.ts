@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { openDatabase, type Database } from '../../server/db/database';
 import { plantToday } from '../../server/planning/plan-dates';
 import { HISTORY_DAYS, buildDemoScenario } from '../../seed/scenario';
@@ -203,4 +203,50 @@ describe('the demo plant’s Line risk after the first release run', () => {
       if (shortage.action === 'release') expect(shortage.releaseBy! >= today).toBe(true);
     }
   });
+});
+
+describe('the demo plant seeded on each day of a week', () => {
+  // The story's dates follow the day the demo starts, and the supplier's delivery weekdays decide
+  // which releases fall on the same day; every weekday must give the same story.
+  const week = Array.from({ length: 7 }, (_, index) => addCalendarDays('2027-03-01', index));
+
+  it.each(week)(
+    'seeds on %s with its dock story, one release per supplier and day, each e-mailed',
+    async (day) => {
+      // Only the clock is faked: loop sizing and the dock read the plant's today from it.
+      vi.useFakeTimers({ toFake: ['Date'] });
+      vi.setSystemTime(new Date(`${day}T10:00:00`));
+      const plant = await openDatabase(':memory:');
+      try {
+        await seedDemoScenario(plant, day);
+        const firstDay = buildDemoScenario(day).sequence[0]!.date;
+
+        const dock = await new DockService(plant).list();
+        const mismatches = await plant.manager.query(
+          `SELECT p.part_number FROM part p LEFT JOIN stock_movement m ON m.part_number = p.part_number
+         GROUP BY p.part_number, p.on_hand HAVING ABS(p.on_hand - COALESCE(SUM(m.qty), 0)) > 1e-6`,
+        );
+        const releases: { number: string }[] = await plant.manager.query('SELECT number FROM release');
+        const mail: { ref: string }[] = await plant.manager.query('SELECT ref FROM outbox_message');
+
+        const dueFirstDay = dock.filter((item) => item.arrivalDate === firstDay).flatMap((item) => item.lines);
+        expect(dueFirstDay.map((line) => line.partNumber).sort()).toEqual([...OPEN_KANBAN.dueToday].sort());
+        const late = dock.filter((item) => item.overdue);
+        expect(late.map((item) => [item.supplierCode, item.lines.filter((line) => line.open).length])).toEqual([
+          [LATE_SUPPLIER, 1],
+        ]);
+        expect(dock.filter((item) => item.status === 'exception').map((item) => item.lines[0]!.partNumber)).toEqual([
+          OPEN_KANBAN.exception,
+        ]);
+        expect(mismatches).toEqual([]);
+        expect(mail.map((message) => message.ref).sort()).toEqual(
+          releases.map((release) => `release:${release.number}`).sort(),
+        );
+      } finally {
+        await plant.close();
+        vi.useRealTimers();
+      }
+    },
+    120_000,
+  );
 });
