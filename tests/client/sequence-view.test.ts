@@ -1,5 +1,5 @@
 import { createAppContext, demoUsers, getButton, jsonResponse, mountInApp, waitFor } from './helpers';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it, onTestFinished, vi } from 'vitest';
 import { flushPromises } from '@vue/test-utils';
 import draggable from 'vuedraggable';
 import type { SequenceBoard, SequenceDay, SequenceUnit } from '@shared/schemas/sequence';
@@ -370,6 +370,10 @@ describe('SequenceView', () => {
     ]);
     current.days[1] = { ...changedDay, version: 'v-changed' };
     const changedAt = new Date(2026, 11, 4, 14, 5).toISOString();
+    // A change made on another day than today is told with its day.
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date(2026, 11, 2, 9, 0));
+    onTestFinished(() => vi.useRealTimers());
     let moved = false;
     const fetchMock = stubApi({
       'GET /api/sequence': () => jsonResponse(200, moved ? current : boardOf()),
