@@ -373,7 +373,9 @@ describe('SequenceView', () => {
     // A change made on another day than today is told with its day.
     vi.useFakeTimers({ toFake: ['Date'] });
     vi.setSystemTime(new Date(2026, 11, 2, 9, 0));
-    onTestFinished(() => vi.useRealTimers());
+    onTestFinished(() => {
+      vi.useRealTimers();
+    });
     let moved = false;
     const fetchMock = stubApi({
       'GET /api/sequence': () => jsonResponse(200, moved ? current : boardOf()),
