@@ -1,16 +1,13 @@
 import type { Database } from '../db/database';
 import type { ShortageDto } from '../../shared/schemas/line-risk';
-import { unitWord } from '../../shared/schemas/master-data';
+import { formatDay } from '../../shared/format/dates';
+import { formatQuantity } from '../../shared/format/quantity';
+import { resequenceSentence } from '../../shared/format/rescue-words';
 import { recordAudit } from '../audit/audit.service';
 import { enqueueMail } from '../outbox/outbox.service';
 import { readSetting, writeSetting } from '../settings/settings';
 import { UserEntity } from '../users/user.entity';
 import type { LineRiskService } from './line-risk.service';
-
-const QTY_FORMAT = new Intl.NumberFormat('en', { maximumFractionDigits: 3 });
-
-/** A quantity as the screens write it: `60 pcs`, `1 pc`, `12.5 kg`. */
-const quantity = (qty: number, uom: string) => `${QTY_FORMAT.format(qty)} ${unitWord(uom, qty)}`;
 
 /** Part number → first short date already reported to the planners. */
 const ALERTED = 'lineRisk.frozenWindowAlerts';
@@ -19,16 +16,12 @@ function alertText(shortages: ShortageDto[], appUrl: string): string {
   const blocks = shortages.map((shortage) => {
     const units = shortage.slotsAtRisk
       .slice(0, 10)
-      .map((slot) => `    ${slot.date} position ${slot.sequence}: ${slot.serial} (${slot.model})`);
+      .map((slot) => `    ${formatDay(slot.date)} position ${slot.sequence}: ${slot.serial} (${slot.model})`);
     const more = shortage.slotsAtRiskCount > 10 ? [`    … and ${shortage.slotsAtRiskCount - 10} more units`] : [];
-    const resequence = shortage.rescue.resequence
-      ? [
-          `  Or build ${shortage.rescue.resequence.candidate.serial} (${shortage.rescue.resequence.candidate.model}) in the slot of ${shortage.rescue.resequence.slot.serial}: all its parts are present.`,
-        ]
-      : [];
+    const resequence = shortage.rescue.resequence ? [`  Or: ${resequenceSentence(shortage.rescue.resequence)}`] : [];
     return [
       `${shortage.partNumber} ${shortage.description}${shortage.hazardous ? ' [hazardous goods]' : ''}`,
-      `  Short from ${shortage.firstShortDate} by ${quantity(shortage.shortQty, shortage.uom)}; ${shortage.slotsAtRiskCount} units cannot be built:`,
+      `  Short from ${formatDay(shortage.firstShortDate)} by ${formatQuantity(shortage.shortQty, shortage.uom)}; ${shortage.slotsAtRiskCount} units cannot be built:`,
       ...units,
       ...more,
       ...actionLines(shortage),
@@ -53,7 +46,7 @@ function actionLines(shortage: ShortageDto): string[] {
   }
   if (shortage.action === 'count') return ['  Its on-hand is negative or due a count: count it before expediting.'];
   return [
-    `  Expedite from ${supplier}: ${shortage.needBy.map((entry) => `${quantity(entry.qty, shortage.uom)} by ${entry.date}`).join(', ')}.`,
+    `  Expedite from ${supplier}: ${shortage.needBy.map((entry) => `${formatQuantity(entry.qty, shortage.uom)} by ${formatDay(entry.date)}`).join(', ')}.`,
   ];
 }
 
@@ -85,7 +78,7 @@ async function alertOnce(db: Database, lineRisk: LineRiskService, appUrl: string
     const planners = await manager.find(UserEntity, { where: { role: 'planner', active: true } });
     const subject =
       fresh.length === 1
-        ? `Line stop ahead: ${fresh[0].partNumber} short on ${fresh[0].firstShortDate}, inside the frozen window`
+        ? `Line stop ahead: ${fresh[0].partNumber} short on ${formatDay(fresh[0].firstShortDate)}, inside the frozen window`
         : `Line stop ahead: ${fresh.length} parts short inside the frozen window`;
     for (const planner of planners)
       await enqueueMail(manager, { to: planner.email, subject, text: alertText(fresh, appUrl) });

@@ -1,6 +1,7 @@
 import { safetyNotes, SAFETY_DEFERRAL } from '../../shared/domain/part-safety';
 import { unitWord } from '../../shared/schemas/master-data';
 import type { OutgoingMail } from '../outbox/outbox.service';
+import { formatQty } from '../../shared/format/quantity';
 
 export const HAZARDOUS_NOTE = 'Hazardous goods: pack and ship under the applicable dangerous-goods rules.';
 export const EXPEDITE_NOTE =
@@ -36,8 +37,6 @@ export interface ReleaseMailContent {
   resent: boolean;
 }
 
-const QTY_FORMAT = new Intl.NumberFormat('en', { maximumFractionDigits: 3 });
-
 function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (char) => `&#${char.charCodeAt(0)};`);
 }
@@ -69,7 +68,7 @@ function textTable(lines: ReleaseMailLine[]): string[] {
   const rows = lines.map((line) => [
     line.partNumber,
     line.description,
-    QTY_FORMAT.format(line.qty),
+    formatQty(line.qty),
     unitWord(line.uom, line.qty),
     line.needDate,
   ]);
@@ -104,7 +103,7 @@ function htmlTable(lines: ReleaseMailLine[]): string {
           .join('');
       return (
         `<tr><td style="${cell}">${escapeHtml(line.partNumber)}</td><td style="${cell}">${escapeHtml(line.description)}${hazard}</td>` +
-        `<td style="${cell};text-align:right">${QTY_FORMAT.format(line.qty)}</td><td style="${cell}">${escapeHtml(unitWord(line.uom, line.qty))}</td>` +
+        `<td style="${cell};text-align:right">${formatQty(line.qty)}</td><td style="${cell}">${escapeHtml(unitWord(line.uom, line.qty))}</td>` +
         `<td style="${cell}">${line.needDate}</td></tr>`
       );
     })

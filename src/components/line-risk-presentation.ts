@@ -1,4 +1,4 @@
-import type { ResequenceOptionDto, ShortageDto } from '@shared/schemas/line-risk';
+import type { ShortageDto } from '@shared/schemas/line-risk';
 import { roundQty } from '@shared/domain/quantity';
 import { countOf, formatDay, formatQuantity } from '@/format';
 
@@ -44,18 +44,6 @@ export function expediteSentence(shortage: ShortageDto): string {
     : '';
   const { qty, needBy } = shortage.rescue.expedite;
   return `Expedite ${formatQuantity(qty, shortage.uom)} of ${shortage.partNumber}${supplier} by ${formatDay(needBy)}.`;
-}
-
-/**
- * "Build SN… (FS-20W) in slot 14 of Thu 3 Dec, ahead of SN…: …". A resequence keeps the line's slot
- * busy; the unit at risk still lacks the part, so a what-if of the move shows it still at risk.
- */
-export function resequenceSentence(option: ResequenceOptionDto): string {
-  const { slot, candidate } = option;
-  return (
-    `Build ${candidate.serial} (${candidate.model}) in slot ${slot.sequence} of ${formatDay(slot.date)}, ahead of ${slot.serial}: ` +
-    `all its parts are present, so the line keeps running while ${slot.serial} waits for the part.`
-  );
 }
 
 export type ShortageAction = ShortageDto['action'];

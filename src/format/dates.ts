@@ -1,15 +1,14 @@
-import { isIsoDate, localIsoDate, toDayNumber, weekdayOfDayNumber } from '@shared/domain/date';
+import { localIsoDate } from '@shared/domain/date';
 import type { IsoDate } from '@shared/domain/types';
+import { MONTH_NAMES, WEEKDAY_NAMES, formatDate, formatDay, formatDayMonth } from '@shared/format/dates';
+
+export { formatDate, formatDay, formatDayMonth, formatWeekday } from '@shared/format/dates';
 
 /*
- * One date style on every screen, in English day-month order whatever the browser's language:
- * weekday, day, short month — "Wed 2 Dec" in dense tables and sentences, "Wed 2 Dec 2026" where
- * the year matters — and a 24-hour clock, "14:05". Files and API bodies keep ISO 8601
- * `YYYY-MM-DD`. The names come from these tables rather than Intl so that a browser's locale
- * data (newer en-GB data writes "Sept") cannot change a screen.
+ * Dates for people in the one style of `@shared/format/dates` ("Wed 2 Dec", "Wed 2 Dec 2026"), plus
+ * what only a screen needs: picker formats, month names, and instants on this computer's 24-hour
+ * clock ("14:05").
  */
-const WEEKDAY_NAMES = ['Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat', 'Sun'];
-const MONTH_NAMES = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 
 /** The same style in dayjs tokens, for Element Plus date pickers (`format`). */
 export const DATE_PICKER_FORMAT = 'ddd D MMM YYYY';
@@ -23,11 +22,6 @@ function pad2(value: number): string {
   return String(value).padStart(2, '0');
 }
 
-/** `Wed` for a plant date (a calendar day, so no time zone is involved). */
-export function formatWeekday(date: IsoDate): string {
-  return isIsoDate(date) ? WEEKDAY_NAMES[weekdayOfDayNumber(toDayNumber(date)) - 1]! : date;
-}
-
 /** ISO 8601 weekday numbers (1 = Monday … 7 = Sunday) as names: `Mon, Thu`. */
 export function formatWeekdays(weekdays: readonly number[]): string {
   return [...weekdays]
@@ -38,23 +32,6 @@ export function formatWeekdays(weekdays: readonly number[]): string {
 
 /** The weekdays as choices, Monday first (ISO 8601 numbering). */
 export const WEEKDAY_OPTIONS = WEEKDAY_NAMES.map((label, index) => ({ value: index + 1, label }));
-
-/** `2 Dec` for a plant date. */
-export function formatDayMonth(date: IsoDate): string {
-  return isIsoDate(date) ? `${Number(date.slice(8, 10))} ${MONTH_NAMES[Number(date.slice(5, 7)) - 1]}` : date;
-}
-
-/** `Wed 2 Dec` for a plant date, the style of tables and sentences; blank for none. */
-export function formatDay(date: IsoDate | null): string {
-  if (!date) return '';
-  return isIsoDate(date) ? `${formatWeekday(date)} ${formatDayMonth(date)}` : date;
-}
-
-/** `Wed 2 Dec 2026` for a plant date whose year matters; blank for none. */
-export function formatDate(date: IsoDate | null): string {
-  if (!date) return '';
-  return isIsoDate(date) ? `${formatDay(date)} ${date.slice(0, 4)}` : date;
-}
 
 /** `1–4 Dec`, or `30 Nov – 4 Dec` across a month end: the first to the last day of a span. */
 export function formatDayRange(first: IsoDate, last: IsoDate): string {

@@ -1,21 +1,12 @@
 import { roundQty } from '@shared/domain/quantity';
 import type { UnitTotal } from '@shared/domain/unit-totals';
 import { unitWord } from '@shared/schemas/master-data';
+import { formatQty } from '@shared/format/quantity';
 
-/*
- * Quantities read the way people on the floor say them: `12 pcs`, `1 pc`, `4 sets`, `1,250.5 kg`.
- * Unit words come from the shared table of UN/ECE Recommendation 20 codes (the server prints the
- * same words on card labels and mails); a code is never shown in place of a known word.
- */
-
-const QTY_FORMAT = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 3 });
+/* Quantities in the one style of `@shared/format/quantity`, plus the screens' cells and totals. */
 
 export { unitWord };
-
-/** A quantity without its unit: grouped thousands, at most three decimals (`1,250.5`). */
-export function formatQty(value: number): string {
-  return QTY_FORMAT.format(value);
-}
+export { formatQty, formatQuantity } from '@shared/format/quantity';
 
 /** A quantity for a dense table cell: like `formatQty`, but blank for zero so figures stand out. */
 export function formatQtyCell(value: number): string {
@@ -27,12 +18,7 @@ export function formatQtyCell(value: number): string {
  * decimals as the cells it sums, so a column of one part totals to the figure in its cell.
  */
 export function formatTotal(value: number): string {
-  return QTY_FORMAT.format(roundQty(value));
-}
-
-/** A quantity with its unit in words: `12 pcs`, `1 pc`, `4 sets`, `1,250.5 kg`. */
-export function formatQuantity(qty: number, uom: string): string {
-  return `${formatQty(qty)} ${unitWord(uom, qty)}`;
+  return formatQty(roundQty(value));
 }
 
 /** Sums in several units, one per unit and never added together: `1,250 pcs · 56.5 kg`; `0` when none. */

@@ -13,8 +13,8 @@ import {
   impactWhen,
   needByLines,
   needBySummary,
-  resequenceSentence,
 } from '@/components/line-risk-presentation';
+import { resequenceSentence } from '@shared/format/rescue-words';
 import { formatQuantity, localToday } from '@/format';
 
 const planner: SessionUser = { email: 'planner@example.com', name: 'Pat Planner', role: 'planner', supplierCode: null };

@@ -49,10 +49,11 @@ describe('frozen-window shortage alerts', () => {
     expect(again).toEqual([]);
     const mails = await alertsTo('planner@example.com');
     expect(mails).toHaveLength(1);
-    expect(mails[0].subject).toContain('P short on');
     expect(mails[0].text).toContain('S-1 (M)');
     // Quantities in the words the screens use, never the unit code.
-    expect(mails[0].text).toMatch(/Short from \d{4}-\d{2}-\d{2} by \d+ pcs?;/);
+    // Dates in the screens' style ("Mon 7 Dec"), never ISO.
+    expect(mails[0].text).toMatch(/Short from (Mon|Tue|Wed|Thu|Fri) \d{1,2} [A-Z][a-z]{2} by \d+ pcs?;/);
+    expect(mails[0].subject).toMatch(/P short on (Mon|Tue|Wed|Thu|Fri) \d{1,2} [A-Z][a-z]{2}, inside/);
     expect(mails[0].text).not.toContain('H87');
     expect(mails[0].text).toContain('http://plant.example.com/line-risk');
     expect(await alertsTo('buyer@example.com')).toHaveLength(0);
