@@ -1,3 +1,4 @@
+import { isDeepStrictEqual } from 'node:util';
 import type { EntityManager } from 'typeorm';
 import { lowLevelCodes } from '../../shared/domain/bom';
 import { checkRecord, type FieldIssue, type PartDetail } from '../../shared/schemas/master-data-edit';
@@ -26,7 +27,8 @@ export function changedFields<T extends object>(
   const from: Partial<T> = {};
   const to: Partial<T> = {};
   for (const key of Object.keys(after) as (keyof T)[]) {
-    if (before && before[key] === after[key]) continue;
+    // By value: a list of weekdays read again is a new array holding the same days.
+    if (before && isDeepStrictEqual(before[key], after[key])) continue;
     if (before) from[key] = before[key];
     to[key] = after[key];
   }

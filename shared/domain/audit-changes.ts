@@ -1,9 +1,21 @@
 /*
  * An audit event's `changes` as one line a person reads: "field: from → to" for each changed
- * field when the event holds before and after, the recorded facts otherwise.
+ * field when the event holds before and after, the recorded facts otherwise. Fields are recorded
+ * under their code names (`leadTimeDays`) and read as words ("lead time days").
  */
 
 const MAX_VALUE_LENGTH = 120;
+
+/** `leadTimeDays` → `lead time days`, `unit_weight_kg` → `unit weight kg`; acronyms stay whole (`SKU`). */
+function fieldWords(field: string): string {
+  return field
+    .replace(/_/g, ' ')
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/([A-Z]+)([A-Z][a-z])/g, '$1 $2')
+    .split(' ')
+    .map((word) => (/^[A-Z][a-z]/.test(word) ? word.toLowerCase() : word))
+    .join(' ');
+}
 
 function isRecord(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
@@ -26,7 +38,7 @@ function inWords(value: unknown): string {
   }
   if (isRecord(value)) {
     return Object.entries(value)
-      .map(([field, item]) => `${field} ${shown(item)}`)
+      .map(([field, item]) => `${fieldWords(field)} ${shown(item)}`)
       .join(', ');
   }
   return String(value);
@@ -41,10 +53,10 @@ export function describeAuditChanges(changes: Record<string, unknown> | null): s
     const from = isRecord(before) ? before : {};
     const to = isRecord(after) ? after : {};
     const fields = [...new Set([...Object.keys(from), ...Object.keys(to)])];
-    for (const field of fields) parts.push(`${field}: ${shown(from[field])} → ${shown(to[field])}`);
+    for (const field of fields) parts.push(`${fieldWords(field)}: ${shown(from[field])} → ${shown(to[field])}`);
   } else if (before !== undefined || after !== undefined) {
     parts.push(`${shown(before)} → ${shown(after)}`);
   }
-  for (const [field, value] of Object.entries(rest)) parts.push(`${field}: ${shown(value)}`);
+  for (const [field, value] of Object.entries(rest)) parts.push(`${fieldWords(field)}: ${shown(value)}`);
   return parts.join('; ');
 }

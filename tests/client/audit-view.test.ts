@@ -16,7 +16,7 @@ const trail: AuditList = {
       kind: 'part',
       subject: 'BOLT-8',
       changes: { before: { leadTimeDays: 3 }, after: { leadTimeDays: 5 } },
-      summary: 'leadTimeDays: 3 → 5',
+      summary: 'lead time days: 3 → 5',
     },
     {
       id: 1,
@@ -54,7 +54,7 @@ describe('AuditView', () => {
     await flushPromises();
 
     expect(wrapper.text()).toContain('buyer@example.com');
-    expect(wrapper.text()).toContain('leadTimeDays: 3 → 5');
+    expect(wrapper.text()).toContain('lead time days: 3 → 5');
     expect(wrapper.get('[data-test="audit-summary"]').text()).toBe('2 changes');
     // Actions and kinds of record in words, never their codes.
     const rows = wrapper.findAll('tr.el-table__row').map((row) => row.text());

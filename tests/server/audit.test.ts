@@ -28,7 +28,7 @@ describe('GET /api/audit', () => {
         action: 'update',
         kind: 'part',
         subject: 'GEAR',
-        summary: 'leadTimeDays: 0 → 4',
+        summary: 'lead time days: 0 → 4',
       }),
     ]);
   });
@@ -52,7 +52,7 @@ describe('GET /api/audit', () => {
     expect(response.headers['content-type']).toContain('text/csv');
     const lines = response.text.trim().split('\r\n');
     expect(lines[0]).toBe('at,user,action,kind,subject,changes');
-    expect(lines[1]).toContain('admin@example.com,update,supplier,SUP-B,leadTimeDays: 5 → 4');
+    expect(lines[1]).toMatch(/admin@example.com,update,supplier,SUP-B,lead time days: 5 → 4$/);
   });
 
   it('names the field of a bad filter and refuses other roles', async () => {
