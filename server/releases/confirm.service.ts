@@ -16,6 +16,7 @@ import { readLineTiming } from './line-timing';
 import { plantToday } from '../planning/plan-dates';
 import type { Database } from '../db/database';
 import type { AuthenticatedUser } from '../http/request-user';
+import { formatDay } from '../../shared/format/dates';
 
 /** Release states a supplier can still answer through a live link. */
 const ANSWERABLE = ['draft', 'sent'];
@@ -190,7 +191,7 @@ export class ConfirmService {
       .filter(({ line }) => line.shipDate < today)
       .map(({ line, index }) => ({
         path: ['lines', index, 'shipDate'],
-        message: `the ship date ${line.shipDate} is before today (${today})`,
+        message: `the ship date ${formatDay(line.shipDate)} is before today (${formatDay(today)})`,
       }));
     if (past.length > 0) throw new RefusedInputError('A ship date cannot be in the past.', past);
 

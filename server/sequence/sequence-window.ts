@@ -1,6 +1,7 @@
 import { addWorkingDays, isoWeekday, nextWorkingDay, WorkingCalendar } from '../../shared/domain/calendar';
 import { fromDayNumber, toDayNumber } from '../../shared/domain/date';
 import type { IsoDate, PlantCalendar } from '../../shared/domain/types';
+import { formatDay } from '../../shared/format/dates';
 import type { SequenceSettings } from '../../shared/schemas/sequence';
 
 const WEEKDAY_NAMES = ['', 'Monday', 'Tuesday', 'Wednesday', 'Thursday', 'Friday', 'Saturday', 'Sunday'];
@@ -94,7 +95,7 @@ export class SequenceRules {
 
 /** Dates with their weekday, as people read them: "Tue 2026-01-13". */
 export function listDates(dates: IsoDate[]): string {
-  return dates.map((date) => `${WEEKDAY_NAMES[isoWeekday(date)].slice(0, 3)} ${date}`).join(', ');
+  return dates.map(formatDay).join(', ');
 }
 
 /** The same month and day `years` years away (29 February becomes 1 March in a common year). */

@@ -26,6 +26,7 @@ import { bumpPlanningVersion } from '../settings/versions';
 import { SequenceEntryEntity } from './sequence-entry.entity';
 import { readSequenceSettings, writeSequenceSettings } from './sequence-settings';
 import { listDates, SequenceRules } from './sequence-window';
+import { formatDay, formatTime } from '../../shared/format/dates';
 import type { Database } from '../db/database';
 import { assertCurrent, versionOf, withVersion } from '../http/versions';
 
@@ -160,7 +161,7 @@ export class SequenceService {
       .map((day) => day.date);
     if (stale.length === 0) return;
     const lastChange = await lastSequenceChange(manager, stale);
-    const who = lastChange ? ` ${lastChange.by} changed it at ${lastChange.at.slice(11, 16)}.` : '';
+    const who = lastChange ? ` ${lastChange.by} changed it at ${formatTime(lastChange.at)}.` : '';
     throw new ConflictError(
       `${listDates(stale)} changed since your board was loaded.${who} The board shows it as it is now; make your move again.`,
       [{ days: stale.map((date) => this.describeDay(rules, date, byDate.get(date) ?? [])), lastChange }],
@@ -267,7 +268,7 @@ export class SequenceService {
           .filter((serial) => !named.has(serial))
           .map((serial) => ({
             path: ['days', dayIndex, 'serials'],
-            message: `unit '${serial}' of ${day.date} is missing; name it on a day or remove it`,
+            message: `unit '${serial}' of ${formatDay(day.date)} is missing; name it on a day or remove it`,
           })),
       );
       if (missing.length > 0) {
@@ -387,8 +388,8 @@ export class SequenceService {
       const taken = await manager.findOneBy(SequenceEntryEntity, { serial: request.serial });
       if (taken) {
         throw new ConflictError(
-          `Serial ${request.serial} is already in the sequence (${taken.date}, position ${taken.sequence}).`,
-          [{ path: ['serial'], message: `already used on ${taken.date}, position ${taken.sequence}` }],
+          `Serial ${request.serial} is already in the sequence (${formatDay(taken.date)}, position ${taken.sequence}).`,
+          [{ path: ['serial'], message: `already used on ${formatDay(taken.date)}, position ${taken.sequence}` }],
         );
       }
       if (rules.isFrozen(request.date) && !request.allowFrozen) throw frozenWindowError(rules, [request.date]);

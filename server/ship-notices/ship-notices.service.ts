@@ -24,6 +24,7 @@ import { ReleaseEntity } from '../releases/release.entity';
 import { ShipNoticeLineEntity } from './ship-notice-line.entity';
 import { ShipNoticeEntity } from './ship-notice.entity';
 import { releaseIdOfShippingLink } from './shipping-links';
+import { formatDay } from '../../shared/format/dates';
 
 /** Release states a shipment may be announced in: answered, and not yet fully received or called off. */
 const SHIPPABLE = ['confirmed', 'exception', 'shipped', 'partial'];
@@ -130,7 +131,10 @@ export class ShipNoticesService {
     const today = plantToday();
     if (body.shipDate < today) {
       throw new RefusedInputError('A ship date cannot be in the past.', [
-        { path: ['shipDate'], message: `the ship date ${body.shipDate} is before today (${today})` },
+        {
+          path: ['shipDate'],
+          message: `the ship date ${formatDay(body.shipDate)} is before today (${formatDay(today)})`,
+        },
       ]);
     }
     const lines = await manager.findBy(ReleaseLineEntity, { releaseId: release.id });

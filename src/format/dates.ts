@@ -1,8 +1,16 @@
 import { localIsoDate } from '@shared/domain/date';
 import type { IsoDate } from '@shared/domain/types';
-import { MONTH_NAMES, WEEKDAY_NAMES, formatDate, formatDay, formatDayMonth } from '@shared/format/dates';
+import {
+  MONTH_NAMES,
+  WEEKDAY_NAMES,
+  formatDate,
+  formatDay,
+  formatDayMonth,
+  formatTime,
+  toInstant,
+} from '@shared/format/dates';
 
-export { formatDate, formatDay, formatDayMonth, formatWeekday } from '@shared/format/dates';
+export { formatDate, formatDay, formatDayMonth, formatTime, formatWeekday } from '@shared/format/dates';
 
 /*
  * Dates for people in the one style of `@shared/format/dates` ("Wed 2 Dec", "Wed 2 Dec 2026"), plus
@@ -17,10 +25,6 @@ export const MONTH_PICKER_FORMAT = 'MMM YYYY';
 /** What a picker hands back (`value-format`): the ISO date the API takes. */
 export const ISO_DATE_FORMAT = 'YYYY-MM-DD';
 export const ISO_MONTH_FORMAT = 'YYYY-MM';
-
-function pad2(value: number): string {
-  return String(value).padStart(2, '0');
-}
 
 /** ISO 8601 weekday numbers (1 = Monday … 7 = Sunday) as names: `Mon, Thu`. */
 export function formatWeekdays(weekdays: readonly number[]): string {
@@ -47,25 +51,11 @@ export function formatMonth(month: string): string {
   return match && name ? `${name} ${match[1]}` : month;
 }
 
-function toInstant(value: string | Date): Date | null {
-  const instant = value instanceof Date ? value : new Date(value);
-  return Number.isNaN(instant.getTime()) ? null : instant;
-}
-
 /** The calendar day of an instant on this computer's clock, as `YYYY-MM-DD` (one rule with the server's). */
 export const isoDateOf = (instant: Date): IsoDate => localIsoDate(instant);
 
 /** Today's date on this computer's clock, as `YYYY-MM-DD`. */
 export const localToday = (now = new Date()): IsoDate => localIsoDate(now);
-
-/** `14:05` (or `14:05:09` with seconds) on a 24-hour clock, in this computer's time zone; blank for none. */
-export function formatTime(value: string | Date | null, options: { seconds?: boolean } = {}): string {
-  if (!value) return '';
-  const instant = toInstant(value);
-  if (!instant) return String(value);
-  const time = `${pad2(instant.getHours())}:${pad2(instant.getMinutes())}`;
-  return options.seconds ? `${time}:${pad2(instant.getSeconds())}` : time;
-}
 
 /** `Wed 2 Dec 2026`: the day of a stored timestamp on this computer's clock; blank for none. */
 export function formatDateOf(value: string | Date | null): string {

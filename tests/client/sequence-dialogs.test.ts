@@ -118,14 +118,14 @@ describe('SequenceAddUnitDialog', () => {
   });
 
   it('shows a serial already in the sequence (409) under the serial input', async () => {
-    const message = 'Serial SN-NEW-1 is already in the sequence (2026-12-07, position 3).';
+    const message = 'Serial SN-NEW-1 is already in the sequence (Mon 7 Dec, position 3).';
     stubApi({
       'POST /api/sequence/units': () =>
         jsonResponse(409, {
           error: {
             code: 'conflict',
             message,
-            details: [{ path: ['serial'], message: 'already used on 2026-12-07, position 3' }],
+            details: [{ path: ['serial'], message: 'already used on Mon 7 Dec, position 3' }],
           },
         }),
     });

@@ -344,7 +344,7 @@ describe('SequenceView', () => {
   });
 
   it('puts the days back and says why when the server refuses a move', async () => {
-    const reason = 'Fri 2026-12-04 would hold 4 units, over the daily capacity of 3.';
+    const reason = 'Fri 4 Dec would hold 4 units, over the daily capacity of 3.';
     stubApi({
       'PUT /api/sequence/days': () => jsonResponse(409, { error: { code: 'over_capacity', message: reason } }),
     });
@@ -384,7 +384,7 @@ describe('SequenceView', () => {
         return jsonResponse(409, {
           error: {
             code: 'stale',
-            message: 'Fri 2026-12-04 changed since your board was loaded.',
+            message: 'Fri 4 Dec changed since your board was loaded.',
             details: [
               { days: [current.days[1]], lastChange: { by: 'Ada Admin', at: changedAt, action: 'resequence' } },
             ],
