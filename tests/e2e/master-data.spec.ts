@@ -54,7 +54,7 @@ test.describe('Master data', () => {
 
     // The dialog opens on the line as it is: the same part and its quantity per.
     await page.getByRole('button', { name: 'Engineering change of BLT-M8-25' }).first().click();
-    const change = page.getByRole('dialog');
+    const change = page.getByRole('dialog', { name: /^Engineering change on / });
     await expect(change.locator('.el-select')).toContainText('BLT-M8-25');
     await expect(change.getByLabel('Qty per')).toHaveValue('12');
     await change.getByRole('button', { name: 'Cancel' }).click();

@@ -63,7 +63,8 @@ export class BomPage {
       .getByRole('button', { name: `Engineering change of ${component}` })
       .first()
       .click();
-    const dialog = this.page.getByRole('dialog');
+    // By its name: the date picker's panel is a dialog too, and may still be closing.
+    const dialog = this.page.getByRole('dialog', { name: /^Engineering change on / });
     await dialog.getByLabel('Replacement').click();
     await this.page.keyboard.type(replacement);
     await this.page.getByRole('option', { name: replacement, exact: true }).click();
