@@ -48,6 +48,16 @@ test.describe('imports', () => {
     await expect(imports.previewRowsWithProblems()).toContainText('NO-SUCH-PART');
     await page.mouse.move(0, 0);
     await page.screenshot({ path: 'test-results/imports.png', fullPage: true, animations: 'disabled' });
+    // On a phone the problem's words, with the column they name, fit the screen.
+    const desk = page.viewportSize()!;
+    await page.setViewportSize({ width: 390, height: 844 });
+    const problem = imports.problemReport().locator('td').filter({ hasText: "unknown part 'NO-SUCH-PART'" });
+    await expect(problem).toContainText('part_number');
+    const box = (await problem.boundingBox())!;
+    expect(box.x + box.width).toBeLessThanOrEqual(390);
+    await problem.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: 'test-results/imports-problems-390.png', animations: 'disabled' });
+    await page.setViewportSize(desk);
 
     await imports.chooseCsv('counts-corrected.csv', COUNTS_CORRECTED);
     await expect(imports.problemReport()).toHaveCount(0);

@@ -86,6 +86,13 @@ test.describe('Line risk', () => {
     await settleForScreenshot(page);
     await shoot(page, 'line-risk-actions-1440');
     await page.setViewportSize(PHONE);
+    // On a phone the part, its impact, the first short day and the quantity short fit the screen.
+    const battery = lineRisk.partRows().filter({ hasText: 'BAT-06-312' });
+    await expect(battery).toContainText(/Within a week|In frozen window|Later/);
+    await expect(battery).toContainText(/from (Mon|Tue|Wed|Thu|Fri) \d{1,2} [A-Z][a-z]{2}\s*[\d,.]+ pcs/);
+    const shortCell = battery.locator('td').filter({ hasText: /from (Mon|Tue|Wed|Thu|Fri)/ });
+    const box = (await shortCell.boundingBox())!;
+    expect(box.x + box.width).toBeLessThanOrEqual(PHONE.width);
     await shoot(page, 'line-risk-actions-390');
     await page.setViewportSize(DESKTOP);
 
