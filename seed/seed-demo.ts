@@ -91,7 +91,7 @@ async function seedBuiltHistory(manager: EntityManager, scenario: DemoScenario):
     ),
     kind: 'opening',
     userEmail: null,
-    reason: 'On-hand when the plant started with Cardloop',
+    reason: 'On-hand when the plant started with Cardloop, as its last cycle count left it',
     at: opened,
   }));
   // In time order, so each movement's balance is the part's on-hand at that moment.
