@@ -158,8 +158,8 @@ async function releaseForDelivery(manager: EntityManager, delivery: OpenKanbanDe
 }
 
 /**
- * The kanban containers on their way: one release each, its card ordered on the line. Written after
- * the cards are issued; the card taken is the loop's first.
+ * The kanban containers on their way, each on its supplier's release of the day it was ordered, its
+ * card ordered on the line. Written after the cards are issued; the card taken is the loop's first.
  */
 export async function writeOpenKanbanDeliveries(
   db: Database,
