@@ -1,5 +1,6 @@
 import { In, Not } from 'typeorm';
 import { addWorkingDays, workingDaysBetween } from '../../shared/domain/calendar';
+import { formatDay } from '../../shared/format/dates';
 import type { Overview, OverviewFigure } from '../../shared/schemas/overview';
 import type { Role } from '../../shared/schemas/user';
 import { readCalendar } from '../calendar/calendar.service';
@@ -101,7 +102,7 @@ export class OverviewService {
         value: inFrozen,
         unit: 'count',
         hint: frozenUntil
-          ? `Units to build up to ${frozenUntil} that cannot get every part they need.`
+          ? `Units to build up to ${formatDay(frozenUntil)} that cannot get every part they need.`
           : 'No frozen window is set.',
         to: '/line-risk',
         attention: inFrozen > 0,
@@ -112,7 +113,7 @@ export class OverviewService {
         value: daysToFirstStop,
         unit: 'workingDays',
         hint: firstStop
-          ? `The first unit that would stop the line is built on ${firstStop}.`
+          ? `The first unit that would stop the line is built on ${formatDay(firstStop)}.`
           : 'No unit in the next four weeks lacks a part.',
         to: '/line-risk',
         attention: daysToFirstStop !== null && daysToFirstStop <= report.frozenWindowDays,
