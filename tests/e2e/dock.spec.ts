@@ -189,7 +189,7 @@ test.describe('Dock', () => {
     await expect(dialog).toBeHidden();
     await expect(dock.column('counted').locator(`[data-card="${key}"]`)).toBeVisible();
     // The release is received, or part received when it has lines due on other days.
-    await expect(dock.card(key).locator('[data-test="dock-status"]')).toHaveText(/^(Received|Part received)$/);
+    await expect(dock.card(key).locator('[data-test="dock-status"]')).toHaveText(/^(Received|Partly received)$/);
     await settleForScreenshot(page);
     await page.screenshot({ path: 'test-results/dock.png', fullPage: true });
   });
