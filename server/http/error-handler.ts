@@ -1,5 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import { ZodError } from 'zod';
+import { issueWords } from '../../shared/schemas/issue-words';
 import { AppError, type ErrorKind } from '../errors';
 
 const STATUS: Record<ErrorKind, number> = {
@@ -36,8 +37,8 @@ export function errorHandler(error: unknown, _req: Request, res: Response, _next
     res.status(400).json({
       error: {
         code: 'invalid_input',
-        message: error.issues.map((issue) => `${issue.path.join('.') || 'input'}: ${issue.message}`).join('; '),
-        details: error.issues.map((issue) => ({ path: issue.path, code: issue.code, message: issue.message })),
+        message: error.issues.map((issue) => `${issue.path.join('.') || 'input'}: ${issueWords(issue)}`).join('; '),
+        details: error.issues.map((issue) => ({ path: issue.path, code: issue.code, message: issueWords(issue) })),
       },
     });
     return;

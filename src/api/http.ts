@@ -22,7 +22,8 @@ export class ApiError extends Error {
     for (const issue of this.details) {
       if (!isFieldIssue(issue) || issue.path.length === 0) continue;
       const field = issue.path.join('.');
-      byField[field] ??= issue.message;
+      // Said under its field, so it starts a sentence.
+      byField[field] ??= issue.message.charAt(0).toUpperCase() + issue.message.slice(1);
     }
     return byField;
   }

@@ -1,6 +1,7 @@
 import type { FormItemRule } from 'element-plus';
 import type { z } from 'zod';
 import { describeCellIssue } from '@shared/schemas/imports';
+import { issueWords } from '@shared/schemas/issue-words';
 
 /**
  * An Element Plus form rule that checks a field with the same zod schema the server applies,
@@ -20,7 +21,9 @@ export function zodRule(schema: z.ZodType, trigger: 'blur' | 'change' = 'blur'):
 /** What the schema says is wrong with `value`, as a sentence; null when it passes. */
 export function zodProblem(schema: z.ZodType, value: unknown): string | null {
   const result = schema.safeParse(value);
-  return result.success ? null : sentenceCase(result.error.issues[0]?.message ?? 'Invalid value');
+  if (result.success) return null;
+  const issue = result.error.issues[0];
+  return sentenceCase(issue ? issueWords(issue) : 'invalid value');
 }
 
 /**
@@ -34,7 +37,7 @@ export function importWordsRule(schema: z.ZodType, trigger: 'blur' | 'change' = 
       if (value === '' || value === null || value === undefined) return callback();
       const result = schema.safeParse(value);
       if (result.success) return callback();
-      callback(new Error(issueWords(result.error.issues[0], value)));
+      callback(new Error(cellWords(result.error.issues[0], value)));
     },
   };
 }
@@ -52,12 +55,13 @@ export function fieldProblems(schema: z.ZodType, body: Record<string, unknown>):
       (from, key) => (from && typeof from === 'object' ? (from as Record<PropertyKey, unknown>)[key] : undefined),
       body,
     );
-    byField[issue.path.join('.')] ??= issueWords(issue, value);
+    byField[issue.path.join('.')] ??= cellWords(issue, value);
   }
   return byField;
 }
 
-function issueWords(issue: z.core.$ZodIssue, value: unknown): string {
+/** The import's words for a cell's value the schema refuses. */
+function cellWords(issue: z.core.$ZodIssue, value: unknown): string {
   if (value === null || (value === undefined && issue.code === 'invalid_type')) return 'Give a number';
   return sentenceCase(describeCellIssue(issue, value));
 }

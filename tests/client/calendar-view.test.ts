@@ -135,7 +135,7 @@ describe('CalendarView', () => {
     getButton(wrapper.element, 'Save calendar').click();
     await flushPromises();
 
-    expect(wrapper.text()).toContain('a date as YYYY-MM-DD');
+    expect(wrapper.text()).toContain('A date as YYYY-MM-DD');
     expect(wrapper.text()).toContain('The calendar was not saved: Invalid input');
   });
 

@@ -265,7 +265,7 @@ describe('PartView', () => {
     expect(body.leadTimeDays).toBe(12);
     expect(body).not.toHaveProperty('onHand');
     // The message slides in with a transition.
-    await waitFor(() => expect(dialog.textContent).toContain('must be at most 365'), { timeout: 5000 });
+    await waitFor(() => expect(dialog.textContent).toContain('Must be at most 365'), { timeout: 5000 });
     wrapper.unmount();
   });
 });

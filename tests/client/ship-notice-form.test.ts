@@ -129,7 +129,7 @@ describe('ShipNoticeView through the link in a confirmation receipt', () => {
     await flushPromises();
 
     expect(wrapper.get('[role="alert"]').text()).toBe('The ship notice does not fit release R261201-SRM.');
-    expect(wrapper.text()).toContain('line 11 (TNK-R60): 6 is more than the 5 still open');
+    expect(wrapper.text()).toContain('Line 11 (TNK-R60): 6 is more than the 5 still open');
   });
 
   it('keeps a negative or more than still open as typed, says so beside the line and sends nothing', async () => {

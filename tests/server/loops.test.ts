@@ -164,7 +164,10 @@ describe('POST /api/kanban/size', () => {
 
     expect(response.status).toBe(400);
     expect(response.body.error.code).toBe('invalid_input');
-    expect(response.body.error.details).toEqual([expect.objectContaining({ path: ['containerQty'] })]);
+    expect(response.body.error.details).toEqual([
+      expect.objectContaining({ path: ['containerQty'], message: 'must be greater than 0' }),
+    ]);
+    expect(response.body.error.message).toBe('containerQty: must be greater than 0');
   });
 
   it('reports a sizing rule the schema cannot see in the same error shape', async () => {
