@@ -215,6 +215,37 @@ describe('LoopsView', () => {
     expect(containerInput.value).toBe('12');
   });
 
+  it('refuses numbers out of range in words beside each field, and sends nothing', async () => {
+    const fetchMock = stubApi({
+      'GET /api/kanban/loops': () => jsonResponse(200, [loopOf()]),
+      'GET /api/suppliers': () => jsonResponse(200, []),
+    });
+    const wrapper = await openLoops();
+
+    wrapper.get('[aria-label="Edit loop ACT-DK36"]').trigger('click');
+    await flushPromises();
+    const dialog = document.body.querySelector<HTMLElement>('[role="dialog"][aria-label="Edit loop ACT-DK36"]')!;
+    for (const [label, value] of [
+      ['Container quantity (C)', '0'],
+      ['Safety factor (α)', '-1'],
+      ['Sizing window (working days)', '500'],
+    ]) {
+      const input = getByLabel(dialog, label) as HTMLInputElement;
+      input.value = value;
+      input.dispatchEvent(new Event('input'));
+      input.dispatchEvent(new Event('change'));
+    }
+    await flushPromises();
+    getButton(dialog, 'Save loop').click();
+    await flushPromises();
+
+    const errors = () => [...dialog.querySelectorAll('.el-form-item__error')].map((error) => error.textContent?.trim());
+    await waitFor(() =>
+      expect(errors()).toEqual(['Must be greater than 0', 'Must be at least 0', 'Must be at most 120']),
+    );
+    expect(callsTo(fetchMock, 'PATCH', '/api/kanban/loops/45')).toHaveLength(0);
+  });
+
   it('offers Accept and Edit to a buyer but not to a viewer', async () => {
     stubApi({
       'GET /api/kanban/loops': () => jsonResponse(200, [loopOf()]),
