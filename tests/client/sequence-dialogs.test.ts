@@ -148,8 +148,12 @@ describe('SequenceAddUnitDialog', () => {
     await fill(wrapper, dialog, FROZEN);
 
     getButton(dialog, 'Add unit').click();
-    await waitFor(() => expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'));
-    getButton(document.body, 'Add to the frozen day').click();
+    await waitFor(() =>
+      expect(document.body.textContent).toContain(
+        'is inside the frozen window: the line may already be kitting its units',
+      ),
+    );
+    getButton(document.body, 'Add it anyway').click();
     await waitFor(() => expect(wrapper.emitted('added')).toHaveLength(1));
 
     expect(bodiesOf(fetchMock, 'POST', '/api/sequence/units')).toEqual([

@@ -206,7 +206,7 @@ async function whatIfShown(): Promise<Element> {
 }
 
 /** Answers the what-if shown before a move is saved. */
-async function answerWhatIf(button: 'Save the change' | 'Cancel'): Promise<void> {
+async function answerWhatIf(button: 'Save the change' | 'Move it anyway' | 'Cancel'): Promise<void> {
   await whatIfShown();
   lastButton(button).click();
   await flushPromises();
@@ -317,23 +317,23 @@ describe('SequenceView', () => {
     expect(column(wrapper, OPEN).get('[data-test="day-load"]').text()).toBe('2 / 3 units');
   });
 
-  it('asks before changing the frozen window and sends allowFrozen only once the planner says yes', async () => {
+  it('says in the preview that a move changes the frozen window, and sends allowFrozen only when moved anyway', async () => {
     const fetchMock = stubApi();
     const wrapper = await openSequence();
 
     await chooseFromMenu('S1', 'Move down');
-    await answerWhatIf('Save the change');
-    await waitFor(() => expect(document.body.textContent).toContain('This changes the frozen window — are you sure?'));
-    getButton(document.body, 'Keep it as it is').click();
-    await flushPromises();
-    const afterNo = putBodies(fetchMock).length;
-    await chooseFromMenu('S1', 'Move down');
-    await answerWhatIf('Save the change');
-    await waitFor(() => lastButton('Change the frozen window'));
-    lastButton('Change the frozen window').click();
+    await whatIfShown();
+    const note = document.body.querySelector('[data-test="what-if-frozen"]');
+    expect(note?.textContent).toContain(
+      'Tue 1 Dec is inside the frozen window: the line may already be kitting its units. Move only if the line agrees.',
+    );
+    await answerWhatIf('Cancel');
+    const afterCancel = putBodies(fetchMock).length;
+    await chooseFromMenu('S2', 'Move up');
+    await answerWhatIf('Move it anyway');
     await waitFor(() => expect(putBodies(fetchMock)).toHaveLength(1));
 
-    expect(afterNo).toBe(0);
+    expect(afterCancel).toBe(0);
     expect(putBodies(fetchMock)[0]).toEqual({
       days: [{ date: FROZEN, serials: ['S2', 'S1'] }],
       basedOn: [{ date: FROZEN, version: `v-${FROZEN}` }],
