@@ -78,6 +78,15 @@ test.describe('Loops', () => {
     await expect(scan.history()).toContainText(`${partNumber}: Full → Empty`);
     await settleForScreenshot(page);
     await page.screenshot({ path: 'test-results/scan.png', fullPage: true });
+    // On a phone the outcome wraps on a line of its own, whole.
+    const desk = page.viewportSize()!;
+    await page.setViewportSize({ width: 390, height: 844 });
+    const outcome = scan.history().locator('.card-scan-history__outcome').first();
+    const shown = await outcome.evaluate((element) => element.scrollWidth <= element.clientWidth + 1);
+    expect(shown).toBe(true);
+    expect((await outcome.boundingBox())!.width).toBeGreaterThan(200);
+    await page.screenshot({ path: 'test-results/scan-390.png' });
+    await page.setViewportSize(desk);
 
     await loops.open();
     await loops.search(partNumber);
