@@ -86,6 +86,15 @@ test.describe('imports', () => {
     await page.reload();
     await expect(page.getByRole('list', { name: 'Holidays' }).locator(`time[datetime="${holiday}"]`)).toBeVisible();
     await page.screenshot({ path: 'test-results/calendar.png', fullPage: true, animations: 'disabled' });
+
+    // The same day typed again is refused by name, not emptied.
+    await page.getByPlaceholder('Pick a date').fill(holiday);
+    await page.getByPlaceholder('Pick a date').press('Enter');
+    await page.getByRole('button', { name: 'Add holiday' }).click();
+    await expect(
+      page.getByText(/^(Mon|Tue|Wed|Thu|Fri) \d{1,2} [A-Z][a-z]{2} \d{4} is already a holiday\.$/),
+    ).toBeVisible();
+    await expect(page.getByRole('button', { name: 'Save calendar' })).toBeDisabled();
   });
 
   test('an admin reads the outbox and the demo mail server’s catch', async ({ page }) => {
