@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { issueWords } from './issue-words';
 import {
   bomLineSchema,
   isoDateSchema,
@@ -139,11 +140,8 @@ export function describeCellIssue(issue: z.core.$ZodIssue, raw: unknown): string
     case 'invalid_type':
       return issue.expected === 'int' ? `${shown} is not a whole number` : `${shown} is not valid here`;
     case 'too_small':
-      if (issue.origin === 'string') return 'is required';
-      return issue.inclusive ? `must be at least ${issue.minimum}` : `must be greater than ${issue.minimum}`;
     case 'too_big':
-      if (issue.origin === 'string') return `is longer than ${issue.maximum} characters`;
-      return issue.inclusive ? `must be at most ${issue.maximum}` : `must be less than ${issue.maximum}`;
+      return issueWords(issue);
     case 'invalid_value':
       return `${shown} is not one of ${issue.values.map(String).join(', ')}`;
     case 'invalid_format':
