@@ -45,7 +45,13 @@ function actionLines(shortage: ShortageDto): string[] {
     ];
   }
   if (shortage.action === 'count') return ['  Its on-hand is negative or due a count: count it before expediting.'];
+  const awaiting = shortage.awaitingConfirmation;
   return [
+    ...(awaiting
+      ? [
+          `  Already asked for: ${formatQuantity(awaiting.qty, shortage.uom)} on ${awaiting.releaseNumbers.join(', ')}, not yet confirmed by ${supplier}. Chase that confirmation first.`,
+        ]
+      : []),
     `  Expedite from ${supplier}: ${shortage.needBy.map((entry) => `${formatQuantity(entry.qty, shortage.uom)} by ${formatDay(entry.date)}`).join(', ')}.`,
   ];
 }

@@ -17,6 +17,13 @@ import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.s
  */
 export const FIRM_RELEASE_STATES = ['confirmed', 'shipped', 'partial'];
 
+/** An open line of a release sent to the supplier and not yet answered: asked for, not yet supply. */
+export interface AwaitingLine {
+  partNumber: string;
+  releaseNumber: string;
+  qty: number;
+}
+
 /** Part facts the screen shows beside the figures (the engine reads none of them but the unit, which it also has). */
 export interface PartDetails {
   description: string;
@@ -30,6 +37,8 @@ export interface LineRiskInputs {
   bom: PlanningBomLine[];
   sequence: SequenceSlot[];
   firmReceipts: ScheduledReceipt[];
+  /** Shown beside a short part; the engine does not count them. */
+  awaiting: AwaitingLine[];
   loops: LoopSupply[];
   calendar: Calendar;
   details: Map<string, PartDetails>;
@@ -91,6 +100,11 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
   WHERE NOT l.closed AND COALESCE(l.confirmed_qty, l.qty) > l.received_qty
   AND r.status IN (${FIRM_RELEASE_STATES.map((state) => `'${state}'`).join(', ')})`;
 
+const AWAITING_LINES_SQL = `SELECT l.part_number AS "partNumber", r.number AS "releaseNumber", l.qty - l.received_qty AS qty
+  FROM release_line l JOIN release r ON r.id = l.release_id
+  WHERE NOT l.closed AND l.qty > l.received_qty AND r.status = 'sent'
+  ORDER BY r.number, l.part_number`;
+
 const MARK_SQL = `SELECT (SELECT COUNT(*) FROM part) AS "partCount",
   (SELECT COALESCE(MAX(p.revision), 0) FROM part p) AS "lastRevision",
   (SELECT COALESCE(MAX(m.id), 0) FROM stock_movement m) AS "lastMovement"`;
@@ -110,13 +124,14 @@ export interface LineRiskReuse {
 
 /**
  * Reads the parts (with their details and whether each is due a count), the BOM, the units to
- * build, the firm receipts, the calendar, and the kanban loops as supply; the caller runs it in
- * one snapshot. With `reuse`, a standing piece is `before`'s (the same object, so what compares
- * the inputs finds it unchanged at once) and only the others are read. The parts are read again
- * from `before`'s: only those revised or with a stock movement since (see PartsMark), keeping
- * every part whose figures stand; so are a BOM and units to build that changed, only their rows
- * revised since (see RowsMark); firm receipts and loops are read every time. Equal to a read
- * without `reuse` as long as the standing pieces did stand.
+ * build, the firm receipts and the lines awaiting a supplier's answer, the calendar, and the
+ * kanban loops as supply; the caller runs it in one snapshot. With `reuse`, a standing piece is
+ * `before`'s (the same object, so what compares the inputs finds it unchanged at once) and only
+ * the others are read. The parts are read again from `before`'s: only those revised or with a
+ * stock movement since (see PartsMark), keeping every part whose figures stand; so are a BOM and
+ * units to build that changed, only their rows revised since (see RowsMark); firm receipts,
+ * awaiting lines and loops are read every time. Equal to a read without `reuse` as long as the
+ * standing pieces did stand.
  */
 export async function loadLineRiskInputs(
   manager: EntityManager,
@@ -146,12 +161,14 @@ export async function loadLineRiskInputs(
     before && { rows: before.sequence, mark: before.sequenceMark },
   );
   const firmReceipts = await readFirmReceipts(manager);
+  const awaiting: AwaitingLine[] = await manager.query(AWAITING_LINES_SQL);
   const calendar = kept('calendar') ?? (await readCalendar(manager));
   return {
     parts,
     bom,
     sequence,
     firmReceipts,
+    awaiting,
     loops: loopSupplies(loops),
     calendar,
     details,

@@ -1,11 +1,16 @@
 import { gzipSync } from 'node:zlib';
 import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import { etagOf } from '../http/serialised-body';
-import type { PartDetails } from './line-risk-inputs';
+import type { AwaitingLine, PartDetails } from './line-risk-inputs';
 import type { LineRiskSummary, ShortageSummary } from './line-risk-summary';
 
 /** The report as published, built once per result. */
-export function toReport(summary: LineRiskSummary, details: ReadonlyMap<string, PartDetails>): LineRiskReport {
+export function toReport(
+  summary: LineRiskSummary,
+  details: ReadonlyMap<string, PartDetails>,
+  awaiting: readonly AwaitingLine[],
+): LineRiskReport {
+  const awaitingByPart = awaitingOf(awaiting);
   return {
     from: summary.from,
     to: summary.to,
@@ -18,12 +23,30 @@ export function toReport(summary: LineRiskSummary, details: ReadonlyMap<string, 
     unitsAtRisk: summary.unitsAtRisk,
     unitsAtRiskCount: summary.unitsAtRiskCount,
     // Last, so the shortages alone (GET /api/shortages) are a tail of the report's bytes.
-    shortages: summary.shortages.map((shortage) => toShortage(shortage, details.get(shortage.partNumber))),
+    shortages: summary.shortages.map((shortage) =>
+      toShortage(shortage, details.get(shortage.partNumber), awaitingByPart.get(shortage.partNumber) ?? null),
+    ),
   };
 }
 
+type Awaiting = ShortageDto['awaitingConfirmation'];
+
+/** The awaiting lines summed by part, with the releases they are on (each once, in number order). */
+function awaitingOf(lines: readonly AwaitingLine[]): Map<string, NonNullable<Awaiting>> {
+  const byPart = new Map<string, NonNullable<Awaiting>>();
+  for (const line of lines) {
+    const entry = byPart.get(line.partNumber);
+    if (!entry) byPart.set(line.partNumber, { qty: line.qty, releaseNumbers: [line.releaseNumber] });
+    else {
+      entry.qty += line.qty;
+      if (!entry.releaseNumbers.includes(line.releaseNumber)) entry.releaseNumbers.push(line.releaseNumber);
+    }
+  }
+  return byPart;
+}
+
 /** A short part as published, with what the screen shows beside the figures. */
-function toShortage(shortage: ShortageSummary, details: PartDetails | undefined): ShortageDto {
+function toShortage(shortage: ShortageSummary, details: PartDetails | undefined, awaiting: Awaiting): ShortageDto {
   return {
     partNumber: shortage.partNumber,
     firstShortDate: shortage.firstShortDate,
@@ -42,6 +65,7 @@ function toShortage(shortage: ShortageSummary, details: PartDetails | undefined)
     hazardous: details?.hazardous ?? false,
     onHand: shortage.onHand,
     firmReceiptQty: shortage.firmReceiptQty,
+    awaitingConfirmation: awaiting,
     daysUntilImpact: shortage.daysUntilImpact,
     inFrozenWindow: shortage.inFrozenWindow,
     rescue: shortage.rescue,

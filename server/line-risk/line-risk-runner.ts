@@ -3,23 +3,24 @@ import { fileURLToPath } from 'node:url';
 import type { Worker } from 'node:worker_threads';
 import type { LineRiskInput, SlotAtRisk, UnitAtRisk } from '../../shared/domain/line-risk';
 import { changedRows, samePiece } from './changed-rows';
-import type { PartDetails } from './line-risk-inputs';
+import type { AwaitingLine, PartDetails } from './line-risk-inputs';
 import type { ReportBytes } from './line-risk-report';
 import { startWorker } from './start-worker';
 
-/** The engine's input that comes from the planning data, with the part details the report shows. */
+/** The engine's input that comes from the planning data, with the part details and awaiting lines the report shows. */
 export interface LineRiskPieces extends Pick<
   LineRiskInput,
   'parts' | 'bom' | 'sequence' | 'firmReceipts' | 'calendar'
 > {
   loops: NonNullable<LineRiskInput['loops']>;
   details: ReadonlyMap<string, PartDetails>;
+  awaiting: readonly AwaitingLine[];
 }
 
 /** What one run asks for beyond the planning data. */
 export type LineRiskOptions = Pick<LineRiskInput, 'from' | 'to' | 'today' | 'frozenWindowDays'>;
 
-const PIECES = ['parts', 'bom', 'sequence', 'firmReceipts', 'loops', 'calendar', 'details'] as const;
+const PIECES = ['parts', 'bom', 'sequence', 'firmReceipts', 'loops', 'calendar', 'details', 'awaiting'] as const;
 
 /** Rows of list pieces that changed, by place: the rest of each list stands as the worker holds it. */
 export type PiecePatches = Partial<Record<(typeof PIECES)[number], [index: number, row: unknown][]>>;

@@ -154,7 +154,7 @@ export class LineRiskService {
       // Inputs read inside a write unit may be uncommitted: computed here, for this unit alone.
       try {
         const run = walkLineRisk(this.engineInputOf(inputs, options));
-        return { key: '', report: toReport(summarise(run), inputs.details) };
+        return { key: '', report: toReport(summarise(run), inputs.details, inputs.awaiting) };
       } catch (error) {
         throw asHttpError(error);
       }

@@ -50,7 +50,7 @@ function answer(request: WorkerRequest): unknown {
         ...request.options,
       });
       results.set(request.key, result);
-      return serialiseReport(toReport(summarise(result), pieces.details));
+      return serialiseReport(toReport(summarise(result), pieces.details, pieces.awaiting));
     }
     case 'units': {
       const result = results.get(request.key);

@@ -67,6 +67,13 @@ export const shortageSchema = z.object({
   onHand: z.number(),
   /** Confirmed open quantity expected inside the horizon. */
   firmReceiptQty: z.number(),
+  awaitingConfirmation: z
+    .object({ qty: z.number(), releaseNumbers: z.array(z.string()) })
+    .nullable()
+    .meta({
+      description:
+        'Open quantity on releases sent to the supplier and not yet confirmed. It is not counted as supply until confirmed, but the request is out: chase the confirmation before expediting again.',
+    }),
   /** Working days after today up to firstShortDate; 0 means today. */
   daysUntilImpact: z.number().int(),
   inFrozenWindow: z.boolean(),

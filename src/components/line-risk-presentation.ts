@@ -37,13 +37,40 @@ export function impactWhen(daysUntilImpact: number): string {
   return `${ago} working ${ago === 1 ? 'day' : 'days'} ago`;
 }
 
-/** "Expedite 12 pcs of TNK-R60 from SRM (Rotomould Co) by Fri 4 Dec." */
+/** "SRM (Rotomould Co)", or "the supplier" when the part has none on record. */
+function supplierWords(shortage: ShortageDto): string {
+  if (!shortage.supplierCode) return 'the supplier';
+  return `${shortage.supplierCode}${shortage.supplierName ? ` (${shortage.supplierName})` : ''}`;
+}
+
+/** "R-000123", "R-000123 and R-000130". */
+function releaseList(numbers: readonly string[]): string {
+  return numbers.length <= 1 ? (numbers[0] ?? '') : `${numbers.slice(0, -1).join(', ')} and ${numbers.at(-1)}`;
+}
+
+/**
+ * "Expedite 12 pcs of TNK-R60 from SRM (Rotomould Co) by Fri 4 Dec." When a release already asks
+ * the supplier for the part and awaits an answer, the rescue starts there, so no one asks twice:
+ * "Ask SRM (Rotomould Co) to confirm R-000123 (18 pcs) so that 12 pcs of TNK-R60 arrive by Fri 4 Dec."
+ */
 export function expediteSentence(shortage: ShortageDto): string {
-  const supplier = shortage.supplierCode
-    ? ` from ${shortage.supplierCode}${shortage.supplierName ? ` (${shortage.supplierName})` : ''}`
-    : '';
   const { qty, needBy } = shortage.rescue.expedite;
-  return `Expedite ${formatQuantity(qty, shortage.uom)} of ${shortage.partNumber}${supplier} by ${formatDay(needBy)}.`;
+  const awaiting = shortage.awaitingConfirmation;
+  if (!awaiting) {
+    const from = shortage.supplierCode ? ` from ${supplierWords(shortage)}` : '';
+    return `Expedite ${formatQuantity(qty, shortage.uom)} of ${shortage.partNumber}${from} by ${formatDay(needBy)}.`;
+  }
+  const ask = `Ask ${supplierWords(shortage)} to confirm ${releaseList(awaiting.releaseNumbers)} (${formatQuantity(awaiting.qty, shortage.uom)})`;
+  const more = roundQty(qty - awaiting.qty);
+  const andMore = more > 0 ? ` and to expedite ${formatQuantity(more, shortage.uom)} more,` : '';
+  return `${ask}${andMore} so that ${formatQuantity(qty, shortage.uom)} of ${shortage.partNumber} arrive by ${formatDay(needBy)}.`;
+}
+
+/** "18 pcs asked for on R-000123, not yet confirmed"; null when no release awaits an answer. */
+export function awaitingNote(shortage: ShortageDto): string | null {
+  const awaiting = shortage.awaitingConfirmation;
+  if (!awaiting) return null;
+  return `${formatQuantity(awaiting.qty, shortage.uom)} asked for on ${releaseList(awaiting.releaseNumbers)}, not yet confirmed`;
 }
 
 export type ShortageAction = ShortageDto['action'];

@@ -7,6 +7,7 @@ import type { SessionUser } from '@shared/schemas/user';
 import LineRiskView from '@/views/LineRiskView.vue';
 import {
   actionSentence,
+  awaitingNote,
   expediteSentence,
   groupShortages,
   impactLevel,
@@ -40,6 +41,7 @@ const battery: ShortageDto = {
   hazardous: true,
   onHand: 30,
   firmReceiptQty: 0,
+  awaitingConfirmation: null,
   daysUntilImpact: 2,
   inFrozenWindow: true,
   rescue: {
@@ -506,6 +508,24 @@ describe('line-risk wording', () => {
 
   it('words the rescues as instructions', () => {
     expect(expediteSentence(tank)).toBe('Expedite 3 pcs of TNK-R60 from SRM by Tue 8 Dec.');
+    expect(awaitingNote(tank)).toBeNull();
+  });
+
+  it('starts the rescue from a release that already asks for the part and awaits an answer', () => {
+    const asked = (qty: number, releaseNumbers: string[]) => ({
+      ...battery,
+      awaitingConfirmation: { qty, releaseNumbers },
+    });
+
+    // It asks for all that must arrive: chase the confirmation, expedite nothing more.
+    expect(expediteSentence(asked(18, ['R-000123']))).toBe(
+      'Ask FBS (Battery Supply Co) to confirm R-000123 (18 pcs) so that 12 pcs of BAT-06-312 arrive by Thu 3 Dec.',
+    );
+    // It asks for less: the rest (12 − 5) is expedited beside it.
+    expect(expediteSentence(asked(5, ['R-000123', 'R-000130']))).toBe(
+      'Ask FBS (Battery Supply Co) to confirm R-000123 and R-000130 (5 pcs) and to expedite 7 pcs more, so that 12 pcs of BAT-06-312 arrive by Thu 3 Dec.',
+    );
+    expect(awaitingNote(asked(18, ['R-000123']))).toBe('18 pcs asked for on R-000123, not yet confirmed');
     expect(resequenceSentence(battery.rescue.resequence!)).toBe(
       'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec, ahead of SN26120313: all its parts are present, so the line keeps running while SN26120313 waits for the part.',
     );

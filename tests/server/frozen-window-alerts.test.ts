@@ -8,6 +8,9 @@ import { replaceBomLines } from '../../server/master-data/master-data.writer';
 import { postCounts, savePartsWithStock } from '../../server/stock/stock.service';
 import { upsertSequenceEntries } from '../../server/sequence/sequence.writer';
 import { plantToday } from '../../server/planning/plan-dates';
+import { ReleaseLineEntity } from '../../server/releases/release-line.entity';
+import { ReleaseEntity } from '../../server/releases/release.entity';
+import { bumpPlanningVersion } from '../../server/settings/versions';
 import { createTestContext, testPart, type TestContext } from './helpers';
 
 const calendar = { workingWeekdays: [1, 2, 3, 4, 5], holidays: [] };
@@ -59,15 +62,38 @@ describe('frozen-window shortage alerts', () => {
     expect(await alertsTo('buyer@example.com')).toHaveLength(0);
   });
 
-  it('alerts again after the part has left the window and comes back', async () => {
+  it('alerts again after the part has left the window and comes back, naming a request still unanswered', async () => {
     await context.db.write((manager) => postCounts(manager, [{ partNumber: 'P', counted: 5 }], null, 'Count'));
     const cleared = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
-    await context.db.write((manager) => postCounts(manager, [{ partNumber: 'P', counted: 0 }], null, 'Count'));
+    await context.db.write(async (manager) => {
+      await postCounts(manager, [{ partNumber: 'P', counted: 0 }], null, 'Count');
+      // Sent to the supplier, not yet confirmed: no supply yet, but the planner must not ask twice.
+      const release = await manager.save(
+        ReleaseEntity,
+        manager.create(ReleaseEntity, {
+          number: 'R-ASKED',
+          supplierCode: 'SUP-A',
+          releaseDate: plantToday(),
+          status: 'sent',
+        }),
+      );
+      await manager.insert(ReleaseLineEntity, {
+        releaseId: release.id,
+        partNumber: 'P',
+        qty: 4,
+        needDate: nextWorkingDay(plantToday(), calendar),
+        origin: 'plan',
+      });
+      await bumpPlanningVersion(manager);
+    });
 
     const back = await alertFrozenWindowShortages(context.db, lineRisk, 'http://plant.example.com');
 
     expect(cleared).toEqual([]);
     expect(back).toEqual(['P']);
-    expect(await alertsTo('planner@example.com')).toHaveLength(2);
+    const mails = await alertsTo('planner@example.com');
+    expect(mails).toHaveLength(2);
+    expect(mails[1].text).toContain('Already asked for: 4 pcs on R-ASKED, not yet confirmed by Supplier A.');
+    expect(mails[0].text).not.toContain('Already asked for');
   });
 });

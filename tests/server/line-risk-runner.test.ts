@@ -2,7 +2,7 @@ import { Worker } from 'node:worker_threads';
 import { gunzipSync } from 'node:zlib';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { computeLineRisk, type LineRiskInput, type LineRiskPart } from '../../shared/domain/line-risk';
-import type { PartDetails } from '../../server/line-risk/line-risk-inputs';
+import type { AwaitingLine, PartDetails } from '../../server/line-risk/line-risk-inputs';
 import { toReport, type ReportBytes } from '../../server/line-risk/line-risk-report';
 import { LineRiskRunner, LineRiskWorkerError, type WorkerRequest } from '../../server/line-risk/line-risk-runner';
 import { summarise } from '../../server/line-risk/line-risk-summary';
@@ -35,17 +35,18 @@ const input: LineRiskInput = {
 const details = new Map<string, PartDetails>([
   ['C', { description: 'Bracket', uom: 'H87', hazardous: true, supplierName: 'Supplier A' }],
 ]);
+const awaiting: AwaitingLine[] = [{ partNumber: 'C', releaseNumber: 'R-000042', qty: 3 }];
 
 const runner = new LineRiskRunner();
 afterAll(() => runner.close());
 
 function compute(key: string, engineInput: LineRiskInput, on: LineRiskRunner = runner): Promise<ReportBytes> {
   const { from, to, today, frozenWindowDays, loops, ...pieces } = engineInput;
-  return on.compute(key, { ...pieces, loops: loops ?? [], details }, { from, to, today, frozenWindowDays });
+  return on.compute(key, { ...pieces, loops: loops ?? [], details, awaiting }, { from, to, today, frozenWindowDays });
 }
 
 /** The report the engine gives when run in place. */
-const inPlace = (engineInput: LineRiskInput) => toReport(summarise(computeLineRisk(engineInput)), details);
+const inPlace = (engineInput: LineRiskInput) => toReport(summarise(computeLineRisk(engineInput)), details, awaiting);
 
 const text = (bytes: Uint8Array) => Buffer.from(bytes).toString('utf8');
 
@@ -114,6 +115,7 @@ describe('the line-risk worker thread', () => {
       const sentNext = posted.mock.calls.map(([message]) => message as WorkerRequest).find((m) => m.kind === 'compute');
 
       expect(sentFirst?.kind === 'compute' && Object.keys(sentFirst.pieces).sort()).toEqual([
+        'awaiting',
         'bom',
         'calendar',
         'details',

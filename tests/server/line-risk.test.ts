@@ -122,6 +122,7 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
         hazardous: true,
         onHand: 5,
         firmReceiptQty: 0,
+        awaitingConfirmation: null,
         daysUntilImpact: 2,
         inFrozenWindow: true,
         rescue: { expedite: { qty: 1, needBy: '2026-12-22' }, resequence: null },
@@ -173,6 +174,30 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
       ]),
     ).toEqual([['C', 1, 0]]);
     expect(oneOpen.body).toEqual([]);
+  });
+
+  it('names the releases sent and not yet answered beside the short part, without counting them as supply', async () => {
+    await releaseLineForC('sent', {});
+    const first = `R-${releases}`;
+    await releaseLineForC('sent', { receivedQty: 3 });
+    const second = `R-${releases}`;
+    await releaseLineForC('draft', {});
+    const twoAsked = await getShortages();
+    await context.dataSource.transaction(async (manager) => {
+      await manager.update(ReleaseEntity, { number: first }, { status: 'exception' });
+      await bumpPlanningVersion(manager);
+    });
+    const oneAsked = await getShortages();
+
+    // Neither sent release is supply until confirmed: still 1 short with nothing firm. What they
+    // ask for is 10 and 10 − 3 open; the draft has not gone out. An exception is answered.
+    expect(twoAsked.body).toHaveLength(1);
+    expect(twoAsked.body[0]).toMatchObject({
+      shortQty: 1,
+      firmReceiptQty: 0,
+      awaitingConfirmation: { qty: 17, releaseNumbers: [first, second] },
+    });
+    expect(oneAsked.body[0].awaitingConfirmation).toEqual({ qty: 7, releaseNumbers: [second] });
   });
 
   it('serves a horizon from the cache until the planning version moves', async () => {
