@@ -23,6 +23,18 @@ export function remainingQty(line: DockLine): number {
   return Math.max(0, line.qty - line.receivedQty);
 }
 
+/**
+ * What a partly counted card still awaits, once some of it came in short: "3 pcs of HNS-M20 to
+ * come", or "2 lines partly counted, the rest to come"; null when nothing was counted short.
+ */
+export function stillToCome(item: DockItem): string | null {
+  const partly = item.lines.filter((line) => line.open && line.receivedQty > 0 && remainingQty(line) > 0);
+  if (partly.length === 0) return null;
+  if (partly.length > 1) return `${partly.length} lines partly counted, the rest to come`;
+  const [line] = partly;
+  return `${formatQuantity(remainingQty(line), line.uom)} of ${line.partNumber} to come`;
+}
+
 /** The words for what a card's line brings: a shipment carries it; without a ship notice, what is expected. */
 export function cardQtyWord(kind: DockItem['kind']): string {
   return kind === 'shipment' ? 'On this shipment' : 'Expected';

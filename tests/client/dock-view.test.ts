@@ -181,6 +181,35 @@ describe('DockView', () => {
     expect(document.activeElement?.id).toBe('dock-scan-input');
   });
 
+  it('says on a card counted short what is still to come of it', async () => {
+    const line = board()[0]!.lines[0]!;
+    const shortOne = item(8, 'R261202-SUP-A', 'counted', {
+      status: 'partial',
+      lines: [{ ...line, id: 80, partNumber: 'HNS-8', qty: 10, receivedQty: 7 }],
+    });
+    const shortTwo = item(9, 'R261202-SUP-B', 'counted', {
+      status: 'partial',
+      lines: [
+        { ...line, id: 90, qty: 4, receivedQty: 1 },
+        { ...line, id: 91, qty: 6, receivedQty: 5 },
+        { ...line, id: 92, qty: 3, receivedQty: 3, open: false },
+      ],
+    });
+    const whole = item(10, 'R261202-SUP-C', 'counted', {
+      status: 'received',
+      lines: [{ ...line, id: 100, qty: 10, receivedQty: 10, open: false }],
+    });
+    stubApi({ 'GET /api/dock': () => jsonResponse(200, [shortOne, shortTwo, whole]) });
+
+    await openDock();
+
+    const toCome = (release: string) =>
+      document.querySelector(`[data-release="${release}"] [data-test="to-come"]`)?.textContent?.trim() ?? null;
+    expect(toCome('R261202-SUP-A')).toBe('3 pcs of HNS-8 to come');
+    expect(toCome('R261202-SUP-B')).toBe('2 lines partly counted, the rest to come');
+    expect(toCome('R261202-SUP-C')).toBeNull();
+  });
+
   it('moves a dropped card at once and saves its column', async () => {
     const fetchMock = stubApi();
     const wrapper = await openDock();
