@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { calendarSchema, versionedCalendarSchema } from '../../shared/schemas/master-data';
+import { calendarUpdateSchema, versionedCalendarSchema } from '../../shared/schemas/master-data';
 import { defineRoute, type RouteDeps } from '../http/route';
 import type { Services } from '../services';
 import { READ_ROLES } from '../http/roles';
@@ -23,7 +23,7 @@ export function createCalendarRouter(services: Services, deps: RouteDeps): Route
     path: '/calendar',
     summary: 'Replace the plant calendar',
     access: ['admin', 'planner'],
-    body: calendarSchema,
+    body: calendarUpdateSchema,
     response: versionedCalendarSchema,
     handler: ({ body, user, req }) => calendarService.update(body, user.email, ifMatchOf(req)),
   });

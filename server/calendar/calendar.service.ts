@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import type { Calendar, VersionedCalendar } from '../../shared/schemas/master-data';
+import type { Calendar, CalendarUpdate, VersionedCalendar } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
 import { readSetting, writeSetting } from '../settings/settings';
 import { bumpPlanningVersion } from '../settings/versions';
@@ -51,6 +51,11 @@ async function versioned(manager: EntityManager, calendar: Calendar): Promise<Ve
   return { ...withVersion(calendar), holidayNames: await readHolidayNames(manager) };
 }
 
+/** The calendar and its holidays' names, as the audit trail keeps them. */
+function withoutVersion({ version: _version, ...calendar }: VersionedCalendar): Omit<VersionedCalendar, 'version'> {
+  return calendar;
+}
+
 export class CalendarService {
   constructor(private readonly db: Database) {}
 
@@ -59,20 +64,27 @@ export class CalendarService {
     return versioned(manager, await readCalendar(manager));
   }
 
-  update(calendar: Calendar, actorEmail: string, basedOn?: string): Promise<VersionedCalendar> {
+  update(
+    { holidayNames, ...calendar }: CalendarUpdate,
+    actorEmail: string,
+    basedOn?: string,
+  ): Promise<VersionedCalendar> {
     return this.db.write(async (manager) => {
-      const before = await readCalendar(manager);
+      const before = await versioned(manager, await readCalendar(manager));
       // A stale copy is answered with the calendar as GET gives it, names and all.
-      assertCurrent(basedOn, await versioned(manager, before), 'The plant calendar');
-      const after = await writeCalendar(manager, calendar);
+      assertCurrent(basedOn, before, 'The plant calendar');
+      const after = await versioned(
+        manager,
+        await writeCalendar(manager, calendar, new Map(Object.entries(holidayNames ?? {}))),
+      );
       await recordAudit(manager, {
         actorEmail,
         action: 'update',
         entity: 'calendar',
         entityKey: 'plant',
-        changes: { before, after },
+        changes: { before: withoutVersion(before), after: withoutVersion(after) },
       });
-      return versioned(manager, after);
+      return after;
     });
   }
 }

@@ -203,6 +203,29 @@ export const calendarSchema = z.object({
   holidays: z.array(isoDateSchema).refine((days) => new Set(days).size === days.length, 'each holiday once'),
 });
 export type Calendar = z.infer<typeof calendarSchema>;
+
+/** Longest holiday name ("Plant shutdown, year end"). */
+export const HOLIDAY_NAME_MAX = 80;
+
+/** PUT /api/calendar: the calendar, with names for holidays that have one (a holiday left out keeps its name). */
+export const calendarUpdateSchema = calendarSchema
+  .extend({
+    holidayNames: z
+      .record(isoDateSchema, z.string().trim().max(HOLIDAY_NAME_MAX, `at most ${HOLIDAY_NAME_MAX} characters`))
+      .optional(),
+  })
+  .superRefine((calendar, context) => {
+    for (const date of Object.keys(calendar.holidayNames ?? {})) {
+      if (!calendar.holidays.includes(date)) {
+        context.addIssue({
+          code: 'custom',
+          path: ['holidayNames', date],
+          message: 'names a day that is not a holiday',
+        });
+      }
+    }
+  });
+export type CalendarUpdate = z.infer<typeof calendarUpdateSchema>;
 export const versionedCalendarSchema = calendarSchema.extend(versionField).extend({
   /** Names of the holidays that have one (the demo's plant shutdown days), by date; kept when a holiday stays. */
   holidayNames: z.record(isoDateSchema, z.string()).optional(),

@@ -1,7 +1,8 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { Calendar, VersionedCalendar } from '@shared/schemas/master-data';
+import type { CalendarUpdate, VersionedCalendar } from '@shared/schemas/master-data';
 import * as calendarApi from '@/api/calendar';
+import * as sequenceApi from '@/api/sequence';
 import { ApiError } from '@/api/http';
 import { useLatestRequest } from './latest-request';
 
@@ -21,7 +22,7 @@ export const useCalendarStore = defineStore('calendar', () => {
    * Replaces the calendar shown and keeps what the server stored; rethrows the ApiError for the
    * form. When someone changed the calendar first (409 `stale`) the calendar shown becomes theirs.
    */
-  async function save(next: Calendar): Promise<Calendar> {
+  async function save(next: CalendarUpdate): Promise<VersionedCalendar> {
     if (!calendar.value) throw new ApiError(0, 'client_error', 'The calendar is not loaded yet.');
     saving.value = true;
     try {
@@ -39,5 +40,25 @@ export const useCalendarStore = defineStore('calendar', () => {
     }
   }
 
-  return { calendar, loading, saving, error, loadCalendar, save };
+  /** Units still to build on each day asked about (checkUnitsOn), for the warning on a new holiday. */
+  const unitsPlanned = ref<Record<string, number>>({});
+
+  /**
+   * Counts the units still to build on a day about to become a holiday. Only a warning rests on
+   * it: when the sequence cannot be read, the day shows none rather than an error.
+   */
+  async function checkUnitsOn(date: string): Promise<void> {
+    try {
+      const board = await sequenceApi.fetchBoard({ from: date, days: 1 });
+      const day = board.days.find((candidate) => candidate.date === date);
+      const count = (day?.units ?? [])
+        .filter((unit) => unit.status !== 'built')
+        .reduce((sum, unit) => sum + unit.qty, 0);
+      unitsPlanned.value = { ...unitsPlanned.value, [date]: count };
+    } catch {
+      // The warning is left out; saving the calendar does not depend on it.
+    }
+  }
+
+  return { calendar, loading, saving, error, unitsPlanned, loadCalendar, save, checkUnitsOn };
 });

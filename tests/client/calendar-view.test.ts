@@ -93,9 +93,11 @@ describe('CalendarView', () => {
 
   it('adds a holiday from the list to the saved body in date order', async () => {
     const { wrapper, fetchMock } = await openCalendar(demoUsers.admin);
+    // The units planned on the new day (none), then the save.
+    fetchMock.mockResolvedValueOnce(jsonResponse(200, { days: [] }));
     fetchMock.mockResolvedValueOnce(jsonResponse(200, { ...STORED, holidays: ['2030-12-24', '2030-12-25'] }));
 
-    wrapper.findComponent(CalendarHolidayList).vm.$emit('add', '2030-12-24');
+    wrapper.findComponent(CalendarHolidayList).vm.$emit('add', '2030-12-24', '');
     await flushPromises();
     getButton(wrapper.element, 'Save calendar').click();
     await flushPromises();
@@ -104,6 +106,58 @@ describe('CalendarView', () => {
       workingWeekdays: [1, 2, 3, 4, 5],
       holidays: ['2030-12-24', '2030-12-25'],
     });
+  });
+
+  it('names a new holiday, and warns of the units still planned on it before closing the day', async () => {
+    const { wrapper, fetchMock } = await openCalendar(planner);
+    const unit = (serial: string, status: string) => ({
+      id: serial.length,
+      date: '2030-12-24',
+      sequence: 1,
+      model: 'M',
+      serial,
+      qty: 1,
+      status,
+      builtAt: null,
+    });
+    fetchMock.mockImplementation(async (input, init) => {
+      const url = String(input);
+      if (url.startsWith('/api/sequence')) {
+        return jsonResponse(200, {
+          days: [{ date: '2030-12-24', units: [unit('S1', 'planned'), unit('S2', 'started'), unit('S3', 'built')] }],
+        });
+      }
+      if (init?.method === 'PUT') return jsonResponse(200, { ...STORED, holidays: ['2030-12-24', '2030-12-25'] });
+      return jsonResponse(200, STORED);
+    });
+
+    wrapper.findComponent({ name: 'ElDatePicker' }).vm.$emit('update:modelValue', '2030-12-24');
+    await wrapper.get('input[aria-label="Holiday name"]').setValue('  Stocktake ');
+    await wrapper.get('form').trigger('submit');
+    await flushPromises();
+    // The built unit is done; the planned and the started one would sit on a closed day.
+    await waitFor(() =>
+      expect(wrapper.get('[data-test="units-planned"]').text()).toBe(
+        '2 units planned that day: move them on the Build sequence board',
+      ),
+    );
+    expect(wrapper.text()).toContain('Stocktake');
+    getButton(wrapper.element, 'Save calendar').click();
+    await flushPromises();
+
+    expect(lastPutBody(fetchMock)).toBeUndefined();
+    await waitFor(() =>
+      expect(document.body.textContent).toContain('Units are still planned on Tue 24 Dec (2 units).'),
+    );
+    getButton(document.body, 'Save the calendar').click();
+    await flushPromises();
+    await waitFor(() =>
+      expect(lastPutBody(fetchMock)).toEqual({
+        workingWeekdays: [1, 2, 3, 4, 5],
+        holidays: ['2030-12-24', '2030-12-25'],
+        holidayNames: { '2030-12-24': 'Stocktake' },
+      }),
+    );
   });
 
   it('refuses to save a week without a working day and says why', async () => {

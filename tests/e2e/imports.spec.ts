@@ -19,10 +19,11 @@ async function signIn(page: Page, email: string): Promise<void> {
 }
 
 /** A worked weekday about six weeks ahead, as YYYY-MM-DD: not a weekend, nor one of the demo's shutdown days. */
-function workingDayAhead(): string {
+/** A working day of the demo calendar at least `calendarDays` from today; from 70 on, past the demo sequence's last unit. */
+function workingDayAhead(calendarDays = 70): string {
   const shutdowns = new Set(demoShutdowns(localIsoDate()).map((shutdown) => shutdown.date));
   const date = new Date();
-  date.setDate(date.getDate() + 42);
+  date.setDate(date.getDate() + calendarDays);
   while (date.getDay() === 0 || date.getDay() === 6 || shutdowns.has(localIsoDate(date))) {
     date.setDate(date.getDate() + 1);
   }
@@ -76,6 +77,7 @@ test.describe('imports', () => {
 
     await page.getByPlaceholder('Pick a date').fill(holiday);
     await page.getByPlaceholder('Pick a date').press('Enter');
+    await page.getByRole('textbox', { name: 'Holiday name' }).fill('Stocktake');
     await page.getByRole('button', { name: 'Add holiday' }).click();
     await expect(page.getByRole('status')).toHaveText('Unsaved changes');
     await page.getByRole('button', { name: 'Save calendar' }).click();
@@ -84,7 +86,8 @@ test.describe('imports', () => {
     await expect(page.getByRole('list', { name: 'Holidays' }).locator(`time[datetime="${holiday}"]`)).toBeVisible();
     await expect(page.getByRole('button', { name: 'Save calendar' })).toBeDisabled();
     await page.reload();
-    await expect(page.getByRole('list', { name: 'Holidays' }).locator(`time[datetime="${holiday}"]`)).toBeVisible();
+    const saved = page.getByRole('listitem').filter({ has: page.locator(`time[datetime="${holiday}"]`) });
+    await expect(saved).toContainText('Stocktake');
     await page.screenshot({ path: 'test-results/calendar.png', fullPage: true, animations: 'disabled' });
 
     // The same day typed again is refused by name, not emptied.
@@ -95,6 +98,19 @@ test.describe('imports', () => {
       page.getByText(/^(Mon|Tue|Wed|Thu|Fri) \d{1,2} [A-Z][a-z]{2} \d{4} is already a holiday\.$/),
     ).toBeVisible();
     await expect(page.getByRole('button', { name: 'Save calendar' })).toBeDisabled();
+
+    // A day the demo sequence still builds on: the list warns, and saving asks first.
+    await page.getByPlaceholder('Pick a date').fill(workingDayAhead(7));
+    await page.getByPlaceholder('Pick a date').press('Enter');
+    await page.getByRole('button', { name: 'Add holiday' }).click();
+    await expect(page.locator('[data-test="units-planned"]')).toHaveText(
+      /^\s*\d+ units? planned that day: move (it|them) on the Build sequence board\s*$/,
+    );
+    await page.getByRole('button', { name: 'Save calendar' }).click();
+    await expect(page.getByRole('dialog', { name: 'Close days that hold units?' })).toBeVisible();
+    await page.getByRole('button', { name: 'Go back' }).click();
+    await expect(page.getByRole('status')).toHaveText('Unsaved changes');
+    await page.getByRole('button', { name: 'Discard changes' }).click();
   });
 
   test('an admin reads the outbox and the demo mail server’s catch', async ({ page }) => {

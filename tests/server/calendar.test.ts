@@ -42,4 +42,47 @@ describe('holiday names in the plant calendar', () => {
     expect(response.body.holidays).toEqual(['2030-12-25', '2030-12-27']);
     expect(response.body.holidayNames).toEqual({ '2030-12-25': 'Plant shutdown: year end' });
   });
+
+  it('are given to new holidays, and changed on kept ones, by the names sent beside them', async () => {
+    const put = (body: object) =>
+      request(context.app).put('/api/calendar').set(bearer(context.tokens.planner)).send(body);
+    const response = await put({
+      workingWeekdays: [1, 2, 3, 4, 5],
+      holidays: ['2030-12-25', '2030-12-27', '2030-12-30'],
+      holidayNames: { '2030-12-27': '  Stocktake  ', '2030-12-25': 'Year end' },
+    });
+
+    expect(response.status).toBe(200);
+    expect(response.body.holidayNames).toEqual({ '2030-12-25': 'Year end', '2030-12-27': 'Stocktake' });
+    const audit = await request(context.app).get('/api/audit').set(bearer(context.tokens.admin));
+    expect(JSON.stringify(audit.body)).toContain('Stocktake');
+  });
+
+  it('refuses a name for a day that is no holiday, or one too long, and changes nothing', async () => {
+    const put = (body: object) =>
+      request(context.app).put('/api/calendar').set(bearer(context.tokens.planner)).send(body);
+    const before = (await request(context.app).get('/api/calendar').set(bearer(context.tokens.planner))).body;
+
+    const stray = await put({
+      workingWeekdays: [1, 2, 3, 4, 5],
+      holidays: ['2030-12-25'],
+      holidayNames: { '2030-12-26': 'Boxing day' },
+    });
+    const long = await put({
+      workingWeekdays: [1, 2, 3, 4, 5],
+      holidays: ['2030-12-25'],
+      holidayNames: { '2030-12-25': 'x'.repeat(81) },
+    });
+
+    expect(stray.status).toBe(400);
+    expect(stray.body.error.details).toEqual([
+      expect.objectContaining({ path: ['holidayNames', '2030-12-26'], message: 'names a day that is not a holiday' }),
+    ]);
+    expect(long.status).toBe(400);
+    expect(long.body.error.details).toEqual([
+      expect.objectContaining({ path: ['holidayNames', '2030-12-25'], message: 'at most 80 characters' }),
+    ]);
+    const after = (await request(context.app).get('/api/calendar').set(bearer(context.tokens.planner))).body;
+    expect(after).toEqual(before);
+  });
 });
