@@ -136,6 +136,17 @@ test.describe('Tour of the demo', () => {
     await expect(releases.decisions()).toContainText('PMP-S24');
     await expect(releases.rows().filter({ hasText: 'Received' }).first()).toBeVisible();
     await shoot(page, testInfo, 'buyer-releases');
+    // On a phone an opened release lists its lines one under another, inside the screen.
+    await page.setViewportSize(PHONE);
+    const received = releases.rows().filter({ hasText: 'Received' }).first();
+    await received.locator('.el-table__expand-icon').click();
+    const releaseLine = page.locator('[data-test="release-line"]').last();
+    await expect(releaseLine).toContainText('Received');
+    await releaseLine.evaluate((element) => element.scrollIntoView({ block: 'center' }));
+    const lineBox = (await releaseLine.boundingBox())!;
+    expect(lineBox.x + lineBox.width).toBeLessThanOrEqual(PHONE.width);
+    await received.locator('.el-table__expand-icon').click();
+    await page.setViewportSize(DESKTOP);
 
     await followStep(page, 'Line risk', 'Line risk');
     const lineRisk = new LineRiskPage(page);
@@ -288,6 +299,17 @@ test.describe('Tour of the demo', () => {
     // Six suppliers delivered in the demo's past weeks; the table waits for its rows before counting.
     await expect(page.locator('[data-test="performance-summary"] tr.el-table__row').nth(3)).toBeVisible();
     await shoot(page, testInfo, 'viewer-supplier-performance');
+    // On a phone each supplier is a card: its fill rate and promise kept stay on screen.
+    await page.setViewportSize(PHONE);
+    const promiseKept = page
+      .locator('[data-test="performance-card"]')
+      .first()
+      .locator('[data-test="rate-band"]')
+      .nth(2);
+    await expect(promiseKept).toBeVisible();
+    const bandBox = (await promiseKept.boundingBox())!;
+    expect(bandBox.x + bandBox.width).toBeLessThanOrEqual(PHONE.width);
+    await page.setViewportSize(DESKTOP);
 
     await page.goto('/');
     await guide(page).getByRole('button', { name: 'Hide this guide' }).click();
