@@ -146,6 +146,15 @@ test.describe('Tour of the demo', () => {
     const lineBox = (await releaseLine.boundingBox())!;
     expect(lineBox.x + lineBox.width).toBeLessThanOrEqual(PHONE.width);
     await received.locator('.el-table__expand-icon').click();
+    // The decision's changed line stacks its facts: what differs stays on screen.
+    const difference = releases.decisions().locator('td[data-label="Difference"]').first();
+    await difference.scrollIntoViewIfNeeded();
+    await expect(difference).toContainText('arrives after the need date');
+    const differenceBox = (await difference.boundingBox())!;
+    expect(differenceBox.x + differenceBox.width).toBeLessThanOrEqual(PHONE.width);
+    // Nothing of it hides sideways in its frame either.
+    const frame = releases.decisions().locator('.releases-exceptions__scroll').first();
+    expect(await frame.evaluate((element) => element.scrollWidth - element.clientWidth)).toBeLessThanOrEqual(0);
     await page.setViewportSize(DESKTOP);
 
     await followStep(page, 'Line risk', 'Line risk');
