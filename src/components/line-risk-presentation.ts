@@ -174,10 +174,17 @@ export function actionSentence(shortage: ShortageDto): string {
         ? `On-hand reads ${formatQuantity(shortage.onHand, shortage.uom)}: count ${shortage.partNumber} before expediting anything.`
         : `${shortage.partNumber} is due a count: count it before expediting anything, the shortage may not be real.`;
     case 'release':
+      if (shortage.awaitingConfirmation) {
+        return `Already asked for on ${releaseList(shortage.awaitingConfirmation.releaseNumbers)}: it counts as supply once the supplier confirms it.`;
+      }
       return shortage.releaseBy
         ? `The normal release covers it if sent by ${formatDay(shortage.releaseBy)} (lead time ${countOf(shortage.leadTimeDays, 'working day', 'working days')}).`
         : 'The normal release covers it.';
-    default:
-      return `Short inside the lead time of ${countOf(shortage.leadTimeDays, 'working day', 'working days')}: expedite by the dates below, or resequence.`;
+    default: {
+      const within = `Short inside the lead time of ${countOf(shortage.leadTimeDays, 'working day', 'working days')}`;
+      return shortage.awaitingConfirmation
+        ? `${within}: a release already asks for it; get it confirmed and shipped by the dates below, or resequence.`
+        : `${within}: expedite by the dates below, or resequence.`;
+    }
   }
 }

@@ -526,6 +526,12 @@ describe('line-risk wording', () => {
       'Ask FBS (Battery Supply Co) to confirm R-000123 and R-000130 (5 pcs) and to expedite 7 pcs more, so that 12 pcs of BAT-06-312 arrive by Thu 3 Dec.',
     );
     expect(awaitingNote(asked(18, ['R-000123']))).toBe('18 pcs asked for on R-000123, not yet confirmed');
+    expect(actionSentence(asked(18, ['R-000123']))).toBe(
+      'Short inside the lead time of 7 working days: a release already asks for it; get it confirmed and shipped by the dates below, or resequence.',
+    );
+    expect(actionSentence({ ...squeegee, awaitingConfirmation: { qty: 40, releaseNumbers: ['R-000140'] } })).toBe(
+      'Already asked for on R-000140: it counts as supply once the supplier confirms it.',
+    );
     expect(resequenceSentence(battery.rescue.resequence!)).toBe(
       'Build SN26120314 (FS-20W) in slot 13 of Thu 3 Dec, ahead of SN26120313: all its parts are present, so the line keeps running while SN26120313 waits for the part.',
     );
