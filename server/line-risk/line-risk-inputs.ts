@@ -17,7 +17,10 @@ import { COUNTED_AT_SQL, countDueTest, type CountedPart } from '../stock/stock.s
  */
 export const FIRM_RELEASE_STATES = ['confirmed', 'shipped', 'partial'];
 
-/** An open line of a release sent to the supplier and not yet answered: asked for, not yet supply. */
+/**
+ * An open line of a release sent to the supplier and not yet confirmed: unanswered, or answered
+ * with changes the buyer has still to accept. Asked for, not yet supply.
+ */
 export interface AwaitingLine {
   partNumber: string;
   releaseNumber: string;
@@ -102,7 +105,7 @@ const FIRM_LINES_SQL = `SELECT l.part_number AS "partNumber", ${EXPECTED_ARRIVAL
 
 const AWAITING_LINES_SQL = `SELECT l.part_number AS "partNumber", r.number AS "releaseNumber", l.qty - l.received_qty AS qty
   FROM release_line l JOIN release r ON r.id = l.release_id
-  WHERE NOT l.closed AND l.qty > l.received_qty AND r.status = 'sent'
+  WHERE NOT l.closed AND l.qty > l.received_qty AND r.status IN ('sent', 'exception')
   ORDER BY r.number, l.part_number`;
 
 const MARK_SQL = `SELECT (SELECT COUNT(*) FROM part) AS "partCount",
@@ -124,7 +127,7 @@ export interface LineRiskReuse {
 
 /**
  * Reads the parts (with their details and whether each is due a count), the BOM, the units to
- * build, the firm receipts and the lines awaiting a supplier's answer, the calendar, and the
+ * build, the firm receipts and the lines not yet confirmed, the calendar, and the
  * kanban loops as supply; the caller runs it in one snapshot. With `reuse`, a standing piece is
  * `before`'s (the same object, so what compares the inputs finds it unchanged at once) and only
  * the others are read. The parts are read again from `before`'s: only those revised or with a

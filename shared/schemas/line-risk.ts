@@ -72,7 +72,7 @@ export const shortageSchema = z.object({
     .nullable()
     .meta({
       description:
-        'Open quantity on releases sent to the supplier and not yet confirmed. It is not counted as supply until confirmed, but the request is out: chase the confirmation before expediting again.',
+        'Open quantity on releases sent to the supplier and not yet confirmed (unanswered, or answered with changes the buyer has still to accept). It is not counted as supply until confirmed, but the request is out: chase the confirmation before expediting again.',
     }),
   /** Working days after today up to firstShortDate; 0 means today. */
   daysUntilImpact: z.number().int(),

@@ -183,7 +183,7 @@ export function actionSentence(shortage: ShortageDto): string {
     default: {
       const within = `Short inside the lead time of ${countOf(shortage.leadTimeDays, 'working day', 'working days')}`;
       return shortage.awaitingConfirmation
-        ? `${within}: a release already asks for it; get it confirmed and shipped by the dates below, or resequence.`
+        ? `${within}: a release already asks for it; get it confirmed to arrive by the dates below, or resequence.`
         : `${within}: expedite by the dates below, or resequence.`;
     }
   }

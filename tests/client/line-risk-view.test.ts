@@ -527,7 +527,7 @@ describe('line-risk wording', () => {
     );
     expect(awaitingNote(asked(18, ['R-000123']))).toBe('18 pcs asked for on R-000123, not yet confirmed');
     expect(actionSentence(asked(18, ['R-000123']))).toBe(
-      'Short inside the lead time of 7 working days: a release already asks for it; get it confirmed and shipped by the dates below, or resequence.',
+      'Short inside the lead time of 7 working days: a release already asks for it; get it confirmed to arrive by the dates below, or resequence.',
     );
     expect(actionSentence({ ...squeegee, awaitingConfirmation: { qty: 40, releaseNumbers: ['R-000140'] } })).toBe(
       'Already asked for on R-000140: it counts as supply once the supplier confirms it.',

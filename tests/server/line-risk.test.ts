@@ -184,13 +184,15 @@ describe('GET /api/shortages on a plant small enough to work by hand', () => {
     await releaseLineForC('draft', {});
     const twoAsked = await getShortages();
     await context.dataSource.transaction(async (manager) => {
-      await manager.update(ReleaseEntity, { number: first }, { status: 'exception' });
+      await manager.update(ReleaseEntity, { number: first }, { status: 'cancelled' });
+      await manager.update(ReleaseEntity, { number: second }, { status: 'exception' });
       await bumpPlanningVersion(manager);
     });
     const oneAsked = await getShortages();
 
     // Neither sent release is supply until confirmed: still 1 short with nothing firm. What they
-    // ask for is 10 and 10 − 3 open; the draft has not gone out. An exception is answered.
+    // ask for is 10 and 10 − 3 open; the draft has not gone out. A cancelled release asks for
+    // nothing; one the supplier answered with changes still waits for the buyer to accept them.
     expect(twoAsked.body).toHaveLength(1);
     expect(twoAsked.body[0]).toMatchObject({
       shortQty: 1,
