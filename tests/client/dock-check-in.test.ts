@@ -280,6 +280,18 @@ describe('DockCheckInDialog', () => {
     expect(lineElement('BRUSH-20').textContent).toContain('not added to usable stock');
   });
 
+  it('suggests Short again when an over count is corrected below what is expected', async () => {
+    vi.stubGlobal('fetch', overCheckFetch({ 2: overCheck({ releaseLineId: 2, orderedQty: 10, excessQty: 90 }) }));
+    await openDialog(itemWith([line(2, 'PAD-26', 10)]));
+
+    await type(countBox('PAD-26'), '100');
+    const over = discrepancyShown('PAD-26');
+    await type(countBox('PAD-26'), '5');
+
+    expect(over).toBe('Over');
+    expect(discrepancyShown('PAD-26')).toBe('Short');
+  });
+
   it('sends one receipt per counted line with its own Idempotency-Key and shows the new on-hand', async () => {
     const fetchMock = vi.fn<typeof fetch>((_input, init) => {
       const body = JSON.parse(String(init?.body)) as ReceiptRequest;
