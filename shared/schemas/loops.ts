@@ -72,7 +72,10 @@ export const kanbanLoopIdParamsSchema = z.object({ id: z.coerce.number().int().p
 export const updateKanbanLoopRequestSchema = z
   .object({
     containerQty: z.number().positive().max(1_000_000),
-    safetyFactor: z.number().min(0).max(10),
+    // A fraction of the demand over the replenishment time: 0.1 = 10 %. Above 1 (twice the demand
+    // in circulation) is far more likely a percentage typed as a whole number than a plan
+    // (common practice, no source).
+    safetyFactor: z.number().min(0).max(1, 'must be at most 1 (100 %); 0.1 = 10 %'),
     safetyDays: z.number().min(0).max(365),
     safetyUnits: z.number().min(0).max(10_000_000),
     sizingWindowDays: z.number().int().min(1).max(MAX_SIZING_WINDOW_DAYS),

@@ -387,10 +387,17 @@ describe('accepting a loop’s recommendation', () => {
     const loop = await loopOf('S');
 
     const invalid = await patchLoop(loop.id, { containerQty: 0 });
+    // A percentage typed as a whole number: 10 for 10 %.
+    const tenfold = await patchLoop(loop.id, { safetyFactor: 10 });
     const changed = await patchLoop(loop.id, { safetyUnits: 3 }, 'admin');
 
     expect(invalid.status).toBe(400);
     expect(invalid.body.error.details[0].path).toEqual(['containerQty']);
+    expect(tenfold.status).toBe(400);
+    expect(tenfold.body.error.details[0]).toMatchObject({
+      path: ['safetyFactor'],
+      message: 'must be at most 1 (100 %); 0.1 = 10 %',
+    });
     // Safety allowance in units added to the demand over T (as in Heizer & Render, "Operations
     // Management", ch. 16, from memory): N = ⌈(1 × 1 × 1.1 + 3) / 1⌉ = ⌈4.1⌉ = 5.
     expect(changed.body).toMatchObject({ safetyUnits: 3, recommendedCards: 5 });
