@@ -1,3 +1,4 @@
+import { isDeepStrictEqual } from 'node:util';
 import type { EntityManager } from 'typeorm';
 import type { Calendar, CalendarUpdate, VersionedCalendar } from '../../shared/schemas/master-data';
 import { recordAudit } from '../audit/audit.service';
@@ -51,9 +52,37 @@ async function versioned(manager: EntityManager, calendar: Calendar): Promise<Ve
   return { ...withVersion(calendar), holidayNames: await readHolidayNames(manager) };
 }
 
-/** The calendar and its holidays' names, as the audit trail keeps them. */
-function withoutVersion({ version: _version, ...calendar }: VersionedCalendar): Omit<VersionedCalendar, 'version'> {
-  return calendar;
+/** "2026-12-11 Stocktake", or the date alone for a holiday without a name. */
+function holidayWords(date: string, names: Readonly<Record<string, string>> | undefined): string {
+  const name = names?.[date];
+  return name ? `${date} ${name}` : date;
+}
+
+/**
+ * What a calendar change changed, as the audit trail keeps it: the working weekdays when they
+ * moved, and the holidays added, removed and renamed (a plant keeps dozens, so the lists whole
+ * would hide the one that changed).
+ */
+function calendarChanges(before: VersionedCalendar, after: VersionedCalendar): Record<string, unknown> {
+  const changes: Record<string, unknown> = {};
+  if (!isDeepStrictEqual(before.workingWeekdays, after.workingWeekdays)) {
+    changes.before = { workingWeekdays: before.workingWeekdays };
+    changes.after = { workingWeekdays: after.workingWeekdays };
+  }
+  const added = after.holidays.filter((date) => !before.holidays.includes(date));
+  const removed = before.holidays.filter((date) => !after.holidays.includes(date));
+  const renamed = after.holidays.filter(
+    (date) =>
+      before.holidays.includes(date) && (before.holidayNames?.[date] ?? '') !== (after.holidayNames?.[date] ?? ''),
+  );
+  if (added.length > 0) changes.holidaysAdded = added.map((date) => holidayWords(date, after.holidayNames));
+  if (removed.length > 0) changes.holidaysRemoved = removed.map((date) => holidayWords(date, before.holidayNames));
+  if (renamed.length > 0) {
+    changes.holidaysRenamed = renamed.map(
+      (date) => `${date}: ${before.holidayNames?.[date] || '—'} → ${after.holidayNames?.[date] || '—'}`,
+    );
+  }
+  return changes;
 }
 
 export class CalendarService {
@@ -82,7 +111,7 @@ export class CalendarService {
         action: 'update',
         entity: 'calendar',
         entityKey: 'plant',
-        changes: { before: withoutVersion(before), after: withoutVersion(after) },
+        changes: calendarChanges(before, after),
       });
       return after;
     });

@@ -54,8 +54,18 @@ describe('holiday names in the plant calendar', () => {
 
     expect(response.status).toBe(200);
     expect(response.body.holidayNames).toEqual({ '2030-12-25': 'Year end', '2030-12-27': 'Stocktake' });
+    // The trail names what changed, not the whole calendar before and after.
     const audit = await request(context.app).get('/api/audit').set(bearer(context.tokens.admin));
-    expect(JSON.stringify(audit.body)).toContain('Stocktake');
+    const entry = audit.body.events.find(
+      (event: { changes: Record<string, unknown> | null }) => event.changes && 'holidaysAdded' in event.changes,
+    );
+    expect(entry.changes).toEqual({
+      holidaysAdded: ['2030-12-30'],
+      holidaysRenamed: ['2030-12-25: Plant shutdown: year end → Year end', '2030-12-27: — → Stocktake'],
+    });
+    expect(entry.summary).toBe(
+      'holidays added: 2030-12-30; holidays renamed: 2030-12-25: Plant shutdown: year end → Year end, 2030-12-27: — → Stocktake',
+    );
   });
 
   it('refuses a name for a day that is no holiday, or one too long, and changes nothing', async () => {
