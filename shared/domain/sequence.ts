@@ -63,6 +63,8 @@ export interface PlannedMove {
   changedDates: string[];
   /** Why the move cannot be saved (it would shift a built unit or carry off a started one), or null. */
   problem: string | null;
+  /** The target day's load past its capacity, which the server refuses as it does; null while it fits. */
+  overCapacity: { date: string; load: number; capacity: number } | null;
 }
 
 /** The first unit the new day orders would change against its status, as unitChangeProblem words it. */
@@ -112,6 +114,7 @@ export function planMove(
       orders,
       changedDates: [toDate],
       problem: ordersProblem(days, orders),
+      overCapacity: null,
     };
   }
   // The target first: it is what the planner aimed at; the server takes both at once anyway.
@@ -127,7 +130,16 @@ export function planMove(
     orders,
     changedDates: [toDate, from.date],
     problem: ordersProblem(days, orders),
+    overCapacity: overCapacityOf(to, dayLoad(to.units) + (from.units.find((unit) => unit.serial === serial)?.qty ?? 0)),
   };
+}
+
+/** A day that would hold `load` units past its capacity (the server's rule: a change may not fill a day past it). */
+function overCapacityOf(day: SequenceDay, load: number): PlannedMove['overCapacity'] {
+  const capacity = day.capacity;
+  return typeof capacity === 'number' && load > capacity && load > dayLoad(day.units)
+    ? { date: day.date, load, capacity }
+    : null;
 }
 
 /** A day given a new order of (known) units: positions renumbered 1..n and the load recounted. */

@@ -7,6 +7,7 @@ import type { SessionUser } from '@shared/schemas/user';
 import type { LineRiskInput } from '@shared/domain/line-risk';
 import { planMove } from '@shared/domain/sequence';
 import SequenceView from '@/views/SequenceView.vue';
+import { formatDay } from '@/format';
 import { useSequenceRiskStore } from '@/stores/sequence-risk';
 
 const FROZEN = '2026-12-01';
@@ -18,14 +19,14 @@ function unit(serial: string, model: string, date: string, sequence: number): Se
   return { id: Number(serial.slice(1)), date, sequence, model, serial, qty: 1, status: 'planned', builtAt: null };
 }
 
-function day(date: string, units: [string, string][], overrides: Partial<SequenceDay> = {}): SequenceDay {
+function day(date: string, units: [string, string][], overrides: Partial<SequenceDay> = {}, capacity = 3): SequenceDay {
   const list = units.map(([serial, model], index) => unit(serial, model, date, index + 1));
   return {
     date,
     working: true,
     frozen: false,
     past: false,
-    capacity: 3,
+    capacity,
     load: list.length,
     units: list,
     version: `v-${date}`,
@@ -33,15 +34,18 @@ function day(date: string, units: [string, string][], overrides: Partial<Sequenc
   };
 }
 
-/** A board with capacity 3: one frozen day, one full, one with room, one over capacity. */
-function boardOf(): SequenceBoard {
+/**
+ * A board with capacity 3: one frozen day, one full, one with room, one over capacity. With a
+ * larger capacity every day has room, for moves the board itself would refuse onto a full day.
+ */
+function boardOf(capacity = 3): SequenceBoard {
   return {
     from: FROZEN,
     to: OVER,
     today: FROZEN,
     frozenUntil: FROZEN,
     frozenWindowDays: 1,
-    dailyCapacity: 3,
+    dailyCapacity: capacity,
     models: [
       { partNumber: 'M-A', description: 'Model A' },
       { partNumber: 'M-B', description: 'Model B' },
@@ -54,19 +58,30 @@ function boardOf(): SequenceBoard {
           ['S2', 'M-B'],
         ],
         { frozen: true },
+        capacity,
       ),
-      day(FULL, [
-        ['S3', 'M-A'],
-        ['S4', 'M-A'],
-        ['S5', 'M-B'],
-      ]),
-      day(OPEN, [['S6', 'M-B']]),
-      day(OVER, [
-        ['S7', 'M-A'],
-        ['S8', 'M-B'],
-        ['S9', 'M-A'],
-        ['S10', 'M-B'],
-      ]),
+      day(
+        FULL,
+        [
+          ['S3', 'M-A'],
+          ['S4', 'M-A'],
+          ['S5', 'M-B'],
+        ],
+        {},
+        capacity,
+      ),
+      day(OPEN, [['S6', 'M-B']], {}, capacity),
+      day(
+        OVER,
+        [
+          ['S7', 'M-A'],
+          ['S8', 'M-B'],
+          ['S9', 'M-A'],
+          ['S10', 'M-B'],
+        ],
+        {},
+        capacity,
+      ),
     ],
   };
 }
@@ -114,8 +129,8 @@ function engineInputOf(board: SequenceBoard): LineRiskInput {
 type Answer = (init: RequestInit | undefined) => Response;
 
 /** Answers `METHOD /api/path`; PUT /api/sequence/days echoes the new orders unless told otherwise. */
-function stubApi(answers: Record<string, Answer> = {}) {
-  const board = boardOf();
+function stubApi(answers: Record<string, Answer> = {}, capacity = 3) {
+  const board = boardOf(capacity);
   const defaults: Record<string, Answer> = {
     'GET /api/sequence': () => jsonResponse(200, board),
     'GET /api/line-risk/engine-input': () => jsonResponse(200, engineInputOf(board)),
@@ -343,11 +358,33 @@ describe('SequenceView', () => {
     expect(serialsOn(wrapper, FROZEN)).toEqual(['S2', 'S1']);
   });
 
-  it('puts the days back and says why when the server refuses a move', async () => {
-    const reason = 'Fri 4 Dec would hold 4 units, over the daily capacity of 3.';
-    stubApi({
-      'PUT /api/sequence/days': () => jsonResponse(409, { error: { code: 'over_capacity', message: reason } }),
+  it('refuses a move onto a full day before asking anything, as the server would', async () => {
+    const fetchMock = stubApi();
+    const wrapper = await openSequence();
+
+    // S6 onto Mon 7 Dec, which already holds 3 of 3.
+    wrapper.findAllComponents(draggable)[1]!.vm.$emit('change', {
+      added: { element: boardOf().days[2]!.units[0]!, newIndex: 3 },
     });
+    await flushPromises();
+
+    await waitFor(() =>
+      expect(document.body.textContent).toContain(
+        `${formatDay(FULL)} is full: it would hold 4 units, over the daily capacity of 3.`,
+      ),
+    );
+    expect(document.querySelector('[data-test="what-if-working"]')).toBeNull();
+    expect(putBodies(fetchMock)).toHaveLength(0);
+    expect(serialsOn(wrapper, FULL)).toEqual(['S3', 'S4', 'S5']);
+  });
+
+  it('puts the days back and says why when the server refuses a move', async () => {
+    // The board has room; the server's capacity was lowered meanwhile.
+    const reason = 'Fri 4 Dec would hold 4 units, over the daily capacity of 3.';
+    stubApi(
+      { 'PUT /api/sequence/days': () => jsonResponse(409, { error: { code: 'over_capacity', message: reason } }) },
+      6,
+    );
     const wrapper = await openSequence();
     const target = wrapper.findAllComponents(draggable)[1]!;
 
@@ -482,7 +519,7 @@ describe('SequenceView', () => {
   });
 
   it('opens the what-if at once, and offers to save once the effect is worked out', async () => {
-    const fetchMock = stubApi();
+    const fetchMock = stubApi({}, 6);
     const release = holdEngineInput(fetchMock);
     const wrapper = await openSequence();
     const s4 = boardOf().days[1]!.units[1]!;
@@ -504,7 +541,7 @@ describe('SequenceView', () => {
   });
 
   it('shows what a move would do before saving it, and saves nothing on Cancel', async () => {
-    const fetchMock = stubApi();
+    const fetchMock = stubApi({}, 6);
     const wrapper = await openSequence();
     const over = wrapper.findAllComponents(draggable)[3]!;
     const s4 = boardOf().days[1]!.units[1]!;

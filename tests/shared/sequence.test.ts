@@ -47,3 +47,27 @@ describe('units at the line', () => {
     expect(unitChangeProblem(unit('2026-12-07', 3, 'C', 'planned'), null)).toBeNull();
   });
 });
+
+describe('a move onto a full day', () => {
+  const withCapacity = (date: string, units: SequenceUnit[], capacity: number) =>
+    ({ date, units, capacity, load: units.length }) as unknown as SequenceDay;
+  const monday = withCapacity(
+    '2026-12-07',
+    [unit('2026-12-07', 1, 'A', 'planned'), unit('2026-12-07', 2, 'B', 'planned')],
+    2,
+  );
+  const tuesday = withCapacity('2026-12-08', [unit('2026-12-08', 1, 'C', 'planned')], 2);
+
+  it('is over capacity when it brings the day past its capacity, as the server refuses it', () => {
+    expect(planMove([monday, tuesday], 'C', '2026-12-07', 0)?.overCapacity).toEqual({
+      date: '2026-12-07',
+      load: 3,
+      capacity: 2,
+    });
+  });
+
+  it('fits while the day has room, and within one day the load does not change', () => {
+    expect(planMove([monday, tuesday], 'A', '2026-12-08', 1)?.overCapacity).toBeNull();
+    expect(planMove([monday, tuesday], 'B', '2026-12-07', 0)?.overCapacity).toBeNull();
+  });
+});
