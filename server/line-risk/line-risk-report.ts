@@ -1,4 +1,5 @@
 import { gzipSync } from 'node:zlib';
+import { roundQty } from '../../shared/domain/quantity';
 import type { LineRiskReport, ShortageDto } from '../../shared/schemas/line-risk';
 import { etagOf } from '../http/serialised-body';
 import type { AwaitingLine, PartDetails } from './line-risk-inputs';
@@ -38,7 +39,8 @@ function awaitingOf(lines: readonly AwaitingLine[]): Map<string, NonNullable<Awa
     const entry = byPart.get(line.partNumber);
     if (!entry) byPart.set(line.partNumber, { qty: line.qty, releaseNumbers: [line.releaseNumber] });
     else {
-      entry.qty += line.qty;
+      // Summed as the plan sums quantities: no float dust on the screen (0.1 + 0.2).
+      entry.qty = roundQty(entry.qty + line.qty);
       if (!entry.releaseNumbers.includes(line.releaseNumber)) entry.releaseNumbers.push(line.releaseNumber);
     }
   }

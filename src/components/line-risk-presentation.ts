@@ -43,9 +43,11 @@ function supplierWords(shortage: ShortageDto): string {
   return `${shortage.supplierCode}${shortage.supplierName ? ` (${shortage.supplierName})` : ''}`;
 }
 
+const RELEASE_LIST = new Intl.ListFormat('en', { type: 'conjunction' });
+
 /** "R-000123", "R-000123 and R-000130". */
 function releaseList(numbers: readonly string[]): string {
-  return numbers.length <= 1 ? (numbers[0] ?? '') : `${numbers.slice(0, -1).join(', ')} and ${numbers.at(-1)}`;
+  return RELEASE_LIST.format(numbers);
 }
 
 /**
